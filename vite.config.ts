@@ -1,0 +1,31 @@
+/// <reference types="vitest/config" />
+import { fileURLToPath } from "node:url";
+import { defineConfig } from "vite";
+import react from "@vitejs/plugin-react";
+import tailwindcss from "@tailwindcss/vite";
+
+const alias = {
+  "@": fileURLToPath(new URL("./src", import.meta.url)),
+  "@server": fileURLToPath(new URL("./server", import.meta.url)),
+  "@shared": fileURLToPath(new URL("./shared", import.meta.url)),
+};
+
+export default defineConfig({
+  plugins: [react(), tailwindcss()],
+  resolve: { alias },
+  server: {
+    host: "127.0.0.1",
+    port: 5173,
+    proxy: { "/api": "http://127.0.0.1:3000" },
+  },
+  build: { outDir: "dist", sourcemap: true },
+  test: {
+    reporters: process.env.CI ? ["default", ["json", { outputFile: ".data/vitest-report.json" }]] : ["default"],
+    projects: [
+      {
+        extends: true,
+        test: { name: "shared", include: ["tests/shared/**/*.test.ts"], environment: "node" },
+      },
+    ],
+  },
+});
