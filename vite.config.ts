@@ -26,6 +26,34 @@ export default defineConfig({
         extends: true,
         test: { name: "shared", include: ["tests/shared/**/*.test.ts"], environment: "node" },
       },
+      {
+        extends: true,
+        test: {
+          name: "server",
+          include: ["tests/server/**/*.test.ts"],
+          environment: "node",
+          globalSetup: ["tests/setup/global-setup.ts"],
+          setupFiles: ["tests/setup/server-setup.ts"],
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
+        },
+      },
+      {
+        extends: true,
+        test: { name: "client", include: ["tests/client/**/*.test.tsx"], environment: "jsdom" },
+      },
+      {
+        extends: true,
+        test: {
+          name: "e2e",
+          include: ["tests/e2e/**/*.test.ts"],
+          environment: "node",
+          globalSetup: ["tests/setup/e2e-setup.ts"],
+          testTimeout: 60_000,
+          hookTimeout: 120_000,
+          fileParallelism: false,
+        },
+      },
     ],
   },
 });

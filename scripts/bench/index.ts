@@ -1,0 +1,10 @@
+/** `npm run bench`: every benchmark, one after another; each prints its figures and ratios. */
+const benches: Array<{ name: string; load: () => Promise<{ run: () => unknown | Promise<unknown> }> }> = [
+  { name: "workroom planner", load: async () => ({ run: (await import("./workroom.js")).runWorkroomBench }) },
+];
+
+for (const b of benches) {
+  console.log(`\n=== ${b.name} ===`);
+  const { run } = await b.load();
+  await run();
+}

@@ -1,0 +1,29 @@
+/**
+ * Demo data: an invented 1920s coastal-village feature, "Saltmarsh Hollow", and a small stage
+ * show, "The Glass Orchard". Fixed ids and upserts make it idempotent. Each feature adds a step.
+ */
+import type { Transaction } from "sequelize";
+import { sequelize } from "../server/db.js";
+import { User } from "../server/models/index.js";
+import { seedAccounts, demoAccounts } from "./accounts.js";
+
+export { demoAccounts };
+
+/** Steps run in order, in one transaction. */
+const steps: Array<{ name: string; run: (t: Transaction) => Promise<void> }> = [
+  { name: "accounts and productions", run: seedAccounts },
+];
+
+/** Loads every demo step (idempotent). */
+export async function seedDemo(): Promise<void> {
+  await sequelize.transaction(async (transaction) => {
+    for (const step of steps) await step.run(transaction);
+  });
+}
+
+/** Loads the demo data when the database has no users yet. Returns whether it did. */
+export async function seedIfEmpty(): Promise<boolean> {
+  if ((await User.count()) > 0) return false;
+  await seedDemo();
+  return true;
+}

@@ -1,0 +1,95 @@
+import fs from "node:fs";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import express, { type Express } from "express";
+import helmet from "helmet";
+import session from "express-session";
+import connectPgSimple from "connect-pg-simple";
+import pg from "pg";
+import { pinoHttp } from "pino-http";
+import { csrfSync } from "csrf-sync";
+import { config, isProduction } from "./config.js";
+import { logger } from "./lib/logger.js";
+import { passport } from "./auth/passport.js";
+import { buildApiRouter } from "./routes/index.js";
+import { apiNotFound, errorHandler } from "./middleware/error-handler.js";
+import { HttpError } from "./errors.js";
+
+const rootDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
+
+let sessionPool: pg.Pool | undefined;
+
+/** Builds the Express app. Never listens (server/index.ts does), so tests use it with supertest. */
+export function createApp(): Express {
+  const app = express();
+  app.disable("x-powered-by");
+  if (config.TRUST_PROXY) app.set("trust proxy", 1);
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          imgSrc: ["'self'", "data:", "blob:"],
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          fontSrc: ["'self'", "data:"],
+          connectSrc: ["'self'"],
+          upgradeInsecureRequests: config.SECURE_COOKIES ? [] : null,
+        },
+      },
+      strictTransportSecurity: config.SECURE_COOKIES,
+    }),
+  );
+  if (config.NODE_ENV !== "test") app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => !req.url?.startsWith("/api") } }));
+
+  app.use(express.json({ limit: "2mb" }));
+
+  sessionPool ??= new pg.Pool({ connectionString: config.DATABASE_URL, max: 5 });
+  const PgStore = connectPgSimple(session);
+  app.use(
+    session({
+      name: "seamscene.sid",
+      store: new PgStore({ pool: sessionPool, tableName: "session", createTableIfMissing: false, pruneSessionInterval: isProduction ? 900 : false }),
+      secret: config.SESSION_SECRET,
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: { httpOnly: true, sameSite: "lax", secure: config.SECURE_COOKIES, maxAge: 14 * 86_400_000 },
+    }),
+  );
+  app.use(passport.initialize());
+  app.use(passport.session());
+
+  const { csrfSynchronisedProtection, generateToken } = csrfSync({
+    getTokenFromRequest: (req) => req.headers["x-csrf-token"] as string | undefined,
+    errorConfig: { statusCode: 403, message: "csrf token invalid", code: "EBADCSRFTOKEN" },
+  });
+  app.get("/api/auth/csrf", (req, res) => {
+    res.json({ token: generateToken(req, true) });
+  });
+  app.use("/api", (req, res, next) => {
+    csrfSynchronisedProtection(req, res, (err?: unknown) => {
+      if (err) return next(new HttpError(403, "csrf_invalid", "The security token is missing or expired; reload the page and try again."));
+      next();
+    });
+  });
+
+  app.use("/api", buildApiRouter());
+  app.use("/api", apiNotFound);
+
+  // The built client, with index.html for every other GET (client-side routes).
+  const distDir = path.join(rootDir, "dist");
+  if (fs.existsSync(path.join(distDir, "index.html"))) {
+    app.use(express.static(distDir, { index: false, maxAge: "1h" }));
+    app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(path.join(distDir, "index.html")));
+  }
+
+  app.use(errorHandler);
+  return app;
+}
+
+/** Closes the session store's pool (tests and shutdown). */
+export async function closeAppResources(): Promise<void> {
+  await sessionPool?.end();
+  sessionPool = undefined;
+}

@@ -1,0 +1,32 @@
+import passport from "passport";
+import { Strategy as LocalStrategy } from "passport-local";
+import { User } from "../models/index.js";
+import { verifyPassword } from "./passwords.js";
+
+// A fixed hash so that unknown e-mails cost the same time as wrong passwords.
+const DUMMY_HASH = "scrypt$32768$8$1$AAAAAAAAAAAAAAAAAAAAAA==$" + Buffer.alloc(64).toString("base64");
+
+passport.use(
+  new LocalStrategy({ usernameField: "email", passwordField: "password" }, async (email, password, done) => {
+    try {
+      const user = await User.findOne({ where: { email: email.trim().toLowerCase() } });
+      const ok = await verifyPassword(password, user?.passwordHash ?? DUMMY_HASH);
+      if (!user || !ok || !user.isActive) return done(null, false);
+      return done(null, user);
+    } catch (err) {
+      return done(err);
+    }
+  }),
+);
+
+passport.serializeUser((user, done) => done(null, (user as User).id));
+passport.deserializeUser(async (id: string, done) => {
+  try {
+    const user = await User.findByPk(id);
+    done(null, user && user.isActive ? user : false);
+  } catch (err) {
+    done(err);
+  }
+});
+
+export { passport };

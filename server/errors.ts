@@ -1,0 +1,24 @@
+/** An error that knows its HTTP status and stable snake_case code. Only the error handler renders it. */
+export class HttpError extends Error {
+  constructor(
+    public readonly status: number,
+    public readonly code: string,
+    message: string,
+    public readonly fields?: Record<string, string>,
+  ) {
+    super(message);
+    this.name = "HttpError";
+  }
+}
+
+export const ValidationError = (message: string, fields?: Record<string, string>) =>
+  new HttpError(400, "validation_error", message, fields);
+export const AuthenticationError = (message = "Sign in to continue.") => new HttpError(401, "authentication_required", message);
+export const ForbiddenError = (message = "Your role in this production does not allow that.") => new HttpError(403, "forbidden", message);
+export const NotFoundError = (message = "Not found.") => new HttpError(404, "not_found", message);
+export const ConflictError = (message: string, fields?: Record<string, string>) => new HttpError(409, "conflict", message, fields);
+export const PayloadTooLargeError = (message = "The file is too large.") => new HttpError(413, "payload_too_large", message);
+export const UnsupportedMediaTypeError = (message: string) => new HttpError(415, "unsupported_media_type", message);
+export const UnprocessableError = (message: string, fields?: Record<string, string>) =>
+  new HttpError(422, "unprocessable", message, fields);
+export const TooManyRequestsError = (message: string) => new HttpError(429, "too_many_requests", message);

@@ -1,0 +1,36 @@
+import type { Server } from "node:http";
+import { config } from "./config.js";
+import { createApp, closeAppResources } from "./app.js";
+import { sequelize } from "./db.js";
+import { migrate } from "./migrator.js";
+import { logger } from "./lib/logger.js";
+
+/** Migrates, then listens; closes cleanly on SIGINT/SIGTERM. */
+export async function startServer(): Promise<Server> {
+  await migrate(sequelize);
+  const app = createApp();
+  const server = app.listen(config.PORT, config.HOST);
+  await new Promise<void>((resolve, reject) => {
+    server.once("listening", () => resolve());
+    server.once("error", reject);
+  });
+  const shutdown = async () => {
+    logger.info("shutting down");
+    server.close();
+    await closeAppResources();
+    await sequelize.close();
+  };
+  process.once("SIGTERM", () => void shutdown().then(() => process.exit(0)));
+  process.once("SIGINT", () => void shutdown().then(() => process.exit(0)));
+  return server;
+}
+
+if (import.meta.url === `file://${process.argv[1]}`) {
+  startServer().then(
+    () => logger.info(`Seamscene listening on http://${config.HOST}:${config.PORT}`),
+    (err) => {
+      logger.error({ err }, "failed to start");
+      process.exit(1);
+    },
+  );
+}

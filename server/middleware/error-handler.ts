@@ -1,0 +1,74 @@
+import type { ErrorRequestHandler, RequestHandler } from "express";
+import { ZodError } from "zod";
+import { BaseError, UniqueConstraintError, ValidationError as SequelizeValidationError, ForeignKeyConstraintError, EmptyResultError, DatabaseError } from "sequelize";
+import multer from "multer";
+import { HttpError } from "../errors.js";
+import { logger } from "../lib/logger.js";
+
+function zodToHttp(err: ZodError): HttpError {
+  const fields: Record<string, string> = {};
+  for (const issue of err.issues) {
+    const key = issue.path.length ? issue.path.join(".") : "_";
+    if (!fields[key]) fields[key] = issue.message;
+  }
+  const [firstKey, firstMsg] = Object.entries(fields)[0] ?? ["_", "Invalid input"];
+  const message = firstKey === "_" ? firstMsg : `${firstKey}: ${firstMsg}`;
+  return new HttpError(400, "validation_error", message, fields);
+}
+
+function camel(s: string): string {
+  return s.replace(/_([a-z])/g, (_, c: string) => c.toUpperCase());
+}
+
+/** Maps any thrown error onto one HttpError. */
+export function toHttpError(err: unknown): HttpError {
+  if (err instanceof HttpError) return err;
+  if (err instanceof ZodError) return zodToHttp(err);
+  if (err instanceof UniqueConstraintError) {
+    const fields: Record<string, string> = {};
+    for (const e of err.errors ?? []) if (e.path) fields[camel(e.path)] = "is already in use";
+    const first = Object.keys(fields)[0];
+    return new HttpError(409, "conflict", first ? `${first}: is already in use` : "That record already exists.", fields);
+  }
+  if (err instanceof SequelizeValidationError) {
+    const fields: Record<string, string> = {};
+    for (const e of err.errors) if (e.path && !fields[e.path]) fields[e.path] = e.message;
+    const first = Object.entries(fields)[0];
+    return new HttpError(400, "validation_error", first ? `${first[0]}: ${first[1]}` : err.message, fields);
+  }
+  if (err instanceof ForeignKeyConstraintError) return new HttpError(409, "conflict", "A linked record does not exist or is still in use.");
+  if (err instanceof EmptyResultError) return new HttpError(404, "not_found", "Not found.");
+  if (err instanceof DatabaseError && (err.parent as { code?: string })?.code === "23514") {
+    return new HttpError(400, "validation_error", "A value is outside its allowed range.");
+  }
+  if (err instanceof DatabaseError && (err.parent as { code?: string })?.code === "22P02") {
+    return new HttpError(400, "validation_error", "A value has the wrong form.");
+  }
+  if (err instanceof multer.MulterError) {
+    if (err.code === "LIMIT_FILE_SIZE") return new HttpError(413, "payload_too_large", "The file is larger than the upload limit.");
+    if (err.code === "LIMIT_FILE_COUNT" || err.code === "LIMIT_UNEXPECTED_FILE")
+      return new HttpError(400, "validation_error", "Too many files or an unexpected file field.", { [err.field ?? "file"]: err.message });
+    return new HttpError(400, "validation_error", err.message);
+  }
+  const e = err as { type?: string; status?: number; expose?: boolean; message?: string };
+  if (e?.type === "entity.parse.failed") return new HttpError(400, "validation_error", "The request body is not valid JSON.");
+  if (e?.type === "entity.too.large") return new HttpError(413, "payload_too_large", "The request body is too large.");
+  if (e?.status === 403 && e?.message?.toLowerCase().includes("csrf")) return new HttpError(403, "csrf_invalid", "The form expired; reload the page and try again.");
+  if (typeof e?.status === "number" && e.status >= 400 && e.status < 500 && e.expose) return new HttpError(e.status, "bad_request", e.message ?? "Bad request.");
+  void BaseError;
+  return new HttpError(500, "internal_error", "Something went wrong on the server. The error was logged.");
+}
+
+/** The one place error responses are written. */
+export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+  const httpError = toHttpError(err);
+  if (httpError.status >= 500) logger.error({ err, url: req.originalUrl }, "request failed");
+  res.status(httpError.status).json({
+    error: { code: httpError.code, message: httpError.message, ...(httpError.fields ? { fields: httpError.fields } : {}) },
+  });
+};
+
+/** 404 for unknown API paths, in the same shape. */
+export const apiNotFound: RequestHandler = (_req, _res, next) => {
+  next(new HttpError(404, "not_found", "No such API route."));
+};

@@ -1,0 +1,407 @@
+// True-shape nesting of pattern pieces onto a strip of fabric (a marker), bottom-left fill.
+//
+// Marker frame: x runs along the fabric length (the warp, parallel to the selvages), y across the usable
+// width, 0 ≤ y ≤ usable width; the marker starts at x = 0 and its length is the largest x used.
+//
+// Grain: every copy is first turned so its grainline points along +x (a piece without a grainline is
+// taken to be drafted with its grain along its own y axis, the usual drafting habit). "straight" pieces
+// may then lie at 0° or 180° only; "bias" and "free" pieces may also lie at 90° or 270° (cross-grain),
+// because their drawn grainline does not need to follow the warp.
+// Mirrored pairs: copies 0, 2, 4… are cut as drafted and copies 1, 3, 5… as the mirror image (x → −x).
+//
+// Method: pieces go largest area first. For each copy and each allowed orientation, the feasible places
+// are the inner-fit rectangle of the strip minus the no-fit polygons (NFP) of the pieces already placed,
+// NFP(A, B) = A ⊕ (−B) computed with clipper-lib on integers; the left-most (then lowest) feasible vertex
+// wins, and the orientation whose right edge ends furthest left is kept. To keep exact touching fits
+// (a slot exactly as wide as a piece), NFPs are built from the piece shrunk by a few micrometres and the
+// strip is widened by as much; candidates are then snapped to a 0.01 mm grid, on which all piece
+// vertices lie, and accepted only after an exact clipper intersection test against their neighbours.
+// If no candidate passes, the copy goes right of everything placed, so the result never overlaps.
+import {
+  boundingBox,
+  mirrorPoints,
+  polygonArea,
+  rotatePoints,
+  signedArea,
+  type GrainMode,
+  type PanelShape,
+  type Point,
+  type Polygon,
+} from "./geometry";
+import { CLIPPER_SCALE, ClipperLib, cutLineFromSewLine, type IntPath, type IntPoint } from "./offset";
+
+/** One pattern piece to lay, with its cutting outline. */
+export interface NestPiece {
+  /** Panel id. */
+  id: string;
+  /** Display name for the marker drawing. */
+  name?: string;
+  /** The outline to lay (the cut line), mm, y up. */
+  outline: Polygon;
+  /** Grainline (two points); the piece is turned so it runs along the marker length. */
+  grainline?: readonly [Point, Point] | null;
+  /** Number of copies to cut. */
+  cutCount: number;
+  /** Every second copy is mirrored (cut in pairs). */
+  mirrored?: boolean;
+  /** Rotation freedom; default "straight" (0°/180°). */
+  grainMode?: GrainMode;
+}
+
+/** Options for {@link nestPieces}. */
+export interface NestOptions {
+  /** Usable fabric width (cloth width less selvages), mm. */
+  usableWidthMm: number;
+  /** Called after each copy is placed: done copies, total copies. */
+  onProgress?: (done: number, total: number) => void;
+}
+
+/** One placed copy of a piece. */
+export interface Placement {
+  pieceId: string;
+  name: string;
+  /** Copy number, 0-based. */
+  copy: number;
+  /** True when this copy is the mirror image (x → −x applied first). */
+  mirrored: boolean;
+  /** Counter-clockwise rotation applied after mirroring, degrees in [0, 360). */
+  rotationDeg: number;
+  /** Translation applied after rotation, mm. */
+  offset: Point;
+  /** The placed outline in marker coordinates, mm (vertices on a 0.01 mm grid). */
+  polygon: Point[];
+}
+
+/** A copy that could not be laid. */
+export interface UnplacedCopy {
+  pieceId: string;
+  copy: number;
+  reason: string;
+}
+
+/** Result of {@link nestPieces}. */
+export interface NestResult {
+  usableWidthMm: number;
+  /** Marker length: the largest x reached by any piece, mm. */
+  markerLengthMm: number;
+  /** Area of the placed pieces, mm². */
+  pieceAreaMm2: number;
+  /** Marker efficiency = piece area / (marker length × usable width), 0..1 (check-values §9). */
+  efficiency: number;
+  /** Lower bound on the marker length: total area of all copies / usable width, mm (check-values §9). */
+  lowerBoundMm: number;
+  placements: Placement[];
+  unplaced: UnplacedCopy[];
+}
+
+const S = CLIPPER_SCALE;
+/** Grid for piece vertices and positions, clipper units (10 µm). */
+const GRID = 10;
+/** Shrink of pieces for NFPs and widening of the strip, clipper units; well under GRID / 2 with the miter limit below. */
+const EPS = 2;
+/** How many candidate places to test exactly before falling back to the right-hand end. */
+const MAX_CANDIDATES = 60;
+
+interface Orientation {
+  key: string;
+  mirrored: boolean;
+  rotationDeg: number;
+  /** Shape on the grid with its bounding box's lower-left corner at (0, 0). */
+  path: IntPath;
+  /** The same shape shrunk by EPS, for NFPs. */
+  shrunk: IntPath;
+  /** Grid shift subtracted to normalise: path = round(rotated) − shift. */
+  shift: IntPoint;
+  width: number;
+  height: number;
+}
+
+interface Placed {
+  orient: Orientation;
+  t: IntPoint;
+  path: IntPath;
+  minX: number;
+  minY: number;
+  maxX: number;
+  maxY: number;
+}
+
+const snap = (v: number) => Math.round(v / GRID) * GRID;
+
+function normDeg(d: number): number {
+  const r = ((d % 360) + 360) % 360;
+  const q = Math.round(r / 90) * 90;
+  // Snap rotations that are multiples of 90° up to float noise, so rotatePoints takes its exact branch.
+  return Math.abs(r - q) < 1e-7 ? q % 360 : r;
+}
+
+function buildOrientation(piece: NestPiece, mirrored: boolean, step: number): Orientation {
+  const outline = mirrored ? mirrorPoints(piece.outline) : [...piece.outline];
+  let align = -90;
+  if (piece.grainline) {
+    const g = mirrored ? mirrorPoints(piece.grainline) : piece.grainline;
+    const dx = g[1][0] - g[0][0];
+    const dy = g[1][1] - g[0][1];
+    if (dx !== 0 || dy !== 0) align = (-Math.atan2(dy, dx) * 180) / Math.PI;
+  }
+  const rotationDeg = normDeg(align + step);
+  let rotated = rotatePoints(outline, rotationDeg);
+  if (signedArea(rotated) < 0) rotated = rotated.reverse();
+  const raw = rotated.map(([x, y]) => ({ X: snap(x * S), Y: snap(y * S) }));
+  const minX = Math.min(...raw.map((p) => p.X));
+  const minY = Math.min(...raw.map((p) => p.Y));
+  const path = ClipperLib.Clipper.CleanPolygons(
+    [raw.map((p) => ({ X: p.X - minX, Y: p.Y - minY }))],
+    0.5,
+  )[0];
+  const co = new ClipperLib.ClipperOffset(1.5, 0.25);
+  co.AddPath(path, ClipperLib.JoinType.jtMiter, ClipperLib.EndType.etClosedPolygon);
+  const shrunkAll: IntPath[] = [];
+  co.Execute(shrunkAll, -EPS);
+  // A sliver narrower than 2·EPS could vanish; then the unshrunk shape is the safe choice.
+  const shrunk = shrunkAll.length === 1 ? shrunkAll[0] : path;
+  const maxX = Math.max(...path.map((p) => p.X));
+  const maxY = Math.max(...path.map((p) => p.Y));
+  return {
+    key: `${piece.id}|${mirrored ? "m" : "n"}|${step}`,
+    mirrored,
+    rotationDeg,
+    path,
+    shrunk,
+    shift: { X: minX, Y: minY },
+    width: maxX,
+    height: maxY,
+  };
+}
+
+function translate(path: IntPath, t: IntPoint): IntPath {
+  return path.map((p) => ({ X: p.X + t.X, Y: p.Y + t.Y }));
+}
+
+/** NFP of fixed shape A (at the origin) and moving shape B: the positions of B's origin where B overlaps A. */
+function noFitPolygon(a: IntPath, b: IntPath): IntPath[] {
+  const negB = b.map((p) => ({ X: -p.X, Y: -p.Y }));
+  // A ⊕ (−B) = (∂A ⊕ ∂(−B)) ∪ (A − b₀) ∪ (a₀ − B): the edge sweep misses places where one piece lies wholly inside the other.
+  const quads = (ClipperLib.Clipper as unknown as { Minkowski(p: IntPath, q: IntPath, sum: boolean, closed: boolean): IntPath[] }).Minkowski(
+    negB,
+    a,
+    true,
+    true,
+  );
+  const c = new ClipperLib.Clipper();
+  c.AddPaths(quads, ClipperLib.PolyType.ptSubject, true);
+  c.AddPath(translate(a, negB[0]), ClipperLib.PolyType.ptSubject, true);
+  c.AddPath(translate(negB, a[0]), ClipperLib.PolyType.ptSubject, true);
+  const out: IntPath[] = [];
+  c.Execute(ClipperLib.ClipType.ctUnion, out, ClipperLib.PolyFillType.pftNonZero, ClipperLib.PolyFillType.pftNonZero);
+  return out;
+}
+
+function overlapArea(a: IntPath, b: IntPath): number {
+  const c = new ClipperLib.Clipper();
+  c.AddPath(a, ClipperLib.PolyType.ptSubject, true);
+  c.AddPath(b, ClipperLib.PolyType.ptClip, true);
+  const out: IntPath[] = [];
+  c.Execute(ClipperLib.ClipType.ctIntersection, out, ClipperLib.PolyFillType.pftNonZero, ClipperLib.PolyFillType.pftNonZero);
+  return out.reduce((s, p) => s + Math.abs(ClipperLib.Clipper.Area(p)), 0);
+}
+
+function fitsWithoutOverlap(o: Orientation, t: IntPoint, placed: Placed[]): boolean {
+  const minX = t.X;
+  const minY = t.Y;
+  const maxX = t.X + o.width;
+  const maxY = t.Y + o.height;
+  let moved: IntPath | null = null;
+  for (const p of placed) {
+    if (p.maxX <= minX || p.minX >= maxX || p.maxY <= minY || p.minY >= maxY) continue;
+    moved ??= translate(o.path, t);
+    // Touching pieces meet on shared grid edges and give zero area; anything above half a grid cell is overlap.
+    if (overlapArea(moved, p.path) > (GRID * GRID) / 2) return false;
+  }
+  return true;
+}
+
+/** Best place for one orientation: its translation, or the right-hand fallback. */
+function placeOrientation(
+  o: Orientation,
+  placed: Placed[],
+  widthUnits: number,
+  rightEdge: number,
+  nfpCache: Map<string, IntPath[]>,
+): IntPoint {
+  const tyMax = widthUnits - o.height;
+  if (placed.length === 0) return { X: 0, Y: 0 };
+  const fallback = { X: rightEdge, Y: 0 };
+  const clips: IntPath[] = [];
+  for (const p of placed) {
+    const key = `${p.orient.key}>${o.key}`;
+    let nfp = nfpCache.get(key);
+    if (!nfp) {
+      nfp = noFitPolygon(p.orient.path, o.shrunk);
+      nfpCache.set(key, nfp);
+    }
+    for (const part of nfp) clips.push(translate(part, p.t));
+  }
+  const ifr: IntPath = [
+    { X: -EPS, Y: -EPS },
+    { X: rightEdge + EPS, Y: -EPS },
+    { X: rightEdge + EPS, Y: tyMax + EPS },
+    { X: -EPS, Y: tyMax + EPS },
+  ];
+  const c = new ClipperLib.Clipper();
+  c.AddPath(ifr, ClipperLib.PolyType.ptSubject, true);
+  c.AddPaths(clips, ClipperLib.PolyType.ptClip, true);
+  const free: IntPath[] = [];
+  c.Execute(ClipperLib.ClipType.ctDifference, free, ClipperLib.PolyFillType.pftNonZero, ClipperLib.PolyFillType.pftNonZero);
+  const seen = new Set<string>();
+  const candidates: IntPoint[] = [];
+  for (const path of free) {
+    for (const v of path) {
+      const X = Math.max(0, Math.min(rightEdge, snap(v.X)));
+      const Y = Math.max(0, Math.min(tyMax, snap(v.Y)));
+      const k = `${X},${Y}`;
+      if (seen.has(k)) continue;
+      seen.add(k);
+      candidates.push({ X, Y });
+    }
+  }
+  candidates.sort((p, q) => p.X - q.X || p.Y - q.Y);
+  for (const cand of candidates.slice(0, MAX_CANDIDATES)) {
+    if (cand.X >= rightEdge) break;
+    if (fitsWithoutOverlap(o, cand, placed)) return cand;
+  }
+  return fallback;
+}
+
+/** Expands pieces into copies, largest area first (stable by input order). */
+function copiesOf(pieces: readonly NestPiece[]): { piece: NestPiece; copy: number; area: number; order: number }[] {
+  const list: { piece: NestPiece; copy: number; area: number; order: number }[] = [];
+  pieces.forEach((piece, order) => {
+    const area = polygonArea(piece.outline);
+    for (let copy = 0; copy < piece.cutCount; copy++) list.push({ piece, copy, area, order });
+  });
+  return list.sort((a, b) => b.area - a.area || a.order - b.order || a.copy - b.copy);
+}
+
+/**
+ * Lays all copies of the pieces on a strip of the given usable width by bottom-left fill with
+ * no-fit polygons; placed outlines never overlap and stay within 0 ≤ y ≤ width.
+ */
+export function nestPieces(pieces: readonly NestPiece[], options: NestOptions): NestResult {
+  const W = options.usableWidthMm;
+  if (!(W > 0)) throw new Error("usable width must be positive");
+  const widthUnits = Math.floor((W * S) / GRID) * GRID;
+  const copies = copiesOf(pieces);
+  const total = copies.length;
+  const lowerBoundMm = copies.reduce((s, c) => s + c.area, 0) / W;
+  const orientCache = new Map<string, Orientation>();
+  const nfpCache = new Map<string, IntPath[]>();
+  const placed: Placed[] = [];
+  const placements: Placement[] = [];
+  const unplaced: UnplacedCopy[] = [];
+  let rightEdge = 0;
+  options.onProgress?.(0, total);
+
+  copies.forEach(({ piece, copy }, index) => {
+    const mirrored = Boolean(piece.mirrored) && copy % 2 === 1;
+    const steps = (piece.grainMode ?? "straight") === "straight" ? [0, 180] : [0, 90, 180, 270];
+    let best: { o: Orientation; t: IntPoint; score: [number, number, number] } | null = null;
+    for (const step of steps) {
+      const key = `${piece.id}|${mirrored ? "m" : "n"}|${step}`;
+      let o = orientCache.get(key);
+      if (!o) {
+        o = buildOrientation(piece, mirrored, step);
+        orientCache.set(key, o);
+      }
+      if (o.height > widthUnits) continue;
+      const t = placeOrientation(o, placed, widthUnits, rightEdge, nfpCache);
+      // Prefer the orientation whose right edge stays furthest left, then the lowest, then the narrowest.
+      const score: [number, number, number] = [t.X + o.width, t.Y, o.width];
+      if (
+        !best ||
+        score[0] < best.score[0] ||
+        (score[0] === best.score[0] && (score[1] < best.score[1] || (score[1] === best.score[1] && score[2] < best.score[2])))
+      ) {
+        best = { o, t, score };
+      }
+    }
+    if (!best) {
+      unplaced.push({ pieceId: piece.id, copy, reason: `wider than the usable width ${W} mm in every allowed orientation` });
+    } else {
+      const { o, t } = best;
+      const path = translate(o.path, t);
+      placed.push({ orient: o, t, path, minX: t.X, minY: t.Y, maxX: t.X + o.width, maxY: t.Y + o.height });
+      rightEdge = Math.max(rightEdge, t.X + o.width);
+      placements.push({
+        pieceId: piece.id,
+        name: piece.name ?? piece.id,
+        copy,
+        mirrored: o.mirrored,
+        rotationDeg: o.rotationDeg,
+        offset: [(t.X - o.shift.X) / S, (t.Y - o.shift.Y) / S],
+        polygon: path.map((p) => [p.X / S, p.Y / S] as Point),
+      });
+    }
+    options.onProgress?.(index + 1, total);
+  });
+
+  const markerLengthMm = placements.length ? Math.max(...placements.map((p) => boundingBox(p.polygon).maxX)) : 0;
+  const pieceAreaMm2 = placements.reduce((s, p) => s + polygonArea(p.polygon), 0);
+  return {
+    usableWidthMm: W,
+    markerLengthMm,
+    pieceAreaMm2,
+    efficiency: markerLengthMm > 0 ? pieceAreaMm2 / (markerLengthMm * W) : 0,
+    lowerBoundMm,
+    placements,
+    unplaced,
+  };
+}
+
+/** A nesting piece from a panel: its sew line grown by the seam allowance (miter joins) as the cut line. */
+export function nestPieceFromPanel(panel: PanelShape): NestPiece {
+  const outline = panel.seamAllowanceMm ? cutLineFromSewLine(panel.outline, panel.seamAllowanceMm) : panel.outline;
+  return {
+    id: panel.id,
+    name: panel.name,
+    outline,
+    grainline: panel.grainline ?? null,
+    cutCount: panel.cutCount,
+    mirrored: panel.mirrored,
+    grainMode: panel.grainMode,
+  };
+}
+
+const esc = (s: string) => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
+const num = (v: number) => String(Math.round(v * 100) / 100);
+
+/** Draws a nesting result as an SVG string (mm units; marker length left to right, selvage at the bottom). */
+export function markerToSvg(result: NestResult): string {
+  const L = Math.max(result.markerLengthMm, 1);
+  const W = result.usableWidthMm;
+  const margin = 10;
+  // SVG's y runs down; flip so the marker's y = 0 edge is drawn at the bottom.
+  const fy = (y: number) => W - y;
+  const parts: string[] = [];
+  parts.push(
+    `<svg xmlns="http://www.w3.org/2000/svg" width="${num(L + 2 * margin)}mm" height="${num(W + 2 * margin + 12)}mm" viewBox="${num(-margin)} ${num(-margin - 12)} ${num(L + 2 * margin)} ${num(W + 2 * margin + 12)}">`,
+  );
+  parts.push(
+    `<text x="0" y="-4" font-size="8" font-family="sans-serif">${esc(
+      `Marker ${num(result.markerLengthMm / 10)} cm × ${num(W / 10)} cm, efficiency ${num(result.efficiency * 100)} %, lower bound ${num(result.lowerBoundMm / 10)} cm`,
+    )}</text>`,
+  );
+  parts.push(`<rect x="0" y="0" width="${num(L)}" height="${num(W)}" fill="none" stroke="#555" stroke-width="0.8" stroke-dasharray="4 2"/>`);
+  for (const p of result.placements) {
+    const d = p.polygon.map(([x, y], i) => `${i === 0 ? "M" : "L"}${num(x)} ${num(fy(y))}`).join(" ") + " Z";
+    const bb = boundingBox(p.polygon);
+    parts.push(
+      `<g data-piece="${esc(p.pieceId)}" data-copy="${p.copy}"><path d="${d}" fill="#e8e2d0" stroke="#222" stroke-width="0.5"/>` +
+        `<text x="${num((bb.minX + bb.maxX) / 2)}" y="${num(fy((bb.minY + bb.maxY) / 2))}" font-size="10" text-anchor="middle" font-family="sans-serif">${esc(
+          `${p.name}${p.mirrored ? " (M)" : ""}`,
+        )}</text></g>`,
+    );
+  }
+  parts.push("</svg>");
+  return parts.join("\n");
+}

@@ -1,0 +1,251 @@
+// Bookings: one garment copy on two characters the same day, rentals due back before their last
+// scene, and garments that are not available (workroom, cleaning, returned, lost) when needed.
+import type { GarmentRec, GarmentStatus, JsonValue, SnagDraft, SnapshotIndex } from "./types";
+import type { GroupPlan } from "./multiples";
+
+/** A garment pinned to a character on a run (shoot day, or the running order on stage). */
+export interface PinnedUse {
+  garmentId: string;
+  runId: string;
+  isShootDay: boolean;
+  characterId: string;
+  appearanceId: string;
+  sceneId: string;
+}
+
+/** Facts for a double booking: one garment, one run, two or more characters. */
+export interface DoubleBookingFacts {
+  garment: GarmentRec;
+  runId: string;
+  isShootDay: boolean;
+  runLabel: string;
+  /** Per character (sorted by id): name and the scenes/appearances. */
+  characters: { id: string; name: string; sceneNumbers: string[]; appearanceIds: string[]; sceneIds: string[] }[];
+}
+
+/** The blocking snag for a garment on two characters the same day. */
+export function doubleBookingSnag(f: DoubleBookingFacts): SnagDraft {
+  const who = f.characters.map((c) => `${c.name} (scene${c.sceneNumbers.length > 1 ? "s" : ""} ${c.sceneNumbers.join(", ")})`);
+  const evidence: { [k: string]: JsonValue } = {
+    runId: f.runId,
+    characterIds: f.characters.map((c) => c.id),
+    appearanceIds: f.characters.flatMap((c) => c.appearanceIds).sort(),
+  };
+  return {
+    key: `booking:${f.garment.id}:${f.runId}`,
+    kind: "booking",
+    severity: "blocking",
+    title: `${f.garment.tagCode} ${f.garment.name} booked for ${f.characters.length} characters ${f.runLabel}`,
+    explanation:
+      `${f.garment.tagCode} ${f.garment.name} is worn by ${who.join(" and ")} ${f.runLabel}; ` +
+      `one copy cannot dress ${f.characters.length} characters on the same day.`,
+    subject: {
+      garmentId: f.garment.id,
+      sceneIds: Array.from(new Set(f.characters.flatMap((c) => c.sceneIds))).sort(),
+      shootDayIds: f.isShootDay ? [f.runId] : [],
+      appearanceIds: f.characters.flatMap((c) => c.appearanceIds).sort(),
+    },
+    evidence,
+  };
+}
+
+/** Garments pinned to characters per run: direct change items (unless a continuity entry
+ * records what was worn that day) and continuity entries (film/series). */
+export function pinnedUses(ix: SnapshotIndex): PinnedUse[] {
+  const out: PinnedUse[] = [];
+  const recorded = new Set<string>();
+  const shootDayIds = new Set(ix.runs.filter((r) => r.isShootDay).map((r) => r.id));
+  if (!ix.isStage) {
+    for (const { entry, appearance } of ix.resolvedEntries) {
+      if (!shootDayIds.has(entry.shootDayId)) continue;
+      recorded.add(`${appearance.id}|${entry.shootDayId}`);
+      for (const gid of entry.garmentIds) {
+        out.push({
+          garmentId: gid,
+          runId: entry.shootDayId,
+          isShootDay: true,
+          characterId: appearance.characterId,
+          appearanceId: appearance.id,
+          sceneId: appearance.sceneId,
+        });
+      }
+    }
+  }
+  for (const run of ix.runs) {
+    for (const sceneId of run.sceneIds) {
+      for (const app of ix.appearancesByScene.get(sceneId) ?? []) {
+        if (recorded.has(`${app.id}|${run.id}`)) continue;
+        for (const item of ix.itemsByChange.get(app.changeId) ?? []) {
+          if (!item.garmentId) continue;
+          out.push({
+            garmentId: item.garmentId,
+            runId: run.id,
+            isShootDay: run.isShootDay,
+            characterId: app.characterId,
+            appearanceId: app.id,
+            sceneId,
+          });
+        }
+      }
+    }
+  }
+  return out;
+}
+
+/** Plain label for a run: "on shoot day 2026-03-04" or "in the running order (every performance)". */
+export function runLabelOf(ix: SnapshotIndex, runId: string): string {
+  const run = ix.runs.find((r) => r.id === runId);
+  if (run && run.isShootDay) return `on shoot day ${run.dates[0]}`;
+  const day = ix.snapshot.shootDays.find((d) => d.id === runId);
+  if (day) return `on shoot day ${day.date}`;
+  return "in the running order (every performance)";
+}
+
+/** Double-booking snags. */
+export function doubleBookingSnags(ix: SnapshotIndex, uses: PinnedUse[] = pinnedUses(ix)): SnagDraft[] {
+  const groups = new Map<string, Map<string, PinnedUse[]>>();
+  for (const u of uses) {
+    if (!ix.garmentsById.has(u.garmentId)) continue;
+    const k = `${u.garmentId}|${u.runId}`;
+    let m = groups.get(k);
+    if (!m) groups.set(k, (m = new Map()));
+    let list = m.get(u.characterId);
+    if (!list) m.set(u.characterId, (list = []));
+    list.push(u);
+  }
+  const labels = new Map<string, string>();
+  for (const r of ix.runs) labels.set(r.id, r.isShootDay ? `on shoot day ${r.dates[0]}` : "in the running order (every performance)");
+  const out: SnagDraft[] = [];
+  for (const m of groups.values()) {
+    if (m.size < 2) continue;
+    const charIds = Array.from(m.keys()).sort();
+    const first = m.get(charIds[0])![0];
+    out.push(
+      doubleBookingSnag({
+        garment: ix.garmentsById.get(first.garmentId)!,
+        runId: first.runId,
+        isShootDay: first.isShootDay,
+        runLabel: labels.get(first.runId) ?? runLabelOf(ix, first.runId),
+        characters: charIds.map((cid) => {
+          const uses = m.get(cid)!;
+          const sceneIds = Array.from(new Set(uses.map((u) => u.sceneId))).sort();
+          return {
+            id: cid,
+            name: ix.charactersById.get(cid)?.name ?? cid,
+            sceneIds,
+            sceneNumbers: sceneIds.map((s) => ix.scenesById.get(s)?.number ?? s),
+            appearanceIds: Array.from(new Set(uses.map((u) => u.appearanceId))).sort(),
+          };
+        }),
+      }),
+    );
+  }
+  return out;
+}
+
+/** Dates a garment is needed: pinned uses, continuity entries and planned multiples copies. */
+export function neededDates(
+  ix: SnapshotIndex,
+  plans: GroupPlan[],
+  uses: PinnedUse[] = pinnedUses(ix),
+): Map<string, string[]> {
+  const datesOfRun = new Map<string, string[]>();
+  for (const r of ix.runs) datesOfRun.set(r.id, r.dates);
+  for (const d of ix.snapshot.shootDays) if (!datesOfRun.has(d.id)) datesOfRun.set(d.id, [d.date]);
+  for (const p of ix.snapshot.performances ?? []) if (!datesOfRun.has(p.id)) datesOfRun.set(p.id, [p.date]);
+  const acc = new Map<string, Set<string>>();
+  const add = (gid: string, runId: string) => {
+    const ds = datesOfRun.get(runId);
+    if (!ds || ds.length === 0) return;
+    let s = acc.get(gid);
+    if (!s) acc.set(gid, (s = new Set()));
+    for (const d of ds) s.add(d);
+  };
+  for (const u of uses) add(u.garmentId, u.runId);
+  for (const { entry } of ix.resolvedEntries) for (const gid of entry.garmentIds) add(gid, entry.shootDayId);
+  for (const plan of plans) {
+    plan.demands.forEach((d, i) => {
+      const gid = plan.copyIds[plan.copyOf[i]];
+      if (gid) add(gid, d.runId);
+    });
+  }
+  const out = new Map<string, string[]>();
+  for (const [gid, s] of acc) out.set(gid, Array.from(s).sort());
+  return out;
+}
+
+/** Whole days from date a to date b (YYYY-MM-DD). */
+export function daysBetween(a: string, b: string): number {
+  const t = (d: string) => Date.UTC(Number(d.slice(0, 4)), Number(d.slice(5, 7)) - 1, Number(d.slice(8, 10)));
+  return Math.round((t(b) - t(a)) / 86_400_000);
+}
+
+/** The rental snag when a rented garment is due back before its last needed date, else null. */
+export function rentalSnag(g: GarmentRec, dates: string[]): SnagDraft | null {
+  if (g.source !== "rented" || !g.rentalDueDate || dates.length === 0) return null;
+  const last = dates[dates.length - 1];
+  if (last <= g.rentalDueDate) return null;
+  const after = dates.filter((d) => d > g.rentalDueDate!);
+  const late = daysBetween(g.rentalDueDate, last);
+  return {
+    key: `rental:${g.id}`,
+    kind: "rental",
+    severity: "warning",
+    title: `Rental ${g.tagCode} ${g.name} due back ${g.rentalDueDate}, needed until ${last}`,
+    explanation:
+      `${g.tagCode} ${g.name} is rented and due back on ${g.rentalDueDate}, but it is needed on ${after.length} ` +
+      `later day${after.length === 1 ? "" : "s"}, the last on ${last} (${late} day${late === 1 ? "" : "s"} after the due date). ` +
+      `Extend the rental, buy it out or plan a replacement.`,
+    subject: { garmentId: g.id },
+    evidence: { dueDate: g.rentalDueDate, lastNeeded: last, daysLate: late, datesAfterDue: after },
+  };
+}
+
+const GONE: GarmentStatus[] = ["returned", "lost"];
+const AWAY: GarmentStatus[] = ["workroom", "cleaning"];
+
+/** The availability snag for a garment not in a usable state on a day it is needed, else null. */
+export function availabilitySnag(g: GarmentRec, dates: string[], today: string): SnagDraft | null {
+  const upcoming = dates.filter((d) => d >= today);
+  if (upcoming.length === 0) return null;
+  if (GONE.includes(g.status)) {
+    return {
+      key: `availability:${g.id}`,
+      kind: "availability",
+      severity: "blocking",
+      title: `${g.tagCode} ${g.name} is ${g.status} but needed from ${upcoming[0]}`,
+      explanation:
+        `${g.tagCode} ${g.name} has status \u201c${g.status}\u201d, yet ${upcoming.length} upcoming ` +
+        `day${upcoming.length === 1 ? " needs" : "s need"} it, the first on ${upcoming[0]} and the last on ${upcoming[upcoming.length - 1]}.`,
+      subject: { garmentId: g.id },
+      evidence: { status: g.status, firstNeeded: upcoming[0], lastNeeded: upcoming[upcoming.length - 1] },
+    };
+  }
+  if (AWAY.includes(g.status) && upcoming[0] === today) {
+    return {
+      key: `availability:${g.id}`,
+      kind: "availability",
+      severity: "blocking",
+      title: `${g.tagCode} ${g.name} is in ${g.status === "workroom" ? "the workroom" : "cleaning"} and needed today`,
+      explanation: `${g.tagCode} ${g.name} has status \u201c${g.status}\u201d and is needed today, ${today}.`,
+      subject: { garmentId: g.id },
+      evidence: { status: g.status, neededOn: today },
+    };
+  }
+  return null;
+}
+
+/** All booking, rental and availability snags. */
+export function bookingSnags(ix: SnapshotIndex, plans: GroupPlan[], today: string): SnagDraft[] {
+  const uses = pinnedUses(ix);
+  const out = doubleBookingSnags(ix, uses);
+  for (const [gid, dates] of neededDates(ix, plans, uses)) {
+    const g = ix.garmentsById.get(gid);
+    if (!g) continue;
+    const r = rentalSnag(g, dates);
+    if (r) out.push(r);
+    const a = availabilitySnag(g, dates, today);
+    if (a) out.push(a);
+  }
+  return out;
+}

@@ -1,0 +1,250 @@
+// Continuity breaks, judged in story order:
+//  1. within one story day a character keeps one change unless the breakdown marks a change;
+//  2. for one garment copy the distress stage never goes down (distress is irreversible).
+import type { AppearanceRec, JsonValue, SnagDraft, SnapshotIndex } from "./types";
+import type { GroupPlan } from "./multiples";
+
+const cmpStr = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
+
+/** Facts for a change inside one story day without a marked change. */
+export interface ChangeBreakFacts {
+  characterName: string;
+  storyDay: number;
+  prev: { appearance: AppearanceRec; sceneNumber: string; changeNumber: string };
+  cur: { appearance: AppearanceRec; sceneNumber: string; changeNumber: string };
+}
+
+/** The snag for an unmarked change within one story day. */
+export function changeBreakSnag(f: ChangeBreakFacts): SnagDraft {
+  const { prev, cur } = f;
+  const evidence: { [k: string]: JsonValue } = {
+    storyDay: f.storyDay,
+    prevAppearanceId: prev.appearance.id,
+    prevChangeId: prev.appearance.changeId,
+    changeId: cur.appearance.changeId,
+  };
+  return {
+    key: `continuity:change:${cur.appearance.id}`,
+    kind: "continuity",
+    severity: "warning",
+    title: `${f.characterName}: change ${prev.changeNumber} \u2192 ${cur.changeNumber} within story day ${f.storyDay}`,
+    explanation:
+      `Story day ${f.storyDay}: ${f.characterName} wears change ${prev.changeNumber} in scene ${prev.sceneNumber} ` +
+      `and change ${cur.changeNumber} in scene ${cur.sceneNumber}, but the breakdown marks no change in scene ${cur.sceneNumber}.`,
+    subject: {
+      characterId: cur.appearance.characterId,
+      sceneIds: [prev.appearance.sceneId, cur.appearance.sceneId],
+      appearanceIds: [prev.appearance.id, cur.appearance.id],
+    },
+    evidence,
+  };
+}
+
+/** Rule 1: unmarked change within a story day, per character in story order. */
+export function changeBreakSnags(ix: SnapshotIndex): SnagDraft[] {
+  const byChar = new Map<string, { app: AppearanceRec; order: number; day: number }[]>();
+  for (const app of ix.snapshot.appearances) {
+    const sc = ix.scenesById.get(app.sceneId);
+    if (!sc) continue;
+    let list = byChar.get(app.characterId);
+    if (!list) byChar.set(app.characterId, (list = []));
+    list.push({ app, order: sc.storyOrder, day: sc.storyDay });
+  }
+  const out: SnagDraft[] = [];
+  for (const [charId, list] of byChar) {
+    list.sort((a, b) => a.order - b.order || cmpStr(a.app.sceneId, b.app.sceneId) || cmpStr(a.app.id, b.app.id));
+    const name = ix.charactersById.get(charId)?.name ?? charId;
+    for (let i = 1; i < list.length; i++) {
+      const p = list[i - 1];
+      const c = list[i];
+      if (p.day !== c.day || p.app.changeId === c.app.changeId || c.app.changeHere) continue;
+      out.push(
+        changeBreakSnag({
+          characterName: name,
+          storyDay: c.day,
+          prev: { appearance: p.app, sceneNumber: sceneNo(ix, p.app.sceneId), changeNumber: changeNo(ix, p.app.changeId) },
+          cur: { appearance: c.app, sceneNumber: sceneNo(ix, c.app.sceneId), changeNumber: changeNo(ix, c.app.changeId) },
+        }),
+      );
+    }
+  }
+  return out;
+}
+
+function sceneNo(ix: SnapshotIndex, id: string): string {
+  return ix.scenesById.get(id)?.number ?? id;
+}
+function changeNo(ix: SnapshotIndex, id: string): string {
+  const c = ix.changesById.get(id);
+  return c ? String(c.number) : id;
+}
+
+/** One known or planned wearing of a garment copy. */
+export interface CopyRecord {
+  /** Garment id, or `${groupId}#${copy}` for a planned copy the group does not hold yet. */
+  copyId: string;
+  garmentId: string | null;
+  groupId: string | null;
+  /** `entry:<id>` for a continuity entry, `app:<id>` for a planned use. */
+  recordId: string;
+  appearanceId: string;
+  characterId: string;
+  sceneId: string;
+  storyOrder: number;
+  /** Tie-break inside one scene: the date it was shot ("" when planned). */
+  date: string;
+  stage: number;
+}
+
+/** Order records of one copy in story order (then date, then record id). */
+export function compareRecords(a: CopyRecord, b: CopyRecord): number {
+  return a.storyOrder - b.storyOrder || cmpStr(a.sceneId, b.sceneId) || cmpStr(a.date, b.date) || cmpStr(a.recordId, b.recordId);
+}
+
+/** The snag for a copy whose distress goes down in story order. */
+export function distressBreakSnag(
+  prev: CopyRecord,
+  cur: CopyRecord,
+  copyLabel: string,
+  sceneNumber: (id: string) => string,
+): SnagDraft {
+  const evidence: { [k: string]: JsonValue } = {
+    copyId: cur.copyId,
+    from: { recordId: prev.recordId, sceneId: prev.sceneId, stage: prev.stage },
+    to: { recordId: cur.recordId, sceneId: cur.sceneId, stage: cur.stage },
+  };
+  return {
+    key: `continuity:distress:${cur.copyId}:${prev.recordId}:${cur.recordId}`,
+    kind: "continuity",
+    severity: "warning",
+    title: `${copyLabel}: distress goes back from stage ${prev.stage} to ${cur.stage}`,
+    explanation:
+      `In story order ${copyLabel} is at distress stage ${prev.stage} in scene ${sceneNumber(prev.sceneId)} ` +
+      `and at stage ${cur.stage} in scene ${sceneNumber(cur.sceneId)}, later in the story; distress cannot be undone, ` +
+      `so the later scene needs another copy or the breakdown needs a change.`,
+    subject: {
+      characterId: cur.characterId,
+      ...(cur.garmentId ? { garmentId: cur.garmentId } : {}),
+      ...(cur.groupId ? { groupId: cur.groupId } : {}),
+      sceneIds: [prev.sceneId, cur.sceneId],
+      appearanceIds: [prev.appearanceId, cur.appearanceId],
+    },
+    evidence,
+  };
+}
+
+/** Label for a copy in plain words ("J-014 Tweed jacket" or "copy #3 of “Hero coat”"). */
+export function copyLabelOf(ix: SnapshotIndex, r: CopyRecord): string {
+  if (r.garmentId) {
+    const g = ix.garmentsById.get(r.garmentId);
+    if (g) return `${g.tagCode} ${g.name}`;
+  }
+  if (r.groupId) {
+    const name = ix.groupsById.get(r.groupId)?.name ?? r.groupId;
+    return `copy #${r.copyId.slice(r.copyId.lastIndexOf("#") + 1)} of \u201c${name}\u201d`;
+  }
+  return r.copyId;
+}
+
+/** All copy records: continuity entries first-hand; otherwise direct change items and the multiples plan. */
+export function copyRecords(ix: SnapshotIndex, plans: GroupPlan[]): CopyRecord[] {
+  const out: CopyRecord[] = [];
+  const seen = new Set<string>();
+  const push = (r: CopyRecord) => {
+    const k = `${r.copyId}|${r.recordId}`;
+    if (seen.has(k)) return;
+    seen.add(k);
+    out.push(r);
+  };
+  const dateOfRun = new Map<string, string>();
+  for (const d of ix.snapshot.shootDays) dateOfRun.set(d.id, d.date);
+  for (const p of ix.snapshot.performances ?? []) dateOfRun.set(p.id, p.date);
+  for (const { entry, appearance } of ix.resolvedEntries) {
+    const sc = ix.scenesById.get(appearance.sceneId);
+    if (!sc) continue;
+    for (const gid of entry.garmentIds) {
+      const g = ix.garmentsById.get(gid);
+      push({
+        copyId: gid,
+        garmentId: gid,
+        groupId: g?.multiplesGroupId ?? null,
+        recordId: `entry:${entry.id}`,
+        appearanceId: appearance.id,
+        characterId: appearance.characterId,
+        sceneId: appearance.sceneId,
+        storyOrder: sc.storyOrder,
+        date: dateOfRun.get(entry.shootDayId) ?? "",
+        stage: entry.distressStage ?? appearance.distressStage,
+      });
+    }
+  }
+  for (const app of ix.snapshot.appearances) {
+    if (ix.appearancesWithEntries.has(app.id)) continue;
+    const sc = ix.scenesById.get(app.sceneId);
+    if (!sc) continue;
+    for (const item of ix.itemsByChange.get(app.changeId) ?? []) {
+      if (!item.garmentId) continue;
+      const g = ix.garmentsById.get(item.garmentId);
+      push({
+        copyId: item.garmentId,
+        garmentId: item.garmentId,
+        groupId: g?.multiplesGroupId ?? null,
+        recordId: `app:${app.id}`,
+        appearanceId: app.id,
+        characterId: app.characterId,
+        sceneId: app.sceneId,
+        storyOrder: sc.storyOrder,
+        date: "",
+        stage: app.distressStage,
+      });
+    }
+  }
+  for (const plan of plans) {
+    plan.demands.forEach((d, i) => {
+      if (ix.appearancesWithEntries.has(d.appearanceId)) return;
+      const sc = ix.scenesById.get(d.sceneId);
+      if (!sc) return;
+      const c = plan.copyOf[i];
+      const garmentId = plan.copyIds[c] ?? null;
+      push({
+        copyId: garmentId ?? `${plan.groupId}#${c + 1}`,
+        garmentId,
+        groupId: plan.groupId,
+        recordId: `app:${d.appearanceId}`,
+        appearanceId: d.appearanceId,
+        characterId: d.characterId,
+        sceneId: d.sceneId,
+        storyOrder: sc.storyOrder,
+        date: "",
+        stage: d.level,
+      });
+    });
+  }
+  return out;
+}
+
+/** Rule 2: distress going down in story order for one copy. */
+export function distressBreakSnags(ix: SnapshotIndex, plans: GroupPlan[]): SnagDraft[] {
+  const byCopy = new Map<string, CopyRecord[]>();
+  for (const r of copyRecords(ix, plans)) {
+    let list = byCopy.get(r.copyId);
+    if (!list) byCopy.set(r.copyId, (list = []));
+    list.push(r);
+  }
+  const num = (id: string) => sceneNo(ix, id);
+  const out: SnagDraft[] = [];
+  for (const list of byCopy.values()) {
+    list.sort(compareRecords);
+    for (let i = 1; i < list.length; i++) {
+      if (list[i].stage < list[i - 1].stage) {
+        out.push(distressBreakSnag(list[i - 1], list[i], copyLabelOf(ix, list[i]), num));
+      }
+    }
+  }
+  return out;
+}
+
+/** All continuity snags. */
+export function continuitySnags(ix: SnapshotIndex, plans: GroupPlan[]): SnagDraft[] {
+  return [...changeBreakSnags(ix), ...distressBreakSnags(ix, plans)];
+}

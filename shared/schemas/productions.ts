@@ -1,0 +1,58 @@
+import { z } from "zod";
+import { Limits } from "../constants.js";
+import { isoDateSchema } from "./common.js";
+import type { Role } from "../permissions.js";
+
+export const productionKinds = ["film", "series", "stage"] as const;
+export type ProductionKind = (typeof productionKinds)[number];
+export type Units = "cm" | "in";
+
+/** Per-production settings; every field optional with a documented default. */
+export const productionSettingsSchema = z.object({
+  /** Stage: flag a quick change shorter than this many minutes. */
+  quickChangeThresholdMin: z.number().min(0).max(60).optional(),
+  /** Workroom: working days between finishing an alteration and the shoot day (pressing, rack prep). */
+  bufferWorkingDays: z.number().int().min(0).max(10).optional(),
+  /** Hour (0–23, production's local time) at which evening reminders go out. */
+  reminderHour: z.number().int().min(0).max(23).optional(),
+  /** Seam length mismatch tolerance in mm. */
+  seamToleranceMm: z.number().min(0).max(50).optional(),
+});
+export type ProductionSettings = z.infer<typeof productionSettingsSchema>;
+
+export const createProductionInputSchema = z
+  .object({
+    /** Working title shown everywhere. */
+    title: z.string().trim().min(1, "is required").max(Limits.titleMax),
+    kind: z.enum(productionKinds),
+    startsOn: isoDateSchema.nullish(),
+    endsOn: isoDateSchema.nullish(),
+    /** Units the department reads measurements in; storage is always millimetres. */
+    units: z.enum(["cm", "in"]).default("cm"),
+  })
+  .refine((v) => !v.startsOn || !v.endsOn || v.endsOn >= v.startsOn, {
+    message: "must be on or after the start date",
+    path: ["endsOn"],
+  });
+export type CreateProductionInput = z.infer<typeof createProductionInputSchema>;
+
+export const updateProductionInputSchema = z.object({
+  title: z.string().trim().min(1, "is required").max(Limits.titleMax).optional(),
+  startsOn: isoDateSchema.nullish(),
+  endsOn: isoDateSchema.nullish(),
+  units: z.enum(["cm", "in"]).optional(),
+  settings: productionSettingsSchema.optional(),
+});
+export type UpdateProductionInput = z.infer<typeof updateProductionInputSchema>;
+
+export interface ProductionDto {
+  id: string;
+  title: string;
+  kind: ProductionKind;
+  startsOn: string | null;
+  endsOn: string | null;
+  units: Units;
+  settings: ProductionSettings;
+  /** The signed-in user's role in this production. */
+  role: Role;
+}

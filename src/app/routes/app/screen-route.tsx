@@ -1,0 +1,39 @@
+import { Navigate, useParams } from "react-router";
+import { screens, can, type ScreenKey } from "@shared/permissions";
+import { useCurrentProduction } from "@/hooks/use-current-production";
+import { screenComponents } from "./screens";
+import { Card } from "@/components/ui/card";
+import { PageHeader } from "@/components/ui/page";
+
+/** The first screen a role may open (vfx users land on Digital doubles). */
+export function firstScreenFor(role: Parameters<typeof can>[0]): ScreenKey {
+  return screens.find((s) => can(role, s.action))?.key ?? "today";
+}
+
+/** Renders the screen named in the URL, if the role may open it. */
+export function ScreenRoute() {
+  const { screen = "today" } = useParams();
+  const { role, productionId } = useCurrentProduction();
+  const def = screens.find((s) => s.key === screen);
+  if (!role) return null;
+  if (!def) return <Navigate to={`/p/${productionId}/${firstScreenFor(role)}`} replace />;
+  if (!can(role, def.action)) {
+    if (screen === "today") return <Navigate to={`/p/${productionId}/${firstScreenFor(role)}`} replace />;
+    return (
+      <Card>
+        <PageHeader title={def.label} />
+        <p className="text-sm text-slate">Your role in this production does not open this screen. Ask the costume supervisor if you need it.</p>
+      </Card>
+    );
+  }
+  const Component = screenComponents[def.key];
+  if (!Component) {
+    return (
+      <Card>
+        <PageHeader title={def.label} />
+        <p className="text-sm text-slate">This screen is not built yet.</p>
+      </Card>
+    );
+  }
+  return <Component />;
+}

@@ -1,0 +1,28 @@
+import { useState } from "react";
+import { useOutbox } from "../api/team";
+import { Spinner, ErrorAlert, EmptyState } from "@/components/ui/feedback";
+
+/** Messages the local SMTP fake caught (development only): invitations, resets, reminders. */
+export function Outbox({ productionId }: { productionId: string }) {
+  const q = useOutbox(productionId, true);
+  const [open, setOpen] = useState<string | null>(null);
+  if (q.isPending) return <Spinner />;
+  if (q.error) return <ErrorAlert error={q.error} title="Outbox unavailable" />;
+  if (!q.data.length) return <EmptyState title="No messages yet">Invitations and reminders sent in development appear here.</EmptyState>;
+  return (
+    <ul className="divide-y divide-chalk-200 text-sm">
+      {q.data.map((m) => (
+        <li key={m.id} className="py-2">
+          <button type="button" className="w-full text-left" aria-expanded={open === m.id} onClick={() => setOpen(open === m.id ? null : m.id)}>
+            <span className="block font-semibold text-ink-900">{m.subject || "(no subject)"}</span>
+            <span className="block text-xs text-slate">
+              to {m.recipients} · {new Date(m.receivedAt).toLocaleString()}
+              {m.attachments.length ? ` · ${m.attachments.map((a) => a.filename ?? a.contentType).join(", ")}` : ""}
+            </span>
+          </button>
+          {open === m.id && <pre className="mt-2 whitespace-pre-wrap break-words rounded bg-chalk p-3 font-sans text-xs text-ink-900">{m.textBody}</pre>}
+        </li>
+      ))}
+    </ul>
+  );
+}

@@ -1,0 +1,17 @@
+import { useQuery } from "@tanstack/react-query";
+import { useParams } from "react-router";
+import { api } from "@/lib/api-client";
+import { can, type Action } from "@shared/permissions";
+import type { ProductionDto } from "@shared/schemas/productions";
+
+/** The production in the URL with the user's role, plus a `can(action)` check for hiding actions. */
+export function useCurrentProduction() {
+  const { productionId = "" } = useParams();
+  const query = useQuery({
+    queryKey: ["productions", "detail", productionId],
+    queryFn: () => api.get<ProductionDto>(`/productions/${productionId}`),
+    enabled: Boolean(productionId),
+  });
+  const role = query.data?.role;
+  return { productionId, production: query.data, query, role, can: (action: Action) => can(role, action) };
+}
