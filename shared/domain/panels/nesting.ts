@@ -11,7 +11,7 @@
 //
 // Method: pieces go largest area first. For each copy and each allowed orientation, the feasible places
 // are the inner-fit rectangle of the strip minus the no-fit polygons (NFP) of the pieces already placed,
-// NFP(A, B) = A ⊕ (−B) computed with clipper-lib on integers; the left-most (then lowest) feasible vertex
+// NFP(A, B) = A ⊕ (−B) built from convex parts on integers and united with clipper-lib; the left-most (then lowest) feasible vertex
 // wins, and the orientation whose right edge ends furthest left is kept. To keep exact touching fits
 // (a slot exactly as wide as a piece), NFPs are built from the piece shrunk by a few micrometres and the
 // strip is widened by as much; candidates are then snapped to a 0.01 mm grid, on which all piece
@@ -28,6 +28,7 @@ import {
   type Point,
   type Polygon,
 } from "./geometry";
+import earcut from "earcut";
 import { CLIPPER_SCALE, ClipperLib, cutLineFromSewLine, type IntPath, type IntPoint } from "./offset";
 
 /** One pattern piece to lay, with its cutting outline. */
@@ -108,8 +109,10 @@ interface Orientation {
   rotationDeg: number;
   /** Shape on the grid with its bounding box's lower-left corner at (0, 0). */
   path: IntPath;
-  /** The same shape shrunk by EPS, for NFPs. */
-  shrunk: IntPath;
+  /** Convex parts of the shape, for NFPs where this shape stays put. */
+  parts: IntPath[];
+  /** Convex parts of the shape shrunk by EPS, for NFPs where this shape moves. */
+  shrunkParts: IntPath[];
   /** Grid shift subtracted to normalise: path = round(rotated) − shift. */
   shift: IntPoint;
   width: number;
@@ -167,7 +170,8 @@ function buildOrientation(piece: NestPiece, mirrored: boolean, step: number): Or
     mirrored,
     rotationDeg,
     path,
-    shrunk,
+    parts: convexParts(path),
+    shrunkParts: convexParts(shrunk),
     shift: { X: minX, Y: minY },
     width: maxX,
     height: maxY,
@@ -178,20 +182,93 @@ function translate(path: IntPath, t: IntPoint): IntPath {
   return path.map((p) => ({ X: p.X + t.X, Y: p.Y + t.Y }));
 }
 
-/** NFP of fixed shape A (at the origin) and moving shape B: the positions of B's origin where B overlaps A. */
-function noFitPolygon(a: IntPath, b: IntPath): IntPath[] {
-  const negB = b.map((p) => ({ X: -p.X, Y: -p.Y }));
-  // A ⊕ (−B) = (∂A ⊕ ∂(−B)) ∪ (A − b₀) ∪ (a₀ − B): the edge sweep misses places where one piece lies wholly inside the other.
-  const quads = (ClipperLib.Clipper as unknown as { Minkowski(p: IntPath, q: IntPath, sum: boolean, closed: boolean): IntPath[] }).Minkowski(
-    negB,
-    a,
-    true,
-    true,
-  );
+function cross(o: IntPoint, a: IntPoint, b: IntPoint): number {
+  return (a.X - o.X) * (b.Y - o.Y) - (a.Y - o.Y) * (b.X - o.X);
+}
+
+function isConvex(path: IntPath): boolean {
+  const n = path.length;
+  for (let i = 0; i < n; i++) if (cross(path[i], path[(i + 1) % n], path[(i + 2) % n]) < 0) return false;
+  return true;
+}
+
+/** Convex hull (counter-clockwise, Andrew's monotone chain); exact on integer points. */
+function convexHull(points: IntPoint[]): IntPath {
+  const pts = [...points].sort((a, b) => a.X - b.X || a.Y - b.Y);
+  if (pts.length < 3) return pts;
+  const lower: IntPoint[] = [];
+  for (const p of pts) {
+    while (lower.length >= 2 && cross(lower[lower.length - 2], lower[lower.length - 1], p) <= 0) lower.pop();
+    lower.push(p);
+  }
+  const upper: IntPoint[] = [];
+  for (let i = pts.length - 1; i >= 0; i--) {
+    const p = pts[i];
+    while (upper.length >= 2 && cross(upper[upper.length - 2], upper[upper.length - 1], p) <= 0) upper.pop();
+    upper.push(p);
+  }
+  return lower.slice(0, -1).concat(upper.slice(0, -1));
+}
+
+/**
+ * Splits a counter-clockwise simple polygon into convex parts: ear-cut triangles merged across
+ * diagonals while the union stays convex (Hertel–Mehlhorn). The parts tile the polygon exactly.
+ */
+function convexParts(path: IntPath): IntPath[] {
+  if (isConvex(path)) return [path];
+  const tris = earcut(path.flatMap((p) => [p.X, p.Y]));
+  let parts: number[][] = [];
+  for (let i = 0; i < tris.length; i += 3) {
+    const t = [tris[i], tris[i + 1], tris[i + 2]];
+    if (cross(path[t[0]], path[t[1]], path[t[2]]) < 0) t.reverse();
+    parts.push(t);
+  }
+  const convexIdx = (idx: number[]) => isConvex(idx.map((k) => path[k]));
+  let merged = true;
+  while (merged) {
+    merged = false;
+    outer: for (let i = 0; i < parts.length; i++) {
+      for (let j = i + 1; j < parts.length; j++) {
+        const a = parts[i];
+        const b = parts[j];
+        // A shared diagonal appears as (u, v) in one part and (v, u) in the other.
+        for (let ai = 0; ai < a.length; ai++) {
+          const u = a[ai];
+          const v = a[(ai + 1) % a.length];
+          const bi = b.indexOf(v);
+          if (bi < 0 || b[(bi + 1) % b.length] !== u) continue;
+          const joined = [...a.slice(0, ai + 1)];
+          for (let k = 2; k < b.length; k++) joined.push(b[(bi + k) % b.length]);
+          joined.push(...a.slice(ai + 1));
+          if (!convexIdx(joined)) continue;
+          parts[i] = joined;
+          parts = parts.filter((_, k) => k !== j);
+          merged = true;
+          break outer;
+        }
+      }
+    }
+  }
+  return parts.map((idx) => idx.map((k) => path[k]));
+}
+
+/**
+ * NFP of fixed shape A (at the origin) and moving shape B: the positions of B's origin where B
+ * overlaps A. A ⊕ (−B) is the union over convex parts of A_i ⊕ (−B_j), and the Minkowski sum of two
+ * convex polygons is the convex hull of their vertex sums, so every vertex stays an exact integer.
+ */
+function noFitPolygon(aParts: IntPath[], bParts: IntPath[]): IntPath[] {
+  const hulls: IntPath[] = [];
+  for (const a of aParts) {
+    for (const b of bParts) {
+      const sums: IntPoint[] = [];
+      for (const p of a) for (const q of b) sums.push({ X: p.X - q.X, Y: p.Y - q.Y });
+      hulls.push(convexHull(sums));
+    }
+  }
+  if (hulls.length === 1) return hulls;
   const c = new ClipperLib.Clipper();
-  c.AddPaths(quads, ClipperLib.PolyType.ptSubject, true);
-  c.AddPath(translate(a, negB[0]), ClipperLib.PolyType.ptSubject, true);
-  c.AddPath(translate(negB, a[0]), ClipperLib.PolyType.ptSubject, true);
+  c.AddPaths(hulls, ClipperLib.PolyType.ptSubject, true);
   const out: IntPath[] = [];
   c.Execute(ClipperLib.ClipType.ctUnion, out, ClipperLib.PolyFillType.pftNonZero, ClipperLib.PolyFillType.pftNonZero);
   return out;
@@ -237,7 +314,7 @@ function placeOrientation(
     const key = `${p.orient.key}>${o.key}`;
     let nfp = nfpCache.get(key);
     if (!nfp) {
-      nfp = noFitPolygon(p.orient.path, o.shrunk);
+      nfp = noFitPolygon(p.orient.parts, o.shrunkParts);
       nfpCache.set(key, nfp);
     }
     for (const part of nfp) clips.push(translate(part, p.t));

@@ -16,10 +16,17 @@ export interface PanelMesh {
 
 /** Triangulates a simple polygon (mm) into a flat mesh whose positions and UVs are in metres. */
 export function triangulatePanel(outline: Polygon): PanelMesh {
-  // Counter-clockwise input makes every earcut triangle counter-clockwise too, so normals face +z.
+  // Counter-clockwise order keeps the outline's vertex numbering consistent for callers; faces face +z.
   const ccw = toCounterClockwise(outline);
   const flat = ccw.flatMap(([x, y]) => [x, y]);
   const triangles = earcut(flat);
+  for (let i = 0; i < triangles.length; i += 3) {
+    const [a, b, c] = [ccw[triangles[i]], ccw[triangles[i + 1]], ccw[triangles[i + 2]]];
+    // Make every face counter-clockwise explicitly rather than rely on earcut's output order.
+    if ((b[0] - a[0]) * (c[1] - a[1]) - (c[0] - a[0]) * (b[1] - a[1]) < 0) {
+      [triangles[i + 1], triangles[i + 2]] = [triangles[i + 2], triangles[i + 1]];
+    }
+  }
   const positions: number[] = [];
   const uvs: number[] = [];
   for (const [x, y] of ccw) {

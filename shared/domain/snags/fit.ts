@@ -194,6 +194,8 @@ export function easeRangeFor(
 
 export type PointStatus = "fits" | "tight" | "loose";
 
+const EPS_MM = 1e-3;
+
 export interface PointFit {
   point: string;
   bodyKey: string;
@@ -247,10 +249,11 @@ export function checkFit(
     const max = lookup.range.max;
     let status: PointStatus = "fits";
     let by = 0;
-    if (ease < min) {
+    // A micrometre of slack so inch-derived limits (19.05 mm) are not missed by float rounding.
+    if (ease < min - EPS_MM) {
       status = "tight";
       by = min - ease;
-    } else if (max !== null && ease > max) {
+    } else if (max !== null && ease > max + EPS_MM) {
       status = "loose";
       by = ease - max;
     }

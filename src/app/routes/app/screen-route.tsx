@@ -1,7 +1,7 @@
-import { Navigate, useParams } from "react-router";
+import { Navigate, matchPath, useParams } from "react-router";
 import { screens, can, type ScreenKey } from "@shared/permissions";
 import { useCurrentProduction } from "@/hooks/use-current-production";
-import { screenComponents } from "./screens";
+import { screenComponents, screenSubpages } from "./screens";
 import { Card } from "@/components/ui/card";
 import { PageHeader } from "@/components/ui/page";
 
@@ -12,7 +12,7 @@ export function firstScreenFor(role: Parameters<typeof can>[0]): ScreenKey {
 
 /** Renders the screen named in the URL, if the role may open it. */
 export function ScreenRoute() {
-  const { screen = "today" } = useParams();
+  const { screen = "today", "*": rest = "" } = useParams();
   const { role, productionId } = useCurrentProduction();
   const def = screens.find((s) => s.key === screen);
   if (!role) return null;
@@ -25,6 +25,11 @@ export function ScreenRoute() {
         <p className="text-sm text-slate">Your role in this production does not open this screen. Ask the costume supervisor if you need it.</p>
       </Card>
     );
+  }
+  const sub = screenSubpages[def.key]?.find((p) => matchPath({ path: p.path, end: true }, rest));
+  if (sub) {
+    const Sub = sub.component;
+    return <Sub />;
   }
   const Component = screenComponents[def.key];
   if (!Component) {

@@ -1,0 +1,72 @@
+/**
+ * The invented demo scenario shared by every seed step, so records made by different steps link up.
+ * "Saltmarsh Hollow": a 1920s coastal-village feature; 60 scenes over 12 story days, 18 shoot days
+ * (Mon–Fri, 2026-11-30 to 2026-12-23), 10 characters, 2 stunt doubles, one digital double.
+ * All names are invented.
+ */
+import { demoId } from "./ids.js";
+
+export const SHOOT_DAY_DATES = [
+  "2026-11-30", "2026-12-01", "2026-12-02", "2026-12-03", "2026-12-04",
+  "2026-12-07", "2026-12-08", "2026-12-09", "2026-12-10", "2026-12-11",
+  "2026-12-14", "2026-12-15", "2026-12-16", "2026-12-17", "2026-12-18",
+  "2026-12-21", "2026-12-22", "2026-12-23",
+] as const;
+
+/** Performers (real-person records in the app; invented here). */
+export const performers = {
+  maud: { id: demoId("performer:maud"), name: "Rosalind Ashgrove" },
+  elias: { id: demoId("performer:elias"), name: "Corwen Blakely" },
+  jory: { id: demoId("performer:jory"), name: "Kit Lanyon" },
+  ambrose: { id: demoId("performer:ambrose"), name: "Percival Tonkin" },
+  hester: { id: demoId("performer:hester"), name: "Morwenna Strick" },
+  silas: { id: demoId("performer:silas"), name: "Garrick Vane" },
+  tamsin: { id: demoId("performer:tamsin"), name: "Ellery Nance" },
+  obadiah: { id: demoId("performer:obadiah"), name: "Lucan Pryor" },
+  lowdy: { id: demoId("performer:lowdy"), name: "Bryony Carne" },
+  pascoe: { id: demoId("performer:pascoe"), name: "Denzil Opie" },
+  eliasStunt: { id: demoId("performer:elias-stunt"), name: "Rook Hambly" },
+  silasStunt: { id: demoId("performer:silas-stunt"), name: "Talan Jewell" },
+} as const;
+
+/** Characters, each played by a performer; Elias and Silas have stunt doubles, Elias a digital double. */
+export const characters = {
+  maud: { id: demoId("character:maud"), name: "Maud Penhallow", performer: "maud" },
+  elias: { id: demoId("character:elias"), name: "Elias Marr", performer: "elias", stuntDouble: "eliasStunt" },
+  jory: { id: demoId("character:jory"), name: "Jory Penhallow", performer: "jory" },
+  ambrose: { id: demoId("character:ambrose"), name: "Reverend Ambrose Kittow", performer: "ambrose" },
+  hester: { id: demoId("character:hester"), name: "Hester Quiller", performer: "hester" },
+  silas: { id: demoId("character:silas"), name: "Captain Silas Rowe", performer: "silas", stuntDouble: "silasStunt" },
+  tamsin: { id: demoId("character:tamsin"), name: "Tamsin Rowe", performer: "tamsin" },
+  obadiah: { id: demoId("character:obadiah"), name: "Dr Obadiah Fenn", performer: "obadiah" },
+  lowdy: { id: demoId("character:lowdy"), name: "Lowdy Trevaskis", performer: "lowdy" },
+  pascoe: { id: demoId("character:pascoe"), name: "Constable Pascoe Hendra", performer: "pascoe" },
+} as const;
+
+/**
+ * Garments the breakdown's change items point at, and the conflicts the demo is built to contain.
+ * The wardrobe seed creates these ids; the breakdown seed links change items to them.
+ */
+export const keyGarments = {
+  /** Elias's keeper's jacket, fitted wool: finished chest too small for his performer → fit snag. */
+  eliasJacket: demoId("garment:elias-keeper-jacket"),
+  eliasShirt: demoId("garment:elias-shirt"),
+  eliasTrousers: demoId("garment:elias-trousers"),
+  eliasBoots: demoId("garment:elias-boots"),
+  /** Silas's storm oilskin: multiples group of 2 copies, but the shoot order needs 3 → multiples snag. */
+  silasOilskinGroup: demoId("group:silas-oilskin"),
+  /** Reverend's frock coat, rented, due back 2026-12-11 but worn on shoot day 2026-12-17 → rental snag. */
+  ambroseFrockCoat: demoId("garment:ambrose-frock-coat"),
+  maudDressDay: demoId("garment:maud-day-dress"),
+  maudShawl: demoId("garment:maud-shawl"),
+  maudMourning: demoId("garment:maud-mourning-dress"),
+} as const;
+
+/** Planned conflicts (for the snag demo; the steps that seed them keep these true). */
+export const plannedConflicts = [
+  "fit: Elias Marr's keeper's jacket is tight at the chest on Corwen Blakely",
+  "continuity: Maud Penhallow changes between scenes 18 and 19 (story day 4) with no change marked",
+  "multiples: Silas Rowe's storm oilskin needs 3 copies in shoot order (distress 2, 1, 0 on one day run) but the group holds 2",
+  "rental: the Reverend's frock coat is due back 2026-12-11 but is worn on shoot day 2026-12-17",
+  "quick change (stage): The Glass Orchard's Nell has under 2 minutes between acts in different changes",
+] as const;
