@@ -1,4 +1,4 @@
-import { Navigate, matchPath, useParams } from "react-router";
+import { Navigate, Route, Routes, useParams } from "react-router";
 import { screens, can, type ScreenKey } from "@shared/permissions";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { screenComponents, screenSubpages } from "./screens";
@@ -12,7 +12,7 @@ export function firstScreenFor(role: Parameters<typeof can>[0]): ScreenKey {
 
 /** Renders the screen named in the URL, if the role may open it. */
 export function ScreenRoute() {
-  const { screen = "today", "*": rest = "" } = useParams();
+  const { screen = "today" } = useParams();
   const { role, productionId } = useCurrentProduction();
   const def = screens.find((s) => s.key === screen);
   if (!role) return null;
@@ -26,12 +26,8 @@ export function ScreenRoute() {
       </Card>
     );
   }
-  const sub = screenSubpages[def.key]?.find((p) => matchPath({ path: p.path, end: true }, rest));
-  if (sub) {
-    const Sub = sub.component;
-    return <Sub />;
-  }
   const Component = screenComponents[def.key];
+  const subpages = screenSubpages[def.key] ?? [];
   if (!Component) {
     return (
       <Card>
@@ -40,5 +36,14 @@ export function ScreenRoute() {
       </Card>
     );
   }
-  return <Component />;
+  if (!subpages.length) return <Component />;
+  // Sub-pages registered by other features match first; their params reach useParams().
+  return (
+    <Routes>
+      {subpages.map((p) => (
+        <Route key={p.path} path={p.path} element={<p.component />} />
+      ))}
+      <Route path="*" element={<Component />} />
+    </Routes>
+  );
 }
