@@ -1,4 +1,5 @@
 /** `npm run bench`: every benchmark, one after another; each prints its figures and ratios. */
+export {};
 const benches: Array<{ name: string; load: () => Promise<{ run: () => unknown | Promise<unknown> }> }> = [
   { name: "workroom planner", load: async () => ({ run: (await import("./workroom.js")).runWorkroomBench }) },
   { name: "nesting (yardage marker)", load: async () => ({ run: (await import("./nesting.js")).runNestingBench }) },

@@ -236,7 +236,7 @@ export function distressBreakSnags(ix: SnapshotIndex, plans: GroupPlan[]): SnagD
   for (const list of byCopy.values()) {
     list.sort(compareRecords);
     for (let i = 1; i < list.length; i++) {
-      if (list[i].stage < list[i - 1].stage - 1) {
+      if (list[i].stage < list[i - 1].stage) {
         out.push(distressBreakSnag(list[i - 1], list[i], copyLabelOf(ix, list[i]), num));
       }
     }
