@@ -327,7 +327,11 @@ export function fitSnagFromFacts(f: FitFacts): SnagDraft | null {
     // Tight needs an alteration before the garment can be worn; loose is a note.
     severity: tight ? "warning" : "note",
     title: `${g.tagCode} ${g.name} on ${f.performerName}${f.asDouble ? " (double)" : ""}: ${names}`,
-    explanation: off.map((p) => describePointFit(p, g.fitIntent, g.category)).join(" "),
+    explanation:
+      off.map((p) => describePointFit(p, g.fitIntent, g.category)).join(" ") +
+      (f.asDouble && tight
+        ? " A stunt costume must leave room for movement and padding; check it with the stunt coordinator."
+        : ""),
     subject: { characterId: f.characterId, garmentId: g.id },
     evidence,
   };

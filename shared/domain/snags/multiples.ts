@@ -19,6 +19,9 @@
 // tree over ranks ("largest rank ≤ r that has a copy"), so each use costs O(log n) and every copy
 // is released at most once per use: O(n log n) overall. The tests check the count against an
 // exhaustive minimum cover for small n.
+// Stage: every performance plays the same running order, so one performance is planned (the
+// copies are reset between shows). Not modelled: a group shared by several characters may hand
+// one copy from one character to another on the same day when their scenes do not overlap.
 import type { CopyAssignment, JsonValue, SnagDraft, SnapshotIndex } from "./types";
 
 /** Indices of one longest strictly decreasing subsequence of `levels` (O(n log n)). */
@@ -333,13 +336,20 @@ export function multiplesSnagFromPlan(plan: GroupPlan, sceneNumber: (sceneId: st
   let explanation =
     `The group holds ${copies(plan.copiesHeld)} but ${plan.copiesNeeded} are needed. ` +
     `In shoot order the scenes ask for distress stages ${listNumbers(levels)}; ` +
-    `the longest strictly falling run is ${lf.map((i) => levels[i]).join(" \u2192 ")} ` +
-    `(scenes ${lf.map((i) => sceneNumber(plan.demands[i].sceneId)).join(", ")}), ` +
-    `and distress cannot be undone, so at least ${copies(lf.length)}.`;
+    (lf.length > 1
+      ? `the longest strictly falling run is ${lf.map((i) => levels[i]).join(" \u2192 ")} ` +
+        `(scenes ${lf.map((i) => sceneNumber(plan.demands[i].sceneId)).join(", ")}), ` +
+        `and distress cannot be undone, so at least ${copies(lf.length)}.`
+      : `the stages never fall, so distress alone needs ${copies(lf.length)}.`);
   if (plan.copiesNeeded > lf.length) {
     explanation +=
       ` Wet or stunt scenes (the copy is out of use for the rest of that day) and copies worn side by side` +
       ` in one scene raise this to ${plan.copiesNeeded}.`;
+  }
+  if (plan.demands.some((d) => d.outForDay)) {
+    explanation +=
+      " Wet and stunt costumes: agree drying, padding and quick-release fastenings with the stunt coordinator" +
+      " and follow local safety rules.";
   }
   explanation +=
     " Plan: " +

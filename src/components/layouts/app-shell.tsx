@@ -6,7 +6,6 @@ import { useCurrentProduction } from "@/hooks/use-current-production";
 import { paths } from "@/config/paths";
 import { cn } from "@/utils/cn";
 import { Spinner, ErrorAlert } from "@/components/ui/feedback";
-import { controlClass } from "@/components/ui/field";
 
 /** Header with production switcher and account, navigation built from the permission table. */
 export function AppShell() {
@@ -38,7 +37,7 @@ export function AppShell() {
           </label>
           <select
             id="production-switcher"
-            className={cn(controlClass, "w-auto max-w-[14rem] border-ink-700 bg-ink-700 py-1 text-chalk")}
+            className="max-w-[14rem] rounded-md border border-chalk/30 bg-ink-700 px-2 py-1 text-sm text-chalk focus:outline-none"
             value={productionId}
             onChange={(e) => {
               if (e.target.value === "__new") navigate(paths.productions.new.getHref());
