@@ -56,3 +56,14 @@ export interface ProductionDto {
   /** The signed-in user's role in this production. */
   role: Role;
 }
+
+export interface AuditEventDto {
+  id: string;
+  action: string;
+  entityType: string;
+  entityId: string | null;
+  actorName: string | null;
+  before: unknown;
+  after: unknown;
+  createdAt: string;
+}

@@ -35,7 +35,7 @@ describe("InviteForm", () => {
   });
 
   it("shows the server's field message (409 already a member) under the field", async () => {
-    const fetchMock = vi.fn(async (url: string) => {
+    const fetchMock = vi.fn(async (url: string, _init?: RequestInit) => {
       if (url === "/api/auth/csrf") return jsonResponse(200, { token: "t" });
       return jsonResponse(409, { error: { code: "conflict", message: "email: already a member", fields: { email: "is already a member of this production" } } });
     });
@@ -48,7 +48,7 @@ describe("InviteForm", () => {
 
     await waitFor(() => expect(screen.getByText("is already a member of this production")).toBeTruthy());
     const post = fetchMock.mock.calls.find(([u]) => u === "/api/productions/p1/invitations")!;
-    expect(JSON.parse((post[1] as RequestInit).body as string)).toEqual({ email: "cutter@seamscene.test", role: "cutter" });
-    expect(((post[1] as RequestInit).headers as Record<string, string>)["X-CSRF-Token"]).toBe("t");
+    expect(JSON.parse(post[1]!.body as string)).toEqual({ email: "cutter@seamscene.test", role: "cutter" });
+    expect((post[1]!.headers as Record<string, string>)["X-CSRF-Token"]).toBe("t");
   });
 });

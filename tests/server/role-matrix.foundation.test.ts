@@ -10,6 +10,7 @@ const cases: MatrixCase[] = [
   { name: "remove a member", method: "delete", path: (c) => `/api/productions/${c.productionId}/members/00000000-0000-4000-8000-000000000000`, expect: only(["supervisor"], 404) },
   { name: "list invitations", method: "get", path: (c) => `/api/productions/${c.productionId}/invitations`, expect: only(["supervisor"], 200) },
   { name: "invite", method: "post", path: (c) => `/api/productions/${c.productionId}/invitations`, body: () => ({ email: "bad" }), expect: only(["supervisor"], 400) },
+  { name: "audit trail", method: "get", path: (c) => `/api/productions/${c.productionId}/audit`, expect: only(["supervisor"], 200) },
   { name: "outbox", method: "get", path: (c) => `/api/productions/${c.productionId}/outbox`, expect: only(["supervisor"], 200) },
 ];
 

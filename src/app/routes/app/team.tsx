@@ -4,6 +4,8 @@ import { MembersTable } from "@/features/team/components/members-table";
 import { InviteForm } from "@/features/team/components/invite-form";
 import { InvitationsList } from "@/features/team/components/invitations-list";
 import { Outbox } from "@/features/team/components/outbox";
+import { AuditLog } from "@/features/team/components/audit-log";
+import { ProductionSettingsForm } from "@/features/productions/components/production-settings-form";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { PageHeader } from "@/components/ui/page";
 import { Card } from "@/components/ui/card";
@@ -27,6 +29,16 @@ export default function TeamPage() {
         <InviteForm productionId={productionId} />
         <h3 className="mt-5 mb-1 text-sm font-semibold text-ink">Invitations</h3>
         {invitations.isPending ? <Spinner /> : invitations.error ? <ErrorAlert error={invitations.error} /> : <InvitationsList productionId={productionId} invitations={invitations.data} />}
+      </Card>
+      {production && (
+        <Card>
+          <h2 className="mb-3 font-semibold text-ink">Production settings</h2>
+          <ProductionSettingsForm key={production.id} production={production} />
+        </Card>
+      )}
+      <Card>
+        <h2 className="mb-3 font-semibold text-ink">Recent changes</h2>
+        <AuditLog productionId={productionId} />
       </Card>
       <Card>
         <h2 className="mb-1 font-semibold text-ink">Outbox (development)</h2>

@@ -50,3 +50,7 @@ export function useRemoveMember(pid: string) {
     onSuccess: () => qc.invalidateQueries({ queryKey: ["members", pid] }),
   });
 }
+
+export const auditQueryOptions = (pid: string) =>
+  queryOptions({ queryKey: ["audit", pid], queryFn: () => api.get<import("@shared/schemas/productions").AuditEventDto[]>(`${base(pid)}/audit?pageSize=30`) });
+export const useAuditEvents = (pid: string) => useQuery(auditQueryOptions(pid));
