@@ -2,6 +2,7 @@
 export {};
 const benches: Array<{ name: string; load: () => Promise<{ run: () => unknown | Promise<unknown> }> }> = [
   { name: "workroom planner", load: async () => ({ run: (await import("./workroom.js")).runWorkroomBench }) },
+  { name: "snag engine", load: async () => ({ run: (await import("./snags.js")).runSnagBench }) },
   { name: "nesting (yardage marker)", load: async () => ({ run: (await import("./nesting.js")).runNestingBench }) },
 ];
 

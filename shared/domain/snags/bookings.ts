@@ -3,6 +3,8 @@
 import type { GarmentRec, GarmentStatus, JsonValue, SnagDraft, SnapshotIndex } from "./types";
 import type { GroupPlan } from "./multiples";
 
+const cmpStr = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
+
 /** A garment pinned to a character on a run (shoot day, or the running order on stage). */
 export interface PinnedUse {
   garmentId: string;
@@ -53,12 +55,14 @@ export function doubleBookingSnag(f: DoubleBookingFacts): SnagDraft {
  * records what was worn that day) and continuity entries (film/series). */
 export function pinnedUses(ix: SnapshotIndex): PinnedUse[] {
   const out: PinnedUse[] = [];
-  const recorded = new Set<string>();
+  const recorded = new Map<string, Set<string>>(); // shoot day → appearances with an entry that day
   const shootDayIds = new Set(ix.runs.filter((r) => r.isShootDay).map((r) => r.id));
   if (!ix.isStage) {
     for (const { entry, appearance } of ix.resolvedEntries) {
       if (!shootDayIds.has(entry.shootDayId)) continue;
-      recorded.add(`${appearance.id}|${entry.shootDayId}`);
+      let set = recorded.get(entry.shootDayId);
+      if (!set) recorded.set(entry.shootDayId, (set = new Set()));
+      set.add(appearance.id);
       for (const gid of entry.garmentIds) {
         out.push({
           garmentId: gid,
@@ -72,9 +76,10 @@ export function pinnedUses(ix: SnapshotIndex): PinnedUse[] {
     }
   }
   for (const run of ix.runs) {
+    const done = recorded.get(run.id);
     for (const sceneId of run.sceneIds) {
       for (const app of ix.appearancesByScene.get(sceneId) ?? []) {
-        if (recorded.has(`${app.id}|${run.id}`)) continue;
+        if (done?.has(app.id)) continue;
         for (const item of ix.itemsByChange.get(app.changeId) ?? []) {
           if (!item.garmentId) continue;
           out.push({
@@ -101,44 +106,50 @@ export function runLabelOf(ix: SnapshotIndex, runId: string): string {
   return "in the running order (every performance)";
 }
 
-/** Double-booking snags. */
+/** Double-booking snags. Uses are grouped by garment; most garments dress one character only,
+ * so only the rest are sorted by day to find days with two or more characters. */
 export function doubleBookingSnags(ix: SnapshotIndex, uses: PinnedUse[] = pinnedUses(ix)): SnagDraft[] {
-  const groups = new Map<string, Map<string, PinnedUse[]>>();
+  const byGarment = new Map<string, PinnedUse[]>();
   for (const u of uses) {
-    if (!ix.garmentsById.has(u.garmentId)) continue;
-    const k = `${u.garmentId}|${u.runId}`;
-    let m = groups.get(k);
-    if (!m) groups.set(k, (m = new Map()));
-    let list = m.get(u.characterId);
-    if (!list) m.set(u.characterId, (list = []));
+    let list = byGarment.get(u.garmentId);
+    if (!list) byGarment.set(u.garmentId, (list = []));
     list.push(u);
   }
   const labels = new Map<string, string>();
   for (const r of ix.runs) labels.set(r.id, r.isShootDay ? `on shoot day ${r.dates[0]}` : "in the running order (every performance)");
   const out: SnagDraft[] = [];
-  for (const m of groups.values()) {
-    if (m.size < 2) continue;
-    const charIds = Array.from(m.keys()).sort();
-    const first = m.get(charIds[0])![0];
-    out.push(
-      doubleBookingSnag({
-        garment: ix.garmentsById.get(first.garmentId)!,
-        runId: first.runId,
-        isShootDay: first.isShootDay,
-        runLabel: labels.get(first.runId) ?? runLabelOf(ix, first.runId),
-        characters: charIds.map((cid) => {
-          const uses = m.get(cid)!;
-          const sceneIds = Array.from(new Set(uses.map((u) => u.sceneId))).sort();
-          return {
-            id: cid,
-            name: ix.charactersById.get(cid)?.name ?? cid,
-            sceneIds,
-            sceneNumbers: sceneIds.map((s) => ix.scenesById.get(s)?.number ?? s),
-            appearanceIds: Array.from(new Set(uses.map((u) => u.appearanceId))).sort(),
-          };
-        }),
-      }),
-    );
+  for (const [garmentId, list] of byGarment) {
+    const garment = ix.garmentsById.get(garmentId);
+    if (!garment || list.every((u) => u.characterId === list[0].characterId)) continue;
+    list.sort((a, b) => cmpStr(a.runId, b.runId) || cmpStr(a.characterId, b.characterId));
+    for (let i = 0; i < list.length; ) {
+      let j = i;
+      while (j < list.length && list[j].runId === list[i].runId) j++;
+      const day = list.slice(i, j);
+      if (day[0].characterId !== day[day.length - 1].characterId) {
+        const charIds = Array.from(new Set(day.map((u) => u.characterId)));
+        out.push(
+          doubleBookingSnag({
+            garment,
+            runId: day[0].runId,
+            isShootDay: day[0].isShootDay,
+            runLabel: labels.get(day[0].runId) ?? runLabelOf(ix, day[0].runId),
+            characters: charIds.map((cid) => {
+              const mine = day.filter((u) => u.characterId === cid);
+              const sceneIds = Array.from(new Set(mine.map((u) => u.sceneId))).sort();
+              return {
+                id: cid,
+                name: ix.charactersById.get(cid)?.name ?? cid,
+                sceneIds,
+                sceneNumbers: sceneIds.map((x) => ix.scenesById.get(x)?.number ?? x),
+                appearanceIds: Array.from(new Set(mine.map((u) => u.appearanceId))).sort(),
+              };
+            }),
+          }),
+        );
+      }
+      i = j;
+    }
   }
   return out;
 }

@@ -146,14 +146,11 @@ export function copyLabelOf(ix: SnapshotIndex, r: CopyRecord): string {
   return r.copyId;
 }
 
-/** All copy records: continuity entries first-hand; otherwise direct change items and the multiples plan. */
+/** All copy records: continuity entries first-hand; otherwise direct change items and the multiples plan.
+ * A (copy, record) pair may appear more than once (same data); distressBreakSnags drops the repeats. */
 export function copyRecords(ix: SnapshotIndex, plans: GroupPlan[]): CopyRecord[] {
   const out: CopyRecord[] = [];
-  const seen = new Set<string>();
   const push = (r: CopyRecord) => {
-    const k = `${r.copyId}|${r.recordId}`;
-    if (seen.has(k)) return;
-    seen.add(k);
     out.push(r);
   };
   const dateOfRun = new Map<string, string>();
@@ -235,10 +232,12 @@ export function distressBreakSnags(ix: SnapshotIndex, plans: GroupPlan[]): SnagD
   const out: SnagDraft[] = [];
   for (const list of byCopy.values()) {
     list.sort(compareRecords);
-    for (let i = 1; i < list.length; i++) {
-      if (list[i].stage < list[i - 1].stage) {
-        out.push(distressBreakSnag(list[i - 1], list[i], copyLabelOf(ix, list[i]), num));
-      }
+    // Repeats of one record (same copy, same record id) sort next to each other and carry the same stage.
+    let prev: CopyRecord | null = null;
+    for (const cur of list) {
+      if (prev && cur.recordId === prev.recordId) continue;
+      if (prev && cur.stage < prev.stage) out.push(distressBreakSnag(prev, cur, copyLabelOf(ix, cur), num));
+      prev = cur;
     }
   }
   return out;
