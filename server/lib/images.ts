@@ -43,6 +43,7 @@ export async function makeVariants(input: string | Buffer): Promise<ImageVariant
   try {
     meta = await open(input).metadata();
   } catch (err) {
+    if ((err as Error).message?.includes("pixel limit")) throw new ImageRejectedError("too_many_pixels", `The image exceeds the ${Limits.photoMaxPixels / 1e6}-megapixel limit.`);
     throw new ImageRejectedError("not_image", `The file is not an image we can read (${(err as Error).message}).`);
   }
   if (!meta.format || !ACCEPTED_FORMATS.has(meta.format)) throw new ImageRejectedError("not_image", "The file is not a JPEG, PNG, WebP, AVIF, HEIF or TIFF image.");

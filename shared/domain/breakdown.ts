@@ -7,12 +7,14 @@ export function splitSceneNumber(n: string): { num: number; suffix: string } {
   return { num: Number(m[1]), suffix: m[2]!.toUpperCase() };
 }
 
-/** Orders scene numbers as scripts do: 41 < 42 < 42A < 42B < 43 (numeric part, then suffix). */
+/**
+ * Orders scene numbers as scripts do: 41 < 42 < 42A < 42AA < 42B < 43 (numeric part, then the
+ * suffix letter by letter, so a scene inserted between 42A and 42B reads 42AA).
+ */
 export function compareSceneNumbers(a: string, b: string): number {
   const x = splitSceneNumber(a);
   const y = splitSceneNumber(b);
   if (x.num !== y.num) return x.num < y.num ? -1 : 1;
-  if (x.suffix.length !== y.suffix.length) return x.suffix.length - y.suffix.length;
   return x.suffix < y.suffix ? -1 : x.suffix > y.suffix ? 1 : 0;
 }
 
