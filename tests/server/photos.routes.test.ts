@@ -6,7 +6,7 @@ import sharp from "sharp";
 import exifr from "exifr";
 import S3rver from "s3rver";
 import { createApp } from "../../server/app.js";
-import { Photo } from "../../server/models/index.js";
+import { Photo, Production } from "../../server/models/index.js";
 import { createDiskStorage, createS3Storage, getStorage, setStorage, type Storage } from "../../server/lib/storage.js";
 import { Limits } from "../../shared/constants.js";
 import { buildCharacter, buildMember, buildScene } from "../factories.js";
@@ -101,7 +101,7 @@ for (const [driverName, makeStorage] of drivers) {
     it("stores the same image twice only once", async () => {
       const first = await upload(fixture("gps-rotated.jpg"), "a.jpg");
       const again = await upload(fixture("gps-rotated.jpg"), "b.jpg");
-      const character = await buildCharacter({ production: (await import("../../server/models/index.js")).Production.build({ id: pid }) as never });
+      const character = await buildCharacter({ production: (await Production.findByPk(pid))! });
       const other = await upload(fixture("gps-rotated.jpg"), "c.jpg", { ownerType: "character", ownerId: character.id });
 
       expect(first.status).toBe(201);
@@ -113,7 +113,7 @@ for (const [driverName, makeStorage] of drivers) {
     });
 
     it("deleting one of two records showing an image keeps the files; deleting the last removes them", async () => {
-      const character = await buildCharacter({ production: (await import("../../server/models/index.js")).Production.build({ id: pid }) as never });
+      const character = await buildCharacter({ production: (await Production.findByPk(pid))! });
       const a = await upload(fixture("gps-rotated.jpg"), "a.jpg");
       const b = await upload(fixture("gps-rotated.jpg"), "b.jpg", { ownerType: "character", ownerId: character.id });
       const hash = a.body.data.contentHash as string;
@@ -193,7 +193,7 @@ describe("photo upload limits and owners", () => {
   });
 
   it("a set costumer may not read a performer's photos (personal data)", async () => {
-    const { user } = await buildMember("set_costumer", { production: (await import("../../server/models/index.js")).Production.build({ id: pid }) as never });
+    const { user } = await buildMember("set_costumer", { production: (await Production.findByPk(pid))! });
     const sc = await signedInAgent(app, user.email);
 
     const res = await sc.get(`/api/productions/${pid}/photos?ownerType=performer&ownerId=${sceneId}`);
