@@ -87,9 +87,11 @@ export async function describeImage(input: Buffer): Promise<{ width: number; hei
 export async function renderSwatch(opts: { width: number; height: number; background: string; label: string; sublabel?: string; format?: "jpeg" | "png" }): Promise<Buffer> {
   const esc = (s: string) => s.replace(/[&<>"]/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;" })[c]!);
   const fs = Math.round(opts.width / 14);
+  const w = (f: number) => Math.round(opts.width * f);
+  const h = (f: number) => Math.round(opts.height * f);
   const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="${opts.width}" height="${opts.height}">
   <rect width="100%" height="100%" fill="${opts.background}"/>
-  <path d="M ${opts.width * 0.35} ${opts.height * 0.2} L ${opts.width * 0.65} ${opts.height * 0.2} L ${opts.width * 0.75} ${opts.height * 0.45} L ${opts.width * 0.62} ${opts.height * 0.45} L ${opts.width * 0.62} ${opts.height * 0.85} L ${opts.width * 0.38} ${opts.height * 0.85} L ${opts.width * 0.38} ${opts.height * 0.45} L ${opts.width * 0.25} ${opts.height * 0.45} Z" fill="#F7F4EE" fill-opacity="0.35" stroke="#F7F4EE" stroke-width="${Math.max(2, opts.width / 200)}"/>
+  <path d="M ${w(0.42)} ${h(0.15)} L ${w(0.58)} ${h(0.15)} L ${w(0.75)} ${h(0.2)} L ${w(0.86)} ${h(0.6)} L ${w(0.76)} ${h(0.62)} L ${w(0.68)} ${h(0.35)} L ${w(0.68)} ${h(0.88)} L ${w(0.32)} ${h(0.88)} L ${w(0.32)} ${h(0.35)} L ${w(0.24)} ${h(0.62)} L ${w(0.14)} ${h(0.6)} L ${w(0.25)} ${h(0.2)} Z" fill="#F7F4EE" fill-opacity="0.35" stroke="#F7F4EE" stroke-width="${Math.max(2, opts.width / 200)}"/>
   <text x="50%" y="${opts.height * 0.1}" font-family="sans-serif" font-size="${fs}" fill="#F7F4EE" text-anchor="middle">${esc(opts.label)}</text>
   ${opts.sublabel ? `<text x="50%" y="${opts.height * 0.95}" font-family="sans-serif" font-size="${Math.round(fs * 0.6)}" fill="#F7F4EE" text-anchor="middle">${esc(opts.sublabel)}</text>` : ""}
 </svg>`;
