@@ -6,12 +6,18 @@ import type { Transaction } from "sequelize";
 import { sequelize } from "../server/db.js";
 import { User } from "../server/models/index.js";
 import { seedAccounts, demoAccounts } from "./accounts.js";
+import { seedBreakdown } from "./breakdown.js";
+import { seedBreakdownLinks } from "./breakdown-links.js";
 
 export { demoAccounts };
 
 /** Steps run in order, in one transaction. */
 const steps: Array<{ name: string; run: (t: Transaction) => Promise<void> }> = [
   { name: "accounts and productions", run: seedAccounts },
+  // Breakdown feature: cast, scenes, shoot days, changes, appearances.
+  { name: "breakdown", run: seedBreakdown },
+  // Breakdown feature (after wardrobe): change items → garments, continuity entries and photos.
+  { name: "breakdown links", run: seedBreakdownLinks },
 ];
 
 /** Loads every demo step (idempotent). */

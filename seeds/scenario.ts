@@ -70,3 +70,21 @@ export const plannedConflicts = [
   "rental: the Reverend's frock coat is due back 2026-12-11 but is worn on shoot day 2026-12-17",
   "quick change (stage): The Glass Orchard's Nell has under 2 minutes between acts in different changes",
 ] as const;
+
+/**
+ * Every other garment key the breakdown's change items point at (besides keyGarments). The wardrobe
+ * step creates garments with ids `demoId("garment:<key>")`; the breakdown-links step links items to
+ * those that exist.
+ */
+export const changeItemGarments = [
+  "maud-apron", "maud-oilcloth-coat", "maud-blue-dress", "maud-sunday-hat", "maud-veil",
+  "elias-storm-smock", "elias-sea-boots", "elias-sunday-suit", "elias-white-shirt",
+  "jory-guernsey", "jory-smock", "jory-guernsey-torn",
+  "ambrose-collar", "ambrose-bands",
+  "hester-shop-coat", "hester-print-dress", "hester-travelling-coat", "hester-cloche",
+  "silas-reefer-jacket", "silas-peaked-cap", "silas-souwester", "silas-sea-boots", "silas-mourning-band",
+  "tamsin-pinafore", "tamsin-boots", "tamsin-borrowed-coat",
+  "obadiah-tweed-suit",
+  "lowdy-blouse", "lowdy-skirt", "lowdy-best-blouse", "lowdy-cardigan",
+  "pascoe-tunic", "pascoe-helmet",
+] as const;

@@ -9,4 +9,22 @@ export const Limits = {
   passwordMax: 200,
   invitationDays: 7,
   passwordResetMinutes: 60,
+  /** Photo uploads: bytes per file, files per request, decoded pixels (decompression-bomb guard). */
+  photoMaxBytes: 30 * 1024 * 1024,
+  photoMaxFiles: 8,
+  photoMaxPixels: 50_000_000,
+  /** Longest edge of the stored display and thumbnail sizes. */
+  photoDisplayPx: 1600,
+  photoThumbPx: 320,
 } as const;
+
+/** Photo file types accepted for upload: extension → MIME types a browser may send for it. */
+export const photoUploadTypes: Record<string, readonly string[]> = {
+  jpg: ["image/jpeg", "image/pjpeg"],
+  jpeg: ["image/jpeg", "image/pjpeg"],
+  png: ["image/png"],
+  webp: ["image/webp"],
+  avif: ["image/avif"],
+  tif: ["image/tiff"],
+  tiff: ["image/tiff"],
+};

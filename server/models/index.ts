@@ -5,6 +5,18 @@ import { Invitation } from "./Invitation.js";
 import { PasswordReset } from "./PasswordReset.js";
 import { AuditEvent } from "./AuditEvent.js";
 import { OutboxMessage } from "./OutboxMessage.js";
+import { Performer } from "./Performer.js";
+import { Character } from "./Character.js";
+import { CharacterDouble } from "./CharacterDouble.js";
+import { Scene } from "./Scene.js";
+import { ShootDay } from "./ShootDay.js";
+import { ShootDayScene } from "./ShootDayScene.js";
+import { Change } from "./Change.js";
+import { ChangeItem } from "./ChangeItem.js";
+import { Appearance } from "./Appearance.js";
+import { Photo } from "./Photo.js";
+import { ContinuityEntry } from "./ContinuityEntry.js";
+import { ContinuityEntryGarment } from "./ContinuityEntryGarment.js";
 
 // Associations, grouped by owner.
 Membership.belongsTo(User, { as: "user", foreignKey: "userId" });
@@ -14,4 +26,14 @@ Production.hasMany(Membership, { as: "memberships", foreignKey: "productionId" }
 Invitation.belongsTo(Production, { as: "production", foreignKey: "productionId" });
 PasswordReset.belongsTo(User, { as: "user", foreignKey: "userId" });
 
+// Breakdown: cast, scenes, shoot days, changes, appearances, continuity.
+Character.belongsTo(Performer, { as: "performer", foreignKey: "performerId" });
+Character.hasMany(CharacterDouble, { as: "doubles", foreignKey: "characterId" });
+CharacterDouble.belongsTo(Performer, { as: "performer", foreignKey: "performerId" });
+ShootDay.hasMany(ShootDayScene, { as: "dayScenes", foreignKey: "shootDayId" });
+ShootDayScene.belongsTo(Scene, { as: "scene", foreignKey: "sceneId" });
+Change.hasMany(ChangeItem, { as: "items", foreignKey: "changeId" });
+ContinuityEntry.hasMany(ContinuityEntryGarment, { as: "garments", foreignKey: "continuityEntryId" });
+
 export { User, Production, Membership, Invitation, PasswordReset, AuditEvent, OutboxMessage };
+export { Performer, Character, CharacterDouble, Scene, ShootDay, ShootDayScene, Change, ChangeItem, Appearance, Photo, ContinuityEntry, ContinuityEntryGarment };

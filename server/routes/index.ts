@@ -5,6 +5,11 @@ import { authRouter, invitationsPublicRouter } from "./auth.routes.js";
 import { productionsRouter, productionRouter } from "./productions.routes.js";
 import { membersRouter, invitationsRouter, outboxRouter } from "./members.routes.js";
 import { auditRouter } from "./audit.routes.js";
+import { scenesRouter, shootDaysRouter, appearancesRouter, importsRouter } from "./breakdown.routes.js";
+import { charactersRouter, performersRouter } from "./cast.routes.js";
+import { changesRouter } from "./changes.routes.js";
+import { continuityRouter } from "./continuity.routes.js";
+import { photosRouter } from "./photos.routes.js";
 
 /** Everything under /api. Feature routers mount on `production` (one production's records). */
 export function buildApiRouter(): Router {
@@ -30,6 +35,16 @@ export function buildApiRouter(): Router {
   production.use("/invitations", invitationsRouter);
   production.use("/outbox", outboxRouter);
   production.use("/audit", auditRouter);
+  // Breakdown feature: scenes, shoot days, cast, changes, appearances, continuity, photos, imports.
+  production.use("/scenes", scenesRouter);
+  production.use("/shoot-days", shootDaysRouter);
+  production.use("/appearances", appearancesRouter);
+  production.use("/imports", importsRouter);
+  production.use("/characters", charactersRouter);
+  production.use("/performers", performersRouter);
+  production.use("/changes", changesRouter);
+  production.use("/continuity", continuityRouter);
+  production.use("/photos", photosRouter);
   production.use("/", productionRouter);
   api.use("/productions/:productionId", production);
 

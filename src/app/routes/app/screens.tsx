@@ -9,6 +9,10 @@ import type { ScreenKey } from "@shared/permissions";
 export const screenComponents: Partial<Record<ScreenKey, LazyExoticComponent<ComponentType>>> = {
   today: lazy(() => import("./today")),
   team: lazy(() => import("./team")),
+  breakdown: lazy(() => import("./breakdown")),
+  cast: lazy(() => import("./cast")),
+  changes: lazy(() => import("./changes")),
+  continuity: lazy(() => import("./continuity")),
 };
 
 /**

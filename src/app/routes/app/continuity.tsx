@@ -1,0 +1,248 @@
+import { useEffect, useMemo, useState } from "react";
+import { Link, Route, Routes, useParams } from "react-router";
+import type { ContinuityTimelineDto } from "@shared/schemas/continuity";
+import type { PhotoView } from "@shared/schemas/photos";
+import { useCurrentProduction } from "@/hooks/use-current-production";
+import { PageHeader } from "@/components/ui/page";
+import { Card } from "@/components/ui/card";
+import { Button } from "@/components/ui/button";
+import { SelectField, TextareaField, InputField } from "@/components/ui/field";
+import { ErrorAlert, Spinner, EmptyState, SafetyNote } from "@/components/ui/feedback";
+import { PhotoCapture, PhotoStrip, viewLabels, type PendingPhoto } from "@/components/photos";
+import { useCharacters, useContinuityTimeline, useLogContinuity, useScene, useShootDays } from "@/features/breakdown/api/breakdown";
+import { StateBadges } from "@/features/breakdown/components/scene-page";
+import { cn } from "@/utils/cn";
+
+/** Continuity screen: capture on set, a character's timeline, two scenes side by side. */
+export default function ContinuityScreen() {
+  return (
+    <Routes>
+      <Route path="timeline/:characterId" element={<TimelineRoute />} />
+      <Route path="*" element={<ContinuityHome />} />
+    </Routes>
+  );
+}
+
+function todayIso(): string {
+  const d = new Date();
+  return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, "0")}-${String(d.getDate()).padStart(2, "0")}`;
+}
+
+const VIEW_ORDER: PhotoView[] = ["front", "back", "left", "right", "detail"];
+
+function ContinuityHome() {
+  const { productionId, production, can } = useCurrentProduction();
+  const days = useShootDays(productionId);
+  const characters = useCharacters(productionId);
+  const [dayId, setDayId] = useState("");
+  const [sceneId, setSceneId] = useState("");
+  const [characterId, setCharacterId] = useState("");
+  const stage = production?.kind === "stage";
+
+  // Default to today's shoot day, else the next one, else the last.
+  useEffect(() => {
+    if (dayId || !days.data?.length) return;
+    const today = todayIso();
+    const pick = days.data.find((d) => d.date === today) ?? days.data.find((d) => d.date > today) ?? days.data[days.data.length - 1]!;
+    setDayId(pick.id);
+  }, [days.data, dayId]);
+  const day = days.data?.find((d) => d.id === dayId);
+
+  return (
+    <div className="grid gap-4">
+      <PageHeader title="Continuity" subtitle={can("continuity.log") ? "Log what was worn, with photos, in a few taps" : "What was worn, scene by scene"} />
+      {can("continuity.log") && (
+        <Card className="grid gap-4">
+          {days.isPending ? (
+            <Spinner />
+          ) : !days.data?.length ? (
+            <EmptyState title={stage ? "No performances yet" : "No shoot days yet"} />
+          ) : (
+            <SelectField label={stage ? "Performance" : "Shoot day"} value={dayId} onChange={(e) => { setDayId(e.target.value); setSceneId(""); setCharacterId(""); }}>
+              {days.data.map((d) => (
+                <option key={d.id} value={d.id}>
+                  {d.date === todayIso() ? "Today · " : ""}
+                  {d.kind === "performance" ? `Performance ${d.dayNumber}` : `Day ${d.dayNumber}`} · {d.date}
+                  {d.startsAt ? ` ${d.startsAt}` : ""}
+                </option>
+              ))}
+            </SelectField>
+          )}
+          {day && (
+            <fieldset>
+              <legend className="mb-1 text-sm font-semibold text-ink-900">Scene</legend>
+              <div className="grid grid-cols-3 gap-2 sm:grid-cols-6">
+                {day.scenes.map((s) => (
+                  <button key={s.id} type="button" aria-pressed={sceneId === s.id} onClick={() => { setSceneId(s.id); setCharacterId(""); }} className={cn("min-h-12 rounded-md border px-2 text-base font-semibold", sceneId === s.id ? "border-ink bg-ink text-chalk" : "border-ink-100 bg-white text-ink")}>
+                    Sc {s.number}
+                  </button>
+                ))}
+              </div>
+            </fieldset>
+          )}
+          {sceneId && <CharacterPicker productionId={productionId} sceneId={sceneId} characterId={characterId} onPick={setCharacterId} />}
+          {sceneId && characterId && <CaptureForm key={`${sceneId}:${characterId}`} productionId={productionId} shootDayId={dayId} sceneId={sceneId} characterId={characterId} onDone={() => setCharacterId("")} />}
+        </Card>
+      )}
+      <Card>
+        <h2 className="mb-2 font-semibold text-ink">Timelines</h2>
+        <ul className="grid grid-cols-1 gap-1 sm:grid-cols-2">
+          {characters.data?.map((c) => (
+            <li key={c.id}>
+              <Link className="block min-h-11 rounded px-2 py-2 font-semibold text-ink hover:bg-ink-50" to={`/p/${productionId}/continuity/timeline/${c.id}`}>
+                {c.name}
+              </Link>
+            </li>
+          ))}
+        </ul>
+      </Card>
+    </div>
+  );
+}
+
+function CharacterPicker({ productionId, sceneId, characterId, onPick }: { productionId: string; sceneId: string; characterId: string; onPick: (id: string) => void }) {
+  const scene = useScene(productionId, sceneId);
+  if (scene.isPending) return <Spinner />;
+  if (scene.error) return <ErrorAlert error={scene.error} />;
+  return (
+    <fieldset>
+      <legend className="mb-1 text-sm font-semibold text-ink-900">Character</legend>
+      <div className="grid gap-2 sm:grid-cols-2">
+        {scene.data.appearances.map((a) => (
+          <button key={a.id} type="button" aria-pressed={characterId === a.characterId} onClick={() => onPick(a.characterId)} className={cn("min-h-12 rounded-md border px-3 py-2 text-left", characterId === a.characterId ? "border-ink bg-ink text-chalk" : "border-ink-100 bg-white text-ink")}>
+            <span className="block font-semibold">{a.characterName}</span>
+            <span className="text-sm">{a.change ? `Change ${a.change.number}` : "No change set"} </span>
+            <StateBadges a={a} />
+          </button>
+        ))}
+      </div>
+      {scene.data.appearances.some((a) => a.wet || a.stunt || a.blood) && (
+        <div className="mt-2">
+          <SafetyNote>Wet, stunt or blood scene: keep a dry change and warm layers ready and follow the stunt coordinator on padding and fastenings.</SafetyNote>
+        </div>
+      )}
+    </fieldset>
+  );
+}
+
+function CaptureForm({ productionId, shootDayId, sceneId, characterId, onDone }: { productionId: string; shootDayId: string; sceneId: string; characterId: string; onDone: () => void }) {
+  const log = useLogContinuity(productionId);
+  const [photos, setPhotos] = useState<PendingPhoto[]>([]);
+  const [notes, setNotes] = useState("");
+  const [distress, setDistress] = useState("");
+  const [saved, setSaved] = useState<string | null>(null);
+  useEffect(() => () => photos.forEach((p) => URL.revokeObjectURL(p.previewUrl)), [photos]);
+  const nextView = VIEW_ORDER.find((v) => !photos.some((p) => p.view === v)) ?? "detail";
+  const save = () => {
+    const form = new FormData();
+    if (shootDayId) form.set("shootDayId", shootDayId);
+    form.set("sceneId", sceneId);
+    form.set("characterId", characterId);
+    form.set("notes", notes);
+    if (distress !== "") form.set("distressStage", distress);
+    for (const p of photos) {
+      form.append("views", p.view);
+      form.append("photos", p.file, p.file.name);
+    }
+    // On failure everything stays on screen so nothing is lost; Save can be pressed again.
+    log.mutate(form, { onSuccess: (e) => { setSaved(e.id); setPhotos([]); setNotes(""); } });
+  };
+  if (saved) {
+    return (
+      <div role="status" className="grid gap-2 rounded border border-ink-100 bg-ink-50 p-3">
+        <p className="font-semibold text-ink">Saved.</p>
+        <div className="flex flex-wrap gap-2">
+          <Link className="font-semibold text-ink underline" to={`/p/${productionId}/continuity/timeline/${characterId}`}>See the timeline</Link>
+          <Button variant="secondary" onClick={onDone}>Log another character</Button>
+        </div>
+      </div>
+    );
+  }
+  return (
+    <div className="grid gap-3">
+      <PhotoCapture nextView={nextView} onAdd={(list) => setPhotos((ps) => [...ps, ...list].slice(0, 8))} disabled={log.isPending} />
+      {photos.length > 0 && (
+        <ul className="flex flex-wrap gap-2" aria-label="Photos to save">
+          {photos.map((p) => (
+            <li key={p.id} className="relative">
+              <img src={p.previewUrl} alt={`${viewLabels[p.view]} (not saved yet)`} className="size-20 rounded object-cover" />
+              <select aria-label="View of this photo" className="absolute bottom-0 left-0 w-full bg-ink/80 text-xs text-chalk" value={p.view} onChange={(e) => setPhotos((ps) => ps.map((x) => (x.id === p.id ? { ...x, view: e.target.value as PhotoView } : x)))}>
+                {Object.entries(viewLabels).map(([v, l]) => <option key={v} value={v}>{l}</option>)}
+              </select>
+              <button type="button" aria-label="Remove this photo" className="absolute -top-2 -right-2 size-6 rounded-full bg-madder text-xs text-white" onClick={() => setPhotos((ps) => ps.filter((x) => x.id !== p.id))}>×</button>
+            </li>
+          ))}
+        </ul>
+      )}
+      <TextareaField label="Notes" placeholder="collar open, left cuff rolled twice" value={notes} onChange={(e) => setNotes(e.target.value)} />
+      <InputField label="Distress stage worn (optional)" type="number" min={0} max={10} inputMode="numeric" value={distress} onChange={(e) => setDistress(e.target.value)} className="max-w-48" />
+      {log.error && <ErrorAlert error={log.error} title="Not saved; your notes and photos are still here" />}
+      <Button size="lg" onClick={save} busy={log.isPending} disabled={!photos.length && !notes.trim()}>
+        Save continuity{photos.length ? ` (${photos.length} photo${photos.length > 1 ? "s" : ""})` : ""}
+      </Button>
+    </div>
+  );
+}
+
+type TimelineScene = ContinuityTimelineDto["scenes"][number];
+
+function TimelineRoute() {
+  const { characterId = "" } = useParams();
+  const { productionId, production } = useCurrentProduction();
+  const timeline = useContinuityTimeline(productionId, characterId);
+  const [compare, setCompare] = useState<string[]>([]);
+  const scenes = timeline.data?.scenes ?? [];
+  const picked = useMemo(() => compare.map((id) => scenes.find((s) => s.sceneId === id)).filter((s): s is TimelineScene => Boolean(s)), [compare, scenes]);
+  if (timeline.isPending) return <Spinner />;
+  if (timeline.error) return <ErrorAlert error={timeline.error} />;
+  const toggle = (id: string) => setCompare((c) => (c.includes(id) ? c.filter((x) => x !== id) : [...c, id].slice(-2)));
+  return (
+    <div className="grid gap-4">
+      <PageHeader title={`${timeline.data.character.name}: continuity`} subtitle={<Link to={`/p/${productionId}/continuity`}>← Continuity</Link>} />
+      {picked.length === 2 && (
+        <Card>
+          <h2 className="mb-2 font-semibold text-ink">Side by side</h2>
+          <div className="grid grid-cols-2 gap-3" aria-label="Compare scenes">
+            {picked.map((s) => (
+              <div key={s.sceneId} className="grid content-start gap-1">
+                <p className="font-semibold">Scene {s.number} · story day {s.storyDay ?? "—"} · change {s.change?.number ?? "—"}</p>
+                {s.entries.flatMap((e) => e.photos).length ? (
+                  s.entries.flatMap((e) => e.photos).map((p) => <img key={p.id} src={p.urls.display} alt={`Scene ${s.number}, ${viewLabels[p.view].toLowerCase()}`} className="w-full rounded" />)
+                ) : (
+                  <p className="text-sm text-slate">No photos.</p>
+                )}
+                {s.entries.map((e) => e.notes && <p key={e.id} className="text-sm">{e.notes}</p>)}
+              </div>
+            ))}
+          </div>
+        </Card>
+      )}
+      <ol className="grid gap-3" aria-label={production?.kind === "stage" ? "Running order" : "Story order"}>
+        {scenes.map((s) => (
+          <li key={s.sceneId}>
+            <Card className="grid gap-2">
+              <div className="flex flex-wrap items-center gap-2">
+                <h2 className="font-semibold text-ink">Scene {s.number}</h2>
+                <span className="text-sm text-slate">story day {s.storyDay ?? "—"} · change {s.change?.number ?? "—"}</span>
+                {s.distressStage > 0 && <span className="text-sm text-slate">· distress {s.distressStage}</span>}
+                <label className="ml-auto flex min-h-11 items-center gap-1 text-sm">
+                  <input type="checkbox" checked={compare.includes(s.sceneId)} onChange={() => toggle(s.sceneId)} /> Compare
+                </label>
+              </div>
+              {s.entries.length === 0 ? (
+                <p className="text-sm text-slate">Not logged yet.</p>
+              ) : (
+                s.entries.map((e) => (
+                  <div key={e.id} className="grid gap-1">
+                    {e.notes && <p className="text-sm">{e.notes}</p>}
+                    <PhotoStrip photos={e.photos} label={`Scene ${s.number} photos`} />
+                  </div>
+                ))
+              )}
+            </Card>
+          </li>
+        ))}
+      </ol>
+    </div>
+  );
+}

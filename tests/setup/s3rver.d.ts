@@ -1,0 +1,16 @@
+// Minimal types for the s3rver test fake (the package ships none).
+declare module "s3rver" {
+  interface S3rverOptions {
+    port?: number;
+    address?: string;
+    silent?: boolean;
+    directory?: string;
+    resetOnClose?: boolean;
+    configureBuckets?: Array<{ name: string }>;
+  }
+  export default class S3rver {
+    constructor(options: S3rverOptions);
+    run(): Promise<{ address: string; port: number }>;
+    close(): Promise<void>;
+  }
+}
