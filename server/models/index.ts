@@ -5,6 +5,12 @@ import { Invitation } from "./Invitation.js";
 import { PasswordReset } from "./PasswordReset.js";
 import { AuditEvent } from "./AuditEvent.js";
 import { OutboxMessage } from "./OutboxMessage.js";
+import { Fabric } from "./Fabric.js";
+import { FabricTest } from "./FabricTest.js";
+import { MultiplesGroup } from "./MultiplesGroup.js";
+import { Garment } from "./Garment.js";
+import { GarmentStatusEvent } from "./GarmentStatusEvent.js";
+import { MeasurementSet } from "./MeasurementSet.js";
 
 // Associations, grouped by owner.
 Membership.belongsTo(User, { as: "user", foreignKey: "userId" });
@@ -14,4 +20,16 @@ Production.hasMany(Membership, { as: "memberships", foreignKey: "productionId" }
 Invitation.belongsTo(Production, { as: "production", foreignKey: "productionId" });
 PasswordReset.belongsTo(User, { as: "user", foreignKey: "userId" });
 
+// Wardrobe: fabrics and tests, garments, multiples groups, status history, measurement sets.
+Fabric.hasMany(FabricTest, { as: "tests", foreignKey: "fabricId" });
+FabricTest.belongsTo(Fabric, { as: "fabric", foreignKey: "fabricId" });
+FabricTest.belongsTo(User, { as: "tester", foreignKey: "testedBy" });
+Garment.belongsTo(Fabric, { as: "fabric", foreignKey: "fabricId" });
+Garment.belongsTo(MultiplesGroup, { as: "multiplesGroup", foreignKey: "multiplesGroupId" });
+MultiplesGroup.hasMany(Garment, { as: "garments", foreignKey: "multiplesGroupId" });
+Garment.hasMany(GarmentStatusEvent, { as: "events", foreignKey: "garmentId" });
+GarmentStatusEvent.belongsTo(User, { as: "actor", foreignKey: "actorId" });
+MeasurementSet.belongsTo(User, { as: "taker", foreignKey: "takenBy" });
+
+export { Fabric, FabricTest, MultiplesGroup, Garment, GarmentStatusEvent, MeasurementSet };
 export { User, Production, Membership, Invitation, PasswordReset, AuditEvent, OutboxMessage };

@@ -4,6 +4,9 @@ import { requireAuth, loadProduction } from "../middleware/require-auth.js";
 import { authRouter, invitationsPublicRouter } from "./auth.routes.js";
 import { productionsRouter, productionRouter } from "./productions.routes.js";
 import { membersRouter, invitationsRouter, outboxRouter } from "./members.routes.js";
+import { garmentsRouter } from "./garments.routes.js";
+import { fabricsRouter } from "./fabrics.routes.js";
+import { measurementsRouter } from "./measurements.routes.js";
 
 /** Everything under /api. Feature routers mount on `production` (one production's records). */
 export function buildApiRouter(): Router {
@@ -28,6 +31,11 @@ export function buildApiRouter(): Router {
   production.use("/members", membersRouter);
   production.use("/invitations", invitationsRouter);
   production.use("/outbox", outboxRouter);
+  // Wardrobe: garments, fabrics, and the measurements sub-resource of performers (mounted before any
+  // performers router so /performers/:id/measurements always reaches it).
+  production.use("/garments", garmentsRouter);
+  production.use("/fabrics", fabricsRouter);
+  production.use("/performers/:performerId/measurements", measurementsRouter);
   production.use("/", productionRouter);
   api.use("/productions/:productionId", production);
 
