@@ -6,12 +6,15 @@ import type { Transaction } from "sequelize";
 import { sequelize } from "../server/db.js";
 import { User } from "../server/models/index.js";
 import { seedAccounts, demoAccounts } from "./accounts.js";
+import { seedWardrobe } from "./wardrobe.js";
 
 export { demoAccounts };
 
 /** Steps run in order, in one transaction. */
 const steps: Array<{ name: string; run: (t: Transaction) => Promise<void> }> = [
   { name: "accounts and productions", run: seedAccounts },
+  // Wardrobe feature: fabrics and tests, garments and multiples groups, measurement sets (after breakdown).
+  { name: "wardrobe", run: seedWardrobe },
 ];
 
 /** Loads every demo step (idempotent). */

@@ -209,3 +209,9 @@ export async function deleteFabricTest(actor: Actor, fabricId: string, testId: s
     await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "fabric.test_delete", entityType: "fabric_test", entityId: testId, before: t.toJSON() }, transaction);
   });
 }
+
+/** Recomputes derived values for every test of a fabric (used by demo data after loading raw readings). */
+export async function recomputeFabricTests(fabricId: string, transaction: Transaction): Promise<void> {
+  const fabric = await Fabric.findByPk(fabricId, { transaction });
+  if (fabric) await recomputeDerived(fabric, transaction);
+}
