@@ -18,6 +18,7 @@ import {
   createGarments,
   findGarments,
   garmentsCsv,
+  garmentFilterOptions,
   getGarmentDetail,
   listGarments,
   moveGarments,
@@ -35,6 +36,10 @@ garmentsRouter.get("/", authorize("garment.read"), async (req, res) => {
   const q = listGarmentsQuerySchema.parse(req.query);
   const { rows, count } = await listGarments(actorOf(req), q);
   sendList(res, rows.map(presentGarment), count, q);
+});
+
+garmentsRouter.get("/filter-options", authorize("garment.read"), async (req, res) => {
+  res.json({ data: await garmentFilterOptions(actorOf(req)) });
 });
 
 garmentsRouter.get("/export.csv", authorize("garment.read"), async (req, res) => {

@@ -354,3 +354,13 @@ export async function garmentsCsv(actor: Actor, f: GarmentFilters, unit: LengthU
 export function statusLabel(s: GarmentStatus): string {
   return garmentStatusLabels[s];
 }
+
+/** Values the wardrobe filters offer: categories and racks in use, and the production's characters. */
+export async function garmentFilterOptions(actor: Actor): Promise<{ categories: string[]; racks: string[]; characters: Array<{ id: string; name: string }> }> {
+  const rep = { replacements: { pid: actor.productionId }, type: QueryTypes.SELECT } as const;
+  const cats = await sequelize.query<{ v: string }>(`SELECT DISTINCT category AS v FROM garments WHERE production_id = :pid ORDER BY 1`, rep);
+  const racks = await sequelize.query<{ v: string }>(`SELECT DISTINCT location_rack AS v FROM garments WHERE production_id = :pid AND location_rack IS NOT NULL ORDER BY 1`, rep);
+  // Characters belong to the breakdown; read id and name only.
+  const characters = await sequelize.query<{ id: string; name: string }>(`SELECT id, name FROM characters WHERE production_id = :pid ORDER BY sort_order, name`, rep);
+  return { categories: cats.map((r) => r.v), racks: racks.map((r) => r.v), characters };
+}

@@ -9,10 +9,18 @@ import type { ScreenKey } from "@shared/permissions";
 export const screenComponents: Partial<Record<ScreenKey, LazyExoticComponent<ComponentType>>> = {
   today: lazy(() => import("./today")),
   team: lazy(() => import("./team")),
+  wardrobe: lazy(() => import("./wardrobe")),
+  fabrics: lazy(() => import("./fabrics")),
 };
 
 /**
  * Sub-pages one feature adds under another feature's screen (e.g. measurements under Cast),
  * matched before the screen's own page. Paths are relative to /p/:productionId/:screen/.
  */
-export const screenSubpages: Partial<Record<ScreenKey, Array<{ path: string; component: LazyExoticComponent<ComponentType> }>>> = {};
+export const screenSubpages: Partial<Record<ScreenKey, Array<{ path: string; component: LazyExoticComponent<ComponentType> }>>> = {
+  // Wardrobe feature: a performer's measurements and their printable sheet.
+  cast: [
+    { path: "performers/:performerId/measurements", component: lazy(() => import("./performer-measurements")) },
+    { path: "performers/:performerId/measurements/print", component: lazy(() => import("./performer-measurement-sheet")) },
+  ],
+};
