@@ -1,4 +1,6 @@
+import { useState } from "react";
 import { Link, useParams } from "react-router";
+import { ConfirmDialog } from "@/components/ui/dialog";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { PageHeader } from "@/components/ui/page";
 import { Card } from "@/components/ui/card";
@@ -14,6 +16,7 @@ export default function PerformerMeasurementsPage() {
   const canRead = can("measurement.read");
   const data = usePerformerMeasurements(productionId, canRead ? performerId : "");
   const del = useDeleteMeasurementSet(productionId, performerId);
+  const [deleting, setDeleting] = useState<string | null>(null);
   if (!production) return <Spinner />;
   if (!canRead) {
     return (
@@ -46,9 +49,20 @@ export default function PerformerMeasurementsPage() {
         {d.sets.length === 0 ? (
           <EmptyState title="No measurements yet">Record the first set below.</EmptyState>
         ) : (
-          <MeasurementHistory sets={d.sets} unit={production.units} onDelete={can("measurement.update") ? (id) => del.mutate(id) : undefined} />
+          <MeasurementHistory sets={d.sets} unit={production.units} onDelete={can("measurement.update") ? setDeleting : undefined} />
         )}
         {del.error && <ErrorAlert error={del.error} title="Not deleted" />}
+        <ConfirmDialog
+          open={Boolean(deleting)}
+          title="Delete this measurement set?"
+          confirmLabel="Delete set"
+          danger
+          busy={del.isPending}
+          onCancel={() => setDeleting(null)}
+          onConfirm={() => deleting && del.mutate(deleting, { onSettled: () => setDeleting(null) })}
+        >
+          Use this for a set entered by mistake. The history keeps every other set.
+        </ConfirmDialog>
       </Card>
       {can("measurement.update") && (
         <Card>

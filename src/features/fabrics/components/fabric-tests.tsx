@@ -3,6 +3,7 @@ import type { FabricDetailDto, FabricTestDto, FabricTestKind, SimValueDto } from
 import { formatLength, roundTo } from "@shared/domain/units";
 import { Button } from "@/components/ui/button";
 import { ErrorAlert } from "@/components/ui/feedback";
+import { ConfirmDialog } from "@/components/ui/dialog";
 import { InputField, SelectField } from "@/components/ui/field";
 import { ApiError } from "@/lib/api-client";
 import { useAddFabricTest, useDeleteFabricTest } from "../api/fabrics";
@@ -56,6 +57,7 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
   const add = useAddFabricTest(productionId, fabric.id);
   const del = useDeleteFabricTest(productionId, fabric.id);
   const [kind, setKind] = useState<FabricTestKind>("mass");
+  const [deleting, setDeleting] = useState<FabricTestDto | null>(null);
   const fields = add.error instanceof ApiError ? add.error.fields : {};
   const f = (k: string) => fields[`readings.${k}`];
 
@@ -115,7 +117,7 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
                     <td className="px-2 py-1">{t.testedByName ?? "—"}</td>
                     {canUpdate && (
                       <td className="px-2 py-1">
-                        <Button size="sm" variant="ghost" onClick={() => del.mutate(t.id)} aria-label={`Delete ${t.kind} test of ${t.testedOn}`}>
+                        <Button size="sm" variant="ghost" onClick={() => setDeleting(t)} aria-label={`Delete ${t.kind} test of ${t.testedOn}`}>
                           Delete
                         </Button>
                       </td>
@@ -179,6 +181,18 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
         </section>
       )}
 
+      <ConfirmDialog
+        open={Boolean(deleting)}
+        title="Delete this test?"
+        confirmLabel="Delete test"
+        danger
+        busy={del.isPending}
+        onCancel={() => setDeleting(null)}
+        onConfirm={() => deleting && del.mutate(deleting.id, { onSettled: () => setDeleting(null) })}
+      >
+        {deleting ? `${kindLabels[deleting.kind]} of ${deleting.testedOn}: ${readingsText(deleting)}. ` : ""}The other tests are recomputed without it.
+      </ConfirmDialog>
+      {del.error != null && <ErrorAlert error={del.error} title="Test not deleted" />}
       <section>
         <h3 className="mb-1 font-semibold text-ink">Simulation values (SI)</h3>
         <p className="mb-2 text-xs text-slate">
