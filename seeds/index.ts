@@ -8,6 +8,7 @@ import { User } from "../server/models/index.js";
 import { seedAccounts, demoAccounts } from "./accounts.js";
 import { seedBreakdown } from "./breakdown.js";
 import { seedBreakdownLinks } from "./breakdown-links.js";
+import { seedWardrobe } from "./wardrobe.js";
 
 export { demoAccounts };
 
@@ -16,6 +17,8 @@ const steps: Array<{ name: string; run: (t: Transaction) => Promise<void> }> = [
   { name: "accounts and productions", run: seedAccounts },
   // Breakdown feature: cast, scenes, shoot days, changes, appearances.
   { name: "breakdown", run: seedBreakdown },
+  // Wardrobe feature: fabrics and tests, garments and multiples groups, measurement sets (after breakdown).
+  { name: "wardrobe", run: seedWardrobe },
   // Breakdown feature (after wardrobe): change items → garments, continuity entries and photos.
   { name: "breakdown links", run: seedBreakdownLinks },
 ];

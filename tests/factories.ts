@@ -3,6 +3,10 @@ import { randomUUID } from "node:crypto";
 import { Appearance, Change, Character, Membership, Performer, Production, Scene, ShootDay, ShootDayScene, User } from "../server/models/index.js";
 import { hashPassword } from "../server/auth/passwords.js";
 import type { Role } from "../shared/permissions.js";
+import { sequelize } from "../server/db.js";
+import { Fabric, Garment, MeasurementSet } from "../server/models/index.js";
+import { generateTagCode } from "../shared/domain/tag-codes.js";
+import { randomInt } from "node:crypto";
 
 export const TEST_PASSWORD = "correct-horse-battery";
 let cachedHash: string | undefined;
@@ -87,4 +91,54 @@ export async function buildChange(character: Character, opts: { number?: number;
 /** A character in a scene wearing a change. */
 export async function buildAppearance(scene: Scene, character: Character, change: Change | null, opts: Partial<{ distressStage: number; wet: boolean; stunt: boolean; changeHere: boolean }> = {}) {
   return Appearance.create({ productionId: scene.productionId, sceneId: scene.id, characterId: character.id, changeId: change?.id ?? null, notes: null, ...opts });
+}
+
+// ---- Wardrobe builders ----
+
+/** A fabric (woven wool by default). */
+export async function buildFabric(overrides: Partial<{ production: Production; name: string; massPerAreaGsm: number | null; construction: "woven" | "knit" }> = {}) {
+  const production = overrides.production ?? (await buildProduction());
+  return Fabric.create({
+    productionId: production.id,
+    name: overrides.name ?? "Wool suiting",
+    supplier: null,
+    fibreContent: [{ fibre: "wool", percent: 100 }],
+    construction: overrides.construction ?? "woven",
+    widthMm: 1500,
+    massPerAreaGsm: overrides.massPerAreaGsm === undefined ? 280 : overrides.massPerAreaGsm,
+    thicknessMm: null,
+    stretchWarpPct: null,
+    stretchWeftPct: null,
+    colour: null,
+    careNotes: null,
+  });
+}
+
+/** A garment in stock with a fresh tag code. */
+export async function buildGarment(overrides: Partial<{ production: Production; name: string; status: Garment["status"]; tagCode: string; category: string }> = {}) {
+  const production = overrides.production ?? (await buildProduction());
+  return Garment.create({
+    productionId: production.id,
+    tagCode: overrides.tagCode ?? generateTagCode(randomInt),
+    name: overrides.name ?? "Test jacket",
+    category: overrides.category ?? "jacket",
+    sizeLabel: null,
+    fabricId: null,
+    colour: null,
+    source: "built",
+    vendor: null,
+    costCents: null,
+    rentalDueOn: null,
+    locationRack: "A1",
+    locationBin: null,
+    status: overrides.status ?? "in_stock",
+    multiplesGroupId: null,
+    copyNumber: null,
+    notes: null,
+  });
+}
+
+/** A measurement set in mm. */
+export async function buildMeasurementSet(performerId: string, production: Production, valuesMm: Record<string, number>, takenOn = "2026-11-01") {
+  return MeasurementSet.create({ productionId: production.id, performerId, takenOn, takenBy: null, valuesMm, enteredUnit: "cm", notes: null });
 }

@@ -17,6 +17,12 @@ import { Appearance } from "./Appearance.js";
 import { Photo } from "./Photo.js";
 import { ContinuityEntry } from "./ContinuityEntry.js";
 import { ContinuityEntryGarment } from "./ContinuityEntryGarment.js";
+import { Fabric } from "./Fabric.js";
+import { FabricTest } from "./FabricTest.js";
+import { MultiplesGroup } from "./MultiplesGroup.js";
+import { Garment } from "./Garment.js";
+import { GarmentStatusEvent } from "./GarmentStatusEvent.js";
+import { MeasurementSet } from "./MeasurementSet.js";
 
 // Associations, grouped by owner.
 Membership.belongsTo(User, { as: "user", foreignKey: "userId" });
@@ -35,5 +41,17 @@ ShootDayScene.belongsTo(Scene, { as: "scene", foreignKey: "sceneId" });
 Change.hasMany(ChangeItem, { as: "items", foreignKey: "changeId" });
 ContinuityEntry.hasMany(ContinuityEntryGarment, { as: "garments", foreignKey: "continuityEntryId" });
 
+// Wardrobe: fabrics and tests, garments, multiples groups, status history, measurement sets.
+Fabric.hasMany(FabricTest, { as: "tests", foreignKey: "fabricId" });
+FabricTest.belongsTo(Fabric, { as: "fabric", foreignKey: "fabricId" });
+FabricTest.belongsTo(User, { as: "tester", foreignKey: "testedBy" });
+Garment.belongsTo(Fabric, { as: "fabric", foreignKey: "fabricId" });
+Garment.belongsTo(MultiplesGroup, { as: "multiplesGroup", foreignKey: "multiplesGroupId" });
+MultiplesGroup.hasMany(Garment, { as: "garments", foreignKey: "multiplesGroupId" });
+Garment.hasMany(GarmentStatusEvent, { as: "events", foreignKey: "garmentId" });
+GarmentStatusEvent.belongsTo(User, { as: "actor", foreignKey: "actorId" });
+MeasurementSet.belongsTo(User, { as: "taker", foreignKey: "takenBy" });
+
+export { Fabric, FabricTest, MultiplesGroup, Garment, GarmentStatusEvent, MeasurementSet };
 export { User, Production, Membership, Invitation, PasswordReset, AuditEvent, OutboxMessage };
 export { Performer, Character, CharacterDouble, Scene, ShootDay, ShootDayScene, Change, ChangeItem, Appearance, Photo, ContinuityEntry, ContinuityEntryGarment };

@@ -10,6 +10,9 @@ import { charactersRouter, performersRouter } from "./cast.routes.js";
 import { changesRouter } from "./changes.routes.js";
 import { continuityRouter } from "./continuity.routes.js";
 import { photosRouter } from "./photos.routes.js";
+import { garmentsRouter } from "./garments.routes.js";
+import { fabricsRouter } from "./fabrics.routes.js";
+import { measurementsRouter } from "./measurements.routes.js";
 
 /** Everything under /api. Feature routers mount on `production` (one production's records). */
 export function buildApiRouter(): Router {
@@ -41,10 +44,15 @@ export function buildApiRouter(): Router {
   production.use("/appearances", appearancesRouter);
   production.use("/imports", importsRouter);
   production.use("/characters", charactersRouter);
+  production.use("/performers/:performerId/measurements", measurementsRouter);
   production.use("/performers", performersRouter);
   production.use("/changes", changesRouter);
   production.use("/continuity", continuityRouter);
   production.use("/photos", photosRouter);
+  // Wardrobe: garments, fabrics, and the measurements sub-resource of performers (mounted before any
+  // performers router so /performers/:id/measurements always reaches it).
+  production.use("/garments", garmentsRouter);
+  production.use("/fabrics", fabricsRouter);
   production.use("/", productionRouter);
   api.use("/productions/:productionId", production);
 

@@ -28,22 +28,21 @@ export function ScreenRoute() {
   }
   const Component = screenComponents[def.key];
   const subpages = screenSubpages[def.key] ?? [];
-  if (!Component) {
-    return (
-      <Card>
-        <PageHeader title={def.label} />
-        <p className="text-sm text-slate">This screen is not built yet.</p>
-      </Card>
-    );
-  }
-  if (!subpages.length) return <Component />;
-  // Sub-pages registered by other features match first; their params reach useParams().
+  const notBuilt = (
+    <Card>
+      <PageHeader title={def.label} />
+      <p className="text-sm text-slate">This screen is not built yet.</p>
+    </Card>
+  );
+  if (!subpages.length) return Component ? <Component /> : notBuilt;
+  // Sub-pages registered by other features match first (even before the screen itself is built);
+  // their params reach useParams().
   return (
     <Routes>
       {subpages.map((p) => (
         <Route key={p.path} path={p.path} element={<p.component />} />
       ))}
-      <Route path="*" element={<Component />} />
+      <Route path="*" element={Component ? <Component /> : notBuilt} />
     </Routes>
   );
 }

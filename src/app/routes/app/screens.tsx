@@ -13,10 +13,18 @@ export const screenComponents: Partial<Record<ScreenKey, LazyExoticComponent<Com
   cast: lazy(() => import("./cast")),
   changes: lazy(() => import("./changes")),
   continuity: lazy(() => import("./continuity")),
+  wardrobe: lazy(() => import("./wardrobe")),
+  fabrics: lazy(() => import("./fabrics")),
 };
 
 /**
  * Sub-pages one feature adds under another feature's screen (e.g. measurements under Cast),
  * matched before the screen's own page. Paths are relative to /p/:productionId/:screen/.
  */
-export const screenSubpages: Partial<Record<ScreenKey, Array<{ path: string; component: LazyExoticComponent<ComponentType> }>>> = {};
+export const screenSubpages: Partial<Record<ScreenKey, Array<{ path: string; component: LazyExoticComponent<ComponentType> }>>> = {
+  // Wardrobe feature: a performer's measurements and their printable sheet.
+  cast: [
+    { path: "performers/:performerId/measurements", component: lazy(() => import("./performer-measurements")) },
+    { path: "performers/:performerId/measurements/print", component: lazy(() => import("./performer-measurement-sheet")) },
+  ],
+};

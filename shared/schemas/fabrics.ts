@@ -1,0 +1,149 @@
+import { z } from "zod";
+import { Limits } from "../constants.js";
+import { isoDateSchema } from "./common.js";
+
+export const fabricConstructions = ["woven", "knit"] as const;
+export type FabricConstruction = (typeof fabricConstructions)[number];
+
+/** One fibre and its share of the cloth, in percent. */
+export const fibreShareSchema = z.object({
+  fibre: z.string().trim().min(1, "is required").max(60),
+  percent: z.number().positive("must be greater than 0").max(100, "cannot be more than 100"),
+});
+
+/** Fibre content: shares must add to 100 % (to within 0.05 for rounded labels such as 33.3 / 33.3 / 33.4). */
+export const fibreContentSchema = z
+  .array(fibreShareSchema)
+  .min(1, "give at least one fibre")
+  .max(8)
+  .refine((xs) => Math.abs(xs.reduce((s, x) => s + x.percent, 0) - 100) <= 0.05, {
+    message: "fibre percentages must add up to 100",
+  });
+
+const text = (max: number) => z.string().trim().max(max).nullish().transform((v) => (v ? v : null));
+const positiveOrNull = (what: string, max: number) =>
+  z.number({ message: `must be a number of ${what}` }).positive("must be greater than 0").max(max).nullish().transform((v) => v ?? null);
+const pctOrNull = z.number().min(0, "cannot be negative").max(1000).nullish().transform((v) => v ?? null);
+
+const fabricFields = {
+  name: z.string().trim().min(1, "is required").max(Limits.nameMax),
+  supplier: text(160),
+  fibreContent: fibreContentSchema,
+  construction: z.enum(fabricConstructions),
+  /** Usable width, mm. */
+  widthMm: positiveOrNull("millimetres", 10_000).pipe(z.number().int("must be whole millimetres").nullable()),
+  /** Declared mass per area (supplier or label), g/m². */
+  massPerAreaGsm: positiveOrNull("g/m²", 5000),
+  thicknessMm: positiveOrNull("millimetres", 50),
+  stretchWarpPct: pctOrNull,
+  stretchWeftPct: pctOrNull,
+  colour: text(80),
+  careNotes: text(Limits.notesMax),
+};
+
+export const createFabricInputSchema = z.object(fabricFields);
+export type CreateFabricInput = z.infer<typeof createFabricInputSchema>;
+export const updateFabricInputSchema = z.object(fabricFields).partial();
+export type UpdateFabricInput = z.infer<typeof updateFabricInputSchema>;
+
+const pos = (unit: string, max: number) => z.number({ message: `must be a number of ${unit}` }).positive("must be greater than 0").max(max);
+const direction = z.enum(["warp", "weft"]);
+
+/** Raw readings per test kind; all lengths mm, masses g, loads N. */
+export const fabricTestReadingsSchema = z.discriminatedUnion("kind", [
+  /** ASTM D3776 option C: a cut specimen weighed. */
+  z.object({ kind: z.literal("mass"), massG: pos("grams", 5000), lengthMm: pos("millimetres", 5000), widthMm: pos("millimetres", 5000) }),
+  /** ASTM D1388 option A: overhang at which the strip touches the 41.5° incline. */
+  z.object({ kind: z.literal("cantilever"), direction, overhangMm: pos("millimetres", 1000), angleDeg: z.number().gt(0).lt(90).default(41.5) }),
+  /** Strip tensile (ISO 13934-1 / ASTM D5035 style): load at an extension. */
+  z.object({
+    kind: z.literal("strip"),
+    direction,
+    loadN: pos("newtons", 100_000),
+    stripWidthMm: pos("millimetres", 1000),
+    gaugeLengthMm: pos("millimetres", 2000),
+    extensionMm: pos("millimetres", 2000),
+  }),
+  z.object({ kind: z.literal("thickness"), thicknessMm: pos("millimetres", 50) }),
+]);
+export type FabricTestReadings = z.infer<typeof fabricTestReadingsSchema>;
+export type FabricTestKind = FabricTestReadings["kind"];
+
+export const createFabricTestInputSchema = z.object({
+  testedOn: isoDateSchema,
+  readings: fabricTestReadingsSchema,
+  notes: text(2000),
+});
+export type CreateFabricTestInput = z.infer<typeof createFabricTestInputSchema>;
+
+/** Values computed from the readings, all SI (plus the familiar units used on screen). */
+export interface FabricTestDerived {
+  /** mass: g/m² and oz/yd² (ASTM D3776). */
+  massPerAreaGsm?: number;
+  massPerAreaOzYd2?: number;
+  massPerAreaKgM2?: number;
+  /** cantilever: bending length c (mm) and flexural rigidity G (N·m and µN·m), ASTM D1388. */
+  bendingLengthMm?: number;
+  flexuralRigidityNm?: number;
+  flexuralRigidityMicroNm?: number;
+  /** Which mass per area the rigidity used: pooled mass tests, the fabric record, or none. */
+  massBasis?: "tested" | "declared";
+  massPerAreaUsedGsm?: number;
+  /** strip: tensile stiffness per width k = (F/b)/ε in N/m. */
+  strain?: number;
+  forcePerWidthNPerM?: number;
+  tensileStiffnessNPerM?: number;
+  /** thickness in m. */
+  thicknessM?: number;
+}
+
+export interface FabricTestDto {
+  id: string;
+  fabricId: string;
+  kind: FabricTestKind;
+  direction: "warp" | "weft" | null;
+  readings: FabricTestReadings;
+  derived: FabricTestDerived;
+  testedOn: string;
+  testedBy: string | null;
+  testedByName: string | null;
+  notes: string | null;
+}
+
+export interface FabricDto {
+  id: string;
+  name: string;
+  supplier: string | null;
+  fibreContent: Array<{ fibre: string; percent: number }>;
+  construction: FabricConstruction;
+  widthMm: number | null;
+  massPerAreaGsm: number | null;
+  massPerAreaOzYd2: number | null;
+  thicknessMm: number | null;
+  stretchWarpPct: number | null;
+  stretchWeftPct: number | null;
+  colour: string | null;
+  careNotes: string | null;
+  testCount: number;
+  garmentCount: number;
+}
+
+/** One simulation value with where it came from. */
+export interface SimValueDto {
+  value: number;
+  unit: string;
+  basis: "measured" | "assumed";
+  note?: string;
+}
+
+export interface FabricDetailDto extends FabricDto {
+  tests: FabricTestDto[];
+  /** SI values for a cloth simulator (measured where tested, class defaults otherwise). */
+  simulation: {
+    fabricClass: string;
+    massPerArea: SimValueDto;
+    bendingStiffness: { warp: SimValueDto; weft: SimValueDto };
+    stretchStiffness: { warp: SimValueDto; weft: SimValueDto };
+    thickness: SimValueDto;
+  };
+}
