@@ -1,4 +1,5 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type NonAttribute } from "sequelize";
+import type { User } from "./User.js";
 import { sequelize } from "../db.js";
 import type { AlterationTask, TicketStatus } from "@shared/schemas/workroom.js";
 
@@ -29,6 +30,7 @@ export class AlterationTicket extends Model<InferAttributes<AlterationTicket>, I
   declare checkedAt: CreationOptional<Date | null>;
   declare checkedBy: CreationOptional<string | null>;
   declare notes: string | null;
+  declare assignee?: NonAttribute<User>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }

@@ -1,4 +1,5 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type NonAttribute } from "sequelize";
+import type { User } from "./User.js";
 import { sequelize } from "../db.js";
 import type { Weekday } from "@shared/domain/workroom.js";
 
@@ -9,6 +10,7 @@ export class WorkroomCapacity extends Model<InferAttributes<WorkroomCapacity>, I
   declare userId: string;
   declare hoursPerWeekday: Record<Weekday, number>;
   declare daysOff: CreationOptional<string[]>;
+  declare user?: NonAttribute<User>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }

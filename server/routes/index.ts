@@ -4,6 +4,7 @@ import { requireAuth, loadProduction } from "../middleware/require-auth.js";
 import { authRouter, invitationsPublicRouter } from "./auth.routes.js";
 import { productionsRouter, productionRouter } from "./productions.routes.js";
 import { membersRouter, invitationsRouter, outboxRouter } from "./members.routes.js";
+import { alterationsRouter, fittingsRouter, workroomRouter } from "./workroom.routes.js";
 
 /** Everything under /api. Feature routers mount on `production` (one production's records). */
 export function buildApiRouter(): Router {
@@ -28,6 +29,10 @@ export function buildApiRouter(): Router {
   production.use("/members", membersRouter);
   production.use("/invitations", invitationsRouter);
   production.use("/outbox", outboxRouter);
+  // Workroom feature.
+  production.use("/fittings", fittingsRouter);
+  production.use("/alterations", alterationsRouter);
+  production.use("/workroom", workroomRouter);
   production.use("/", productionRouter);
   api.use("/productions/:productionId", production);
 
