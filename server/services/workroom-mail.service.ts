@@ -38,9 +38,9 @@ export async function queueWorkroomEmail(
     transaction,
   });
   if (!created) return row;
-  const send = () => void enqueue(EMAIL_JOB, { emailJobId: row.id }).catch((err) => logger.error({ err }, "could not queue an e-mail"));
-  if (transaction) transaction.afterCommit(send);
-  else send();
+  const send = () => enqueue(EMAIL_JOB, { emailJobId: row.id }).catch((err) => logger.error({ err }, "could not queue an e-mail"));
+  if (transaction) transaction.afterCommit(() => void send());
+  else await send();
   return row;
 }
 
