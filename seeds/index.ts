@@ -6,12 +6,15 @@ import type { Transaction } from "sequelize";
 import { sequelize } from "../server/db.js";
 import { User } from "../server/models/index.js";
 import { seedAccounts, demoAccounts } from "./accounts.js";
+import { seedWorkroom } from "./workroom.js";
 
 export { demoAccounts };
 
 /** Steps run in order, in one transaction. */
 const steps: Array<{ name: string; run: (t: Transaction) => Promise<void> }> = [
   { name: "accounts and productions", run: seedAccounts },
+  // Workroom feature: fittings, capacity, alteration tickets (after wardrobe and breakdown links).
+  { name: "workroom", run: seedWorkroom },
 ];
 
 /** Loads every demo step (idempotent). */

@@ -86,10 +86,11 @@ describe("due dates from the shoot schedule (real rows)", () => {
 
 describe("GET /api/productions/:pid/workroom/plan", () => {
   it("plans by earliest due date across two people and explains the late ticket and the overbooked days", async () => {
-    // Hand-worked: Ann and Bo work 8 h Mon–Fri from Mon 2030-09-02; buffer 1.
-    //   T1 (10 h) needed Wed → due Tue; T2 (10 h) needed Wed → due Tue; T3 (20 h) needed Thu → due Wed.
-    //   EDD: T1 → Ann (Mon 8 + Tue 2, finishes Tue); T2 → Bo (Mon 8 + Tue 2, Tue); T3 finishes first with Ann
-    //   (Tue 6 + Wed 8 + Thu 6 → Thu; Bo also Thu but with more hours used that day? equal: 6 h each) → Thu: 1 working day late.
+    // Hand-worked (two people, 8 h Mon–Fri from Mon 2030-09-02, buffer 1 working day):
+    //   T1 10 h and T2 10 h needed Wed → due Tue; T3 20 h needed Thu → due Wed.
+    //   EDD order T1, T2, T3. T1 → first person (Mon 8 + Tue 2, done Tue). T2: the other person finishes Tue
+    //   (Mon 8 + Tue 2) where the first would finish Wed → other person. T3: either person has Tue 6 + Wed 8 +
+    //   Thu 6 → finishes Thu, one working day after its due date and on the day it is needed.
     const { production, actor, user } = await setup({ bufferWorkingDays: 1 });
     const { user: bo } = await buildMember("cutter", { production });
     await WorkroomCapacity.create({ productionId: production.id, userId: user.id, hoursPerWeekday: fullWeek, daysOff: [] });
