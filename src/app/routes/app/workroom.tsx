@@ -68,7 +68,7 @@ function Overview() {
       )}
 
       {plan.data && plan.data.snags.length > 0 && (
-        <Card aria-label="Workroom snags">
+        <Card role="region" aria-label="Workroom snags">
           <h2 className="mb-2 font-semibold text-ink">What will be late</h2>
           <ul className="grid gap-2">
             {plan.data.snags.map((s) => (

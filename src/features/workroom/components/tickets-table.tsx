@@ -64,13 +64,13 @@ export function TicketsTable(props: { productionId: string; tickets: PlannedTick
           ),
       }),
       col.accessor((t) => t.plannedAssigneeName ?? t.assigneeName ?? "", { id: "who", header: "Who", cell: (c) => c.getValue() || <span className="text-slate">nobody has hours</span> }),
-      col.accessor((t) => t.neededOn ?? "", { id: "neededOn", header: "Needed", cell: (c) => c.getValue() || "—" }),
-      col.accessor((t) => t.dueDate ?? "9999", { id: "dueDate", header: "Due", cell: (c) => c.row.original.dueDate ?? "—" }),
+      col.accessor((t) => t.neededOn ?? "", { id: "neededOn", header: "Needed", cell: (c) => <span className="whitespace-nowrap">{c.getValue() || "—"}</span> }),
+      col.accessor((t) => t.dueDate ?? "9999", { id: "dueDate", header: "Due", cell: (c) => <span className="whitespace-nowrap">{c.row.original.dueDate ?? "—"}</span> }),
       col.accessor((t) => t.plannedFinish ?? "", {
         id: "finish",
         header: "Planned finish",
         cell: (c) => (
-          <span data-planned-finish={c.row.original.plannedFinish ?? ""}>
+          <span className="whitespace-nowrap" data-planned-finish={c.row.original.plannedFinish ?? ""}>
             {c.row.original.planStatus === "done" ? "done" : (c.row.original.plannedFinish ?? `${c.row.original.unplannedHours} h do not fit`)}
             {c.row.original.late && (
               <>

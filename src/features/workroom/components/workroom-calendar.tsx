@@ -1,6 +1,6 @@
 import { useMemo, useState } from "react";
 import { Calendar, dateFnsLocalizer, type View } from "react-big-calendar";
-import withDragAndDrop, { type EventInteractionArgs } from "react-big-calendar/lib/addons/dragAndDrop";
+import dndAddon, { type EventInteractionArgs } from "react-big-calendar/lib/addons/dragAndDrop";
 import { format, getDay, parse, parseISO, startOfWeek } from "date-fns";
 import { enGB } from "date-fns/locale";
 import "react-big-calendar/lib/css/react-big-calendar.css";
@@ -23,6 +23,8 @@ interface CalEvent {
   fitting?: FittingDto;
 }
 
+// The addon ships as CommonJS only; the bundler's interop may hand over module.exports instead of its default.
+const withDragAndDrop = ((dndAddon as unknown as { default?: typeof dndAddon }).default ?? dndAddon) as typeof dndAddon;
 const DnDCalendar = withDragAndDrop<CalEvent>(Calendar);
 const day = (iso: string) => parseISO(iso);
 
