@@ -268,7 +268,8 @@ describe("fitting invitations (e-mail with an RFC 5545 part)", () => {
     expect(cancel.cal.getFirstPropertyValue("method")).toBe("CANCEL");
     expect(cancel.event.component.getFirstPropertyValue("status")).toBe("CANCELLED");
     expect(cancel.event.sequence).toBe(2);
-    expect(await WorkroomEmailJob.count({ where: { status: "sent" } })).toBe(3);
+    // The status is written just after the message is handed to SMTP, so wait for it.
+    await expect.poll(() => WorkroomEmailJob.count({ where: { status: "sent" } })).toBe(3);
   });
 
   it("uses the address in the performer's contact when they have no e-mail", async () => {
