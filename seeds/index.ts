@@ -9,6 +9,7 @@ import { seedAccounts, demoAccounts } from "./accounts.js";
 import { seedBreakdown } from "./breakdown.js";
 import { seedBreakdownLinks } from "./breakdown-links.js";
 import { seedWardrobe } from "./wardrobe.js";
+import { seedWorkroom } from "./workroom.js";
 
 export { demoAccounts };
 
@@ -21,6 +22,8 @@ const steps: Array<{ name: string; run: (t: Transaction) => Promise<void> }> = [
   { name: "wardrobe", run: seedWardrobe },
   // Breakdown feature (after wardrobe): change items → garments, continuity entries and photos.
   { name: "breakdown links", run: seedBreakdownLinks },
+  // Workroom feature: fittings, capacity, alteration tickets (after wardrobe and breakdown links).
+  { name: "workroom", run: seedWorkroom },
 ];
 
 /** Loads every demo step (idempotent). */

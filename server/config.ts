@@ -27,6 +27,10 @@ const envSchema = z.object({
   S3_BUCKET: z.string().default("seamscene"),
   S3_ACCESS_KEY_ID: z.string().default("S3RVER"),
   S3_SECRET_ACCESS_KEY: z.string().default("S3RVER"),
+  /** Workroom: the department's local time zone (evening reminders, "today", calendar invitations' display). */
+  TIME_ZONE: z.string().default("Europe/London"),
+  /** Workroom: start the PostgreSQL job queue (reminders, invitation e-mails) inside the server process. */
+  JOBS_ENABLED: z.stringbool().default(true),
   LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).default("info"),
   /** Failed sign-ins allowed per address and account in the window before requests are refused. */
   LOGIN_MAX_FAILURES: z.coerce.number().int().positive().default(10),

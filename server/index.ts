@@ -4,6 +4,7 @@ import { createApp, closeAppResources } from "./app.js";
 import { sequelize } from "./db.js";
 import { migrate } from "./migrator.js";
 import { logger } from "./lib/logger.js";
+import { startJobs, stopJobs } from "./lib/jobs.js";
 
 /** Migrates, then listens; closes cleanly on SIGINT/SIGTERM. */
 export async function startServer(): Promise<Server> {
@@ -14,9 +15,12 @@ export async function startServer(): Promise<Server> {
     server.once("listening", () => resolve());
     server.once("error", reject);
   });
+  // The job queue (workroom invitations and reminders); a failure to start it must not stop the app.
+  await startJobs().catch((err) => logger.error({ err }, "job queue did not start; e-mails are sent inline"));
   const shutdown = async () => {
     logger.info("shutting down");
     server.close();
+    await stopJobs();
     await closeAppResources();
     await sequelize.close();
   };

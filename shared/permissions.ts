@@ -56,6 +56,8 @@ export const permissionTable = {
   "alteration.update": [S, D, C],
   "alteration.estimate": [S, D, C],
   "workroom.capacity": [S, C],
+  /** Workroom e-mails (invitations, reminders): see failed sends and send again. */
+  "workroom.mail": [S],
   "panel.read": [S, D, C],
   "panel.update": [S, C],
   "packet.read": [S, C, V],

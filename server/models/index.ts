@@ -23,6 +23,11 @@ import { MultiplesGroup } from "./MultiplesGroup.js";
 import { Garment } from "./Garment.js";
 import { GarmentStatusEvent } from "./GarmentStatusEvent.js";
 import { MeasurementSet } from "./MeasurementSet.js";
+// Workroom feature.
+import { Fitting } from "./Fitting.js";
+import { AlterationTicket } from "./AlterationTicket.js";
+import { WorkroomCapacity } from "./WorkroomCapacity.js";
+import { WorkroomEmailJob } from "./WorkroomEmailJob.js";
 
 // Associations, grouped by owner.
 Membership.belongsTo(User, { as: "user", foreignKey: "userId" });
@@ -31,6 +36,11 @@ User.hasMany(Membership, { as: "memberships", foreignKey: "userId" });
 Production.hasMany(Membership, { as: "memberships", foreignKey: "productionId" });
 Invitation.belongsTo(Production, { as: "production", foreignKey: "productionId" });
 PasswordReset.belongsTo(User, { as: "user", foreignKey: "userId" });
+// Workroom feature (tables it owns; garments, performers and changes are read with SQL until their models merge).
+AlterationTicket.belongsTo(Fitting, { as: "fitting", foreignKey: "fittingId" });
+Fitting.hasMany(AlterationTicket, { as: "tickets", foreignKey: "fittingId" });
+AlterationTicket.belongsTo(User, { as: "assignee", foreignKey: "assigneeId" });
+WorkroomCapacity.belongsTo(User, { as: "user", foreignKey: "userId" });
 
 // Breakdown: cast, scenes, shoot days, changes, appearances, continuity.
 Character.belongsTo(Performer, { as: "performer", foreignKey: "performerId" });
@@ -55,3 +65,4 @@ MeasurementSet.belongsTo(User, { as: "taker", foreignKey: "takenBy" });
 export { Fabric, FabricTest, MultiplesGroup, Garment, GarmentStatusEvent, MeasurementSet };
 export { User, Production, Membership, Invitation, PasswordReset, AuditEvent, OutboxMessage };
 export { Performer, Character, CharacterDouble, Scene, ShootDay, ShootDayScene, Change, ChangeItem, Appearance, Photo, ContinuityEntry, ContinuityEntryGarment };
+export { Fitting, AlterationTicket, WorkroomCapacity, WorkroomEmailJob };

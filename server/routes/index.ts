@@ -13,6 +13,7 @@ import { photosRouter } from "./photos.routes.js";
 import { garmentsRouter } from "./garments.routes.js";
 import { fabricsRouter } from "./fabrics.routes.js";
 import { measurementsRouter } from "./measurements.routes.js";
+import { alterationsRouter, fittingsRouter, workroomRouter } from "./workroom.routes.js";
 
 /** Everything under /api. Feature routers mount on `production` (one production's records). */
 export function buildApiRouter(): Router {
@@ -53,6 +54,10 @@ export function buildApiRouter(): Router {
   // performers router so /performers/:id/measurements always reaches it).
   production.use("/garments", garmentsRouter);
   production.use("/fabrics", fabricsRouter);
+  // Workroom feature.
+  production.use("/fittings", fittingsRouter);
+  production.use("/alterations", alterationsRouter);
+  production.use("/workroom", workroomRouter);
   production.use("/", productionRouter);
   api.use("/productions/:productionId", production);
 

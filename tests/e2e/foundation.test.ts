@@ -1,6 +1,8 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import type { Browser } from "playwright-core";
 import { launchBrowser, signIn } from "./browser.js";
+import { demoAccounts } from "../../seeds/accounts.js";
+import { workroomMembers } from "../../seeds/workroom.js";
 
 const baseUrl = inject("baseUrl");
 let browser: Browser;
@@ -23,7 +25,8 @@ describe("signing in as the demo supervisor", () => {
     await table.waitFor();
 
     const rows = await table.locator("tbody tr").count();
-    expect(rows).toBe(5);
+    // One account per role, plus the workroom step's two invented stitchers.
+    expect(rows).toBe(demoAccounts.length + workroomMembers.length);
     expect(await table.textContent()).toContain("designer@seamscene.test");
     await page.screenshot({ path: ".data/e2e-team.png" });
     await page.close();

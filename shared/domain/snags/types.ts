@@ -8,7 +8,17 @@ export type Construction = "woven" | "knit";
 export type GarmentSource = "built" | "bought" | "rented";
 export type GarmentStatus = "in_stock" | "fitting" | "workroom" | "on_set" | "cleaning" | "returned" | "lost";
 
-export type SnagKind = "fit" | "continuity" | "multiples" | "booking" | "rental" | "availability" | "quick_change";
+export type SnagKind =
+  | "fit"
+  | "continuity"
+  | "multiples"
+  | "booking"
+  | "rental"
+  | "availability"
+  | "quick_change"
+  // Workroom schedule (shared/domain/workroom-snags.ts).
+  | "workroom_late"
+  | "workroom_overbooked";
 export type SnagSeverity = "blocking" | "warning" | "note";
 
 /** An ease range in millimetres; `max: null` means the sources give no upper limit. */

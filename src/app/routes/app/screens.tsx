@@ -15,6 +15,7 @@ export const screenComponents: Partial<Record<ScreenKey, LazyExoticComponent<Com
   continuity: lazy(() => import("./continuity")),
   wardrobe: lazy(() => import("./wardrobe")),
   fabrics: lazy(() => import("./fabrics")),
+  workroom: lazy(() => import("./workroom")),
 };
 
 /**

@@ -1,0 +1,92 @@
+/**
+ * The PostgreSQL job queue (pg-boss 10), started inside the server process. Features define jobs with
+ * `defineJob`; `enqueue` sends to the queue when it runs, and otherwise (unit tests, scripts) runs the
+ * handler inline once, so tests call handlers directly instead of waiting for schedules.
+ */
+import PgBoss from "pg-boss";
+import { config } from "../config.js";
+import { logger } from "./logger.js";
+
+/** Attempt information a handler receives (retryCount counts earlier failures). */
+export interface JobMeta {
+  retryCount: number;
+  retryLimit: number;
+}
+
+interface JobDef {
+  handler: (data: Record<string, unknown>, meta: JobMeta) => Promise<void>;
+  retryLimit: number;
+  retryDelay: number;
+  retryBackoff: boolean;
+  /** Cron expression (in config.TIME_ZONE) when the job runs on a schedule. */
+  cron?: string;
+}
+
+const defs = new Map<string, JobDef>();
+let boss: PgBoss | null = null;
+
+/** Registers a job handler (call at module load of the owning service). */
+export function defineJob<T extends Record<string, unknown>>(
+  name: string,
+  options: { retryLimit?: number; retryDelay?: number; retryBackoff?: boolean; cron?: string },
+  handler: (data: T, meta: JobMeta) => Promise<void>,
+): void {
+  defs.set(name, {
+    handler: handler as JobDef["handler"],
+    retryLimit: options.retryLimit ?? 0,
+    retryDelay: options.retryDelay ?? 30,
+    retryBackoff: options.retryBackoff ?? false,
+    cron: options.cron,
+  });
+}
+
+/** Whether the queue is running in this process. */
+export function jobsRunning(): boolean {
+  return boss !== null;
+}
+
+/** Queues a job; without a running queue, runs its handler once now (failures are logged, not thrown). */
+export async function enqueue(name: string, data: Record<string, unknown>): Promise<void> {
+  const def = defs.get(name);
+  if (!def) throw new Error(`unknown job "${name}"`);
+  if (boss) {
+    await boss.send(name, data, { retryLimit: def.retryLimit, retryDelay: def.retryDelay, retryBackoff: def.retryBackoff });
+    return;
+  }
+  try {
+    await def.handler(data, { retryCount: 0, retryLimit: 0 });
+  } catch (err) {
+    logger.warn({ err, job: name }, "inline job failed");
+  }
+}
+
+/** Runs a job's handler directly (tests), with the given attempt information; errors propagate. */
+export async function runJobNow(name: string, data: Record<string, unknown>, meta: JobMeta = { retryCount: 0, retryLimit: 0 }): Promise<void> {
+  const def = defs.get(name);
+  if (!def) throw new Error(`unknown job "${name}"`);
+  await def.handler(data, meta);
+}
+
+/** Starts pg-boss: creates each queue, attaches workers and schedules. No-op when disabled or started. */
+export async function startJobs(): Promise<void> {
+  if (boss || !config.JOBS_ENABLED) return;
+  const b = new PgBoss({ connectionString: config.DATABASE_URL, max: 4, application_name: "seamscene-jobs" });
+  b.on("error", (err) => logger.error({ err }, "job queue error"));
+  await b.start();
+  for (const [name, def] of defs) {
+    await b.createQueue(name, { name, retryLimit: def.retryLimit, retryDelay: def.retryDelay, retryBackoff: def.retryBackoff });
+    await b.work<Record<string, unknown>>(name, { includeMetadata: true, batchSize: 1, pollingIntervalSeconds: 2 }, async ([job]) => {
+      await def.handler(job.data, { retryCount: job.retryCount, retryLimit: job.retryLimit });
+    });
+    if (def.cron) await b.schedule(name, def.cron, {}, { tz: config.TIME_ZONE });
+  }
+  boss = b;
+  logger.info({ queues: [...defs.keys()] }, "job queue started");
+}
+
+/** Stops pg-boss, letting running handlers finish briefly. */
+export async function stopJobs(): Promise<void> {
+  const b = boss;
+  boss = null;
+  if (b) await b.stop({ graceful: true, wait: true, timeout: 5000 });
+}

@@ -1,0 +1,33 @@
+import type { EmailJobDto } from "@shared/schemas/workroom";
+import { Button } from "@/components/ui/button";
+import { Badge, ErrorAlert } from "@/components/ui/feedback";
+import { useRetryEmailJob } from "../api/workroom";
+
+/** Workroom e-mails that are not sent yet or failed (supervisors), with a retry. */
+export function EmailFailures({ productionId, jobs }: { productionId: string; jobs: EmailJobDto[] }) {
+  const retry = useRetryEmailJob(productionId);
+  if (jobs.length === 0) return <p className="text-sm text-slate">Every invitation and reminder went out.</p>;
+  return (
+    <div className="grid gap-2">
+      {retry.error && <ErrorAlert error={retry.error} title="Not queued" />}
+      <ul className="grid gap-2" aria-label="Unsent e-mails">
+        {jobs.map((j) => (
+          <li key={j.id} className="flex flex-wrap items-center justify-between gap-2 rounded border border-chalk-200 p-2 text-sm">
+            <span>
+              <Badge tone={j.status === "failed" ? "blocking" : "warning"}>{j.status}</Badge> <span className="font-semibold">{j.subject}</span> → {j.recipient}
+              <span className="block text-xs text-slate">
+                {j.attempts} attempt{j.attempts === 1 ? "" : "s"}
+                {j.lastError ? ` · ${j.lastError}` : ""}
+              </span>
+            </span>
+            {j.status !== "sent" && (
+              <Button size="sm" variant="secondary" busy={retry.isPending && retry.variables === j.id} onClick={() => retry.mutate(j.id)}>
+                Send again
+              </Button>
+            )}
+          </li>
+        ))}
+      </ul>
+    </div>
+  );
+}

@@ -1,0 +1,141 @@
+import { useMemo, useState } from "react";
+import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import type { PlannedTicketDto, TicketStatus } from "@shared/schemas/workroom";
+import { hazardousTaskKinds } from "@shared/schemas/workroom";
+import { taskSummary } from "@shared/domain/workroom-snags";
+import type { LengthUnit } from "@shared/domain/units";
+import { Button } from "@/components/ui/button";
+import { Badge, EmptyState, ErrorAlert } from "@/components/ui/feedback";
+import { controlClass } from "@/components/ui/field";
+import { useSetTicketStatus, useUpdateTicket } from "../api/workroom";
+import { TaskSafetyNotes } from "./safety";
+
+const col = createColumnHelper<PlannedTicketDto>();
+const NEXT: Partial<Record<TicketStatus, Array<{ to: TicketStatus; label: string }>>> = {
+  waiting: [{ to: "in_progress", label: "Start" }, { to: "done", label: "Mark done" }],
+  in_progress: [{ to: "done", label: "Mark done" }],
+  done: [{ to: "checked", label: "Check" }, { to: "in_progress", label: "Reopen" }],
+};
+
+/** Open and done tickets with their plan: due date, who, planned finish, lateness; status moves and estimates inline. */
+export function TicketsTable(props: { productionId: string; tickets: PlannedTicketDto[]; units: LengthUnit; canUpdate: boolean; canEstimate: boolean }) {
+  const [sorting, setSorting] = useState<SortingState>([{ id: "dueDate", desc: false }]);
+  const setStatus = useSetTicketStatus(props.productionId);
+  const update = useUpdateTicket(props.productionId);
+  const [safetyFor, setSafetyFor] = useState<string | null>(null);
+
+  const columns = useMemo(
+    () => [
+      col.accessor((t) => `${t.tagCode} ${t.garmentName}`, { id: "garment", header: "Garment", cell: (c) => <span className="font-semibold text-ink-900">{c.getValue()}</span> }),
+      col.accessor((t) => taskSummary(t.tasks, props.units), {
+        id: "tasks",
+        header: "Tasks",
+        cell: (c) => {
+          const hazardous = c.row.original.tasks.some((k) => hazardousTaskKinds.includes(k.kind));
+          return (
+            <span>
+              {c.getValue()}
+              {hazardous && (
+                <button type="button" className="ml-1 text-xs font-semibold text-[#8a5d17] underline" onClick={() => setSafetyFor(safetyFor === c.row.original.id ? null : c.row.original.id)}>
+                  safety
+                </button>
+              )}
+            </span>
+          );
+        },
+      }),
+      col.accessor((t) => t.remainingHours ?? t.estimateHours, {
+        id: "hours",
+        header: "Hours",
+        cell: (c) =>
+          props.canEstimate && c.row.original.status !== "done" ? (
+            <input
+              aria-label={`Estimated hours for ${c.row.original.tagCode}`}
+              className={`${controlClass} w-20 py-1`}
+              defaultValue={c.row.original.estimateHours}
+              inputMode="decimal"
+              onBlur={(e) => {
+                const v = Number(e.target.value.replace(",", "."));
+                if (v > 0 && v !== c.row.original.estimateHours) update.mutate({ id: c.row.original.id, estimateHours: v });
+              }}
+            />
+          ) : (
+            `${c.getValue()} h`
+          ),
+      }),
+      col.accessor((t) => t.plannedAssigneeName ?? t.assigneeName ?? "", { id: "who", header: "Who", cell: (c) => c.getValue() || <span className="text-slate">nobody has hours</span> }),
+      col.accessor((t) => t.neededOn ?? "", { id: "neededOn", header: "Needed", cell: (c) => <span className="whitespace-nowrap">{c.getValue() || "—"}</span> }),
+      col.accessor((t) => t.dueDate ?? "9999", { id: "dueDate", header: "Due", cell: (c) => <span className="whitespace-nowrap">{c.row.original.dueDate ?? "—"}</span> }),
+      col.accessor((t) => t.plannedFinish ?? "", {
+        id: "finish",
+        header: "Planned finish",
+        cell: (c) => (
+          <span className="whitespace-nowrap" data-planned-finish={c.row.original.plannedFinish ?? ""}>
+            {c.row.original.planStatus === "done" ? "done" : (c.row.original.plannedFinish ?? `${c.row.original.unplannedHours} h do not fit`)}
+            {c.row.original.late && (
+              <>
+                {" "}
+                <Badge tone="blocking">late{c.row.original.lateness ? ` ${c.row.original.lateness} d` : ""}</Badge>
+              </>
+            )}
+          </span>
+        ),
+      }),
+      col.accessor("status", {
+        header: "Status",
+        cell: (c) => (
+          <div className="flex flex-wrap items-center gap-1">
+            <Badge>{c.getValue().replace("_", " ")}</Badge>
+            {props.canUpdate &&
+              (NEXT[c.getValue()] ?? []).map((n) => (
+                <Button key={n.to} size="sm" variant={n.to === "in_progress" && c.getValue() === "done" ? "ghost" : "secondary"} busy={setStatus.isPending && setStatus.variables?.id === c.row.original.id} onClick={() => setStatus.mutate({ id: c.row.original.id, status: n.to })}>
+                  {n.label}
+                </Button>
+              ))}
+          </div>
+        ),
+      }),
+    ],
+    [props.units, props.canEstimate, props.canUpdate, setStatus, update, safetyFor],
+  );
+
+  const table = useReactTable({ data: props.tickets, columns, state: { sorting }, onSortingChange: setSorting, getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel() });
+  if (props.tickets.length === 0) return <EmptyState title="No open alteration tickets">Raise one from a fitting.</EmptyState>;
+  const safetyTicket = props.tickets.find((t) => t.id === safetyFor);
+
+  return (
+    <div className="grid gap-2">
+      {(setStatus.error || update.error) && <ErrorAlert error={setStatus.error ?? update.error} title="Ticket not changed" />}
+      {safetyTicket && <TaskSafetyNotes kinds={safetyTicket.tasks.map((k) => k.kind)} />}
+      <div className="overflow-x-auto">
+        <table className="w-full text-left text-sm" aria-label="Alteration tickets">
+          <thead className="border-b border-chalk-200 text-xs uppercase tracking-wide text-slate">
+            {table.getHeaderGroups().map((hg) => (
+              <tr key={hg.id}>
+                {hg.headers.map((h) => (
+                  <th key={h.id} className="px-2 py-2 font-semibold">
+                    <button type="button" className="inline-flex items-center gap-1" onClick={h.column.getToggleSortingHandler()}>
+                      {flexRender(h.column.columnDef.header, h.getContext())}
+                      <span aria-hidden>{{ asc: "▲", desc: "▼" }[h.column.getIsSorted() as string] ?? ""}</span>
+                    </button>
+                  </th>
+                ))}
+              </tr>
+            ))}
+          </thead>
+          <tbody>
+            {table.getRowModel().rows.map((row) => (
+              <tr key={row.id} aria-label={`Ticket ${row.original.tagCode}`} className={row.original.late ? "border-b border-chalk-200 bg-madder-50/50" : "border-b border-chalk-200"}>
+                {row.getVisibleCells().map((cell) => (
+                  <td key={cell.id} className="px-2 py-2 align-top">
+                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                  </td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </div>
+  );
+}
