@@ -5,6 +5,7 @@ import { Invitation } from "./Invitation.js";
 import { PasswordReset } from "./PasswordReset.js";
 import { AuditEvent } from "./AuditEvent.js";
 import { OutboxMessage } from "./OutboxMessage.js";
+import { SnagDismissal } from "./SnagDismissal.js";
 
 // Associations, grouped by owner.
 Membership.belongsTo(User, { as: "user", foreignKey: "userId" });
@@ -13,5 +14,7 @@ User.hasMany(Membership, { as: "memberships", foreignKey: "userId" });
 Production.hasMany(Membership, { as: "memberships", foreignKey: "productionId" });
 Invitation.belongsTo(Production, { as: "production", foreignKey: "productionId" });
 PasswordReset.belongsTo(User, { as: "user", foreignKey: "userId" });
+// Snags
+SnagDismissal.belongsTo(User, { as: "dismisser", foreignKey: "dismissedBy" });
 
-export { User, Production, Membership, Invitation, PasswordReset, AuditEvent, OutboxMessage };
+export { User, Production, Membership, Invitation, PasswordReset, AuditEvent, OutboxMessage, SnagDismissal };

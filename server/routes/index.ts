@@ -5,6 +5,7 @@ import { authRouter, invitationsPublicRouter } from "./auth.routes.js";
 import { productionsRouter, productionRouter } from "./productions.routes.js";
 import { membersRouter, invitationsRouter, outboxRouter } from "./members.routes.js";
 import { auditRouter } from "./audit.routes.js";
+import { snagsRouter } from "./snags.routes.js";
 
 /** Everything under /api. Feature routers mount on `production` (one production's records). */
 export function buildApiRouter(): Router {
@@ -30,6 +31,7 @@ export function buildApiRouter(): Router {
   production.use("/invitations", invitationsRouter);
   production.use("/outbox", outboxRouter);
   production.use("/audit", auditRouter);
+  production.use("/snags", snagsRouter);
   production.use("/", productionRouter);
   api.use("/productions/:productionId", production);
 
