@@ -28,6 +28,7 @@ import { Fitting } from "./Fitting.js";
 import { AlterationTicket } from "./AlterationTicket.js";
 import { WorkroomCapacity } from "./WorkroomCapacity.js";
 import { WorkroomEmailJob } from "./WorkroomEmailJob.js";
+import { SnagDismissal } from "./SnagDismissal.js";
 
 // Associations, grouped by owner.
 Membership.belongsTo(User, { as: "user", foreignKey: "userId" });
@@ -66,3 +67,7 @@ export { Fabric, FabricTest, MultiplesGroup, Garment, GarmentStatusEvent, Measur
 export { User, Production, Membership, Invitation, PasswordReset, AuditEvent, OutboxMessage };
 export { Performer, Character, CharacterDouble, Scene, ShootDay, ShootDayScene, Change, ChangeItem, Appearance, Photo, ContinuityEntry, ContinuityEntryGarment };
 export { Fitting, AlterationTicket, WorkroomCapacity, WorkroomEmailJob };
+
+// Snags
+SnagDismissal.belongsTo(User, { as: "dismisser", foreignKey: "dismissedBy" });
+export { SnagDismissal };

@@ -14,6 +14,7 @@ import { garmentsRouter } from "./garments.routes.js";
 import { fabricsRouter } from "./fabrics.routes.js";
 import { measurementsRouter } from "./measurements.routes.js";
 import { alterationsRouter, fittingsRouter, workroomRouter } from "./workroom.routes.js";
+import { snagsRouter } from "./snags.routes.js";
 
 /** Everything under /api. Feature routers mount on `production` (one production's records). */
 export function buildApiRouter(): Router {
@@ -58,6 +59,7 @@ export function buildApiRouter(): Router {
   production.use("/fittings", fittingsRouter);
   production.use("/alterations", alterationsRouter);
   production.use("/workroom", workroomRouter);
+  production.use("/snags", snagsRouter);
   production.use("/", productionRouter);
   api.use("/productions/:productionId", production);
 

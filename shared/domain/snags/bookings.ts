@@ -51,28 +51,21 @@ export function doubleBookingSnag(f: DoubleBookingFacts): SnagDraft {
   };
 }
 
-/** Garments pinned to characters per run: direct change items (unless a continuity entry
- * records what was worn that day) and continuity entries (film/series). */
-export function pinnedUses(ix: SnapshotIndex): PinnedUse[] {
-  const out: PinnedUse[] = [];
+/** Calls `visit` for each pinned use, in pinnedUses order, building nothing per use. */
+export function forEachPinnedUse(
+  ix: SnapshotIndex,
+  visit: (garmentId: string, runId: string, isShootDay: boolean, characterId: string, appearanceId: string, sceneId: string) => void,
+): void {
   const recorded = new Map<string, Set<string>>(); // shoot day → appearances with an entry that day
-  const shootDayIds = new Set(ix.runs.filter((r) => r.isShootDay).map((r) => r.id));
+  const shootDayIds = new Set<string>();
+  for (const r of ix.runs) if (r.isShootDay) shootDayIds.add(r.id);
   if (!ix.isStage) {
     for (const { entry, appearance } of ix.resolvedEntries) {
       if (!shootDayIds.has(entry.shootDayId)) continue;
       let set = recorded.get(entry.shootDayId);
       if (!set) recorded.set(entry.shootDayId, (set = new Set()));
       set.add(appearance.id);
-      for (const gid of entry.garmentIds) {
-        out.push({
-          garmentId: gid,
-          runId: entry.shootDayId,
-          isShootDay: true,
-          characterId: appearance.characterId,
-          appearanceId: appearance.id,
-          sceneId: appearance.sceneId,
-        });
-      }
+      for (const gid of entry.garmentIds) visit(gid, entry.shootDayId, true, appearance.characterId, appearance.id, appearance.sceneId);
     }
   }
   for (const run of ix.runs) {
@@ -81,19 +74,21 @@ export function pinnedUses(ix: SnapshotIndex): PinnedUse[] {
       for (const app of ix.appearancesByScene.get(sceneId) ?? []) {
         if (done?.has(app.id)) continue;
         for (const item of ix.itemsByChange.get(app.changeId) ?? []) {
-          if (!item.garmentId) continue;
-          out.push({
-            garmentId: item.garmentId,
-            runId: run.id,
-            isShootDay: run.isShootDay,
-            characterId: app.characterId,
-            appearanceId: app.id,
-            sceneId,
-          });
+          if (item.garmentId) visit(item.garmentId, run.id, run.isShootDay, app.characterId, app.id, sceneId);
         }
       }
     }
   }
+}
+
+/** Garments pinned to characters per run: direct change items (unless a continuity entry
+ * records what was worn that day) and continuity entries (film/series). Only garments that
+ * pass `keep` are listed (all by default). */
+export function pinnedUses(ix: SnapshotIndex, keep?: (garmentId: string) => boolean): PinnedUse[] {
+  const out: PinnedUse[] = [];
+  forEachPinnedUse(ix, (garmentId, runId, isShootDay, characterId, appearanceId, sceneId) => {
+    if (!keep || keep(garmentId)) out.push({ garmentId, runId, isShootDay, characterId, appearanceId, sceneId });
+  });
   return out;
 }
 
@@ -154,11 +149,12 @@ export function doubleBookingSnags(ix: SnapshotIndex, uses: PinnedUse[] = pinned
   return out;
 }
 
-/** Dates a garment is needed: pinned uses, continuity entries and planned multiples copies. */
+/** Dates a garment is needed: pinned uses, continuity entries and planned multiples copies (garments passing `keep`). */
 export function neededDates(
   ix: SnapshotIndex,
   plans: GroupPlan[],
   uses: PinnedUse[] = pinnedUses(ix),
+  keep?: (garmentId: string) => boolean,
 ): Map<string, string[]> {
   const datesOfRun = new Map<string, string[]>();
   for (const r of ix.runs) datesOfRun.set(r.id, r.dates);
@@ -166,6 +162,7 @@ export function neededDates(
   for (const p of ix.snapshot.performances ?? []) if (!datesOfRun.has(p.id)) datesOfRun.set(p.id, [p.date]);
   const acc = new Map<string, Set<string>>();
   const add = (gid: string, runId: string) => {
+    if (keep && !keep(gid)) return;
     const ds = datesOfRun.get(runId);
     if (!ds || ds.length === 0) return;
     let s = acc.get(gid);
@@ -248,9 +245,23 @@ export function availabilitySnag(g: GarmentRec, dates: string[], today: string):
 
 /** All booking, rental and availability snags. */
 export function bookingSnags(ix: SnapshotIndex, plans: GroupPlan[], today: string): SnagDraft[] {
-  const uses = pinnedUses(ix);
+  // Only two kinds of garment can give a snag here: one pinned to two or more characters (double
+  // booking) and one that is rented or not available (dates needed). Find them in a pass that builds
+  // nothing per use, then build uses and dates for those garments alone.
+  const firstCharacter = new Map<string, string>();
+  const shared = new Set<string>();
+  forEachPinnedUse(ix, (gid, _run, _isDay, characterId) => {
+    const first = firstCharacter.get(gid);
+    if (first === undefined) firstCharacter.set(gid, characterId);
+    else if (first !== characterId) shared.add(gid);
+  });
+  const needsDates = (gid: string): boolean => {
+    const g = ix.garmentsById.get(gid);
+    return g !== undefined && ((g.source === "rented" && !!g.rentalDueDate) || GONE.includes(g.status) || AWAY.includes(g.status));
+  };
+  const uses = pinnedUses(ix, (gid) => shared.has(gid) || needsDates(gid));
   const out = doubleBookingSnags(ix, uses);
-  for (const [gid, dates] of neededDates(ix, plans, uses)) {
+  for (const [gid, dates] of neededDates(ix, plans, uses, needsDates)) {
     const g = ix.garmentsById.get(gid);
     if (!g) continue;
     const r = rentalSnag(g, dates);

@@ -146,33 +146,100 @@ export function copyLabelOf(ix: SnapshotIndex, r: CopyRecord): string {
   return r.copyId;
 }
 
-/** All copy records: continuity entries first-hand; otherwise direct change items and the multiples plan.
+/**
+ * Copy records kept as columns (one array per field, no object per record). A full recompute makes
+ * tens of thousands of records that live only for this rule; as objects they outgrow the young
+ * generation at production scale and get promoted, which made this step grow faster than the data.
+ */
+export class CopyRecordTable {
+  readonly copyId: string[] = [];
+  readonly garmentId: (string | null)[] = [];
+  readonly groupId: (string | null)[] = [];
+  /** 1 for a continuity entry (`entry:<id>`), 0 for a planned use (`app:<id>`). */
+  readonly isEntry: number[] = [];
+  /** The entry or appearance id without its prefix. */
+  readonly rawId: string[] = [];
+  readonly appearanceId: string[] = [];
+  readonly characterId: string[] = [];
+  readonly sceneId: string[] = [];
+  readonly storyOrder: number[] = [];
+  readonly date: string[] = [];
+  readonly stage: number[] = [];
+
+  get length(): number {
+    return this.copyId.length;
+  }
+
+  add(
+    copyId: string,
+    garmentId: string | null,
+    groupId: string | null,
+    isEntry: number,
+    rawId: string,
+    appearanceId: string,
+    characterId: string,
+    sceneId: string,
+    storyOrder: number,
+    date: string,
+    stage: number,
+  ): void {
+    this.copyId.push(copyId);
+    this.garmentId.push(garmentId);
+    this.groupId.push(groupId);
+    this.isEntry.push(isEntry);
+    this.rawId.push(rawId);
+    this.appearanceId.push(appearanceId);
+    this.characterId.push(characterId);
+    this.sceneId.push(sceneId);
+    this.storyOrder.push(storyOrder);
+    this.date.push(date);
+    this.stage.push(stage);
+  }
+
+  /** Record i as an object. */
+  record(i: number): CopyRecord {
+    return {
+      copyId: this.copyId[i],
+      garmentId: this.garmentId[i],
+      groupId: this.groupId[i],
+      recordId: `${this.isEntry[i] ? "entry" : "app"}:${this.rawId[i]}`,
+      appearanceId: this.appearanceId[i],
+      characterId: this.characterId[i],
+      sceneId: this.sceneId[i],
+      storyOrder: this.storyOrder[i],
+      date: this.date[i],
+      stage: this.stage[i],
+    };
+  }
+
+  /** compareRecords on two rows, then row order (so the sort needs no stability). "app:" sorts before "entry:". */
+  compare(a: number, b: number): number {
+    return (
+      this.storyOrder[a] - this.storyOrder[b] ||
+      cmpStr(this.sceneId[a], this.sceneId[b]) ||
+      cmpStr(this.date[a], this.date[b]) ||
+      this.isEntry[a] - this.isEntry[b] ||
+      cmpStr(this.rawId[a], this.rawId[b]) ||
+      a - b
+    );
+  }
+}
+
+/** Every copy record: continuity entries first-hand; otherwise direct change items and the multiples plan.
  * A (copy, record) pair may appear more than once (same data); distressBreakSnags drops the repeats. */
-export function copyRecords(ix: SnapshotIndex, plans: GroupPlan[]): CopyRecord[] {
-  const out: CopyRecord[] = [];
-  const push = (r: CopyRecord) => {
-    out.push(r);
-  };
+export function copyRecordTable(ix: SnapshotIndex, plans: GroupPlan[]): CopyRecordTable {
+  const t = new CopyRecordTable();
   const dateOfRun = new Map<string, string>();
   for (const d of ix.snapshot.shootDays) dateOfRun.set(d.id, d.date);
   for (const p of ix.snapshot.performances ?? []) dateOfRun.set(p.id, p.date);
   for (const { entry, appearance } of ix.resolvedEntries) {
     const sc = ix.scenesById.get(appearance.sceneId);
     if (!sc) continue;
+    const date = dateOfRun.get(entry.shootDayId) ?? "";
+    const stage = entry.distressStage ?? appearance.distressStage;
     for (const gid of entry.garmentIds) {
       const g = ix.garmentsById.get(gid);
-      push({
-        copyId: gid,
-        garmentId: gid,
-        groupId: g?.multiplesGroupId ?? null,
-        recordId: `entry:${entry.id}`,
-        appearanceId: appearance.id,
-        characterId: appearance.characterId,
-        sceneId: appearance.sceneId,
-        storyOrder: sc.storyOrder,
-        date: dateOfRun.get(entry.shootDayId) ?? "",
-        stage: entry.distressStage ?? appearance.distressStage,
-      });
+      t.add(gid, gid, g?.multiplesGroupId ?? null, 1, entry.id, appearance.id, appearance.characterId, appearance.sceneId, sc.storyOrder, date, stage);
     }
   }
   for (const app of ix.snapshot.appearances) {
@@ -182,61 +249,66 @@ export function copyRecords(ix: SnapshotIndex, plans: GroupPlan[]): CopyRecord[]
     for (const item of ix.itemsByChange.get(app.changeId) ?? []) {
       if (!item.garmentId) continue;
       const g = ix.garmentsById.get(item.garmentId);
-      push({
-        copyId: item.garmentId,
-        garmentId: item.garmentId,
-        groupId: g?.multiplesGroupId ?? null,
-        recordId: `app:${app.id}`,
-        appearanceId: app.id,
-        characterId: app.characterId,
-        sceneId: app.sceneId,
-        storyOrder: sc.storyOrder,
-        date: "",
-        stage: app.distressStage,
-      });
+      t.add(item.garmentId, item.garmentId, g?.multiplesGroupId ?? null, 0, app.id, app.id, app.characterId, app.sceneId, sc.storyOrder, "", app.distressStage);
     }
   }
   for (const plan of plans) {
-    plan.demands.forEach((d, i) => {
-      if (ix.appearancesWithEntries.has(d.appearanceId)) return;
+    for (let i = 0; i < plan.demands.length; i++) {
+      const d = plan.demands[i];
+      if (ix.appearancesWithEntries.has(d.appearanceId)) continue;
       const sc = ix.scenesById.get(d.sceneId);
-      if (!sc) return;
+      if (!sc) continue;
       const c = plan.copyOf[i];
       const garmentId = plan.copyIds[c] ?? null;
-      push({
-        copyId: garmentId ?? `${plan.groupId}#${c + 1}`,
-        garmentId,
-        groupId: plan.groupId,
-        recordId: `app:${d.appearanceId}`,
-        appearanceId: d.appearanceId,
-        characterId: d.characterId,
-        sceneId: d.sceneId,
-        storyOrder: sc.storyOrder,
-        date: "",
-        stage: d.level,
-      });
-    });
+      t.add(garmentId ?? `${plan.groupId}#${c + 1}`, garmentId, plan.groupId, 0, d.appearanceId, d.appearanceId, d.characterId, d.sceneId, sc.storyOrder, "", d.level);
+    }
   }
+  return t;
+}
+
+/** All copy records as objects (see copyRecordTable). */
+export function copyRecords(ix: SnapshotIndex, plans: GroupPlan[]): CopyRecord[] {
+  const t = copyRecordTable(ix, plans);
+  const out: CopyRecord[] = [];
+  for (let i = 0; i < t.length; i++) out.push(t.record(i));
   return out;
 }
 
-/** Rule 2: distress going down in story order for one copy. */
+/** Rule 2: distress going down in story order for one copy. Rows are bucketed by copy with a
+ * counting sort and each bucket sorted in place; objects are built only for the rows of a snag. */
 export function distressBreakSnags(ix: SnapshotIndex, plans: GroupPlan[]): SnagDraft[] {
-  const byCopy = new Map<string, CopyRecord[]>();
-  for (const r of copyRecords(ix, plans)) {
-    let list = byCopy.get(r.copyId);
-    if (!list) byCopy.set(r.copyId, (list = []));
-    list.push(r);
+  const t = copyRecordTable(ix, plans);
+  const n = t.length;
+  const copyNo = new Map<string, number>();
+  const noOf = new Int32Array(n);
+  for (let i = 0; i < n; i++) {
+    let k = copyNo.get(t.copyId[i]);
+    if (k === undefined) copyNo.set(t.copyId[i], (k = copyNo.size));
+    noOf[i] = k;
   }
+  const starts = new Int32Array(copyNo.size + 1);
+  for (let i = 0; i < n; i++) starts[noOf[i] + 1]++;
+  for (let k = 0; k < copyNo.size; k++) starts[k + 1] += starts[k];
+  const fill = starts.slice(0, copyNo.size);
+  const order = new Int32Array(n);
+  for (let i = 0; i < n; i++) order[fill[noOf[i]]++] = i;
+  const cmp = (a: number, b: number) => t.compare(a, b);
   const num = (id: string) => sceneNo(ix, id);
   const out: SnagDraft[] = [];
-  for (const list of byCopy.values()) {
-    list.sort(compareRecords);
+  for (let k = 0; k < copyNo.size; k++) {
+    const from = starts[k];
+    const to = starts[k + 1];
+    if (to - from < 2) continue;
+    order.subarray(from, to).sort(cmp);
     // Repeats of one record (same copy, same record id) sort next to each other and carry the same stage.
-    let prev: CopyRecord | null = null;
-    for (const cur of list) {
-      if (prev && cur.recordId === prev.recordId) continue;
-      if (prev && cur.stage < prev.stage) out.push(distressBreakSnag(prev, cur, copyLabelOf(ix, cur), num));
+    let prev = -1;
+    for (let j = from; j < to; j++) {
+      const cur = order[j];
+      if (prev >= 0 && t.isEntry[cur] === t.isEntry[prev] && t.rawId[cur] === t.rawId[prev]) continue;
+      if (prev >= 0 && t.stage[cur] < t.stage[prev]) {
+        const c = t.record(cur);
+        out.push(distressBreakSnag(t.record(prev), c, copyLabelOf(ix, c), num));
+      }
       prev = cur;
     }
   }

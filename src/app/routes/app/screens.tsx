@@ -16,6 +16,7 @@ export const screenComponents: Partial<Record<ScreenKey, LazyExoticComponent<Com
   wardrobe: lazy(() => import("./wardrobe")),
   fabrics: lazy(() => import("./fabrics")),
   workroom: lazy(() => import("./workroom")),
+  snags: lazy(() => import("./snags")),
 };
 
 /**

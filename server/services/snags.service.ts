@@ -1,0 +1,590 @@
+// Snags: load one production as a plain snapshot (one raw query per table), run the pure engine,
+// merge the department's dismissals and resolve names and links for the client.
+import { QueryTypes } from "sequelize";
+import { sequelize } from "../db.js";
+import { SnagDismissal, User } from "../models/index.js";
+import { NotFoundError } from "../errors.js";
+import { recordAudit } from "./audit.service.js";
+import type { Actor } from "../middleware/require-auth.js";
+import { computeMultiplesPlans, computeSnags } from "@shared/domain/snags/engine.js";
+import type {
+  AppearanceRec,
+  CharacterRec,
+  ContinuityEntryRec,
+  EaseOverrides,
+  GarmentRec,
+  PerformanceRec,
+  ProductionSnapshot,
+  ShootDayRec,
+  Snag,
+} from "@shared/domain/snags/types.js";
+import {
+  snagKinds,
+  snagSeverities,
+  type DismissSnagInput,
+  type ListSnagsQuery,
+  type MultiplesPlanDto,
+  type SnagCounts,
+  type SnagDismissalDto,
+  type SnagDto,
+  type SnagLinkDto,
+  type SnagListDto,
+} from "@shared/schemas/snags.js";
+
+/** Quick-change threshold when the production sets none (minutes; common practice, no source). */
+export const DEFAULT_QUICK_CHANGE_MIN = 3;
+
+/** The date snags are judged against; tests replace it (the only clock this service reads). */
+export const snagClock = {
+  today(): string {
+    const d = new Date();
+    return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, "0")}-${String(d.getDate()).padStart(2, "0")}`;
+  },
+};
+
+/** What the engine needs plus what the client needs to read the answer (names, dates, kinds). */
+export interface LoadedProduction {
+  snapshot: ProductionSnapshot;
+  /** Every shoot day and performance, by date. */
+  days: { id: string; date: string; kind: "shoot" | "performance" }[];
+}
+
+type Row = Record<string, unknown>;
+
+const num = (v: unknown): number | null => {
+  if (v === null || v === undefined || v === "") return null;
+  const n = typeof v === "number" ? v : Number(v);
+  return Number.isFinite(n) ? n : null;
+};
+
+/** Keep only finite numeric members of a JSON object (measurements in mm). */
+function numericRecord(v: unknown): Record<string, number> {
+  const out: Record<string, number> = {};
+  if (v && typeof v === "object" && !Array.isArray(v)) {
+    for (const [k, x] of Object.entries(v as Record<string, unknown>)) {
+      const n = num(x);
+      if (n !== null) out[k] = n;
+    }
+  }
+  return out;
+}
+
+/** Reads the production into the engine's plain snapshot: one query per table, all production-scoped. */
+export async function loadSnapshot(productionId: string): Promise<LoadedProduction> {
+  const q = <T extends Row>(sql: string) =>
+    sequelize.query<T>(sql, { replacements: { pid: productionId }, type: QueryTypes.SELECT });
+  const [
+    productions,
+    scenes,
+    days,
+    dayScenes,
+    characters,
+    doubles,
+    performers,
+    measurements,
+    changes,
+    items,
+    appearances,
+    garments,
+    groups,
+    entries,
+  ] = await Promise.all([
+    q(`SELECT id, kind, settings FROM productions WHERE id = :pid`),
+    q(`SELECT id, number, story_day, story_order, running_minutes FROM scenes WHERE production_id = :pid ORDER BY story_order, id`),
+    q(`SELECT id, to_char(date, 'YYYY-MM-DD') AS date, kind, to_char(starts_at, 'HH24:MI') AS starts_at
+         FROM shoot_days WHERE production_id = :pid ORDER BY date, day_number`),
+    q(`SELECT shoot_day_id, scene_id FROM shoot_day_scenes WHERE production_id = :pid ORDER BY shoot_day_id, position, id`),
+    q(`SELECT id, name, performer_id FROM characters WHERE production_id = :pid ORDER BY sort_order, name`),
+    q(`SELECT character_id, performer_id FROM character_doubles WHERE production_id = :pid ORDER BY character_id, performer_id`),
+    q(`SELECT id, name FROM performers WHERE production_id = :pid`),
+    // The newest set per performer is the current one.
+    q(`SELECT DISTINCT ON (performer_id) performer_id, values_mm FROM measurement_sets
+         WHERE production_id = :pid ORDER BY performer_id, taken_on DESC, created_at DESC`),
+    q(`SELECT id, character_id, number FROM changes WHERE production_id = :pid`),
+    q(`SELECT id, change_id, garment_id, multiples_group_id FROM change_items WHERE production_id = :pid`),
+    q(`SELECT id, scene_id, character_id, change_id, distress_stage, wet, stunt, blood, vfx_shot, change_here
+         FROM appearances WHERE production_id = :pid`),
+    q(`SELECT g.id, g.tag_code, g.name, g.category, g.fit_intent, g.finished_measurements, g.source,
+              to_char(g.rental_due_on, 'YYYY-MM-DD') AS rental_due_on, g.status, g.multiples_group_id, g.copy_number,
+              f.construction, f.stretch_warp_pct, f.stretch_weft_pct
+         FROM garments g LEFT JOIN fabrics f ON f.id = g.fabric_id WHERE g.production_id = :pid`),
+    q(`SELECT id, name FROM multiples_groups WHERE production_id = :pid`),
+    q(`SELECT e.id, e.shoot_day_id, e.scene_id, e.character_id, e.distress_stage,
+              COALESCE(array_agg(eg.garment_id ORDER BY eg.garment_id) FILTER (WHERE eg.garment_id IS NOT NULL), '{}') AS garment_ids
+         FROM continuity_entries e LEFT JOIN continuity_entry_garments eg ON eg.continuity_entry_id = e.id
+         WHERE e.production_id = :pid GROUP BY e.id`),
+  ]);
+  const prod = productions[0];
+  if (!prod) throw NotFoundError("Production not found.");
+  const settings = (prod.settings ?? {}) as { quickChangeThresholdMin?: unknown; easeOverrides?: unknown };
+
+  const sceneIdsOfDay = new Map<string, string[]>();
+  for (const r of dayScenes) {
+    const d = r.shoot_day_id as string;
+    let l = sceneIdsOfDay.get(d);
+    if (!l) sceneIdsOfDay.set(d, (l = []));
+    l.push(r.scene_id as string);
+  }
+  const shootDays: ShootDayRec[] = [];
+  const performances: PerformanceRec[] = [];
+  for (const d of days) {
+    if (d.kind === "performance") performances.push({ id: d.id as string, date: d.date as string, startsAt: (d.starts_at as string | null) ?? "19:30" });
+    else shootDays.push({ id: d.id as string, date: d.date as string, sceneIds: sceneIdsOfDay.get(d.id as string) ?? [] });
+  }
+
+  const doublesOf = new Map<string, string[]>();
+  for (const r of doubles) {
+    const c = r.character_id as string;
+    const l = doublesOf.get(c) ?? [];
+    if (!l.includes(r.performer_id as string)) l.push(r.performer_id as string);
+    doublesOf.set(c, l);
+  }
+  const measurementsOf = new Map<string, Record<string, number>>();
+  for (const m of measurements) measurementsOf.set(m.performer_id as string, numericRecord(m.values_mm));
+
+  const groupGarments = new Map<string, string[]>();
+  const garmentRecs: GarmentRec[] = garments.map((g) => {
+    const knit = g.construction === "knit";
+    // Knits: crosswise (weft/course) stretch goes round the body; warp when only that was tested.
+    const pct = num(g.stretch_weft_pct) ?? num(g.stretch_warp_pct);
+    const groupId = (g.multiples_group_id as string | null) ?? null;
+    if (groupId) {
+      const l = groupGarments.get(groupId) ?? [];
+      l.push(g.id as string);
+      groupGarments.set(groupId, l);
+    }
+    return {
+      id: g.id as string,
+      tagCode: g.tag_code as string,
+      name: g.name as string,
+      category: g.category as string,
+      fitIntent: g.fit_intent as GarmentRec["fitIntent"],
+      construction: knit ? "knit" : "woven",
+      stretchRatio: knit && pct !== null && pct > 0 ? 1 + pct / 100 : null,
+      finished: numericRecord(g.finished_measurements),
+      source: g.source as GarmentRec["source"],
+      rentalDueDate: (g.rental_due_on as string | null) ?? null,
+      status: g.status as GarmentRec["status"],
+      multiplesGroupId: groupId,
+      copyNumber: num(g.copy_number),
+    };
+  });
+
+  const appearanceRecs: AppearanceRec[] = [];
+  for (const a of appearances) {
+    // An appearance without a change yet has nothing to check; counting it would invent breaks.
+    if (!a.change_id) continue;
+    appearanceRecs.push({
+      id: a.id as string,
+      sceneId: a.scene_id as string,
+      characterId: a.character_id as string,
+      changeId: a.change_id as string,
+      distressStage: num(a.distress_stage) ?? 0,
+      wet: Boolean(a.wet),
+      stunt: Boolean(a.stunt),
+      blood: Boolean(a.blood),
+      vfxShot: Boolean(a.vfx_shot),
+      changeHere: Boolean(a.change_here),
+    });
+  }
+
+  const entryRecs: ContinuityEntryRec[] = entries.map((e) => ({
+    id: e.id as string,
+    sceneId: e.scene_id as string,
+    characterId: e.character_id as string,
+    // An entry not tied to a shoot day still records what was worn; it just has no date.
+    shootDayId: (e.shoot_day_id as string | null) ?? "",
+    garmentIds: (e.garment_ids as string[]) ?? [],
+    distressStage: num(e.distress_stage),
+  }));
+
+  const characterRecs: CharacterRec[] = characters.map((c) => ({
+    id: c.id as string,
+    name: c.name as string,
+    performerId: (c.performer_id as string | null) ?? null,
+    doublePerformerIds: doublesOf.get(c.id as string) ?? [],
+  }));
+
+  const snapshot: ProductionSnapshot = {
+    production: {
+      id: productionId,
+      kind: prod.kind as ProductionSnapshot["production"]["kind"],
+      quickChangeThresholdMin: num(settings.quickChangeThresholdMin) ?? DEFAULT_QUICK_CHANGE_MIN,
+      easeOverrides: isEaseOverrides(settings.easeOverrides) ? settings.easeOverrides : undefined,
+    },
+    scenes: scenes.map((s, i) => ({
+      id: s.id as string,
+      number: s.number as string,
+      // No story day: the scene is alone in its day, so the same-day rule cannot invent a break.
+      storyDay: num(s.story_day) ?? -(i + 1),
+      storyOrder: num(s.story_order) ?? i,
+      runningMinutes: num(s.running_minutes),
+      stageOrder: null,
+    })),
+    shootDays,
+    performances,
+    characters: characterRecs,
+    performers: performers.map((p) => ({ id: p.id as string, name: p.name as string, measurements: measurementsOf.get(p.id as string) ?? {} })),
+    changes: changes.map((c) => ({ id: c.id as string, characterId: c.character_id as string, number: num(c.number) ?? String(c.number) })),
+    changeItems: items.map((i) => ({
+      id: i.id as string,
+      changeId: i.change_id as string,
+      garmentId: (i.garment_id as string | null) ?? null,
+      multiplesGroupId: (i.multiples_group_id as string | null) ?? null,
+    })),
+    appearances: appearanceRecs,
+    garments: garmentRecs,
+    multiplesGroups: groups.map((g) => ({ id: g.id as string, name: g.name as string, garmentIds: groupGarments.get(g.id as string) ?? [] })),
+    continuityEntries: entryRecs,
+  };
+  return {
+    snapshot,
+    days: days.map((d) => ({ id: d.id as string, date: d.date as string, kind: d.kind === "performance" ? "performance" : "shoot" })),
+  };
+}
+
+/** Loose shape check for `settings.easeOverrides` (category → point → intent → {min, max}). */
+function isEaseOverrides(v: unknown): v is EaseOverrides {
+  if (!v || typeof v !== "object" || Array.isArray(v)) return false;
+  for (const points of Object.values(v as Record<string, unknown>)) {
+    if (!points || typeof points !== "object") return false;
+    for (const intents of Object.values(points as Record<string, unknown>)) {
+      if (!intents || typeof intents !== "object") return false;
+      for (const r of Object.values(intents as Record<string, unknown>)) {
+        const range = r as { min?: unknown; max?: unknown };
+        if (!range || typeof range.min !== "number" || !(range.max === null || typeof range.max === "number")) return false;
+      }
+    }
+  }
+  return true;
+}
+
+/** Lookups for resolving names, links and "what does this snag concern". */
+class Resolver {
+  readonly characters = new Map<string, string>();
+  readonly garments = new Map<string, GarmentRec>();
+  readonly scenes = new Map<string, string>();
+  readonly days = new Map<string, { date: string; kind: "shoot" | "performance" }>();
+  readonly groups = new Map<string, string>();
+  readonly appearanceCharacter = new Map<string, string>();
+  /** Garment → characters whose changes use it (directly or as a copy of a group). */
+  readonly wearersOfGarment = new Map<string, Set<string>>();
+  /** Group → characters whose changes draw on it. */
+  readonly wearersOfGroup = new Map<string, Set<string>>();
+
+  constructor(
+    readonly productionId: string,
+    readonly loaded: LoadedProduction,
+  ) {
+    const s = loaded.snapshot;
+    for (const c of s.characters) this.characters.set(c.id, c.name);
+    for (const g of s.garments) this.garments.set(g.id, g);
+    for (const sc of s.scenes) this.scenes.set(sc.id, sc.number);
+    for (const d of loaded.days) this.days.set(d.id, { date: d.date, kind: d.kind });
+    for (const g of s.multiplesGroups) this.groups.set(g.id, g.name);
+    for (const a of s.appearances) this.appearanceCharacter.set(a.id, a.characterId);
+    const charOfChange = new Map(s.changes.map((c) => [c.id, c.characterId]));
+    const copies = new Map<string, string[]>();
+    for (const g of s.garments) if (g.multiplesGroupId) (copies.get(g.multiplesGroupId) ?? copies.set(g.multiplesGroupId, []).get(g.multiplesGroupId)!).push(g.id);
+    const add = (m: Map<string, Set<string>>, k: string, c: string) => (m.get(k) ?? m.set(k, new Set()).get(k)!).add(c);
+    for (const it of s.changeItems) {
+      const c = charOfChange.get(it.changeId);
+      if (!c) continue;
+      if (it.garmentId) add(this.wearersOfGarment, it.garmentId, c);
+      if (it.multiplesGroupId) {
+        add(this.wearersOfGroup, it.multiplesGroupId, c);
+        for (const g of copies.get(it.multiplesGroupId) ?? []) add(this.wearersOfGarment, g, c);
+      }
+    }
+  }
+
+  /** Every character a snag concerns: its subject, the wearers in its appearances, its garment's wearers. */
+  charactersOf(s: Snag): Set<string> {
+    const out = new Set<string>();
+    if (s.subject.characterId) out.add(s.subject.characterId);
+    for (const a of s.subject.appearanceIds ?? []) {
+      const c = this.appearanceCharacter.get(a);
+      if (c) out.add(c);
+    }
+    if (out.size === 0 && s.subject.garmentId) for (const c of this.wearersOfGarment.get(s.subject.garmentId) ?? []) out.add(c);
+    if (out.size === 0 && s.subject.groupId) for (const c of this.wearersOfGroup.get(s.subject.groupId) ?? []) out.add(c);
+    return out;
+  }
+
+  private path(rest: string): string {
+    return `/p/${this.productionId}/${rest}`;
+  }
+
+  /** Links to the records that fix a snag; the first is the one to open. */
+  linksOf(s: Snag): SnagLinkDto[] {
+    const links: SnagLinkDto[] = [];
+    const sub = s.subject;
+    const garment = sub.garmentId ? this.garments.get(sub.garmentId) : undefined;
+    const garmentLink = () => garment && links.push({ label: `Garment ${garment.tagCode}`, href: this.path(`wardrobe/garments/${garment.id}`) });
+    const sceneLinks = (ids: string[]) => {
+      for (const id of ids) links.push({ label: `Scene ${this.scenes.get(id) ?? "?"}`, href: this.path(`breakdown/scenes/${id}`) });
+    };
+    const later = [...(sub.sceneIds ?? [])].reverse();
+    switch (s.kind) {
+      case "fit":
+      case "booking":
+      case "rental":
+      case "availability":
+        garmentLink();
+        if (s.kind === "booking") sceneLinks(sub.sceneIds ?? []);
+        break;
+      case "multiples":
+        if (sub.groupId) {
+          links.push({ label: "Copy plan", href: this.path(`snags/multiples/${sub.groupId}`) });
+          links.push({ label: `Multiples group \u201c${this.groups.get(sub.groupId) ?? "?"}\u201d`, href: this.path(`wardrobe/multiples/${sub.groupId}`) });
+        }
+        break;
+      case "continuity":
+      case "quick_change":
+        // The later scene is where the breakdown (or the copy) has to change.
+        sceneLinks(later);
+        garmentLink();
+        break;
+    }
+    for (const c of this.charactersOf(s)) {
+      links.push({ label: this.characters.get(c) ?? "Character", href: this.path(`cast/characters/${c}`) });
+    }
+    return links;
+  }
+
+  /** The snag with names resolved and links added. */
+  present(s: Snag): SnagDto {
+    const sub = s.subject;
+    const garmentIds = sub.garmentId ? [sub.garmentId] : [];
+    return {
+      key: s.key,
+      kind: s.kind,
+      severity: s.severity,
+      title: s.title,
+      explanation: s.explanation,
+      evidence: s.evidence,
+      evidenceHash: s.evidenceHash,
+      subject: sub,
+      characters: Array.from(this.charactersOf(s)).map((id) => ({ id, name: this.characters.get(id) ?? id })),
+      garments: garmentIds.flatMap((id) => {
+        const g = this.garments.get(id);
+        return g ? [{ id, tagCode: g.tagCode, name: g.name }] : [];
+      }),
+      scenes: (sub.sceneIds ?? []).map((id) => ({ id, number: this.scenes.get(id) ?? id })),
+      shootDays: (sub.shootDayIds ?? []).flatMap((id) => {
+        const d = this.days.get(id);
+        return d ? [{ id, date: d.date }] : [];
+      }),
+      group: sub.groupId ? { id: sub.groupId, name: this.groups.get(sub.groupId) ?? sub.groupId } : null,
+      links: this.linksOf(s),
+      dismissal: null,
+      lapsedDismissal: null,
+      ...(s.assignment ? { assignment: s.assignment } : {}),
+    };
+  }
+
+  /** Does a snag touch this shoot day: listed on it, in one of its scenes, or a garment/group worn that day? */
+  touchesDay(dayId: string): (s: Snag) => boolean {
+    const snap = this.loaded.snapshot;
+    const day = snap.shootDays.find((d) => d.id === dayId);
+    if (!day) return () => true; // a performance plays the whole running order
+    const scenes = new Set(day.sceneIds);
+    const changes = new Set<string>();
+    for (const a of snap.appearances) if (scenes.has(a.sceneId)) changes.add(a.changeId);
+    const garments = new Set<string>();
+    const groups = new Set<string>();
+    for (const it of snap.changeItems) {
+      if (!changes.has(it.changeId)) continue;
+      if (it.garmentId) garments.add(it.garmentId);
+      if (it.multiplesGroupId) groups.add(it.multiplesGroupId);
+    }
+    for (const g of snap.garments) if (g.multiplesGroupId && groups.has(g.multiplesGroupId)) garments.add(g.id);
+    // A snag about named days (a double booking, a multiples plan) touches only those days.
+    return (s) =>
+      s.subject.shootDayIds?.length
+        ? s.subject.shootDayIds.includes(dayId)
+        : (s.subject.sceneIds ?? []).some((id) => scenes.has(id)) ||
+          (s.subject.garmentId !== undefined && garments.has(s.subject.garmentId)) ||
+          (s.subject.groupId !== undefined && groups.has(s.subject.groupId));
+  }
+}
+
+function presentDismissal(d: SnagDismissal): SnagDismissalDto {
+  return {
+    id: d.id,
+    snagKey: d.snagKey,
+    reason: d.reason,
+    dismissedByName: d.dismisser?.name ?? null,
+    dismissedAt: d.updatedAt.toISOString(),
+  };
+}
+
+/** Current snags of a production (recomputed from the database) with the date they were judged on. */
+export async function currentSnags(productionId: string): Promise<{ loaded: LoadedProduction; snags: Snag[]; today: string }> {
+  const loaded = await loadSnapshot(productionId);
+  const today = snagClock.today();
+  return { loaded, snags: computeSnags(loaded.snapshot, { today }), today };
+}
+
+const zeroCounts = (): SnagCounts => ({
+  total: 0,
+  dismissed: 0,
+  lapsed: 0,
+  bySeverity: Object.fromEntries(snagSeverities.map((s) => [s, 0])) as SnagCounts["bySeverity"],
+  byKind: Object.fromEntries(snagKinds.map((k) => [k, 0])) as SnagCounts["byKind"],
+});
+
+/** The snag list with dismissals merged, filtered, counted and explained. */
+export async function listSnags(actor: Actor, query: ListSnagsQuery): Promise<SnagListDto> {
+  const [{ loaded, snags, today }, dismissals] = await Promise.all([
+    currentSnags(actor.productionId),
+    SnagDismissal.findAll({ where: { productionId: actor.productionId }, include: [{ model: User, as: "dismisser", attributes: ["id", "name"] }] }),
+  ]);
+  const r = new Resolver(actor.productionId, loaded);
+  const dismissalByKey = new Map(dismissals.map((d) => [d.snagKey, d]));
+  const upcoming = loaded.days.filter((d) => d.date >= today && (loaded.snapshot.production.kind === "stage" ? d.kind === "performance" : d.kind === "shoot"));
+  const next = upcoming[0] ?? null;
+
+  let dayFilter: ((s: Snag) => boolean) | null = null;
+  if (query.shootDayId) {
+    const dayId = query.shootDayId === "next" ? next?.id : query.shootDayId;
+    if (!dayId) dayFilter = () => false;
+    else if (!r.days.has(dayId)) throw NotFoundError("Shoot day not found.");
+    else dayFilter = r.touchesDay(dayId);
+  }
+
+  const counts = zeroCounts();
+  const out: SnagDto[] = [];
+  const lapsed: SnagDismissalDto[] = [];
+  for (const s of snags) {
+    if (dayFilter && !dayFilter(s)) continue;
+    if (query.characterId && !r.charactersOf(s).has(query.characterId)) continue;
+    const d = dismissalByKey.get(s.key);
+    const dismissed = d !== undefined && d.evidenceHash === s.evidenceHash;
+    const dto = r.present(s);
+    if (d && dismissed) dto.dismissal = presentDismissal(d);
+    if (d && !dismissed) {
+      dto.lapsedDismissal = presentDismissal(d);
+      lapsed.push(dto.lapsedDismissal);
+      counts.lapsed++;
+    }
+    if (dismissed) counts.dismissed++;
+    else {
+      counts.total++;
+      counts.bySeverity[s.severity]++;
+      counts.byKind[s.kind]++;
+    }
+    if (dismissed && !query.includeDismissed) continue;
+    if (query.severity && s.severity !== query.severity) continue;
+    if (query.kind && s.kind !== query.kind) continue;
+    out.push(dto);
+  }
+  return {
+    today,
+    nextShootDay: next,
+    snags: out,
+    counts,
+    lapsedDismissals: lapsed,
+    characters: loaded.snapshot.characters.map((c) => ({ id: c.id, name: c.name })),
+    shootDays: loaded.days.filter((d) => d.kind === "shoot").map((d) => ({ id: d.id, date: d.date })),
+  };
+}
+
+/**
+ * Dismisses a current snag with a reason, against its current evidence hash. A dismissal of the
+ * same snag made against older evidence is replaced. 404 when no such snag exists now.
+ */
+export async function dismissSnag(actor: Actor, input: DismissSnagInput): Promise<SnagDismissalDto> {
+  const { snags } = await currentSnags(actor.productionId);
+  const snag = snags.find((s) => s.key === input.snagKey);
+  if (!snag) throw NotFoundError("No such snag now; it may have been fixed already.");
+  const saved = await sequelize.transaction(async (transaction) => {
+    const existing = await SnagDismissal.findOne({
+      where: { productionId: actor.productionId, snagKey: snag.key },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
+    const before = existing ? { reason: existing.reason, evidenceHash: existing.evidenceHash } : null;
+    const row = existing
+      ? await existing.update({ reason: input.reason, evidenceHash: snag.evidenceHash, dismissedBy: actor.user.id }, { transaction })
+      : await SnagDismissal.create(
+          { productionId: actor.productionId, snagKey: snag.key, evidenceHash: snag.evidenceHash, reason: input.reason, dismissedBy: actor.user.id },
+          { transaction },
+        );
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "snag.dismiss",
+        entityType: "snag_dismissal",
+        entityId: row.id,
+        before,
+        after: { snagKey: snag.key, reason: input.reason, evidenceHash: snag.evidenceHash, title: snag.title },
+      },
+      transaction,
+    );
+    return row;
+  });
+  saved.dismisser = actor.user;
+  return presentDismissal(saved);
+}
+
+/** Undoes a dismissal (the snag shows again). */
+export async function undoDismissal(actor: Actor, dismissalId: string): Promise<void> {
+  await sequelize.transaction(async (transaction) => {
+    const row = await SnagDismissal.findOne({ where: { id: dismissalId, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
+    if (!row) throw NotFoundError("Dismissal not found.");
+    await row.destroy({ transaction });
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "snag.undismiss",
+        entityType: "snag_dismissal",
+        entityId: row.id,
+        before: { snagKey: row.snagKey, reason: row.reason, evidenceHash: row.evidenceHash },
+      },
+      transaction,
+    );
+  });
+}
+
+/** The copy plan of one multiples group: which copy goes into which scene, in shoot order. */
+export async function multiplesPlan(actor: Actor, groupId: string): Promise<MultiplesPlanDto> {
+  const loaded = await loadSnapshot(actor.productionId);
+  const s = loaded.snapshot;
+  const group = s.multiplesGroups.find((g) => g.id === groupId);
+  if (!group) throw NotFoundError("Multiples group not found.");
+  const r = new Resolver(actor.productionId, loaded);
+  const garmentRef = (id: string | undefined | null) => {
+    const g = id ? r.garments.get(id) : undefined;
+    return g ? { id: g.id, tagCode: g.tagCode, name: g.name } : null;
+  };
+  const plan = computeMultiplesPlans(s).find((p) => p.groupId === groupId);
+  // A group the schedule does not use yet needs no copies.
+  const copyIds = plan?.copyIds ?? [...group.garmentIds].sort((a, b) => (r.garments.get(a)?.copyNumber ?? 1e9) - (r.garments.get(b)?.copyNumber ?? 1e9) || (a < b ? -1 : 1));
+  const needed = plan?.copiesNeeded ?? 0;
+  const falling = new Set(plan?.longestFalling ?? []);
+  const uses = (plan?.demands ?? []).map((d, i) => {
+    const copy = plan!.copyOf[i];
+    const day = d.isShootDay ? r.days.get(d.runId) : undefined;
+    return {
+      copy: copy + 1,
+      garment: garmentRef(copyIds[copy]),
+      sceneId: d.sceneId,
+      sceneNumber: r.scenes.get(d.sceneId) ?? d.sceneId,
+      shootDayId: d.isShootDay ? d.runId : null,
+      date: day?.date ?? null,
+      characterId: d.characterId,
+      characterName: r.characters.get(d.characterId) ?? d.characterId,
+      stage: d.level,
+      outForDay: d.outForDay,
+      inLongestFalling: falling.has(i),
+    };
+  });
+  const copies = Array.from({ length: Math.max(needed, copyIds.length) }, (_, c) => {
+    const mine = uses.filter((u) => u.copy === c + 1);
+    return { copy: c + 1, garment: garmentRef(copyIds[c]), sceneNumbers: Array.from(new Set(mine.map((u) => u.sceneNumber))), uses: mine.length };
+  });
+  return { groupId, groupName: group.name, copiesHeld: copyIds.length, copiesNeeded: needed, copies, uses };
+}
