@@ -4,6 +4,8 @@ import { requireAuth, loadProduction } from "../middleware/require-auth.js";
 import { authRouter, invitationsPublicRouter } from "./auth.routes.js";
 import { productionsRouter, productionRouter } from "./productions.routes.js";
 import { membersRouter, invitationsRouter, outboxRouter } from "./members.routes.js";
+import { doublesRouter, panelsRouter, seamsRouter } from "./doubles.routes.js";
+import { packetsRouter } from "./packets.routes.js";
 
 /** Everything under /api. Feature routers mount on `production` (one production's records). */
 export function buildApiRouter(): Router {
@@ -28,6 +30,11 @@ export function buildApiRouter(): Router {
   production.use("/members", membersRouter);
   production.use("/invitations", invitationsRouter);
   production.use("/outbox", outboxRouter);
+  // Digital doubles
+  production.use("/doubles", doublesRouter);
+  production.use("/panels", panelsRouter);
+  production.use("/seams", seamsRouter);
+  production.use("/packets", packetsRouter);
   production.use("/", productionRouter);
   api.use("/productions/:productionId", production);
 
