@@ -31,24 +31,36 @@ export const notchSchema = z.object({ point: pointSchema, edge: z.number().int()
 
 export const grainModes = ["straight", "bias", "free"] as const;
 
-/** Fields of a panel a cutter edits. */
-export const panelFieldsSchema = z.object({
+/** Fields of a panel a cutter edits (no defaults, so a partial update leaves the others alone). */
+const panelFields = {
   /** Piece name, e.g. "Front". */
   name: z.string().trim().min(1, { message: "is required" }).max(120),
   /** Sew line, mm, y up. */
   outline: outlineSchema,
-  grainline: grainlineSchema.nullable().default(null),
-  notches: z.array(notchSchema).max(200).default([]),
+  grainline: grainlineSchema.nullable(),
+  notches: z.array(notchSchema).max(200),
   /** Seam allowance outside the sew line, mm. */
-  seamAllowanceMm: z.number().min(0).max(100).default(10),
+  seamAllowanceMm: z.number().min(0).max(100),
   /** Copies cut. */
-  cutCount: z.number().int().min(1).max(99).default(1),
+  cutCount: z.number().int().min(1).max(99),
   /** Copies cut as mirrored pairs. */
-  mirrored: z.boolean().default(false),
+  mirrored: z.boolean(),
   /** Rotation freedom on the fabric. */
-  grainMode: z.enum(grainModes).default("straight"),
+  grainMode: z.enum(grainModes),
   /** Fabric the piece is cut from; null takes the garment's fabric. */
-  fabricId: idSchema.nullable().default(null),
+  fabricId: idSchema.nullable(),
+};
+
+/** A new panel's fields, with defaults. */
+export const panelFieldsSchema = z.object({
+  ...panelFields,
+  grainline: panelFields.grainline.default(null),
+  notches: panelFields.notches.default([]),
+  seamAllowanceMm: panelFields.seamAllowanceMm.default(10),
+  cutCount: panelFields.cutCount.default(1),
+  mirrored: panelFields.mirrored.default(false),
+  grainMode: panelFields.grainMode.default("straight"),
+  fabricId: panelFields.fabricId.default(null),
 });
 
 /** Notches must name an edge of the outline. */
@@ -63,7 +75,7 @@ function notchesOnOutline<T extends { outline?: unknown; notches?: Array<{ edge:
 export const createPanelInputSchema = panelFieldsSchema.extend({ garmentId: idSchema }).superRefine(notchesOnOutline);
 export type CreatePanelInput = z.infer<typeof createPanelInputSchema>;
 
-export const updatePanelInputSchema = panelFieldsSchema.partial().superRefine(notchesOnOutline);
+export const updatePanelInputSchema = z.object(panelFields).partial().superRefine(notchesOnOutline);
 export type UpdatePanelInput = z.infer<typeof updatePanelInputSchema>;
 
 export const listPanelsQuerySchema = z.object({ garmentId: idSchema.optional(), changeId: idSchema.optional() });
@@ -94,18 +106,18 @@ export const easeRangeSchema = z
   .object({ minMm: z.number().min(-500).max(500), maxMm: z.number().min(-500).max(500) })
   .refine((e) => e.minMm <= e.maxMm, { message: "minimum must not exceed maximum", path: ["maxMm"] });
 
-export const seamFieldsSchema = z.object({
+const seamFields = {
   name: z.string().trim().min(1, { message: "is required" }).max(120),
   a: seamSideSchema,
   b: seamSideSchema,
   /** Plain-seam tolerance, mm; null uses the production's setting (3 mm by default). */
-  toleranceMm: z.number().min(0).max(100).nullable().default(null),
+  toleranceMm: z.number().min(0).max(100).nullable(),
   /** Set for eased seams (e.g. a sleeve cap): A − B must fall in the range. */
-  eased: easeRangeSchema.nullable().default(null),
-});
-export const createSeamInputSchema = seamFieldsSchema;
+  eased: easeRangeSchema.nullable(),
+};
+export const createSeamInputSchema = z.object({ ...seamFields, toleranceMm: seamFields.toleranceMm.default(null), eased: seamFields.eased.default(null) });
 export type CreateSeamInput = z.infer<typeof createSeamInputSchema>;
-export const updateSeamInputSchema = seamFieldsSchema.partial();
+export const updateSeamInputSchema = z.object(seamFields).partial();
 export type UpdateSeamInput = z.infer<typeof updateSeamInputSchema>;
 
 /** What to lay out: one garment or a whole change, in multiples (copies of the costume). */

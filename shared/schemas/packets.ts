@@ -4,29 +4,41 @@ import type { FabricSimulationValues } from "../domain/fabric-physics.js";
 import type { SeamStatus } from "../domain/panels/seams.js";
 import type { PacketDiff } from "../domain/packet-diff.js";
 
-/** What a packet holds, as chosen by the cutter or supervisor. */
-export const packetSelectionSchema = z.object({
+/** The choices of a packet, each optional (for create and update bodies). */
+const packetChoiceFields = {
   /** Garments of the change whose panels go in. */
-  garmentIds: z.array(idSchema).max(100).default([]),
+  garmentIds: z.array(idSchema).max(100),
   /** Panels of those garments; an empty list means every panel of the chosen garments. */
-  panelIds: z.array(idSchema).max(2000).default([]),
+  panelIds: z.array(idSchema).max(2000),
   /** Reference photos (fittings, continuity, garment turnarounds). */
-  photoIds: z.array(idSchema).max(500).default([]),
+  photoIds: z.array(idSchema).max(500),
   /** Effects shots: appearances marked vfx_shot. */
-  appearanceIds: z.array(idSchema).max(500).default([]),
+  appearanceIds: z.array(idSchema).max(500),
   /** vfx members to publish to. */
-  recipientUserIds: z.array(idSchema).max(50).default([]),
+  recipientUserIds: z.array(idSchema).max(50),
   /** Personal data: off unless chosen. */
-  includeMeasurements: z.boolean().default(false),
-  notes: z.string().max(5000).nullable().default(null),
+  includeMeasurements: z.boolean(),
+  notes: z.string().max(5000).nullable(),
+};
+
+/** What a packet holds, as chosen by the cutter or supervisor (defaults filled in). */
+export const packetSelectionSchema = z.object({
+  garmentIds: packetChoiceFields.garmentIds.default([]),
+  panelIds: packetChoiceFields.panelIds.default([]),
+  photoIds: packetChoiceFields.photoIds.default([]),
+  appearanceIds: packetChoiceFields.appearanceIds.default([]),
+  recipientUserIds: packetChoiceFields.recipientUserIds.default([]),
+  includeMeasurements: packetChoiceFields.includeMeasurements.default(false),
+  notes: packetChoiceFields.notes.default(null),
 });
 export type PacketSelection = z.infer<typeof packetSelectionSchema>;
 
-/** Starts a draft for a change; omitted choices are copied from the newest version (or left empty). */
-export const createPacketInputSchema = packetSelectionSchema.partial().extend({ changeId: idSchema });
+/** Starts a draft for a change; omitted choices are copied from the newest version (or defaulted). */
+export const createPacketInputSchema = z.object(packetChoiceFields).partial().extend({ changeId: idSchema });
 export type CreatePacketInput = z.infer<typeof createPacketInputSchema>;
 
-export const updatePacketInputSchema = packetSelectionSchema.partial();
+/** Changes some choices of a draft. */
+export const updatePacketInputSchema = z.object(packetChoiceFields).partial();
 export type UpdatePacketInput = z.infer<typeof updatePacketInputSchema>;
 
 export const listPacketsQuerySchema = z.object({ changeId: idSchema.optional() });

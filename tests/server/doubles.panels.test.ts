@@ -75,6 +75,15 @@ describe("POST /panels", () => {
 });
 
 describe("PATCH /panels/:panelId", () => {
+  it("changes only the fields sent", async () => {
+    const p = await buildPanel(productionId, garmentIds[0], { seamAllowanceMm: 15 });
+
+    const res = await cutter.patch(`${base()}/panels/${p.id}`, { cutCount: 3 });
+
+    expect(res.status).toBe(200);
+    expect(res.body.data).toMatchObject({ cutCount: 3, seamAllowanceMm: 15, grainline: [[100, 50], [100, 250]], name: "Piece" });
+  });
+
   it("refuses an outline that drops a vertex a seam uses", async () => {
     const a = await buildPanel(productionId, garmentIds[0], { outline: [[0, 0], [100, 0], [100, 100], [50, 150], [0, 100]] });
     const b = await buildPanel(productionId, garmentIds[1]);
