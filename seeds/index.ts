@@ -6,12 +6,17 @@ import type { Transaction } from "sequelize";
 import { sequelize } from "../server/db.js";
 import { User } from "../server/models/index.js";
 import { seedAccounts, demoAccounts } from "./accounts.js";
+import { ensureDoublesPrerequisites, seedDoubles } from "./doubles.js";
 
 export { demoAccounts };
 
 /** Steps run in order, in one transaction. */
 const steps: Array<{ name: string; run: (t: Transaction) => Promise<void> }> = [
   { name: "accounts and productions", run: seedAccounts },
+  // Digital doubles (last). The prerequisites step stands in for the breakdown and wardrobe steps on
+  // this branch; drop it once those steps are merged.
+  { name: "doubles prerequisites", run: ensureDoublesPrerequisites },
+  { name: "doubles: panels, seams, marker, packet", run: seedDoubles },
 ];
 
 /** Loads every demo step (idempotent). */

@@ -132,15 +132,29 @@ export async function summaryPdf(contents: PacketContents, meta: PacketBuildMeta
   return Buffer.concat(chunks);
 }
 
+/** A deep copy with object keys sorted, so a snapshot read back from jsonb (which reorders keys) writes the same bytes. */
+export function canonical<T>(v: T): T {
+  if (Array.isArray(v)) return v.map(canonical) as T;
+  if (v && typeof v === "object" && !(v instanceof Date)) {
+    return Object.fromEntries(
+      Object.keys(v)
+        .sort()
+        .map((k) => [k, canonical((v as Record<string, unknown>)[k])]),
+    ) as T;
+  }
+  return v;
+}
+
 /**
  * Every file of the packet, SHA256SUMS last (covering all the others).
  * @param readPhoto reads a photo file by storage key
  */
 export async function buildPacketFiles(
-  contents: PacketContents,
+  snapshot: PacketContents,
   meta: PacketBuildMeta,
   readPhoto: (storageKey: string) => Promise<Buffer>,
 ): Promise<PacketFile[]> {
+  const contents = canonical(snapshot);
   const shapes = exportShapes(contents);
   const seamRefs: SeamRef[] = contents.seams.map((s) => ({ id: s.id, a: s.a, b: s.b }));
   const obj = panelsToObj(shapes, seamRefs);

@@ -40,7 +40,7 @@ export async function listFabricOptions(actor: Actor): Promise<DoublesFabricOpti
 }
 
 /** The garments in scope: one garment, or every garment of a change. 404 when it is not in this production. */
-export async function garmentsInScope(actor: Actor, scope: { garmentId?: string; changeId?: string }, transaction?: Transaction): Promise<GarmentRow[]> {
+export async function garmentsInScope(actor: Pick<Actor, "productionId">, scope: { garmentId?: string; changeId?: string }, transaction?: Transaction): Promise<GarmentRow[]> {
   if (scope.garmentId) {
     const g = await findGarment(actor.productionId, scope.garmentId, transaction);
     if (!g) throw NotFoundError("Garment not found.");

@@ -1,5 +1,5 @@
 import { createHash } from "node:crypto";
-import { Op } from "sequelize";
+import { Op, type Transaction } from "sequelize";
 import { Marker, Panel } from "../models/index.js";
 import { recordAudit } from "./audit.service.js";
 import { garmentsInScope, panelShape } from "./panels.service.js";
@@ -10,14 +10,15 @@ import { planYardage, type YardageGroup } from "@shared/domain/panels/yardage.js
 import { fabricSimulationValues } from "@shared/domain/fabric-physics.js";
 
 /** Groups the panels of a garment or change by the fabric they are cut from. */
-async function yardageGroups(actor: Actor, input: Pick<MarkerInput, "scope" | "scopeId">): Promise<YardageGroup[]> {
-  const garments = await garmentsInScope(actor, input.scope === "garment" ? { garmentId: input.scopeId } : { changeId: input.scopeId });
+async function yardageGroups(productionId: string, input: Pick<MarkerInput, "scope" | "scopeId">, transaction?: Transaction): Promise<YardageGroup[]> {
+  const garments = await garmentsInScope({ productionId }, input.scope === "garment" ? { garmentId: input.scopeId } : { changeId: input.scopeId }, transaction);
   const garmentFabric = new Map(garments.map((g) => [g.id, g.fabricId]));
   const panels = await Panel.findAll({
-    where: { productionId: actor.productionId, garmentId: { [Op.in]: garments.map((g) => g.id) } },
+    where: { productionId, garmentId: { [Op.in]: garments.map((g) => g.id) } },
     order: [["garmentId", "ASC"], ["sortOrder", "ASC"], ["createdAt", "ASC"]],
+    transaction,
   });
-  const fabrics = new Map((await listFabrics(actor.productionId)).map((f) => [f.id, f]));
+  const fabrics = new Map((await listFabrics(productionId, undefined, transaction)).map((f) => [f.id, f]));
   const groups = new Map<string, YardageGroup>();
   for (const p of panels) {
     const fabricId = p.fabricId ?? garmentFabric.get(p.garmentId) ?? null;
@@ -41,9 +42,9 @@ function presentMarker(m: Marker, current: boolean): MarkerDto {
   return { id: m.id, scope: m.scope, scopeId: m.scopeId, multiples: m.multiples, fabrics: m.result.fabrics, createdAt: m.createdAt.toISOString(), current };
 }
 
-/** Lays the marker(s) for a garment or change on the server and caches the result. */
-export async function computeMarker(actor: Actor, input: MarkerInput): Promise<MarkerDto> {
-  const groups = await yardageGroups(actor, input);
+/** Lays the marker(s) for a garment or change and caches the result (the seed calls this inside its transaction). */
+export async function layMarker(productionId: string, input: MarkerInput, createdBy: string | null, transaction?: Transaction): Promise<Marker> {
+  const groups = await yardageGroups(productionId, input, transaction);
   const results = planYardage(groups, input.multiples);
   const fabrics: MarkerFabricResultDto[] = results.map((r) => ({
     fabricId: r.fabricId,
@@ -59,9 +60,16 @@ export async function computeMarker(actor: Actor, input: MarkerInput): Promise<M
   }));
   const inputHash = hashGroups(groups, input.multiples);
   const [marker] = await Marker.upsert(
-    { productionId: actor.productionId, scope: input.scope, scopeId: input.scopeId, multiples: input.multiples, inputHash, result: { fabrics }, createdBy: actor.user.id },
-    { conflictFields: ["production_id", "scope", "scope_id", "multiples"] as never },
+    { productionId, scope: input.scope, scopeId: input.scopeId, multiples: input.multiples, inputHash, result: { fabrics }, createdBy },
+    { conflictFields: ["production_id", "scope", "scope_id", "multiples"] as never, transaction },
   );
+  return marker;
+}
+
+/** Lays the marker(s) for a garment or change on the server and caches the result. */
+export async function computeMarker(actor: Actor, input: MarkerInput): Promise<MarkerDto> {
+  const marker = await layMarker(actor.productionId, input, actor.user.id);
+  const fabrics = marker.result.fabrics;
   await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "marker.compute", entityType: "marker", entityId: marker.id, after: { scope: input.scope, multiples: input.multiples, lengthsMm: fabrics.map((f) => Math.round(f.markerLengthMm)) } });
   return presentMarker(marker, true);
 }
@@ -73,12 +81,12 @@ export async function getMarker(actor: Actor, input: MarkerInput): Promise<Marke
     await garmentsInScope(actor, input.scope === "garment" ? { garmentId: input.scopeId } : { changeId: input.scopeId });
     return null;
   }
-  const groups = await yardageGroups(actor, input);
+  const groups = await yardageGroups(actor.productionId, input);
   return presentMarker(m, hashGroups(groups, input.multiples) === m.inputHash);
 }
 
 /** Simulation values for the given fabrics, from their recorded tests (measured) or class defaults (assumed). */
-export async function physicsForFabrics(productionId: string, fabricIds: string[], transaction?: import("sequelize").Transaction): Promise<FabricPhysicsDto[]> {
+export async function physicsForFabrics(productionId: string, fabricIds: string[], transaction?: Transaction): Promise<FabricPhysicsDto[]> {
   const fabrics = await listFabrics(productionId, [...new Set(fabricIds)], transaction);
   const tests = await listFabricTests(productionId, fabrics.map((f) => f.id), transaction);
   return fabrics.map((f) => {

@@ -6,6 +6,7 @@ import { createApp } from "../../server/app.js";
 import { sequelize } from "../../server/db.js";
 import { Packet, PacketRecipient } from "../../server/models/index.js";
 import { packetStore } from "../../server/services/packet-storage.js";
+import { buildPacketFiles, zipPacketFiles } from "../../server/services/packet-zip.js";
 import { packetManifestSchema } from "@shared/schemas/packet-manifest.js";
 import { resetDb, signedInAgent, waitForMail, type TestAgent } from "../setup/http.js";
 import { buildChangeWithGarments, buildFabric, buildMeasurementSet, buildMember, buildPanel, buildPhotoRow, buildSeam, buildShot, buildUser } from "../factories.js";
@@ -192,6 +193,18 @@ describe("immutability and versions", () => {
     expect(again.status).toBe(409);
     await expect(sequelize.query(`UPDATE packets SET include_measurements = true WHERE id = :id`, { replacements: { id } })).rejects.toThrow(/cannot change/);
     expect((await Packet.findByPk(id))!.includeMeasurements).toBe(false);
+  });
+
+  it("rebuilding a version's ZIP from its stored snapshot reproduces the stored checksum", async () => {
+    const id = await publishedV1();
+    const packet = (await Packet.findByPk(id))!;
+    const s = await supervisor.get(`${base()}/packets/${id}`);
+
+    const files = await buildPacketFiles(packet.contents!, { packetId: id, version: 1, publishedAt: packet.publishedAt!, publishedByName: s.body.data.publishedByName }, (k) => packetStore().readBuffer(k));
+    const chunks: Buffer[] = [];
+    for await (const c of zipPacketFiles(files, { date: packet.publishedAt! })) chunks.push(c as Buffer);
+
+    expect(sha(Buffer.concat(chunks))).toBe(packet.zipSha256);
   });
 
   it("a new draft after a change becomes version 2 and shows what changed since version 1", async () => {
