@@ -3,6 +3,7 @@ export {};
 const benches: Array<{ name: string; load: () => Promise<{ run: () => unknown | Promise<unknown> }> }> = [
   { name: "workroom planner", load: async () => ({ run: (await import("./workroom.js")).runWorkroomBench }) },
   { name: "nesting (yardage marker)", load: async () => ({ run: (await import("./nesting.js")).runNestingBench }) },
+  { name: "handoff packet ZIP", load: async () => ({ run: (await import("./packets.js")).runPacketBench }) },
 ];
 
 for (const b of benches) {
