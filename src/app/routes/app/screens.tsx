@@ -9,6 +9,7 @@ import type { ScreenKey } from "@shared/permissions";
 export const screenComponents: Partial<Record<ScreenKey, LazyExoticComponent<ComponentType>>> = {
   today: lazy(() => import("./today")),
   team: lazy(() => import("./team")),
+  doubles: lazy(() => import("./doubles")),
 };
 
 /**
