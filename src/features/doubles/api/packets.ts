@@ -37,9 +37,16 @@ export function useDeletePacket(pid: string) {
   return useMutation({ mutationFn: (id: string) => api.delete(`${base(pid)}/${id}`), onSuccess: invalidate });
 }
 
-export function usePublishPacket(pid: string) {
+/** Publishes a draft; `onPublished` runs at hook level, so it fires even though the builder unmounts once the packet is published. */
+export function usePublishPacket(pid: string, onPublished?: (p: PacketDetailDto) => void) {
   const invalidate = useInvalidatePackets(pid);
-  return useMutation({ mutationFn: (id: string) => api.post<PacketDetailDto>(`${base(pid)}/${id}/publish`), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: (id: string) => api.post<PacketDetailDto>(`${base(pid)}/${id}/publish`),
+    onSuccess: (p) => {
+      onPublished?.(p);
+      return invalidate();
+    },
+  });
 }
 
 export function useMarkReceived(pid: string) {

@@ -27,7 +27,7 @@ export function PacketBuilder({ productionId, packet, canPublish, onPublished }:
   const [s, setS] = useState<PacketSelection>(packet.selection);
   const [confirm, setConfirm] = useState(false);
   const update = useUpdatePacket(productionId);
-  const publish = usePublishPacket(productionId);
+  const publish = usePublishPacket(productionId, onPublished);
   const del = useDeletePacket(productionId);
   const fields = { ...(update.error instanceof ApiError ? update.error.fields : {}), ...(publish.error instanceof ApiError ? publish.error.fields : {}) };
   if (options.isPending) return <Spinner />;
@@ -81,7 +81,7 @@ export function PacketBuilder({ productionId, packet, canPublish, onPublished }:
         <Button variant="ghost" busy={del.isPending} onClick={() => del.mutate(packet.id)}>Delete draft</Button>
         {dirty && <span className="self-center text-xs text-slate">Save the draft before publishing.</span>}
       </div>
-      <ConfirmDialog open={confirm} title="Publish this packet?" confirmLabel="Publish" busy={publish.isPending} onCancel={() => setConfirm(false)} onConfirm={() => publish.mutate(packet.id, { onSuccess: (p) => { setConfirm(false); onPublished(p); }, onError: () => setConfirm(false) })}>
+      <ConfirmDialog open={confirm} title="Publish this packet?" confirmLabel="Publish" busy={publish.isPending} onCancel={() => setConfirm(false)} onConfirm={() => publish.mutate(packet.id, { onSettled: () => setConfirm(false) })}>
         It becomes a numbered version that never changes, and the chosen vfx members are e-mailed. Later edits make a new version.
       </ConfirmDialog>
     </div>

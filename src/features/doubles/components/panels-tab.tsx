@@ -43,7 +43,7 @@ export function PanelsTab({ productionId, change, canEdit }: { productionId: str
           <DxfImport productionId={productionId} garmentId={garmentId} fabrics={fabrics.data ?? []} onDone={() => setMode("view")} />
         </Card>
       ) : (
-        <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
+        <div className="grid gap-4 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
           <Card>
             <div className="mb-3 flex flex-wrap items-center justify-between gap-2">
               <h2 className="font-semibold text-ink">Panels of {garment?.name}</h2>

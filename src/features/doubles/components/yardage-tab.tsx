@@ -23,7 +23,7 @@ function MarkerResult({ r }: { r: MarkerFabricResultDto | YardageFabricResult })
         <div><dt className="text-xs text-slate">Usable width</dt><dd>{cm(r.usableWidthMm)}</dd></div>
         <div><dt className="text-xs text-slate">Copies</dt><dd>{r.copies}{r.unplaced.length ? <Badge tone="blocking">{r.unplaced.length} too wide</Badge> : null}</dd></div>
       </dl>
-      <img className="w-full rounded border border-chalk-200 bg-white" alt={`Marker drawing for ${r.fabricName}`} src={`data:image/svg+xml;charset=utf-8,${encodeURIComponent(svg)}`} />
+      <img className="max-h-[32rem] w-full rounded border border-chalk-200 bg-white object-contain" alt={`Marker drawing for ${r.fabricName}`} src={`data:image/svg+xml;charset=utf-8,${encodeURIComponent(svg)}`} />
     </div>
   );
 }
