@@ -5,6 +5,7 @@ const benches: Array<{ name: string; load: () => Promise<{ run: () => unknown | 
   { name: "snag engine", load: async () => ({ run: (await import("./snags.js")).runSnagBench }) },
   { name: "nesting (yardage marker)", load: async () => ({ run: (await import("./nesting.js")).runNestingBench }) },
   { name: "breakdown (CSV import, photo upload)", load: async () => ({ run: (await import("./breakdown.js")).runBreakdownBench }) },
+  { name: "handoff packet ZIP", load: async () => ({ run: (await import("./packets.js")).runPacketBench }) },
 ];
 
 for (const b of benches) {

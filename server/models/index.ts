@@ -29,6 +29,12 @@ import { AlterationTicket } from "./AlterationTicket.js";
 import { WorkroomCapacity } from "./WorkroomCapacity.js";
 import { WorkroomEmailJob } from "./WorkroomEmailJob.js";
 import { SnagDismissal } from "./SnagDismissal.js";
+// Digital doubles
+import { Panel } from "./Panel.js";
+import { Seam } from "./Seam.js";
+import { Marker } from "./Marker.js";
+import { Packet } from "./Packet.js";
+import { PacketRecipient } from "./PacketRecipient.js";
 
 // Associations, grouped by owner.
 Membership.belongsTo(User, { as: "user", foreignKey: "userId" });
@@ -71,3 +77,12 @@ export { Fitting, AlterationTicket, WorkroomCapacity, WorkroomEmailJob };
 // Snags
 SnagDismissal.belongsTo(User, { as: "dismisser", foreignKey: "dismissedBy" });
 export { SnagDismissal };
+
+// Digital doubles
+Seam.belongsTo(Panel, { as: "panelA", foreignKey: "panelAId" });
+Seam.belongsTo(Panel, { as: "panelB", foreignKey: "panelBId" });
+Packet.hasMany(PacketRecipient, { as: "recipients", foreignKey: "packetId" });
+PacketRecipient.belongsTo(Packet, { as: "packet", foreignKey: "packetId" });
+PacketRecipient.belongsTo(User, { as: "user", foreignKey: "userId" });
+
+export { Panel, Seam, Marker, Packet, PacketRecipient };

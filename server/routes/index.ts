@@ -15,6 +15,8 @@ import { fabricsRouter } from "./fabrics.routes.js";
 import { measurementsRouter } from "./measurements.routes.js";
 import { alterationsRouter, fittingsRouter, workroomRouter } from "./workroom.routes.js";
 import { snagsRouter } from "./snags.routes.js";
+import { doublesRouter, panelsRouter, seamsRouter } from "./doubles.routes.js";
+import { packetsRouter } from "./packets.routes.js";
 
 /** Everything under /api. Feature routers mount on `production` (one production's records). */
 export function buildApiRouter(): Router {
@@ -60,6 +62,11 @@ export function buildApiRouter(): Router {
   production.use("/alterations", alterationsRouter);
   production.use("/workroom", workroomRouter);
   production.use("/snags", snagsRouter);
+  // Digital doubles
+  production.use("/doubles", doublesRouter);
+  production.use("/panels", panelsRouter);
+  production.use("/seams", seamsRouter);
+  production.use("/packets", packetsRouter);
   production.use("/", productionRouter);
   api.use("/productions/:productionId", production);
 

@@ -5,6 +5,7 @@ import { sequelize } from "../db.js";
 import { SnagDismissal, User } from "../models/index.js";
 import { NotFoundError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
+import { buildPlan } from "./workroom.service.js";
 import type { Actor } from "../middleware/require-auth.js";
 import { computeMultiplesPlans, computeSnags } from "@shared/domain/snags/engine.js";
 import type {
@@ -335,8 +336,7 @@ class Resolver {
         break;
       case "multiples":
         if (sub.groupId) {
-          links.push({ label: "Copy plan", href: this.path(`snags/multiples/${sub.groupId}`) });
-          links.push({ label: `Multiples group \u201c${this.groups.get(sub.groupId) ?? "?"}\u201d`, href: this.path(`wardrobe/multiples/${sub.groupId}`) });
+          links.push({ label: `Copy plan for \u201c${this.groups.get(sub.groupId) ?? "?"}\u201d`, href: this.path(`snags/multiples/${sub.groupId}`) });
         }
         break;
       case "continuity":
@@ -344,6 +344,11 @@ class Resolver {
         // The later scene is where the breakdown (or the copy) has to change.
         sceneLinks(later);
         garmentLink();
+        break;
+      case "workroom_late":
+      case "workroom_overbooked":
+        garmentLink();
+        links.push({ label: "Workroom plan", href: this.path("workroom") });
         break;
     }
     for (const c of this.charactersOf(s)) {
@@ -423,7 +428,9 @@ function presentDismissal(d: SnagDismissal): SnagDismissalDto {
 export async function currentSnags(productionId: string): Promise<{ loaded: LoadedProduction; snags: Snag[]; today: string }> {
   const loaded = await loadSnapshot(productionId);
   const today = snagClock.today();
-  return { loaded, snags: computeSnags(loaded.snapshot, { today }), today };
+  // Late tickets and overbooked workroom days come from the workroom plan, judged on the same day.
+  const plan = await buildPlan(productionId, today);
+  return { loaded, snags: [...computeSnags(loaded.snapshot, { today }), ...plan.snags], today };
 }
 
 const zeroCounts = (): SnagCounts => ({

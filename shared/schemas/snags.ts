@@ -2,7 +2,7 @@ import { z } from "zod";
 import { idSchema } from "./common.js";
 import type { CopyAssignment, JsonValue, SnagKind, SnagSeverity, SnagSubject } from "../domain/snags/types.js";
 
-export const snagKinds = ["fit", "continuity", "multiples", "booking", "rental", "availability", "quick_change"] as const satisfies readonly SnagKind[];
+export const snagKinds = ["fit", "continuity", "multiples", "booking", "rental", "availability", "quick_change", "workroom_late", "workroom_overbooked"] as const satisfies readonly SnagKind[];
 export const snagSeverities = ["blocking", "warning", "note"] as const satisfies readonly SnagSeverity[];
 
 /** Plain labels for the kinds, shown in filters and group headings. */
@@ -14,6 +14,8 @@ export const snagKindLabels: Record<SnagKind, string> = {
   rental: "Rental",
   availability: "Availability",
   quick_change: "Quick change",
+  workroom_late: "Workroom late",
+  workroom_overbooked: "Workroom overbooked",
 };
 
 /** Query-string booleans: "true"/"1" are true, anything else (or absent) false. */

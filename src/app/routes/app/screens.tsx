@@ -17,6 +17,7 @@ export const screenComponents: Partial<Record<ScreenKey, LazyExoticComponent<Com
   fabrics: lazy(() => import("./fabrics")),
   workroom: lazy(() => import("./workroom")),
   snags: lazy(() => import("./snags")),
+  doubles: lazy(() => import("./doubles")),
 };
 
 /**

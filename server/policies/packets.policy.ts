@@ -1,0 +1,16 @@
+import { can } from "@shared/permissions.js";
+import type { Actor } from "../middleware/require-auth.js";
+
+/**
+ * Whether the actor may see a packet. vfx users see only published versions they are a recipient
+ * of (everything else answers 404, so packet ids cannot be probed); other roles go by packet.read.
+ */
+export function canSeePacket(actor: Actor, packet: { status: "draft" | "published" }, recipientUserIds: readonly string[]): boolean {
+  if (actor.role === "vfx") return packet.status === "published" && recipientUserIds.includes(actor.user.id);
+  return can(actor.role, "packet.read");
+}
+
+/** Whether the actor may mark this packet received: only a vfx recipient of a published version. */
+export function canReceivePacket(actor: Actor, packet: { status: "draft" | "published" }, recipientUserIds: readonly string[]): boolean {
+  return can(actor.role, "packet.receive") && packet.status === "published" && recipientUserIds.includes(actor.user.id);
+}

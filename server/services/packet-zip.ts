@@ -1,0 +1,276 @@
+// The handoff packet ZIP: every file generated from a frozen contents snapshot, checksummed, then
+// streamed through archiver. Given the same snapshot, photos and dates, the files are byte-identical.
+import { createHash } from "node:crypto";
+import path from "node:path";
+import { createRequire } from "node:module";
+import type { Archiver, ArchiverOptions, ProgressData } from "archiver";
+import PDFDocument from "pdfkit";
+import type { Readable } from "node:stream";
+import type { PacketContents } from "@shared/schemas/packets.js";
+import { packetManifestJsonSchema, PACKET_MANIFEST_SCHEMA_ID, type PacketManifest } from "@shared/schemas/packet-manifest.js";
+import { panelsToJson, panelsToObj, panelsToSvg, type SeamRef } from "@shared/domain/panels/export.js";
+import { panelsToDxf } from "@shared/domain/panels/dxf.js";
+import type { PanelShape } from "@shared/domain/panels/geometry.js";
+
+/** One file of the packet. */
+export interface PacketFile {
+  path: string;
+  data: Buffer;
+  mediaType: string;
+  description: string;
+}
+
+/** Who and when, for the manifest and summary. */
+export interface PacketBuildMeta {
+  packetId: string;
+  version: number;
+  publishedAt: Date;
+  publishedByName: string;
+}
+
+/** Progress while the ZIP is written. */
+export interface ZipProgress {
+  entriesDone: number;
+  entriesTotal: number;
+  bytesIn: number;
+  bytesTotal: number;
+}
+
+// archiver 7 is CommonJS and exports a factory; @types/archiver 8 describes the later class API, so
+// load the factory explicitly and type it with the shared Archiver instance type.
+const archiver = createRequire(import.meta.url)("archiver") as (format: "zip", options?: ArchiverOptions) => Archiver;
+
+const sha256 = (b: Buffer) => createHash("sha256").update(b).digest("hex");
+const json = (v: unknown) => Buffer.from(JSON.stringify(v, null, 2) + "\n", "utf8");
+
+/** Panel shapes for the exporters, with names unique across garments (OBJ groups and DXF layers need that). */
+export function exportShapes(contents: PacketContents): PanelShape[] {
+  const seen = new Map<string, number>();
+  return contents.panels.map((p) => {
+    let name = `${p.garmentName} - ${p.name}`;
+    const n = (seen.get(name) ?? 0) + 1;
+    seen.set(name, n);
+    if (n > 1) name = `${name} ${n}`;
+    return {
+      id: p.id,
+      name,
+      outline: p.outline,
+      grainline: p.grainline,
+      notches: p.notches,
+      seamAllowanceMm: p.seamAllowanceMm,
+      cutCount: p.cutCount,
+      mirrored: p.mirrored,
+      grainMode: p.grainMode,
+    };
+  });
+}
+
+/** ZIP path of a photo in the packet, e.g. photos/03-front-1a2b3c4d.webp. */
+export function photoZipPath(index: number, view: string, photoId: string, storageKey: string | null): string {
+  const ext = (storageKey ? path.extname(storageKey) : "") || ".jpg";
+  return `photos/${String(index + 1).padStart(2, "0")}-${view}-${photoId.slice(0, 8)}${ext.toLowerCase()}`;
+}
+
+function fmt(v: number, digits = 3): string {
+  if (v === 0) return "0";
+  const a = Math.abs(v);
+  return a >= 1e-2 && a < 1e5 ? v.toFixed(digits).replace(/\.?0+$/, "") : v.toExponential(3);
+}
+
+/** A one-page PDF summary of the packet (pdfkit; built-in Helvetica, A4). */
+export async function summaryPdf(contents: PacketContents, meta: PacketBuildMeta, productionTitle: string): Promise<Buffer> {
+  const doc = new PDFDocument({ size: "A4", margin: 42, info: { Title: `Handoff packet v${meta.version}`, Author: "Seamscene", CreationDate: meta.publishedAt, ModDate: meta.publishedAt } });
+  const chunks: Buffer[] = [];
+  doc.on("data", (c: Buffer) => chunks.push(c));
+  const done = new Promise<void>((resolve) => doc.on("end", () => resolve()));
+  const bottom = doc.page.height - doc.page.margins.bottom - 30;
+  const line = (text: string, opts: { size?: number; bold?: boolean; gap?: number } = {}) => {
+    if (doc.y > bottom) return false;
+    doc.font(opts.bold ? "Helvetica-Bold" : "Helvetica").fontSize(opts.size ?? 9).text(text, { width: doc.page.width - 84 });
+    if (opts.gap) doc.moveDown(opts.gap);
+    return true;
+  };
+  // Lists are cut short so the summary stays on one page; the JSON files hold everything.
+  const list = (items: string[], max: number) => {
+    items.slice(0, max).forEach((t) => line(`• ${t}`));
+    if (items.length > max) line(`… and ${items.length - max} more (see the JSON files)`);
+  };
+  line(`Handoff packet: ${contents.character.name}, change ${contents.change.number}`, { size: 16, bold: true, gap: 0.2 });
+  line(`${productionTitle} · version ${meta.version} · published ${meta.publishedAt.toISOString().slice(0, 10)} by ${meta.publishedByName}`, { size: 10, gap: 0.6 });
+  if (contents.change.description) line(contents.change.description, { gap: 0.5 });
+  line("Garments and panels (sew-line area)", { size: 11, bold: true, gap: 0.2 });
+  list(
+    contents.garments.map((g) => {
+      const ps = contents.panels.filter((p) => p.garmentId === g.id);
+      return `${g.name} (${g.tagCode}): ${ps.map((p) => `${p.name} ×${p.cutCount} ${fmt(p.areaMm2 / 1e6, 4)} m²`).join(", ") || "no panels"}`;
+    }),
+    8,
+  );
+  const mismatched = contents.seams.filter((s) => s.status === "mismatch" || s.status === "eased_out_of_range");
+  line(`Seams: ${contents.seams.length}, ${mismatched.length ? `${mismatched.length} outside tolerance` : "all within tolerance"}`, { gap: 0.5 });
+  line("Fabrics (SI; M = measured, A = assumed)", { size: 11, bold: true, gap: 0.2 });
+  list(
+    contents.fabrics.map((f) => {
+      const s = f.simulation;
+      const tag = (b: { basis: string }) => (b.basis === "measured" ? "M" : "A");
+      return `${f.name}: ${fmt(s.massPerArea.value)} kg/m² ${tag(s.massPerArea)}; bending warp ${fmt(s.bendingStiffness.warp.value)} / weft ${fmt(s.bendingStiffness.weft.value)} N·m ${tag(s.bendingStiffness.warp)}${tag(s.bendingStiffness.weft)}; stretch warp ${fmt(s.stretchStiffness.warp.value, 0)} / weft ${fmt(s.stretchStiffness.weft.value, 0)} N/m ${tag(s.stretchStiffness.warp)}${tag(s.stretchStiffness.weft)}; thickness ${fmt(s.thickness.value * 1000, 2)} mm ${tag(s.thickness)}`;
+    }),
+    6,
+  );
+  doc.moveDown(0.4);
+  line("Effects shots (distress stage)", { size: 11, bold: true, gap: 0.2 });
+  list(
+    contents.shots.map((s) => `Scene ${s.sceneNumber}${s.storyDay ? ` (story day ${s.storyDay})` : ""}: distress ${s.distressStage}${s.wet ? ", wet" : ""}${s.blood ? ", blood" : ""}${s.stunt ? ", stunt" : ""}${s.photoFiles.length ? `, ${s.photoFiles.length} photo(s)` : ""}`),
+    10,
+  );
+  doc.moveDown(0.4);
+  line(`Reference photos: ${contents.photos.length}. Performer measurements: ${contents.measurements ? "included (personal data: keep confidential, delete when the work ends)" : "not included"}.`, { gap: 0.4 });
+  if (contents.notes) line(`Notes: ${contents.notes}`, { gap: 0.4 });
+  line("Check the files with: sha256sum -c SHA256SUMS. Units are SI except panels.json / .svg / .dxf (millimetres).", { size: 8 });
+  doc.end();
+  await done;
+  return Buffer.concat(chunks);
+}
+
+/** A deep copy with object keys sorted, so a snapshot read back from jsonb (which reorders keys) writes the same bytes. */
+export function canonical<T>(v: T): T {
+  if (Array.isArray(v)) return v.map(canonical) as T;
+  if (v && typeof v === "object" && !(v instanceof Date)) {
+    return Object.fromEntries(
+      Object.keys(v)
+        .sort()
+        .map((k) => [k, canonical((v as Record<string, unknown>)[k])]),
+    ) as T;
+  }
+  return v;
+}
+
+/**
+ * Every file of the packet, SHA256SUMS last (covering all the others).
+ * @param readPhoto reads a photo file by storage key
+ */
+export async function buildPacketFiles(
+  snapshot: PacketContents,
+  meta: PacketBuildMeta,
+  readPhoto: (storageKey: string) => Promise<Buffer>,
+): Promise<PacketFile[]> {
+  const contents = canonical(snapshot);
+  const shapes = exportShapes(contents);
+  const seamRefs: SeamRef[] = contents.seams.map((s) => ({ id: s.id, a: s.a, b: s.b }));
+  const obj = panelsToObj(shapes, seamRefs);
+  const extra = new Map(contents.panels.map((p) => [p.id, p]));
+  const files: PacketFile[] = [
+    {
+      path: "panels.json",
+      // The shared writer, plus the garment, fabric and area of each piece.
+      data: Buffer.from(
+        panelsToJson(shapes.map((s) => ({ ...s, garmentId: extra.get(s.id)!.garmentId, fabricId: extra.get(s.id)!.fabricId, areaMm2: extra.get(s.id)!.areaMm2 }))) + "\n",
+        "utf8",
+      ),
+      mediaType: "application/json",
+      description: "Flat pattern pieces: sew-line outline, grainline, notches, seam allowance, cut count (millimetres, y up)",
+    },
+    { path: "panels.svg", data: Buffer.from(panelsToSvg(shapes), "utf8"), mediaType: "image/svg+xml", description: "Pieces drawn 1:1 in millimetres: sew line, cut line, grainline, notches" },
+    { path: "panels.dxf", data: Buffer.from(panelsToDxf(shapes), "utf8"), mediaType: "image/vnd.dxf", description: "Pieces as ASCII DXF (millimetres), one layer per piece" },
+    { path: "panels.obj", data: Buffer.from(obj.obj, "utf8"), mediaType: "model/obj", description: "Each piece flat and triangulated (metres, z = 0), one group per piece, UV = flat position" },
+    {
+      path: "seams.json",
+      data: json({ ...obj.seams, seams: obj.seams.seams.map((s) => ({ ...s, name: contents.seams.find((x) => x.id === s.id)?.name ?? s.id })) }),
+      mediaType: "application/json",
+      description: "Which panels.obj vertex runs are sewn together (1-based OBJ indices)",
+    },
+    {
+      path: "fabrics.json",
+      data: json({
+        units: "SI",
+        fabrics: contents.fabrics.map((f) => ({ id: f.id, name: f.name, construction: f.construction, fabricClass: f.fabricClass, fibreContent: f.fibreContent, widthM: f.widthMm === null ? null : f.widthMm / 1000, simulation: f.simulation, tests: f.tests })),
+        panels: contents.panels.map((p) => ({ panelId: p.id, fabricId: p.fabricId })),
+      }),
+      mediaType: "application/json",
+      description: "Simulation values per fabric, each measured (with its tests) or assumed (class default)",
+    },
+  ];
+  if (contents.measurements) {
+    files.push({
+      path: "measurements.json",
+      data: json({
+        units: "m",
+        personalData: true,
+        performer: contents.measurements.performerName,
+        takenOn: contents.measurements.takenOn,
+        valuesM: Object.fromEntries(Object.entries(contents.measurements.valuesMm).map(([k, v]) => [k, v / 1000])),
+      }),
+      mediaType: "application/json",
+      description: "Performer body measurements (ISO 8559-1 names, metres); personal data",
+    });
+  }
+  for (const p of contents.photos) {
+    if (!p.storageKey) continue;
+    files.push({ path: p.fileName, data: await readPhoto(p.storageKey), mediaType: mediaTypeOf(p.fileName), description: `${p.ownerType} photo, ${p.view}${p.caption ? `: ${p.caption}` : ""}` });
+  }
+  files.push({
+    path: "shots.json",
+    data: json({ shots: contents.shots }),
+    mediaType: "application/json",
+    description: "Effects shots with the distress stage worn and continuity photos",
+  });
+  files.push({
+    path: "summary.pdf",
+    data: await summaryPdf(contents, meta, contents.production.title),
+    mediaType: "application/pdf",
+    description: "One-page summary",
+  });
+  files.push({ path: "manifest.schema.json", data: json(packetManifestJsonSchema()), mediaType: "application/schema+json", description: "JSON Schema of manifest.json" });
+
+  const manifest: PacketManifest = {
+    $schema: PACKET_MANIFEST_SCHEMA_ID,
+    format: "seamscene-handoff-packet",
+    formatVersion: 1,
+    units: { length: "m", mass: "kg", massPerArea: "kg/m²", bendingStiffness: "N·m", stretchStiffness: "N/m", shearStiffness: "N/m/rad", patternFiles: "mm" },
+    production: contents.production,
+    character: contents.character,
+    change: contents.change,
+    version: meta.version,
+    packetId: meta.packetId,
+    dates: { publishedAt: meta.publishedAt.toISOString(), builtAt: meta.publishedAt.toISOString() },
+    publishedBy: meta.publishedByName,
+    contents: {
+      garments: contents.garments.map((g) => ({ id: g.id, name: g.name, category: g.category, tagCode: g.tagCode })),
+      panelCount: contents.panels.length,
+      seamCount: contents.seams.length,
+      fabricCount: contents.fabrics.length,
+      photoCount: contents.photos.length,
+      shotCount: contents.shots.length,
+      measurementsIncluded: Boolean(contents.measurements),
+      files: files.map((f) => ({ path: f.path, mediaType: f.mediaType, bytes: f.data.length, sha256: sha256(f.data), description: f.description })),
+    },
+    notes: contents.notes,
+  };
+  files.unshift({ path: "manifest.json", data: json(manifest), mediaType: "application/json", description: "What this packet holds" });
+  // sha256sum's text format: "<hex>  <path>", one line per file.
+  const sums = files.map((f) => `${sha256(f.data)}  ${f.path}`).join("\n") + "\n";
+  files.push({ path: "SHA256SUMS", data: Buffer.from(sums, "utf8"), mediaType: "text/plain", description: "SHA-256 of every other file" });
+  return files;
+}
+
+function mediaTypeOf(name: string): string {
+  const ext = path.extname(name).toLowerCase();
+  return { ".webp": "image/webp", ".jpg": "image/jpeg", ".jpeg": "image/jpeg", ".png": "image/png", ".heic": "image/heic" }[ext] ?? "application/octet-stream";
+}
+
+/**
+ * Streams the files as a ZIP (archiver). Entries carry the given date so a rebuild is byte-identical.
+ * @returns the archive stream; read or pipe it to get the bytes
+ */
+export function zipPacketFiles(files: PacketFile[], options: { date: Date; onProgress?: (p: ZipProgress) => void }): Readable {
+  const archive = archiver("zip", { zlib: { level: 6 } });
+  const bytesTotal = files.reduce((s, f) => s + f.data.length, 0);
+  archive.on("progress", (p: ProgressData) => options.onProgress?.({ entriesDone: p.entries.processed, entriesTotal: files.length, bytesIn: p.fs.processedBytes, bytesTotal }));
+  for (const f of files) {
+    // Photos are already compressed; storing them saves time without growing the file.
+    const store = f.path.startsWith("photos/");
+    archive.append(f.data, { name: f.path, date: options.date, store });
+  }
+  void archive.finalize();
+  return archive;
+}

@@ -1,0 +1,55 @@
+import fs from "node:fs";
+import { createHash } from "node:crypto";
+import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import type { Browser } from "playwright-core";
+import unzipper from "unzipper";
+import { launchBrowser, signIn } from "./browser.js";
+import { SALTMARSH_ID } from "../../seeds/accounts.js";
+
+const baseUrl = inject("baseUrl");
+let browser: Browser;
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+describe("digital-double handoff", () => {
+  it("the demo supervisor publishes a new packet version; the demo vfx user downloads and receives it", async () => {
+    const sup = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signIn(sup, baseUrl, "supervisor@seamscene.test");
+    await sup.getByRole("heading", { name: "Today" }).waitFor();
+
+    await sup.goto(`${baseUrl}/p/${SALTMARSH_ID}/doubles?tab=packets`);
+    await sup.getByRole("link", { name: "Version 1" }).waitFor();
+    await sup.getByRole("button", { name: "New draft" }).click();
+    await sup.getByRole("heading", { name: /draft packet/ }).waitFor();
+    await sup.getByLabel(/Include the performer's measurements/).waitFor();
+    await sup.getByRole("button", { name: "Publish version" }).click();
+    await sup.getByRole("dialog").getByRole("button", { name: "Publish" }).click();
+    await sup.getByRole("heading", { name: /version 2/ }).waitFor();
+    expect(await sup.getByRole("status").textContent()).toContain("Published as version 2");
+    expect(await sup.getByRole("table", { name: "Recipients" }).textContent()).toContain("vfx@seamscene.test");
+    await sup.close();
+
+    const vfx = await browser.newPage({ viewport: { width: 390, height: 844 }, acceptDownloads: true });
+    await signIn(vfx, baseUrl, "vfx@seamscene.test");
+    await vfx.getByRole("heading", { name: "Digital doubles" }).waitFor();
+    await vfx.getByRole("link", { name: /version 2/ }).click();
+    const [download] = await Promise.all([vfx.waitForEvent("download"), vfx.getByRole("link", { name: /Download version 2/ }).click()]);
+    const file = await download.path();
+    const zip = await unzipper.Open.buffer(fs.readFileSync(file));
+    const files = new Map(await Promise.all(zip.files.map(async (f) => [f.path, await f.buffer()] as const)));
+    // sha256sum -c: every listed file matches.
+    const sums = files.get("SHA256SUMS")!.toString("utf8").trim().split("\n");
+    for (const line of sums) expect(createHash("sha256").update(files.get(line.slice(66))!).digest("hex")).toBe(line.slice(0, 64));
+    expect(JSON.parse(files.get("manifest.json")!.toString("utf8")).version).toBe(2);
+
+    await vfx.getByRole("button", { name: "Mark received" }).click();
+    await vfx.getByText(/You marked this version received/).waitFor();
+    await vfx.screenshot({ path: ".data/e2e-doubles-vfx.png" });
+    await vfx.close();
+  });
+});

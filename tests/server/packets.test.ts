@@ -1,0 +1,263 @@
+import { createHash, randomUUID } from "node:crypto";
+import { beforeEach, describe, expect, it } from "vitest";
+import unzipper from "unzipper";
+import { Readable } from "node:stream";
+import { createApp } from "../../server/app.js";
+import { sequelize } from "../../server/db.js";
+import { Packet, PacketRecipient } from "../../server/models/index.js";
+import { packetStore } from "../../server/services/packet-storage.js";
+import { buildPacketFiles, zipPacketFiles } from "../../server/services/packet-zip.js";
+import { packetManifestSchema } from "@shared/schemas/packet-manifest.js";
+import { resetDb, signedInAgent, waitForMail, type TestAgent } from "../setup/http.js";
+import { buildMember, buildUser } from "../factories.js";
+import { buildChangeWithGarments, buildFabric, buildMeasurementSet, buildPanel, buildPhotoRow, buildSeam, buildShot } from "../setup/doubles-fixtures.js";
+import type { Production, User } from "../../server/models/index.js";
+
+const app = createApp();
+
+let production: Production;
+let supervisor: TestAgent;
+let cutter: TestAgent;
+let vfx: TestAgent;
+let otherVfx: TestAgent;
+let vfxUser: User;
+let otherVfxUser: User;
+let ids: { changeId: string; garmentIds: string[]; characterId: string; performerId: string; panelIds: string[]; shots: string[]; hiddenShot: string; photoId: string };
+
+const base = () => `/api/productions/${production.id}`;
+
+/** Downloads a packet and returns its entries by path. */
+async function download(agent: TestAgent, packetId: string): Promise<{ res: { status: number; headers: Record<string, string> }; files: Map<string, Buffer> }> {
+  const res = await agent.agent
+    .get(`${base()}/packets/${packetId}/download`)
+    .buffer(true)
+    .parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on("data", (c: Buffer) => chunks.push(c));
+      r.on("end", () => cb(null, Buffer.concat(chunks)));
+    });
+  const files = new Map<string, Buffer>();
+  if (res.status === 200) {
+    const dir = await unzipper.Open.buffer(res.body as Buffer);
+    for (const f of dir.files) files.set(f.path, await f.buffer());
+  }
+  return { res: { status: res.status, headers: res.headers as Record<string, string> }, files };
+}
+
+const sha = (b: Buffer) => createHash("sha256").update(b).digest("hex");
+
+beforeEach(async () => {
+  await resetDb();
+  const s = await buildMember("supervisor");
+  production = s.production;
+  const c = await buildMember("cutter", { production });
+  vfxUser = await buildUser({ name: "Vee Effects", email: `vfx-${randomUUID().slice(0, 6)}@test.invalid` });
+  otherVfxUser = await buildUser({ name: "Other Studio" });
+  await buildMember("vfx", { production, user: vfxUser });
+  await buildMember("vfx", { production, user: otherVfxUser });
+  supervisor = await signedInAgent(app, s.user.email);
+  cutter = await signedInAgent(app, c.user.email);
+  vfx = await signedInAgent(app, vfxUser.email);
+  otherVfx = await signedInAgent(app, otherVfxUser.email);
+
+  const { id: fabricId } = await buildFabric(production.id, { name: "Keeper wool" }, [
+    { kind: "mass", readings: { massG: 2, lengthMm: 100, widthMm: 100 } },
+    { kind: "cantilever", direction: "warp", readings: { overhangMm: 40 } },
+  ]);
+  const g = await buildChangeWithGarments(production.id, { garments: 2, fabricId, name: "Elias Test" });
+  const front = await buildPanel(production.id, g.garmentIds[0], { name: "Front", outline: [[0, 0], [300, 0], [300, 600], [0, 600]], cutCount: 2 });
+  const back = await buildPanel(production.id, g.garmentIds[0], { name: "Back", outline: [[0, 0], [320, 0], [320, 600], [0, 600]] });
+  const sleeve = await buildPanel(production.id, g.garmentIds[1], { name: "Sleeve", outline: [[0, 0], [250, 0], [250, 550], [0, 550]], cutCount: 2 });
+  await buildSeam(production.id, { panelId: front.id, from: 1, to: 2 }, { panelId: back.id, from: 3, to: 0 }, "Side seam");
+  const s1 = await buildShot(production.id, g.characterId, g.changeId, { number: "41", storyOrder: 41, distressStage: 1 });
+  const s2 = await buildShot(production.id, g.characterId, g.changeId, { number: "52", storyOrder: 52, distressStage: 2 });
+  const hidden = await buildShot(production.id, g.characterId, g.changeId, { number: "60", storyOrder: 60, vfxShot: false });
+  await buildMeasurementSet(production.id, g.performerId, { chest_girth: 1010, waist_girth: 880, height: 1820 });
+  const photoBytes = Buffer.from("not really a webp, but bytes to checksum");
+  const key = `photos/${randomUUID()}/display.webp`;
+  await packetStore().write(key, Readable.from([photoBytes]));
+  const photoId = await buildPhotoRow(production.id, "garment", g.garmentIds[0], key, photoBytes.length, sha(photoBytes));
+  ids = { ...g, panelIds: [front.id, back.id, sleeve.id], shots: [s1.appearanceId, s2.appearanceId], hiddenShot: hidden.appearanceId, photoId };
+});
+
+async function publishedV1(): Promise<string> {
+  const draft = await cutter.post(`${base()}/packets`, { changeId: ids.changeId, photoIds: [ids.photoId], recipientUserIds: [vfxUser.id] });
+  expect(draft.status, JSON.stringify(draft.body)).toBe(201);
+  const pub = await supervisor.post(`${base()}/packets/${draft.body.data.id}/publish`);
+  expect(pub.status, JSON.stringify(pub.body)).toBe(200);
+  return draft.body.data.id as string;
+}
+
+describe("preparing and publishing", () => {
+  it("a cutter prepares a draft (effects shots only, measurements off by default) but cannot publish", async () => {
+    const draft = await cutter.post(`${base()}/packets`, { changeId: ids.changeId, recipientUserIds: [vfxUser.id] });
+
+    expect(draft.status).toBe(201);
+    expect(draft.body.data.status).toBe("draft");
+    expect(draft.body.data.includeMeasurements).toBe(false);
+    expect(draft.body.data.contents.measurements).toBeNull();
+    expect(draft.body.data.contents.shots.map((s: { sceneNumber: string }) => s.sceneNumber)).toEqual(["41", "52"]);
+    const res = await cutter.post(`${base()}/packets/${draft.body.data.id}/publish`);
+    expect(res.status).toBe(403);
+  });
+
+  it("400 names the field when a chosen photo or shot is not of this change, and writes nothing", async () => {
+    const res = await cutter.post(`${base()}/packets`, { changeId: ids.changeId, appearanceIds: [ids.hiddenShot] });
+    const res2 = await cutter.post(`${base()}/packets`, { changeId: ids.changeId, recipientUserIds: [randomUUID()] });
+
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.appearanceIds).toBeDefined();
+    expect(res2.status).toBe(400);
+    expect(res2.body.error.fields.recipientUserIds).toBeDefined();
+    expect(await Packet.count()).toBe(0);
+  });
+
+  it("422 when publishing to nobody, and the draft stays a draft", async () => {
+    const draft = await cutter.post(`${base()}/packets`, { changeId: ids.changeId, recipientUserIds: [] });
+
+    const res = await supervisor.post(`${base()}/packets/${draft.body.data.id}/publish`);
+
+    expect(res.status).toBe(422);
+    expect(res.body.error.fields.recipientUserIds).toBeDefined();
+    expect((await Packet.findByPk(draft.body.data.id))!.status).toBe("draft");
+  });
+
+  it("publishing makes version 1, stores the ZIP checksum and e-mails the chosen vfx member", async () => {
+    const id = await publishedV1();
+
+    const packet = (await Packet.findByPk(id))!;
+    expect(packet.version).toBe(1);
+    expect(packet.status).toBe("published");
+    const mail = await waitForMail((m) => m.recipients.includes(vfxUser.email) && m.subject.includes("version 1"));
+    expect(mail.textBody).toContain("Elias Test");
+    const stored = await packetStore().readBuffer(packet.zipStorageKey!);
+    expect(sha(stored)).toBe(packet.zipSha256);
+    expect(stored.length).toBe(packet.zipBytes);
+    expect((await PacketRecipient.findAll({ where: { packetId: id } })).map((r) => r.userId)).toEqual([vfxUser.id]);
+  });
+});
+
+describe("the ZIP", () => {
+  it("every file's checksum in SHA256SUMS verifies, the manifest follows its schema, and measurements are absent unless chosen", async () => {
+    const id = await publishedV1();
+
+    const { res, files } = await download(vfx, id);
+
+    expect(res.status).toBe(200);
+    expect(res.headers["content-type"]).toBe("application/zip");
+    const sums = files.get("SHA256SUMS")!.toString("utf8").trim().split("\n");
+    const listed = new Map(sums.map((l) => [l.slice(66), l.slice(0, 64)]));
+    // Every file but SHA256SUMS itself is listed, and every listed hash matches (sha256sum -c).
+    expect([...listed.keys()].sort()).toEqual([...files.keys()].filter((p) => p !== "SHA256SUMS").sort());
+    for (const [p, h] of listed) expect(sha(files.get(p)!), p).toBe(h);
+    for (const name of ["manifest.json", "manifest.schema.json", "panels.json", "panels.svg", "panels.dxf", "panels.obj", "seams.json", "fabrics.json", "shots.json", "summary.pdf"]) {
+      expect(files.has(name), name).toBe(true);
+    }
+    expect(files.has("measurements.json")).toBe(false);
+    const manifest = packetManifestSchema.parse(JSON.parse(files.get("manifest.json")!.toString("utf8")));
+    expect(manifest).toMatchObject({ version: 1, character: { name: "Elias Test" }, contents: { panelCount: 3, measurementsIncluded: false, shotCount: 2, photoCount: 1 } });
+    const schema = JSON.parse(files.get("manifest.schema.json")!.toString("utf8"));
+    expect(schema.required).toEqual(expect.arrayContaining(["units", "production", "character", "change", "version", "dates", "contents"]));
+    // The photo went in byte for byte.
+    const photo = [...files.keys()].find((p) => p.startsWith("photos/"))!;
+    expect(files.get(photo)!.toString("utf8")).toBe("not really a webp, but bytes to checksum");
+    // One OBJ group per piece; the seam map names OBJ vertex runs of equal length (the seam matches).
+    const obj = files.get("panels.obj")!.toString("utf8");
+    expect(obj.split("\n").filter((l) => l.startsWith("g ")).length).toBe(3);
+    expect(files.get("summary.pdf")!.subarray(0, 5).toString("latin1")).toBe("%PDF-");
+    const fabrics = JSON.parse(files.get("fabrics.json")!.toString("utf8"));
+    expect(fabrics.fabrics[0].simulation.massPerArea).toMatchObject({ basis: "measured", value: 0.2 });
+  });
+
+  it("includes measurements (in metres) only when chosen", async () => {
+    const draft = await cutter.post(`${base()}/packets`, { changeId: ids.changeId, recipientUserIds: [vfxUser.id], includeMeasurements: true });
+    await supervisor.post(`${base()}/packets/${draft.body.data.id}/publish`);
+
+    const { files } = await download(vfx, draft.body.data.id);
+
+    const m = JSON.parse(files.get("measurements.json")!.toString("utf8"));
+    expect(m.units).toBe("m");
+    expect(m.valuesM.chest_girth).toBeCloseTo(1.01, 12);
+  });
+});
+
+describe("immutability and versions", () => {
+  it("a published version cannot change, through the API or in the database", async () => {
+    const id = await publishedV1();
+
+    const patch = await supervisor.patch(`${base()}/packets/${id}`, { includeMeasurements: true });
+    const del = await supervisor.delete(`${base()}/packets/${id}`);
+    const again = await supervisor.post(`${base()}/packets/${id}/publish`);
+
+    expect(patch.status).toBe(409);
+    expect(del.status).toBe(409);
+    expect(again.status).toBe(409);
+    await expect(sequelize.query(`UPDATE packets SET include_measurements = true WHERE id = :id`, { replacements: { id } })).rejects.toThrow(/cannot change/);
+    expect((await Packet.findByPk(id))!.includeMeasurements).toBe(false);
+  });
+
+  it("rebuilding a version's ZIP from its stored snapshot reproduces the stored checksum", async () => {
+    const id = await publishedV1();
+    const packet = (await Packet.findByPk(id))!;
+    const s = await supervisor.get(`${base()}/packets/${id}`);
+
+    const files = await buildPacketFiles(packet.contents!, { packetId: id, version: 1, publishedAt: packet.publishedAt!, publishedByName: s.body.data.publishedByName }, (k) => packetStore().readBuffer(k));
+    const chunks: Buffer[] = [];
+    for await (const c of zipPacketFiles(files, { date: packet.publishedAt! })) chunks.push(c as Buffer);
+
+    expect(sha(Buffer.concat(chunks))).toBe(packet.zipSha256);
+  });
+
+  it("a new draft after a change becomes version 2 and shows what changed since version 1", async () => {
+    const v1 = await publishedV1();
+    await cutter.patch(`${base()}/panels/${ids.panelIds[2]}`, { cutCount: 4 });
+    const draft = await cutter.post(`${base()}/packets`, { changeId: ids.changeId, includeMeasurements: true, appearanceIds: [ids.shots[0]] });
+    expect(draft.body.data.selection.photoIds).toEqual([ids.photoId]); // copied from version 1
+
+    const pub = await supervisor.post(`${base()}/packets/${draft.body.data.id}/publish`);
+
+    expect(pub.body.data.version).toBe(2);
+    expect(pub.body.data.previousVersion).toBe(1);
+    expect(pub.body.data.diff.panels.changed).toEqual([expect.objectContaining({ id: ids.panelIds[2], fields: ["cutCount"] })]);
+    expect(pub.body.data.diff.shots.removed.map((s: { name: string }) => s.name)).toEqual(["Scene 52"]);
+    expect(pub.body.data.diff.measurements).toBe("added");
+    // Version 1 still holds what it held.
+    const old = await supervisor.get(`${base()}/packets/${v1}`);
+    expect(old.body.data.contents.panels.find((p: { id: string }) => p.id === ids.panelIds[2]).cutCount).toBe(2);
+  });
+});
+
+describe("what a vfx user sees", () => {
+  it("only packets published to them; 404 for the rest and 403 for the production's other records", async () => {
+    const id = await publishedV1();
+    const draft = await cutter.post(`${base()}/packets`, { changeId: ids.changeId, recipientUserIds: [vfxUser.id] });
+
+    const mine = await vfx.get(`${base()}/packets`);
+    const theirs = await otherVfx.get(`${base()}/packets`);
+
+    expect(mine.body.data.map((p: { id: string }) => p.id)).toEqual([id]);
+    expect(theirs.body.data).toEqual([]);
+    expect((await otherVfx.get(`${base()}/packets/${id}`)).status).toBe(404);
+    expect((await download(otherVfx, id)).res.status).toBe(404);
+    expect((await otherVfx.post(`${base()}/packets/${id}/received`)).status).toBe(404);
+    expect((await vfx.get(`${base()}/packets/${draft.body.data.id}`)).status).toBe(404);
+    expect((await vfx.get(`${base()}/panels?changeId=${ids.changeId}`)).status).toBe(403);
+    expect((await vfx.get(`${base()}/doubles/physics?changeId=${ids.changeId}`)).status).toBe(403);
+    expect((await vfx.get(`${base()}/packets/options?changeId=${ids.changeId}`)).status).toBe(403);
+  });
+
+  it("marks received; the supervisor sees who received which version", async () => {
+    const id = await publishedV1();
+    await download(vfx, id);
+
+    const res = await vfx.post(`${base()}/packets/${id}/received`);
+
+    expect(res.status).toBe(200);
+    expect(res.body.data.recipients).toHaveLength(1);
+    const seen = await supervisor.get(`${base()}/packets`);
+    const r = seen.body.data[0].recipients[0];
+    expect(r).toMatchObject({ userId: vfxUser.id, name: "Vee Effects" });
+    expect(r.receivedAt).not.toBeNull();
+    expect(r.downloadedAt).not.toBeNull();
+  });
+});
