@@ -24,7 +24,7 @@ export default defineConfig({
     projects: [
       {
         extends: true,
-        test: { name: "shared", include: ["tests/shared/**/*.test.ts"], environment: "node" },
+        test: { name: "shared", include: ["tests/shared/**/*.test.ts"], environment: "node", testTimeout: 30_000 },
       },
       {
         extends: true,

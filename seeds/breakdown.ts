@@ -250,10 +250,14 @@ async function seedGlassOrchard(t: Transaction): Promise<void> {
     for (const num of used) {
       await Change.upsert({ id: demoId(`change:glass:${c.key}:${num}`), productionId: pid, characterId: charId, number: num, description: glassOrchard.changeNames[num - 1]!, storyDayFrom: null, storyDayTo: null, approval: "approved", approvedBy: null, approvedAt: new Date("2026-11-25T10:00:00Z") }, { transaction: t });
     }
-    for (const sn of c.scenes) {
+    // On stage every costume change between entrances is planned: the breakdown marks it.
+    let previous: number | null = null;
+    for (const sn of [...c.scenes].sort((a, b) => Number(a) - Number(b))) {
       const num = (c.changes as Record<string, number>)[sn]!;
+      const changeHere = previous !== null && previous !== num;
+      previous = num;
       await Appearance.upsert(
-        { id: demoId(`appearance:glass:${c.key}:${sn}`), productionId: pid, sceneId: demoId(`scene:glass:${sn}`), characterId: charId, changeId: demoId(`change:glass:${c.key}:${num}`), distressStage: 0, wet: false, stunt: false, blood: false, vfxShot: false, changeHere: false, notes: null },
+        { id: demoId(`appearance:glass:${c.key}:${sn}`), productionId: pid, sceneId: demoId(`scene:glass:${sn}`), characterId: charId, changeId: demoId(`change:glass:${c.key}:${num}`), distressStage: 0, wet: false, stunt: false, blood: false, vfxShot: false, changeHere, notes: null },
         { transaction: t },
       );
     }

@@ -10,7 +10,7 @@ import { seedBreakdown } from "./breakdown.js";
 import { seedBreakdownLinks } from "./breakdown-links.js";
 import { seedWardrobe } from "./wardrobe.js";
 import { seedWorkroom } from "./workroom.js";
-import { ensureDoublesPrerequisites, seedDoubles } from "./doubles.js";
+import { seedDoubles } from "./doubles.js";
 
 export { demoAccounts };
 
@@ -25,9 +25,7 @@ const steps: Array<{ name: string; run: (t: Transaction) => Promise<void> }> = [
   { name: "breakdown links", run: seedBreakdownLinks },
   // Workroom feature: fittings, capacity, alteration tickets (after wardrobe and breakdown links).
   { name: "workroom", run: seedWorkroom },
-  // Digital doubles (last). The prerequisites step stands in for the breakdown and wardrobe steps on
-  // this branch; drop it once those steps are merged.
-  { name: "doubles prerequisites", run: ensureDoublesPrerequisites },
+  // Digital doubles (last): panels and seams for Elias's change, a marker, a published packet.
   { name: "doubles: panels, seams, marker, packet", run: seedDoubles },
 ];
 

@@ -36,94 +36,10 @@ async function changeId(characterKey: keyof typeof characters, number: number, t
   return row?.id ?? null;
 }
 
-/**
- * TEMPORARY — the minimum rows of the breakdown and wardrobe steps the workroom demo needs, for working on this
- * branch alone. Inserts only what is missing (ON CONFLICT DO NOTHING; links by natural keys), so it is harmless
- * after those steps ran. The lead can drop this function once the breakdown and wardrobe steps are merged.
- */
-export async function ensureWorkroomPrerequisites(t: Transaction): Promise<void> {
-  const emailOf = (name: string) => `${name.toLowerCase().replace(/[^a-z]+/g, ".")}@performers.seamscene.test`;
-  for (const [key, p] of Object.entries(performers)) {
-    // One performer is reached through an agent, to show invitations going to the contact.
-    const viaAgent = key === "ambrose";
-    await exec(
-      `INSERT INTO performers (id, production_id, name, email, agent_contact) VALUES (:id, :P, :name, :email, :agent) ON CONFLICT DO NOTHING`,
-      { id: p.id, P, name: p.name, email: viaAgent ? null : emailOf(p.name), agent: viaAgent ? "Tonkin's agent: Lark Penrose <lark@agency.seamscene.test>" : null },
-      t,
-    );
-  }
-  let order = 0;
-  for (const c of Object.values(characters)) {
-    await exec(`INSERT INTO characters (id, production_id, name, performer_id, sort_order) VALUES (:id, :P, :name, :perf, :o) ON CONFLICT DO NOTHING`, { id: c.id, P, name: c.name, perf: performers[c.performer].id, o: order++ }, t);
-  }
-  const garments: Array<{ id: string; tag: string; name: string; category: string; fit: string; finished: object; source: string; rental?: string; group?: string; copy?: number }> = [
-    { id: keyGarments.eliasJacket, tag: "EM-01", name: "Keeper's jacket", category: "jacket", fit: "fitted", finished: { chest: 1000, waist: 900, sleeve: 640 }, source: "built" },
-    { id: keyGarments.eliasShirt, tag: "EM-02", name: "Collarless work shirt", category: "shirt", fit: "regular", finished: { chest: 1080, sleeve: 650 }, source: "bought" },
-    { id: keyGarments.eliasTrousers, tag: "EM-03", name: "Moleskin trousers", category: "trousers", fit: "regular", finished: { waist: 880, inside_leg: 790 }, source: "built" },
-    { id: keyGarments.eliasBoots, tag: "EM-04", name: "Hobnail boots", category: "boots", fit: "regular", finished: {}, source: "rented", rental: "2027-01-15" },
-    { id: keyGarments.ambroseFrockCoat, tag: "AK-01", name: "Clerical frock coat", category: "coat", fit: "regular", finished: { chest: 1120, waist: 1000 }, source: "rented", rental: "2026-12-11" },
-    { id: keyGarments.maudDressDay, tag: "MP-01", name: "Sprigged cotton day dress", category: "dress", fit: "regular", finished: { bust: 960, waist: 760 }, source: "built" },
-    { id: keyGarments.maudShawl, tag: "MP-02", name: "Knitted shawl", category: "shawl", fit: "loose", finished: {}, source: "bought" },
-    { id: keyGarments.maudMourning, tag: "MP-03", name: "Mourning dress", category: "dress", fit: "fitted", finished: { bust: 940, waist: 740 }, source: "built" },
-  ];
-  await exec(`INSERT INTO multiples_groups (id, production_id, name) VALUES (:id, :P, 'Storm oilskin') ON CONFLICT DO NOTHING`, { id: keyGarments.silasOilskinGroup, P }, t);
-  for (const copy of [1, 2]) {
-    garments.push({ id: demoId(`garment:silas-oilskin-${copy}`), tag: `SR-0${copy}`, name: "Storm oilskin", category: "coat", fit: "loose", finished: {}, source: "built", group: keyGarments.silasOilskinGroup, copy });
-  }
-  for (const g of garments) {
-    await exec(
-      `INSERT INTO garments (id, production_id, tag_code, name, category, fit_intent, finished_measurements, source, rental_due_on, multiples_group_id, copy_number)
-       VALUES (:id, :P, :tag, :name, :category, :fit, :finished, :source, :rental, :group, :copy) ON CONFLICT DO NOTHING`,
-      { id: g.id, P, tag: g.tag, name: g.name, category: g.category, fit: g.fit, finished: JSON.stringify(g.finished), source: g.source, rental: g.rental ?? null, group: g.group ?? null, copy: g.copy ?? null },
-      t,
-    );
-  }
-  for (const [i, date] of SHOOT_DAY_DATES.entries()) {
-    await exec(`INSERT INTO shoot_days (id, production_id, day_number, date, kind) VALUES (:id, :P, :n, :date, 'shoot') ON CONFLICT DO NOTHING`, { id: demoId(`shoot-day:${i + 1}`), P, n: i + 1, date }, t);
-  }
-  // change → items → scenes on shoot days (day numbers are 1-based into SHOOT_DAY_DATES).
-  const plan: Array<{ character: keyof typeof characters; number: number; description: string; items: Array<{ label: string; garment?: string; group?: string }>; scenes: Array<{ number: string; storyDay: number; days: number[] }> }> = [
-    { character: "elias", number: 1, description: "Keeper's working clothes", items: [{ label: "Jacket", garment: keyGarments.eliasJacket }, { label: "Shirt", garment: keyGarments.eliasShirt }, { label: "Trousers", garment: keyGarments.eliasTrousers }, { label: "Boots", garment: keyGarments.eliasBoots }], scenes: [{ number: "4", storyDay: 1, days: [4] }, { number: "31", storyDay: 6, days: [9] }] },
-    { character: "maud", number: 1, description: "Everyday village", items: [{ label: "Day dress", garment: keyGarments.maudDressDay }, { label: "Shawl", garment: keyGarments.maudShawl }], scenes: [{ number: "12", storyDay: 3, days: [6] }] },
-    { character: "maud", number: 2, description: "Mourning", items: [{ label: "Mourning dress", garment: keyGarments.maudMourning }], scenes: [{ number: "40", storyDay: 8, days: [11] }] },
-    { character: "silas", number: 1, description: "Storm gear", items: [{ label: "Oilskin", group: keyGarments.silasOilskinGroup }], scenes: [{ number: "22", storyDay: 5, days: [7] }] },
-    { character: "ambrose", number: 1, description: "Sunday best", items: [{ label: "Frock coat", garment: keyGarments.ambroseFrockCoat }], scenes: [{ number: "26", storyDay: 5, days: [8, 14] }] },
-    { character: "tamsin", number: 1, description: "Harbour day", items: [], scenes: [] },
-  ];
-  for (const c of plan) {
-    const cid = demoId(`change:${c.character}:${c.number}`);
-    await exec(`INSERT INTO changes (id, production_id, character_id, number, description, approval) VALUES (:id, :P, :ch, :n, :d, 'approved') ON CONFLICT DO NOTHING`, { id: cid, P, ch: characters[c.character].id, n: c.number, d: c.description }, t);
-    const realChange = (await changeId(c.character, c.number, t))!;
-    for (const [i, item] of c.items.entries()) {
-      await exec(
-        `INSERT INTO change_items (id, production_id, change_id, label, garment_id, multiples_group_id, sort_order) VALUES (:id, :P, :c, :label, :g, :grp, :o) ON CONFLICT DO NOTHING`,
-        { id: demoId(`change-item:${c.character}:${c.number}:${i}`), P, c: realChange, label: item.label, g: item.garment ?? null, grp: item.group ?? null, o: i },
-        t,
-      );
-    }
-    for (const s of c.scenes) {
-      await exec(`INSERT INTO scenes (id, production_id, number, story_day, story_order) VALUES (:id, :P, :n, :sd, :so) ON CONFLICT DO NOTHING`, { id: demoId(`scene:${s.number}`), P, n: s.number, sd: s.storyDay, so: Number(s.number) }, t);
-      const scene = (await one<{ id: string }>(`SELECT id FROM scenes WHERE production_id = :P AND number = :n`, { P, n: s.number }, t))!;
-      await exec(`INSERT INTO appearances (id, production_id, scene_id, character_id, change_id) VALUES (:id, :P, :s, :ch, :c) ON CONFLICT DO NOTHING`, { id: demoId(`appearance:${s.number}:${c.character}`), P, s: scene.id, ch: characters[c.character].id, c: realChange }, t);
-      for (const day of s.days) {
-        const sd = (await one<{ id: string }>(`SELECT id FROM shoot_days WHERE production_id = :P AND day_number = :n`, { P, n: day }, t))!;
-        await exec(`INSERT INTO shoot_day_scenes (id, production_id, shoot_day_id, scene_id, position) VALUES (:id, :P, :sd, :s, 1) ON CONFLICT DO NOTHING`, { id: demoId(`shoot-day-scene:${day}:${s.number}`), P, sd: sd.id, s: scene.id }, t);
-      }
-    }
-  }
-  // Corwen Blakely's measurements: chest 980 mm against the fitted jacket's 1000 mm finished chest (tight).
-  await exec(
-    `INSERT INTO measurement_sets (id, production_id, performer_id, taken_on, values_mm) VALUES (:id, :P, :perf, '2026-11-20', :v) ON CONFLICT DO NOTHING`,
-    { id: demoId("measurements:elias:1"), P, perf: performers.elias.id, v: JSON.stringify({ height: 1830, chest_girth: 980, waist_girth: 860, hip_girth: 990, arm_length: 640, neck_girth: 400, inside_leg_length: 820 }) },
-    t,
-  );
-}
-
 const at = (dateTime: string) => new Date(`${dateTime}:00Z`); // Europe/London is on UTC in Nov–Dec.
 
 /** The workroom step: members, hours, fittings and tickets (idempotent upserts with fixed ids). */
 export async function seedWorkroom(t: Transaction): Promise<void> {
-  await ensureWorkroomPrerequisites(t);
   const hash = await hashPassword(DEMO_PASSWORD);
   for (const m of workroomMembers) {
     await User.upsert({ id: userId(m.key), email: m.email, name: m.name, passwordHash: hash, isActive: true, lastProductionId: P }, { transaction: t });
@@ -174,7 +90,7 @@ export async function seedWorkroom(t: Transaction): Promise<void> {
     { key: "elias-shirt", garment: keyGarments.eliasShirt, fitting: "elias-1", tasks: [{ kind: "shorten", amountMm: 20, note: "sleeves" }], estimate: 1.5, assignee: merryn, status: "done", raisedOn: "2026-11-30" },
     { key: "maud-dress", garment: keyGarments.maudDressDay, fitting: "maud-1", tasks: [{ kind: "shorten", amountMm: 20 }, { kind: "re_hem" }], estimate: 3, assignee: null, status: "waiting", raisedOn: "2026-11-30" },
     { key: "maud-shawl", garment: keyGarments.maudShawl, fitting: "maud-1", tasks: [{ kind: "repair", note: "dropped stitch at the fringe" }], estimate: 1.5, assignee: null, status: "waiting", raisedOn: "2026-11-30" },
-    { key: "silas-oilskin-2", garment: oilskin2?.id, fitting: "silas-1", tasks: [{ kind: "distress", distressStage: 1, note: "salt bloom and scuffing; abrade, then sponge a fuller's earth wash" }], estimate: 4, assignee: jago, status: "waiting", raisedOn: "2026-12-01" },
+    { key: "silas-oilskin-2", garment: oilskin2?.id, fitting: "silas-1", tasks: [{ kind: "distress", distressStage: 1, note: "salt bloom and scuffing; abrade, then sponge a fuller's earth wash" }], estimate: 4, assignee: null, status: "waiting", raisedOn: "2026-12-01" },
     { key: "ambrose-coat", garment: keyGarments.ambroseFrockCoat, fitting: "ambrose-1", tasks: [{ kind: "let_out", amountMm: 30, note: "waist, centre back seam" }, { kind: "press" }], estimate: 5, assignee: null, status: "waiting", raisedOn: "2026-12-01" },
     { key: "maud-mourning", garment: keyGarments.maudMourning, fitting: null, tasks: [{ kind: "dye", note: "overdye to a deeper black" }, { kind: "take_in", amountMm: 10, note: "waist" }], estimate: 6, assignee: merryn, status: "waiting", raisedOn: "2026-12-01" },
     { key: "elias-trousers", garment: keyGarments.eliasTrousers, fitting: "elias-1", tasks: [{ kind: "re_hem", amountMm: 0 }], estimate: 2, assignee: merryn, status: "checked", raisedOn: "2026-11-30" },

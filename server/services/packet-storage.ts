@@ -3,9 +3,10 @@
 import fs from "node:fs";
 import path from "node:path";
 import { createHash, randomUUID } from "node:crypto";
-import { Transform, type Readable } from "node:stream";
+import { PassThrough, Transform, type Readable } from "node:stream";
 import { pipeline } from "node:stream/promises";
 import { config } from "../config.js";
+import { getStorage } from "../lib/storage.js";
 
 /** What the packet service needs from file storage. Keys are relative, forward-slash paths. */
 export interface PacketFileStore {
@@ -62,7 +63,39 @@ export function diskStore(root: string): PacketFileStore {
   };
 }
 
-let store: PacketFileStore = diskStore(path.resolve(config.STORAGE_DIR));
+/**
+ * A PacketFileStore on the shared storage driver (disk or S3, chosen by STORAGE_DRIVER), so packet
+ * ZIPs and the photos they carry live where the photo pipeline keeps its files.
+ */
+export function sharedStorageStore(): PacketFileStore {
+  return {
+    async write(key, source) {
+      const hash = createHash("sha256");
+      const chunks: Buffer[] = [];
+      for await (const chunk of source) {
+        const b = Buffer.isBuffer(chunk) ? chunk : Buffer.from(chunk as Uint8Array);
+        hash.update(b);
+        chunks.push(b);
+      }
+      const body = Buffer.concat(chunks);
+      await getStorage().put(key, body, key.endsWith(".zip") ? "application/zip" : "application/octet-stream");
+      return { bytes: body.length, sha256: hash.digest("hex") };
+    },
+    read(key) {
+      const out = new PassThrough();
+      getStorage()
+        .read(key)
+        .then((r) => r.pipe(out))
+        .catch((err: Error) => out.destroy(err));
+      return out;
+    },
+    readBuffer: (key) => getStorage().get(key),
+    exists: (key) => getStorage().exists(key),
+    remove: (key) => getStorage().delete(key),
+  };
+}
+
+let store: PacketFileStore = config.STORAGE_DRIVER === "s3" ? sharedStorageStore() : diskStore(path.resolve(config.STORAGE_DIR));
 
 /** The store in use. */
 export function packetStore(): PacketFileStore {

@@ -149,7 +149,8 @@ export async function buildPlan(productionId: string, from: string = todayInZone
   }
   people.sort((a, b) => a.name.localeCompare(b.name) || (a.id < b.id ? -1 : 1));
 
-  const dues = new Map(tickets.map((t) => [t.id, ticketDue(needed.get(t.garmentId) ?? [], t.raisedOn, settings.bufferWorkingDays)]));
+  // Shoot days before the plan's date have happened: what matters now is the next day the garment is needed.
+  const dues = new Map(tickets.map((t) => [t.id, ticketDue(needed.get(t.garmentId) ?? [], t.raisedOn > from ? t.raisedOn : from, settings.bufferWorkingDays)]));
   const lastDate = [...shootDays.map((s) => s.date), ...[...dues.values()].map((d) => d.dueDate ?? from)].reduce((a, b) => (b > a ? b : a), from);
   const horizonDays = Math.min(366, Math.max(42, differenceInCalendarDays(parseISO(lastDate), parseISO(from)) + 21));
 
