@@ -50,3 +50,9 @@ registerPhotoOwner("character", { read: "cast.read", write: "cast.update", exist
 // Photos of a performer are personal data, kept to those who may read measurements.
 registerPhotoOwner("performer", { read: "measurement.read", write: "measurement.update", exists: rowExists("performers") });
 registerPhotoOwner("change", { read: "change.read", write: "change.update", exists: rowExists("changes") });
+// Wardrobe: garment photos (set costumers and cutters see them; designers and supervisors add them).
+registerPhotoOwner("garment", { read: "garment.read", write: "garment.update", exists: rowExists("garments") });
+registerPhotoOwner("fabric", { read: "fabric.read", write: "fabric.update", exists: rowExists("fabrics") });
+// Workroom: turnarounds at a fitting, before/after photos of an alteration.
+registerPhotoOwner("fitting", { read: "fitting.read", write: "fitting.update", exists: rowExists("fittings") });
+registerPhotoOwner("alteration_ticket", { read: "alteration.read", write: "alteration.update", exists: rowExists("alteration_tickets") });

@@ -22,7 +22,7 @@ describe("continuity on a phone", () => {
     const photo = await sharp({ create: { width: 300, height: 400, channels: 3, background: "#3E5C4A" } }).jpeg().toBuffer();
 
     await signIn(page, baseUrl, "setcostumer@seamscene.test");
-    await page.getByRole("heading", { name: "Today" }).waitFor();
+    await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
     await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/continuity`);
     const daySelect = page.getByLabel("Shoot day");
     await daySelect.waitFor();
@@ -54,7 +54,7 @@ describe("continuity on a phone", () => {
     const page = await browser.newPage({ viewport: { width: 390, height: 844 } });
 
     await signIn(page, baseUrl, "setcostumer@seamscene.test");
-    await page.getByRole("heading", { name: "Today" }).waitFor();
+    await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
     await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/breakdown`);
     await page.getByRole("table", { name: "Breakdown" }).waitFor();
 

@@ -20,7 +20,7 @@ describe("digital-double handoff", () => {
   it("the demo supervisor publishes a new packet version; the demo vfx user downloads and receives it", async () => {
     const sup = await browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(sup, baseUrl, "supervisor@seamscene.test");
-    await sup.getByRole("heading", { name: "Today" }).waitFor();
+    await sup.getByRole("heading", { name: "Today", exact: true }).waitFor();
 
     await sup.goto(`${baseUrl}/p/${SALTMARSH_ID}/doubles?tab=packets`);
     await sup.getByRole("link", { name: "Version 1" }).waitFor();

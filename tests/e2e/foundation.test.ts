@@ -19,7 +19,7 @@ describe("signing in as the demo supervisor", () => {
     const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
 
     await signIn(page, baseUrl, "supervisor@seamscene.test");
-    await page.getByRole("heading", { name: "Today" }).waitFor();
+    await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
     await page.getByRole("link", { name: "Team" }).click();
     const table = page.getByRole("table", { name: "Members" });
     await table.waitFor();

@@ -20,7 +20,7 @@ describe("measurements as the demo cutter", () => {
   it("records a set in inches and sees it in cm on the performer page, with the size designation", async () => {
     const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, baseUrl, "cutter@seamscene.test");
-    await page.getByRole("heading", { name: "Today" }).waitFor();
+    await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
 
     await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/cast/performers/${performers.jory.id}/measurements`);
     await page.getByRole("heading", { name: performers.jory.name }).waitFor();
@@ -57,7 +57,7 @@ describe("check in / out as the demo set costumer", () => {
     const tag = rows[0]!.tag_code;
     const page = await browser.newPage({ viewport: { width: 390, height: 844 } });
     await signIn(page, baseUrl, "setcostumer@seamscene.test");
-    await page.getByRole("heading", { name: "Today" }).waitFor();
+    await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
 
     await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/wardrobe/scan`);
     await page.getByRole("button", { name: "Cleaning" }).click();

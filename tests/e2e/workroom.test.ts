@@ -19,35 +19,35 @@ describe("the workroom as the demo cutter", () => {
     const workroom = `${baseUrl}/p/${SALTMARSH_ID}/workroom`;
 
     await signIn(page, baseUrl, "cutter@seamscene.test");
-    await page.getByRole("heading", { name: "Today" }).waitFor();
+    await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
     await page.goto(workroom);
     await page.getByRole("list", { name: "Fittings" }).getByRole("link", { name: /Corwen Blakely/ }).first().click();
     await page.getByRole("heading", { name: "Fitting: Corwen Blakely" }).waitFor();
 
     // One tap on the garment, then the ticket form.
-    await page.getByRole("button", { name: "Raise ticket for EM-04 Hobnail boots" }).click();
-    const form = page.getByRole("form", { name: /New alteration ticket for EM-04/ });
+    await page.getByRole("button", { name: "Raise ticket for 25M-K4G Hobnail boots" }).click();
+    const form = page.getByRole("form", { name: /New alteration ticket for 25M-K4G/ });
     await form.getByLabel("Task 1").selectOption("repair");
     await form.getByLabel("Note", { exact: true }).fill("re-nail the left heel");
     await form.getByLabel("Estimated hours").fill("2");
     await form.getByRole("button", { name: "Raise ticket" }).click();
     const fromFitting = page.getByRole("list", { name: "Tickets from this fitting" });
-    await fromFitting.getByText("EM-04 Hobnail boots").waitFor();
+    await fromFitting.getByText("25M-K4G Hobnail boots").waitFor();
 
     // The plan gives it a finish date; the calendar's day view for that date shows the work block.
     await page.goto(`${workroom}?tab=tickets`);
-    const row = page.getByRole("row", { name: "Ticket EM-04" });
+    const row = page.getByRole("row", { name: "Ticket 25M-K4G" });
     await row.waitFor();
     const finish = await row.locator("[data-planned-finish]").getAttribute("data-planned-finish");
     expect(finish).toMatch(/^\d{4}-\d{2}-\d{2}$/);
     await page.goto(`${workroom}?tab=calendar&view=day&date=${finish}`);
-    await page.getByRole("region", { name: "Workroom calendar" }).getByText(/EM-04 Hobnail boots · 2 h/).first().waitFor();
+    await page.getByRole("region", { name: "Workroom calendar" }).getByText(/25M-K4G Hobnail boots · 2 h/).first().waitFor();
     await page.screenshot({ path: ".data/e2e-workroom-calendar.png" });
 
     await page.goto(`${workroom}?tab=tickets`);
-    await page.getByRole("row", { name: "Ticket EM-04" }).getByRole("button", { name: "Mark done" }).click();
-    await expect.poll(async () => (await page.getByRole("row", { name: "Ticket EM-04" }).textContent()) ?? "").toContain("Check");
-    expect(await page.getByRole("row", { name: "Ticket EM-04" }).textContent()).toContain("done");
+    await page.getByRole("row", { name: "Ticket 25M-K4G" }).getByRole("button", { name: "Mark done" }).click();
+    await expect.poll(async () => (await page.getByRole("row", { name: "Ticket 25M-K4G" }).textContent()) ?? "").toContain("Check");
+    expect(await page.getByRole("row", { name: "Ticket 25M-K4G" }).textContent()).toContain("done");
     await page.close();
   });
 
@@ -55,11 +55,11 @@ describe("the workroom as the demo cutter", () => {
     const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
 
     await signIn(page, baseUrl, "supervisor@seamscene.test");
-    await page.getByRole("heading", { name: "Today" }).waitFor();
+    await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
     // Plan from the demo's Wednesday of the first shoot week, independent of today's date.
     await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/workroom?tab=tickets&from=2026-12-02`);
     const snags = page.getByRole("region", { name: "Workroom snags" });
-    await snags.getByText("EM-01 Keeper's jacket: alteration late by 1 working day").waitFor();
+    await snags.getByText("97Y-JUG Keeper's jacket: alteration late by 1 working day").waitFor();
 
     expect(await snags.textContent()).toContain("It would not be ready for the shoot on Thu 3 Dec 2026");
     await page.close();

@@ -9,6 +9,7 @@ import { formatLength } from "@shared/domain/units";
 import { useCreateFabric, useFabric, useFabrics, useUpdateFabric } from "@/features/fabrics/api/fabrics";
 import { FabricForm } from "@/features/fabrics/components/fabric-form";
 import { FabricTests } from "@/features/fabrics/components/fabric-tests";
+import { OwnerPhotos } from "@/components/photos";
 
 function FabricLibrary() {
   const { productionId, production, can } = useCurrentProduction();
@@ -88,7 +89,9 @@ function FabricPage() {
   return (
     <div className="grid gap-4">
       <PageHeader title={f.name} subtitle={<Link to=".." relative="path" className="underline">Back to the fabric library</Link>} />
-      {/* Swatch photo: the photo pipeline (owner type "fabric") plugs in here once it lands. */}
+      <Card>
+        <OwnerPhotos productionId={productionId} ownerType="fabric" ownerId={fabricId} canEdit={can("fabric.update")} title="Swatch photos" />
+      </Card>
       <Card>
         {editing ? (
           <FabricForm unit={production.units} initial={f} busy={update.isPending} error={update.error} submitLabel="Save fabric" onSubmit={(v) => update.mutate(v, { onSuccess: () => setEditing(false) })} />

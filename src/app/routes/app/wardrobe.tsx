@@ -10,6 +10,7 @@ import { GarmentDetail } from "@/features/wardrobe/components/garment-detail";
 import { GarmentForm } from "@/features/wardrobe/components/garment-form";
 import { CheckInOut } from "@/features/wardrobe/components/check-in-out";
 import { garmentFileUrls, useCreateGarment, useFabricOptions, useGarment, useGarmentFilterOptions } from "@/features/wardrobe/api/garments";
+import { OwnerPhotos } from "@/components/photos";
 
 const linkButton = "rounded-md border border-ink-100 bg-white px-3 py-2 text-sm font-semibold text-ink hover:bg-ink-50";
 
@@ -51,7 +52,11 @@ function GarmentPage() {
   return (
     <div>
       <PageHeader title="Garment" subtitle={<Link to="../.." relative="path" className="underline">Back to the wardrobe</Link>} />
-      {/* Photos: the photo pipeline (owner type "garment") plugs in above the history once it lands. */}
+      {can("photo.read") && (
+        <Card className="mb-4">
+          <OwnerPhotos productionId={productionId} ownerType="garment" ownerId={garmentId} canEdit={can("garment.update")} title="Garment photos" />
+        </Card>
+      )}
       {garment.isPending || !production ? (
         <Spinner />
       ) : garment.error ? (

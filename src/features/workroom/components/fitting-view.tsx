@@ -11,6 +11,7 @@ import { TextareaField } from "@/components/ui/field";
 import { useUpdateFitting } from "../api/workroom";
 import { TicketForm } from "./ticket-form";
 import { TaskSafetyNotes } from "./safety";
+import { OwnerPhotos } from "@/components/photos";
 
 /** During a fitting, on a tablet: the change's garments with their fit, measurements, fit snags, notes, one tap per garment to raise a ticket. */
 export function FittingView(props: { productionId: string; fitting: FittingDetailDto; options: WorkroomOptionsDto; units: LengthUnit; canEdit: boolean }) {
@@ -147,7 +148,9 @@ export function FittingView(props: { productionId: string; fitting: FittingDetai
 
       <Card>
         <h2 className="mb-2 font-semibold text-ink">Notes and outcome</h2>
-        <p className="mb-2 text-xs text-slate">Photos of the fitting are added through the photo library once it is connected to fittings.</p>
+        <div className="mb-3">
+          <OwnerPhotos productionId={props.productionId} ownerType="fitting" ownerId={f.id} canEdit={props.canEdit} title="Fitting photos (turnarounds)" />
+        </div>
         <div className="grid gap-3">
           <TextareaField label="Notes" value={notes} onChange={(e) => setNotes(e.target.value)} disabled={!props.canEdit} />
           <TextareaField label="Outcome" value={outcome} onChange={(e) => setOutcome(e.target.value)} disabled={!props.canEdit} />
