@@ -1,23 +1,15 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
-import type { Browser } from "playwright-core";
+import { describe, expect, inject, it } from "vitest";
 import sharp from "sharp";
-import { launchBrowser, signIn } from "./browser.js";
+import { useBrowser, signIn } from "./browser.js";
 import { SALTMARSH_ID } from "../../seeds/accounts.js";
 import { characters } from "../../seeds/scenario.js";
 
 const baseUrl = inject("baseUrl");
-let browser: Browser;
-
-beforeAll(async () => {
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = useBrowser();
 
 describe("continuity on a phone", () => {
   it("the set costumer logs a photo for a scene of a shoot day and sees it on the timeline", async () => {
-    const page = await browser.newPage({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
+    const page = await browser().newPage({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
     const note = `Cap pushed back, scarf knotted left (e2e ${Date.now()})`;
     const photo = await sharp({ create: { width: 300, height: 400, channels: 3, background: "#3E5C4A" } }).jpeg().toBuffer();
 
@@ -51,7 +43,7 @@ describe("continuity on a phone", () => {
   });
 
   it("the set costumer reads the breakdown but is offered no editing", async () => {
-    const page = await browser.newPage({ viewport: { width: 390, height: 844 } });
+    const page = await browser().newPage({ viewport: { width: 390, height: 844 } });
 
     await signIn(page, baseUrl, "setcostumer@seamscene.test");
     await page.getByRole("heading", { name: "Today", exact: true }).waitFor();

@@ -1,4 +1,5 @@
 /** Debian's Chromium through playwright-core (never a browser download). */
+import { afterAll, beforeAll } from "vitest";
 import { chromium, type Browser, type Page } from "playwright-core";
 import { DEMO_PASSWORD } from "../../seeds/accounts.js";
 
@@ -16,4 +17,19 @@ export async function signIn(page: Page, baseUrl: string, email: string): Promis
   await page.getByLabel("E-mail").fill(email);
   await page.getByLabel("Password").fill(DEMO_PASSWORD);
   await page.getByRole("button", { name: "Sign in" }).click();
+}
+
+/** One browser per test file: launched before the file's tests, closed after. */
+export function useBrowser(): () => Browser {
+  let browser: Browser | undefined;
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+  return () => {
+    if (!browser) throw new Error("The browser is not running yet");
+    return browser;
+  };
 }

@@ -1,24 +1,16 @@
 import fs from "node:fs";
 import { createHash } from "node:crypto";
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
-import type { Browser } from "playwright-core";
+import { describe, expect, inject, it } from "vitest";
 import unzipper from "unzipper";
-import { launchBrowser, signIn } from "./browser.js";
+import { useBrowser, signIn } from "./browser.js";
 import { SALTMARSH_ID } from "../../seeds/accounts.js";
 
 const baseUrl = inject("baseUrl");
-let browser: Browser;
-
-beforeAll(async () => {
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = useBrowser();
 
 describe("digital-double handoff", () => {
   it("the demo supervisor publishes a new packet version; the demo vfx user downloads and receives it", async () => {
-    const sup = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const sup = await browser().newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(sup, baseUrl, "supervisor@seamscene.test");
     await sup.getByRole("heading", { name: "Today", exact: true }).waitFor();
 
@@ -34,7 +26,7 @@ describe("digital-double handoff", () => {
     expect(await sup.getByRole("table", { name: "Recipients" }).textContent()).toContain("vfx@seamscene.test");
     await sup.close();
 
-    const vfx = await browser.newPage({ viewport: { width: 390, height: 844 }, acceptDownloads: true });
+    const vfx = await browser().newPage({ viewport: { width: 390, height: 844 }, acceptDownloads: true });
     await signIn(vfx, baseUrl, "vfx@seamscene.test");
     await vfx.getByRole("heading", { name: "Digital doubles" }).waitFor();
     await vfx.getByRole("link", { name: /version 2/ }).click();

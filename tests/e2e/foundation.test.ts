@@ -1,22 +1,14 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
-import type { Browser } from "playwright-core";
-import { launchBrowser, signIn } from "./browser.js";
+import { describe, expect, inject, it } from "vitest";
+import { useBrowser, signIn } from "./browser.js";
 import { demoAccounts } from "../../seeds/accounts.js";
 import { workroomMembers } from "../../seeds/workroom.js";
 
 const baseUrl = inject("baseUrl");
-let browser: Browser;
-
-beforeAll(async () => {
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = useBrowser();
 
 describe("signing in as the demo supervisor", () => {
   it("shows Today, then the Team table with the demo members", async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    const page = await browser().newPage({ viewport: { width: 1280, height: 800 } });
 
     await signIn(page, baseUrl, "supervisor@seamscene.test");
     await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
@@ -33,7 +25,7 @@ describe("signing in as the demo supervisor", () => {
   });
 
   it("the vfx user sees only Digital doubles in the navigation", async () => {
-    const page = await browser.newPage({ viewport: { width: 390, height: 844 } });
+    const page = await browser().newPage({ viewport: { width: 390, height: 844 } });
 
     await signIn(page, baseUrl, "vfx@seamscene.test");
     await page.getByRole("button", { name: "Menu" }).click();
@@ -46,7 +38,7 @@ describe("signing in as the demo supervisor", () => {
   });
 
   it("a wrong password shows a clear message", async () => {
-    const page = await browser.newPage();
+    const page = await browser().newPage();
 
     await page.goto(`${baseUrl}/login`);
     await page.getByLabel("E-mail").fill("supervisor@seamscene.test");

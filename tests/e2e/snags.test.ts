@@ -1,23 +1,15 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
-import type { Browser } from "playwright-core";
-import { launchBrowser, signIn } from "./browser.js";
+import { describe, expect, inject, it } from "vitest";
+import { useBrowser, signIn } from "./browser.js";
 import { GLASS_ORCHARD_ID, SALTMARSH_ID } from "../../seeds/accounts.js";
 
 const baseUrl = inject("baseUrl");
-let browser: Browser;
-
-beforeAll(async () => {
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = useBrowser();
 
 // The demo data is built to contain one conflict of each kind (seeds/scenario.ts plannedConflicts).
 // Fit, multiples, continuity and the quick change do not depend on today's date.
 describe("Snags screen for the demo supervisor", () => {
   it("shows the demo's planned conflicts, each explained with its numbers", async () => {
-    const page = await browser.newPage({ viewport: { width: 390, height: 844 } });
+    const page = await browser().newPage({ viewport: { width: 390, height: 844 } });
 
     await signIn(page, baseUrl, "supervisor@seamscene.test");
     await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
@@ -35,7 +27,7 @@ describe("Snags screen for the demo supervisor", () => {
   });
 
   it("dismisses a snag with a reason, hides it, and the undo brings it back", async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const page = await browser().newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, baseUrl, "designer@seamscene.test");
     await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
     await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/snags`);
@@ -59,7 +51,7 @@ describe("Snags screen for the demo supervisor", () => {
   });
 
   it("the stage demo flags Nell's quick change under the production's threshold", async () => {
-    const page = await browser.newPage();
+    const page = await browser().newPage();
     await signIn(page, baseUrl, "supervisor@seamscene.test");
     await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
 

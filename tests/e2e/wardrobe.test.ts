@@ -1,24 +1,16 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import { describe, expect, inject, it } from "vitest";
 import pg from "pg";
-import type { Browser } from "playwright-core";
-import { launchBrowser, signIn } from "./browser.js";
+import { useBrowser, signIn } from "./browser.js";
 import { SALTMARSH_ID } from "../../seeds/accounts.js";
 import { keyGarments, performers } from "../../seeds/scenario.js";
 
 const baseUrl = inject("baseUrl");
 const databaseUrl = inject("databaseUrl");
-let browser: Browser;
-
-beforeAll(async () => {
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = useBrowser();
 
 describe("measurements as the demo cutter", () => {
   it("records a set in inches and sees it in cm on the performer page, with the size designation", async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const page = await browser().newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, baseUrl, "cutter@seamscene.test");
     await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
 
@@ -55,7 +47,7 @@ describe("check in / out as the demo set costumer", () => {
     await client.connect();
     const { rows } = await client.query<{ tag_code: string }>("SELECT tag_code FROM garments WHERE id = $1", [keyGarments.maudShawl]);
     const tag = rows[0]!.tag_code;
-    const page = await browser.newPage({ viewport: { width: 390, height: 844 } });
+    const page = await browser().newPage({ viewport: { width: 390, height: 844 } });
     await signIn(page, baseUrl, "setcostumer@seamscene.test");
     await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
 

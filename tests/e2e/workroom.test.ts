@@ -1,21 +1,13 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
-import type { Browser } from "playwright-core";
-import { launchBrowser, signIn } from "./browser.js";
+import { describe, expect, inject, it } from "vitest";
+import { useBrowser, signIn } from "./browser.js";
 import { SALTMARSH_ID } from "../../seeds/accounts.js";
 
 const baseUrl = inject("baseUrl");
-let browser: Browser;
-
-beforeAll(async () => {
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-});
+const browser = useBrowser();
 
 describe("the workroom as the demo cutter", () => {
   it("opens a fitting, raises a ticket, sees it planned on the calendar and marks it done", async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const page = await browser().newPage({ viewport: { width: 1280, height: 900 } });
     const workroom = `${baseUrl}/p/${SALTMARSH_ID}/workroom`;
 
     await signIn(page, baseUrl, "cutter@seamscene.test");
@@ -52,7 +44,7 @@ describe("the workroom as the demo cutter", () => {
   });
 
   it("shows the demo's late alteration with the snag explaining why", async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const page = await browser().newPage({ viewport: { width: 1280, height: 900 } });
 
     await signIn(page, baseUrl, "supervisor@seamscene.test");
     await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
