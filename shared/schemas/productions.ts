@@ -7,6 +7,11 @@ export const productionKinds = ["film", "series", "stage"] as const;
 export type ProductionKind = (typeof productionKinds)[number];
 export type Units = "cm" | "in";
 
+/** One ease range in millimetres (negative minimums are for knits worn with negative ease). */
+const easeRangeSchema = z
+  .object({ min: z.number().min(-500).max(500), max: z.number().min(-500).max(1000).nullable() })
+  .refine((r) => r.max === null || r.max >= r.min, { message: "max must be at least min", path: ["max"] });
+
 /** Per-production settings; every field optional with a documented default. */
 export const productionSettingsSchema = z.object({
   /** Stage: flag a quick change shorter than this many minutes. */
@@ -17,6 +22,16 @@ export const productionSettingsSchema = z.object({
   reminderHour: z.number().int().min(0).max(23).optional(),
   /** Seam length mismatch tolerance in mm. */
   seamToleranceMm: z.number().min(0).max(50).optional(),
+  /**
+   * The department's own ease ranges (mm), replacing the handbook values for the fit check:
+   * garment category → garment point → fit intent → { min, max } (max null = no upper limit).
+   */
+  easeOverrides: z
+    .record(
+      z.string().trim().min(1).max(40),
+      z.record(z.string().trim().min(1).max(40), z.object({ fitted: easeRangeSchema, regular: easeRangeSchema, loose: easeRangeSchema }).partial()),
+    )
+    .optional(),
 });
 export type ProductionSettings = z.infer<typeof productionSettingsSchema>;
 

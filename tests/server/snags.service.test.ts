@@ -253,3 +253,28 @@ describe("stage production", () => {
     expect(list.nextShootDay).toMatchObject({ date: "2027-01-20", kind: "performance" });
   });
 });
+
+describe("per-production ease ranges", () => {
+  it("a department's own range for fitted jacket chests replaces the handbook's and clears the tight snag", async () => {
+    const { Production } = await import("../../server/models/index.js");
+    const { productionSettingsSchema } = await import("../../shared/schemas/productions.js");
+    const before = (await open()).filter((s) => s.kind === "fit");
+    // The scenario's jacket has 10 mm chest ease; this department accepts 5–30 mm for a fitted jacket.
+    const settings = productionSettingsSchema.parse({ easeOverrides: { jacket: { chest: { fitted: { min: 5, max: 30 } } } } });
+
+    await Production.update({ settings }, { where: { id: actor.productionId } });
+    const after = (await open()).filter((s) => s.kind === "fit");
+
+    expect(before.some((s) => /Chest ease is 10 mm/.test(s.explanation))).toBe(true);
+    expect(after.some((s) => /Chest ease is 10 mm/.test(s.explanation))).toBe(false);
+  });
+
+  it("refuses a range whose maximum is below its minimum, naming the field", async () => {
+    const { productionSettingsSchema } = await import("../../shared/schemas/productions.js");
+
+    const res = productionSettingsSchema.safeParse({ easeOverrides: { jacket: { chest: { fitted: { min: 40, max: 30 } } } } });
+
+    expect(res.success).toBe(false);
+    expect(res.error!.issues[0]!.path.join(".")).toBe("easeOverrides.jacket.chest.fitted.max");
+  });
+});
