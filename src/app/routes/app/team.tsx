@@ -6,6 +6,7 @@ import { InvitationsList } from "@/features/team/components/invitations-list";
 import { Outbox } from "@/features/team/components/outbox";
 import { AuditLog } from "@/features/team/components/audit-log";
 import { ProductionSettingsForm } from "@/features/productions/components/production-settings-form";
+import { EaseRangesForm } from "@/features/productions/components/ease-ranges-form";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { PageHeader } from "@/components/ui/page";
 import { Card } from "@/components/ui/card";
@@ -34,6 +35,12 @@ export default function TeamPage() {
         <Card>
           <h2 className="mb-3 font-semibold text-ink">Production settings</h2>
           <ProductionSettingsForm key={production.id} production={production} />
+        </Card>
+      )}
+      {production && (
+        <Card>
+          <h2 className="mb-3 font-semibold text-ink">Ease ranges for the fit check</h2>
+          <EaseRangesForm key={production.id} production={production} />
         </Card>
       )}
       <Card>
