@@ -24,7 +24,7 @@ export default defineConfig({
     projects: [
       {
         extends: true,
-        test: { name: "shared", include: ["tests/shared/**/*.test.ts"], environment: "node", testTimeout: 30_000 },
+        test: { name: "shared", include: ["tests/shared/**/*.test.ts"], environment: "node", testTimeout: 30_000, setupFiles: ["tests/setup/fast-check.ts"] },
       },
       {
         extends: true,
@@ -33,7 +33,7 @@ export default defineConfig({
           include: ["tests/server/**/*.test.ts"],
           environment: "node",
           globalSetup: ["tests/setup/global-setup.ts"],
-          setupFiles: ["tests/setup/server-setup.ts"],
+          setupFiles: ["tests/setup/server-setup.ts", "tests/setup/fast-check.ts"],
           testTimeout: 30_000,
           hookTimeout: 60_000,
         },
