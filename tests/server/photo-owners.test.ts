@@ -48,3 +48,21 @@ describe("photos of wardrobe records", () => {
     expect(await Photo.count()).toBe(0);
   });
 });
+
+describe("before and after photos of an alteration", () => {
+  it("the cutter adds one to a ticket; the set costumer, who only reads tickets, may not", async () => {
+    const { user: cutter, production } = await buildMember("cutter");
+    const { user: setCostumer } = await buildMember("set_costumer", { production });
+    const garment = await buildGarment({ production });
+    const agent = await signedInAgent(app, cutter.email);
+    const ticket = await agent.post(`/api/productions/${production.id}/alterations`, { garmentId: garment.id, tasks: [{ kind: "repair", note: "torn pocket" }], estimateHours: 1 });
+    expect(ticket.status).toBe(201);
+
+    const before = await upload(cutter.email, production.id, "alteration_ticket", ticket.body.data.id);
+    const refused = await upload(setCostumer.email, production.id, "alteration_ticket", ticket.body.data.id);
+
+    expect(before.status).toBe(201);
+    expect(refused.status).toBe(403);
+    expect(await Photo.count({ where: { ownerType: "alteration_ticket" } })).toBe(1);
+  });
+});

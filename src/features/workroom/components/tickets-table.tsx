@@ -9,6 +9,7 @@ import { Badge, EmptyState, ErrorAlert } from "@/components/ui/feedback";
 import { controlClass } from "@/components/ui/field";
 import { useSetTicketStatus, useUpdateTicket } from "../api/workroom";
 import { TaskSafetyNotes } from "./safety";
+import { OwnerPhotos } from "@/components/photos";
 
 const col = createColumnHelper<PlannedTicketDto>();
 const NEXT: Partial<Record<TicketStatus, Array<{ to: TicketStatus; label: string }>>> = {
@@ -23,10 +24,28 @@ export function TicketsTable(props: { productionId: string; tickets: PlannedTick
   const setStatus = useSetTicketStatus(props.productionId);
   const update = useUpdateTicket(props.productionId);
   const [safetyFor, setSafetyFor] = useState<string | null>(null);
+  const [photosFor, setPhotosFor] = useState<string | null>(null);
 
   const columns = useMemo(
     () => [
-      col.accessor((t) => `${t.tagCode} ${t.garmentName}`, { id: "garment", header: "Garment", cell: (c) => <span className="font-semibold text-ink-900">{c.getValue()}</span> }),
+      col.accessor((t) => `${t.tagCode} ${t.garmentName}`, {
+        id: "garment",
+        header: "Garment",
+        cell: (c) => (
+          <span>
+            <span className="font-semibold text-ink-900">{c.getValue()}</span>{" "}
+            <button
+              type="button"
+              className="text-xs font-semibold text-ink underline"
+              aria-expanded={photosFor === c.row.original.id}
+              aria-label={`Before and after photos of ${c.row.original.tagCode}`}
+              onClick={() => setPhotosFor(photosFor === c.row.original.id ? null : c.row.original.id)}
+            >
+              photos
+            </button>
+          </span>
+        ),
+      }),
       col.accessor((t) => taskSummary(t.tasks, props.units), {
         id: "tasks",
         header: "Tasks",
@@ -96,17 +115,23 @@ export function TicketsTable(props: { productionId: string; tickets: PlannedTick
         ),
       }),
     ],
-    [props.units, props.canEstimate, props.canUpdate, setStatus, update, safetyFor],
+    [props.units, props.canEstimate, props.canUpdate, setStatus, update, safetyFor, photosFor],
   );
 
   const table = useReactTable({ data: props.tickets, columns, state: { sorting }, onSortingChange: setSorting, getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel() });
   if (props.tickets.length === 0) return <EmptyState title="No open alteration tickets">Raise one from a fitting.</EmptyState>;
   const safetyTicket = props.tickets.find((t) => t.id === safetyFor);
+  const photosTicket = props.tickets.find((t) => t.id === photosFor);
 
   return (
     <div className="grid gap-2">
       {(setStatus.error || update.error) && <ErrorAlert error={setStatus.error ?? update.error} title="Ticket not changed" />}
       {safetyTicket && <TaskSafetyNotes kinds={safetyTicket.tasks.map((k) => k.kind)} />}
+      {photosTicket && (
+        <div className="rounded-md border border-chalk-200 bg-chalk p-3">
+          <OwnerPhotos productionId={props.productionId} ownerType="alteration_ticket" ownerId={photosTicket.id} canEdit={props.canUpdate} title={`Before and after: ${photosTicket.tagCode} ${photosTicket.garmentName}`} />
+        </div>
+      )}
       <div className="overflow-x-auto">
         <table className="w-full text-left text-sm" aria-label="Alteration tickets">
           <thead className="border-b border-chalk-200 text-xs uppercase tracking-wide text-slate">
