@@ -18,6 +18,7 @@ import type { CharacterDto } from "@shared/schemas/cast";
 import { compareSceneNumbers, formatEighths } from "@shared/domain/breakdown";
 import { controlClass } from "@/components/ui/field";
 import { cn } from "@/utils/cn";
+import { SortHeader } from "@/components/ui/table";
 
 const col = createColumnHelper<SceneRowDto>();
 
@@ -157,14 +158,7 @@ export function BreakdownTable({ scenes, shootDays, characters, stage, sceneHref
               <tr key={hg.id}>
                 {hg.headers.map((h) => (
                   <th key={h.id} scope="col" className="border-b border-chalk-200 px-2 py-2 text-left font-semibold whitespace-nowrap text-ink" style={{ minWidth: h.getSize() }} aria-sort={h.column.getIsSorted() === "asc" ? "ascending" : h.column.getIsSorted() === "desc" ? "descending" : "none"}>
-                    {h.column.getCanSort() ? (
-                      <button type="button" className="flex items-center gap-1" onClick={h.column.getToggleSortingHandler()}>
-                        {flexRender(h.column.columnDef.header, h.getContext())}
-                        <span aria-hidden>{h.column.getIsSorted() === "asc" ? "▲" : h.column.getIsSorted() === "desc" ? "▼" : ""}</span>
-                      </button>
-                    ) : (
-                      flexRender(h.column.columnDef.header, h.getContext())
-                    )}
+                    <SortHeader header={h} />
                   </th>
                 ))}
               </tr>

@@ -7,6 +7,7 @@ import { Button } from "@/components/ui/button";
 import { ErrorAlert } from "@/components/ui/feedback";
 import { useRemoveMember, useUpdateMemberRole } from "../api/team";
 import { controlClass } from "@/components/ui/field";
+import { SortHeader } from "@/components/ui/table";
 
 const col = createColumnHelper<MemberDto>();
 
@@ -65,14 +66,7 @@ export function MembersTable({ productionId, members, currentUserId }: { product
               <tr key={hg.id}>
                 {hg.headers.map((h) => (
                   <th key={h.id} className="px-2 py-2 font-semibold">
-                    {h.column.getCanSort() ? (
-                      <button type="button" className="inline-flex items-center gap-1" onClick={h.column.getToggleSortingHandler()}>
-                        {flexRender(h.column.columnDef.header, h.getContext())}
-                        <span aria-hidden>{{ asc: "▲", desc: "▼" }[h.column.getIsSorted() as string] ?? ""}</span>
-                      </button>
-                    ) : (
-                      flexRender(h.column.columnDef.header, h.getContext())
-                    )}
+                    <SortHeader header={h} />
                   </th>
                 ))}
               </tr>

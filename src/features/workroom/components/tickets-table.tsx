@@ -10,6 +10,7 @@ import { controlClass } from "@/components/ui/field";
 import { useSetTicketStatus, useUpdateTicket } from "../api/workroom";
 import { TaskSafetyNotes } from "./safety";
 import { OwnerPhotos } from "@/components/photos";
+import { SortHeader } from "@/components/ui/table";
 
 const col = createColumnHelper<PlannedTicketDto>();
 const NEXT: Partial<Record<TicketStatus, Array<{ to: TicketStatus; label: string }>>> = {
@@ -139,10 +140,7 @@ export function TicketsTable(props: { productionId: string; tickets: PlannedTick
               <tr key={hg.id}>
                 {hg.headers.map((h) => (
                   <th key={h.id} className="px-2 py-2 font-semibold">
-                    <button type="button" className="inline-flex items-center gap-1" onClick={h.column.getToggleSortingHandler()}>
-                      {flexRender(h.column.columnDef.header, h.getContext())}
-                      <span aria-hidden>{{ asc: "▲", desc: "▼" }[h.column.getIsSorted() as string] ?? ""}</span>
-                    </button>
+                    <SortHeader header={h} />
                   </th>
                 ))}
               </tr>
