@@ -29,6 +29,11 @@ const envSchema = z.object({
   S3_SECRET_ACCESS_KEY: z.string().default("S3RVER"),
   /** Workroom: the department's local time zone (evening reminders, "today", calendar invitations' display). */
   TIME_ZONE: z.string().default("Europe/London"),
+  /**
+   * Starts the server's business clock at this date or date-time (ISO); time runs on from it. For tests
+   * and reproducible demos only: sessions and tokens keep the real time. Unset = the wall clock.
+   */
+  CLOCK_AT: z.string().optional(),
   /** Workroom: start the PostgreSQL job queue (reminders, invitation e-mails) inside the server process. */
   JOBS_ENABLED: z.stringbool().default(true),
   LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).default("info"),

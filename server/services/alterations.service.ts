@@ -10,7 +10,9 @@ import { can } from "@shared/permissions.js";
 import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
 import { findGarment, findGarments, moveGarmentStatus } from "./workroom-facts.service.js";
-import { todayInZone, WORKROOM_ROLES } from "./workroom.service.js";
+import { WORKROOM_ROLES } from "./workroom.service.js";
+import { todayForProduction } from "./productions.service.js";
+import { clock } from "../lib/clock.js";
 import { presentTicket } from "../presenters/workroom.presenter.js";
 import type { Actor } from "../middleware/require-auth.js";
 
@@ -70,8 +72,9 @@ export async function getTicket(actor: Actor, id: string): Promise<AlterationTic
 }
 
 /** Raises a ticket on a garment; the garment moves to the workroom in the same transaction. */
-export async function raiseTicket(actor: Actor, input: CreateTicketInput, today = todayInZone()): Promise<AlterationTicket> {
+export async function raiseTicket(actor: Actor, input: CreateTicketInput): Promise<AlterationTicket> {
   const id = await sequelize.transaction(async (transaction) => {
+    const today = await todayForProduction(actor.productionId, transaction);
     const garment = await findGarment(actor.productionId, input.garmentId, transaction, true);
     if (!garment) throw ValidationError("garmentId: no such garment in this production", { garmentId: "no such garment in this production" });
     if (UNAVAILABLE.includes(garment.status)) throw ConflictError(`${garment.tag_code} is ${garment.status}; it cannot go to the workroom.`, { garmentId: `is ${garment.status}` });
@@ -139,7 +142,7 @@ export async function setTicketStatus(actor: Actor, id: string, status: TicketSt
     if (!garment) throw NotFoundError("The ticket's garment no longer exists.");
     const patch: Partial<AlterationTicket> = { status };
     if (status === "done") {
-      patch.doneAt = new Date();
+      patch.doneAt = clock.now();
       patch.remainingHours = 0;
     } else if (t.status === "done") {
       patch.doneAt = null;
@@ -147,7 +150,7 @@ export async function setTicketStatus(actor: Actor, id: string, status: TicketSt
     }
     let garmentMove: { from: string; to: string } | null = null;
     if (status === "checked") {
-      patch.checkedAt = new Date();
+      patch.checkedAt = clock.now();
       patch.checkedBy = actor.user.id;
       const others = await AlterationTicket.findAll({ where: { garmentId: t.garmentId, productionId: actor.productionId, id: { [Op.ne]: t.id } }, order: [["createdAt", "ASC"]], transaction });
       const stillOpen = others.some((o) => o.status !== "checked");

@@ -6,6 +6,7 @@ import { Op } from "sequelize";
 import { randomUUID } from "node:crypto";
 import { sequelize } from "../db.js";
 import { config } from "../config.js";
+import { productionTimeZone } from "../lib/clock.js";
 import { AlterationTicket, Fitting, Membership, Production, User } from "../models/index.js";
 import type { CreateFittingInput, FittingDetailDto, FittingDto, ListFittingsQuery, UpdateFittingInput } from "@shared/schemas/workroom.js";
 import { can } from "@shared/permissions.js";
@@ -169,7 +170,7 @@ async function queueFittingMail(actor: Actor, f: Fitting, kind: FittingMailKind,
     durationMinutes: f.durationMinutes,
     room: f.room,
     organizer: organizerAddress(),
-    timeZone: config.TIME_ZONE,
+    timeZone: production ? productionTimeZone(production) : config.TIME_ZONE,
   });
   await queueWorkroomEmail({ productionId: actor.productionId, kind: kind === "invite" ? "fitting_invite" : kind === "update" ? "fitting_update" : "fitting_cancel", dedupeKey: `fitting:${f.id}:${f.icsSequence}:${kind}`, mail }, transaction);
 }

@@ -5,6 +5,7 @@ import { sequelize } from "../db.js";
 import { Fabric, Garment, GarmentStatusEvent, MultiplesGroup, User } from "../models/index.js";
 import { NotFoundError, ValidationError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
+import { todayForProduction } from "./productions.service.js";
 import type { Actor } from "../middleware/require-auth.js";
 import { generateTagCode } from "@shared/domain/tag-codes.js";
 import {
@@ -26,11 +27,6 @@ const includeNames = [
   { model: MultiplesGroup, as: "multiplesGroup", attributes: ["id", "name"] },
 ];
 
-/** Today as YYYY-MM-DD (UTC); callers may pass their own day. */
-function today(): string {
-  return new Date().toISOString().slice(0, 10);
-}
-
 function addDays(isoDay: string, days: number): string {
   const d = new Date(`${isoDay}T00:00:00Z`);
   d.setUTCDate(d.getUTCDate() + days);
@@ -44,7 +40,12 @@ export function locationLabel(rack: string | null | undefined, bin: string | nul
 }
 
 /** Where-clause for the shared list / export / label filters. */
-function whereFor(actor: Actor, f: GarmentFilters): WhereOptions {
+/** The day "due within" counts from: the filter's own, else today in the production's zone (only looked up when needed). */
+async function dueFrom(actor: Actor, f: GarmentFilters): Promise<string | null> {
+  return f.dueWithinDays === undefined ? null : (f.asOf ?? (await todayForProduction(actor.productionId)));
+}
+
+function whereFor(actor: Actor, f: GarmentFilters, dueFromDay: string | null): WhereOptions {
   const and: WhereOptions[] = [{ productionId: actor.productionId }];
   if (f.q) {
     const like = `%${f.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
@@ -58,7 +59,7 @@ function whereFor(actor: Actor, f: GarmentFilters): WhereOptions {
   if (f.multiplesGroupId) and.push({ multiplesGroupId: f.multiplesGroupId });
   if (f.ids.length) and.push({ id: { [Op.in]: f.ids } });
   if (f.dueWithinDays !== undefined) {
-    const until = addDays(f.asOf ?? today(), f.dueWithinDays);
+    const until = addDays(dueFromDay ?? f.asOf!, f.dueWithinDays);
     and.push({ source: "rented", rentalDueOn: { [Op.ne]: null, [Op.lte]: until }, status: { [Op.notIn]: ["returned", "lost"] } });
   }
   if (f.characterId) {
@@ -78,7 +79,7 @@ function whereFor(actor: Actor, f: GarmentFilters): WhereOptions {
 export async function listGarments(actor: Actor, q: ListGarmentsQuery): Promise<{ rows: Garment[]; count: number }> {
   const dir = q.dir.toUpperCase() as "ASC" | "DESC";
   return Garment.findAndCountAll({
-    where: whereFor(actor, q),
+    where: whereFor(actor, q, await dueFrom(actor, q)),
     include: includeNames,
     order: [[q.sort, dir], ["tagCode", "ASC"]],
     limit: q.pageSize,
@@ -89,7 +90,7 @@ export async function listGarments(actor: Actor, q: ListGarmentsQuery): Promise<
 
 /** Every garment matching the filters, by tag code (exports and label sheets). */
 export async function findGarments(actor: Actor, f: GarmentFilters, limit = 5000): Promise<Garment[]> {
-  return Garment.findAll({ where: whereFor(actor, f), include: includeNames, order: [["tagCode", "ASC"]], limit });
+  return Garment.findAll({ where: whereFor(actor, f, await dueFrom(actor, f)), include: includeNames, order: [["tagCode", "ASC"]], limit });
 }
 
 async function loadGarment(actor: Actor, id: string, transaction?: Transaction, lock = false): Promise<Garment> {

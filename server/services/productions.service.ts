@@ -3,6 +3,9 @@ import { Membership, Production } from "../models/index.js";
 import type { CreateProductionInput, UpdateProductionInput } from "@shared/schemas/productions.js";
 import type { User } from "../models/User.js";
 import { recordAudit } from "./audit.service.js";
+import { NotFoundError } from "../errors.js";
+import { productionToday } from "../lib/clock.js";
+import type { Transaction } from "sequelize";
 import type { Actor } from "../middleware/require-auth.js";
 
 /** The productions a user belongs to, with their role in each. */
@@ -46,4 +49,11 @@ export async function updateProduction(actor: Actor, input: UpdateProductionInpu
 /** Remembers which production the user last opened (the switcher's default). */
 export async function rememberProduction(user: User, productionId: string): Promise<void> {
   if (user.lastProductionId !== productionId) await user.update({ lastProductionId: productionId });
+}
+
+/** Today's date in the production's time zone, from the server's one clock. */
+export async function todayForProduction(productionId: string, transaction?: Transaction): Promise<string> {
+  const p = await Production.findByPk(productionId, { attributes: ["id", "settings"], transaction });
+  if (!p) throw NotFoundError("Production not found.");
+  return productionToday(p);
 }

@@ -6,6 +6,7 @@ import { SnagDismissal, User } from "../models/index.js";
 import { NotFoundError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
 import { buildPlan } from "./workroom.service.js";
+import { clock, productionTimeZone } from "../lib/clock.js";
 import type { Actor } from "../middleware/require-auth.js";
 import { computeMultiplesPlans, computeSnags } from "@shared/domain/snags/engine.js";
 import type {
@@ -35,19 +36,13 @@ import {
 /** Quick-change threshold when the production sets none (minutes; common practice, no source). */
 export const DEFAULT_QUICK_CHANGE_MIN = 3;
 
-/** The date snags are judged against; tests replace it (the only clock this service reads). */
-export const snagClock = {
-  today(): string {
-    const d = new Date();
-    return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, "0")}-${String(d.getDate()).padStart(2, "0")}`;
-  },
-};
-
 /** What the engine needs plus what the client needs to read the answer (names, dates, kinds). */
 export interface LoadedProduction {
   snapshot: ProductionSnapshot;
   /** Every shoot day and performance, by date. */
   days: { id: string; date: string; kind: "shoot" | "performance" }[];
+  /** The production's time zone ("today" is judged there). */
+  timeZone: string;
 }
 
 type Row = Record<string, unknown>;
@@ -117,7 +112,7 @@ export async function loadSnapshot(productionId: string): Promise<LoadedProducti
   ]);
   const prod = productions[0];
   if (!prod) throw NotFoundError("Production not found.");
-  const settings = (prod.settings ?? {}) as { quickChangeThresholdMin?: unknown; easeOverrides?: unknown };
+  const settings = (prod.settings ?? {}) as { quickChangeThresholdMin?: unknown; easeOverrides?: unknown; timeZone?: string };
 
   const sceneIdsOfDay = new Map<string, string[]>();
   for (const r of dayScenes) {
@@ -241,6 +236,7 @@ export async function loadSnapshot(productionId: string): Promise<LoadedProducti
   return {
     snapshot,
     days: days.map((d) => ({ id: d.id as string, date: d.date as string, kind: d.kind === "performance" ? "performance" : "shoot" })),
+    timeZone: productionTimeZone({ settings }),
   };
 }
 
@@ -427,7 +423,8 @@ function presentDismissal(d: SnagDismissal): SnagDismissalDto {
 /** Current snags of a production (recomputed from the database) with the date they were judged on. */
 export async function currentSnags(productionId: string): Promise<{ loaded: LoadedProduction; snags: Snag[]; today: string }> {
   const loaded = await loadSnapshot(productionId);
-  const today = snagClock.today();
+  // Judged on today in the production's time zone (server/lib/clock.ts is the one clock).
+  const today = clock.today(loaded.timeZone);
   // Late tickets and overbooked workroom days come from the workroom plan, judged on the same day.
   const plan = await buildPlan(productionId, today);
   return { loaded, snags: [...computeSnags(loaded.snapshot, { today }), ...plan.snags], today };

@@ -13,7 +13,8 @@ import { logger } from "../lib/logger.js";
 import { zonedParts } from "../lib/zoned-time.js";
 import { NotFoundError, ConflictError } from "../errors.js";
 import { workroomReminderEmail } from "../emails/workroom-reminder.email.js";
-import { buildPlan, nextDay, todayInZone } from "./workroom.service.js";
+import { buildPlan, nextDay } from "./workroom.service.js";
+import { clock, productionTimeZone } from "../lib/clock.js";
 import { changeLabel, findChange, findPerformer } from "./workroom-facts.service.js";
 import { longDate, taskSummary } from "@shared/domain/workroom-snags.js";
 import { recordAudit } from "./audit.service.js";
@@ -93,13 +94,14 @@ export function invitationAddress(p: { email: string | null; agent_contact: stri
  * Idempotent per person and day. Returns the number of reminders queued.
  */
 export async function sendEveningReminders(opts: { now?: Date; productionId?: string; force?: boolean } = {}): Promise<number> {
-  const now = opts.now ?? new Date();
-  const { hour } = zonedParts(now, config.TIME_ZONE);
-  const today = todayInZone(now);
-  const tomorrow = nextDay(today);
+  const now = opts.now ?? clock.now();
   const productions = await Production.findAll({ where: opts.productionId ? { id: opts.productionId } : {} });
   let queued = 0;
   for (const production of productions) {
+    // Each production's evening is in its own time zone.
+    const zone = productionTimeZone(production);
+    const { hour, date: today } = zonedParts(now, zone);
+    const tomorrow = nextDay(today);
     if (!opts.force && (production.settings.reminderHour ?? 18) !== hour) continue;
     const perUser = new Map<string, { fittings: Parameters<typeof workroomReminderEmail>[0]["fittings"]; tickets: Parameters<typeof workroomReminderEmail>[0]["tickets"] }>();
     const entry = (userId: string) => {
@@ -113,10 +115,10 @@ export async function sendEveningReminders(opts: { now?: Date; productionId?: st
       order: [["startsAt", "ASC"]],
     });
     for (const f of fittings) {
-      if (zonedParts(f.startsAt, config.TIME_ZONE).date !== tomorrow) continue;
+      if (zonedParts(f.startsAt, zone).date !== tomorrow) continue;
       const performer = await findPerformer(production.id, f.performerId);
       const change = f.changeId ? await findChange(production.id, f.changeId) : null;
-      const z = zonedParts(f.startsAt, config.TIME_ZONE);
+      const z = zonedParts(f.startsAt, zone);
       const item = { time: `${String(z.hour).padStart(2, "0")}:${String(z.minute).padStart(2, "0")}`, performer: performer?.name ?? "performer", change: change ? changeLabel(change) : null, room: f.room };
       for (const uid of f.attendeeIds) entry(uid).fittings.push(item);
     }

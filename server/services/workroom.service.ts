@@ -6,7 +6,6 @@
 import { Op } from "sequelize";
 import { addDays, differenceInCalendarDays, format, parseISO } from "date-fns";
 import { sequelize } from "../db.js";
-import { config } from "../config.js";
 import { AlterationTicket, Membership, Production, User, WorkroomCapacity } from "../models/index.js";
 import { dueDateFor, MONDAY_TO_FRIDAY, planTickets, WEEKDAYS, type Weekday, type WorkroomPersonInput } from "@shared/domain/workroom.js";
 import { taskSummary, workroomSnags } from "@shared/domain/workroom-snags.js";
@@ -14,17 +13,12 @@ import type { CapacityDto, PlannedTicketDto, UpsertCapacityInput, WorkroomOption
 import { NotFoundError, ValidationError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
 import { changeLabel, findGarments, listChanges, listGarments, listPerformers, listShootDays, neededDatesByGarment } from "./workroom-facts.service.js";
-import { zonedParts } from "../lib/zoned-time.js";
+import { todayForProduction } from "./productions.service.js";
 import { presentTicket } from "../presenters/workroom.presenter.js";
 import type { Actor } from "../middleware/require-auth.js";
 
 /** Roles that can be workroom members (planned into, assigned tickets). */
 export const WORKROOM_ROLES = ["supervisor", "designer", "cutter"] as const;
-
-/** Today's date in the department's time zone. */
-export function todayInZone(now = new Date()): string {
-  return zonedParts(now, config.TIME_ZONE).date;
-}
 
 /** The production's workroom settings with defaults (1 working day buffer, reminders at 18:00). */
 export async function workroomSettings(productionId: string): Promise<{ bufferWorkingDays: number; reminderHour: number; title: string; units: "cm" | "in" }> {
@@ -122,7 +116,8 @@ export function ticketDue(needed: Array<{ date: string; shootDayId: string }>, r
 }
 
 /** Plans every open ticket of the production from `from` (default today) and explains what will be late. */
-export async function buildPlan(productionId: string, from: string = todayInZone()): Promise<WorkroomPlanDto> {
+export async function buildPlan(productionId: string, fromDay?: string): Promise<WorkroomPlanDto> {
+  const from = fromDay ?? (await todayForProduction(productionId));
   const settings = await workroomSettings(productionId);
   const [tickets, capacity, shootDays] = await Promise.all([
     AlterationTicket.findAll({ where: { productionId, status: { [Op.ne]: "checked" } }, include: [{ model: User, as: "assignee" }], order: [["raisedOn", "ASC"], ["id", "ASC"]] }),

@@ -13,7 +13,19 @@ const easeRangeSchema = z
   .refine((r) => r.max === null || r.max >= r.min, { message: "max must be at least min", path: ["max"] });
 
 /** Per-production settings; every field optional with a documented default. */
+/** True for a time zone name the platform knows (IANA, e.g. "Europe/London"). */
+export function isKnownTimeZone(name: string): boolean {
+  try {
+    new Intl.DateTimeFormat("en", { timeZone: name });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
 export const productionSettingsSchema = z.object({
+  /** The department's local time zone (IANA name): "today", shoot days, reminders and fitting times. */
+  timeZone: z.string().trim().min(1).max(64).refine(isKnownTimeZone, "is not a time zone name such as Europe/London").optional(),
   /** Stage: flag a quick change shorter than this many minutes. */
   quickChangeThresholdMin: z.number().min(0).max(60).optional(),
   /** Workroom: working days between finishing an alteration and the shoot day (pressing, rack prep). */
@@ -70,6 +82,10 @@ export interface ProductionDto {
   settings: ProductionSettings;
   /** The signed-in user's role in this production. */
   role: Role;
+  /** The production's time zone (its setting, else the server's). */
+  timeZone: string;
+  /** Today's date in that zone, from the server's clock (the client never guesses "today"). */
+  today: string;
 }
 
 export interface AuditEventDto {

@@ -4,7 +4,7 @@ import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { EaseRangesForm } from "@/features/productions/components/ease-ranges-form";
 import type { ProductionDto } from "@shared/schemas/productions";
 
-const production: ProductionDto = { id: "p1", title: "Test", kind: "film", startsOn: null, endsOn: null, units: "cm", settings: {}, role: "supervisor" };
+const production: ProductionDto = { id: "p1", title: "Test", kind: "film", startsOn: null, endsOn: null, units: "cm", settings: {}, role: "supervisor", timeZone: "Europe/London", today: "2030-09-02" };
 
 function json(status: number, body: unknown) {
   return new Response(JSON.stringify(body), { status, headers: { "Content-Type": "application/json" } });

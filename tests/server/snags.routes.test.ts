@@ -1,14 +1,13 @@
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { createApp } from "../../server/app.js";
 import { AuditEvent, SnagDismissal } from "../../server/models/index.js";
-import { snagClock } from "../../server/services/snags.service.js";
+import { clock } from "../../server/lib/clock.js";
 import { buildMember } from "../factories.js";
 import { resetDb, signedInAgent, anonymousAgent, type TestAgent } from "../setup/http.js";
 import { buildFilmScenario, snagFixtures } from "../setup/snag-fixtures.js";
 import type { SnagDto, SnagListDto } from "../../shared/schemas/snags.js";
 
 const app = createApp();
-const realToday = snagClock.today;
 let agent: TestAgent;
 let pid: string;
 let sc: Awaited<ReturnType<typeof buildFilmScenario>>;
@@ -19,11 +18,11 @@ beforeEach(async () => {
   pid = production.id;
   sc = await buildFilmScenario(snagFixtures(pid));
   agent = await signedInAgent(app, user.email);
-  snagClock.today = () => "2027-01-10";
+  clock.set("2027-01-10", { frozen: true });
 });
 
 afterEach(() => {
-  snagClock.today = realToday;
+  clock.reset();
 });
 
 const fitKey = () => `fit:${sc.garments.jacket}:${sc.performers.pWren}`;
@@ -65,7 +64,7 @@ describe("GET /api/productions/:pid/snags", () => {
   });
 
   it("shootDayId=next gives the snags of the next shoot day from today", async () => {
-    snagClock.today = () => "2027-01-14";
+    clock.set("2027-01-14", { frozen: true });
 
     const res = await agent.get(`/api/productions/${pid}/snags?shootDayId=next`);
 

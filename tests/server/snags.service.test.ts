@@ -2,12 +2,12 @@ import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { buildMember, buildProduction } from "../factories.js";
 import { resetDb } from "../setup/http.js";
 import { buildFilmScenario, snagFixtures, type SnagFixtures } from "../setup/snag-fixtures.js";
-import { dismissSnag, listSnags, loadSnapshot, multiplesPlan, snagClock } from "../../server/services/snags.service.js";
+import { clock } from "../../server/lib/clock.js";
+import { dismissSnag, listSnags, loadSnapshot, multiplesPlan } from "../../server/services/snags.service.js";
 import type { Actor } from "../../server/middleware/require-auth.js";
 import type { SnagDto } from "../../shared/schemas/snags.js";
 import { AuditEvent, SnagDismissal } from "../../server/models/index.js";
 
-const realToday = snagClock.today;
 let actor: Actor;
 let f: SnagFixtures;
 let sc: Awaited<ReturnType<typeof buildFilmScenario>>;
@@ -19,11 +19,11 @@ beforeEach(async () => {
   f = snagFixtures(production.id);
   sc = await buildFilmScenario(f);
   // Before the first shoot day (2027-01-11), so every day is upcoming.
-  snagClock.today = () => "2027-01-10";
+  clock.set("2027-01-10", { frozen: true });
 });
 
 afterEach(() => {
-  snagClock.today = realToday;
+  clock.reset();
 });
 
 const open = async () => (await listSnags(actor, { includeDismissed: false })).snags;
@@ -176,7 +176,7 @@ describe("recompute", () => {
     await f.update("garments", sc.garments.shirt, { status: "workroom" });
 
     const dayBefore = await open();
-    snagClock.today = () => "2027-01-12";
+    clock.set("2027-01-12", { frozen: true });
     const onTheDay = await open();
 
     expect(dayBefore.some((s) => s.key === `availability:${sc.garments.shirt}`)).toBe(false);

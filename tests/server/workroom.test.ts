@@ -1,3 +1,4 @@
+import { clock } from "../../server/lib/clock.js";
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import { parseISO, subBusinessDays, format } from "date-fns";
 import ICAL from "ical.js";
@@ -31,7 +32,14 @@ beforeEach(async () => {
 });
 afterEach(() => {
   vi.restoreAllMocks();
+  clock.reset();
 });
+
+/** Raises a ticket with the server's clock on the given day (tickets record the day they were raised). */
+async function raiseOn(day: string, actor: Parameters<typeof raiseTicket>[0], input: Parameters<typeof raiseTicket>[1]) {
+  clock.set(day, { frozen: true });
+  return raiseTicket(actor, input);
+}
 
 describe("due dates from the shoot schedule (real rows)", () => {
   it("a garment needed on two shoot days is due the buffer before the earlier one", async () => {
@@ -39,7 +47,7 @@ describe("due dates from the shoot schedule (real rows)", () => {
     await WorkroomCapacity.create({ productionId: production.id, userId: user.id, hoursPerWeekday: fullWeek, daysOff: [] });
     const garmentId = await buildGarment(production.id);
     await buildChangeOnDays(production.id, { garmentIds: [garmentId], dates: ["2030-09-12", "2030-09-09"] });
-    await raiseTicket(actor, { garmentId, tasks: [take], estimateHours: 2 }, "2030-09-02");
+    await raiseOn("2030-09-02", actor, { garmentId, tasks: [take], estimateHours: 2 });
 
     const plan = await buildPlan(production.id, "2030-09-02");
 
@@ -53,7 +61,7 @@ describe("due dates from the shoot schedule (real rows)", () => {
     await WorkroomCapacity.create({ productionId: production.id, userId: user.id, hoursPerWeekday: fullWeek, daysOff: [] });
     const garmentId = await buildGarment(production.id);
     await buildChangeOnDays(production.id, { garmentIds: [garmentId], dates: ["2030-09-09", "2030-09-16"] });
-    await raiseTicket(actor, { garmentId, tasks: [take], estimateHours: 2 }, "2030-09-10");
+    await raiseOn("2030-09-10", actor, { garmentId, tasks: [take], estimateHours: 2 });
 
     const plan = await buildPlan(production.id, "2030-09-10");
 
@@ -66,7 +74,7 @@ describe("due dates from the shoot schedule (real rows)", () => {
     const groupId = await buildGroup(production.id);
     const copy2 = await buildGarment(production.id, { groupId, copyNumber: 2 });
     await buildChangeOnDays(production.id, { groupIds: [groupId], dates: ["2030-09-11"] });
-    await raiseTicket(actor, { garmentId: copy2, tasks: [take], estimateHours: 1 }, "2030-09-02");
+    await raiseOn("2030-09-02", actor, { garmentId: copy2, tasks: [take], estimateHours: 1 });
 
     const plan = await buildPlan(production.id, "2030-09-02");
 
@@ -76,7 +84,7 @@ describe("due dates from the shoot schedule (real rows)", () => {
   it("a garment no shoot day needs has no due date and is never late", async () => {
     const { production, actor } = await setup();
     const garmentId = await buildGarment(production.id);
-    await raiseTicket(actor, { garmentId, tasks: [take], estimateHours: 1 }, "2030-09-02");
+    await raiseOn("2030-09-02", actor, { garmentId, tasks: [take], estimateHours: 1 });
 
     const plan = await buildPlan(production.id, "2030-09-02");
 
@@ -100,7 +108,7 @@ describe("GET /api/productions/:pid/workroom/plan", () => {
     const g3 = await buildGarment(production.id, { tagCode: "T3" });
     await buildChangeOnDays(production.id, { garmentIds: [g1, g2], dates: ["2030-09-04"] });
     await buildChangeOnDays(production.id, { garmentIds: [g3], dates: ["2030-09-05"] });
-    for (const [g, h] of [[g1, 10], [g2, 10], [g3, 20]] as const) await raiseTicket(actor, { garmentId: g, tasks: [take], estimateHours: h }, "2030-09-02");
+    for (const [g, h] of [[g1, 10], [g2, 10], [g3, 20]] as const) await raiseOn("2030-09-02", actor, { garmentId: g, tasks: [take], estimateHours: h });
     const supervisor = await buildMember("supervisor", { production });
     const agent = await signedInAgent(app, supervisor.user.email);
 
@@ -329,7 +337,7 @@ describe("evening reminders", () => {
     const performerId = await buildPerformer(production.id, { name: "Wynn Example" });
     const garmentId = await buildGarment(production.id, { tagCode: "R-1", name: "Reefer coat" });
     await buildChangeOnDays(production.id, { garmentIds: [garmentId], dates: ["2030-09-05"] }); // Thu → due Wed
-    await raiseTicket(actor, { garmentId, tasks: [take], estimateHours: 3, assigneeId: user.id }, "2030-09-02");
+    await raiseOn("2030-09-02", actor, { garmentId, tasks: [take], estimateHours: 3, assigneeId: user.id });
     const { Fitting } = await import("../../server/models/index.js");
     await Fitting.create({ productionId: production.id, performerId, changeId: null, startsAt: new Date("2030-09-04T10:00:00Z"), durationMinutes: 30, room: "Room 1", attendeeIds: [user.id], notes: null, icsUid: "t@x", createdBy: null });
 

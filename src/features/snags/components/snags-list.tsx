@@ -67,7 +67,7 @@ export function SnagsList({ productionId, data, filters, onFiltersChange, canDis
   const set = (patch: Partial<SnagFilters>) => onFiltersChange({ ...filters, ...patch });
 
   return (
-    <div className="grid gap-4">
+    <div className="grid gap-4" role="region" aria-label="All snags">
       <div className="flex flex-wrap items-center gap-2" aria-label="Open snags by severity">
         {snagSeverities.map((s) => (
           <Badge key={s} tone={s}>
