@@ -36,7 +36,8 @@ describe("POST /api/productions/:pid/imports/breakdown", () => {
     const res = await agent.post(`/api/productions/${pid}/imports/breakdown/preview`, { csv });
 
     expect(res.status).toBe(200);
-    expect(res.body.data).toEqual({ valid: true, rows: 2, scenes: { created: 2, updated: 0 }, shootDays: { created: 1, updated: 0 }, errors: [] });
+    expect(res.body.data).toMatchObject({ valid: true, rows: 2, scenes: { created: 2, updated: 0, unchanged: 0 }, shootDays: { created: 1, updated: 0, unchanged: 0 }, errors: [] });
+    expect(res.body.data.changes.map((c: { scene: string; status: string }) => [c.scene, c.status])).toEqual([["1", "new"], ["2", "new"]]);
     expect(await Scene.count()).toBe(0);
   });
 
@@ -97,7 +98,7 @@ describe("POST /api/productions/:pid/imports/breakdown", () => {
 
     const res = await agent.post(`/api/productions/${pid}/imports/breakdown`, { csv: [header, "1,Changed set,EXT,DAY,1,1,,,,1,2026-11-30,1", "5,New,EXT,DAY,2,5,,,,3,2026-12-02,1"].join("\n") });
 
-    expect(res.body.data).toMatchObject({ scenes: { created: 1, updated: 1 }, shootDays: { created: 1, updated: 1 } });
+    expect(res.body.data).toMatchObject({ scenes: { created: 1, updated: 1, unchanged: 0 }, shootDays: { created: 1, updated: 0, unchanged: 1 } });
     expect((await Scene.findOne({ where: { productionId: pid, number: "1" } }))!.setName).toBe("Changed set");
     expect(await Scene.count({ where: { productionId: pid } })).toBe(3);
   });
