@@ -316,17 +316,17 @@ function SceneSlot(props: { id: string; place: number; scene: SceneRowDto | unde
         {s?.lengthEighths != null ? ` · ${formatEighths(s.lengthEighths)} pp` : ""}
       </span>
       {props.canEdit && (
-        <span className="flex flex-wrap items-center gap-1">
+        <span className="flex w-full flex-wrap items-center justify-end gap-1 sm:w-auto">
           {props.otherDays.length > 0 && (
             <>
-              <select className={`${controlClass} w-auto py-1`} aria-label={`Move scene ${number} to`} value={to} onChange={(e) => setTo(e.target.value)}>
+              <span className="w-44"><select className={cn(controlClass, "py-1")} aria-label={`Move scene ${number} to`} value={to} onChange={(e) => setTo(e.target.value)}>
                 <option value="">Move to…</option>
                 {props.otherDays.map((d) => (
                   <option key={d.id} value={d.id}>
                     {dayLabel(d)} · {d.date}
                   </option>
                 ))}
-              </select>
+              </select></span>
               <Button size="sm" variant="secondary" disabled={!to || props.busy} onClick={() => to && props.onMove(to)}>
                 Move
               </Button>
