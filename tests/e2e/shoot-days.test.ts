@@ -201,7 +201,7 @@ describe("the breakdown import merges and shows old → new first", () => {
     expect((await call<{ synopsis: string }>(page, "GET", `${api}/scenes/${scene.id}`)).synopsis).toBe(scene.synopsis);
     await page.screenshot({ path: ".data/e2e-import-preview.png", fullPage: true });
 
-    await preview.getByRole("button", { name: "Import 1 rows" }).click();
+    await preview.getByRole("button", { name: "Import 1 row" }).click();
     await preview.getByText(/Imported: 0 new and 1 changed scenes/).waitFor();
     const after = await call<typeof scene>(page, "GET", `${api}/scenes/${scene.id}`);
     expect(after).toMatchObject({ synopsis: "Merged by the end-to-end test", setName: scene.setName, intExt: scene.intExt, storyDay: scene.storyDay, lengthEighths: scene.lengthEighths });

@@ -180,7 +180,7 @@ export function ImportPanel({ productionId, canImport }: { productionId: string;
                   )}
                   <div>
                     <Button onClick={() => file && importM.mutate({ csv: file.text, fileName: file.name })} busy={importM.isPending} disabled={importM.isSuccess || preview.scenes.created + preview.scenes.updated + preview.shootDays.created + preview.shootDays.updated === 0}>
-                      Import {preview.rows} rows
+                      Import {preview.rows} row{preview.rows === 1 ? "" : "s"}
                     </Button>
                   </div>
                 </>
