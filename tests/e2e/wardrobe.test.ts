@@ -3,8 +3,10 @@ import pg from "pg";
 import { useBrowser, signIn } from "./browser.js";
 import { SALTMARSH_ID } from "../../seeds/accounts.js";
 import { keyGarments, performers } from "../../seeds/scenario.js";
+import { anchorDemo, demoDaysFromToday } from "../../seeds/calendar.js";
 
 const baseUrl = inject("baseUrl");
+anchorDemo(inject("today"));
 const databaseUrl = inject("databaseUrl");
 const browser = useBrowser();
 
@@ -17,8 +19,10 @@ describe("measurements as the demo cutter", () => {
     await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/cast/performers/${performers.jory.id}/measurements`);
     await page.getByRole("heading", { name: performers.jory.name }).waitFor();
     const form = page.getByRole("form", { name: "New measurement set" });
+    // A set taken later than any seeded one, so it becomes the current set.
+    const takenOn = demoDaysFromToday(28);
     await form.getByRole("radio", { name: "Inches" }).click();
-    await form.getByLabel("Taken on").fill("2026-12-30");
+    await form.getByLabel("Taken on").fill(takenOn);
     await form.getByLabel("Chest girth (in)").fill("40");
     await form.getByLabel("Waist girth (in)").fill("32 1/2");
     await form.getByLabel("Height (in)").fill("70");
@@ -26,7 +30,7 @@ describe("measurements as the demo cutter", () => {
     await form.getByText("Saved.").waitFor();
 
     const history = page.getByRole("table", { name: "Measurement history" });
-    await history.getByText("2026-12-30 (current)").waitFor();
+    await history.getByText(`${takenOn} (current)`).waitFor();
     const chestRow = history.getByRole("row", { name: /Chest girth/ });
     // 40 in × 25.4 = 1016 mm exactly → 101.6 cm in the production's unit.
     expect(await chestRow.locator("td").first().textContent()).toContain("101.6 cm");
