@@ -10,7 +10,7 @@ async function main() {
   await seedDemo();
   console.log("Demo data loaded.");
   await sequelize.close();
-  void local;
+  local.pg?.stop();
 }
 
 main().catch((err) => {
