@@ -2,6 +2,7 @@
 import { spawn, type ChildProcess } from "node:child_process";
 import net from "node:net";
 import path from "node:path";
+import { pathToFileURL } from "node:url";
 
 export function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -23,9 +24,13 @@ export interface Child {
   exited: Promise<number | null>;
 }
 
-/** Runs a TypeScript file (or `-e` code) with tsx in a child process. */
+/**
+ * Runs a TypeScript file (or `-e` code) in one child process with tsx's loader (not tsx's CLI, which
+ * would run the program in a grandchild that a SIGKILL of the child leaves running).
+ */
 export function spawnTsx(args: string[], env: NodeJS.ProcessEnv, cwd = process.cwd()): Child {
-  const proc = spawn(process.execPath, [path.resolve("node_modules/tsx/dist/cli.mjs"), ...args], { env, cwd, stdio: ["ignore", "pipe", "pipe"] });
+  const loader = pathToFileURL(path.resolve("node_modules/tsx/dist/loader.mjs")).href;
+  const proc = spawn(process.execPath, ["--import", loader, ...args], { env, cwd, stdio: ["ignore", "pipe", "pipe"] });
   let out = "";
   proc.stdout?.on("data", (d) => (out += d));
   proc.stderr?.on("data", (d) => (out += d));
