@@ -23,10 +23,13 @@ async function withFile<T>(pdf: Buffer, fn: (file: string, dir: string) => Promi
   }
 }
 
-/** The text of each page (pdftotext -layout; pages split at form feeds). */
-export async function pdfPagesText(pdf: Buffer): Promise<string[]> {
+/**
+ * The text of each page (pages split at form feeds): `layout` keeps the physical layout (columns side
+ * by side), `raw` keeps the order the text was drawn in (a wrapped cell stays together).
+ */
+export async function pdfPagesText(pdf: Buffer, mode: "layout" | "raw" = "layout"): Promise<string[]> {
   return withFile(pdf, async (file) => {
-    const { stdout } = await run("pdftotext", ["-layout", "-enc", "UTF-8", file, "-"], { maxBuffer: 64 * 1024 * 1024 });
+    const { stdout } = await run("pdftotext", [`-${mode}`, "-enc", "UTF-8", file, "-"], { maxBuffer: 64 * 1024 * 1024 });
     const pages = stdout.split("\f");
     if (pages.length && pages[pages.length - 1]!.trim() === "") pages.pop();
     return pages;
@@ -74,4 +77,48 @@ export async function decodeQr(png: Buffer): Promise<string> {
   const source = new RGBLuminanceSource(lum, info.width, info.height);
   const hints = new Map([[DecodeHintType.TRY_HARDER, true]]);
   return new QRCodeReader().decode(new BinaryBitmap(new HybridBinarizer(source)), hints).getText();
+}
+
+/**
+ * Decodes every QR code in a vertical column of a rendered page (codes stacked one under another,
+ * like the rack list's): the column is cut into blocks of ink separated by blank bands, and each
+ * block about `codeMm` tall is decoded on its own.
+ */
+export async function decodeQrColumn(png: Buffer, opts: { dpi: number; fromMm: number; toMm: number; codeMm: number }): Promise<string[]> {
+  const px = (mm: number) => Math.round((mm / 25.4) * opts.dpi);
+  const meta = await sharp(png).metadata();
+  const left = px(opts.fromMm);
+  const width = Math.min(px(opts.toMm) - left, (meta.width ?? 0) - left);
+  const strip = await sharp(png).extract({ left, top: 0, width, height: meta.height! }).greyscale().raw().toBuffer({ resolveWithObject: true });
+  const inked: boolean[] = [];
+  for (let y = 0; y < strip.info.height; y++) {
+    let dark = false;
+    for (let x = 0; x < strip.info.width && !dark; x++) dark = strip.data[y * strip.info.width + x]! < 100;
+    inked.push(dark);
+  }
+  // Blocks of inked rows, joining gaps shorter than 1.2 mm (a white module row inside a code is about 0.7 mm).
+  const blocks: Array<[number, number]> = [];
+  let start = -1;
+  let lastInk = -1;
+  inked.forEach((dark, y) => {
+    if (!dark) return;
+    if (start >= 0 && y - lastInk > px(1.2)) {
+      blocks.push([start, lastInk]);
+      start = y;
+    } else if (start < 0) start = y;
+    lastInk = y;
+  });
+  if (start >= 0) blocks.push([start, lastInk]);
+  const codes: string[] = [];
+  for (const [a, b] of blocks) {
+    const h = b - a + 1;
+    if (h < px(opts.codeMm * 0.7) || h > px(opts.codeMm * 1.2)) continue;
+    const pad = px(2);
+    const crop = await sharp(png)
+      .extract({ left: Math.max(0, left - pad), top: Math.max(0, a - pad), width: width + 2 * pad, height: h + 2 * pad })
+      .png()
+      .toBuffer();
+    codes.push(await decodeQr(crop));
+  }
+  return codes;
 }

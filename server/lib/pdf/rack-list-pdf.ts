@@ -50,7 +50,7 @@ export async function renderRackListPdf(list: RackListDto, out: Writable, opts: 
   }
   doc.moveDown(0.6);
 
-  const cols = { qr: 0, tag: QR + 3 * MM, garment: QR + 3 * MM + width * 0.17, where: QR + 3 * MM + width * 0.5, status: QR + 3 * MM + width * 0.62, tick: width - 6 * MM };
+  const cols = { qr: 0, tag: QR + 3 * MM, garment: QR + 3 * MM + width * 0.15, where: QR + 3 * MM + width * 0.42, status: QR + 3 * MM + width * 0.52, tick: width - 6 * MM };
   const ensure = (h: number) => {
     if (doc.y + h > contentBottom(doc)) doc.addPage();
   };
