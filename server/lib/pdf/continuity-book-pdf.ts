@@ -9,7 +9,7 @@ import type { Writable } from "node:stream";
 import type { PhotoView } from "@shared/schemas/photos.js";
 import type { PaperSize } from "@shared/schemas/productions.js";
 import { toPrintJpeg } from "../images.js";
-import { colours, contentBottom, contentWidth, createReportDocument, flagWords, MM, printDate, stampPages, waitForReader } from "./report-pdf.js";
+import { colours, contentBottom, contentWidth, createReportDocument, flagWords, MM, oneLine, printDate, stampPages, waitForReader } from "./report-pdf.js";
 
 export interface BookPhoto {
   id: string;
@@ -184,7 +184,8 @@ export async function renderContinuityBook(model: BookModel, out: Writable, opts
     doc.rect(left, top, width, 18).fill(colours.chalk);
     doc.fillColor(colours.ink).font("Bold").fontSize(11).text(`Scene ${s.number}`, left + 4, top + 4, { width: width * 0.3, lineBreak: false });
     const where = [s.intExt, s.setName, s.timeOfDay].filter(Boolean).join(" · ");
-    doc.fillColor(colours.slate).font("Body").fontSize(8.5).text(`${s.storyDay != null ? `Story day ${s.storyDay}` : "No story day"}${where ? ` · ${where}` : ""}`, left + width * 0.3, top + 5, { width: width * 0.7 - 4, align: "right", lineBreak: false, ellipsis: true });
+    doc.fillColor(colours.slate).font("Body").fontSize(8.5);
+    oneLine(doc, `${s.storyDay != null ? `Story day ${s.storyDay}` : "No story day"}${where ? ` · ${where}` : ""}`, left + width * 0.3, top + 5, width * 0.7 - 4, { align: "right" });
     doc.y = top + 22;
     for (const l of lines) {
       doc.fillColor(l.colour ?? colours.text).font(l.bold ? "Bold" : "Body").fontSize(l.size ?? 9).text(l.text, left, doc.y, { width });
@@ -211,7 +212,8 @@ export async function renderContinuityBook(model: BookModel, out: Writable, opts
         // Drop the bytes as soon as they are in the document.
         item.jpeg = null;
         const caption = viewLabels[item.photo.view] + (item.photo.caption ? ` · ${item.photo.caption}` : "");
-        doc.fillColor(colours.ink).font("Bold").fontSize(7).text(caption, x, y + photoH + 2, { width: photoW, lineBreak: false, ellipsis: true });
+        doc.fillColor(colours.ink).font("Bold").fontSize(7);
+        oneLine(doc, caption, x, y + photoH + 2, photoW);
       });
       doc.y = y + rowH;
     }
@@ -266,7 +268,7 @@ export async function renderContinuityBook(model: BookModel, out: Writable, opts
       String(scenePage[i] ?? ""),
     ];
     doc.fillColor(colours.text).font("Body").fontSize(8.5);
-    cols.forEach((c, k) => doc.text(cells[k]!, left + c.x * width, y, { width: c.w * width - 4, align: c.label === "Page" ? "right" : "left", lineBreak: false, ellipsis: true }));
+    cols.forEach((c, k) => oneLine(doc, cells[k]!, left + c.x * width, y, c.w * width - 4, { align: c.label === "Page" ? "right" : "left" }));
     y += CONTENTS_ROW;
     rowsLeft--;
   });

@@ -6,7 +6,7 @@ import type { RackListDto } from "@shared/schemas/reports.js";
 import { garmentStatusLabels } from "@shared/schemas/garments.js";
 import { rackFlags } from "@shared/domain/reports/rack-list.js";
 import { drawQr } from "../tag-labels.js";
-import { colours, contentBottom, contentWidth, createReportDocument, MM, printDate, stampPages, waitForReader } from "./report-pdf.js";
+import { colours, contentBottom, contentWidth, createReportDocument, MM, oneLine, printDate, stampPages, waitForReader } from "./report-pdf.js";
 
 const QR = 20 * MM;
 const ROW = QR + 3 * MM;
@@ -60,8 +60,10 @@ export async function renderRackListPdf(list: RackListDto, out: Writable, opts: 
     ensure(18 + ROW);
     const top = doc.y;
     doc.rect(left, top, width, 16).fill(colours.chalk);
-    doc.fillColor(colours.ink).font("Bold").fontSize(11).text(`${c.callOrder}. ${c.name}`, left + 4, top + 3, { width: width * 0.55, lineBreak: false, ellipsis: true });
-    doc.fillColor(colours.slate).font("Body").fontSize(8.5).text(`Scenes ${c.sceneNumbers.join(", ")}`, left + width * 0.55, top + 4, { width: width * 0.45 - 4, align: "right", lineBreak: false, ellipsis: true });
+    doc.fillColor(colours.ink).font("Bold").fontSize(11);
+    oneLine(doc, `${c.callOrder}. ${c.name}`, left + 4, top + 3, width * 0.55);
+    doc.fillColor(colours.slate).font("Body").fontSize(8.5);
+    oneLine(doc, `Scenes ${c.sceneNumbers.join(", ")}`, left + width * 0.55, top + 4, width * 0.45 - 4, { align: "right" });
     doc.y = top + 19;
     for (const ch of c.changes) {
       ensure(12 + ROW);

@@ -6,6 +6,7 @@ import { createRequire } from "node:module";
 import path from "node:path";
 import PDFDocument from "pdfkit";
 import type { PaperSize } from "@shared/schemas/productions.js";
+import { dayLabel } from "@shared/domain/reports/day-label.js";
 
 export const MM = 72 / 25.4; // PDF points per millimetre
 
@@ -72,13 +73,34 @@ export function stampPages(doc: PDFKit.PDFDocument, header: { left: string; righ
     doc.page.margins = { top: 0, bottom: 0, left: 0, right: 0 };
     const left = margins.left;
     const w = width - margins.left - margins.right;
-    doc.font("Bold").fontSize(8.5).fillColor(colours.ink).text(header.left, left, 10 * MM, { width: w * 0.62, lineBreak: false, ellipsis: true });
-    doc.font("Body").fontSize(8.5).fillColor(colours.slate).text(header.right, left + w * 0.62, 10 * MM, { width: w * 0.38, align: "right", lineBreak: false, ellipsis: true });
+    doc.font("Bold").fontSize(8.5).fillColor(colours.ink);
+    oneLine(doc, header.left, left, 10 * MM, w * 0.62);
+    doc.font("Body").fontSize(8.5).fillColor(colours.slate);
+    oneLine(doc, header.right, left + w * 0.62, 10 * MM, w * 0.38, { align: "right" });
     doc.moveTo(left, 15 * MM).lineTo(left + w, 15 * MM).lineWidth(0.6).strokeColor(colours.ink).stroke();
-    doc.font("Body").fontSize(7.5).fillColor(colours.slate).text(footer, left, height - 12 * MM, { width: w * 0.7, lineBreak: false, ellipsis: true });
+    doc.font("Body").fontSize(7.5).fillColor(colours.slate);
+    oneLine(doc, footer, left, height - 12 * MM, w * 0.7);
     doc.font("Bold").fontSize(8).fillColor(colours.ink).text(`Page ${i - range.start + 1} of ${total}`, left + w * 0.7, height - 12 * MM, { width: w * 0.3, align: "right", lineBreak: false });
     doc.page.margins = saved;
   }
+}
+
+/** `text` cut to fit `width` in the current font and size, with an ellipsis when cut. */
+export function fitText(doc: PDFKit.PDFDocument, text: string, width: number): string {
+  if (doc.widthOfString(text) <= width) return text;
+  let lo = 0;
+  let hi = text.length;
+  while (lo < hi) {
+    const mid = (lo + hi + 1) >> 1;
+    if (doc.widthOfString(`${text.slice(0, mid).trimEnd()}…`) <= width) lo = mid;
+    else hi = mid - 1;
+  }
+  return `${text.slice(0, lo).trimEnd()}…`;
+}
+
+/** Writes one line of text at (x, y), cut to `width` (never wraps onto the next line). */
+export function oneLine(doc: PDFKit.PDFDocument, text: string, x: number, y: number, width: number, options: { align?: "left" | "right" | "center" } = {}): void {
+  doc.text(fitText(doc, text, width), x, y, { width, lineBreak: false, align: options.align ?? "left" });
 }
 
 /** Resolves once the document's unread output is below `limitBytes` (the reader has caught up). */
@@ -91,11 +113,5 @@ export function flagWords(f: { wet: boolean; stunt: boolean; blood: boolean; vfx
   return [f.wet && "WET", f.stunt && "STUNT", f.blood && "BLOOD", f.vfxShot && "EFFECTS SHOT"].filter((x): x is string => Boolean(x));
 }
 
-const WEEKDAYS = ["Sun", "Mon", "Tue", "Wed", "Thu", "Fri", "Sat"];
-const MONTHS = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
-
-/** A calendar day as "Tue 8 Dec 2026" (fixed English names, so print does not depend on the platform's locale data). */
-export function printDate(iso: string): string {
-  const d = new Date(`${iso}T12:00:00Z`);
-  return `${WEEKDAYS[d.getUTCDay()]} ${d.getUTCDate()} ${MONTHS[d.getUTCMonth()]} ${d.getUTCFullYear()}`;
-}
+/** A calendar day as "Tue 8 Dec 2026" (the shared report wording). */
+export const printDate = dayLabel;

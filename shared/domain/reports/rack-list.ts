@@ -201,7 +201,9 @@ export function buildRackList(input: RackListInput): RackCharacterDto[] {
           number: changeNumber(ix, ch.changeId),
           description: input.changeDescriptions.get(ch.changeId) ?? null,
           sceneNumbers: ch.scenes,
-          garments: [...ch.garments.values()].sort((a, b) => a.order - b.order || (a.dto.tagCode ?? "").localeCompare(b.dto.tagCode ?? "")).map((a) => a.dto),
+          garments: [...ch.garments.values()]
+            .sort((a, b) => a.order - b.order || (a.dto.copyNumber ?? 0) - (b.dto.copyNumber ?? 0) || (a.dto.tagCode ?? "").localeCompare(b.dto.tagCode ?? ""))
+            .map((a) => a.dto),
         }),
       ),
     }));
