@@ -172,7 +172,7 @@ describe("continuity book PDF", () => {
     expect(text).toContain("Change 2");
     expect(text).toContain("Scene 3A");
     expect(text).not.toMatch(/Scene 1\b/);
-    // US Letter is 8.5 × 11 in = 612 × 792 pt; A4 is 210 × 297 mm = 595.28 × 841.89 pt (ISO 216).
+    // US Letter is 8.5 × 11 in = 612 × 792 pt (ANSI/ASME Y14.1 size A); A4 is 210 × 297 mm = 595.28 × 841.89 pt (ISO 216).
     expect(await pdfInfo(pdf)).toMatchObject({ width: 612, height: 792 });
     await production.update({ settings: { paperSize: "A4" } });
     const a4 = await pdfInfo(binary(await getPdf(agent, `${base()}/continuity/${ids.wren}.pdf`)));

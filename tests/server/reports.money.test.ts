@@ -280,3 +280,24 @@ describe("budget", () => {
     ]);
   });
 });
+
+describe("production settings for reports", () => {
+  beforeEach(resetDb);
+
+  it("takes a currency code and a paper size, and refuses codes that are not currencies", async () => {
+    const production = await buildProduction();
+    const { user } = await buildMember("supervisor", { production });
+    const agent = await signedInAgent(app, user.email);
+    const url = `/api/productions/${production.id}`;
+
+    const ok = await agent.patch(url, { settings: { currency: "eur", paperSize: "Letter" } });
+    expect(ok.status).toBe(200);
+    expect(ok.body.data.settings).toMatchObject({ currency: "EUR", paperSize: "Letter" });
+
+    // ISO 4217 has no "XYZ"; "A5" is not one of the report papers.
+    const bad = await agent.patch(url, { settings: { currency: "XYZ" } });
+    expect(bad.status).toBe(400);
+    expect(JSON.stringify(bad.body.error.fields)).toMatch(/currency/);
+    expect((await agent.patch(url, { settings: { paperSize: "A5" } })).status).toBe(400);
+  });
+});

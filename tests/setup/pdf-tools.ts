@@ -1,6 +1,6 @@
 /**
  * Reading PDFs the way an outside reader does: poppler-utils (pdftotext, pdfimages, pdfinfo,
- * pdftoppm, installed by .ci/run) and a QR decoder from the ZXing port (@zxing/library).
+ * pdftoppm, installed by .ci/run) and a QR decoder (ISO/IEC 18004) from the ZXing port (@zxing/library).
  */
 import { execFile } from "node:child_process";
 import { mkdtemp, readFile, rm, writeFile } from "node:fs/promises";

@@ -31,6 +31,7 @@ describe("hire weeks", () => {
 });
 
 describe("splitting and grouping costs", () => {
+  // Largest-remainder split of cents: common practice, no source; checked by its defining properties.
   it("splits cents into shares that add up exactly and differ by at most one cent", () => {
     fc.assert(
       fc.property(fc.integer({ min: 0, max: 10_000_000 }), fc.integer({ min: 1, max: 12 }), (cents, n) => {
