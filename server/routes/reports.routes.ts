@@ -1,4 +1,6 @@
+import { pipeline } from "node:stream/promises";
 import { Router, type Response } from "express";
+import { logger } from "../lib/logger.js";
 import { authorize, actorOf } from "../middleware/require-auth.js";
 import {
   budgetCsvQuerySchema,
@@ -34,8 +36,22 @@ const sendCsv = (res: Response, sheet: Sheet, fileName: string) => {
 const sendXlsx = async (res: Response, sheets: Sheet[], fileName: string, title: string) => {
   res.setHeader("Content-Type", "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet");
   res.setHeader("Content-Disposition", `attachment; filename="${fileName}"`);
-  await writeXlsx(sheets, res, { title });
+  await streamed(res, () => writeXlsx(sheets, res, { title }));
 };
+/**
+ * Runs a writer that streams into the response. Once bytes are on the wire an error can no longer
+ * become a JSON error body: it is logged and the connection closed, so the download shows as failed.
+ */
+async function streamed(res: Response, write: () => Promise<unknown>): Promise<void> {
+  try {
+    await write();
+  } catch (err) {
+    if (!res.headersSent) throw err;
+    logger.error({ err }, "report stream failed after it started");
+    res.destroy();
+  }
+}
+
 const sectionSheet: Record<ReturnsSection, string> = { rentals: "Rentals", lost: "Lost", out: "Out", wrap: "Wrap" };
 
 // ---- Continuity books ----
@@ -51,7 +67,7 @@ reportsRouter.get("/continuity/:characterId.pdf", authorize("report.continuity")
   const q = continuityBookQuerySchema.parse(req.query);
   const model = await prepareContinuityBook(actorOf(req), characterId, { changeId: q.changeId, photoSize: q.photos });
   pdfHeaders(res, bookFileName(model));
-  await writeContinuityBook(model, res, q.photos);
+  await streamed(res, () => writeContinuityBook(model, res, q.photos));
 });
 
 reportsRouter.post("/continuity/books", authorize("report.continuity"), async (req, res) => {
@@ -71,7 +87,7 @@ reportsRouter.get("/runs/:runId/file", authorize("report.continuity"), async (re
   res.setHeader("Content-Type", "application/zip");
   res.setHeader("Content-Disposition", `attachment; filename="continuity-books-${run.createdAt.toISOString().slice(0, 10)}.zip"`);
   if (run.bytes) res.setHeader("Content-Length", String(run.bytes));
-  stream.pipe(res);
+  await streamed(res, () => pipeline(stream, res));
 });
 
 // ---- Tomorrow's rack list ----
@@ -83,7 +99,7 @@ reportsRouter.get("/rack-list", authorize("report.rack"), async (req, res) => {
 reportsRouter.get("/rack-list.pdf", authorize("report.rack"), async (req, res) => {
   const list = await rackList(actorOf(req), rackListQuerySchema.parse(req.query));
   pdfHeaders(res, `rack-list-${list.day?.date ?? "none"}.pdf`);
-  await renderRackListPdf(list, res, { paperSize: paperSizeOf(req.production!), productionTitle: req.production!.title, qrUrl: checkOutUrl });
+  await streamed(res, () => renderRackListPdf(list, res, { paperSize: paperSizeOf(req.production!), productionTitle: req.production!.title, qrUrl: checkOutUrl }));
 });
 
 // ---- Returns and wrap ----

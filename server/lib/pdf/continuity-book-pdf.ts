@@ -219,7 +219,9 @@ export async function renderContinuityBook(model: BookModel, out: Writable, opts
     }
     doc.moveTo(left, doc.y + 2).lineTo(left + width, doc.y + 2).lineWidth(0.4).strokeColor(colours.rule).stroke();
     doc.y += 4;
-    await waitForReader(doc);
+    await waitForReader(doc, out);
+    // The reader went away (a closed browser tab): stop laying out pages nobody will read.
+    if (out.destroyed) break;
   }
 
   // Contents, now that every scene's page is known.

@@ -98,7 +98,9 @@ export async function renderRackListPdf(list: RackListDto, out: Writable, opts: 
       doc.y += 3;
     }
     doc.y += 4;
-    await waitForReader(doc);
+    await waitForReader(doc, out);
+    // The reader went away (a closed browser tab): stop laying out pages nobody will read.
+    if (out.destroyed) break;
   }
   stampPages(doc, { left: `${opts.productionTitle} · Rack list`, right: rackDayTitle(list) }, "Tick each garment as it goes on the rack; check it out by scanning its code.");
   const pages = doc.bufferedPageRange().count;

@@ -103,9 +103,12 @@ export function oneLine(doc: PDFKit.PDFDocument, text: string, x: number, y: num
   doc.text(fitText(doc, text, width), x, y, { width, lineBreak: false, align: options.align ?? "left" });
 }
 
-/** Resolves once the document's unread output is below `limitBytes` (the reader has caught up). */
-export async function waitForReader(doc: PDFKit.PDFDocument, limitBytes = 2 * 1024 * 1024): Promise<void> {
-  while (doc.readableLength > limitBytes && !doc.destroyed) await new Promise((r) => setTimeout(r, 5));
+/**
+ * Resolves once the document's unread output is below `limitBytes` (the reader has caught up), or
+ * at once when the reader has gone away (the caller then stops laying out pages).
+ */
+export async function waitForReader(doc: PDFKit.PDFDocument, out: NodeJS.WritableStream & { destroyed?: boolean }, limitBytes = 2 * 1024 * 1024): Promise<void> {
+  while (doc.readableLength > limitBytes && !doc.destroyed && !out.destroyed) await new Promise((r) => setTimeout(r, 5));
 }
 
 /** Short flag words for print. */
