@@ -4,16 +4,17 @@ import { BaseError, UniqueConstraintError, ValidationError as SequelizeValidatio
 import multer from "multer";
 import { HttpError } from "../errors.js";
 import { logger } from "../lib/logger.js";
+import { fieldSentences, issuesToFieldSentences, plainMessage } from "@shared/field-messages.js";
 
 function zodToHttp(err: ZodError): HttpError {
-  const fields: Record<string, string> = {};
-  for (const issue of err.issues) {
-    const key = issue.path.length ? issue.path.join(".") : "_";
-    if (!fields[key]) fields[key] = issue.message;
-  }
-  const [firstKey, firstMsg] = Object.entries(fields)[0] ?? ["_", "Invalid input"];
-  const message = firstKey === "_" ? firstMsg : `${firstKey}: ${firstMsg}`;
-  return new HttpError(400, "validation_error", message, fields);
+  const fields = issuesToFieldSentences(err.issues);
+  return new HttpError(400, "validation_error", Object.values(fields)[0] ?? "The input is not valid.", fields);
+}
+
+/** Field names and predicates in the person's words ("Name is required"), whoever threw the error. */
+function inPlainWords(e: HttpError): HttpError {
+  if (e.status >= 500) return e;
+  return new HttpError(e.status, e.code, plainMessage(e.message), e.fields ? fieldSentences(e.fields) : undefined);
 }
 
 function camel(s: string): string {
@@ -61,7 +62,7 @@ export function toHttpError(err: unknown): HttpError {
 
 /** The one place error responses are written. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
-  const httpError = toHttpError(err);
+  const httpError = inPlainWords(toHttpError(err));
   if (httpError.status >= 500) logger.error({ err, url: req.originalUrl }, "request failed");
   res.status(httpError.status).json({
     error: { code: httpError.code, message: httpError.message, ...(httpError.fields ? { fields: httpError.fields } : {}) },
