@@ -5,6 +5,7 @@ import { InputField, SelectField, TextareaField } from "@/components/ui/field";
 import { ErrorAlert } from "@/components/ui/feedback";
 import { ApiError } from "@/lib/api-client";
 import { useCreateFitting } from "../api/workroom";
+import { fieldErrorsOf } from "@/lib/form-errors";
 
 /** Book a fitting: performer, change, date and time (browser's local time), length, room, who attends. */
 export function FittingForm({ productionId, options, onDone }: { productionId: string; options: WorkroomOptionsDto; onDone: () => void }) {
@@ -35,9 +36,8 @@ export function FittingForm({ productionId, options, onDone }: { productionId: s
     };
     const parsed = createFittingInputSchema.safeParse(input);
     if (!parsed.success) {
-      const errs: Record<string, string> = {};
-      for (const issue of parsed.error.issues) errs[issue.path.join(".")] ??= issue.message;
-      if (errs.startsAt) errs.date = "choose a date and time";
+      const errs = fieldErrorsOf(parsed.error);
+      if (errs.startsAt) errs.date = "Choose a date and time";
       setErrors(errs);
       return;
     }
