@@ -26,9 +26,10 @@ function reword(errors: FieldErrors, path: string[] = []): void {
 /** Wraps a resolver (`zodResolver(schema)`) so its messages name the field as people see it ("E-mail must be an e-mail address"). */
 // eslint-disable-next-line @typescript-eslint/no-explicit-any -- mirrors whatever resolver type zodResolver inferred
 export function formResolver<R extends Resolver<any, any, any>>(inner: R): R {
-  const wrapped = async (...args: Parameters<R>) => {
-    const result = await (inner as (...a: Parameters<R>) => ReturnType<R>)(...args);
-    reword(result.errors as FieldErrors);
+  const call = inner as unknown as (...a: unknown[]) => Promise<{ errors: FieldErrors }> | { errors: FieldErrors };
+  const wrapped = async (...args: unknown[]) => {
+    const result = await call(...args);
+    reword(result.errors);
     return result;
   };
   return wrapped as unknown as R;
