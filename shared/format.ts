@@ -57,6 +57,17 @@ export function calendarDateIn(at: Instant, timeZone: string): string {
   return format(zoned(at, timeZone), "yyyy-MM-dd");
 }
 
+/** "07:00" from a stored time of day ("07:00:00" or "07:00"), such as a shoot day's call time. */
+export function formatClockTime(t: string): string {
+  const m = /^(\d{1,2}):(\d{2})/.exec(t);
+  return m ? `${m[1]!.padStart(2, "0")}:${m[2]}` : t;
+}
+
+/** "Thu 3 Dec 2026": the calendar date of an instant in a time zone (when it happened, without the time). */
+export function formatDateOf(at: Instant, timeZone: string): string {
+  return formatDate(calendarDateIn(at, timeZone));
+}
+
 /** "14:30": the wall-clock time of an instant in a time zone (24-hour). */
 export function formatTime(at: Instant, timeZone: string): string {
   return format(zoned(at, timeZone), TIME);

@@ -13,6 +13,7 @@ import { ImportPanel } from "@/features/breakdown/components/import-panel";
 import { ScenePage } from "@/features/breakdown/components/scene-page";
 import { ApiError } from "@/lib/api-client";
 import { cn } from "@/utils/cn";
+import { formatClockTime, formatDate } from "@shared/format";
 
 /** Breakdown screen: the scene table, shoot days (or running order and performances), import/export, scene pages. */
 export default function BreakdownScreen() {
@@ -72,8 +73,8 @@ function BreakdownHome() {
               {days.data.map((d) => (
                 <li key={d.id} className="rounded border border-chalk-200 p-2 text-sm">
                   <p className="font-semibold text-ink">
-                    {d.kind === "performance" ? `Performance ${d.dayNumber}` : `Day ${d.dayNumber}`} · {d.date}
-                    {d.startsAt ? ` · ${d.startsAt}` : ""} {d.notes ? `· ${d.notes}` : ""}
+                    {d.kind === "performance" ? `Performance ${d.dayNumber}` : `Day ${d.dayNumber}`} · {formatDate(d.date)}
+                    {d.startsAt ? ` · ${formatClockTime(d.startsAt)}` : ""} {d.notes ? `· ${d.notes}` : ""}
                   </p>
                   {d.kind === "shoot" ? (
                     <p>

@@ -3,6 +3,7 @@ import { Link, Route, Routes, useParams } from "react-router";
 import type { ContinuityTimelineDto } from "@shared/schemas/continuity";
 import type { PhotoView } from "@shared/schemas/photos";
 import { useCurrentProduction } from "@/hooks/use-current-production";
+import { formatClockTime, formatDate } from "@shared/format";
 import { PageHeader } from "@/components/ui/page";
 import { Card } from "@/components/ui/card";
 import { Button } from "@/components/ui/button";
@@ -23,11 +24,6 @@ export default function ContinuityScreen() {
   );
 }
 
-function todayIso(): string {
-  const d = new Date();
-  return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, "0")}-${String(d.getDate()).padStart(2, "0")}`;
-}
-
 const VIEW_ORDER: PhotoView[] = ["front", "back", "left", "right", "detail"];
 
 function ContinuityHome() {
@@ -38,14 +34,14 @@ function ContinuityHome() {
   const [sceneId, setSceneId] = useState("");
   const [characterId, setCharacterId] = useState("");
   const stage = production?.kind === "stage";
+  const today = production?.today ?? "";
 
   // Default to today's shoot day, else the next one, else the last.
   useEffect(() => {
-    if (dayId || !days.data?.length) return;
-    const today = todayIso();
+    if (dayId || !days.data?.length || !today) return;
     const pick = days.data.find((d) => d.date === today) ?? days.data.find((d) => d.date > today) ?? days.data[days.data.length - 1]!;
     setDayId(pick.id);
-  }, [days.data, dayId]);
+  }, [days.data, dayId, today]);
   const day = days.data?.find((d) => d.id === dayId);
 
   return (
@@ -61,9 +57,9 @@ function ContinuityHome() {
             <SelectField label={stage ? "Performance" : "Shoot day"} value={dayId} onChange={(e) => { setDayId(e.target.value); setSceneId(""); setCharacterId(""); }}>
               {days.data.map((d) => (
                 <option key={d.id} value={d.id}>
-                  {d.date === todayIso() ? "Today · " : ""}
-                  {d.kind === "performance" ? `Performance ${d.dayNumber}` : `Day ${d.dayNumber}`} · {d.date}
-                  {d.startsAt ? ` ${d.startsAt}` : ""}
+                  {d.date === today ? "Today · " : ""}
+                  {d.kind === "performance" ? `Performance ${d.dayNumber}` : `Day ${d.dayNumber}`} · {formatDate(d.date)}
+                  {d.startsAt ? ` ${formatClockTime(d.startsAt)}` : ""}
                 </option>
               ))}
             </SelectField>

@@ -67,7 +67,7 @@ export default function PerformerMeasurementsPage() {
       {can("measurement.update") && (
         <Card>
           <h2 className="mb-2 font-semibold text-ink">New measurement set</h2>
-          <MeasurementForm productionId={productionId} performerId={performerId} defaultUnit={production.units} today={new Date().toISOString().slice(0, 10)} />
+          <MeasurementForm productionId={productionId} performerId={performerId} defaultUnit={production.units} today={production.today} />
         </Card>
       )}
     </div>

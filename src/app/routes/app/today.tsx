@@ -1,6 +1,7 @@
 import { Link } from "react-router";
-import { format, parseISO } from "date-fns";
+import { calendarDateIn, formatClockTime, formatDate as nice } from "@shared/format";
 import { useCurrentProduction } from "@/hooks/use-current-production";
+import { useProductionTime } from "@/hooks/use-production-time";
 import { PageHeader } from "@/components/ui/page";
 import { Card } from "@/components/ui/card";
 import { Badge, EmptyState, ErrorAlert, Spinner } from "@/components/ui/feedback";
@@ -8,15 +9,12 @@ import { SnagsForDay } from "@/features/snags/components/snags-for-day";
 import { useShootDays } from "@/features/breakdown/api/breakdown";
 import { useFittings, useWorkroomPlan } from "@/features/workroom/api/workroom";
 
-const todayIso = () => format(new Date(), "yyyy-MM-dd");
-const nice = (iso: string) => format(parseISO(iso), "EEE d MMM yyyy");
-
 /** The next shoot day (or performance) with its scenes. */
 function NextDay({ productionId, stage }: { productionId: string; stage: boolean }) {
   const days = useShootDays(productionId);
+  const { today } = useProductionTime();
   if (days.isPending) return <Spinner />;
   if (days.error) return <ErrorAlert error={days.error} />;
-  const today = todayIso();
   const kind = stage ? "performance" : "shoot";
   const next = days.data.filter((d) => d.kind === kind && d.date >= today).sort((a, b) => a.date.localeCompare(b.date) || a.dayNumber - b.dayNumber)[0];
   if (!next) return <EmptyState title={stage ? "No performances ahead" : "No shoot days ahead"}>Add them on the Breakdown screen.</EmptyState>;
@@ -24,7 +22,7 @@ function NextDay({ productionId, stage }: { productionId: string; stage: boolean
     <div>
       <p className="font-semibold text-ink-900">
         {next.date === today ? "Today" : nice(next.date)} · {stage ? "performance" : `shoot day ${next.dayNumber}`}
-        {next.startsAt ? ` · ${next.startsAt.slice(0, 5)}` : ""}
+        {next.startsAt ? ` · ${formatClockTime(next.startsAt)}` : ""}
       </p>
       {next.notes && <p className="text-sm text-slate">{next.notes}</p>}
       <ul className="mt-2 divide-y divide-chalk-200 text-sm" aria-label="Scenes of the next day">
@@ -47,10 +45,10 @@ function NextDay({ productionId, stage }: { productionId: string; stage: boolean
 /** Fittings from today on (the next few). */
 function UpcomingFittings({ productionId }: { productionId: string }) {
   const fittings = useFittings(productionId);
+  const { today, timeZone, dateTime } = useProductionTime();
   if (fittings.isPending) return <Spinner />;
   if (fittings.error) return <ErrorAlert error={fittings.error} />;
-  const today = todayIso();
-  const next = fittings.data.filter((f) => f.status === "booked" && f.startsAt.slice(0, 10) >= today).sort((a, b) => a.startsAt.localeCompare(b.startsAt)).slice(0, 5);
+  const next = fittings.data.filter((f) => f.status === "booked" && calendarDateIn(f.startsAt, timeZone) >= today).sort((a, b) => a.startsAt.localeCompare(b.startsAt)).slice(0, 5);
   if (!next.length) return <p className="text-sm text-slate">No fittings booked from today on.</p>;
   return (
     <ul className="divide-y divide-chalk-200 text-sm" aria-label="Upcoming fittings">
@@ -60,7 +58,7 @@ function UpcomingFittings({ productionId }: { productionId: string }) {
             {f.performerName}
           </Link>{" "}
           <span className="text-slate">
-            · {format(new Date(f.startsAt), "EEE d MMM, HH:mm")} · {f.room ?? "room not set"}
+            · {dateTime(f.startsAt)} · {f.room ?? "room not set"}
             {f.changeLabel ? ` · ${f.changeLabel}` : ""}
           </span>
         </li>
@@ -101,7 +99,7 @@ export default function TodayPage() {
   const stage = production.kind === "stage";
   return (
     <div className="grid gap-4">
-      <PageHeader title="Today" subtitle={`${production.title} · ${nice(todayIso())}`} />
+      <PageHeader title="Today" subtitle={`${production.title} · ${nice(production.today)}`} />
       <div className="grid gap-4 lg:grid-cols-2">
         {can("breakdown.read") && (
           <Card>

@@ -7,6 +7,7 @@ import { Card } from "@/components/ui/card";
 import { InputField, SelectField } from "@/components/ui/field";
 import { Badge, ErrorAlert } from "@/components/ui/feedback";
 import { useFabricOptions, useMarker, usePanels, useSaveMarker } from "../api/doubles";
+import { useProductionTime } from "@/hooks/use-production-time";
 
 const cm = (mm: number) => `${(mm / 10).toFixed(1)} cm`;
 
@@ -37,6 +38,7 @@ export function YardageTab({ productionId, change, canEdit }: { productionId: st
   const fabrics = useFabricOptions(productionId);
   const saved = useMarker(productionId, { scope, scopeId, multiples });
   const save = useSaveMarker(productionId);
+  const { dateTime } = useProductionTime();
   const [progress, setProgress] = useState<{ done: number; total: number } | null>(null);
   const [result, setResult] = useState<YardageFabricResult[] | null>(null);
   const [error, setError] = useState<string | null>(null);
@@ -98,7 +100,7 @@ export function YardageTab({ productionId, change, canEdit }: { productionId: st
         {error && <ErrorAlert error={error} title="Could not lay the marker" />}
         {save.error && <ErrorAlert error={save.error} title="Not saved" />}
         {!result && saved.data && (
-          <p className="mt-2 text-sm text-slate">Saved marker from {new Date(saved.data.createdAt).toLocaleString()} {saved.data.current ? "" : <Badge tone="warning">panels changed since</Badge>}</p>
+          <p className="mt-2 text-sm text-slate">Saved marker from {dateTime(saved.data.createdAt)} {saved.data.current ? "" : <Badge tone="warning">panels changed since</Badge>}</p>
         )}
       </Card>
       {shown?.map((r) => (

@@ -3,6 +3,7 @@ import { Card } from "@/components/ui/card";
 import { ErrorAlert, Spinner } from "@/components/ui/feedback";
 import { useSnags } from "../api/snags";
 import { SnagCard } from "./snag-card";
+import { formatDate } from "@shared/format";
 
 /** The open snags of the next shoot day (or performance), compact, with a link to the Snags screen. */
 export function SnagsForDay({ productionId, max = 8 }: { productionId: string; max?: number }) {
@@ -11,7 +12,7 @@ export function SnagsForDay({ productionId, max = 8 }: { productionId: string; m
   return (
     <Card role="region" aria-label="Snags for the next day">
       <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
-        <h2 className="font-semibold text-ink">Snags{day ? ` for ${day.kind === "performance" ? "the performance" : "shoot day"} ${day.date}` : ""}</h2>
+        <h2 className="font-semibold text-ink">Snags{day ? ` for ${day.kind === "performance" ? "the performance" : "shoot day"} ${formatDate(day.date)}` : ""}</h2>
         <Link to={`/p/${productionId}/snags`} className="text-sm font-semibold text-ink underline-offset-2 hover:underline">
           All snags
         </Link>
