@@ -12,8 +12,3 @@ export function zonedParts(instant: Date, timeZone: string): { date: string; hou
   const get = (t: string) => parts.find((p) => p.type === t)?.value ?? "00";
   return { date: `${get("year")}-${get("month")}-${get("day")}`, hour: Number(get("hour")), minute: Number(get("minute")) };
 }
-
-/** "Mon 30 Nov 2026, 10:00" in the given zone, for e-mails. */
-export function formatZoned(instant: Date, timeZone: string): string {
-  return new Intl.DateTimeFormat("en-GB", { timeZone, weekday: "short", day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", hourCycle: "h23" }).format(instant);
-}
