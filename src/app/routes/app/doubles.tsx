@@ -17,6 +17,7 @@ import { PacketBuilder } from "@/features/doubles/components/packet-builder";
 import { PacketDetail } from "@/features/doubles/components/packet-detail";
 import { VfxPackets } from "@/features/doubles/components/vfx-packets";
 import { useProductionTime } from "@/hooks/use-production-time";
+import { onTabListKeyDown } from "@/components/ui/tabs";
 
 const tabs = [
   { key: "panels", label: "Panels" },
@@ -47,7 +48,7 @@ function DoublesWorkspace() {
             <option key={c.id} value={c.id}>{c.characterName}: change {c.number}{c.description ? ` (${c.description.slice(0, 40)})` : ""}</option>
           ))}
         </SelectField>
-        <div role="tablist" aria-label="Doubles sections" className="flex flex-wrap gap-2">
+        <div role="tablist" aria-label="Doubles sections" onKeyDown={onTabListKeyDown} className="flex flex-wrap gap-2">
           {tabs.map((t) => (
             <Button key={t.key} role="tab" aria-selected={tab === t.key} variant={tab === t.key ? "primary" : "secondary"} onClick={() => set("tab", t.key)}>
               {t.label}

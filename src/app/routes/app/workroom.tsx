@@ -16,6 +16,7 @@ import { TicketsTable } from "@/features/workroom/components/tickets-table";
 import { CapacityEditor } from "@/features/workroom/components/capacity-editor";
 import { WorkroomCalendar } from "@/features/workroom/components/workroom-calendar";
 import { EmailFailures } from "@/features/workroom/components/email-failures";
+import { onTabListKeyDown } from "@/components/ui/tabs";
 
 const TABS = [
   { key: "fittings", label: "Fittings" },
@@ -81,20 +82,21 @@ function Overview() {
         </Card>
       )}
 
-      <nav aria-label="Workroom sections" className="flex flex-wrap gap-1 border-b border-chalk-200">
+      <div role="tablist" aria-label="Workroom sections" onKeyDown={onTabListKeyDown} className="flex flex-wrap gap-1 border-b border-chalk-200">
         {TABS.map((t) => (
           <button
             key={t.key}
             type="button"
             role="tab"
             aria-selected={tab === t.key}
+            tabIndex={tab === t.key ? 0 : -1}
             onClick={() => setParam({ tab: t.key })}
             className={cn("min-h-11 rounded-t-md px-4 text-sm font-semibold", tab === t.key ? "bg-white text-ink border border-b-0 border-chalk-200" : "text-slate hover:text-ink")}
           >
             {t.label}
           </button>
         ))}
-      </nav>
+      </div>
 
       {tab === "fittings" && <Card>{fittings.isPending ? <Spinner /> : fittings.error ? <ErrorAlert error={fittings.error} /> : <FittingsList productionId={productionId} fittings={fittings.data} />}</Card>}
 

@@ -16,7 +16,7 @@ function MarkerResult({ r }: { r: MarkerFabricResultDto | YardageFabricResult })
   const svg = markerToSvg(r as NestResult);
   return (
     <div className="grid gap-2" aria-label={`Marker for ${r.fabricName}`}>
-      <h3 className="font-semibold text-ink">{r.fabricName}</h3>
+      <h2 className="font-semibold text-ink">{r.fabricName}</h2>
       <dl className="grid grid-cols-2 gap-x-4 text-sm sm:grid-cols-5">
         <div><dt className="text-xs text-slate">Marker length</dt><dd className="font-semibold">{cm(r.markerLengthMm)} ({(r.markerLengthMm / 914.4).toFixed(2)} yd)</dd></div>
         <div><dt className="text-xs text-slate">Efficiency</dt><dd className="font-semibold">{(r.efficiency * 100).toFixed(1)} %</dd></div>

@@ -76,7 +76,7 @@ export function CapacityEditor(props: { productionId: string; people: CapacityDt
                 </th>
               ))}
               <th className="px-1 py-2">Days off</th>
-              <th />
+              <th className="px-1 py-2"><span className="sr-only">Actions</span></th>
             </tr>
           </thead>
           <tbody>
