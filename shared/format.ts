@@ -52,6 +52,26 @@ export function formatDateRange(start: CalendarDay, end: CalendarDay): string {
   return `${format(a, "d")} – ${format(b, "d MMM yyyy")}`;
 }
 
+/** "2026-12-03": the ISO calendar date of a Date's own (local) fields, for addresses and inputs, not for reading. */
+export function isoDateOf(d: Date): string {
+  return format(d, "yyyy-MM-dd");
+}
+
+/** "14:30" from a Date's own (local) fields: for wall-clock Dates made by `wallClockOf`. */
+export function formatWallTime(d: Date): string {
+  return format(d, TIME);
+}
+
+/** "Mon 30": weekday and day of the month, for calendar columns under a heading that gives month and year. */
+export function formatWeekdayDay(d: CalendarDay): string {
+  return format(day(d), "EEE d");
+}
+
+/** "Mon" (weekday) of a calendar date. */
+export function formatWeekday(d: CalendarDay): string {
+  return format(day(d), "EEE");
+}
+
 /** The calendar date (YYYY-MM-DD) of an instant in a time zone. */
 export function calendarDateIn(at: Instant, timeZone: string): string {
   return format(zoned(at, timeZone), "yyyy-MM-dd");

@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { Route, Routes, useParams, useSearchParams } from "react-router";
-import { format, parseISO, isValid } from "date-fns";
+import { parseISO, isValid } from "date-fns";
+import { isoDateOf } from "@shared/format";
 import type { View } from "react-big-calendar";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { PageHeader } from "@/components/ui/page";
@@ -32,7 +33,8 @@ function Overview() {
   const tab = (TABS.some((t) => t.key === params.get("tab")) ? params.get("tab") : "fittings") as Tab;
   const from = params.get("from") ?? undefined;
   const dateParam = params.get("date");
-  const calDate = dateParam && isValid(parseISO(dateParam)) ? parseISO(dateParam) : new Date();
+  // The calendar opens on the production's today (from the server's clock), not the browser's.
+  const calDate = dateParam && isValid(parseISO(dateParam)) ? parseISO(dateParam) : production?.today ? parseISO(production.today) : null;
   const calView = (["month", "week", "day"].includes(params.get("view") ?? "") ? params.get("view") : "week") as View;
   const [booking, setBooking] = useState(false);
   const plan = useWorkroomPlan(productionId, from);
@@ -121,7 +123,7 @@ function Overview() {
       )}
 
       {tab === "calendar" &&
-        (plan.isPending || fittings.isPending ? (
+        (plan.isPending || fittings.isPending || !calDate || !production ? (
           <Spinner />
         ) : plan.error || fittings.error ? (
           <ErrorAlert error={plan.error ?? fittings.error} />
@@ -133,7 +135,9 @@ function Overview() {
             canMoveFittings={can("fitting.update")}
             date={calDate}
             view={calView}
-            onNavigate={(d, v) => setParam({ date: format(d, "yyyy-MM-dd"), view: v })}
+            timeZone={production.timeZone}
+            today={production.today}
+            onNavigate={(d, v) => setParam({ date: isoDateOf(d), view: v })}
           />
         ))}
 
