@@ -16,7 +16,9 @@ export interface PageResult {
 export async function settle(page: Page): Promise<void> {
   await page.waitForLoadState("networkidle").catch(() => undefined);
   await page.locator('[role="status"][aria-busy="true"], .animate-spin').first().waitFor({ state: "detached", timeout: 10_000 }).catch(() => undefined);
-  await page.waitForTimeout(150);
+  // Colour transitions (a button turning primary) must end before contrast is measured.
+  await page.waitForFunction(() => document.getAnimations().every((a) => a.playState !== "running"), undefined, { timeout: 5_000 }).catch(() => undefined);
+  await page.waitForTimeout(100);
 }
 
 async function check(page: Page, name: string, out: PageResult[]): Promise<void> {

@@ -38,7 +38,7 @@ export function ProductionSwitcher({ productionId, productions, onOpen, onNew }:
       <select
         id="production-switcher"
         aria-describedby={pending ? "production-switcher-hint" : undefined}
-        className="max-w-[14rem] rounded-md border border-chalk/30 bg-ink-700 px-2 py-1 text-sm text-chalk outline-none focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-chalk"
+        className="max-w-[14rem] rounded-md border border-chalk/30 bg-ink-700 px-2 py-1 text-sm text-chalk focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-chalk focus-visible:outline-solid"
         value={choice}
         onPointerDown={() => (lastInput.current = "pointer")}
         onKeyDown={(e) => {
@@ -66,7 +66,7 @@ export function ProductionSwitcher({ productionId, productions, onOpen, onNew }:
       </select>
       {pending && (
         <>
-          <button type="submit" className="rounded-md bg-chalk px-2 py-1 text-sm font-semibold text-ink outline-none focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-chalk">
+          <button type="submit" className="rounded-md bg-chalk px-2 py-1 text-sm font-semibold text-ink focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-chalk focus-visible:outline-solid">
             Open
           </button>
           <span id="production-switcher-hint" className="sr-only" role="status">

@@ -149,6 +149,9 @@ function WorkroomToolbar({ date, view, onNavigate, onView }: ToolbarProps<CalEve
   );
 }
 
+// One object for the component's slots, so a re-render never hands it new ones.
+const components = { toolbar: WorkroomToolbar, header: ColumnHeading, month: { dateHeader: MonthDayNumber } };
+
 /**
  * Shoot days, fittings and planned work blocks in month, week and day views; drag a fitting to move it.
  * Times are drawn in the production's time zone, and "today" is the production's, from the server.
@@ -246,7 +249,7 @@ export function WorkroomCalendar(props: {
           getNow={getNow}
           formats={formats}
           messages={messages}
-          components={{ toolbar: WorkroomToolbar, header: ColumnHeading, month: { dateHeader: MonthDayNumber } }}
+          components={components}
           onNavigate={(d) => props.onNavigate(d, props.view)}
           onView={(v) => props.onNavigate(props.date, v)}
           startAccessor="start"
