@@ -18,7 +18,7 @@ describe("continuity on a phone", () => {
     await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/continuity`);
     const daySelect = page.getByLabel("Shoot day");
     await daySelect.waitFor();
-    const value = await daySelect.locator("option", { hasText: "Day 2 · 2026-12-01" }).getAttribute("value");
+    const value = await daySelect.locator("option", { hasText: /Day 2 · / }).getAttribute("value");
     await daySelect.selectOption(value!);
     await page.getByRole("button", { name: "Sc 1", exact: true }).click();
     const character = page.getByRole("button", { name: new RegExp(characters.elias.name) });

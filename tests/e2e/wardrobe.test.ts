@@ -26,7 +26,7 @@ describe("measurements as the demo cutter", () => {
     await form.getByText("Saved.").waitFor();
 
     const history = page.getByRole("table", { name: "Measurement history" });
-    await history.getByText("2026-12-30 (current)").waitFor();
+    await history.getByText("Wed 30 Dec 2026 (current)").waitFor();
     const chestRow = history.getByRole("row", { name: /Chest girth/ });
     // 40 in × 25.4 = 1016 mm exactly → 101.6 cm in the production's unit.
     expect(await chestRow.locator("td").first().textContent()).toContain("101.6 cm");
