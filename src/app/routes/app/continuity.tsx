@@ -27,14 +27,13 @@ export default function ContinuityScreen() {
 const VIEW_ORDER: PhotoView[] = ["front", "back", "left", "right", "detail"];
 
 function ContinuityHome() {
-  const { productionId, production, can } = useCurrentProduction();
+  const { productionId, production, can, today } = useCurrentProduction();
   const days = useShootDays(productionId);
   const characters = useCharacters(productionId);
   const [dayId, setDayId] = useState("");
   const [sceneId, setSceneId] = useState("");
   const [characterId, setCharacterId] = useState("");
   const stage = production?.kind === "stage";
-  const today = production?.today ?? "";
 
   // Default to today's shoot day, else the next one, else the last.
   useEffect(() => {

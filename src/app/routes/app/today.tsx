@@ -10,9 +10,8 @@ import { useShootDays } from "@/features/breakdown/api/breakdown";
 import { useFittings, useWorkroomPlan } from "@/features/workroom/api/workroom";
 
 /** The next shoot day (or performance) with its scenes. */
-function NextDay({ productionId, stage }: { productionId: string; stage: boolean }) {
+function NextDay({ productionId, stage, today }: { productionId: string; stage: boolean; today: string }) {
   const days = useShootDays(productionId);
-  const { today } = useProductionTime();
   if (days.isPending) return <Spinner />;
   if (days.error) return <ErrorAlert error={days.error} />;
   const kind = stage ? "performance" : "shoot";
@@ -43,9 +42,9 @@ function NextDay({ productionId, stage }: { productionId: string; stage: boolean
 }
 
 /** Fittings from today on (the next few). */
-function UpcomingFittings({ productionId }: { productionId: string }) {
+function UpcomingFittings({ productionId, today }: { productionId: string; today: string }) {
   const fittings = useFittings(productionId);
-  const { today, timeZone, dateTime } = useProductionTime();
+  const { timeZone, dateTime } = useProductionTime();
   if (fittings.isPending) return <Spinner />;
   if (fittings.error) return <ErrorAlert error={fittings.error} />;
   const next = fittings.data.filter((f) => f.status === "booked" && calendarDateIn(f.startsAt, timeZone) >= today).sort((a, b) => a.startsAt.localeCompare(b.startsAt)).slice(0, 5);
@@ -94,7 +93,7 @@ function WorkDue({ productionId }: { productionId: string }) {
 
 /** The next shoot day or performance at a glance: scenes, snags, fittings and work due. */
 export default function TodayPage() {
-  const { production, productionId, can } = useCurrentProduction();
+  const { production, productionId, can, today } = useCurrentProduction();
   if (!production) return <Spinner />;
   const stage = production.kind === "stage";
   return (
@@ -104,14 +103,14 @@ export default function TodayPage() {
         {can("breakdown.read") && (
           <Card>
             <h2 className="mb-2 font-semibold text-ink">{stage ? "Next performance" : "Next shoot day"}</h2>
-            <NextDay productionId={productionId} stage={stage} />
+            <NextDay productionId={productionId} stage={stage} today={today} />
           </Card>
         )}
         {can("snag.read") && <SnagsForDay productionId={productionId} />}
         {can("fitting.read") && (
           <Card>
             <h2 className="mb-2 font-semibold text-ink">Fittings</h2>
-            <UpcomingFittings productionId={productionId} />
+            <UpcomingFittings productionId={productionId} today={today} />
           </Card>
         )}
         {can("alteration.read") && (

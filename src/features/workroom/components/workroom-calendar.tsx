@@ -6,9 +6,10 @@ import { enGB } from "date-fns/locale";
 import "react-big-calendar/lib/css/react-big-calendar.css";
 import "react-big-calendar/lib/addons/dragAndDrop/styles.css";
 import type { FittingDto, WorkroomPlanDto } from "@shared/schemas/workroom";
-import { formatDate, formatDateRange, formatHours, formatMonth, formatWallTime, formatWeekday, formatWeekdayDay, instantFromWallClock, wallClockOf } from "@shared/format";
+import { formatDate, formatDateRange, formatDateTime, formatHours, formatMonth, formatWallTime, formatWeekday, formatWeekdayDay, instantFromWallClock, wallClockOf } from "@shared/format";
 import { Button } from "@/components/ui/button";
 import { ErrorAlert } from "@/components/ui/feedback";
+import { ConfirmDialog } from "@/components/ui/dialog";
 import { controlClass } from "@/components/ui/field";
 import { cn } from "@/utils/cn";
 import { useUpdateFitting } from "../api/workroom";
@@ -174,6 +175,8 @@ export function WorkroomCalendar(props: {
   const move = useUpdateFitting(props.productionId);
   const gridRef = useRef<HTMLDivElement>(null);
   useFlattenedGridRoles(gridRef);
+  // A drop only proposes the new time: the performer is e-mailed, so it is confirmed first.
+  const [pending, setPending] = useState<{ fitting: FittingDto; startsAt: Date } | null>(null);
 
   const events = useMemo<CalEvent[]>(() => {
     const out: CalEvent[] = [];
@@ -205,10 +208,14 @@ export function WorkroomCalendar(props: {
 
   const onDrop = ({ event, start }: EventInteractionArgs<CalEvent>) => {
     if (event.kind !== "fitting" || !event.fitting) return;
+    // The grid works in wall-clock time; the instant is that time in the production's zone.
     const wall = new Date(start);
     if (event.allDay || Number.isNaN(wall.getTime())) return;
-    move.mutate({ id: event.fitting.id, startsAt: instantFromWallClock(wall, timeZone).toISOString() });
+    const startsAt = instantFromWallClock(wall, timeZone);
+    if (startsAt.getTime() === new Date(event.fitting.startsAt).getTime()) return;
+    setPending({ fitting: event.fitting, startsAt });
   };
+  const when = (d: Date) => formatDateTime(d, timeZone);
 
   return (
     // min-w-0: the month grid's unbroken event titles must not widen the page.
@@ -238,6 +245,17 @@ export function WorkroomCalendar(props: {
         Times in {timeZone}.{props.canMoveFittings ? " Drag a fitting to move it; the performer gets an update." : ""}
       </p>
       {move.error && <ErrorAlert error={move.error} title="Fitting not moved" />}
+      <ConfirmDialog
+        open={Boolean(pending)}
+        title={pending ? `Move the fitting with ${pending.fitting.performerName}?` : ""}
+        confirmLabel="Move and e-mail"
+        busy={move.isPending}
+        onCancel={() => setPending(null)}
+        onConfirm={() => pending && move.mutate({ id: pending.fitting.id, startsAt: pending.startsAt.toISOString() }, { onSettled: () => setPending(null) })}
+      >
+        {pending && `From ${when(new Date(pending.fitting.startsAt))} to ${when(pending.startsAt)}. `}
+        {pending?.fitting.performerEmail ? `${pending.fitting.performerName} is e-mailed the new time at ${pending.fitting.performerEmail}.` : "The performer has no e-mail on file; tell them yourself."}
+      </ConfirmDialog>
       <div ref={gridRef} className="workroom-calendar h-[36rem] rounded-lg border border-chalk-200 bg-white p-2 md:h-[44rem]" aria-label="Workroom calendar" role="region">
         <DnDCalendar
           localizer={localizer}
