@@ -199,7 +199,9 @@ export function fieldLabel(path: string | readonly (string | number)[]): string 
   return leaf;
 }
 
-// Predicates that read on from a field's name ("Name is required"); anything else follows a colon.
+// Predicates that read on from a field's name ("Name is required"); an instruction ("choose a password") stands
+// as its own sentence; anything else follows a colon.
+const INSTRUCTS = /^(choose|give|enter|record|add|use|pick|select|write|type|remove|describe)\b/;
 const CONTINUES = /^(is|are|must|cannot|can|can't|has|have|needs|need|should|was|were|does|do|did|names|lists|contains|belongs|uses|will|may|already|only|doesn't|isn't)\b/;
 
 /**
@@ -211,6 +213,7 @@ export function fieldSentence(path: string | readonly (string | number)[], predi
   const p = predicate.trim();
   const label = fieldLabel(path);
   if (!label || /^[A-Z]/.test(p)) return p ? p[0]!.toUpperCase() + p.slice(1) : label;
+  if (INSTRUCTS.test(p)) return sentenceCase(p);
   return CONTINUES.test(p) ? `${label} ${p}` : `${label}: ${p}`;
 }
 

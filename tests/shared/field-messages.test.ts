@@ -34,6 +34,10 @@ describe("fieldSentence", () => {
     expect(fieldSentence("garmentId", "no such garment in this production")).toBe("Garment: no such garment in this production");
   });
 
+  it("lets an instruction stand as its own sentence", () => {
+    expect(fieldSentence("password", "choose a password")).toBe("Choose a password");
+  });
+
   it("keeps a message that is already a sentence", () => {
     expect(fieldSentence("values.waist_girth", "Waist girth 5000 mm is above the plausible maximum of 1800 mm")).toBe("Waist girth 5000 mm is above the plausible maximum of 1800 mm");
   });
