@@ -1,5 +1,6 @@
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-errors";
 import { z } from "zod";
 import { DEFAULT_CURRENCY, DEFAULT_PAPER_SIZE, type ProductionDto } from "@shared/schemas/productions";
 import { useUpdateProduction } from "../api/productions";
@@ -30,7 +31,7 @@ export function ProductionSettingsForm({ production }: { production: ProductionD
   const update = useUpdateProduction(production.id);
   const s = production.settings;
   const form = useForm<FormValues>({
-    resolver: zodResolver(formSchema),
+    resolver: formResolver(zodResolver(formSchema)),
     defaultValues: {
       title: production.title,
       startsOn: production.startsOn ?? "",
