@@ -15,6 +15,7 @@ import { pointInPolygon, pointSegmentDistance, polygonArea, perimeter, boundingB
 import { CHORD_TOLERANCE_MM, flattenArc, flattenBulge, flattenEllipse, flattenNurbs, nurbsProblem } from "./curves";
 import { ASTM_ROLE_LABEL, ASTM_TEXT_LABEL, astmLayerRole, splitLabelledText, type AstmLayerRole } from "./astm-d6673";
 import { sewLineFromCutLine } from "./offset";
+import { DXF_UNITS, INSUNITS, type DxfUnit } from "./dxf-units";
 
 export { panelsToDxf } from "./dxf-writer";
 
@@ -27,11 +28,7 @@ const MIN_PIECE_AREA_MM2 = 100;
 /** INSERTs nested deeper than this are not followed (a block that places itself would never end). */
 const MAX_INSERT_DEPTH = 8;
 
-/** Drawing units a DXF may use, with their size in millimetres. */
-export const DXF_UNITS = { mm: 1, cm: 10, m: 1000, in: 25.4, ft: 304.8 } as const;
-export type DxfUnit = keyof typeof DXF_UNITS;
-/** $INSUNITS codes of the DXF header. */
-const INSUNITS: Record<number, DxfUnit> = { 1: "in", 2: "ft", 4: "mm", 5: "cm", 6: "m" };
+export { DXF_UNITS, type DxfUnit } from "./dxf-units";
 
 /** Options for {@link readDxfPieces}. */
 export interface DxfReadOptions {
