@@ -10,6 +10,7 @@ import { noPieceReason, type DxfImport, type DxfPiece } from "@shared/domain/pan
 import { Limits } from "@shared/constants.js";
 import type { PanelShape } from "@shared/domain/panels/geometry.js";
 import { runHeavy } from "../lib/worker-pool.js";
+import { rememberCutArea } from "./panel-cut-area.js";
 
 /** Changes of the production with their garments and panel counts, for the doubles screen's picker. */
 export async function listDoublesChanges(actor: Actor): Promise<DoublesChangeDto[]> {
@@ -218,8 +219,7 @@ export async function importDxfPanels(actor: Actor, input: DxfImportFields, buff
     let order = await nextSortOrder(garment.id, transaction);
     const created: Panel[] = [];
     for (const p of pieces) {
-      created.push(
-        await Panel.create(
+      const panel = await Panel.create(
           {
             productionId: actor.productionId,
             garmentId: garment.id,
@@ -236,8 +236,10 @@ export async function importDxfPanels(actor: Actor, input: DxfImportFields, buff
             sortOrder: order++,
           },
           { transaction },
-        ),
-      );
+        );
+      // The worker already offset the outline; the response then needs no clipper work on this thread.
+      if (panel.seamAllowanceMm === p.seamAllowanceMm) rememberCutArea(panel, p.cutAreaMm2);
+      created.push(panel);
     }
     await recordAudit(
       { productionId: actor.productionId, actorId: actor.user.id, action: "panel.import_dxf", entityType: "garment", entityId: garment.id, after: { pieces: created.map((c) => c.name), units: read.units.unit, convention: read.convention } },

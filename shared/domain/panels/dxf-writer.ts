@@ -153,9 +153,13 @@ export function panelsToDxf(panels: readonly PanelShape[]): string {
       if (allowance > 0) line(ASTM_LAYER.notches, [p[0] + ox * allowance, p[1] + oy * allowance], p);
       else line(ASTM_LAYER.notches, p, [p[0] - ox * NOTCH_DEPTH_MM, p[1] - oy * NOTCH_DEPTH_MM]);
     }
-    text(ASTM_LAYER.cutLine, interiorPoint(sew, 0), `${ASTM_TEXT_LABEL.pieceName}: ${panel.name}`);
-    text(ASTM_LAYER.cutLine, interiorPoint(sew, 1), `${ASTM_TEXT_LABEL.quantity}: ${panel.cutCount}`);
-    if (panel.mirrored) text(ASTM_LAYER.annotation, interiorPoint(sew, 2), `${ASTM_TEXT_LABEL.annotation}: ${MIRRORED_ANNOTATION}`);
+    // Texts stacked from a point inside the piece (the block holds this one piece, so readers that go by
+    // block find them wherever they fall).
+    const at = interiorPoint(sew, 0);
+    const below = (k: number): Point => [at[0], at[1] - k * 1.5 * TEXT_HEIGHT_MM];
+    text(ASTM_LAYER.cutLine, below(0), `${ASTM_TEXT_LABEL.pieceName}: ${panel.name}`);
+    text(ASTM_LAYER.cutLine, below(1), `${ASTM_TEXT_LABEL.quantity}: ${panel.cutCount}`);
+    if (panel.mirrored) text(ASTM_LAYER.annotation, below(2), `${ASTM_TEXT_LABEL.annotation}: ${MIRRORED_ANNOTATION}`);
     g(0, "ENDBLK");
     g(8, "0");
   });

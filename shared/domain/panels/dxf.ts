@@ -14,7 +14,7 @@ import { Limits } from "../../constants";
 import { pointInPolygon, pointSegmentDistance, polygonArea, perimeter, boundingBox, validatePolygon, type Notch, type PanelShape, type Point } from "./geometry";
 import { CHORD_TOLERANCE_MM, flattenArc, flattenBulge, flattenEllipse, flattenNurbs, nurbsProblem } from "./curves";
 import { ASTM_ROLE_LABEL, ASTM_TEXT_LABEL, astmLayerRole, splitLabelledText, type AstmLayerRole } from "./astm-d6673";
-import { sewLineFromCutLine } from "./offset";
+import { cutLineFromSewLine, sewLineFromCutLine } from "./offset";
 import { DXF_UNITS, INSUNITS, type DxfUnit } from "./dxf-units";
 
 export { panelsToDxf } from "./dxf-writer";
@@ -63,6 +63,8 @@ export interface DxfPiece extends PanelShape {
   problems: string[];
   importable: boolean;
   areaMm2: number;
+  /** Area inside the cut line Seamscene draws (sew line offset by the allowance), mm². */
+  cutAreaMm2: number;
   perimeterMm: number;
   widthMm: number;
   heightMm: number;
@@ -792,7 +794,8 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
     if (d.cut && d.sew) {
       outline = d.sew.pts;
       const a = measureAllowance(d.cut.pts, d.sew.pts);
-      seamAllowanceMm = Math.round(a.median * 100) / 100;
+      // Stored to 0.1 mm, as the panel record keeps it.
+      seamAllowanceMm = Math.round(a.median * 10) / 10;
       seamAllowanceFrom = "file";
       recognised.push(`cut line: ${label(d.cut)}`, `sew line: ${label(d.sew)}`, `seam allowance ${mmText(seamAllowanceMm)}, measured between the cut and sew lines`);
       if (a.high - a.low > 0.5) {
@@ -890,6 +893,14 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
     const check = validatePolygon(outline);
     if (!check.valid) problems.push(...check.issues.map((x) => x.message));
     const bb = boundingBox(outline);
+    let cutAreaMm2 = polygonArea(outline);
+    if (check.valid && seamAllowanceMm > 0) {
+      try {
+        cutAreaMm2 = polygonArea(cutLineFromSewLine(outline, seamAllowanceMm));
+      } catch {
+        // An outline clipper cannot offset keeps its sew-line area, as the panel list does.
+      }
+    }
     return {
       id: `piece-${index + 1}`,
       name,
@@ -906,6 +917,7 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
       problems,
       importable: problems.length === 0,
       areaMm2: polygonArea(outline),
+      cutAreaMm2,
       perimeterMm: perimeter(outline),
       widthMm: bb.width,
       heightMm: bb.height,

@@ -9,6 +9,8 @@ export interface CanvasPanel {
   grainline: [[number, number], [number, number]] | null;
   notches: { point: [number, number]; edge: number }[];
   seamAllowanceMm: number;
+  /** A cut line to draw as it is (e.g. from an imported file); otherwise it is offset from the sew line. */
+  cutLine?: [number, number][] | null;
 }
 
 const n1 = (v: number) => Math.round(v * 10) / 10;
@@ -21,8 +23,8 @@ const n1 = (v: number) => Math.round(v * 10) / 10;
 export function PanelCanvas({ panel, height = 320, showVertices = true, onAddPoint, label }: { panel: CanvasPanel; height?: number; showVertices?: boolean; onAddPoint?: (p: [number, number]) => void; label?: string }) {
   const drawn = useMemo(() => {
     const valid = panel.outline.length >= 3 && validatePolygon(panel.outline as Point[]).valid;
-    let cut: Point[] | null = null;
-    if (valid && panel.seamAllowanceMm > 0) {
+    let cut: Point[] | null = panel.cutLine ?? null;
+    if (!cut && valid && panel.seamAllowanceMm > 0) {
       try {
         cut = cutLineFromSewLine(panel.outline, panel.seamAllowanceMm);
       } catch {
