@@ -645,7 +645,11 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
   try {
     dxf = parseDxfText(text);
   } catch (err) {
-    throw new Error(err instanceof Error ? err.message : "parse error");
+    const msg = err instanceof Error ? err.message : "parse error";
+    // dxf-parser's own words are for programmers; say what they mean for the file.
+    if (/EOF group not read|Unexpected end of input/i.test(msg)) throw new Error("the file ends before DXF's end marker: it is cut short or not a DXF drawing");
+    if (/Empty file/i.test(msg)) throw new Error("the file is empty");
+    throw new Error(`the DXF groups could not be read (${msg})`);
   }
   if (!dxf || (!dxf.entities?.length && !Object.keys(dxf.blocks ?? {}).length)) throw new Error("the file holds no drawing entities");
   const warnings: string[] = [];

@@ -85,10 +85,13 @@ export function PanelCanvas({ panel, height = 320, showVertices = true, onAddPoi
       {showVertices &&
         panel.outline.map((p, i) => (
           <g key={i}>
-            <circle cx={p[0]} cy={-p[1]} r={stroke * 2} fill="#C98B2B" />
-            <text x={p[0] + stroke * 3} y={-p[1] - stroke * 3} fontSize={font * 0.6} fill="#5B6770">
-              {i}
-            </text>
+            <circle cx={p[0]} cy={-p[1]} r={stroke * (panel.outline.length > 60 ? 0.8 : 2)} fill="#C98B2B" />
+            {/* Curved pieces have hundreds of points: number every few so the labels stay readable. */}
+            {i % Math.max(1, Math.ceil(panel.outline.length / 40)) === 0 && (
+              <text x={p[0] + stroke * 3} y={-p[1] - stroke * 3} fontSize={font * 0.6} fill="#5B6770">
+                {i}
+              </text>
+            )}
           </g>
         ))}
       {drawn.label && (
