@@ -151,7 +151,8 @@ function countEntityTypes(lines: string[]): Map<string, number> {
   }
   return counts;
 }
-const HANDLED_TYPES = new Set(["LINE", "LWPOLYLINE", "POLYLINE", "ARC", "CIRCLE", "ELLIPSE", "SPLINE", "POINT", "TEXT", "MTEXT", "INSERT"]);
+/** Entity types dxf-parser reads (the others it skips, so they are named from the plain scan). */
+const PARSED_TYPES = new Set(["3DFACE", "ARC", "ATTDEF", "CIRCLE", "DIMENSION", "ELLIPSE", "INSERT", "LINE", "LWPOLYLINE", "MTEXT", "POINT", "POLYLINE", "SOLID", "SPLINE", "TEXT"]);
 
 // ---------------------------------------------------------------------------------------------
 // Placing: 2D affine transforms [a, b, c, d, e, f]: x' = a·x + c·y + e, y' = b·x + d·y + f.
@@ -247,6 +248,8 @@ function mtextLines(s: string): string[] {
 }
 
 interface Expansion {
+  /** Names of the blocks an INSERT placed. */
+  placed: Set<string>;
   items: Item[];
   ignored: Map<string, DxfIgnored>;
   vertices: number;
@@ -263,7 +266,7 @@ function ignore(ex: { ignored: Map<string, DxfIgnored> }, entity: string, layer:
 
 /** Walks the entities, placing blocks, converting units and flattening curves. */
 function expand(dxf: IDxf, toMm: number, tolerance: number): Expansion {
-  const ex: Expansion = { items: [], ignored: new Map(), vertices: 0, entities: 0 };
+  const ex: Expansion = { placed: new Set(), items: [], ignored: new Map(), vertices: 0, entities: 0 };
   const blocks = (dxf.blocks ?? {}) as Record<string, { name: string; position?: { x: number; y: number }; entities?: IEntity[] }>;
   let insertCount = 0;
 
@@ -425,6 +428,7 @@ function expand(dxf: IDxf, toMm: number, tolerance: number): Expansion {
             ignore(ex, e.type, layer, `blocks nested more than ${MAX_INSERT_DEPTH} deep`, where);
             break;
           }
+          ex.placed.add(block.name);
           const base = block.position ?? { x: 0, y: 0 };
           const sx = ins.xScale ?? 1;
           const sy = ins.yScale ?? 1;
@@ -448,6 +452,11 @@ function expand(dxf: IDxf, toMm: number, tolerance: number): Expansion {
     }
   };
   walk(dxf.entities ?? [], scaling(toMm, toMm), null, null, null, 0);
+  for (const b of Object.values(blocks)) {
+    // Blocks whose names start with "*" are the drawing's own (model and paper space, dimensions).
+    if (!b.name || b.name.startsWith("*") || ex.placed.has(b.name) || !b.entities?.length) continue;
+    ignore(ex, "BLOCK", "any", `block "${b.name}" is defined but no INSERT places it, so its ${plural(b.entities.length, "entity", "entities")} are not drawn`, "");
+  }
   return ex;
 }
 
@@ -632,6 +641,8 @@ function measureAllowance(cut: readonly Point[], sew: readonly Point[]): { media
 }
 
 const CUT_TEXT = /^CUT\s+(\d+)(\s+MIRRORED)?$/i;
+/** "Label: value" texts of pattern files; any other text with a colon is plain text (a name may hold one). */
+const KNOWN_LABELS = new Set([...Object.values(ASTM_TEXT_LABEL).map((l) => l.toLowerCase()), "units", "material", "rotation", "grade rule table", "sample size"]);
 const MIRRORED_TEXT = /mirrored pairs?/i;
 
 /**
@@ -672,7 +683,7 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
 
   const ex = expand(dxf, DXF_UNITS[units.unit], CHORD_TOLERANCE_MM);
   for (const [type, n] of countEntityTypes(lines)) {
-    if (HANDLED_TYPES.has(type)) continue;
+    if (PARSED_TYPES.has(type)) continue;
     const key = `${type}\u0000*\u0000skip`;
     ex.ignored.set(key, { entity: type, layer: "any", reason: "not a pattern line, point or text", count: n, where: [] });
   }
@@ -828,7 +839,8 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
     const plain: string[] = [];
     for (const t of d.texts) {
       const legacy = CUT_TEXT.exec(t.text.trim());
-      const lab = splitLabelledText(t.text);
+      const split = splitLabelledText(t.text);
+      const lab = split && KNOWN_LABELS.has(split.label) ? split : null;
       if (legacy) {
         cutCount = Number(legacy[1]);
         mirrored ||= Boolean(legacy[2]);

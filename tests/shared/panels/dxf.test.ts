@@ -355,6 +355,25 @@ describe("files in the older one-layer-per-piece layout and from elsewhere", () 
     ]);
   });
 
+  it("a name with a colon stays a name; a block no INSERT places is named as left out", () => {
+    const file = [
+      "0", "SECTION", "2", "BLOCKS",
+      "0", "BLOCK", "8", "0", "2", "SPARE", "70", "0", "10", "0", "20", "0", "30", "0",
+      ...square(0, 0, 100),
+      "0", "ENDBLK", "8", "0",
+      "0", "ENDSEC",
+      "0", "SECTION", "2", "ENTITIES",
+      ...square(0, 0, 200),
+      "0", "TEXT", "8", "0", "10", "50", "20", "50", "40", "5", "1", "Sleeve: upper",
+      "0", "ENDSEC", "0", "EOF", "",
+    ].join("\n");
+
+    const r = readDxfPieces(file);
+
+    expect(r.pieces.map((p) => p.name)).toEqual(["Sleeve: upper"]);
+    expect(r.ignored).toContainEqual(expect.objectContaining({ entity: "BLOCK", reason: expect.stringMatching(/block "SPARE" is defined but no INSERT places it/) }));
+  });
+
   it("gives nested text to the smallest piece that contains it", () => {
     const file = dxfOf(square(0, 0, 1000, "OUTER"), square(100, 100, 200, "INNER"), ["0", "TEXT", "8", "0", "10", "150", "20", "150", "40", "5", "1", "Inner"], ["0", "TEXT", "8", "0", "10", "500", "20", "500", "40", "5", "1", "Outer"]);
 
