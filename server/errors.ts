@@ -24,3 +24,5 @@ export const UnprocessableError = (message: string, fields?: Record<string, stri
 /** The server's worker pool has a full queue; the client may try again shortly. */
 export const ServerBusyError = (message = "The server is busy with other large files; try again in a minute.") => new HttpError(503, "server_busy", message);
 export const TooManyRequestsError = (message: string) => new HttpError(429, "too_many_requests", message);
+export const DatabaseUnavailableError = (message = "The database is not reachable right now. Nothing was changed; try again in a moment.") =>
+  new HttpError(503, "database_unavailable", message);

@@ -113,7 +113,7 @@ function printPhase(p: Phase) {
 export async function runUploadsBench(): Promise<Phase[]> {
   const pg = await ensureLocalPostgres({ dataDir: process.env.PGDATA_DIR ?? path.resolve(".data/pg"), port: Number(process.env.PGPORT ?? 5433) });
   await dropDatabase(pg.adminUrl, DB);
-  const databaseUrl = await ensureDatabase(pg.adminUrl, DB);
+  const databaseUrl = await ensureDatabase(pg, DB);
   process.env.DATABASE_URL = databaseUrl;
   process.env.NODE_ENV = "test";
   process.env.LOG_LEVEL = "silent";

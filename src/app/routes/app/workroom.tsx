@@ -165,7 +165,7 @@ function FittingPage() {
   if (fitting.isPending || options.isPending) return <Spinner />;
   if (fitting.error) return <ErrorAlert error={fitting.error} />;
   if (options.error) return <ErrorAlert error={options.error} />;
-  return <FittingView productionId={productionId} fitting={fitting.data} options={options.data} units={production?.units ?? "cm"} canEdit={can("alteration.update")} />;
+  return <FittingView productionId={productionId} fitting={fitting.data} options={options.data} units={production?.units ?? "cm"} canEdit={can("alteration.update")} canLink={can("fitting.link_garment")} />;
 }
 
 /** The Workroom screen: fittings, tickets with their plan, calendar, hours; a fitting's own page for tablets. */
