@@ -104,6 +104,11 @@ export default function TodayPage() {
           <Card>
             <h2 className="mb-2 font-semibold text-ink">{stage ? "Next performance" : "Next shoot day"}</h2>
             <NextDay productionId={productionId} stage={stage} today={today} />
+            {can("report.rack") && (
+              <Link to={`/p/${productionId}/reports/rack`} className="mt-3 inline-flex min-h-11 items-center rounded-md border border-ink-100 bg-white px-3 text-sm font-semibold text-ink hover:bg-ink-50">
+                {stage ? "Rack list for the next performance" : "Tomorrow's rack list"}
+              </Link>
+            )}
           </Card>
         )}
         {can("snag.read") && <SnagsForDay productionId={productionId} />}
