@@ -49,7 +49,7 @@ export function toHttpError(err: unknown): HttpError {
     return new HttpError(400, "validation_error", "A value has the wrong form.");
   }
   if (err instanceof multer.MulterError) {
-    if (err.code === "LIMIT_FILE_SIZE") return new HttpError(413, "payload_too_large", "The file is larger than the upload limit.");
+    if (err.code === "LIMIT_FILE_SIZE") return new HttpError(413, "payload_too_large", "The file is larger than the upload limit.", { [err.field ?? "file"]: "larger than the upload limit" });
     if (err.code === "LIMIT_FILE_COUNT" || err.code === "LIMIT_UNEXPECTED_FILE")
       return new HttpError(400, "validation_error", "Too many files or an unexpected file field.", { [err.field ?? "file"]: err.message });
     return new HttpError(400, "validation_error", err.message);
