@@ -80,7 +80,7 @@ export default defineConfig({
       },
       {
         extends: true,
-        test: { name: "client", include: ["tests/client/**/*.test.tsx"], environment: "jsdom" },
+        test: { name: "client", include: ["tests/client/**/*.test.{ts,tsx}"], environment: "jsdom" },
       },
       {
         extends: true,
