@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useState } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import { Link, Route, Routes, useParams } from "react-router";
 import type { ContinuityTimelineDto } from "@shared/schemas/continuity";
 import type { PhotoView } from "@shared/schemas/photos";
@@ -138,6 +138,11 @@ function CaptureForm({ productionId, shootDayId, sceneId, characterId, label, on
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<Error | null>(null);
   const [queuedId, setQueuedId] = useState<string | null>(null);
+  const [sent, setSent] = useState(false);
+  const [seenQueued, setSeenQueued] = useState(false);
+  // Listening before the record is queued: with a good signal it can be stored before the next render.
+  const pending = useRef<string | null>(null);
+  useEffect(() => queueRunner.onSent((r) => r.clientId === pending.current && setSent(true)), []);
   useEffect(() => () => photos.forEach((p) => URL.revokeObjectURL(p.previewUrl)), [photos]);
   const nextView = VIEW_ORDER.find((v) => !photos.some((p) => p.view === v)) ?? "detail";
   // Every entry goes through the phone's queue (photos reduced first): with a signal it is sent at
@@ -150,6 +155,7 @@ function CaptureForm({ productionId, shootDayId, sceneId, characterId, label, on
     try {
       const reduced = await Promise.all(photos.map((p, i) => reducePhoto(p.file, p.view, i)));
       const clientId = newClientId();
+      pending.current = clientId;
       await enqueue({
         clientId,
         userId,
@@ -173,12 +179,17 @@ function CaptureForm({ productionId, shootDayId, sceneId, characterId, label, on
   };
   if (queuedId) {
     const waiting = queue.items.find((i) => i.clientId === queuedId);
+    if (waiting && !seenQueued) setSeenQueued(true);
     return (
       <div role="status" className="grid gap-2 rounded border border-ink-100 bg-ink-50 p-3">
         <p className="font-semibold text-ink">
-          {!waiting
+          {sent
             ? "Saved."
-            : waiting.state === "held"
+            : !waiting
+              ? seenQueued
+                ? "Cancelled: not sent."
+                : "Kept on this phone; sending…"
+              : waiting.state === "held"
               ? `Kept on this phone, not accepted: ${waiting.lastError ?? ""}`
               : queue.online
                 ? "Kept on this phone; sending…"
