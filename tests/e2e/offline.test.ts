@@ -72,7 +72,18 @@ describe("continuity without a signal", () => {
       await capture(page, firstScene, notes[1]!, photo);
       await capture(page, "E2E9", notes[2]!, photo, characters.elias.name);
       await expect.poll(() => page.getByTestId("queue-count").textContent()).toBe("3");
-      expect((await db.query("SELECT 1 FROM continuity_entries WHERE notes = ANY($1)", [notes])).rowCount).toBe(0);
+      // A fourth, cancelled from the badge's list: it leaves the phone and is never sent.
+      const cancelled = `offline e2e ${stamp} cancelled`;
+      await capture(page, firstScene, cancelled, photo);
+      await expect.poll(() => page.getByTestId("queue-count").textContent()).toBe("4");
+      await page.getByRole("button", { name: /waiting/ }).click();
+      const queue = page.getByRole("region", { name: "Waiting to be sent" });
+      await queue.getByRole("listitem").nth(3).waitFor();
+      await page.screenshot({ path: ".data/e2e-offline-queue.png" });
+      await queue.getByRole("button", { name: /^Cancel: / }).last().click();
+      await page.getByRole("dialog", { name: "Cancel this record?" }).getByRole("button", { name: "Cancel it" }).click();
+      await expect.poll(() => page.getByTestId("queue-count").textContent()).toBe("3");
+      expect((await db.query("SELECT 1 FROM continuity_entries WHERE notes = ANY($1)", [[...notes, cancelled]])).rowCount).toBe(0);
 
       // A reload without a signal: the shell comes from the service worker, the queue from IndexedDB.
       await page.reload();
@@ -101,6 +112,7 @@ describe("continuity without a signal", () => {
 
       await context.setOffline(false);
       await expect.poll(() => queuedIds(page), { timeout: 60_000 }).toEqual([]);
+      expect((await db.query("SELECT 1 FROM continuity_entries WHERE notes = $1", [cancelled])).rowCount).toBe(0);
       const rows = (
         await db.query<{ id: string; notes: string; scene_id: string | null; client_id: string; review_reasons: Array<{ code: string }>; photos: number }>(
           `SELECT e.id, e.notes, e.scene_id, e.client_id, e.review_reasons,

@@ -1,7 +1,7 @@
 // The offline parts of the screens: the header badge with the queue list (see and cancel each
 // record), and the "saved for offline at" stamp with its Save button.
 import { useEffect, useRef, useState } from "react";
-import { formatTime } from "@shared/format";
+import { formatTime, formatWallTime } from "@shared/format";
 import { Button } from "@/components/ui/button";
 import { ConfirmDialog } from "@/components/ui/dialog";
 import { removeQueued, retryQueued } from "@/lib/offline/queue";
@@ -41,7 +41,7 @@ export function QueueBadge() {
           role="region"
           aria-label="Waiting to be sent"
           onKeyDown={(e) => e.key === "Escape" && setOpen(false)}
-          className="absolute right-0 z-30 mt-2 grid w-[min(24rem,92vw)] gap-2 rounded-lg bg-white p-3 text-ink shadow-xl outline-none"
+          className="fixed inset-x-2 top-24 z-30 grid sm:absolute sm:inset-x-auto sm:top-auto sm:right-0 sm:mt-2 sm:w-[24rem] gap-2 rounded-lg bg-white p-3 text-ink shadow-xl outline-none"
         >
           <QueueList />
         </div>
@@ -71,7 +71,7 @@ export function QueueList() {
             <li key={i.clientId} className="grid gap-1 rounded border border-ink-100 p-2 text-sm">
               <span className="font-semibold">{i.summary}</span>
               <span className="text-slate">
-                {i.kind === "continuity" ? "Continuity" : "Check in / out"} · captured {new Date(i.queuedAt).toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" })}
+                {i.kind === "continuity" ? "Continuity" : "Check in / out"} · captured {formatWallTime(new Date(i.queuedAt))}
                 {q.sendingClientId === i.clientId ? " · sending…" : i.state === "held" ? " · not accepted" : i.attempts ? ` · tried ${i.attempts}×` : ""}
               </span>
               {i.lastError && <span className={i.state === "held" ? "text-madder" : "text-slate"}>{i.lastError}</span>}
