@@ -4,6 +4,7 @@ import { BaseError, UniqueConstraintError, ValidationError as SequelizeValidatio
 import multer from "multer";
 import { HttpError } from "../errors.js";
 import { logger } from "../lib/logger.js";
+import { loggablePath } from "./request-log.js";
 
 function zodToHttp(err: ZodError): HttpError {
   const fields: Record<string, string> = {};
@@ -62,7 +63,7 @@ export function toHttpError(err: unknown): HttpError {
 /** The one place error responses are written. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   const httpError = toHttpError(err);
-  if (httpError.status >= 500) logger.error({ err, url: req.originalUrl }, "request failed");
+  if (httpError.status >= 500) logger.error({ err, method: req.method, path: loggablePath(req.originalUrl) }, "request failed");
   res.status(httpError.status).json({
     error: { code: httpError.code, message: httpError.message, ...(httpError.fields ? { fields: httpError.fields } : {}) },
   });

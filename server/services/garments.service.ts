@@ -1,6 +1,6 @@
 import { randomInt } from "node:crypto";
 import { Op, QueryTypes, UniqueConstraintError, type Transaction, type WhereOptions } from "sequelize";
-import Papa from "papaparse";
+import { writeCsvRecords, type CsvCell } from "@shared/csv.js";
 import { sequelize } from "../db.js";
 import { Fabric, Garment, GarmentStatusEvent, MultiplesGroup, User } from "../models/index.js";
 import { NotFoundError, ValidationError } from "../errors.js";
@@ -320,8 +320,12 @@ export async function scanGarment(actor: Actor, input: ScanGarmentInput): Promis
 export async function garmentsCsv(actor: Actor, f: GarmentFilters, unit: LengthUnit): Promise<string> {
   const rows = await findGarments(actor, f);
   const points = ["chest", "bust", "waist", "hip", "back_length", "sleeve", "inside_leg", "neck", "shoulder"] as const;
+  const columns = [
+    ...(["tag_code", "name", "category", "size_label", "fit_intent", "status", "rack", "bin", "source", "vendor", "cost", "rental_due_on", "fabric", "colour", "distress_stage", "multiples_group", "copy_number"] as const),
+    ...points.flatMap((p) => [`${p}_mm`, `${p}_${unit}`]),
+  ];
   const data = rows.map((g) => {
-    const base: Record<string, string | number> = {
+    const base: Record<string, CsvCell> = {
       tag_code: g.tagCode,
       name: g.name,
       category: g.category,
@@ -347,8 +351,8 @@ export async function garmentsCsv(actor: Actor, f: GarmentFilters, unit: LengthU
     }
     return base;
   });
-  // Formula-looking cells are quoted so a spreadsheet does not run them.
-  return Papa.unparse(data, { escapeFormulae: true });
+  // The one CSV writer: formula-looking cells are made inert so a spreadsheet does not run them.
+  return writeCsvRecords(columns, data);
 }
 
 /** Statuses as shown to people (for messages). */

@@ -2,6 +2,7 @@
 // further rows that fill only `scene` and the shoot columns. Parsed with papaparse; every problem
 // is reported with its line and column, so nothing is saved until the whole file is clean.
 import Papa from "papaparse";
+import { writeCsv } from "../csv.js";
 import { compareSceneNumbers, formatEighths, parseEighths } from "./breakdown.js";
 import type { ImportRowError, IntExt } from "../schemas/breakdown.js";
 
@@ -238,5 +239,5 @@ export function breakdownToCsv(scenes: readonly ExportScene[], shootDays: readon
     ]);
     for (const more of list.slice(1)) rows.push([s.number, "", "", "", "", "", "", "", "", String(more.dayNumber), more.date, String(more.position)]);
   }
-  return Papa.unparse({ fields: [...breakdownCsvColumns], data: rows }, { newline: "\r\n" }) + "\r\n";
+  return writeCsv(breakdownCsvColumns, rows);
 }

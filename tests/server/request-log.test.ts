@@ -1,0 +1,109 @@
+import { afterEach, beforeEach, describe, expect, it } from "vitest";
+import request from "supertest";
+import { createApp } from "../../server/app.js";
+import { logFormat, logger, redirectLogs } from "../../server/lib/logger.js";
+import { loggablePath } from "../../server/middleware/request-log.js";
+import { buildMember, buildUser, TEST_PASSWORD } from "../factories.js";
+import { anonymousAgent, resetDb, signedInAgent, waitForMail } from "../setup/http.js";
+
+const app = createApp();
+
+/** Every cookie value a response set (name=value, the value alone, and the signed session id inside it). */
+function cookieSecrets(res: request.Response): string[] {
+  const raw = res.headers["set-cookie"] as unknown as string[] | undefined;
+  const out: string[] = [];
+  for (const c of raw ?? []) {
+    const pair = c.split(";", 1)[0]!;
+    const value = pair.slice(pair.indexOf("=") + 1);
+    if (!value) continue;
+    out.push(pair, value, decodeURIComponent(value));
+    const sid = /^s:([^.]+)\./.exec(decodeURIComponent(value))?.[1];
+    if (sid) out.push(sid);
+  }
+  return out;
+}
+
+describe("request log", () => {
+  let lines: string[] = [];
+  let restore: () => void = () => undefined;
+
+  beforeEach(async () => {
+    await resetDb();
+    lines = [];
+    restore = redirectLogs({ write: (line: string) => void lines.push(line) });
+    logger.level = "info";
+  });
+
+  afterEach(() => {
+    logger.level = "silent";
+    restore();
+  });
+
+  it("holds no session cookie, CSRF token, reset token or invitation token, one short line per request", async () => {
+    const { user: boss, production } = await buildMember("supervisor");
+    await buildUser({ email: "forgetful@test.invalid" });
+    const secrets: string[] = [];
+    let requests = 0;
+
+    // Sign in (the response sets the session cookie) and use the session.
+    const anon = await anonymousAgent(app);
+    secrets.push(anon.csrf);
+    const login = await anon.post("/api/auth/login", { email: boss.email, password: TEST_PASSWORD }).expect(200);
+    secrets.push(...cookieSecrets(login));
+    const me = await anon.agent.get("/api/auth/me").expect(200);
+    secrets.push(...cookieSecrets(me));
+    requests += 3;
+    // Invite, preview and accept with the token in the URL and the body.
+    const boss2 = await signedInAgent(app, boss.email);
+    secrets.push(boss2.csrf);
+    requests += 3;
+    await boss2.post(`/api/productions/${production.id}/invitations`, { email: "new.cutter@test.invalid", role: "cutter" }).expect(201);
+    const invitationToken = /invitations\/([A-Za-z0-9_-]+)/.exec((await waitForMail((m) => m.recipients.includes("new.cutter@test.invalid"))).textBody ?? "")![1]!;
+    const invitee = await anonymousAgent(app);
+    await invitee.get(`/api/invitations/${invitationToken}?utm=1`).expect(200);
+    const accepted = await invitee.post("/api/invitations/accept", { token: invitationToken, name: "Nell Cutter", password: "long-enough-password" }).expect(200);
+    secrets.push(invitationToken, ...cookieSecrets(accepted));
+    requests += 4;
+    // Ask for a reset and use the link.
+    const resetter = await anonymousAgent(app);
+    await resetter.post("/api/auth/password-reset", { email: "forgetful@test.invalid" }).expect(202);
+    const resetToken = /reset-password\/([A-Za-z0-9_-]+)/.exec((await waitForMail((m) => m.recipients.includes("forgetful@test.invalid"))).textBody ?? "")![1]!;
+    const confirmed = await resetter.post("/api/auth/password-reset/confirm", { token: resetToken, password: "a-brand-new-password" }).expect(200);
+    secrets.push(resetToken, ...cookieSecrets(confirmed));
+    requests += 3;
+    const log = lines.join("");
+
+    expect(secrets.length).toBeGreaterThan(10);
+    for (const secret of secrets) expect(log, `log holds ${secret.slice(0, 12)}…`).not.toContain(secret);
+    expect(log).not.toMatch(/set-cookie|"cookie"/i);
+    expect(log).not.toContain("forgetful@test.invalid");
+    const requestLines = lines.map((l) => JSON.parse(l) as Record<string, unknown>).filter((e) => typeof e.status === "number");
+    expect(requestLines).toHaveLength(requests);
+    for (const e of requestLines) expect(e.msg).toMatch(/^(GET|POST) \/api\/\S* \d{3} \d+ms$/);
+    expect(requestLines.map((e) => e.path)).toContain("/api/invitations/:token");
+    expect(Object.keys(requestLines[0]!).sort()).toEqual(["level", "method", "ms", "msg", "path", "status", "time", "pid", "hostname"].sort());
+  });
+});
+
+describe("loggablePath", () => {
+  it.each([
+    ["/api/invitations/AbCdEfGhIjKlMnOpQrStUvWxYz0123456789_-abcde", "/api/invitations/:token"],
+    ["/api/invitations/short", "/api/invitations/:token"],
+    ["/api/invitations/accept", "/api/invitations/accept"],
+    ["/reset-password/AbCdEfGhIjKlMnOpQrStUvWxYz0123456789_-abcde", "/reset-password/:token"],
+    ["/api/auth/password-reset/confirm", "/api/auth/password-reset/confirm"],
+    ["/api/productions/0b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f/invitations/1b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f", "/api/productions/0b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f/invitations/1b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f"],
+    ["/api/productions/0b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f/garments?q=Ivy+Example", "/api/productions/0b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f/garments"],
+    ["/api/something/QUJDREVGR0hJSktMTU5PUFFSU1RVVldY", "/api/something/:token"],
+  ])("%s → %s", (url, expected) => {
+    expect(loggablePath(url)).toBe(expected);
+  });
+});
+
+describe("log format", () => {
+  it("is one readable line in development and JSON in production and tests", () => {
+    expect(logFormat({ NODE_ENV: "development" })).toBe("pretty");
+    expect(logFormat({ NODE_ENV: "production" })).toBe("json");
+    expect(logFormat({ NODE_ENV: "test" })).toBe("json");
+  });
+});
