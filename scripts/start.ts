@@ -6,6 +6,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { execFileSync } from "node:child_process";
 import { prepareLocalEnv } from "./lib/local-env.js";
+import { startBanner } from "./lib/banner.js";
 
 function newestMtime(p: string): number {
   if (!fs.existsSync(p)) return 0;
@@ -41,11 +42,8 @@ async function main() {
   const { config } = await import("../server/config.js");
   await startServer();
   const url = `http://${config.HOST}:${config.PORT}`;
-  console.log(`\nSeamscene is running at ${url}${seeded ? " (demo data loaded)" : ""}`);
-  console.log(`Mail goes to ${local.startSmtpFake ? `the local SMTP fake on 127.0.0.1:${process.env.SMTP_PORT} (see Team → Outbox)` : config.SMTP_HOST}`);
-  console.log("\nDemo accounts (password for all: " + demoAccounts[0]!.password + "):");
-  for (const a of demoAccounts) console.log(`  ${a.role.padEnd(13)} ${a.email}`);
-  console.log("\nStop with Ctrl+C.");
+  const mailTo = local.startSmtpFake ? `the local SMTP fake on 127.0.0.1:${process.env.SMTP_PORT}${config.DEV_OUTBOX ? " (see Team → Outbox)" : ""}` : config.SMTP_HOST;
+  for (const line of startBanner({ url, seeded, production: config.NODE_ENV === "production", mailTo, demoAccounts })) console.log(line);
   const stopPg = () => local.pg?.stop();
   process.once("exit", stopPg);
 }

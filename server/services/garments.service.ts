@@ -2,6 +2,7 @@ import { randomInt } from "node:crypto";
 import { Op, QueryTypes, UniqueConstraintError, type Transaction, type WhereOptions } from "sequelize";
 import { writeCsvRecords, type CsvCell } from "@shared/csv.js";
 import { sequelize } from "../db.js";
+import { escapeLike } from "../lib/like.js";
 import { Fabric, Garment, GarmentStatusEvent, MultiplesGroup, User } from "../models/index.js";
 import { NotFoundError, ValidationError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
@@ -48,13 +49,14 @@ async function dueFrom(actor: Actor, f: GarmentFilters): Promise<string | null> 
 function whereFor(actor: Actor, f: GarmentFilters, dueFromDay: string | null): WhereOptions {
   const and: WhereOptions[] = [{ productionId: actor.productionId }];
   if (f.q) {
-    const like = `%${f.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    const like = `%${escapeLike(f.q)}%`;
     and.push({ [Op.or]: [{ name: { [Op.iLike]: like } }, { tagCode: { [Op.iLike]: like } }, { colour: { [Op.iLike]: like } }, { vendor: { [Op.iLike]: like } }] });
   }
   if (f.category) and.push({ category: f.category });
   if (f.status.length) and.push({ status: { [Op.in]: f.status } });
   if (f.source) and.push({ source: f.source });
-  if (f.rack) and.push({ locationRack: { [Op.iLike]: f.rack } });
+  // The whole rack name, any case; `%` and `_` in it are letters, not wildcards.
+  if (f.rack) and.push({ locationRack: { [Op.iLike]: escapeLike(f.rack) } });
   if (f.fabricId) and.push({ fabricId: f.fabricId });
   if (f.multiplesGroupId) and.push({ multiplesGroupId: f.multiplesGroupId });
   if (f.ids.length) and.push({ id: { [Op.in]: f.ids } });
