@@ -154,7 +154,7 @@ async function photoFlood(port: number, email: string, photoUrl: string): Promis
 export async function runAuthBench(): Promise<{ reset: { knownP50: number; unknownP50: number }; fixed: FloodFigures; before: FloodFigures }> {
   const pg = await ensureLocalPostgres({ dataDir: process.env.PGDATA_DIR ?? path.resolve(".data/pg"), port: Number(process.env.PGPORT ?? 5433) });
   await dropDatabase(pg.adminUrl, DB);
-  const databaseUrl = await ensureDatabase(pg.adminUrl, DB);
+  const databaseUrl = await ensureDatabase(pg, DB);
   const storageDir = fs.mkdtempSync(path.join(os.tmpdir(), "seamscene-bench-auth-"));
   Object.assign(process.env, { DATABASE_URL: databaseUrl, NODE_ENV: "test", LOG_LEVEL: "silent", STORAGE_DIR: storageDir, STORAGE_DRIVER: "disk", SMTP_HOST: "127.0.0.1", SMTP_PORT: "0" });
 
