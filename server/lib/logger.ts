@@ -13,7 +13,8 @@ interface LogSink {
 
 function defaultSink(): LogSink {
   if (logFormat(config) === "pretty") {
-    return pretty({ destination: 1, sync: true, colorize: process.stdout.isTTY, singleLine: true, translateTime: "SYS:HH:MM:ss", ignore: "pid,hostname" });
+    // A request line's message already says method, path, status and time; the fields stay in JSON only.
+    return pretty({ destination: 1, sync: true, colorize: process.stdout.isTTY, singleLine: true, translateTime: "SYS:HH:MM:ss", ignore: "pid,hostname,method,path,status,ms" });
   }
   return pino.destination({ dest: 1, sync: true });
 }
@@ -28,6 +29,14 @@ let sink: LogSink = defaultSink();
 export const logger = pino(
   {
     level: config.NODE_ENV === "test" ? "silent" : config.LOG_LEVEL,
+    // Errors keep what an operator needs; database errors' SQL and bound values (addresses, token
+    // hashes) stay out.
+    serializers: {
+      err: (e: unknown) => {
+        const x = e as { name?: string; message?: string; code?: unknown; stack?: string; parent?: { code?: unknown } } | null;
+        return x && typeof x === "object" ? { type: x.name, message: x.message, code: x.code ?? x.parent?.code, stack: x.stack } : e;
+      },
+    },
     redact: {
       paths: [
         "req.headers.cookie",

@@ -100,6 +100,23 @@ describe("loggablePath", () => {
   });
 });
 
+describe("logged errors", () => {
+  it("keep type, message, code and stack, never a database error's SQL or bound values", () => {
+    const lines: string[] = [];
+    const restore = redirectLogs({ write: (line: string) => void lines.push(line) });
+    logger.level = "info";
+    const err = Object.assign(new Error("relation went away"), { name: "SequelizeDatabaseError", sql: "SELECT * FROM users WHERE email = 'ivy@test.invalid'", parameters: ["ivy@test.invalid"], parent: { code: "57P01" } });
+
+    logger.error({ err }, "request failed");
+    logger.level = "silent";
+    restore();
+
+    const entry = JSON.parse(lines[0]!) as { err: Record<string, unknown> };
+    expect(entry.err).toMatchObject({ type: "SequelizeDatabaseError", message: "relation went away", code: "57P01" });
+    expect(lines[0]).not.toContain("ivy@test.invalid");
+  });
+});
+
 describe("log format", () => {
   it("is one readable line in development and JSON in production and tests", () => {
     expect(logFormat({ NODE_ENV: "development" })).toBe("pretty");
