@@ -2,6 +2,7 @@ import { useState } from "react";
 import { useOutbox } from "../api/team";
 import { Spinner, ErrorAlert, EmptyState } from "@/components/ui/feedback";
 import { ApiError } from "@/lib/api-client";
+import { useProductionTime } from "@/hooks/use-production-time";
 
 /**
  * Mail the local SMTP fake caught for this production (development only): reminders, fitting and packet
@@ -10,6 +11,7 @@ import { ApiError } from "@/lib/api-client";
 export function Outbox({ productionId }: { productionId: string }) {
   const q = useOutbox(productionId, true);
   const [open, setOpen] = useState<string | null>(null);
+  const { dateTime } = useProductionTime();
   if (q.isPending) return <Spinner />;
   if (q.error instanceof ApiError && q.error.status === 404) return <p className="text-sm text-slate">This server has no outbox: mail goes to the configured mail relay.</p>;
   if (q.error) return <ErrorAlert error={q.error} title="Outbox unavailable" />;
@@ -21,7 +23,7 @@ export function Outbox({ productionId }: { productionId: string }) {
           <button type="button" className="w-full text-left" aria-expanded={open === m.id} onClick={() => setOpen(open === m.id ? null : m.id)}>
             <span className="block font-semibold text-ink-900">{m.subject || "(no subject)"}</span>
             <span className="block text-xs text-slate">
-              to {m.recipients} · {new Date(m.receivedAt).toLocaleString()}
+              to {m.recipients} · {dateTime(m.receivedAt)}
               {m.attachments.length ? ` · ${m.attachments.map((a) => a.filename ?? a.contentType).join(", ")}` : ""}
             </span>
           </button>
