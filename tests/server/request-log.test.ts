@@ -1,10 +1,14 @@
-import { afterEach, beforeEach, describe, expect, it } from "vitest";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { afterAll, afterEach, beforeEach, describe, expect, it } from "vitest";
 import request from "supertest";
 import { createApp } from "../../server/app.js";
 import { logFormat, logger, redirectLogs } from "../../server/lib/logger.js";
 import { loggablePath } from "../../server/middleware/request-log.js";
 import { buildMember, buildUser, TEST_PASSWORD } from "../factories.js";
 import { anonymousAgent, resetDb, signedInAgent, waitForMail } from "../setup/http.js";
+import { childEnv, freePort, spawnTsx, waitFor, type Child } from "../setup/processes.js";
 
 const app = createApp();
 
@@ -123,4 +127,70 @@ describe("log format", () => {
     expect(logFormat({ NODE_ENV: "production" })).toBe("json");
     expect(logFormat({ NODE_ENV: "test" })).toBe("json");
   });
+});
+
+describe("the server process's log", () => {
+  let child: Child | undefined;
+  const root = fs.mkdtempSync(path.join(os.tmpdir(), "seamscene-log-"));
+
+  afterEach(async () => {
+    if (child?.alive()) {
+      child.proc.kill("SIGTERM");
+      await child.exited;
+    }
+    child = undefined;
+  });
+
+  afterAll(() => fs.rmSync(root, { recursive: true, force: true }));
+
+  /** Starts server/index.ts, asks for a CSRF token (a cookie) and the health check, and returns what it printed. */
+  async function runAndLog(nodeEnv: "development" | "production"): Promise<{ out: string; cookieValue: string }> {
+    const port = await freePort();
+    const base = `http://127.0.0.1:${port}`;
+    child = spawnTsx(["server/index.ts"], childEnv({
+      NODE_ENV: nodeEnv,
+      SESSION_SECRET: "Lr8-w2Qv9Zk4Tn7Yp1Xs6Bm3Hd0Jf5Gc_",
+      LOG_LEVEL: "info",
+      DATABASE_URL: process.env.DATABASE_URL,
+      HOST: "127.0.0.1",
+      PORT: String(port),
+      APP_URL: base,
+      STORAGE_DRIVER: "disk",
+      STORAGE_DIR: path.join(root, nodeEnv, "storage"),
+      DATA_DIR: path.join(root, nodeEnv, "data"),
+      JOBS_ENABLED: "false",
+      SMTP_HOST: "127.0.0.1",
+      SMTP_PORT: String(await freePort()),
+    }));
+    const c = child;
+    await waitFor("the server", async () => c.alive() && (await fetch(`${base}/api/health`)).ok, 90_000).catch((err: Error) => {
+      throw new Error(`${err.message}\n${c.output()}`);
+    });
+    const csrf = await fetch(`${base}/api/auth/csrf`);
+    const cookieValue = csrf.headers.getSetCookie()[0]!.split(";", 1)[0]!.split("=")[1]!;
+    await fetch(`${base}/api/auth/csrf`, { headers: { cookie: `seamscene.csrf=${cookieValue}` } });
+    await waitFor("the request lines", () => (c.output().match(/\/api\/auth\/csrf 200/g) ?? []).length >= 2 || undefined, 20_000);
+    return { out: c.output(), cookieValue };
+  }
+
+  it("is one readable line per request in development, without cookies", async () => {
+    const { out, cookieValue } = await runAndLog("development");
+
+    const requestLines = out.split("\n").filter((l) => l.includes("/api/auth/csrf"));
+    expect(requestLines, out).toHaveLength(2);
+    // "[17:35:02] INFO: GET /api/auth/csrf 200 4ms": time, level, the request; no JSON, no extra fields.
+    for (const l of requestLines) expect(l).toMatch(/^\[\d\d:\d\d:\d\d\] INFO: GET \/api\/auth\/csrf 200 \d+ms$/);
+    expect(out).not.toContain(cookieValue);
+    expect(out).not.toContain(decodeURIComponent(cookieValue));
+  }, 120_000);
+
+  it("is JSON lines in production, without cookies", async () => {
+    const { out, cookieValue } = await runAndLog("production");
+
+    const requestLines = out.split("\n").filter((l) => l.includes("/api/auth/csrf"));
+    expect(requestLines, out).toHaveLength(2);
+    for (const l of requestLines) expect(JSON.parse(l)).toMatchObject({ level: 30, method: "GET", path: "/api/auth/csrf", status: 200, msg: expect.stringMatching(/^GET \/api\/auth\/csrf 200 \d+ms$/) });
+    expect(out).not.toContain(cookieValue);
+    expect(out).not.toContain(decodeURIComponent(cookieValue));
+  }, 120_000);
 });
