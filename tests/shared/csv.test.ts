@@ -1,3 +1,5 @@
+import fs from "node:fs";
+import path from "node:path";
 import { describe, expect, it } from "vitest";
 import Papa from "papaparse";
 import { escapeCsvFormula, unescapeCsvFormula, writeCsv, writeCsvRecords } from "@shared/csv";
@@ -56,5 +58,14 @@ describe("writeCsv", () => {
 
   it("writes only the header for no rows", () => {
     expect(writeCsv(["a", "b"], [])).toBe("a,b\r\n");
+  });
+});
+
+describe("the one CSV writer", () => {
+  it("is the only place that writes CSV text: no other server or shared module calls Papa.unparse", () => {
+    const files = (dir: string): string[] => fs.readdirSync(dir, { withFileTypes: true }).flatMap((e) => (e.isDirectory() ? files(path.join(dir, e.name)) : /\.tsx?$/.test(e.name) ? [path.join(dir, e.name)] : []));
+    const writers = [...files("server"), ...files("shared"), ...files("src")].filter((f) => /\.unparse\(/.test(fs.readFileSync(f, "utf8")));
+
+    expect(writers).toEqual([path.join("shared", "csv.ts")]);
   });
 });
