@@ -42,6 +42,15 @@ export function nameSchema(max: number) {
     .refine(hasVisibleCharacter, "must contain a visible character");
 }
 
+/**
+ * A name read from a file (a DXF piece name): control characters dropped and spaces trimmed, so an
+ * import keeps its pieces; `fallback` when nothing visible is left.
+ */
+export function nameFromFile(text: string, max: number, fallback: string): string {
+  const cleaned = text.replace(new RegExp(CONTROL_CHARACTER.source, "gu"), " ").trim().slice(0, max).trim();
+  return hasVisibleCharacter(cleaned) ? cleaned : fallback;
+}
+
 /** An optional name: empty or missing becomes null; otherwise the rules of nameSchema. */
 export function optionalNameSchema(max: number) {
   return z

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { hasVisibleCharacter, nameSchema, optionalNameSchema } from "@shared/schemas/common";
+import { hasVisibleCharacter, nameFromFile, nameSchema, optionalNameSchema } from "@shared/schemas/common";
+import { fittingNewGarmentSchema } from "@shared/schemas/workroom";
 import { performerInputSchema, characterInputSchema } from "@shared/schemas/cast";
 import { createGarmentInputSchema } from "@shared/schemas/garments";
 import { createFabricInputSchema } from "@shared/schemas/fabrics";
@@ -63,5 +64,22 @@ describe("every name field uses it", () => {
 
     expect(res.success).toBe(false);
     expect(res.error?.issues.map((i) => i.path.join("."))).toContain(field);
+  });
+});
+
+describe("names from elsewhere", () => {
+  it("a garment added at a fitting refuses NUL and invisible-only names like every other name", () => {
+    const garment = (name: string) => fittingNewGarmentSchema.safeParse({ name, category: "coat" });
+
+    expect(garment("Frock coat").success).toBe(true);
+    expect(garment("Frock\u0000coat").success).toBe(false);
+    expect(garment("\u200B\u3164").success).toBe(false);
+  });
+
+  it("a piece name read from a DXF file loses control characters and falls back when nothing visible is left", () => {
+    expect(nameFromFile("FRONT\u0000BODICE\r\n", 120, "Piece")).toBe("FRONT BODICE");
+    expect(nameFromFile("\u200B\u2060", 120, "Piece")).toBe("Piece");
+    expect(nameFromFile("", 120, "Piece")).toBe("Piece");
+    expect(nameFromFile("Sleeve", 3, "Piece")).toBe("Sle");
   });
 });
