@@ -3,6 +3,7 @@ import path from "node:path";
 import { fileURLToPath } from "node:url";
 import express, { type Express } from "express";
 import helmet from "helmet";
+import compression from "compression";
 import session from "express-session";
 import connectPgSimple from "connect-pg-simple";
 import pg from "pg";
@@ -14,6 +15,7 @@ import { passport } from "./auth/passport.js";
 import { buildApiRouter } from "./routes/index.js";
 import { apiNotFound, errorHandler } from "./middleware/error-handler.js";
 import { HttpError } from "./errors.js";
+import { touchSessionNowAndThen } from "./middleware/session-touch.js";
 
 const rootDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 
@@ -40,6 +42,8 @@ export function createApp(): Express {
       strictTransportSecurity: config.SECURE_COOKIES,
     }),
   );
+  // gzip or brotli for JSON, CSV and the client's text assets (images and ZIPs are left as they are).
+  app.use(compression({ threshold: 1024 }));
   if (config.NODE_ENV !== "test") app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => !req.url?.startsWith("/api") } }));
 
   app.use(express.json({ limit: "2mb" }));
@@ -49,14 +53,16 @@ export function createApp(): Express {
   app.use(
     session({
       name: "seamscene.sid",
-      store: new PgStore({ pool: sessionPool, tableName: "session", createTableIfMissing: false, pruneSessionInterval: isProduction ? 900 : false }),
+      // No touch per request: touchSessionNowAndThen moves the expiry at most every few minutes.
+      store: new PgStore({ pool: sessionPool, tableName: "session", createTableIfMissing: false, pruneSessionInterval: isProduction ? 900 : false, disableTouch: true }),
       secret: config.SESSION_SECRET,
       resave: false,
       saveUninitialized: false,
-      rolling: true,
+      rolling: false,
       cookie: { httpOnly: true, sameSite: "lax", secure: config.SECURE_COOKIES, maxAge: 14 * 86_400_000 },
     }),
   );
+  app.use(touchSessionNowAndThen);
   app.use(passport.initialize());
   app.use(passport.session());
 
@@ -80,12 +86,26 @@ export function createApp(): Express {
   // The built client, with index.html for every other GET (client-side routes).
   const distDir = path.join(rootDir, "dist");
   if (fs.existsSync(path.join(distDir, "index.html"))) {
-    app.use(express.static(distDir, { index: false, maxAge: "1h" }));
-    app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(path.join(distDir, "index.html")));
+    // Vite names built assets by content hash: cache them for a year. Anything else (index.html,
+    // public files) is revalidated so a new release shows at once.
+    app.use(
+      express.static(distDir, {
+        index: false,
+        setHeaders: (res, filePath) => {
+          res.setHeader("Cache-Control", isHashedAsset(distDir, filePath) ? "public, max-age=31536000, immutable" : "no-cache");
+        },
+      }),
+    );
+    app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(path.join(distDir, "index.html"), { headers: { "Cache-Control": "no-cache" } }));
   }
 
   app.use(errorHandler);
   return app;
+}
+
+/** Vite writes only content-hashed file names under dist/assets (index-3fA9_x2Q.js, fonts, maps). */
+function isHashedAsset(distDir: string, filePath: string): boolean {
+  return path.relative(distDir, filePath).startsWith(`assets${path.sep}`);
 }
 
 /** Closes the session store's pool (tests and shutdown). */
