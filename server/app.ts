@@ -83,21 +83,7 @@ export function createApp(): Express {
   app.use("/api", buildApiRouter());
   app.use("/api", apiNotFound);
 
-  // The built client, with index.html for every other GET (client-side routes).
-  const distDir = path.join(rootDir, "dist");
-  if (fs.existsSync(path.join(distDir, "index.html"))) {
-    // Vite names built assets by content hash: cache them for a year. Anything else (index.html,
-    // public files) is revalidated so a new release shows at once.
-    app.use(
-      express.static(distDir, {
-        index: false,
-        setHeaders: (res, filePath) => {
-          res.setHeader("Cache-Control", isHashedAsset(distDir, filePath) ? "public, max-age=31536000, immutable" : "no-cache");
-        },
-      }),
-    );
-    app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(path.join(distDir, "index.html"), { headers: { "Cache-Control": "no-cache" } }));
-  }
+  serveBuiltClient(app, path.join(rootDir, "dist"));
 
   app.use(errorHandler);
   return app;
@@ -106,6 +92,23 @@ export function createApp(): Express {
 /** Vite writes only content-hashed file names under dist/assets (index-3fA9_x2Q.js, fonts, maps). */
 function isHashedAsset(distDir: string, filePath: string): boolean {
   return path.relative(distDir, filePath).startsWith(`assets${path.sep}`);
+}
+
+/**
+ * The built client, with index.html for every other GET (client-side routes). Hashed assets are
+ * cached for a year; index.html and other files are revalidated so a new release shows at once.
+ */
+export function serveBuiltClient(app: Express, distDir: string): void {
+  if (!fs.existsSync(path.join(distDir, "index.html"))) return;
+  app.use(
+    express.static(distDir, {
+      index: false,
+      setHeaders: (res, filePath) => {
+        res.setHeader("Cache-Control", isHashedAsset(distDir, filePath) ? "public, max-age=31536000, immutable" : "no-cache");
+      },
+    }),
+  );
+  app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(path.join(distDir, "index.html"), { headers: { "Cache-Control": "no-cache" } }));
 }
 
 /** Closes the session store's pool (tests and shutdown). */
