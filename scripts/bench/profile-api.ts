@@ -11,6 +11,8 @@ const dir = path.resolve(".data/bench/profile");
 interface Node { id: number; callFrame: { url: string; functionName: string }; children?: number[] }
 interface Profile { nodes: Node[]; samples: number[]; timeDeltas: number[]; startTime: number }
 
+let topFunctions: Array<[string, number]> = [];
+
 /** Self time per module: node_modules/<package>, or the project folder (server/, shared/…), or node internals. */
 function summarise(profile: Profile, fromUs: number, toUs: number): Array<[string, number]> {
   const byId = new Map(profile.nodes.map((n) => [n.id, n]));
@@ -22,8 +24,12 @@ function summarise(profile: Profile, fromUs: number, toUs: number): Array<[strin
     if (at >= fromUs && at <= toUs) self.set(id, (self.get(id) ?? 0) + (profile.timeDeltas[i] ?? 0));
   });
   const out = new Map<string, number>();
+  const fns = new Map<string, number>();
   let total = 0;
   for (const [id, t] of self) {
+    const frame = byId.get(id)?.callFrame;
+    const fnKey = `${frame?.functionName || "(anonymous)"} ${(frame?.url ?? "").replace(/^.*node_modules\//, "").replace(/^file:\/\/.*?\/(server|shared)\//, "$1/")}`;
+    fns.set(fnKey, (fns.get(fnKey) ?? 0) + t);
     const url = byId.get(id)?.callFrame.url ?? "";
     const fn = byId.get(id)?.callFrame.functionName ?? "";
     const m = /node_modules\/((?:@[^/]+\/)?[^/]+)/.exec(url);
@@ -31,6 +37,7 @@ function summarise(profile: Profile, fromUs: number, toUs: number): Array<[strin
     out.set(key, (out.get(key) ?? 0) + t);
     total += t;
   }
+  topFunctions = [...fns].map(([k, t]) => [k, t / total] as [string, number]).sort((a, b) => b[1] - a[1]);
   return [...out].map(([k, t]) => [k, t / total] as [string, number]).sort((a, b) => b[1] - a[1]);
 }
 
@@ -55,6 +62,8 @@ async function main() {
   const file = fs.readdirSync(dir).find((f) => f.endsWith(".cpuprofile"));
   if (!file) throw new Error("no profile written");
   for (const [k, share] of summarise(JSON.parse(fs.readFileSync(path.join(dir, file), "utf8")) as Profile, from, to).slice(0, 25)) console.log(`${(share * 100).toFixed(1).padStart(5)} %  ${k}`);
+  console.log("\nTop functions (self time):");
+  for (const [k, share] of topFunctions.slice(0, 30)) console.log(`${(share * 100).toFixed(1).padStart(5)} %  ${k}`);
 }
 
 main().then(() => process.exit(0), (err) => { console.error(err); process.exit(1); });
