@@ -5,6 +5,7 @@
 // Figures only: nothing here passes or fails a test. Options: --seconds N (each measurement, default 5),
 // --soak N (default 60), --no-scale (skip the 10× part), --scale-only.
 import fs from "node:fs";
+import os from "node:os";
 import path from "node:path";
 import { parseArgs } from "node:util";
 import autocannon from "autocannon";
@@ -28,6 +29,8 @@ const WORK_DIR = path.resolve(".data/bench");
 const PASSWORD = "seamscene-demo";
 
 interface Side {
+  /** CPU ms of the server process per request, per round. */
+  cpu: number[];
   rps: number[];
   p50: number[];
   p99: number[];
@@ -56,10 +59,12 @@ async function measureRatios(app: Running, cookie: string, endpoints: Array<{ na
   }
   const bare = await startBare(bodies, WORK_DIR);
   try {
-    const sides = new Map(endpoints.map((e) => [e.path, { bare: { rps: [], p50: [], p99: [], errors: 0 } as Side, app: { rps: [], p50: [], p99: [], errors: 0 } as Side }]));
+    const sides = new Map(endpoints.map((e) => [e.path, { bare: { cpu: [], rps: [], p50: [], p99: [], errors: 0 } as Side, app: { cpu: [], rps: [], p50: [], p99: [], errors: 0 } as Side }]));
     const run = async (server: Running, p: string, side: Side, seconds: number, record = true) => {
+      const cpuBefore = server.cpuMs();
       const r = await cannon({ url: server.url + p, connections: CONNECTIONS, duration: seconds, headers: { cookie } });
       if (!record) return;
+      side.cpu.push((server.cpuMs() - cpuBefore) / Math.max(1, r.requests.total));
       side.rps.push(r.requests.average);
       side.p50.push(r.latency.p50);
       side.p99.push(r.latency.p99);
@@ -81,7 +86,8 @@ async function measureRatios(app: Running, cookie: string, endpoints: Array<{ na
     }
     process.stdout.write("\n");
     console.log(`\n${CONNECTIONS} connections, ${ROUNDS} alternating rounds of ${SECONDS} s per side (median of rounds; ratio = Seamscene / bare, summed over rounds)`);
-    console.log(["endpoint".padEnd(34), "bytes".padStart(7), "bare req/s".padStart(11), "app req/s".padStart(10), "ratio".padStart(7), "target".padStart(7), "p50 ms".padStart(7), "p99 ms".padStart(7), "p99/p50".padStart(8), "errors".padStart(7)].join(" "));
+    console.log(`CPU ratio = the bare server's CPU time per request / Seamscene's (its own process, PostgreSQL not counted): what the ratio would be if the server alone were the limit. Load average now: ${os.loadavg().map((x) => x.toFixed(1)).join(", ")} on ${os.cpus().length} cores.`);
+    console.log(["endpoint".padEnd(34), "bytes".padStart(7), "bare req/s".padStart(11), "app req/s".padStart(10), "ratio".padStart(7), "target".padStart(7), "p50 ms".padStart(7), "p99 ms".padStart(7), "p99/p50".padStart(8), "errors".padStart(7), "CPU ms/req bare".padStart(16), "app".padStart(6), "CPU ratio".padStart(10)].join(" "));
     const summary: Array<{ name: string; ratio: number; target: number; p99overP50: number; errors: number }> = [];
     for (const e of endpoints) {
       const s = sides.get(e.path)!;
@@ -101,6 +107,9 @@ async function measureRatios(app: Running, cookie: string, endpoints: Array<{ na
           fmt(p99, 1).padStart(7),
           fmt(p99 / Math.max(p50, 1), 1).padStart(8),
           String(s.app.errors).padStart(7),
+          fmt(median(s.bare.cpu), 2).padStart(16),
+          fmt(median(s.app.cpu), 2).padStart(6),
+          pct(median(s.bare.cpu) / median(s.app.cpu)).padStart(10),
         ].join(" "),
       );
     }

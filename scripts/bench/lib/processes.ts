@@ -46,6 +46,8 @@ export interface Running {
   url: string;
   /** Resident memory of the process now (MB), from /proc. */
   rssMb: () => number;
+  /** CPU time the process has used so far (ms, user + system), from /proc. */
+  cpuMs: () => number;
   stop: () => Promise<void>;
 }
 
@@ -55,6 +57,17 @@ function rssOf(pid: number | undefined): number {
     const status = fs.readFileSync(`/proc/${pid}/status`, "utf8");
     const kb = Number(/VmRSS:\s+(\d+)/.exec(status)?.[1]);
     return kb / 1024;
+  } catch {
+    return NaN;
+  }
+}
+
+function cpuOf(pid: number | undefined): number {
+  if (!pid) return NaN;
+  try {
+    // Fields after the command name: utime and stime are the 12th and 13th (clock ticks, 100 per second).
+    const rest = fs.readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1]!.split(" ");
+    return (Number(rest[11]) + Number(rest[12])) * 10;
   } catch {
     return NaN;
   }
@@ -107,7 +120,7 @@ export async function startSeamscene(opts: { databaseUrl: string; env?: NodeJS.P
   const url = `http://127.0.0.1:${port}`;
   await waitUntil(async () => (await fetch(`${url}/api/health`)).ok, child, () => fs.readFileSync(opts.logFile, "utf8").slice(-4000), "The Seamscene server");
   fs.closeSync(log);
-  return { child, url, rssMb: () => rssOf(child.pid), stop: stopper(child) };
+  return { child, url, rssMb: () => rssOf(child.pid), cpuMs: () => cpuOf(child.pid), stop: stopper(child) };
 }
 
 /** Starts the bare Express server answering each path with the given body. */
@@ -122,7 +135,7 @@ export async function startBare(bodies: Record<string, string>, dir: string): Pr
   child.stderr?.on("data", (d) => (out += d));
   const url = `http://127.0.0.1:${port}`;
   await waitUntil(async () => out.includes("ready"), child, () => out, "The bare server");
-  return { child, url, rssMb: () => rssOf(child.pid), stop: stopper(child) };
+  return { child, url, rssMb: () => rssOf(child.pid), cpuMs: () => cpuOf(child.pid), stop: stopper(child) };
 }
 
 /** Signs in through the API (CSRF token first) and returns the session cookie and a CSRF token for writes. */
