@@ -1,7 +1,7 @@
 import fs from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import express, { type Express } from "express";
+import express, { type Express, type RequestHandler } from "express";
 import helmet from "helmet";
 import compression from "compression";
 import session from "express-session";
@@ -16,10 +16,39 @@ import { buildApiRouter } from "./routes/index.js";
 import { apiNotFound, errorHandler } from "./middleware/error-handler.js";
 import { HttpError } from "./errors.js";
 import { touchSessionNowAndThen } from "./middleware/session-touch.js";
+import { closeWorkerPool } from "./lib/worker-pool.js";
+import { healthRouter } from "./routes/health.routes.js";
 
 const rootDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 
 let sessionPool: pg.Pool | undefined;
+
+/**
+ * The session store's own pool. An idle client whose server goes away emits "error" on the pool;
+ * without a listener that would end the process, so it is logged and the pool opens new clients later.
+ */
+function createSessionPool(): pg.Pool {
+  const pool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 5, connectionTimeoutMillis: 5000 });
+  pool.on("error", (err) => logger.warn({ err: { message: err.message, code: (err as { code?: string }).code } }, "session store connection lost"));
+  return pool;
+}
+
+/**
+ * express-session saves or touches the session while the answer is being written, and reports a
+ * failure (the database went away) by calling `next` a second time. By then the answer is out and
+ * Express's request pipeline has finished, so that call would end in Express's default handler,
+ * which prints the error and cuts the keep-alive connection under the next request. Log it instead.
+ */
+function lateErrorsLogged(mw: RequestHandler): RequestHandler {
+  return (req, res, next) =>
+    mw(req, res, (err?: unknown) => {
+      if (err && res.headersSent) {
+        logger.warn({ url: req.originalUrl, reason: (err as Error)?.message }, "session store failed after the response was sent");
+        return;
+      }
+      next(err);
+    });
+}
 
 /** Builds the Express app. Never listens (server/index.ts does), so tests use it with supertest. */
 export function createApp(): Express {
@@ -48,19 +77,28 @@ export function createApp(): Express {
 
   app.use(express.json({ limit: "2mb" }));
 
-  sessionPool ??= new pg.Pool({ connectionString: config.DATABASE_URL, max: 5 });
+  app.use("/api", healthRouter);
+
+  sessionPool ??= createSessionPool();
   const PgStore = connectPgSimple(session);
   app.use(
-    session({
+    lateErrorsLogged(session({
       name: "seamscene.sid",
       // No touch per request: touchSessionNowAndThen moves the expiry at most every few minutes.
-      store: new PgStore({ pool: sessionPool, tableName: "session", createTableIfMissing: false, pruneSessionInterval: isProduction ? 900 : false, disableTouch: true }),
+      store: new PgStore({
+        pool: sessionPool,
+        tableName: "session",
+        createTableIfMissing: false,
+        pruneSessionInterval: isProduction ? 900 : false,
+        disableTouch: true,
+        errorLog: (...args: unknown[]) => logger.warn({ detail: args.map(String).join(" ") }, "session store error"),
+      }),
       secret: config.SESSION_SECRET,
       resave: false,
       saveUninitialized: false,
       rolling: false,
       cookie: { httpOnly: true, sameSite: "lax", secure: config.SECURE_COOKIES, maxAge: 14 * 86_400_000 },
-    }),
+    })),
   );
   app.use(touchSessionNowAndThen);
   app.use(passport.initialize());
@@ -111,8 +149,9 @@ export function serveBuiltClient(app: Express, distDir: string): void {
   app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(path.join(distDir, "index.html"), { headers: { "Cache-Control": "no-cache" } }));
 }
 
-/** Closes the session store's pool (tests and shutdown). */
+/** Closes the session store's pool and the worker threads (tests and shutdown). */
 export async function closeAppResources(): Promise<void> {
   await sessionPool?.end();
   sessionPool = undefined;
+  await closeWorkerPool();
 }

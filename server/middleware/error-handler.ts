@@ -2,18 +2,20 @@ import type { ErrorRequestHandler, RequestHandler } from "express";
 import { ZodError } from "zod";
 import { BaseError, UniqueConstraintError, ValidationError as SequelizeValidationError, ForeignKeyConstraintError, EmptyResultError, DatabaseError } from "sequelize";
 import multer from "multer";
-import { HttpError } from "../errors.js";
+import { DatabaseUnavailableError, HttpError } from "../errors.js";
+import { isDatabaseUnavailable } from "../lib/db-errors.js";
 import { logger } from "../lib/logger.js";
+import { fieldSentences, issuesToFieldSentences, plainMessage } from "@shared/field-messages.js";
 
 function zodToHttp(err: ZodError): HttpError {
-  const fields: Record<string, string> = {};
-  for (const issue of err.issues) {
-    const key = issue.path.length ? issue.path.join(".") : "_";
-    if (!fields[key]) fields[key] = issue.message;
-  }
-  const [firstKey, firstMsg] = Object.entries(fields)[0] ?? ["_", "Invalid input"];
-  const message = firstKey === "_" ? firstMsg : `${firstKey}: ${firstMsg}`;
-  return new HttpError(400, "validation_error", message, fields);
+  const fields = issuesToFieldSentences(err.issues);
+  return new HttpError(400, "validation_error", Object.values(fields)[0] ?? "The input is not valid.", fields);
+}
+
+/** Field names and predicates in the person's words ("Name is required"), whoever threw the error. */
+function inPlainWords(e: HttpError): HttpError {
+  if (e.status >= 500) return e;
+  return new HttpError(e.status, e.code, plainMessage(e.message), e.fields ? fieldSentences(e.fields) : undefined);
 }
 
 function camel(s: string): string {
@@ -23,6 +25,8 @@ function camel(s: string): string {
 /** Maps any thrown error onto one HttpError. */
 export function toHttpError(err: unknown): HttpError {
   if (err instanceof HttpError) return err;
+  // PostgreSQL restarting or unreachable: a 503 the client can retry, not a 500.
+  if (isDatabaseUnavailable(err)) return DatabaseUnavailableError();
   if (err instanceof ZodError) return zodToHttp(err);
   if (err instanceof UniqueConstraintError) {
     const fields: Record<string, string> = {};
@@ -45,7 +49,7 @@ export function toHttpError(err: unknown): HttpError {
     return new HttpError(400, "validation_error", "A value has the wrong form.");
   }
   if (err instanceof multer.MulterError) {
-    if (err.code === "LIMIT_FILE_SIZE") return new HttpError(413, "payload_too_large", "The file is larger than the upload limit.");
+    if (err.code === "LIMIT_FILE_SIZE") return new HttpError(413, "payload_too_large", "The file is larger than the upload limit.", { [err.field ?? "file"]: "larger than the upload limit" });
     if (err.code === "LIMIT_FILE_COUNT" || err.code === "LIMIT_UNEXPECTED_FILE")
       return new HttpError(400, "validation_error", "Too many files or an unexpected file field.", { [err.field ?? "file"]: err.message });
     return new HttpError(400, "validation_error", err.message);
@@ -61,8 +65,18 @@ export function toHttpError(err: unknown): HttpError {
 
 /** The one place error responses are written. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
-  const httpError = toHttpError(err);
-  if (httpError.status >= 500) logger.error({ err, url: req.originalUrl }, "request failed");
+  const httpError = inPlainWords(toHttpError(err));
+  if (res.headersSent) {
+    // Too late for an error response: e.g. the session store failed to save after the answer went out
+    // (express-session saves while the body is written). Log it; cut the connection only if the
+    // body is still unfinished, so the client does not wait for ever.
+    logger.warn({ url: req.originalUrl, reason: (err as Error)?.message, code: httpError.code }, "error after the response was sent");
+    if (!res.writableEnded) req.socket?.destroy();
+    return;
+  }
+  if (httpError.code === "database_unavailable") logger.warn({ url: req.originalUrl, reason: (err as Error)?.message }, "database unavailable");
+  else if (httpError.status >= 500) logger.error({ err, url: req.originalUrl }, "request failed");
+  if (httpError.status === 503) res.set("Retry-After", "5");
   res.status(httpError.status).json({
     error: { code: httpError.code, message: httpError.message, ...(httpError.fields ? { fields: httpError.fields } : {}) },
   });

@@ -1,5 +1,4 @@
 import { Router } from "express";
-import { sequelize } from "../db.js";
 import { requireAuth, loadProduction } from "../middleware/require-auth.js";
 import { authRouter, invitationsPublicRouter } from "./auth.routes.js";
 import { productionsRouter, productionRouter } from "./productions.routes.js";
@@ -17,19 +16,11 @@ import { alterationsRouter, fittingsRouter, workroomRouter } from "./workroom.ro
 import { snagsRouter } from "./snags.routes.js";
 import { doublesRouter, panelsRouter, seamsRouter } from "./doubles.routes.js";
 import { packetsRouter } from "./packets.routes.js";
+import { reportsRouter } from "./reports.routes.js";
 
 /** Everything under /api. Feature routers mount on `production` (one production's records). */
 export function buildApiRouter(): Router {
   const api = Router();
-
-  api.get("/health", async (_req, res) => {
-    try {
-      await sequelize.query("SELECT 1");
-      res.json({ ok: true, db: "up" });
-    } catch {
-      res.status(503).json({ ok: false, db: "down" });
-    }
-  });
 
   api.use("/auth", authRouter);
   api.use("/invitations", invitationsPublicRouter);
@@ -67,6 +58,8 @@ export function buildApiRouter(): Router {
   production.use("/panels", panelsRouter);
   production.use("/seams", seamsRouter);
   production.use("/packets", packetsRouter);
+  // Reports: continuity books, rack list, returns and wrap, budget.
+  production.use("/reports", reportsRouter);
   production.use("/", productionRouter);
   api.use("/productions/:productionId", production);
 
