@@ -13,8 +13,8 @@ import type { Migration } from "../migrator.js";
  * - Versions come from one sequence, so a production deleted and created again (or a database
  *   reset in tests) never repeats a version an app server may still hold.
  * - A change to the production row itself (its settings) bumps it too.
- * New production-owned tables call `SELECT track_production_data('table_name')` in their migration;
- * tests/server/data-version.test.ts lists any that do not.
+ * A production-owned table added later is tracked by `track_all_production_data()`, which the
+ * migrator runs after every migration run; tests/server/data-version.test.ts lists any that are not.
  */
 export const up: Migration = async ({ context: qi }) => {
   await qi.sequelize.query(`
@@ -74,19 +74,26 @@ export const up: Migration = async ({ context: qi }) => {
       EXECUTE format('CREATE TRIGGER production_data_deleted AFTER DELETE ON %s REFERENCING OLD TABLE AS old_rows FOR EACH STATEMENT EXECUTE FUNCTION note_production_data_change()', t);
     END $$;
 
-    -- Every production-owned table that exists now.
-    DO $$
-    DECLARE t regclass;
+    -- Every production-owned table (a production_id column) not tracked yet. Called here and after
+    -- every migration run (server/migrator.ts), so a table added later is tracked whatever its migration says.
+    CREATE FUNCTION track_all_production_data() RETURNS text[] LANGUAGE plpgsql AS $$
+    DECLARE
+      t regclass;
+      added text[] := '{}';
     BEGIN
       FOR t IN
         SELECT c.oid::regclass FROM pg_class c JOIN pg_namespace n ON n.oid = c.relnamespace
          WHERE n.nspname = 'public' AND c.relkind = 'r' AND c.relname <> 'production_data_changes'
            AND EXISTS (SELECT 1 FROM pg_attribute a WHERE a.attrelid = c.oid AND a.attname = 'production_id' AND NOT a.attisdropped)
+           AND NOT EXISTS (SELECT 1 FROM pg_trigger g WHERE g.tgrelid = c.oid AND g.tgname = 'production_data_inserted')
          ORDER BY c.relname
       LOOP
         PERFORM track_production_data(t);
+        added := added || t::text;
       END LOOP;
+      RETURN added;
     END $$;
+    SELECT track_all_production_data();
   `);
 };
 
@@ -99,6 +106,7 @@ export const down: Migration = async ({ context: qi }) => {
         EXECUTE format('DROP TRIGGER %I ON %s', r.tgname, r.t);
       END LOOP;
     END $$;
+    DROP FUNCTION track_all_production_data();
     DROP FUNCTION track_production_data(regclass);
     DROP TABLE production_data_changes;
     DROP FUNCTION apply_production_data_change();

@@ -92,7 +92,8 @@ export async function listGarments(actor: Actor, q: ListGarmentsQuery): Promise<
     Garment.findAll({
       where,
       include: includeNames,
-      order: [[q.sort, dir], ["tagCode", "ASC"]],
+      // Ties by tag code in the same direction, so one index serves the page either way round.
+      order: [[q.sort, dir], ["tagCode", dir]],
       limit: q.pageSize,
       offset: (q.page - 1) * q.pageSize,
       raw: true,

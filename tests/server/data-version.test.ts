@@ -3,6 +3,7 @@
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../server/db.js";
+import { migrate } from "../../server/migrator.js";
 import { createApp } from "../../server/app.js";
 import { clock } from "../../server/lib/clock.js";
 import { Garment, Production, Scene } from "../../server/models/index.js";
@@ -26,8 +27,8 @@ afterEach(() => {
 
 describe("production-owned tables", () => {
   it("every table with a production_id column has the three data-version triggers", async () => {
-    // A table listed here was added without `SELECT track_production_data('its_name')` in its migration:
-    // writes to it would not clear cached snags on any server.
+    // A table listed here would not clear cached snags on any server when written to
+    // (track_all_production_data() in server/migrator.ts should have tracked it).
     const missing = await sequelize.query<{ table: string; has: number }>(
       `SELECT c.relname AS table, count(t.tgname)::int AS has
          FROM pg_class c
@@ -44,20 +45,31 @@ describe("production-owned tables", () => {
     expect(missing).toEqual([]);
   });
 
-  it("the check above finds a table that lacks the triggers", async () => {
+  it("tracks the workroom's progress and the report runs (tables added after the triggers)", async () => {
+    const tracked = await sequelize.query<{ table: string }>(
+      `SELECT DISTINCT c.relname AS table FROM pg_trigger t JOIN pg_class c ON c.oid = t.tgrelid
+        WHERE t.tgname = 'production_data_inserted' AND c.relname IN ('work_progress', 'report_runs', 'garments') ORDER BY 1`,
+      { type: QueryTypes.SELECT },
+    );
+
+    expect(tracked.map((r) => r.table)).toEqual(["garments", "report_runs", "work_progress"]);
+  });
+
+  it("a production-owned table added later is tracked when migrations next run", async () => {
     await sequelize.query(`CREATE TABLE untracked_probe (id serial PRIMARY KEY, production_id uuid)`);
+    const triggersOnProbe = async () =>
+      (
+        await sequelize.query<{ n: number }>(
+          `SELECT count(*)::int AS n FROM pg_trigger t JOIN pg_class c ON c.oid = t.tgrelid WHERE c.relname = 'untracked_probe' AND t.tgname LIKE 'production_data_%'`,
+          { type: QueryTypes.SELECT },
+        )
+      )[0]!.n;
     try {
-      const [row] = await sequelize.query<{ n: number }>(
-        `SELECT count(*)::int AS n FROM pg_trigger t JOIN pg_class c ON c.oid = t.tgrelid WHERE c.relname = 'untracked_probe' AND t.tgname LIKE 'production_data_%'`,
-        { type: QueryTypes.SELECT },
-      );
-      expect(row!.n).toBe(0);
-      await sequelize.query(`SELECT track_production_data('untracked_probe')`);
-      const [after] = await sequelize.query<{ n: number }>(
-        `SELECT count(*)::int AS n FROM pg_trigger t JOIN pg_class c ON c.oid = t.tgrelid WHERE c.relname = 'untracked_probe' AND t.tgname LIKE 'production_data_%'`,
-        { type: QueryTypes.SELECT },
-      );
-      expect(after!.n).toBe(3);
+      expect(await triggersOnProbe()).toBe(0);
+
+      await migrate(sequelize);
+
+      expect(await triggersOnProbe()).toBe(3);
     } finally {
       await sequelize.query(`DROP TABLE untracked_probe`);
     }

@@ -4,7 +4,7 @@ import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import fs from "node:fs";
 import net from "node:net";
 import path from "node:path";
-import { dropDatabase, ensureDatabase, ensureLocalPostgres } from "../../lib/postgres.js";
+import { dropDatabase, ensureDatabase, ensureLocalPostgres, type DatabaseAdmin } from "../../lib/postgres.js";
 
 export const tsxCli = path.resolve("node_modules/tsx/dist/cli.mjs");
 
@@ -19,16 +19,19 @@ export function freePort(): Promise<number> {
   });
 }
 
-/** A fresh database `name` on the local cluster (PGPORT / PGDATA_DIR, as `npm start` uses), or on DATABASE_URL's server. */
+/** A fresh database `name` on the local cluster (PGPORT / PGDATA_DIR, as `npm start` uses), or on DATABASE_URL's server
+ * (whose role must be allowed to create databases). */
 export async function freshDatabase(name: string): Promise<string> {
-  let adminUrl: string;
-  if (process.env.DATABASE_URL) adminUrl = process.env.DATABASE_URL.replace(/\/[^/]*$/, "/postgres");
-  else {
-    const pg = await ensureLocalPostgres({ dataDir: process.env.PGDATA_DIR ?? path.resolve(".data/pg"), port: Number(process.env.PGPORT ?? 5433) });
-    adminUrl = pg.adminUrl;
+  let admin: DatabaseAdmin;
+  if (process.env.DATABASE_URL) {
+    const url = new URL(process.env.DATABASE_URL);
+    const onDatabase = (db: string) => Object.assign(new URL(url.href), { pathname: `/${db}` }).href;
+    admin = { adminUrl: onDatabase("postgres"), app: { user: decodeURIComponent(url.username), password: decodeURIComponent(url.password) }, appUrl: onDatabase };
+  } else {
+    admin = await ensureLocalPostgres({ dataDir: process.env.PGDATA_DIR ?? path.resolve(".data/pg"), port: Number(process.env.PGPORT ?? 5433) });
   }
-  await dropDatabase(adminUrl, name);
-  return ensureDatabase(adminUrl, name);
+  await dropDatabase(admin.adminUrl, name);
+  return ensureDatabase(admin, name);
 }
 
 /** Runs `npm run seed` (migrations and the demo, plus `extraArgs`) against a database; throws on failure. */
