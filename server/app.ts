@@ -7,7 +7,6 @@ import compression from "compression";
 import session from "express-session";
 import connectPgSimple from "connect-pg-simple";
 import pg from "pg";
-import { pinoHttp } from "pino-http";
 import { csrfSync } from "csrf-sync";
 import { config, isProduction } from "./config.js";
 import { logger } from "./lib/logger.js";
@@ -16,6 +15,7 @@ import { buildApiRouter } from "./routes/index.js";
 import { apiNotFound, errorHandler } from "./middleware/error-handler.js";
 import { HttpError } from "./errors.js";
 import { touchSessionNowAndThen } from "./middleware/session-touch.js";
+import { requestLog } from "./middleware/request-log.js";
 import { closeWorkerPool } from "./lib/worker-pool.js";
 import { healthRouter } from "./routes/health.routes.js";
 
@@ -73,7 +73,7 @@ export function createApp(): Express {
   );
   // gzip or brotli for JSON, CSV and the client's text assets (images and ZIPs are left as they are).
   app.use(compression({ threshold: 1024 }));
-  if (config.NODE_ENV !== "test") app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => !req.url?.startsWith("/api") } }));
+  if (config.NODE_ENV !== "test") app.use(requestLog(logger));
 
   app.use(express.json({ limit: "2mb" }));
 

@@ -51,12 +51,14 @@ const MAX_SORTED_ROWS = 1000;
 /** Runs a list and returns what EXPLAIN of each SELECT it sent finds: tables read in sequence, large sorts. */
 async function sequentialScansOf(run: () => Promise<unknown>): Promise<{ queries: number; seqScans: string[] }> {
   const sent: string[] = [];
-  const previous = sequelize.options.logging;
-  sequelize.options.logging = (sql: string) => sent.push(sql.replace(/^Executing \([^)]*\): /, ""));
+  // Sequelize reads its logging option on every query; its type declarations do not list `options`.
+  const options = (sequelize as unknown as { options: { logging: unknown } }).options;
+  const previous = options.logging;
+  options.logging = (sql: string) => sent.push(sql.replace(/^Executing \([^)]*\): /, ""));
   try {
     await run();
   } finally {
-    sequelize.options.logging = previous;
+    options.logging = previous;
   }
   const seqScans: string[] = [];
   const selects = sent.filter((s) => /^\s*SELECT/i.test(s));
