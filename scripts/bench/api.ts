@@ -1,7 +1,7 @@
 // `npm run bench:api`: Seamscene's signed-in endpoints against a bare Express server sending the same
 // bytes, measured with autocannon in one run, the two sides alternating three times; then a soak at 64
-// connections, the server's memory, and the 10× production (snags first load and from the cache,
-// EXPLAIN of the main lists, the breakdown table's frame times in Chromium).
+// connections, the server's memory, and the 10× production (snags first load and from the cache, pages
+// of the main lists; scripts/bench/scale.ts). The lists' query plans are checked by tests/server/list-plans.test.ts.
 // Figures only: nothing here passes or fails a test. Options: --seconds N (each measurement, default 5),
 // --soak N (default 60), --no-scale (skip the 10× part), --scale-only.
 import fs from "node:fs";
