@@ -64,7 +64,7 @@ beforeAll(async () => {
   root = fs.mkdtempSync(path.join(os.tmpdir(), "seamscene-two-"));
   await resetDb();
   await seedDemo({ today: testToday() });
-  s3 = new S3rver({ port: 0, address: "127.0.0.1", silent: true, directory: path.join(root, "s3"), configureBuckets: [{ name: "seamscene-two", configs: [] }] });
+  s3 = new S3rver({ port: 0, address: "127.0.0.1", silent: true, directory: path.join(root, "s3"), configureBuckets: [{ name: "seamscene-two" }] });
   const s3port = ((await s3.run()) as { port: number }).port;
 
   const databaseUrl = process.env.DATABASE_URL!;
