@@ -4,14 +4,12 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import express from "express";
-import { pino } from "pino";
 import request from "supertest";
 import { QueryTypes } from "sequelize";
 import { beforeEach, describe, expect, it } from "vitest";
 import { createApp, serveBuiltClient } from "../../server/app.js";
 import { sequelize } from "../../server/db.js";
 import { SESSION_TOUCH_INTERVAL_MS } from "../../server/middleware/session-touch.js";
-import { requestLog } from "../../server/middleware/request-log.js";
 import { buildGarment, buildMember } from "../factories.js";
 import { resetDb, signedInAgent } from "../setup/http.js";
 
@@ -95,26 +93,5 @@ describe("the built client", () => {
     expect(page.text).toContain("<title>Seamscene</title>");
     expect(icon.headers["cache-control"]).toBe("no-cache");
     fs.rmSync(dist, { recursive: true, force: true });
-  });
-});
-
-describe("the request log", () => {
-  it("writes one short line per API request, without headers or cookies", async () => {
-    const lines: string[] = [];
-    const log = pino({ level: "info" }, { write: (line: string) => void lines.push(line) });
-    const web = express();
-    web.use(requestLog(log));
-    web.get("/api/thing", (_req, res) => res.json({ ok: true }));
-    web.get("/assets/x.js", (_req, res) => res.send("x"));
-
-    await request(web).get("/api/thing?page=2").set("Cookie", "seamscene.sid=s%3Asid-value-4711").set("X-Csrf-Token", "csrf-value-4712").expect(200);
-    await request(web).get("/assets/x.js").expect(200);
-
-    expect(lines).toHaveLength(1);
-    const entry = JSON.parse(lines[0]!);
-    expect(entry.req).toEqual({ id: expect.anything(), method: "GET", url: "/api/thing?page=2" });
-    expect(entry.res).toEqual({ statusCode: 200 });
-    expect(typeof entry.responseTime).toBe("number");
-    expect(lines[0]).not.toMatch(/4711|4712|headers|cookie/i);
   });
 });
