@@ -77,17 +77,33 @@ function whereFor(actor: Actor, f: GarmentFilters, dueFromDay: string | null): W
   return { [Op.and]: and };
 }
 
-/** One page of garments matching the filters. */
-export async function listGarments(actor: Actor, q: ListGarmentsQuery): Promise<{ rows: Garment[]; count: number }> {
+/** A garment as lists read it: plain columns plus fabric and group names, no model instance. */
+export type GarmentListRow = Omit<Garment["_attributes"], "fabric" | "multiplesGroup"> & {
+  fabric: { id: string | null; name: string | null } | null;
+  multiplesGroup: { id: string | null; name: string | null } | null;
+};
+
+/**
+ * One page of garments matching the filters, with the total. Plain rows (building model instances was
+ * most of a list request's time); the page and the count run side by side on two connections.
+ */
+export async function listGarments(actor: Actor, q: ListGarmentsQuery): Promise<{ rows: GarmentListRow[]; count: number }> {
   const dir = q.dir.toUpperCase() as "ASC" | "DESC";
-  return Garment.findAndCountAll({
-    where: whereFor(actor, q, await dueFrom(actor, q)),
-    include: includeNames,
-    order: [[q.sort, dir], ["tagCode", "ASC"]],
-    limit: q.pageSize,
-    offset: (q.page - 1) * q.pageSize,
-    distinct: true,
-  });
+  const where = whereFor(actor, q, await dueFrom(actor, q));
+  const [rows, count] = await Promise.all([
+    Garment.findAll({
+      where,
+      include: includeNames,
+      // Ties by tag code in the same direction, so one index serves the page either way round.
+      order: [[q.sort, dir], ["tagCode", dir]],
+      limit: q.pageSize,
+      offset: (q.page - 1) * q.pageSize,
+      raw: true,
+      nest: true,
+    }) as unknown as Promise<GarmentListRow[]>,
+    Garment.count({ where }),
+  ]);
+  return { rows, count };
 }
 
 /** Every garment matching the filters, by tag code (exports and label sheets). */
