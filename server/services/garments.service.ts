@@ -26,7 +26,7 @@ import {
 } from "@shared/schemas/garments.js";
 import { formatLength, type LengthUnit } from "@shared/domain/units.js";
 import { scheduleLabels } from "@shared/domain/schedule-labels.js";
-import { roleLabels } from "@shared/permissions.js";
+import { can, roleLabels, type Role } from "@shared/permissions.js";
 
 /** What a check-out shows besides its own columns: the day, the scene and who handed it out. */
 const checkoutIncludes = [
@@ -331,7 +331,7 @@ export async function resolveCheckout(actor: Actor, status: GarmentStatus, c: Ch
   let toName: string;
   if (c.toUserId) {
     const m = await Membership.findOne({ where: { productionId: pid, userId: c.toUserId }, include: [{ model: User, as: "user", attributes: ["id", "name"] }], transaction });
-    if (!m?.user) throw ValidationError("checkout.toUserId: is not a member of this production", { "checkout.toUserId": "is not a member of this production" });
+    if (!m?.user || !can(m.role, "garment.read")) throw ValidationError("checkout.toUserId: is not a member of this production", { "checkout.toUserId": "is not a member of this production" });
     toName = m.user.name;
   } else {
     const p = await Performer.findOne({ where: { id: c.toPerformerId!, productionId: pid }, attributes: ["id", "name"], transaction });
@@ -549,7 +549,8 @@ export async function checkoutOptions(actor: Actor): Promise<CheckoutOptionsDto>
   for (const r of dayScenes) (scenesOf.get(r.shoot_day_id) ?? scenesOf.set(r.shoot_day_id, []).get(r.shoot_day_id)!).push({ id: r.id, number: r.number });
   return {
     today,
-    members: members.map((m) => ({ userId: m.user_id, name: m.name, role: roleLabels[m.role as keyof typeof roleLabels] ?? m.role })),
+    // Only people who handle garments (the permission table decides who that is) can take one out.
+    members: members.filter((m) => can(m.role as Role, "garment.read")).map((m) => ({ userId: m.user_id, name: m.name, role: roleLabels[m.role as Role] ?? m.role })),
     performers: performers.map((p) => ({ id: p.id, name: p.name, characters: p.characters ?? [] })),
     days: days.map((d) => ({ id: d.id, date: d.date, kind: d.kind, dayNumber: d.day_number, scenes: d.kind === "performance" ? runningOrder : (scenesOf.get(d.id) ?? []) })),
   };

@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useState } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import { Link, Route, Routes, useParams } from "react-router";
 import type { ContinuityTimelineDto } from "@shared/schemas/continuity";
 import type { PhotoView } from "@shared/schemas/photos";
@@ -12,6 +12,7 @@ import { PhotoCapture, PhotoStrip, viewLabels, type PendingPhoto } from "@/compo
 import { useCharacters, useContinuityTimeline, useLogContinuity, useScene, useShootDays } from "@/features/breakdown/api/breakdown";
 import { StateBadges } from "@/features/breakdown/components/scene-page";
 import { cn } from "@/utils/cn";
+import { scheduleLabels } from "@shared/domain/schedule-labels";
 
 /** Continuity screen: capture on set, a character's timeline, two scenes side by side. */
 export default function ContinuityScreen() {
@@ -23,11 +24,6 @@ export default function ContinuityScreen() {
   );
 }
 
-function todayIso(): string {
-  const d = new Date();
-  return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, "0")}-${String(d.getDate()).padStart(2, "0")}`;
-}
-
 const VIEW_ORDER: PhotoView[] = ["front", "back", "left", "right", "detail"];
 
 function ContinuityHome() {
@@ -37,15 +33,16 @@ function ContinuityHome() {
   const [dayId, setDayId] = useState("");
   const [sceneId, setSceneId] = useState("");
   const [characterId, setCharacterId] = useState("");
-  const stage = production?.kind === "stage";
+  const words = scheduleLabels(production);
+  // "Today" is the server's, in the production's time zone (the client never guesses it).
+  const today = production?.today ?? "";
 
   // Default to today's shoot day, else the next one, else the last.
   useEffect(() => {
-    if (dayId || !days.data?.length) return;
-    const today = todayIso();
+    if (dayId || !days.data?.length || !today) return;
     const pick = days.data.find((d) => d.date === today) ?? days.data.find((d) => d.date > today) ?? days.data[days.data.length - 1]!;
     setDayId(pick.id);
-  }, [days.data, dayId]);
+  }, [days.data, dayId, today]);
   const day = days.data?.find((d) => d.id === dayId);
 
   return (
@@ -56,13 +53,13 @@ function ContinuityHome() {
           {days.isPending ? (
             <Spinner />
           ) : !days.data?.length ? (
-            <EmptyState title={stage ? "No performances yet" : "No shoot days yet"} />
+            <EmptyState title={words.none} />
           ) : (
-            <SelectField label={stage ? "Performance" : "Shoot day"} value={dayId} onChange={(e) => { setDayId(e.target.value); setSceneId(""); setCharacterId(""); }}>
+            <SelectField label={words.Day} value={dayId} onChange={(e) => { setDayId(e.target.value); setSceneId(""); setCharacterId(""); }}>
               {days.data.map((d) => (
                 <option key={d.id} value={d.id}>
-                  {d.date === todayIso() ? "Today · " : ""}
-                  {d.kind === "performance" ? `Performance ${d.dayNumber}` : `Day ${d.dayNumber}`} · {d.date}
+                  {d.date === today ? "Today · " : ""}
+                  {scheduleLabels(d.kind === "performance" ? "stage" : "film").numbered(d.dayNumber)} · {d.date}
                   {d.startsAt ? ` ${d.startsAt}` : ""}
                 </option>
               ))}
@@ -186,36 +183,83 @@ function CaptureForm({ productionId, shootDayId, sceneId, characterId, onDone }:
 
 type TimelineScene = ContinuityTimelineDto["scenes"][number];
 
+/** Two scenes side by side, as a modal over the timeline (it opens in view, and Close returns to the same place). */
+function CompareDialog({ open, scenes, onClose }: { open: boolean; scenes: TimelineScene[]; onClose: () => void }) {
+  const ref = useRef<HTMLDialogElement>(null);
+  useEffect(() => {
+    const d = ref.current;
+    if (!d) return;
+    if (open && !d.open) d.showModal?.();
+    if (!open && d.open) d.close();
+  }, [open]);
+  return (
+    <dialog
+      ref={ref}
+      onCancel={(e) => {
+        e.preventDefault();
+        onClose();
+      }}
+      aria-labelledby="compare-title"
+      className="m-auto max-h-[92dvh] w-[min(64rem,96vw)] overflow-y-auto rounded-lg border border-chalk-200 bg-white p-4 shadow-xl backdrop:bg-ink-900/40"
+    >
+      <div className="mb-2 flex items-center justify-between gap-2">
+        <h2 id="compare-title" className="font-semibold text-ink">
+          Side by side
+        </h2>
+        <Button variant="secondary" onClick={onClose} autoFocus>
+          Close
+        </Button>
+      </div>
+      <div className="grid grid-cols-2 gap-3" aria-label="Compare scenes">
+        {scenes.map((s) => (
+          <div key={s.sceneId} className="grid min-w-0 content-start gap-1">
+            <p className="font-semibold">
+              Scene {s.number} · story day {s.storyDay ?? "—"} · change {s.change?.number ?? "—"}
+            </p>
+            {s.entries.flatMap((e) => e.photos).length ? (
+              s.entries.flatMap((e) => e.photos).map((p) => <img key={p.id} src={p.urls.display} alt={`Scene ${s.number}, ${viewLabels[p.view].toLowerCase()}`} className="w-full rounded" />)
+            ) : (
+              <p className="text-sm text-slate">No photos.</p>
+            )}
+            {s.entries.map((e) => e.notes && <p key={e.id} className="text-sm">{e.notes}</p>)}
+          </div>
+        ))}
+      </div>
+    </dialog>
+  );
+}
+
 function TimelineRoute() {
   const { characterId = "" } = useParams();
   const { productionId, production } = useCurrentProduction();
   const timeline = useContinuityTimeline(productionId, characterId);
   const [compare, setCompare] = useState<string[]>([]);
+  const [showing, setShowing] = useState(false);
   const scenes = timeline.data?.scenes ?? [];
   const picked = useMemo(() => compare.map((id) => scenes.find((s) => s.sceneId === id)).filter((s): s is TimelineScene => Boolean(s)), [compare, scenes]);
   if (timeline.isPending) return <Spinner />;
   if (timeline.error) return <ErrorAlert error={timeline.error} />;
-  const toggle = (id: string) => setCompare((c) => (c.includes(id) ? c.filter((x) => x !== id) : [...c, id].slice(-2)));
+  const toggle = (id: string) => {
+    const next = compare.includes(id) ? compare.filter((x) => x !== id) : [...compare, id].slice(-2);
+    setCompare(next);
+    // The second pick opens the comparison over the page, where the person is scrolled to.
+    if (next.length === 2 && !compare.includes(id)) setShowing(true);
+  };
   return (
-    <div className="grid gap-4">
+    <div className="grid grid-cols-1 gap-4">
       <PageHeader title={`${timeline.data.character.name}: continuity`} subtitle={<Link to={`/p/${productionId}/continuity`}>← Continuity</Link>} />
-      {picked.length === 2 && (
-        <Card>
-          <h2 className="mb-2 font-semibold text-ink">Side by side</h2>
-          <div className="grid grid-cols-2 gap-3" aria-label="Compare scenes">
-            {picked.map((s) => (
-              <div key={s.sceneId} className="grid content-start gap-1">
-                <p className="font-semibold">Scene {s.number} · story day {s.storyDay ?? "—"} · change {s.change?.number ?? "—"}</p>
-                {s.entries.flatMap((e) => e.photos).length ? (
-                  s.entries.flatMap((e) => e.photos).map((p) => <img key={p.id} src={p.urls.display} alt={`Scene ${s.number}, ${viewLabels[p.view].toLowerCase()}`} className="w-full rounded" />)
-                ) : (
-                  <p className="text-sm text-slate">No photos.</p>
-                )}
-                {s.entries.map((e) => e.notes && <p key={e.id} className="text-sm">{e.notes}</p>)}
-              </div>
-            ))}
-          </div>
-        </Card>
+      <CompareDialog open={showing && picked.length === 2} scenes={picked} onClose={() => setShowing(false)} />
+      {picked.length === 2 && !showing && (
+        // Stays at the bottom of the screen, wherever the timeline is scrolled to.
+        <div className="fixed inset-x-0 bottom-0 z-10 flex flex-wrap items-center justify-center gap-2 border-t border-chalk-200 bg-white/95 px-3 py-2 shadow-lg" role="region" aria-label="Scenes to compare">
+          <span className="text-sm text-ink-900">
+            Scenes {picked[0]!.number} and {picked[1]!.number}
+          </span>
+          <Button onClick={() => setShowing(true)}>Side by side</Button>
+          <Button variant="secondary" onClick={() => setCompare([])}>
+            Clear
+          </Button>
+        </div>
       )}
       <ol className="grid gap-3" aria-label={production?.kind === "stage" ? "Running order" : "Story order"}>
         {scenes.map((s) => (

@@ -2,6 +2,7 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/r
 import { api, resetCsrfToken } from "@/lib/api-client";
 import type { LoginInput, MeDto, InvitationPreviewDto, AcceptInvitationInput } from "@shared/schemas/auth";
 import { ApiError } from "@/lib/api-client";
+import { paths } from "@/config/paths";
 
 /** The signed-in user, or null when signed out. */
 export async function getMe(): Promise<MeDto | null> {
@@ -27,16 +28,24 @@ export function useLogin() {
   });
 }
 
+/**
+ * Signs out and lands on the plain sign-in page. A full page load (not a client-side navigation)
+ * drops every cached query at once, so no screen still on the page can refetch, get a 401 and
+ * send the person to "/login?redirectTo=/login".
+ */
 export function useLogout() {
-  const qc = useQueryClient();
   return useMutation({
     mutationFn: () => api.post<void>("/auth/logout"),
     onSettled: () => {
       resetCsrfToken();
-      qc.clear();
-      qc.setQueryData(["me"], null);
+      window.location.replace(paths.auth.login.getHref());
     },
   });
+}
+
+/** Whether a pathname is one of the sign-in pages (never a place to return to after signing in). */
+export function isAuthPath(pathname: string): boolean {
+  return pathname === paths.auth.login.path || pathname === paths.auth.forgot.path || pathname.startsWith("/reset-password/") || pathname.startsWith("/invitations/");
 }
 
 export function useRequestPasswordReset() {

@@ -1,14 +1,16 @@
 import { useEffect, useRef, useState, type FormEvent } from "react";
 import { Link } from "react-router";
-import { garmentStatuses, garmentStatusLabels, type GarmentMoveResultDto, type GarmentStatus } from "@shared/schemas/garments";
+import { checkedOutStatuses, garmentStatuses, garmentStatusLabels, type GarmentMoveResultDto, type GarmentStatus } from "@shared/schemas/garments";
+import type { ScheduleKind } from "@shared/domain/schedule-labels";
 import { parseTagCode } from "@shared/domain/tag-codes";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { InputField } from "@/components/ui/field";
 import { ApiError } from "@/lib/api-client";
 import { cn } from "@/utils/cn";
-import { useScanGarment } from "../api/garments";
+import { useCheckoutOptions, useScanGarment } from "../api/garments";
 import { StatusBadge } from "./status-badge";
+import { CheckoutFields, CheckoutSummary, checkoutFromDraft, emptyCheckout, type CheckoutDraft } from "./checkout-fields";
 
 interface LogLine {
   at: number;
@@ -63,10 +65,17 @@ function CameraScanner({ onCode, onClose }: { onCode: (code: string) => void; on
   );
 }
 
-/** Check in / out: pick a status and place once, then scan or type tag after tag — one action per garment. */
-export function CheckInOut({ productionId }: { productionId: string }) {
+const outStatus = (s: GarmentStatus) => (checkedOutStatuses as readonly GarmentStatus[]).includes(s);
+
+/**
+ * Check in / out: pick a status and place once (and, going out, to whom, for which day and scene, due
+ * back when), then scan or type tag after tag — one action per garment.
+ */
+export function CheckInOut({ productionId, kind }: { productionId: string; kind: ScheduleKind }) {
   const scan = useScanGarment(productionId);
+  const options = useCheckoutOptions(productionId);
   const [status, setStatus] = useState<GarmentStatus>("on_set");
+  const [checkout, setCheckout] = useState<CheckoutDraft>(emptyCheckout);
   const [rack, setRack] = useState("");
   const [bin, setBin] = useState("");
   const [code, setCode] = useState("");
@@ -80,8 +89,9 @@ export function CheckInOut({ productionId }: { productionId: string }) {
       setLog((l) => [{ at: Date.now(), code: raw, ok: false, text: parsed.reason }, ...l].slice(0, 30));
       return;
     }
+    const to = outStatus(status) ? checkoutFromDraft(checkout) : null;
     scan.mutate(
-      { tagCode: parsed.code, status, ...(rack.trim() ? { locationRack: rack.trim() } : {}), ...(bin.trim() ? { locationBin: bin.trim() } : {}) },
+      { tagCode: parsed.code, status, ...(rack.trim() ? { locationRack: rack.trim() } : {}), ...(bin.trim() ? { locationBin: bin.trim() } : {}), ...(to ? { checkout: to } : {}) },
       {
         onSuccess: (r) =>
           setLog((l) => [{ at: Date.now(), code: parsed.code, ok: true, text: r.event ? `${r.garment.name} → ${garmentStatusLabels[r.garment.status]}` : `${r.garment.name} was already there`, result: r }, ...l].slice(0, 30)),
@@ -116,6 +126,7 @@ export function CheckInOut({ productionId }: { productionId: string }) {
             ))}
           </div>
         </fieldset>
+        {outStatus(status) && <CheckoutFields options={options.data} kind={kind} value={checkout} onChange={setCheckout} />}
         <div className="grid grid-cols-2 gap-2">
           <InputField label="Rack" value={rack} onChange={(e) => setRack(e.target.value)} placeholder="unchanged" hint="Leave empty to keep each garment's rack" />
           <InputField label="Bin" value={bin} onChange={(e) => setBin(e.target.value)} placeholder="unchanged" />
@@ -134,7 +145,7 @@ export function CheckInOut({ productionId }: { productionId: string }) {
             hint="Scan with a USB scanner (it types and presses Enter) or type the code."
           />
           <Button type="submit" size="lg" busy={scan.isPending}>
-            Move to {garmentStatusLabels[status]}
+            {outStatus(status) && checkout.to ? `Check out (${garmentStatusLabels[status]})` : `Move to ${garmentStatusLabels[status]}`}
           </Button>
         </form>
         {camera ? (
@@ -155,8 +166,9 @@ export function CheckInOut({ productionId }: { productionId: string }) {
               <li key={l.at + l.code} className={cn("rounded-md border px-3 py-2 text-sm", l.ok ? "border-chalk-200" : "border-madder/40 bg-madder-50 text-madder")}>
                 <span className="font-mono font-semibold">{l.code}</span> — {l.text}
                 {l.result && (
-                  <span className="ml-2 inline-flex items-center gap-2">
+                  <span className="ml-2 inline-flex flex-wrap items-center gap-2">
                     <StatusBadge status={l.result.garment.status} />
+                    {l.result.garment.checkout && <CheckoutSummary checkout={l.result.garment.checkout} kind={kind} compact />}
                     <Link to={`../garments/${l.result.garment.id}`} relative="path" className="text-ink underline">
                       open
                     </Link>
