@@ -7,23 +7,23 @@ import { Badge, EmptyState, ErrorAlert, Spinner } from "@/components/ui/feedback
 import { SnagsForDay } from "@/features/snags/components/snags-for-day";
 import { useShootDays } from "@/features/breakdown/api/breakdown";
 import { useFittings, useWorkroomPlan } from "@/features/workroom/api/workroom";
+import { scheduleLabels } from "@shared/domain/schedule-labels";
 
-const todayIso = () => format(new Date(), "yyyy-MM-dd");
 const nice = (iso: string) => format(parseISO(iso), "EEE d MMM yyyy");
 
 /** The next shoot day (or performance) with its scenes. */
-function NextDay({ productionId, stage }: { productionId: string; stage: boolean }) {
+function NextDay({ productionId, stage, today }: { productionId: string; stage: boolean; today: string }) {
   const days = useShootDays(productionId);
+  const words = scheduleLabels(stage ? "stage" : "film");
   if (days.isPending) return <Spinner />;
   if (days.error) return <ErrorAlert error={days.error} />;
-  const today = todayIso();
   const kind = stage ? "performance" : "shoot";
   const next = days.data.filter((d) => d.kind === kind && d.date >= today).sort((a, b) => a.date.localeCompare(b.date) || a.dayNumber - b.dayNumber)[0];
-  if (!next) return <EmptyState title={stage ? "No performances ahead" : "No shoot days ahead"}>Add them on the Breakdown screen.</EmptyState>;
+  if (!next) return <EmptyState title={`No ${words.days} ahead`}>Add them on the Breakdown screen.</EmptyState>;
   return (
     <div>
       <p className="font-semibold text-ink-900">
-        {next.date === today ? "Today" : nice(next.date)} · {stage ? "performance" : `shoot day ${next.dayNumber}`}
+        {next.date === today ? "Today" : nice(next.date)} · {stage ? words.day : `${words.day} ${next.dayNumber}`}
         {next.startsAt ? ` · ${next.startsAt.slice(0, 5)}` : ""}
       </p>
       {next.notes && <p className="text-sm text-slate">{next.notes}</p>}
@@ -45,11 +45,10 @@ function NextDay({ productionId, stage }: { productionId: string; stage: boolean
 }
 
 /** Fittings from today on (the next few). */
-function UpcomingFittings({ productionId }: { productionId: string }) {
+function UpcomingFittings({ productionId, today }: { productionId: string; today: string }) {
   const fittings = useFittings(productionId);
   if (fittings.isPending) return <Spinner />;
   if (fittings.error) return <ErrorAlert error={fittings.error} />;
-  const today = todayIso();
   const next = fittings.data.filter((f) => f.status === "booked" && f.startsAt.slice(0, 10) >= today).sort((a, b) => a.startsAt.localeCompare(b.startsAt)).slice(0, 5);
   if (!next.length) return <p className="text-sm text-slate">No fittings booked from today on.</p>;
   return (
@@ -99,21 +98,22 @@ export default function TodayPage() {
   const { production, productionId, can } = useCurrentProduction();
   if (!production) return <Spinner />;
   const stage = production.kind === "stage";
+  const words = scheduleLabels(production);
   return (
     <div className="grid gap-4">
-      <PageHeader title="Today" subtitle={`${production.title} · ${nice(todayIso())}`} />
+      <PageHeader title="Today" subtitle={`${production.title} · ${nice(production.today)}`} />
       <div className="grid gap-4 lg:grid-cols-2">
         {can("breakdown.read") && (
           <Card>
-            <h2 className="mb-2 font-semibold text-ink">{stage ? "Next performance" : "Next shoot day"}</h2>
-            <NextDay productionId={productionId} stage={stage} />
+            <h2 className="mb-2 font-semibold text-ink">{words.Next}</h2>
+            <NextDay productionId={productionId} stage={stage} today={production.today} />
           </Card>
         )}
-        {can("snag.read") && <SnagsForDay productionId={productionId} />}
+        {can("snag.read") && <SnagsForDay productionId={productionId} kind={production.kind} />}
         {can("fitting.read") && (
           <Card>
             <h2 className="mb-2 font-semibold text-ink">Fittings</h2>
-            <UpcomingFittings productionId={productionId} />
+            <UpcomingFittings productionId={productionId} today={production.today} />
           </Card>
         )}
         {can("alteration.read") && (

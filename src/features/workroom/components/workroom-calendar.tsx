@@ -8,6 +8,7 @@ import "react-big-calendar/lib/addons/dragAndDrop/styles.css";
 import type { FittingDto, WorkroomPlanDto } from "@shared/schemas/workroom";
 import { ErrorAlert } from "@/components/ui/feedback";
 import { controlClass } from "@/components/ui/field";
+import { scheduleLabels } from "@shared/domain/schedule-labels";
 import { useUpdateFitting } from "../api/workroom";
 
 const localizer = dateFnsLocalizer({ format, parse, startOfWeek: (d: Date) => startOfWeek(d, { weekStartsOn: 1 }), getDay, locales: { "en-GB": enGB } });
@@ -44,7 +45,7 @@ export function WorkroomCalendar(props: {
   const events = useMemo<CalEvent[]>(() => {
     const out: CalEvent[] = [];
     for (const s of props.plan.shootDays) {
-      out.push({ id: `sd-${s.id}`, title: `${s.kind === "performance" ? "Performance" : "Shoot day"} ${s.dayNumber}`, start: day(s.date), end: day(s.date), allDay: true, kind: "shoot" });
+      out.push({ id: `sd-${s.id}`, title: `${scheduleLabels(s.kind === "performance" ? "stage" : "film").Day} ${s.dayNumber}`, start: day(s.date), end: day(s.date), allDay: true, kind: "shoot" });
     }
     for (const f of props.fittings) {
       if (f.status === "cancelled") continue;
@@ -83,7 +84,7 @@ export function WorkroomCalendar(props: {
           </select>
         </label>
         <p className="text-xs text-slate">
-          Dark: shoot days · ochre: fittings{props.canMoveFittings ? " (drag to move; the performer gets an update)" : ""} · grey: planned work · red: work that finishes late
+          Dark: {props.plan.shootDays.some((s) => s.kind === "performance") ? scheduleLabels("stage").days : scheduleLabels("film").days} · ochre: fittings{props.canMoveFittings ? " (drag to move; the performer gets an update)" : ""} · grey: planned work · red: work that finishes late
         </p>
       </div>
       {move.error && <ErrorAlert error={move.error} title="Fitting not moved" />}
