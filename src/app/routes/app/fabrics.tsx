@@ -120,7 +120,7 @@ function FabricPage() {
         )}
       </Card>
       <Card>
-        <FabricTests productionId={productionId} fabric={f} canUpdate={can("fabric.update")} today={new Date().toISOString().slice(0, 10)} />
+        <FabricTests productionId={productionId} fabric={f} canUpdate={can("fabric.update")} today={production.today} />
       </Card>
     </div>
   );
