@@ -5,9 +5,12 @@
 import { afterAll } from "vitest";
 import { ensureDatabase } from "../../scripts/lib/postgres.js";
 import { testAdminUrl, TEMPLATE_DB } from "./test-postgres.js";
+import { TEST_CLOCK_AT } from "./test-clock.js";
 
 const worker = process.env.VITEST_POOL_ID ?? process.env.VITEST_WORKER_ID ?? "1";
 process.env.NODE_ENV = "test";
+// The server's business clock starts at a pinned instant: tests never depend on today's date.
+process.env.CLOCK_AT = TEST_CLOCK_AT;
 process.env.DATABASE_URL = await ensureDatabase(testAdminUrl(), `seamscene_test_w${worker}`, TEMPLATE_DB);
 process.env.STORAGE_DIR = `.data/test-storage-w${worker}`;
 process.env.SMTP_HOST = "127.0.0.1";

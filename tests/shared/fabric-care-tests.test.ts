@@ -25,7 +25,8 @@ describe("dimensional change after washing or dry-cleaning", () => {
   });
 
   it("the worked example gives −20/7 % in length and +4/7 % in width (exact fractions from mathjs as the oracle)", () => {
-    const exact = (pairs: typeof length) => mnumber(mean(pairs.map((p) => multiply(divide(subtract(fraction(p.afterMm), fraction(p.beforeMm)), fraction(p.beforeMm)), 100))) as never) as number;
+    const exact = (pairs: typeof length) =>
+      mnumber(mean(pairs.map((p) => multiply(divide(subtract(fraction(p.afterMm), fraction(p.beforeMm)), fraction(p.beforeMm)), 100)) as never) as never) as number;
 
     const r = shrinkageResult(length, width);
 

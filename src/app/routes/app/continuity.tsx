@@ -27,15 +27,13 @@ export default function ContinuityScreen() {
 const VIEW_ORDER: PhotoView[] = ["front", "back", "left", "right", "detail"];
 
 function ContinuityHome() {
-  const { productionId, production, can } = useCurrentProduction();
+  const { productionId, production, can, today } = useCurrentProduction();
   const days = useShootDays(productionId);
   const characters = useCharacters(productionId);
   const [dayId, setDayId] = useState("");
   const [sceneId, setSceneId] = useState("");
   const [characterId, setCharacterId] = useState("");
   const words = scheduleLabels(production);
-  // "Today" is the server's, in the production's time zone (the client never guesses it).
-  const today = production?.today ?? "";
 
   // Default to today's shoot day, else the next one, else the last.
   useEffect(() => {

@@ -95,25 +95,25 @@ function WorkDue({ productionId }: { productionId: string }) {
 
 /** The next shoot day or performance at a glance: scenes, snags, fittings and work due. */
 export default function TodayPage() {
-  const { production, productionId, can } = useCurrentProduction();
+  const { production, productionId, can, today } = useCurrentProduction();
   if (!production) return <Spinner />;
   const stage = production.kind === "stage";
   const words = scheduleLabels(production);
   return (
     <div className="grid gap-4">
-      <PageHeader title="Today" subtitle={`${production.title} · ${nice(production.today)}`} />
+      <PageHeader title="Today" subtitle={`${production.title} · ${nice(today)}`} />
       <div className="grid gap-4 lg:grid-cols-2">
         {can("breakdown.read") && (
           <Card>
             <h2 className="mb-2 font-semibold text-ink">{words.Next}</h2>
-            <NextDay productionId={productionId} stage={stage} today={production.today} />
+            <NextDay productionId={productionId} stage={stage} today={today} />
           </Card>
         )}
         {can("snag.read") && <SnagsForDay productionId={productionId} kind={production.kind} />}
         {can("fitting.read") && (
           <Card>
             <h2 className="mb-2 font-semibold text-ink">Fittings</h2>
-            <UpcomingFittings productionId={productionId} today={production.today} />
+            <UpcomingFittings productionId={productionId} today={today} />
           </Card>
         )}
         {can("alteration.read") && (
