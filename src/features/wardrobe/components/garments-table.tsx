@@ -51,8 +51,7 @@ function buildColumns(unit: LengthUnit) {
         </span>
       ),
     }),
-    col.accessor("category", { header: "Category" }),
-    col.accessor("sizeLabel", { header: "Size", cell: (c) => c.getValue() ?? "—" }),
+    // Status and who has it come first: on a phone they are what a set costumer looks for.
     col.accessor("status", { header: "Status", cell: (c) => <StatusBadge status={c.getValue()} /> }),
     col.accessor("checkout", {
       header: "With",
@@ -62,9 +61,11 @@ function buildColumns(unit: LengthUnit) {
       },
       enableSorting: false,
     }),
+    col.accessor("category", { header: "Category" }),
+    col.accessor("sizeLabel", { header: "Size", cell: (c) => c.getValue() ?? "—" }),
     col.accessor("locationRack", { header: "Rack", cell: (c) => [c.getValue(), c.row.original.locationBin].filter(Boolean).join(" / ") || "—" }),
     col.accessor("source", { header: "Source" }),
-    col.accessor("rentalDueOn", { header: "Due back", cell: (c) => c.getValue() ?? "—" }),
+    col.accessor("rentalDueOn", { header: "Rental due", cell: (c) => c.getValue() ?? "—" }),
     col.accessor("fabricName", { header: "Fabric", cell: (c) => c.getValue() ?? "—", enableSorting: false }),
     col.accessor("colour", { header: "Colour", cell: (c) => c.getValue() ?? "—", enableSorting: false }),
     col.accessor("multiplesGroupName", { header: "Multiples", cell: (c) => c.getValue() ?? "—", enableSorting: false }),
