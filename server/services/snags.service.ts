@@ -11,6 +11,7 @@ import { zonedParts } from "../lib/zoned-time.js";
 import type { Actor } from "../middleware/require-auth.js";
 import { computeMultiplesPlans, computeSnags } from "@shared/domain/snags/engine.js";
 import { mergeSameCause } from "@shared/domain/snags/merge.js";
+import { scheduleLabels } from "@shared/domain/schedule-labels.js";
 import type {
   AppearanceRec,
   CharacterRec,
@@ -491,7 +492,7 @@ export async function listSnags(actor: Actor, query: ListSnagsQuery): Promise<Sn
   if (query.shootDayId) {
     const dayId = query.shootDayId === "next" ? next?.id : query.shootDayId;
     if (!dayId) dayFilter = () => false;
-    else if (!r.days.has(dayId)) throw NotFoundError("Shoot day not found.");
+    else if (!r.days.has(dayId)) throw NotFoundError(`${scheduleLabels(loaded.snapshot.production.kind).Day} not found.`);
     else dayFilter = r.touchesDay(dayId);
   }
 

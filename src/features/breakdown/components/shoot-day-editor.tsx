@@ -5,6 +5,7 @@ import { arrayMove, SortableContext, sortableKeyboardCoordinates, useSortable, v
 import { CSS } from "@dnd-kit/utilities";
 import type { SceneRowDto, ShootDayDto } from "@shared/schemas/breakdown";
 import { formatEighths } from "@shared/domain/breakdown";
+import { scheduleLabels } from "@shared/domain/schedule-labels";
 import { Button } from "@/components/ui/button";
 import { ConfirmDialog } from "@/components/ui/dialog";
 import { ErrorAlert, EmptyState } from "@/components/ui/feedback";
@@ -29,7 +30,7 @@ interface EditorProps {
 }
 
 /** "Day 4" or "Performance 4": a stage production says performance. */
-export const dayLabel = (d: Pick<ShootDayDto, "kind" | "dayNumber">) => `${d.kind === "performance" ? "Performance" : "Day"} ${d.dayNumber}`;
+export const dayLabel = (d: Pick<ShootDayDto, "kind" | "dayNumber">) => scheduleLabels(d.kind === "performance" ? "stage" : "film").numbered(d.dayNumber);
 
 /** Shoot days (or performances): add, date, delete; a day's scenes put on, taken off, reordered (drag or keyboard), moved. */
 export function ShootDayEditor({ productionId, days, scenes, stage, canEdit, today, sceneHref, daySnags }: EditorProps) {
@@ -37,16 +38,17 @@ export function ShootDayEditor({ productionId, days, scenes, stage, canEdit, tod
   const sorted = useMemo(() => [...days].sort((a, b) => a.date.localeCompare(b.date) || a.dayNumber - b.dayNumber), [days]);
   const [selectedId, setSelectedId] = useState<string | null>(null);
   const selected = sorted.find((d) => d.id === selectedId) ?? sorted.find((d) => d.date >= today) ?? sorted.at(-1) ?? null;
-  const noun = stage ? "performance" : "shoot day";
+  const words = scheduleLabels(stage ? "stage" : "film");
+  const noun = words.day;
 
   return (
     <div className="grid gap-4 lg:grid-cols-[20rem_1fr]">
       <div className="grid content-start gap-3">
         {canEdit && <NewDayForm productionId={productionId} kind={kind} days={days} onCreated={setSelectedId} />}
         {sorted.length === 0 ? (
-          <EmptyState title={stage ? "No performances yet" : "No shoot days yet"}>{canEdit ? `Add the first ${noun} above.` : "The supervisor or designer adds them."}</EmptyState>
+          <EmptyState title={words.none}>{canEdit ? `Add the first ${noun} above.` : "The supervisor or designer adds them."}</EmptyState>
         ) : (
-          <nav aria-label={stage ? "Performances" : "Shoot days"}>
+          <nav aria-label={words.Days}>
             <ul className="grid max-h-[32rem] gap-1 overflow-y-auto">
               {sorted.map((d) => (
                 <li key={d.id}>
@@ -91,7 +93,7 @@ function NewDayForm({ productionId, kind, days, onCreated }: { productionId: str
   const [v, setV] = useState({ dayNumber: "", date: "", startsAt: "" });
   const fields = create.error instanceof ApiError ? create.error.fields : {};
   const [missing, setMissing] = useState(false);
-  const label = kind === "performance" ? "performance" : "shoot day";
+  const label = scheduleLabels(kind === "performance" ? "stage" : "film").day;
   const submit = (e: FormEvent) => {
     e.preventDefault();
     if (!v.date) return setMissing(true);
@@ -186,7 +188,7 @@ function DayPanel(props: { productionId: string; day: ShootDayDto; days: ShootDa
         </h2>
         {canEdit && (
           <Button variant="ghost" size="sm" className="text-madder" onClick={() => setConfirmDelete(true)}>
-            Delete {day.kind === "performance" ? "performance" : "shoot day"}
+            Delete {scheduleLabels(day.kind === "performance" ? "stage" : "film").day}
           </Button>
         )}
       </div>
