@@ -17,7 +17,7 @@ async function main() {
   await seedDemo({ today: values.today });
   console.log(`Demo data loaded, anchored to ${demoToday()} (shoot day 3 is that day or the next working day).`);
   await sequelize.close();
-  void local;
+  local.pg?.stop();
 }
 
 main().catch((err) => {

@@ -7,7 +7,7 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../server/db.js";
 import { ChangeItem, ContinuityEntry, ContinuityEntryGarment, Photo } from "../server/models/index.js";
 import { renderSwatch } from "../server/lib/images.js";
-import { storeImage } from "../server/services/photos.service.js";
+import { releaseStoredImages, storeImage } from "../server/services/photos.service.js";
 import { demoId } from "./ids.js";
 import { SALTMARSH_ID, userId } from "./accounts.js";
 import { characters, keyGarments } from "./scenario.js";
@@ -93,6 +93,7 @@ export async function seedBreakdownLinks(t: Transaction): Promise<void> {
             { id: demoId(`photo:${entryId}:${view}`), productionId: SALTMARSH_ID, ownerType: "continuity_entry", ownerId: entryId, view, caption: `${view} view (generated demo image)`, contentHash: stored.contentHash, originalName: `${n}-${k}-${view}.jpg`, width: stored.width, height: stored.height, bytes: stored.bytes, variants: stored.variants, uploadedBy: userId("set_costumer") },
             { transaction: t },
           );
+          await releaseStoredImages([stored]);
         }
       }
     }

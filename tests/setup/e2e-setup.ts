@@ -7,7 +7,7 @@ import net from "node:net";
 import path from "node:path";
 import type { TestProject } from "vitest/node";
 import { dropDatabase, ensureDatabase } from "../../scripts/lib/postgres.js";
-import { startTestPostgres, testAdminUrl } from "./test-postgres.js";
+import { startTestPostgres } from "./test-postgres.js";
 import { TEST_CLOCK_AT, testToday } from "./test-clock.js";
 
 function freePort(): Promise<number> {
@@ -35,12 +35,12 @@ declare module "vitest" {
 let child: ChildProcess | undefined;
 
 export default async function setup(project: TestProject) {
-  await startTestPostgres();
-  await dropDatabase(testAdminUrl(), "seamscene_e2e");
-  const databaseUrl = await ensureDatabase(testAdminUrl(), "seamscene_e2e");
+  const pg = await startTestPostgres();
+  await dropDatabase(pg.adminUrl, "seamscene_e2e");
+  const databaseUrl = await ensureDatabase(pg, "seamscene_e2e");
   const port = await freePort();
   const smtpPort = await freePort();
-  const env: NodeJS.ProcessEnv = { ...process.env, DATABASE_URL: databaseUrl, PORT: String(port), SMTP_PORT: String(smtpPort), NODE_ENV: "development", LOG_LEVEL: "warn", STORAGE_DIR: ".data/e2e-storage", APP_URL: `http://127.0.0.1:${port}`, CLOCK_AT: TEST_CLOCK_AT };
+  const env: NodeJS.ProcessEnv = { ...process.env, DATABASE_URL: databaseUrl, PORT: String(port), SMTP_PORT: String(smtpPort), NODE_ENV: "development", LOG_LEVEL: "warn", STORAGE_DIR: ".data/e2e-storage", DATA_DIR: ".data/e2e-data", APP_URL: `http://127.0.0.1:${port}`, CLOCK_AT: TEST_CLOCK_AT };
   delete env.SMTP_HOST;
   child = spawn(process.execPath, [path.resolve("node_modules/tsx/dist/cli.mjs"), "scripts/start.ts"], { env, stdio: ["ignore", "pipe", "pipe"] });
   let output = "";
