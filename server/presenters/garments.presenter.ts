@@ -47,6 +47,8 @@ export function presentGarment(g: Garment, today: string): GarmentDto {
     vendor: g.vendor,
     costCents: g.costCents,
     rentalDueOn: g.rentalDueOn,
+    rentalCostPerWeekCents: g.rentalCostPerWeekCents ?? null,
+    wrapDisposition: g.wrapDisposition ?? null,
     locationRack: g.locationRack,
     locationBin: g.locationBin,
     status: g.status,

@@ -1,6 +1,7 @@
 // The words for a production's scheduled days: a film or series shoots on shoot days, a stage
 // production plays performances. Every screen heading, filter, snag text and e-mail asks here, so a
 // stage production never reads "shoot day".
+import { formatDate } from "../format";
 
 /** Production kinds as the schedule wording sees them. */
 export type ScheduleKind = "film" | "series" | "stage";
@@ -21,7 +22,7 @@ export interface ScheduleLabels {
   Next: string;
   /** "No shoot days yet" / "No performances yet". */
   none: string;
-  /** "shoot day 2026-12-04" / "performance 2026-12-04" (a day named by its date). */
+  /** "shoot day Fri 4 Dec 2026" / "performance Fri 4 Dec 2026" from "2026-12-04" (a day named by its date, written by the one formatter). */
   on(date: string): string;
   /** "Day 3" / "Performance 3" (a day named by its number). */
   numbered(n: number): string;
@@ -37,7 +38,7 @@ const FILM: ScheduleLabels = {
   next: "the next shoot day",
   Next: "Next shoot day",
   none: "No shoot days yet",
-  on: (date) => `shoot day ${date}`,
+  on: (date) => `shoot day ${formatDate(date)}`,
   numbered: (n) => `Day ${n}`,
   event: "the shoot",
 };
@@ -50,7 +51,7 @@ const STAGE: ScheduleLabels = {
   next: "the next performance",
   Next: "Next performance",
   none: "No performances yet",
-  on: (date) => `performance ${date}`,
+  on: (date) => `performance ${formatDate(date)}`,
   numbered: (n) => `Performance ${n}`,
   event: "the performance",
 };

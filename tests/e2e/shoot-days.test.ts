@@ -5,6 +5,7 @@ import { describe, expect, inject, it } from "vitest";
 import type { APIRequestContext, Page } from "playwright-core";
 import { useBrowser, signIn } from "./browser.js";
 import { SALTMARSH_ID } from "../../seeds/accounts.js";
+import { formatDate } from "../../shared/format.js";
 
 const baseUrl = inject("baseUrl");
 const browser = useBrowser();
@@ -43,10 +44,10 @@ describe("the shoot-day editor", () => {
     try {
     await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/breakdown`);
     await page.getByRole("tab", { name: "Shoot days" }).click();
-    await page.getByRole("navigation", { name: "Shoot days" }).getByRole("button", { name: new RegExp(`^Day ${day.dayNumber} · ${day.date}`) }).click();
+    await page.getByRole("navigation", { name: "Shoot days" }).getByRole("button", { name: new RegExp(`^Day ${day.dayNumber} · ${formatDate(day.date)}`) }).click();
     const list = page.getByRole("list", { name: `Scenes of Day ${day.dayNumber}` });
     await list.waitFor();
-    const panel = page.getByRole("region", { name: `Snags for ${day.date}` });
+    const panel = page.getByRole("region", { name: `Snags for ${formatDate(day.date)}` });
     await panel.getByText(snag.title).waitFor();
     const order = async () => (await list.getByRole("link").allTextContents()).map((t) => t.replace("Scene ", ""));
 
@@ -98,7 +99,7 @@ describe("the shoot-day editor", () => {
     await add.getByText("Choose the date.").waitFor();
     await add.getByLabel("Date").fill(date);
     await add.getByRole("button", { name: "Add shoot day" }).click();
-    const section = page.getByRole("region", { name: `Day ${number}, ${date}` });
+    const section = page.getByRole("region", { name: `Day ${number}, ${formatDate(date)}` });
     await section.getByText("No scenes on this day yet.").waitFor();
 
     for (const n of candidates) {
@@ -113,7 +114,7 @@ describe("the shoot-day editor", () => {
 
     // Move the first scene to the last demo day, then undo.
     const moveSelect = section.getByLabel(`Move scene ${candidates[0]} to`);
-    const target = await moveSelect.locator("option", { hasText: `Day ${lastDay.dayNumber} · ${lastDay.date}` }).getAttribute("value");
+    const target = await moveSelect.locator("option", { hasText: `Day ${lastDay.dayNumber} · ${formatDate(lastDay.date)}` }).getAttribute("value");
     const lastBefore = (await call<Day>(page, "GET", `${api}/shoot-days/${lastDay.id}`)).scenes.map((s) => s.number);
     // It is already on that day (we copied it from there), so the server refuses and nothing changes.
     await moveSelect.selectOption(target!);
@@ -121,7 +122,7 @@ describe("the shoot-day editor", () => {
     await section.getByRole("alert").getByText(`is already on day ${lastDay.dayNumber}`).waitFor();
     // A day that does not have it: the day before the last.
     const other = [...days].sort((a, b) => a.date.localeCompare(b.date)).reverse().find((d) => d.kind === "shoot" && !d.scenes.some((s) => s.number === candidates[0]))!;
-    const otherValue = await moveSelect.locator("option", { hasText: `Day ${other.dayNumber} · ${other.date}` }).getAttribute("value");
+    const otherValue = await moveSelect.locator("option", { hasText: `Day ${other.dayNumber} · ${formatDate(other.date)}` }).getAttribute("value");
     await moveSelect.selectOption(otherValue!);
     await section.getByRole("button", { name: "Move", exact: true }).first().click();
     await section.getByRole("status").getByText(`Scene ${candidates[0]} moved to Day ${other.dayNumber}`).waitFor();

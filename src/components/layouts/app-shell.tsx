@@ -6,6 +6,7 @@ import { useCurrentProduction } from "@/hooks/use-current-production";
 import { paths } from "@/config/paths";
 import { cn } from "@/utils/cn";
 import { Spinner, ErrorAlert } from "@/components/ui/feedback";
+import { ProductionSwitcher } from "./production-switcher";
 
 /** Header with production switcher and account, navigation built from the permission table. */
 export function AppShell() {
@@ -19,6 +20,9 @@ export function AppShell() {
 
   return (
     <div className="min-h-dvh">
+      <a href="#main-content" className="sr-only rounded-md bg-chalk px-4 py-2 font-semibold text-ink shadow focus:not-sr-only focus:fixed focus:top-2 focus:left-2 focus:z-50">
+        Skip to content
+      </a>
       {/* One row of fixed height at every width: the phone menu opens right below it (top-14), never under it. */}
       <header className="sticky top-0 z-20 bg-ink text-chalk shadow">
         <div className="mx-auto flex h-14 max-w-7xl flex-nowrap items-center gap-2 px-2 sm:gap-3 sm:px-5">
@@ -33,25 +37,12 @@ export function AppShell() {
             <span aria-hidden>☰</span>
           </button>
           <span className="shrink-0 font-bold tracking-wide">Seamscene</span>
-          <label className="sr-only" htmlFor="production-switcher">
-            Production
-          </label>
-          <select
-            id="production-switcher"
-            className="min-w-0 max-w-[14rem] flex-1 truncate rounded-md border border-chalk/30 bg-ink-700 px-2 py-1 text-sm text-chalk focus:outline-none sm:flex-none"
-            value={productionId}
-            onChange={(e) => {
-              if (e.target.value === "__new") navigate(paths.productions.new.getHref());
-              else navigate(paths.production.root.getHref(e.target.value));
-            }}
-          >
-            {me.data?.memberships.map((m) => (
-              <option key={m.productionId} value={m.productionId}>
-                {m.title}
-              </option>
-            ))}
-            <option value="__new">+ New production…</option>
-          </select>
+          <ProductionSwitcher
+            productionId={productionId}
+            productions={me.data?.memberships ?? []}
+            onOpen={(id) => navigate(paths.production.root.getHref(id))}
+            onNew={() => navigate(paths.productions.new.getHref())}
+          />
           <div className="ml-auto flex shrink-0 items-center gap-3 text-sm">
             <span className="hidden lg:inline">
               {me.data?.name}
@@ -79,7 +70,7 @@ export function AppShell() {
             ))}
           </ul>
         </nav>
-        <main className="min-w-0 flex-1">
+        <main id="main-content" tabIndex={-1} className="min-w-0 flex-1 outline-none">
           {query.isPending ? <Spinner /> : query.error ? <ErrorAlert error={query.error} title="Cannot open this production" /> : production ? <Outlet /> : null}
         </main>
       </div>

@@ -17,6 +17,8 @@ import { SnagsForDay } from "@/features/snags/components/snags-for-day";
 import { ApiError } from "@/lib/api-client";
 import { cn } from "@/utils/cn";
 import { scheduleLabels } from "@shared/domain/schedule-labels";
+import { formatClockTime, formatDate } from "@shared/format";
+import { onTabListKeyDown } from "@/components/ui/tabs";
 
 /** Breakdown screen: the scene table, shoot days (or running order and performances), import/export, scene pages. */
 export default function BreakdownScreen() {
@@ -44,7 +46,7 @@ function BreakdownHome() {
   return (
     <div className="grid gap-4">
       <PageHeader title="Breakdown" subtitle={stage ? "The order of the show, running times and performances" : `Scenes, story days and ${scheduleLabels(production).days}`} />
-      <div role="tablist" aria-label="Breakdown views" className="flex gap-1">
+      <div role="tablist" aria-label="Breakdown views" onKeyDown={onTabListKeyDown} className="flex gap-1">
         {tabs.map((t) => (
           <button key={t.key} role="tab" type="button" aria-selected={tab === t.key} onClick={() => setTab(t.key)} className={cn("min-h-11 rounded-md px-3 text-sm font-semibold", tab === t.key ? "bg-ink text-chalk" : "bg-white text-ink")}>
             {t.label}

@@ -3,6 +3,7 @@ import { Link, Route, Routes, useParams } from "react-router";
 import type { ContinuityTimelineDto } from "@shared/schemas/continuity";
 import type { PhotoView } from "@shared/schemas/photos";
 import { useCurrentProduction } from "@/hooks/use-current-production";
+import { formatClockTime, formatDate } from "@shared/format";
 import { PageHeader } from "@/components/ui/page";
 import { Card } from "@/components/ui/card";
 import { Button } from "@/components/ui/button";
@@ -57,8 +58,8 @@ function ContinuityHome() {
               {days.data.map((d) => (
                 <option key={d.id} value={d.id}>
                   {d.date === today ? "Today · " : ""}
-                  {scheduleLabels(d.kind === "performance" ? "stage" : "film").numbered(d.dayNumber)} · {d.date}
-                  {d.startsAt ? ` ${d.startsAt}` : ""}
+                  {scheduleLabels(d.kind === "performance" ? "stage" : "film").numbered(d.dayNumber)} · {formatDate(d.date)}
+                  {d.startsAt ? ` ${formatClockTime(d.startsAt)}` : ""}
                 </option>
               ))}
             </SelectField>

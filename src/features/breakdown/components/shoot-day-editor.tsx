@@ -6,6 +6,7 @@ import { CSS } from "@dnd-kit/utilities";
 import type { SceneRowDto, ShootDayDto } from "@shared/schemas/breakdown";
 import { formatEighths } from "@shared/domain/breakdown";
 import { scheduleLabels } from "@shared/domain/schedule-labels";
+import { formatClockTime, formatDate } from "@shared/format";
 import { Button } from "@/components/ui/button";
 import { ConfirmDialog } from "@/components/ui/dialog";
 import { ErrorAlert, EmptyState } from "@/components/ui/feedback";
@@ -59,8 +60,8 @@ export function ShootDayEditor({ productionId, days, scenes, stage, canEdit, tod
                     className={cn("flex min-h-11 w-full items-center justify-between gap-2 rounded-md border px-3 py-2 text-left text-sm", selected?.id === d.id ? "border-ink bg-ink text-chalk" : "border-chalk-200 bg-white text-ink-900 hover:bg-ink-50")}
                   >
                     <span className="font-semibold">
-                      {dayLabel(d)} · {d.date}
-                      {d.startsAt ? ` · ${d.startsAt.slice(0, 5)}` : ""}
+                      {dayLabel(d)} · {formatDate(d.date)}
+                      {d.startsAt ? ` · ${formatClockTime(d.startsAt)}` : ""}
                     </span>
                     <span className="text-xs">{d.kind === "shoot" ? `${d.scenes.length} scene${d.scenes.length === 1 ? "" : "s"}` : "full show"}</span>
                   </button>
@@ -172,7 +173,7 @@ function DayPanel(props: { productionId: string; day: ShootDayDto; days: ShootDa
       {
         onSuccess: () =>
           setUndo({
-            message: `Scene ${numberOf(sceneId)} moved to ${to ? `${dayLabel(to)} (${to.date})` : "the other day"}.`,
+            message: `Scene ${numberOf(sceneId)} moved to ${to ? `${dayLabel(to)} (${formatDate(to.date)})` : "the other day"}.`,
             run: () => move.mutate({ fromId: toId, sceneId, toShootDayId: day.id, position: place }, { onSuccess: () => setUndo(null) }),
           }),
       },
@@ -181,10 +182,10 @@ function DayPanel(props: { productionId: string; day: ShootDayDto; days: ShootDa
   const notOnDay = props.scenes.filter((s) => !order.includes(s.id));
 
   return (
-    <section aria-label={`${dayLabel(day)}, ${day.date}`} className="grid content-start gap-4">
+    <section aria-label={`${dayLabel(day)}, ${formatDate(day.date)}`} className="grid content-start gap-4">
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h2 className="text-lg font-semibold text-ink">
-          {dayLabel(day)} · {day.date}
+          {dayLabel(day)} · {formatDate(day.date)}
         </h2>
         {canEdit && (
           <Button variant="ghost" size="sm" className="text-madder" onClick={() => setConfirmDelete(true)}>
@@ -251,7 +252,7 @@ function DayPanel(props: { productionId: string; day: ShootDayDto; days: ShootDa
       {props.snags}
       <ConfirmDialog
         open={confirmDelete}
-        title={`Delete ${dayLabel(day)} (${day.date})?`}
+        title={`Delete ${dayLabel(day)} (${formatDate(day.date)})?`}
         confirmLabel={`Delete ${dayLabel(day).toLowerCase()}`}
         danger
         busy={del.isPending}
@@ -325,7 +326,7 @@ function SceneSlot(props: { id: string; place: number; scene: SceneRowDto | unde
                 <option value="">Move to…</option>
                 {props.otherDays.map((d) => (
                   <option key={d.id} value={d.id}>
-                    {dayLabel(d)} · {d.date}
+                    {dayLabel(d)} · {formatDate(d.date)}
                   </option>
                 ))}
               </select></span>

@@ -11,7 +11,8 @@ import {
   type SimValueDto,
 } from "@shared/schemas/fabrics";
 import { greyScaleGrades, greyScaleLabel } from "@shared/domain/fabric-care-tests";
-import { formatLength, roundTo } from "@shared/domain/units";
+import { formatLength } from "@shared/domain/units";
+import { formatDate, formatNumber, formatSignificant } from "@shared/format";
 import { Button } from "@/components/ui/button";
 import { ErrorAlert, SafetyNote } from "@/components/ui/feedback";
 import { ConfirmDialog } from "@/components/ui/dialog";
@@ -22,32 +23,33 @@ import { useAddFabricTest, useDeleteFabricTest } from "../api/fabrics";
 
 // 1 mg·cm (the older cgs unit for bending rigidity) = 0.0980665 µN·m (check-values §2).
 const MICRO_NM_PER_MG_CM = 0.0980665;
-const sig = (x: number, n = 4) => Number(x.toPrecision(n)).toLocaleString(undefined, { maximumSignificantDigits: n });
+const sig = formatSignificant;
+const num = (x: number) => formatNumber(x, 3);
 
 function readingsText(t: FabricTestDto): string {
   const r = t.readings;
   switch (r.kind) {
     case "mass":
-      return `${r.massG} g on ${r.lengthMm} × ${r.widthMm} mm`;
+      return `${num(r.massG)} g on ${num(r.lengthMm)} × ${num(r.widthMm)} mm`;
     case "cantilever":
-      return `${t.direction} overhang ${r.overhangMm} mm at ${r.angleDeg}°`;
+      return `${t.direction} overhang ${num(r.overhangMm)} mm at ${num(r.angleDeg)}°`;
     case "strip":
-      return `${t.direction} ${r.loadN} N at ${r.extensionMm} mm on ${r.stripWidthMm} × ${r.gaugeLengthMm} mm`;
+      return `${t.direction} ${num(r.loadN)} N at ${num(r.extensionMm)} mm on ${num(r.stripWidthMm)} × ${num(r.gaugeLengthMm)} mm`;
     case "thickness":
-      return `${r.thicknessMm} mm`;
+      return `${num(r.thicknessMm)} mm`;
     case "shrinkage": {
-      const pairs = (xs: Array<{ beforeMm: number; afterMm: number }>) => xs.map((p) => `${p.beforeMm} → ${p.afterMm}`).join(", ");
+      const pairs = (xs: Array<{ beforeMm: number; afterMm: number }>) => xs.map((p) => `${num(p.beforeMm)} → ${num(p.afterMm)}`).join(", ");
       return `${fabricCareTreatmentLabels[r.treatment]}${r.cycles > 1 ? ` × ${r.cycles}` : ""}${r.procedure ? ` (${r.procedure})` : ""}: length ${pairs(r.length)} mm; width ${pairs(r.width)} mm`;
     }
     case "colourfastness":
       return `${colourfastnessAgentLabels[r.agent]}${r.procedure ? `, ${r.procedure}` : ""}${r.adjacent ? `; staining read on ${r.adjacent}` : ""}`;
     case "flame_retardancy":
-      return `${r.treatment}, treated ${r.treatedOn}${r.standard ? ` · ${r.standard}` : ""}${r.certificateRef ? ` · certificate ${r.certificateRef}` : ""}${r.renewBy ? ` · renew by ${r.renewBy}` : ""}`;
+      return `${r.treatment}, treated ${formatDate(r.treatedOn)}${r.standard ? ` · ${r.standard}` : ""}${r.certificateRef ? ` · certificate ${r.certificateRef}` : ""}${r.renewBy ? ` · renew by ${formatDate(r.renewBy)}` : ""}`;
   }
 }
 
 /** A signed per cent as people write it: "−2.9 %" (shrinks) or "+0.6 %" (grows). */
-const pct = (x: number) => `${x > 0 ? "+" : x < 0 ? "−" : ""}${Math.abs(roundTo(x, 1)).toFixed(1)} %`;
+const pct = (x: number) => `${x > 0 ? "+" : x < 0 ? "−" : ""}${formatNumber(Math.abs(x), 1)} %`;
 
 function derivedText(t: FabricTestDto): string {
   const d = t.derived;
@@ -62,13 +64,13 @@ function derivedText(t: FabricTestDto): string {
               ? `; G = ${sig(d.flexuralRigidityMicroNm)} µN·m = ${sig(d.flexuralRigidityNm!)} N·m (${sig(d.flexuralRigidityMicroNm / MICRO_NM_PER_MG_CM)} mg·cm) using ${sig(d.massPerAreaUsedGsm!)} g/m² ${d.massBasis}`
               : "; rigidity needs a mass per area");
     case "strip":
-      return d.tensileStiffnessNPerM === undefined ? "—" : `k = ${sig(d.tensileStiffnessNPerM)} N/m (strain ${roundTo(d.strain! * 100, 3)} %, ${sig(d.forcePerWidthNPerM!)} N/m load per width)`;
+      return d.tensileStiffnessNPerM === undefined ? "—" : `k = ${sig(d.tensileStiffnessNPerM)} N/m (strain ${num(d.strain! * 100)} %, ${sig(d.forcePerWidthNPerM!)} N/m load per width)`;
     case "thickness":
       return d.thicknessM === undefined ? "—" : `${sig(d.thicknessM)} m`;
     case "shrinkage":
       return d.lengthChangePct === undefined
         ? "—"
-        : `length ${pct(d.lengthChangePct)}, width ${pct(d.widthChangePct!)} (negative shrinks); to end at size, cut length × ${d.lengthCutFactor!.toFixed(3)}, width × ${d.widthCutFactor!.toFixed(3)}`;
+        : `length ${pct(d.lengthChangePct)}, width ${pct(d.widthChangePct!)} (negative shrinks); to end at size, cut length × ${num(d.lengthCutFactor!)}, width × ${num(d.widthCutFactor!)}`;
     case "colourfastness":
       return d.changeLabel === undefined ? "—" : `change ${d.changeLabel}${d.stainingLabel ? `, staining ${d.stainingLabel}` : ""} (grey scale, 5 = none)`;
     case "flame_retardancy":
@@ -176,18 +178,18 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
               <tbody>
                 {fabric.tests.map((t) => (
                   <tr key={t.id} className="border-t border-chalk-200 align-top">
-                    <td className="px-2 py-1 whitespace-nowrap">{t.testedOn}</td>
+                    <td className="px-2 py-1 whitespace-nowrap">{formatDate(t.testedOn)}</td>
                     <td className="px-2 py-1">{kindLabels[t.kind]}</td>
                     <td className="px-2 py-1">{readingsText(t)}</td>
                     <td className="px-2 py-1">{derivedText(t)}</td>
                     <td className="px-2 py-1">{t.testedByName ?? "—"}</td>
                     <td className="px-2 py-1">
                       <span className="flex gap-1">
-                        <Button size="sm" variant="ghost" onClick={() => setPhotosFor(photosFor === t.id ? null : t.id)} aria-label={`Photos of the ${t.kind.replace(/_/g, " ")} test of ${t.testedOn}`}>
+                        <Button size="sm" variant="ghost" onClick={() => setPhotosFor(photosFor === t.id ? null : t.id)} aria-label={`Photos of the ${t.kind.replace(/_/g, " ")} test of ${formatDate(t.testedOn)}`}>
                           {t.kind === "flame_retardancy" ? "Certificate" : "Photos"}
                         </Button>
                         {canUpdate && (
-                          <Button size="sm" variant="ghost" onClick={() => setDeleting(t)} aria-label={`Delete ${t.kind} test of ${t.testedOn}`}>
+                          <Button size="sm" variant="ghost" onClick={() => setDeleting(t)} aria-label={`Delete ${t.kind.replace(/_/g, " ")} test of ${formatDate(t.testedOn)}`}>
                             Delete
                           </Button>
                         )}
@@ -207,7 +209,7 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
               ownerType="fabric_test"
               ownerId={photosTest.id}
               canEdit={canUpdate}
-              title={photosTest.kind === "flame_retardancy" ? `Certificate: ${readingsText(photosTest)}` : `${kindLabels[photosTest.kind]}, ${photosTest.testedOn}`}
+              title={photosTest.kind === "flame_retardancy" ? `Certificate: ${readingsText(photosTest)}` : `${kindLabels[photosTest.kind]}, ${formatDate(photosTest.testedOn)}`}
             />
           </div>
         )}
@@ -342,7 +344,7 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
         onCancel={() => setDeleting(null)}
         onConfirm={() => deleting && del.mutate(deleting.id, { onSettled: () => setDeleting(null) })}
       >
-        {deleting ? `${kindLabels[deleting.kind]} of ${deleting.testedOn}: ${readingsText(deleting)}. ` : ""}The other tests are recomputed without it.
+        {deleting ? `${kindLabels[deleting.kind]} of ${formatDate(deleting.testedOn)}: ${readingsText(deleting)}. ` : ""}The other tests are recomputed without it.
       </ConfirmDialog>
       {del.error != null && <ErrorAlert error={del.error} title="Test not deleted" />}
       <section>

@@ -5,10 +5,11 @@ import type { MultiplesPlanDto, MultiplesUseDto } from "@shared/schemas/snags";
 import { scheduleLabels, type ScheduleKind } from "@shared/domain/schedule-labels";
 import { Badge } from "@/components/ui/feedback";
 import { SafetyNote } from "@/components/ui/feedback";
+import { formatDate } from "@shared/format";
 
 const col = createColumnHelper<MultiplesUseDto>();
 const columnsFor = (kind: ScheduleKind) => [
-  col.accessor((u) => u.date ?? "", { id: "date", header: scheduleLabels(kind).Day, cell: (c) => c.getValue() || "—" }),
+  col.accessor((u) => u.date ?? "", { id: "date", header: scheduleLabels(kind).Day, cell: (c) => (c.getValue() ? formatDate(c.getValue()) : "—") }),
   col.accessor("sceneNumber", { header: "Scene" }),
   col.accessor("characterName", { header: "Character" }),
   col.accessor("stage", {

@@ -2,6 +2,7 @@ import { Link } from "react-router";
 import { scheduleLabels, type ScheduleKind } from "@shared/domain/schedule-labels";
 import { Card } from "@/components/ui/card";
 import { ErrorAlert, Spinner } from "@/components/ui/feedback";
+import { formatDate } from "@shared/format";
 import { useSnags } from "../api/snags";
 import { SnagCard } from "./snag-card";
 
@@ -23,7 +24,7 @@ export function SnagsForDay({
   const q = useSnags(productionId, { shootDayId: given?.id ?? "next" });
   const day = given ?? q.data?.nextShootDay;
   return (
-    <Card role="region" aria-label={given ? `Snags for ${given.date}` : "Snags for the next day"}>
+    <Card role="region" aria-label={given ? `Snags for ${formatDate(given.date)}` : "Snags for the next day"}>
       <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
         <h2 className="font-semibold text-ink">Snags{day ? ` for ${scheduleLabels(day.kind === "performance" ? "stage" : "film").on(day.date)}` : ""}</h2>
         <Link to={`/p/${productionId}/snags`} className="text-sm font-semibold text-ink underline-offset-2 hover:underline">

@@ -9,6 +9,7 @@ import { Button } from "@/components/ui/button";
 import { useUndoDismissal } from "../api/snags";
 import { DismissDialog } from "./dismiss-dialog";
 import { SnagCard } from "./snag-card";
+import { formatDate } from "@shared/format";
 
 export type SnagGrouping = "severity" | "shootDay" | "character" | "kind";
 
@@ -24,7 +25,7 @@ function groupsOf(s: SnagDto, by: SnagGrouping, kind: ScheduleKind): { key: stri
     case "kind":
       return [{ key: String(snagKinds.indexOf(s.kind)), label: snagKindLabels[s.kind] }];
     case "shootDay":
-      return s.shootDays.length ? s.shootDays.map((d) => ({ key: d.date, label: `${scheduleLabels(kind).Day} ${d.date}` })) : [{ key: NONE, label: "Not tied to one day" }];
+      return s.shootDays.length ? s.shootDays.map((d) => ({ key: d.date, label: `${scheduleLabels(kind).Day} ${formatDate(d.date)}` })) : [{ key: NONE, label: "Not tied to one day" }];
     case "character":
       return s.characters.length ? s.characters.map((c) => ({ key: c.name.toLowerCase(), label: c.name })) : [{ key: NONE, label: "No character" }];
   }
@@ -92,7 +93,7 @@ export function SnagsList({ productionId, kind = "film", data, filters, onFilter
           </Badge>
         ))}
         <span className="text-xs text-slate">
-          {data.counts.dismissed} dismissed{data.counts.lapsed ? ` · ${data.counts.lapsed} dismissal${data.counts.lapsed > 1 ? "s" : ""} lapsed` : ""} · judged on {data.today}
+          {data.counts.dismissed} dismissed{data.counts.lapsed ? ` · ${data.counts.lapsed} dismissal${data.counts.lapsed > 1 ? "s" : ""} lapsed` : ""} · judged on {formatDate(data.today)}
         </span>
       </div>
       <div className="grid grid-cols-2 gap-3 sm:grid-cols-4 lg:grid-cols-5">
@@ -123,11 +124,11 @@ export function SnagsList({ productionId, kind = "film", data, filters, onFilter
           <option value="">All {words.days}</option>
           <option value="next">
             {words.Next}
-            {data.nextShootDay ? ` (${data.nextShootDay.date})` : ""}
+            {data.nextShootDay ? ` (${formatDate(data.nextShootDay.date)})` : ""}
           </option>
           {data.shootDays.map((d) => (
             <option key={d.id} value={d.id}>
-              {d.date}
+              {formatDate(d.date)}
             </option>
           ))}
         </SelectField>

@@ -1,5 +1,6 @@
 import type { CheckoutInput, CheckoutOptionsDto, GarmentCheckoutDto } from "@shared/schemas/garments";
 import { scheduleLabels, type ScheduleKind } from "@shared/domain/schedule-labels";
+import { formatDate } from "@shared/format";
 import { InputField, SelectField } from "@/components/ui/field";
 import { Badge } from "@/components/ui/feedback";
 
@@ -80,7 +81,7 @@ export function CheckoutFields({ options, kind, value, onChange, errors = {} }: 
             {options?.days.map((d) => (
               <option key={d.id} value={d.id}>
                 {d.date === options.today ? "Today · " : ""}
-                {words.numbered(d.dayNumber)} · {d.date}
+                {words.numbered(d.dayNumber)} · {formatDate(d.date)}
               </option>
             ))}
           </SelectField>
@@ -119,7 +120,7 @@ export function CheckoutSummary({ checkout: c, kind, compact }: { checkout: Garm
         {!compact && c.to.kind === "performer" && <span className="text-slate"> (performer)</span>}
       </span>
       {!compact && forWhat && <span className="text-slate">· {forWhat}</span>}
-      <span className={c.pastDue ? "font-semibold text-madder" : "text-slate"}>· due back {c.dueBackOn}</span>
+      <span className={c.pastDue ? "font-semibold text-madder" : "text-slate"}>· due back {formatDate(c.dueBackOn)}</span>
       {c.pastDue && <Badge tone="blocking">past due</Badge>}
     </span>
   );

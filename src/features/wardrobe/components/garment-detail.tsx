@@ -22,6 +22,8 @@ import { StatusBadge } from "./status-badge";
 import { LabelPositionSelect } from "./label-position";
 import { GarmentForm } from "./garment-form";
 import { CheckoutFields, CheckoutSummary, checkoutFromDraft, emptyCheckout, type CheckoutDraft } from "./checkout-fields";
+import { useProductionTime } from "@/hooks/use-production-time";
+import { formatDate } from "@shared/format";
 
 interface Props {
   productionId: string;
@@ -125,6 +127,7 @@ function MakeCopies({ productionId, garment: g }: { productionId: string; garmen
 /** One garment: measurements, where it is and has been, which changes use it, its copies. */
 export function GarmentDetail({ productionId, garment: g, unit, kind, canUpdate, canMove, canReadFabrics }: Props) {
   const [editing, setEditing] = useState(false);
+  const { dateTime } = useProductionTime();
   const update = useUpdateGarment(productionId, g.id);
   const move = useMoveGarments(productionId);
   const fabrics = useFabricOptions(productionId, canReadFabrics && canUpdate);
@@ -157,7 +160,7 @@ export function GarmentDetail({ productionId, garment: g, unit, kind, canUpdate,
           <div className="text-right">
             <StatusBadge status={g.status} />
             <p className="mt-1 text-sm text-slate">{[g.locationRack, g.locationBin].filter(Boolean).join(" / ") || "no location"}</p>
-            {g.rentalDueOn && <p className="text-sm font-semibold text-ochre">Rental due back {g.rentalDueOn}</p>}
+            {g.rentalDueOn && <p className="text-sm font-semibold text-ochre">Rental due back {formatDate(g.rentalDueOn)}</p>}
             <p className="text-sm text-slate">Distress stage {g.distressStage}</p>
           </div>
         </div>
@@ -312,14 +315,14 @@ export function GarmentDetail({ productionId, garment: g, unit, kind, canUpdate,
                     </td>
                     <td className="px-2 py-1">{[c.shootDay ? words.on(c.shootDay.date) : null, c.scene ? `scene ${c.scene.number}` : null].filter(Boolean).join(", ") || "—"}</td>
                     <td className="px-2 py-1 whitespace-nowrap">
-                      {new Date(c.checkedOutAt).toLocaleString()}
+                      {dateTime(c.checkedOutAt)}
                       {c.checkedOutByName ? ` by ${c.checkedOutByName}` : ""}
                     </td>
                     <td className={c.pastDue ? "px-2 py-1 font-semibold text-madder" : "px-2 py-1"}>
-                      {c.dueBackOn}
+                      {formatDate(c.dueBackOn)}
                       {c.pastDue ? " (past due)" : ""}
                     </td>
-                    <td className="px-2 py-1 whitespace-nowrap">{c.returnedAt ? new Date(c.returnedAt).toLocaleString() : "still out"}</td>
+                    <td className="px-2 py-1 whitespace-nowrap">{c.returnedAt ? dateTime(c.returnedAt) : "still out"}</td>
                   </tr>
                 ))}
               </tbody>
@@ -347,7 +350,7 @@ export function GarmentDetail({ productionId, garment: g, unit, kind, canUpdate,
               <tbody>
                 {g.history.map((e) => (
                   <tr key={e.id} className="border-t border-chalk-200">
-                    <td className="px-2 py-1 whitespace-nowrap">{new Date(e.at).toLocaleString()}</td>
+                    <td className="px-2 py-1 whitespace-nowrap">{dateTime(e.at)}</td>
                     <td className="px-2 py-1">{e.actorName ?? "—"}</td>
                     <td className="px-2 py-1">{e.fromStatus ? `${garmentStatusLabels[e.fromStatus]}${e.fromLocation ? ` · ${e.fromLocation}` : ""}` : "—"}</td>
                     <td className="px-2 py-1">

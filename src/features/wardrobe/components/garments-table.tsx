@@ -17,6 +17,7 @@ import { cn } from "@/utils/cn";
 import { garmentFileUrls, useGarmentFilterOptions, useGarments, useMoveGarments, type GarmentListParams } from "../api/garments";
 import { StatusBadge } from "./status-badge";
 import { CheckoutSummary } from "./checkout-fields";
+import { formatDate } from "@shared/format";
 
 const col = createColumnHelper<GarmentDto>();
 const PAGE_SIZE = 50;
@@ -65,7 +66,7 @@ function buildColumns(unit: LengthUnit) {
     col.accessor("sizeLabel", { header: "Size", cell: (c) => c.getValue() ?? "—" }),
     col.accessor("locationRack", { header: "Rack", cell: (c) => [c.getValue(), c.row.original.locationBin].filter(Boolean).join(" / ") || "—" }),
     col.accessor("source", { header: "Source" }),
-    col.accessor("rentalDueOn", { header: "Rental due", cell: (c) => c.getValue() ?? "—" }),
+    col.accessor("rentalDueOn", { header: "Rental due", cell: (c) => { const v = c.getValue(); return v ? formatDate(v) : "—"; } }),
     col.accessor("fabricName", { header: "Fabric", cell: (c) => c.getValue() ?? "—", enableSorting: false }),
     col.accessor("colour", { header: "Colour", cell: (c) => c.getValue() ?? "—", enableSorting: false }),
     col.accessor("multiplesGroupName", { header: "Multiples", cell: (c) => c.getValue() ?? "—", enableSorting: false }),
