@@ -18,7 +18,7 @@ import {
   type TaggedValue,
 } from "@shared/domain/fabric-physics.js";
 import { gsmToOzPerSqYd } from "@shared/domain/units.js";
-import { greyScaleLabel, shrinkageResult, type GreyScaleGrade } from "@shared/domain/fabric-care-tests.js";
+import { greyScaleChangeCielab, greyScaleLabel, shrinkageResult, type GreyScaleGrade } from "@shared/domain/fabric-care-tests.js";
 import { deletePhotosOfOwners, removeUnreferencedFiles } from "./photos.service.js";
 
 const countAttrs = {
@@ -71,8 +71,10 @@ function derive(r: FabricTestReadings, massGsm: { value: number; basis: "tested"
       const x = shrinkageResult(r.length, r.width);
       return { lengthChangePct: x.lengthChangePct, widthChangePct: x.widthChangePct, lengthCutFactor: x.lengthCutFactor, widthCutFactor: x.widthCutFactor };
     }
-    case "colourfastness":
-      return { changeLabel: greyScaleLabel(r.changeGrade as GreyScaleGrade), stainingLabel: r.stainingGrade === null ? null : greyScaleLabel(r.stainingGrade as GreyScaleGrade) };
+    case "colourfastness": {
+      const cielab = greyScaleChangeCielab[r.changeGrade as GreyScaleGrade];
+      return { changeLabel: greyScaleLabel(r.changeGrade as GreyScaleGrade), changeDeltaE: cielab.deltaE, changeDeltaETolerance: cielab.tolerance, stainingLabel: r.stainingGrade === null ? null : greyScaleLabel(r.stainingGrade as GreyScaleGrade) };
+    }
     case "flame_retardancy":
       // A record of a treatment and its certificate: nothing to compute.
       return {};

@@ -25,6 +25,7 @@ import {
   type UpdateGarmentInput,
 } from "@shared/schemas/garments.js";
 import { formatLength, type LengthUnit } from "@shared/domain/units.js";
+import { formatDate } from "@shared/format.js";
 import { scheduleLabels } from "@shared/domain/schedule-labels.js";
 import { can, roleLabels, type Role } from "@shared/permissions.js";
 
@@ -400,7 +401,7 @@ async function moveOne(actor: Actor, g: Garment, input: MoveInput, transaction: 
       },
       { transaction },
     );
-    notes.push(`Checked out to ${c.toName}${c.forText}, due back ${c.dueBackOn}`);
+    notes.push(`Checked out to ${c.toName}${c.forText}, due back ${formatDate(c.dueBackOn)}`);
   }
   if (g.status === input.status && fromLocation === toLocation && notes.length === 0) return { garment: g, event: null };
   if (input.note) notes.push(input.note);

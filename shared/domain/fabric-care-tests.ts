@@ -68,6 +68,24 @@ export function greyScaleLabel(g: GreyScaleGrade): string {
   return Number.isInteger(g) ? String(g) : `${Math.floor(g)}-${Math.ceil(g)}`;
 }
 
+/**
+ * What each step of the change-in-colour scale stands for: the CIELAB colour difference ΔE*ab between the
+ * two chips of its pair, with the tolerance a working scale must meet (ISO 105-A02:1993 §2.4, the table of
+ * colorimetric values; the half steps belong to the 9-step scale). Shown beside a grade so a reading can be
+ * compared with an instrument's ΔE*ab; the grade itself stays the person's visual assessment.
+ */
+export const greyScaleChangeCielab: Readonly<Record<GreyScaleGrade, { deltaE: number; tolerance: number }>> = {
+  5: { deltaE: 0, tolerance: 0.2 },
+  4.5: { deltaE: 0.8, tolerance: 0.2 },
+  4: { deltaE: 1.7, tolerance: 0.3 },
+  3.5: { deltaE: 2.5, tolerance: 0.35 },
+  3: { deltaE: 3.4, tolerance: 0.4 },
+  2.5: { deltaE: 4.8, tolerance: 0.5 },
+  2: { deltaE: 6.8, tolerance: 0.6 },
+  1.5: { deltaE: 9.6, tolerance: 0.7 },
+  1: { deltaE: 13.6, tolerance: 1.0 },
+};
+
 /** Reads "4-5", "4/5", "4–5" or "4.5" as 4.5 and "4" as 4; null for anything not on the scale. */
 export function parseGreyScaleGrade(text: string): GreyScaleGrade | null {
   const t = text.trim();

@@ -176,6 +176,9 @@ export interface FabricTestDerived {
   widthCutFactor?: number;
   /** colour fastness: grades as written ("4-5"). */
   changeLabel?: string;
+  /** ΔE*ab of the change-in-colour grade's chip pair (ISO 105-A02 §2.4) and its tolerance. */
+  changeDeltaE?: number;
+  changeDeltaETolerance?: number;
   stainingLabel?: string | null;
 }
 

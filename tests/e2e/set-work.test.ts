@@ -7,6 +7,7 @@ import type { Page } from "playwright-core";
 import { useBrowser, signIn } from "./browser.js";
 import { GLASS_ORCHARD_ID, SALTMARSH_ID } from "../../seeds/accounts.js";
 import { keyGarments, performers } from "../../seeds/scenario.js";
+import { formatDate } from "../../shared/format.js";
 
 const baseUrl = inject("baseUrl");
 const databaseUrl = inject("databaseUrl");
@@ -69,7 +70,7 @@ describe("check-out to a person", () => {
     await who.waitFor();
     expect(await who.textContent()).toContain(`With ${performers.jory.name}`);
     expect(await who.textContent()).toContain(`${sceneText.toLowerCase()}`);
-    expect(await who.textContent()).toContain(`due back ${due}`);
+    expect(await who.textContent()).toContain(`due back ${formatDate(due)}`);
     await page.getByRole("table", { name: "Check-outs" }).getByText(performers.jory.name).waitFor();
 
     await page.goto(`${P}/wardrobe?q=${encodeURIComponent(g.tagCode)}&out=out`);
@@ -294,5 +295,64 @@ describe("a stage production", () => {
     expect(await page.locator("main").textContent()).toMatch(/before which performance/);
     expect(await page.locator("main").textContent()).not.toMatch(/shoot day/i);
     await page.close();
+  });
+});
+
+describe("fabric tests before cutting", () => {
+  it("records shrinkage, colour fastness and a flame-retardancy treatment from the form, with field messages and the fire caution", async () => {
+    const page = await browser().newPage({ viewport: { width: 1280, height: 900 } });
+    await signIn(page, baseUrl, "cutter@seamscene.test");
+    await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
+    const fabrics = (await (await page.request.get(`${baseUrl}/api/productions/${SALTMARSH_ID}/fabrics`)).json()) as { data: Array<{ id: string; name: string }> };
+    const fabric = fabrics.data[0]!;
+    const made: string[] = [];
+    page.on("response", async (r) => {
+      if (r.request().method() === "POST" && /\/fabrics\/[^/]+\/tests$/.test(r.url()) && r.status() === 201) made.push(((await r.json()) as { data: { id: string } }).data.id);
+    });
+    try {
+      await page.goto(`${P}/fabrics/${fabric.id}`);
+      const form = page.getByRole("form", { name: "Record a test" });
+      const tests = page.getByRole("table", { name: "Fabric tests" });
+
+      // Shrinkage after washing: ISO 5077 change per pair, (after − before) / before × 100, mean per direction.
+      // 350 → 339, 340, 341 mm is a mean of −10/350 = −2.857 %, shown to one decimal; 350 → 352 is +0.571 %.
+      await form.getByLabel("Test").selectOption({ label: "Shrinkage after washing or dry-cleaning (ISO 5077)" });
+      const length = form.getByRole("group", { name: "Length (warp / wales)" });
+      const width = form.getByRole("group", { name: "Width (weft / courses)" });
+      await length.getByLabel("After, pair 1 (mm)").fill("339");
+      await length.getByLabel("After, pair 2 (mm)").fill("340");
+      await length.getByLabel("After, pair 3 (mm)").fill("341");
+      await width.getByLabel("After, pair 1 (mm)").fill("0");
+      await form.getByRole("button", { name: "Record test" }).click();
+      // A bad reading is named in plain words beside its field, and nothing is recorded.
+      await width.getByText("Width pair 1: after must be greater than 0").waitFor();
+      await width.getByLabel("After, pair 1 (mm)").fill("352");
+      await form.getByRole("button", { name: "Record test" }).click();
+      await tests.getByText("length −2.9 %, width +0.6 %", { exact: false }).waitFor();
+
+      // Colour fastness: grade 4-5 on the change-in-colour scale is the pair 0.8 ± 0.2 CIELAB units apart (ISO 105-A02 §2.4).
+      await form.getByLabel("Test").selectOption({ label: "Colour fastness (ISO 105 grey scales)" });
+      await form.getByLabel("Change in colour (grade)").selectOption({ label: "4-5" });
+      await form.getByLabel("Staining (grade)").selectOption({ label: "3-4" });
+      await form.getByRole("button", { name: "Record test" }).click();
+      await tests.getByText("change 4-5 (the scale's pair is ΔE*ab 0.8 ± 0.2), staining 3-4", { exact: false }).waitFor();
+
+      // Flame retardancy: the caution is shown first; a blank treatment is refused by name; saving opens the certificate photos.
+      await form.getByLabel("Test").selectOption({ label: "Flame-retardancy treatment" });
+      await form.getByText("Local fire codes, the venue and its fire officer decide", { exact: false }).waitFor();
+      await form.getByRole("button", { name: "Record test" }).click();
+      await form.getByText("Treatment is required").waitFor();
+      await form.getByLabel("Treatment (product, applied by)").fill("Invented FR spray, workroom");
+      await form.getByLabel("Certificate number").fill("FR-0192");
+      await form.getByRole("button", { name: "Record test" }).click();
+      await tests.getByText("certificate FR-0192", { exact: false }).waitFor();
+      await page.getByText("Certificate: Invented FR spray", { exact: false }).first().waitFor();
+      expect(made).toHaveLength(3);
+      await page.screenshot({ path: ".data/e2e-care-tests.png", fullPage: true });
+    } finally {
+      const csrf = ((await (await page.request.get(`${baseUrl}/api/auth/csrf`)).json()) as { token: string }).token;
+      for (const id of made) await page.request.delete(`${baseUrl}/api/productions/${SALTMARSH_ID}/fabrics/${fabric.id}/tests/${id}`, { headers: { "X-CSRF-Token": csrf } });
+      await page.close();
+    }
   });
 });

@@ -43,7 +43,7 @@ describe("check-out to a person (POST /garments/moves and /scan with checkout)",
       pastDue: false,
       returnedAt: null,
     });
-    expect(res.body.data[0].event.note).toBe("Checked out to Ada Pell for shoot day 2030-09-03, scene 42A, due back 2030-09-03");
+    expect(res.body.data[0].event.note).toBe("Checked out to Ada Pell for shoot day Tue 3 Sep 2030, scene 42A, due back Tue 3 Sep 2030");
     expect(await GarmentCheckout.count({ where: { garmentId: g.id, returnedAt: null } })).toBe(1);
   });
 
@@ -99,7 +99,7 @@ describe("check-out to a person (POST /garments/moves and /scan with checkout)",
 
     const res = await agent.post(`${base}/moves`, { garmentIds: [g.id], status: "on_set", checkout: { toPerformerId: b.id } });
 
-    expect(res.body.data[0].event.note).toBe("Handed over from Ada Pell · Checked out to Bram Tolley, due back 2030-09-02");
+    expect(res.body.data[0].event.note).toBe("Handed over from Ada Pell · Checked out to Bram Tolley, due back Mon 2 Sep 2030");
     expect(await GarmentCheckout.count({ where: { garmentId: g.id } })).toBe(2);
     expect(await GarmentCheckout.count({ where: { garmentId: g.id, returnedAt: null } })).toBe(1);
   });
@@ -116,7 +116,7 @@ describe("check-out to a person (POST /garments/moves and /scan with checkout)",
     const cases: Array<[object, string, string, RegExp]> = [
       [{ toPerformerId: stranger.id }, "on_set", "checkout.toPerformerId", /not a performer of this production/],
       [{ toUserId: outsider.id }, "on_set", "checkout.toUserId", /not a member/],
-      [{ toPerformerId: performer.id, sceneId: scene.id, shootDayId: day.id }, "on_set", "checkout.sceneId", /scene 7 is not on shoot day 2030-09-04/],
+      [{ toPerformerId: performer.id, sceneId: scene.id, shootDayId: day.id }, "on_set", "checkout.sceneId", /scene 7 is not on shoot day Wed 4 Sep 2030/],
       [{ toPerformerId: performer.id, dueBackOn: "2030-09-01" }, "on_set", "checkout.dueBackOn", /cannot be before today \(2030-09-02\)/],
       [{ toPerformerId: performer.id }, "cleaning", "status", /On set or Fitting/],
       [{}, "on_set", "checkout.toUserId", /one member or one performer/],
@@ -143,7 +143,7 @@ describe("check-out to a person (POST /garments/moves and /scan with checkout)",
     const res = await sup.post(`/api/productions/${stage.id}/garments/moves`, { garmentIds: [g.id], status: "on_set", checkout: { toUserId: user.id, shootDayId: perf.id, sceneId: scene.id } });
 
     expect(res.status).toBe(200);
-    expect(res.body.data[0].event.note).toContain("for performance 2030-09-02, scene 2");
+    expect(res.body.data[0].event.note).toContain("for performance Mon 2 Sep 2030, scene 2");
   });
 });
 
@@ -163,7 +163,7 @@ describe("out past due (snag and list filter)", () => {
     expect(snags.body.data.snags).toHaveLength(1);
     const s = snags.body.data.snags[0];
     expect(s.garments).toEqual([{ id: late.id, tagCode: late.tagCode, name: "Late coat" }]);
-    expect(s.explanation).toContain("was due back on 2030-09-03; on 2030-09-04 it is 1 day past due");
+    expect(s.explanation).toContain("was due back on Tue 3 Sep 2030; on Wed 4 Sep 2030 it is 1 day past due");
     expect(s.links[0].href).toBe(`/p/${production.id}/wardrobe/garments/${late.id}`);
     expect(s.links.map((l: { label: string }) => l.label)).toContain("Ada Pell");
     expect(pastDue.body.data.map((g: { name: string; checkout: { pastDue: boolean } }) => [g.name, g.checkout.pastDue])).toEqual([["Late coat", true]]);

@@ -3,6 +3,7 @@ import { fraction, mean, number as mnumber, subtract, divide, multiply } from "m
 import {
   cutAllowanceFactor,
   dimensionalChangePct,
+  greyScaleChangeCielab,
   greyScaleGrades,
   greyScaleLabel,
   meanDimensionalChangePct,
@@ -11,7 +12,8 @@ import {
 } from "@shared/domain/fabric-care-tests";
 
 describe("dimensional change after washing or dry-cleaning", () => {
-  // Worked example (invented specimen, method of ISO 3759 marking and ISO 5077 calculation):
+  // Constructed example on the ISO 5077:2007 method (three pairs of marks 350 mm apart per direction, as ISO 3759
+  // marks them; change = (Xt − X0) / X0 × 100, then the mean). The standard prints no numbers to copy here.
   // marks 350 mm apart; after washing the three length pairs read 339, 340 and 341 mm, the width pairs 352, 351, 353 mm.
   //   length: (339 − 350)/350 = −3.1429 %, (340 − 350)/350 = −2.8571 %, (341 − 350)/350 = −2.5714 %; mean −2.8571 % (= −20/7 %)
   //   width:  +0.5714 %, +0.2857 %, +0.8571 %; mean +0.5714 % (= +4/7 %)
@@ -53,8 +55,30 @@ describe("dimensional change after washing or dry-cleaning", () => {
 });
 
 describe("grey-scale grades", () => {
-  it("has the nine steps of the ISO 105-A02 / A03 scales, 1 to 5 in half steps (from memory)", () => {
+  it("has the nine steps of the 9-step scale, 1 to 5 in half steps (ISO 105-A02:1993 §2.1)", () => {
     expect(greyScaleGrades.map(greyScaleLabel)).toEqual(["1", "1-2", "2", "2-3", "3", "3-4", "4", "4-5", "5"]);
+  });
+
+  it("gives each change-in-colour step the CIELAB difference of its chip pair (ISO 105-A02:1993 §2.4 table)", () => {
+    // ISO 105-A02:1993 §2.4: fastness grade → CIELAB difference ± tolerance, written out from the standard's table.
+    const table: Array<[string, number, number]> = [
+      ["5", 0, 0.2],
+      ["4-5", 0.8, 0.2],
+      ["4", 1.7, 0.3],
+      ["3-4", 2.5, 0.35],
+      ["3", 3.4, 0.4],
+      ["2-3", 4.8, 0.5],
+      ["2", 6.8, 0.6],
+      ["1-2", 9.6, 0.7],
+      ["1", 13.6, 1.0],
+    ];
+    for (const [label, deltaE, tolerance] of table) {
+      const g = parseGreyScaleGrade(label)!;
+      expect(greyScaleChangeCielab[g], label).toEqual({ deltaE, tolerance });
+    }
+    // A lower grade always stands for a larger difference, and neighbouring pairs' tolerance bands do not overlap.
+    const rising = [...greyScaleGrades].reverse().map((g) => greyScaleChangeCielab[g]);
+    for (let i = 1; i < rising.length; i++) expect(rising[i]!.deltaE - rising[i]!.tolerance).toBeGreaterThan(rising[i - 1]!.deltaE + rising[i - 1]!.tolerance);
   });
 
   it("reads the ways people write a grade and refuses values off the scale", () => {

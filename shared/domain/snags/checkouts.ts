@@ -2,6 +2,7 @@
 // was due. Judged against "today" as the server's clock gives it in the production's time zone.
 import { daysBetween } from "./bookings";
 import { scheduleLabels } from "../schedule-labels";
+import { formatDate } from "../../format";
 import type { CheckoutRec, JsonValue, SnagDraft, SnapshotIndex } from "./types";
 
 /** True when a check-out due back on `dueBackOn` is still out on `today` and should have come back. */
@@ -38,10 +39,10 @@ export function checkoutOverdueSnag(f: CheckoutFacts): SnagDraft | null {
     key: `checkout_overdue:${c.id}`,
     kind: "checkout_overdue",
     severity: "warning",
-    title: `${f.tagCode} ${f.garmentName} is still with ${c.toName}, due back ${c.dueBackOn}`,
+    title: `${f.tagCode} ${f.garmentName} is still with ${c.toName}, due back ${formatDate(c.dueBackOn)}`,
     explanation:
-      `${f.tagCode} ${f.garmentName} went out to ${c.toName} on ${c.checkedOutOn}${forWhat ? ` for ${forWhat}` : ""} and was due back on ${c.dueBackOn}; ` +
-      `on ${f.today} it is ${late} day${late === 1 ? "" : "s"} past due. Get it back and check it in, or check it out again with a new date.`,
+      `${f.tagCode} ${f.garmentName} went out to ${c.toName} on ${formatDate(c.checkedOutOn)}${forWhat ? ` for ${forWhat}` : ""} and was due back on ${formatDate(c.dueBackOn)}; ` +
+      `on ${formatDate(f.today)} it is ${late} day${late === 1 ? "" : "s"} past due. Get it back and check it in, or check it out again with a new date.`,
     subject: { garmentId: c.garmentId, ...(c.sceneId ? { sceneIds: [c.sceneId] } : {}) },
     evidence,
   };

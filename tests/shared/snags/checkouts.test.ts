@@ -6,7 +6,7 @@ import { computeSnags, finishSnag } from "@shared/domain/snags/engine";
 import type { CheckoutRec, ProductionSnapshot } from "@shared/domain/snags/types";
 
 const checkout: CheckoutRec = { id: "co1", garmentId: "g1", toName: "Ada Pell", dueBackOn: "2030-02-27", checkedOutOn: "2030-02-26", shootDayId: "d1", sceneId: "s1" };
-const facts = (today: string) => ({ checkout, tagCode: "KQ4-7M2", garmentName: "Oilskin", dayText: "shoot day 2030-02-27", sceneNumber: "42A", today });
+const facts = (today: string) => ({ checkout, tagCode: "KQ4-7M2", garmentName: "Oilskin", dayText: "shoot day Wed 27 Feb 2030", sceneNumber: "42A", today });
 
 describe("out past due", () => {
   it("is past due only from the day after the due date (due today is not late)", () => {
@@ -20,9 +20,10 @@ describe("out past due", () => {
 
     expect(s.key).toBe("checkout_overdue:co1");
     expect(s.severity).toBe("warning");
-    expect(s.title).toBe("KQ4-7M2 Oilskin is still with Ada Pell, due back 2030-02-27");
+    // Weekdays written out as GNU date(1) gives them: 26 Feb 2030 is a Tuesday, 27 Feb a Wednesday, 2 Mar a Saturday.
+    expect(s.title).toBe("KQ4-7M2 Oilskin is still with Ada Pell, due back Wed 27 Feb 2030");
     // 2030 is not a leap year: 27 Feb → 2 Mar is 3 days (Gregorian calendar; cross-checked with date-fns below).
-    expect(s.explanation).toContain("went out to Ada Pell on 2030-02-26 for shoot day 2030-02-27, scene 42A and was due back on 2030-02-27; on 2030-03-02 it is 3 days past due");
+    expect(s.explanation).toContain("went out to Ada Pell on Tue 26 Feb 2030 for shoot day Wed 27 Feb 2030, scene 42A and was due back on Wed 27 Feb 2030; on Sat 2 Mar 2030 it is 3 days past due");
     expect(s.subject).toEqual({ garmentId: "g1", sceneIds: ["s1"] });
   });
 
@@ -63,6 +64,6 @@ describe("out past due", () => {
     const snags = computeSnags(snap, { today: "2030-02-28" });
 
     expect(snags.map((s) => s.key)).toEqual(["checkout_overdue:co1"]);
-    expect(snags[0]!.explanation).toContain("for performance 2030-02-27, scene 3");
+    expect(snags[0]!.explanation).toContain("for performance Wed 27 Feb 2030, scene 3");
   });
 });

@@ -72,7 +72,7 @@ function derivedText(t: FabricTestDto): string {
         ? "—"
         : `length ${pct(d.lengthChangePct)}, width ${pct(d.widthChangePct!)} (negative shrinks); to end at size, cut length × ${num(d.lengthCutFactor!)}, width × ${num(d.widthCutFactor!)}`;
     case "colourfastness":
-      return d.changeLabel === undefined ? "—" : `change ${d.changeLabel}${d.stainingLabel ? `, staining ${d.stainingLabel}` : ""} (grey scale, 5 = none)`;
+      return d.changeLabel === undefined ? "—" : `change ${d.changeLabel}${d.changeDeltaE !== undefined ? ` (the scale's pair is ΔE*ab ${num(d.changeDeltaE)} ± ${num(d.changeDeltaETolerance!)})` : ""}${d.stainingLabel ? `, staining ${d.stainingLabel}` : ""}; grey scale, 5 = none`;
     case "flame_retardancy":
       return "Record of treatment; the certificate photo is with the test";
   }
