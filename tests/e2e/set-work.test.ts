@@ -316,7 +316,7 @@ describe("fabric tests before cutting", () => {
 
       // Shrinkage after washing: ISO 5077 change per pair, (after − before) / before × 100, mean per direction.
       // 350 → 339, 340, 341 mm is a mean of −10/350 = −2.857 %, shown to one decimal; 350 → 352 is +0.571 %.
-      await form.getByLabel("Test").selectOption({ label: "Shrinkage after washing or dry-cleaning (ISO 5077)" });
+      await form.getByLabel("Test", { exact: true }).selectOption({ label: "Shrinkage after washing or dry-cleaning (ISO 5077)" });
       const length = form.getByRole("group", { name: "Length (warp / wales)" });
       const width = form.getByRole("group", { name: "Width (weft / courses)" });
       await length.getByLabel("After, pair 1 (mm)").fill("339");
@@ -331,14 +331,14 @@ describe("fabric tests before cutting", () => {
       await tests.getByText("length −2.9 %, width +0.6 %", { exact: false }).waitFor();
 
       // Colour fastness: grade 4-5 on the change-in-colour scale is the pair 0.8 ± 0.2 CIELAB units apart (ISO 105-A02 §2.4).
-      await form.getByLabel("Test").selectOption({ label: "Colour fastness (ISO 105 grey scales)" });
+      await form.getByLabel("Test", { exact: true }).selectOption({ label: "Colour fastness (ISO 105 grey scales)" });
       await form.getByLabel("Change in colour (grade)").selectOption({ label: "4-5" });
       await form.getByLabel("Staining (grade)").selectOption({ label: "3-4" });
       await form.getByRole("button", { name: "Record test" }).click();
       await tests.getByText("change 4-5 (the scale's pair is ΔE*ab 0.8 ± 0.2), staining 3-4", { exact: false }).waitFor();
 
       // Flame retardancy: the caution is shown first; a blank treatment is refused by name; saving opens the certificate photos.
-      await form.getByLabel("Test").selectOption({ label: "Flame-retardancy treatment" });
+      await form.getByLabel("Test", { exact: true }).selectOption({ label: "Flame-retardancy treatment" });
       await form.getByText("Local fire codes, the venue and its fire officer decide", { exact: false }).waitFor();
       await form.getByRole("button", { name: "Record test" }).click();
       await form.getByText("Treatment is required").waitFor();

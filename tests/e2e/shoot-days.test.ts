@@ -142,11 +142,11 @@ describe("the shoot-day editor", () => {
     const details = section.getByRole("form", { name: `Details of Day ${number}` });
     await details.getByLabel("Date").fill(later);
     await details.getByRole("button", { name: "Save day" }).click();
-    const redated = page.getByRole("region", { name: `Day ${number}, ${later}` });
+    const redated = page.getByRole("region", { name: `Day ${number}, ${formatDate(later)}` });
     await redated.waitFor();
     await page.screenshot({ path: ".data/e2e-shoot-day-editor.png", fullPage: true });
     await redated.getByRole("button", { name: "Delete shoot day" }).click();
-    const dialog = page.getByRole("dialog", { name: `Delete Day ${number} (${later})?` });
+    const dialog = page.getByRole("dialog", { name: `Delete Day ${number} (${formatDate(later)})?` });
     await dialog.getByRole("button", { name: "Cancel" }).click();
     expect((await call<Day[]>(page, "GET", `${api}/shoot-days?pageSize=500`)).some((d) => d.dayNumber === number)).toBe(true);
     await redated.getByRole("button", { name: "Delete shoot day" }).click();
