@@ -137,6 +137,20 @@ export const FIELD_LABELS: Record<string, string> = {
   point: "Point",
   a: "First edge",
   b: "Second edge",
+  // Check-out to a person, tag labels, copies.
+  dueBackOn: "Due back",
+  start: "First free label",
+  // Fabric care tests (the form's names).
+  beforeMm: "before",
+  afterMm: "after",
+  cycles: "Washes or cleans",
+  changeGrade: "Grade for change in colour",
+  stainingGrade: "Grade for staining",
+  agent: "Test",
+  adjacent: "Adjacent fabric",
+  treatedOn: "Treated on",
+  renewBy: "Renew by",
+  certificateRef: "Certificate number",
 };
 
 /** Singular names for list fields, used as "Task 2: amount". */
@@ -149,6 +163,8 @@ const ITEM_NAMES: Record<string, string> = {
   views: "View",
   daysOff: "Day off",
   sceneIds: "Scene",
+  length: "Length pair",
+  width: "Width pair",
 };
 
 /** "storyDayTo" → "Story day to", "neck_girth" → "Neck girth": the fallback for a name not in the table. */
@@ -168,6 +184,7 @@ function leafLabel(parent: string | undefined, key: string): string {
     const l = MEASUREMENT_LABELS[key as MeasurementKey];
     return l[0]!.toUpperCase() + l.slice(1);
   }
+  if (parent === "checkout" && key === "to") return "Checked out to";
   if (parent === "finishedMeasurements" && key in finishedPointLabels) return `Finished ${finishedPointLabels[key as FinishedPoint].toLowerCase()}`;
   return FIELD_LABELS[key] ?? humanize(key);
 }

@@ -10,6 +10,17 @@ const ROWS = 8;
 const LABEL = { w: 70 * MM, h: 37 * MM };
 const TOP = (PAGE.h - ROWS * LABEL.h) / 2;
 
+/** Labels on one sheet. */
+export const LABELS_PER_SHEET = COLS * ROWS;
+
+/**
+ * Top-left corner of a label slot in PDF points from the page's top left (slot 0 = top left, row by row).
+ * Exported so tests can check where a label landed.
+ */
+export function labelSlotOrigin(slot: number): { x: number; y: number } {
+  return { x: (slot % COLS) * LABEL.w, y: TOP + Math.floor(slot / COLS) * LABEL.h };
+}
+
 /** What one label shows. */
 export interface TagLabel {
   tagCode: string;
@@ -34,12 +45,20 @@ export function drawQr(doc: PDFKit.PDFDocument, text: string, x: number, y: numb
   doc.fill().restore();
 }
 
+/** Options for a label sheet. */
+export interface TagLabelOptions {
+  /** First free position on a partly used sheet, 1..24 (1 = top left, counting along each row); default 1. */
+  start?: number;
+}
+
 /**
  * Renders tag labels as a PDF.
  * @param productionTitle printed small on each label so a stray garment finds its way home
+ * @param options.start the first position to print on (the labels before it are already used)
  * @returns the PDF bytes
  */
-export function renderTagLabelsPdf(labels: TagLabel[], productionTitle: string): Promise<Buffer> {
+export function renderTagLabelsPdf(labels: TagLabel[], productionTitle: string, options: TagLabelOptions = {}): Promise<Buffer> {
+  const skip = Math.min(LABELS_PER_SHEET - 1, Math.max(0, Math.floor((options.start ?? 1) - 1)));
   const doc = new PDFDocument({ size: "A4", margin: 0, info: { Title: `Tag labels — ${productionTitle}`, Creator: "Seamscene" } });
   const chunks: Buffer[] = [];
   doc.on("data", (c: Buffer) => chunks.push(c));
@@ -50,11 +69,12 @@ export function renderTagLabelsPdf(labels: TagLabel[], productionTitle: string):
   if (labels.length === 0) {
     doc.font("Helvetica").fontSize(12).text("No garments matched the chosen filters.", 20 * MM, 20 * MM);
   }
-  labels.forEach((label, i) => {
-    const slot = i % (COLS * ROWS);
-    if (i > 0 && slot === 0) doc.addPage();
-    const x = (slot % COLS) * LABEL.w;
-    const y = TOP + Math.floor(slot / COLS) * LABEL.h;
+  labels.forEach((label, n) => {
+    // Used positions on the first sheet are skipped; later sheets start at the top left.
+    const i = n + skip;
+    const slot = i % LABELS_PER_SHEET;
+    if (n > 0 && slot === 0) doc.addPage();
+    const { x, y } = labelSlotOrigin(slot);
     const qrSize = 31 * MM;
     drawQr(doc, label.tagCode, x + 3 * MM, y + 3 * MM, qrSize);
     const tx = x + 3 * MM + qrSize + 2 * MM;

@@ -25,7 +25,7 @@ FabricTest.init(
     id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
     productionId: { type: DataTypes.UUID, allowNull: false },
     fabricId: { type: DataTypes.UUID, allowNull: false },
-    kind: { type: DataTypes.STRING(12), allowNull: false },
+    kind: { type: DataTypes.STRING(20), allowNull: false },
     direction: { type: DataTypes.STRING(5), allowNull: true },
     readings: { type: DataTypes.JSONB, allowNull: false },
     derived: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },

@@ -3,6 +3,7 @@ import { sequelize } from "../db.js";
 import type { FinishedPoint, FitIntentValue, GarmentSource, GarmentStatus, WrapDisposition } from "@shared/schemas/garments.js";
 import type { Fabric } from "./Fabric.js";
 import type { MultiplesGroup } from "./MultiplesGroup.js";
+import type { GarmentCheckout } from "./GarmentCheckout.js";
 
 /** A physical garment with a printed tag code; copies of one design share a multiples group. */
 export class Garment extends Model<InferAttributes<Garment>, InferCreationAttributes<Garment>> {
@@ -35,6 +36,8 @@ export class Garment extends Model<InferAttributes<Garment>, InferCreationAttrib
   declare updatedAt: CreationOptional<Date>;
   declare fabric?: NonAttribute<Fabric | null>;
   declare multiplesGroup?: NonAttribute<MultiplesGroup | null>;
+  /** The open check-out, when loaded. */
+  declare openCheckout?: NonAttribute<GarmentCheckout | null>;
 }
 
 Garment.init(

@@ -22,6 +22,7 @@ import { FabricTest } from "./FabricTest.js";
 import { MultiplesGroup } from "./MultiplesGroup.js";
 import { Garment } from "./Garment.js";
 import { GarmentStatusEvent } from "./GarmentStatusEvent.js";
+import { GarmentCheckout } from "./GarmentCheckout.js";
 import { MeasurementSet } from "./MeasurementSet.js";
 // Workroom feature.
 import { Fitting } from "./Fitting.js";
@@ -68,9 +69,15 @@ Garment.belongsTo(MultiplesGroup, { as: "multiplesGroup", foreignKey: "multiples
 MultiplesGroup.hasMany(Garment, { as: "garments", foreignKey: "multiplesGroupId" });
 Garment.hasMany(GarmentStatusEvent, { as: "events", foreignKey: "garmentId" });
 GarmentStatusEvent.belongsTo(User, { as: "actor", foreignKey: "actorId" });
+// Check-outs: the open one rides along with the garment in lists and detail (includes filter returnedAt: null).
+Garment.hasOne(GarmentCheckout, { as: "openCheckout", foreignKey: "garmentId" });
+GarmentCheckout.belongsTo(Garment, { as: "garment", foreignKey: "garmentId" });
+GarmentCheckout.belongsTo(ShootDay, { as: "shootDay", foreignKey: "shootDayId" });
+GarmentCheckout.belongsTo(Scene, { as: "scene", foreignKey: "sceneId" });
+GarmentCheckout.belongsTo(User, { as: "checkedOutByUser", foreignKey: "checkedOutBy" });
 MeasurementSet.belongsTo(User, { as: "taker", foreignKey: "takenBy" });
 
-export { Fabric, FabricTest, MultiplesGroup, Garment, GarmentStatusEvent, MeasurementSet };
+export { Fabric, FabricTest, MultiplesGroup, Garment, GarmentStatusEvent, GarmentCheckout, MeasurementSet };
 export { User, Production, Membership, Invitation, PasswordReset, AuditEvent, OutboxMessage };
 export { Performer, Character, CharacterDouble, Scene, ShootDay, ShootDayScene, Change, ChangeItem, Appearance, Photo, ContinuityEntry, ContinuityEntryGarment };
 export { Fitting, AlterationTicket, WorkroomCapacity, WorkroomEmailJob };

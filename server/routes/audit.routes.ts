@@ -11,11 +11,12 @@ export const auditRouter = Router({ mergeParams: true });
 auditRouter.get("/", authorize("audit.read"), async (req, res) => {
   const q = paginationQuerySchema.parse(req.query);
   const { rows, count } = await listAuditEvents(actorOf(req), q);
-  const data: AuditEventDto[] = rows.map(({ event, actorName }) => ({
+  const data: AuditEventDto[] = rows.map(({ event, actorName, record }) => ({
     id: event.id,
     action: event.action,
     entityType: event.entityType,
     entityId: event.entityId,
+    record,
     actorName,
     before: event.before,
     after: event.after,

@@ -18,6 +18,8 @@ import {
   type TaggedValue,
 } from "@shared/domain/fabric-physics.js";
 import { gsmToOzPerSqYd } from "@shared/domain/units.js";
+import { greyScaleChangeCielab, greyScaleLabel, shrinkageResult, type GreyScaleGrade } from "@shared/domain/fabric-care-tests.js";
+import { deletePhotosOfOwners, removeUnreferencedFiles } from "./photos.service.js";
 
 const countAttrs = {
   include: [
@@ -65,6 +67,17 @@ function derive(r: FabricTestReadings, massGsm: { value: number; basis: "tested"
     }
     case "thickness":
       return { thicknessM: r.thicknessMm / 1000 };
+    case "shrinkage": {
+      const x = shrinkageResult(r.length, r.width);
+      return { lengthChangePct: x.lengthChangePct, widthChangePct: x.widthChangePct, lengthCutFactor: x.lengthCutFactor, widthCutFactor: x.widthCutFactor };
+    }
+    case "colourfastness": {
+      const cielab = greyScaleChangeCielab[r.changeGrade as GreyScaleGrade];
+      return { changeLabel: greyScaleLabel(r.changeGrade as GreyScaleGrade), changeDeltaE: cielab.deltaE, changeDeltaETolerance: cielab.tolerance, stainingLabel: r.stainingGrade === null ? null : greyScaleLabel(r.stainingGrade as GreyScaleGrade) };
+    }
+    case "flame_retardancy":
+      // A record of a treatment and its certificate: nothing to compute.
+      return {};
   }
 }
 
@@ -110,12 +123,19 @@ export async function updateFabric(actor: Actor, id: string, input: UpdateFabric
 
 /** Deletes a fabric and its tests; garments keep existing without a fabric. */
 export async function deleteFabric(actor: Actor, id: string): Promise<void> {
+  let hashes: string[] = [];
   await sequelize.transaction(async (transaction) => {
     const f = await Fabric.findOne({ where: { id, productionId: actor.productionId }, transaction });
     if (!f) throw NotFoundError("Fabric not found.");
+    const tests = await FabricTest.findAll({ where: { fabricId: id }, attributes: ["id"], transaction });
+    hashes = [
+      ...(await deletePhotosOfOwners(actor.productionId, "fabric_test", tests.map((t) => t.id), transaction)),
+      ...(await deletePhotosOfOwners(actor.productionId, "fabric", [id], transaction)),
+    ];
     await f.destroy({ transaction });
     await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "fabric.delete", entityType: "fabric", entityId: id, before: f.toJSON() }, transaction);
   });
+  await removeUnreferencedFiles(hashes);
 }
 
 function classOf(construction: "woven" | "knit", gsm: number | null): FabricClass {
@@ -124,7 +144,8 @@ function classOf(construction: "woven" | "knit", gsm: number | null): FabricClas
   return `${construction}_${band}` as FabricClass;
 }
 
-function toPhysics(t: FabricTest): PhysicsTest {
+/** The test as the physics module reads it; care tests (shrinkage, colour, flame) are not physics. */
+function toPhysics(t: FabricTest): PhysicsTest | null {
   const r = t.readings;
   switch (r.kind) {
     case "mass":
@@ -135,6 +156,8 @@ function toPhysics(t: FabricTest): PhysicsTest {
       return { id: t.id, kind: "stretch", direction: r.direction, loadN: r.loadN, stripWidthMm: r.stripWidthMm, gaugeLengthMm: r.gaugeLengthMm, extensionMm: r.extensionMm };
     case "thickness":
       return { id: t.id, kind: "thickness", thicknessMm: r.thicknessMm };
+    default:
+      return null;
   }
 }
 
@@ -149,7 +172,7 @@ export async function getFabricDetail(actor: Actor, id: string): Promise<{ fabri
     order: [["testedOn", "DESC"], ["createdAt", "DESC"]],
   });
   const fabricClass = classOf(fabric.construction, pooledMassGsm(tests) ?? fabric.massPerAreaGsm);
-  const s = fabricSimulationValues({ fabricClass, declaredMassPerAreaGsm: fabric.massPerAreaGsm ?? undefined, tests: tests.map(toPhysics) });
+  const s = fabricSimulationValues({ fabricClass, declaredMassPerAreaGsm: fabric.massPerAreaGsm ?? undefined, tests: tests.map(toPhysics).filter((x): x is PhysicsTest => x !== null) });
   return {
     fabric,
     tests,
@@ -199,15 +222,19 @@ export async function addFabricTest(actor: Actor, fabricId: string, input: Creat
 
 /** Removes a test (a mis-entered reading) and recomputes the others. */
 export async function deleteFabricTest(actor: Actor, fabricId: string, testId: string): Promise<void> {
+  let hashes: string[] = [];
   await sequelize.transaction(async (transaction) => {
     const fabric = await Fabric.findOne({ where: { id: fabricId, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
     if (!fabric) throw NotFoundError("Fabric not found.");
     const t = await FabricTest.findOne({ where: { id: testId, fabricId }, transaction });
     if (!t) throw NotFoundError("Test not found.");
+    // A certificate photo goes with its test.
+    hashes = await deletePhotosOfOwners(actor.productionId, "fabric_test", [t.id], transaction);
     await t.destroy({ transaction });
     await recomputeDerived(fabric, transaction);
     await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "fabric.test_delete", entityType: "fabric_test", entityId: testId, before: t.toJSON() }, transaction);
   });
+  await removeUnreferencedFiles(hashes);
 }
 
 /** Recomputes derived values for every test of a fabric (used by demo data after loading raw readings). */

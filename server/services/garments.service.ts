@@ -3,15 +3,19 @@ import { Op, QueryTypes, UniqueConstraintError, type Transaction, type WhereOpti
 import { writeCsvRecords, type CsvCell } from "@shared/csv.js";
 import { sequelize } from "../db.js";
 import { escapeLike } from "../lib/like.js";
-import { Fabric, Garment, GarmentStatusEvent, MultiplesGroup, User } from "../models/index.js";
+import { Fabric, Garment, GarmentCheckout, GarmentStatusEvent, Membership, MultiplesGroup, Performer, Production, Scene, ShootDay, ShootDayScene, User } from "../models/index.js";
 import { NotFoundError, ValidationError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
 import { todayForProduction } from "./productions.service.js";
+import { clock } from "../lib/clock.js";
 import type { Actor } from "../middleware/require-auth.js";
 import { generateTagCode } from "@shared/domain/tag-codes.js";
 import {
+  checkedOutStatuses,
   garmentStatusLabels,
   type AddCopiesInput,
+  type CheckoutInput,
+  type CheckoutOptionsDto,
   type CreateGarmentInput,
   type GarmentChangeRefDto,
   type GarmentFilters,
@@ -22,11 +26,23 @@ import {
   type UpdateGarmentInput,
 } from "@shared/schemas/garments.js";
 import { formatLength, type LengthUnit } from "@shared/domain/units.js";
+import { formatDate } from "@shared/format.js";
+import { scheduleLabels } from "@shared/domain/schedule-labels.js";
+import { can, roleLabels, type Role } from "@shared/permissions.js";
 
-const includeNames = [
+/** What a check-out shows besides its own columns: the day, the scene and who handed it out. */
+const checkoutIncludes = [
+  { model: ShootDay, as: "shootDay", attributes: ["id", "date", "kind", "dayNumber"] },
+  { model: Scene, as: "scene", attributes: ["id", "number"] },
+  { model: User, as: "checkedOutByUser", attributes: ["id", "name"] },
+];
+
+const listIncludes = [
   { model: Fabric, as: "fabric", attributes: ["id", "name"] },
   { model: MultiplesGroup, as: "multiplesGroup", attributes: ["id", "name"] },
 ];
+
+const includeNames = [...listIncludes, { model: GarmentCheckout, as: "openCheckout", required: false, where: { returnedAt: null }, include: checkoutIncludes }];
 
 function addDays(isoDay: string, days: number): string {
   const d = new Date(`${isoDay}T00:00:00Z`);
@@ -46,7 +62,12 @@ async function dueFrom(actor: Actor, f: GarmentFilters): Promise<string | null> 
   return f.dueWithinDays === undefined ? null : (f.asOf ?? (await todayForProduction(actor.productionId)));
 }
 
-function whereFor(actor: Actor, f: GarmentFilters, dueFromDay: string | null): WhereOptions {
+/** The day "past due" is judged on: today in the production's zone (only looked up when needed). */
+async function pastDueDay(actor: Actor, f: GarmentFilters): Promise<string | null> {
+  return f.out === "past_due" ? todayForProduction(actor.productionId) : null;
+}
+
+function whereFor(actor: Actor, f: GarmentFilters, dueFromDay: string | null, today: string | null = null): WhereOptions {
   const and: WhereOptions[] = [{ productionId: actor.productionId }];
   if (f.q) {
     const like = `%${escapeLike(f.q)}%`;
@@ -60,6 +81,13 @@ function whereFor(actor: Actor, f: GarmentFilters, dueFromDay: string | null): W
   if (f.fabricId) and.push({ fabricId: f.fabricId });
   if (f.multiplesGroupId) and.push({ multiplesGroupId: f.multiplesGroupId });
   if (f.ids.length) and.push({ id: { [Op.in]: f.ids } });
+  if (f.out) {
+    // Garments with an open check-out; past due when it was due back before today.
+    const pastDue = f.out === "past_due" ? ` AND co.due_back_on < ${sequelize.escape(today ?? "9999-12-31")}` : "";
+    and.push({
+      id: { [Op.in]: sequelize.literal(`(SELECT co.garment_id FROM garment_checkouts co WHERE co.production_id = ${sequelize.escape(actor.productionId)} AND co.returned_at IS NULL${pastDue})`) },
+    });
+  }
   if (f.dueWithinDays !== undefined) {
     const until = addDays(dueFromDay ?? f.asOf!, f.dueWithinDays);
     and.push({ source: "rented", rentalDueOn: { [Op.ne]: null, [Op.lte]: until }, status: { [Op.notIn]: ["returned", "lost"] } });
@@ -78,9 +106,10 @@ function whereFor(actor: Actor, f: GarmentFilters, dueFromDay: string | null): W
 }
 
 /** A garment as lists read it: plain columns plus fabric and group names, no model instance. */
-export type GarmentListRow = Omit<Garment["_attributes"], "fabric" | "multiplesGroup"> & {
+export type GarmentListRow = Omit<Garment["_attributes"], "fabric" | "multiplesGroup" | "openCheckout"> & {
   fabric: { id: string | null; name: string | null } | null;
   multiplesGroup: { id: string | null; name: string | null } | null;
+  openCheckout: GarmentCheckout | null;
 };
 
 /**
@@ -89,11 +118,11 @@ export type GarmentListRow = Omit<Garment["_attributes"], "fabric" | "multiplesG
  */
 export async function listGarments(actor: Actor, q: ListGarmentsQuery): Promise<{ rows: GarmentListRow[]; count: number }> {
   const dir = q.dir.toUpperCase() as "ASC" | "DESC";
-  const where = whereFor(actor, q, await dueFrom(actor, q));
+  const where = whereFor(actor, q, await dueFrom(actor, q), await pastDueDay(actor, q));
   const [rows, count] = await Promise.all([
     Garment.findAll({
       where,
-      include: includeNames,
+      include: listIncludes,
       // Ties by tag code in the same direction, so one index serves the page either way round.
       order: [[q.sort, dir], ["tagCode", dir]],
       limit: q.pageSize,
@@ -103,12 +132,18 @@ export async function listGarments(actor: Actor, q: ListGarmentsQuery): Promise<
     }) as unknown as Promise<GarmentListRow[]>,
     Garment.count({ where }),
   ]);
-  return { rows, count };
+  // Who has each garment: the page's open check-outs in one more query (a nested include would not
+  // survive plain rows, which give an absent check-out as an object of nulls).
+  const open = rows.length
+    ? await GarmentCheckout.findAll({ where: { garmentId: rows.map((r) => r.id), returnedAt: null }, include: checkoutIncludes })
+    : [];
+  const byGarment = new Map(open.map((c) => [c.garmentId, c]));
+  return { rows: rows.map((r) => ({ ...r, openCheckout: byGarment.get(r.id) ?? null })), count };
 }
 
 /** Every garment matching the filters, by tag code (exports and label sheets). */
 export async function findGarments(actor: Actor, f: GarmentFilters, limit = 5000): Promise<Garment[]> {
-  return Garment.findAll({ where: whereFor(actor, f, await dueFrom(actor, f)), include: includeNames, order: [["tagCode", "ASC"]], limit });
+  return Garment.findAll({ where: whereFor(actor, f, await dueFrom(actor, f), await pastDueDay(actor, f)), include: includeNames, order: [["tagCode", "ASC"]], limit });
 }
 
 async function loadGarment(actor: Actor, id: string, transaction?: Transaction, lock = false): Promise<Garment> {
@@ -136,6 +171,12 @@ export async function getGarmentDetail(actor: Actor, id: string) {
       ORDER BY ch.name, c.number`,
     { replacements: { pid: actor.productionId, gid: id, groupId: garment.multiplesGroupId }, type: QueryTypes.SELECT },
   );
+  const checkouts = await GarmentCheckout.findAll({
+    where: { garmentId: id, productionId: actor.productionId },
+    include: checkoutIncludes,
+    order: [["checkedOutAt", "DESC"], ["id", "ASC"]],
+    limit: 100,
+  });
   const groupCopies = garment.multiplesGroupId
     ? await Garment.findAll({
         where: { multiplesGroupId: garment.multiplesGroupId, productionId: actor.productionId },
@@ -151,7 +192,7 @@ export async function getGarmentDetail(actor: Actor, id: string) {
     label: r.label,
     viaGroup: r.via_group,
   }));
-  return { garment, history, changes: changeRefs, groupCopies };
+  return { garment, history, checkouts, changes: changeRefs, groupCopies };
 }
 
 /** Fresh tag codes not yet used in the production. */
@@ -273,6 +314,12 @@ export async function addCopies(actor: Actor, id: string, input: AddCopiesInput)
         { productionId: actor.productionId, garmentId: copy.id, fromStatus: null, toStatus: "in_stock", fromLocation: null, toLocation: locationLabel(copy.locationRack, copy.locationBin), note: `Copy of ${g.tagCode}`, actorId: actor.user.id },
         { transaction },
       );
+      // The original's history says what was made from it, one row per copy, so its page shows the copies' story too.
+      const here = locationLabel(g.locationRack, g.locationBin);
+      await GarmentStatusEvent.create(
+        { productionId: actor.productionId, garmentId: g.id, fromStatus: g.status, toStatus: g.status, fromLocation: here, toLocation: here, note: `Copy #${copy.copyNumber} made: ${copy.tagCode}`, actorId: actor.user.id },
+        { transaction },
+      );
       made.push(copy.id);
     }
     await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "garment.copies", entityType: "garment", entityId: g.id, after: { multiplesGroupId: groupId, tagCodes: codes } }, transaction);
@@ -287,14 +334,105 @@ export interface MoveResult {
   event: GarmentStatusEvent | null;
 }
 
-async function moveOne(actor: Actor, g: Garment, input: Omit<MoveGarmentsInput, "garmentIds">, transaction: Transaction): Promise<MoveResult> {
+/** A check-out checked against the production: the person's name, the day and scene, the due date. */
+export interface ResolvedCheckout {
+  toKind: "member" | "performer";
+  toUserId: string | null;
+  toPerformerId: string | null;
+  toName: string;
+  shootDayId: string | null;
+  sceneId: string | null;
+  dueBackOn: string;
+  /** "for shoot day 2026-12-04, scene 42" (or performance), for the history note. */
+  forText: string;
+}
+
+const isCheckedOutStatus = (s: GarmentStatus) => (checkedOutStatuses as readonly GarmentStatus[]).includes(s);
+
+/**
+ * Checks a check-out request against the production: the member or performer, the day, the scene
+ * (on that day), and a due date not before today. Throws 400 naming the field.
+ */
+export async function resolveCheckout(actor: Actor, status: GarmentStatus, c: CheckoutInput, transaction?: Transaction): Promise<ResolvedCheckout> {
+  const pid = actor.productionId;
+  if (!isCheckedOutStatus(status)) {
+    throw ValidationError(`checkout: a garment is checked out only when it goes ${checkedOutStatuses.map((s) => garmentStatusLabels[s]).join(" or ")}`, {
+      status: `must be ${checkedOutStatuses.map((s) => garmentStatusLabels[s]).join(" or ")} to check out to someone`,
+    });
+  }
+  let toName: string;
+  if (c.toUserId) {
+    const m = await Membership.findOne({ where: { productionId: pid, userId: c.toUserId }, include: [{ model: User, as: "user", attributes: ["id", "name"] }], transaction });
+    if (!m?.user || !can(m.role, "garment.read")) throw ValidationError("checkout.toUserId: is not a member of this production", { "checkout.toUserId": "is not a member of this production" });
+    toName = m.user.name;
+  } else {
+    const p = await Performer.findOne({ where: { id: c.toPerformerId!, productionId: pid }, attributes: ["id", "name"], transaction });
+    if (!p) throw ValidationError("checkout.toPerformerId: is not a performer of this production", { "checkout.toPerformerId": "is not a performer of this production" });
+    toName = p.name;
+  }
+  const production = await Production.findByPk(pid, { attributes: ["id", "kind"], transaction });
+  const words = scheduleLabels(production?.kind ?? "film");
+  let day: ShootDay | null = null;
+  if (c.shootDayId) {
+    day = await ShootDay.findOne({ where: { id: c.shootDayId, productionId: pid }, attributes: ["id", "date", "kind", "dayNumber"], transaction });
+    if (!day) throw ValidationError(`checkout.shootDayId: no such ${words.day} in this production`, { "checkout.shootDayId": `no such ${words.day} in this production` });
+  }
+  let scene: Scene | null = null;
+  if (c.sceneId) {
+    scene = await Scene.findOne({ where: { id: c.sceneId, productionId: pid }, attributes: ["id", "number"], transaction });
+    if (!scene) throw ValidationError("checkout.sceneId: no such scene in this production", { "checkout.sceneId": "no such scene in this production" });
+    // A stage performance plays the whole running order, so any scene belongs to it.
+    if (day && day.kind !== "performance") {
+      const onDay = await ShootDayScene.findOne({ where: { shootDayId: day.id, sceneId: scene.id }, attributes: ["id"], transaction });
+      if (!onDay) throw ValidationError(`checkout.sceneId: scene ${scene.number} is not on ${words.on(day.date)}`, { "checkout.sceneId": `scene ${scene.number} is not on ${words.on(day.date)}` });
+    }
+  }
+  const today = await todayForProduction(pid, transaction);
+  const dueBackOn = c.dueBackOn ?? (day && day.date >= today ? day.date : today);
+  if (dueBackOn < today) throw ValidationError(`checkout.dueBackOn: cannot be before today (${today})`, { "checkout.dueBackOn": `cannot be before today (${today})` });
+  const forParts = [day ? words.on(day.date) : null, scene ? `scene ${scene.number}` : null].filter(Boolean);
+  return {
+    toKind: c.toUserId ? "member" : "performer",
+    toUserId: c.toUserId ?? null,
+    toPerformerId: c.toPerformerId ?? null,
+    toName,
+    shootDayId: day?.id ?? null,
+    sceneId: scene?.id ?? null,
+    dueBackOn,
+    forText: forParts.length ? ` for ${forParts.join(", ")}` : "",
+  };
+}
+
+type MoveInput = Omit<MoveGarmentsInput, "garmentIds" | "checkout"> & { checkout?: ResolvedCheckout | null };
+
+async function moveOne(actor: Actor, g: Garment, input: MoveInput, transaction: Transaction): Promise<MoveResult> {
   const rack = input.locationRack === undefined ? g.locationRack : input.locationRack || null;
   const bin = input.locationBin === undefined ? g.locationBin : input.locationBin || null;
   const fromLocation = locationLabel(g.locationRack, g.locationBin);
   const toLocation = locationLabel(rack, bin);
-  if (g.status === input.status && fromLocation === toLocation) return { garment: g, event: null };
+  const open = await GarmentCheckout.findOne({ where: { garmentId: g.id, returnedAt: null }, transaction, lock: transaction.LOCK.UPDATE });
+  const now = clock.now();
+  const notes: string[] = [];
+  // Back in: a move to a status that is not "with someone" closes the open check-out.
+  if (open && (input.checkout || !isCheckedOutStatus(input.status))) {
+    await open.update({ returnedAt: now, returnedBy: actor.user.id }, { transaction });
+    notes.push(input.checkout ? `Handed over from ${open.toName}` : `Back from ${open.toName}`);
+  }
+  if (input.checkout) {
+    const c = input.checkout;
+    await GarmentCheckout.create(
+      {
+        productionId: actor.productionId, garmentId: g.id, toKind: c.toKind, toUserId: c.toUserId, toPerformerId: c.toPerformerId, toName: c.toName,
+        shootDayId: c.shootDayId, sceneId: c.sceneId, dueBackOn: c.dueBackOn, note: input.note || null, checkedOutAt: now, checkedOutBy: actor.user.id, returnedAt: null, returnedBy: null,
+      },
+      { transaction },
+    );
+    notes.push(`Checked out to ${c.toName}${c.forText}, due back ${formatDate(c.dueBackOn)}`);
+  }
+  if (g.status === input.status && fromLocation === toLocation && notes.length === 0) return { garment: g, event: null };
+  if (input.note) notes.push(input.note);
   const event = await GarmentStatusEvent.create(
-    { productionId: actor.productionId, garmentId: g.id, fromStatus: g.status, toStatus: input.status, fromLocation, toLocation, note: input.note || null, actorId: actor.user.id },
+    { productionId: actor.productionId, garmentId: g.id, fromStatus: g.status, toStatus: input.status, fromLocation, toLocation, note: notes.join(" · ") || null, actorId: actor.user.id },
     { transaction },
   );
   await g.update({ status: input.status, locationRack: rack, locationBin: bin }, { transaction });
@@ -310,10 +448,18 @@ export async function moveGarments(actor: Actor, input: MoveGarmentsInput): Prom
   const results = await sequelize.transaction(async (transaction) => {
     const rows = await Garment.findAll({ where: { id: unique, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE, order: [["id", "ASC"]] });
     if (rows.length !== unique.length) throw NotFoundError(`${unique.length - rows.length} of the chosen garments were not found; nothing was moved.`);
+    const checkout = input.checkout ? await resolveCheckout(actor, input.status, input.checkout, transaction) : null;
     const out: MoveResult[] = [];
-    for (const g of rows) out.push(await moveOne(actor, g, input, transaction));
+    for (const g of rows) out.push(await moveOne(actor, g, { ...input, checkout }, transaction));
     await recordAudit(
-      { productionId: actor.productionId, actorId: actor.user.id, action: "garment.move", entityType: "garment", entityId: unique.length === 1 ? unique[0] : null, after: { garmentIds: unique, status: input.status, moved: out.filter((r) => r.event).length } },
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: checkout ? "garment.checkout" : "garment.move",
+        entityType: "garment",
+        entityId: unique.length === 1 ? unique[0] : null,
+        after: { garmentIds: unique, status: input.status, moved: out.filter((r) => r.event).length, ...(checkout ? { to: checkout.toName, dueBackOn: checkout.dueBackOn } : {}) },
+      },
       transaction,
     );
     return out;
@@ -391,4 +537,57 @@ export async function garmentFilterOptions(actor: Actor): Promise<{ categories: 
   // Characters belong to the breakdown; read id and name only.
   const characters = await sequelize.query<{ id: string; name: string }>(`SELECT id, name FROM characters WHERE production_id = :pid ORDER BY sort_order, name`, rep);
   return { categories: cats.map((r) => r.v), racks: racks.map((r) => r.v), characters };
+}
+
+/** Open check-outs of the production (who has what), soonest due first, with their garments. */
+export async function listOpenCheckouts(actor: Actor): Promise<GarmentCheckout[]> {
+  return GarmentCheckout.findAll({
+    where: { productionId: actor.productionId, returnedAt: null },
+    include: [...checkoutIncludes, { model: Garment, as: "garment", attributes: ["id", "tagCode", "name", "status"] }],
+    order: [["dueBackOn", "ASC"], ["checkedOutAt", "ASC"], ["id", "ASC"]],
+  });
+}
+
+/** Whom a garment can go out to, and the days (from today on) with their scenes, for the check-out form. */
+export async function checkoutOptions(actor: Actor): Promise<CheckoutOptionsDto> {
+  const today = await todayForProduction(actor.productionId);
+  const rep = { replacements: { pid: actor.productionId, today }, type: QueryTypes.SELECT } as const;
+  const [members, performers, days, dayScenes] = await Promise.all([
+    sequelize.query<{ user_id: string; name: string; role: string }>(
+      `SELECT m.user_id, u.name, m.role FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.production_id = :pid AND u.is_active ORDER BY u.name`,
+      rep,
+    ),
+    // Performers with the characters they play or double, so "Ada Pell (Maud)" is recognisable on set.
+    sequelize.query<{ id: string; name: string; characters: string[] | null }>(
+      `SELECT p.id, p.name,
+              ARRAY(SELECT c.name FROM characters c WHERE c.performer_id = p.id
+                    UNION SELECT c.name FROM character_doubles d JOIN characters c ON c.id = d.character_id WHERE d.performer_id = p.id
+                    ORDER BY 1) AS characters
+         FROM performers p WHERE p.production_id = :pid ORDER BY p.name`,
+      rep,
+    ),
+    sequelize.query<{ id: string; date: string; kind: "shoot" | "performance"; day_number: number }>(
+      `SELECT id, to_char(date, 'YYYY-MM-DD') AS date, kind, day_number FROM shoot_days WHERE production_id = :pid AND date >= :today ORDER BY date, day_number LIMIT 30`,
+      rep,
+    ),
+    sequelize.query<{ shoot_day_id: string; id: string; number: string }>(
+      `SELECT sds.shoot_day_id, s.id, s.number FROM shoot_day_scenes sds JOIN scenes s ON s.id = sds.scene_id JOIN shoot_days d ON d.id = sds.shoot_day_id
+        WHERE sds.production_id = :pid AND d.date >= :today ORDER BY sds.shoot_day_id, sds.position, s.id`,
+      rep,
+    ),
+  ]);
+  // A performance plays the whole running order: offer every scene, in story order.
+  const needsRunningOrder = days.some((d) => d.kind === "performance");
+  const runningOrder = needsRunningOrder
+    ? await sequelize.query<{ id: string; number: string }>(`SELECT id, number FROM scenes WHERE production_id = :pid ORDER BY story_order, id`, rep)
+    : [];
+  const scenesOf = new Map<string, Array<{ id: string; number: string }>>();
+  for (const r of dayScenes) (scenesOf.get(r.shoot_day_id) ?? scenesOf.set(r.shoot_day_id, []).get(r.shoot_day_id)!).push({ id: r.id, number: r.number });
+  return {
+    today,
+    // Only people who handle garments (the permission table decides who that is) can take one out.
+    members: members.filter((m) => can(m.role as Role, "garment.read")).map((m) => ({ userId: m.user_id, name: m.name, role: roleLabels[m.role as Role] ?? m.role })),
+    performers: performers.map((p) => ({ id: p.id, name: p.name, characters: p.characters ?? [] })),
+    days: days.map((d) => ({ id: d.id, date: d.date, kind: d.kind, dayNumber: d.day_number, scenes: d.kind === "performance" ? runningOrder : (scenesOf.get(d.id) ?? []) })),
+  };
 }

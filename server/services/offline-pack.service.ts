@@ -70,7 +70,7 @@ export async function offlinePack(actor: Actor, production: Production): Promise
     scenes,
     characters: characters.filter((c) => characterIds.has(c.id)),
     changes,
-    garments: garments.map(presentGarment),
+    garments: garments.map((g) => presentGarment(g, today)),
     continuity: continuity.sort((a, b) => b.createdAt.localeCompare(a.createdAt)),
   };
 }

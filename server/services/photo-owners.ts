@@ -53,6 +53,8 @@ registerPhotoOwner("change", { read: "change.read", write: "change.update", exis
 // Wardrobe: garment photos (set costumers and cutters see them; designers and supervisors add them).
 registerPhotoOwner("garment", { read: "garment.read", write: "garment.update", exists: rowExists("garments") });
 registerPhotoOwner("fabric", { read: "fabric.read", write: "fabric.update", exists: rowExists("fabrics") });
+// A fabric test's own evidence: the flame-retardancy certificate, the washed specimen, the grey-scale reading.
+registerPhotoOwner("fabric_test", { read: "fabric.read", write: "fabric.update", exists: rowExists("fabric_tests") });
 // Workroom: turnarounds at a fitting, before/after photos of an alteration.
 registerPhotoOwner("fitting", { read: "fitting.read", write: "fitting.update", exists: rowExists("fittings") });
 registerPhotoOwner("alteration_ticket", { read: "alteration.read", write: "alteration.update", exists: rowExists("alteration_tickets") });

@@ -8,11 +8,15 @@ import { recordAudit } from "./audit.service.js";
 import { buildPlan } from "./workroom.service.js";
 import { clock, productionTimeZone } from "../lib/clock.js";
 import { VersionedCache } from "../lib/versioned-cache.js";
+import { zonedParts } from "../lib/zoned-time.js";
 import type { Actor } from "../middleware/require-auth.js";
 import { computeMultiplesPlans, computeSnags } from "@shared/domain/snags/engine.js";
+import { mergeSameCause } from "@shared/domain/snags/merge.js";
+import { scheduleLabels } from "@shared/domain/schedule-labels.js";
 import type {
   AppearanceRec,
   CharacterRec,
+  CheckoutRec,
   ContinuityEntryRec,
   EaseOverrides,
   GarmentRec,
@@ -85,6 +89,7 @@ export async function loadSnapshot(productionId: string): Promise<LoadedProducti
     garments,
     groups,
     entries,
+    checkouts,
   ] = await Promise.all([
     q(`SELECT id, kind, settings FROM productions WHERE id = :pid`),
     q(`SELECT id, number, story_day, story_order, running_minutes FROM scenes WHERE production_id = :pid ORDER BY story_order, id`),
@@ -111,10 +116,16 @@ export async function loadSnapshot(productionId: string): Promise<LoadedProducti
               COALESCE(array_agg(eg.garment_id ORDER BY eg.garment_id) FILTER (WHERE eg.garment_id IS NOT NULL), '{}') AS garment_ids
          FROM continuity_entries e LEFT JOIN continuity_entry_garments eg ON eg.continuity_entry_id = e.id
          WHERE e.production_id = :pid AND e.scene_id IS NOT NULL AND e.character_id IS NOT NULL GROUP BY e.id`),
+    // Open check-outs only: a returned garment is nobody's snag.
+    q(`SELECT id, garment_id, to_name, to_performer_id, to_char(due_back_on, 'YYYY-MM-DD') AS due_back_on,
+              checked_out_at,
+              shoot_day_id, scene_id
+         FROM garment_checkouts WHERE production_id = :pid AND returned_at IS NULL ORDER BY id`),
   ]);
   const prod = productions[0];
   if (!prod) throw NotFoundError("Production not found.");
   const settings = (prod.settings ?? {}) as { quickChangeThresholdMin?: unknown; easeOverrides?: unknown; timeZone?: string };
+  const timeZone = productionTimeZone({ settings });
 
   const sceneIdsOfDay = new Map<string, string[]>();
   for (const r of dayScenes) {
@@ -234,11 +245,23 @@ export async function loadSnapshot(productionId: string): Promise<LoadedProducti
     garments: garmentRecs,
     multiplesGroups: groups.map((g) => ({ id: g.id as string, name: g.name as string, garmentIds: groupGarments.get(g.id as string) ?? [] })),
     continuityEntries: entryRecs,
+    checkouts: checkouts.map(
+      (c): CheckoutRec => ({
+        id: c.id as string,
+        garmentId: c.garment_id as string,
+        toName: c.to_name as string,
+        toPerformerId: (c.to_performer_id as string | null) ?? null,
+        dueBackOn: c.due_back_on as string,
+        checkedOutOn: zonedParts(new Date(c.checked_out_at as string | Date), timeZone).date,
+        shootDayId: (c.shoot_day_id as string | null) ?? null,
+        sceneId: (c.scene_id as string | null) ?? null,
+      }),
+    ),
   };
   return {
     snapshot,
     days: days.map((d) => ({ id: d.id as string, date: d.date as string, kind: d.kind === "performance" ? "performance" : "shoot" })),
-    timeZone: productionTimeZone({ settings }),
+    timeZone,
   };
 }
 
@@ -343,10 +366,24 @@ class Resolver {
         sceneLinks(later);
         garmentLink();
         break;
-      case "workroom_late":
-      case "workroom_overbooked":
+      case "checkout_overdue":
         garmentLink();
-        links.push({ label: "Workroom plan", href: this.path("workroom") });
+        if (typeof s.evidence.checkoutId === "string") {
+          const c = this.loaded.snapshot.checkouts?.find((x) => x.id === s.evidence.checkoutId);
+          if (c?.toPerformerId) links.push({ label: c.toName, href: this.path(`cast/performers/${c.toPerformerId}`) });
+        }
+        break;
+      case "workroom_late":
+        // The ticket is what to fix: its row opens on the Workroom's ticket list.
+        if (typeof s.evidence.ticketId === "string") {
+          const g = garment ? ` for ${garment.tagCode}` : "";
+          links.push({ label: `Alteration ticket${g}`, href: this.path(`workroom?tab=tickets&ticket=${s.evidence.ticketId}`) });
+        }
+        garmentLink();
+        links.push({ label: "Workroom plan", href: this.path("workroom?tab=tickets") });
+        break;
+      case "workroom_overbooked":
+        links.push({ label: "Workroom plan", href: this.path("workroom?tab=tickets") });
         break;
     }
     for (const c of this.charactersOf(s)) {
@@ -383,6 +420,7 @@ class Resolver {
       dismissal: null,
       lapsedDismissal: null,
       ...(s.assignment ? { assignment: s.assignment } : {}),
+      ...(s.facts ? { facts: s.facts } : {}),
     };
   }
 
@@ -473,7 +511,8 @@ async function snagState(productionId: string): Promise<SnagState> {
     const plan = await buildPlan(productionId, today);
     return {
       loaded,
-      snags: [...computeSnags(loaded.snapshot, { today }), ...plan.snags],
+      // One cause, one card: a late alteration and "in the workroom on the day" of the same garment merge.
+      snags: mergeSameCause([...computeSnags(loaded.snapshot, { today }), ...plan.snags]),
       today,
       resolver: new Resolver(productionId, loaded),
       dismissalByKey: new Map(dismissals.map((d) => [d.snagKey, d])),
@@ -516,7 +555,7 @@ function buildSnagList(state: SnagState, query: ListSnagsQuery): SnagListDto {
   if (query.shootDayId) {
     const dayId = query.shootDayId === "next" ? next?.id : query.shootDayId;
     if (!dayId) dayFilter = () => false;
-    else if (!r.days.has(dayId)) throw NotFoundError("Shoot day not found.");
+    else if (!r.days.has(dayId)) throw NotFoundError(`${scheduleLabels(loaded.snapshot.production.kind).Day} not found.`);
     else dayFilter = r.touchesDay(dayId);
   }
 

@@ -21,10 +21,10 @@ import type { Actor } from "../middleware/require-auth.js";
 export const WORKROOM_ROLES = ["supervisor", "designer", "cutter"] as const;
 
 /** The production's workroom settings with defaults (1 working day buffer, reminders at 18:00). */
-export async function workroomSettings(productionId: string): Promise<{ bufferWorkingDays: number; reminderHour: number; title: string; units: "cm" | "in" }> {
+export async function workroomSettings(productionId: string): Promise<{ bufferWorkingDays: number; reminderHour: number; title: string; units: "cm" | "in"; kind: "film" | "series" | "stage" }> {
   const p = await Production.findByPk(productionId);
   if (!p) throw NotFoundError("Production not found.");
-  return { bufferWorkingDays: p.settings.bufferWorkingDays ?? 1, reminderHour: p.settings.reminderHour ?? 18, title: p.title, units: p.units };
+  return { bufferWorkingDays: p.settings.bufferWorkingDays ?? 1, reminderHour: p.settings.reminderHour ?? 18, title: p.title, units: p.units, kind: p.kind };
 }
 
 /** Updates the buffer and reminder hour (the rest of the settings stay). */
@@ -168,7 +168,7 @@ export async function buildPlan(productionId: string, fromDay?: string): Promise
     const d = dues.get(t.id)!;
     return { id: t.id, garmentId: t.garmentId, tagCode: g?.tag_code ?? "?", garmentName: g?.name ?? "garment", taskSummary: taskSummary(t.tasks, settings.units), neededOn: d.neededOn, neededShootDayIds: d.neededShootDayIds };
   });
-  const snags = workroomSnags({ plan, tickets: snagTickets, people, bufferWorkingDays: settings.bufferWorkingDays });
+  const snags = workroomSnags({ plan, tickets: snagTickets, people, bufferWorkingDays: settings.bufferWorkingDays, scheduleKind: settings.kind });
 
   const planned: PlannedTicketDto[] = tickets.map((t, i) => {
     const p = plan.tickets[i];

@@ -5,6 +5,7 @@ import { finishSnag, sortSnags } from "./snags/engine";
 import type { JsonValue, Snag, SnagDraft } from "./snags/types";
 import type { PlanResult } from "./workroom";
 import { formatLength, type LengthUnit } from "./units";
+import { scheduleLabels, type ScheduleKind } from "./schedule-labels";
 
 /** What the snag texts need to know about one ticket besides its plan. */
 export interface WorkroomSnagTicket {
@@ -26,6 +27,8 @@ export interface WorkroomSnagInput {
   tickets: readonly WorkroomSnagTicket[];
   people: readonly { id: string; name: string }[];
   bufferWorkingDays: number;
+  /** The production's kind: a stage production's garments are needed for performances, not shoots. */
+  scheduleKind?: ScheduleKind;
 }
 
 /** "Tue 1 Dec 2026" from YYYY-MM-DD (the app's one date format). */
@@ -40,7 +43,9 @@ export function lateTicketSnag(
   plan: PlanResult["tickets"][number],
   personName: string | null,
   bufferWorkingDays: number,
+  scheduleKind: ScheduleKind = "film",
 ): SnagDraft | null {
+  const words = scheduleLabels(scheduleKind);
   if (!plan.late || plan.dueDate === null) return null;
   const hours = plan.blocks.reduce((s, b) => s + b.hours, 0) + plan.unplannedHours;
   // Not ready on the day it is worn is blocking; finishing inside the buffer only costs pressing time.
@@ -56,7 +61,7 @@ export function lateTicketSnag(
       : `the plan finishes it on ${longDate(plan.plannedFinish)}${who}, ${plural(plan.lateness ?? 1, "working day")} late`;
   const consequence = missesShoot
     ? t.neededOn
-      ? ` It would not be ready for the shoot on ${longDate(t.neededOn)}.`
+      ? ` It would not be ready for ${words.event} on ${longDate(t.neededOn)}.`
       : ""
     : " It would be ready on the day, without time for pressing and rack prep.";
   const evidence: { [k: string]: JsonValue } = {
@@ -144,7 +149,7 @@ export function workroomSnags(input: WorkroomSnagInput): Snag[] {
   for (const p of input.plan.tickets) {
     const t = ticketsById.get(p.id);
     if (!t) continue;
-    const d = lateTicketSnag(t, p, p.assigneeId ? (names.get(p.assigneeId) ?? null) : null, input.bufferWorkingDays);
+    const d = lateTicketSnag(t, p, p.assigneeId ? (names.get(p.assigneeId) ?? null) : null, input.bufferWorkingDays, input.scheduleKind);
     if (d) drafts.push(d);
   }
   for (const run of overbookedRuns(input.plan)) drafts.push(overbookedSnag(run, names.get(run.personId) ?? run.personId, ticketsById));

@@ -127,12 +127,41 @@ export type UpdateGarmentInput = z.infer<typeof updateGarmentInputSchema>;
 export const addCopiesInputSchema = z.object({ count: z.number().int().min(1).max(20), groupName: optionalNameSchema(Limits.nameMax).optional() });
 export type AddCopiesInput = z.infer<typeof addCopiesInputSchema>;
 
+/** Statuses in which a garment is out with a person; a move to any other status checks it back in. */
+export const checkedOutStatuses = ["on_set", "fitting"] as const satisfies readonly GarmentStatus[];
+
+/** Whom a garment is checked out to. */
+export const checkoutToKinds = ["member", "performer"] as const;
+export type CheckoutToKind = (typeof checkoutToKinds)[number];
+
+/**
+ * Check a garment out to a person: a member of the production (their user id) or a performer, for a
+ * shoot day / performance and scene, due back on a date (default: that day's date, else today).
+ */
+export const checkoutInputSchema = z
+  .object({
+    /** A member of the production (user id), e.g. the set costumer who dresses the scene. */
+    toUserId: idSchema.nullish(),
+    /** A performer of the production (for a fitting at home, a photo call, a rehearsal). */
+    toPerformerId: idSchema.nullish(),
+    /** The shoot day or performance it goes out for. */
+    shootDayId: idSchema.nullish(),
+    /** The scene it goes out for (on that day, when a day is given). */
+    sceneId: idSchema.nullish(),
+    /** The date it must be back; defaults to the day's date, else today. */
+    dueBackOn: isoDateSchema.nullish(),
+  })
+  .refine((v) => Boolean(v.toUserId) !== Boolean(v.toPerformerId), { message: "choose who takes it: one member or one performer", path: ["toUserId"] });
+export type CheckoutInput = z.infer<typeof checkoutInputSchema>;
+
 const moveFields = {
   status: z.enum(garmentStatuses, { message: "must be one of: " + garmentStatuses.join(", ") }),
   /** Omit to keep the current rack / bin; null or "" clears it. */
   locationRack: z.string().trim().max(40).nullish(),
   locationBin: z.string().trim().max(40).nullish(),
   note: z.string().trim().max(500).nullish(),
+  /** Check the garment out to a person (only with status On set or Fitting). */
+  checkout: checkoutInputSchema.nullish(),
 };
 
 /** Move one or many garments to a status (and location), one history row each, in one transaction. */
@@ -169,6 +198,8 @@ export const garmentFiltersSchema = z.object({
   dueWithinDays: z.coerce.number().int().min(0).max(366).optional(),
   /** The day "due within" counts from (defaults to today on the server). */
   asOf: isoDateSchema.optional(),
+  /** Checked out: `out` = with someone now, `past_due` = with someone past the due-back date. */
+  out: z.enum(["out", "past_due"]).optional(),
   /** Explicit ids (tag sheets of a selection). */
   ids: z
     .string()
@@ -177,6 +208,12 @@ export const garmentFiltersSchema = z.object({
     .pipe(z.array(idSchema).max(500)),
 });
 export type GarmentFilters = z.infer<typeof garmentFiltersSchema>;
+
+/** Label sheets: the filters plus the first free position on a partly used sheet (1 = top left, row by row). */
+export const labelSheetQuerySchema = garmentFiltersSchema.extend({
+  start: z.coerce.number({ message: "must be a label position" }).int("must be a whole label position").min(1, "must be 1 or more").max(24, "must be 24 or less (3 × 8 labels)").default(1),
+});
+export type LabelSheetQuery = z.infer<typeof labelSheetQuerySchema>;
 
 export const garmentSortKeys = ["tagCode", "name", "category", "status", "rentalDueOn", "locationRack", "updatedAt"] as const;
 export const listGarmentsQuerySchema = paginationQuerySchema.extend(garmentFiltersSchema.shape).extend({
@@ -211,6 +248,36 @@ export interface GarmentDto {
   copyNumber: number | null;
   notes: string | null;
   updatedAt: string;
+  /** Who has it now, when it is checked out. */
+  checkout: GarmentCheckoutDto | null;
+}
+
+/** A check-out: who has the garment, for which day and scene, and when it is due back. */
+export interface GarmentCheckoutDto {
+  id: string;
+  garmentId: string;
+  to: { kind: CheckoutToKind; /** user id (member) or performer id; null once that record is gone */ id: string | null; name: string };
+  shootDay: { id: string; date: string; kind: "shoot" | "performance"; dayNumber: number } | null;
+  scene: { id: string; number: string } | null;
+  dueBackOn: string;
+  /** Due back before today (judged on the server's clock in the production's time zone). */
+  pastDue: boolean;
+  checkedOutAt: string;
+  checkedOutByName: string | null;
+  returnedAt: string | null;
+}
+
+/** An open check-out with the garment it concerns (the wardrobe's "who has what" list, reports). */
+export interface OpenCheckoutDto extends GarmentCheckoutDto {
+  garment: { id: string; tagCode: string; name: string; status: GarmentStatus };
+}
+
+/** Choices for the check-out form: members, performers and the days from today on with their scenes. */
+export interface CheckoutOptionsDto {
+  today: string;
+  members: Array<{ userId: string; name: string; role: string }>;
+  performers: Array<{ id: string; name: string; characters: string[] }>;
+  days: Array<{ id: string; date: string; kind: "shoot" | "performance"; dayNumber: number; scenes: Array<{ id: string; number: string }> }>;
 }
 
 export interface GarmentStatusEventDto {
@@ -238,6 +305,8 @@ export interface GarmentChangeRefDto {
 
 export interface GarmentDetailDto extends GarmentDto {
   history: GarmentStatusEventDto[];
+  /** Every check-out of this garment, newest first (the open one included). */
+  checkouts: GarmentCheckoutDto[];
   changes: GarmentChangeRefDto[];
   /** Other copies of the same multiples group (including this one). */
   groupCopies: Array<{ id: string; tagCode: string; copyNumber: number | null; status: GarmentStatus; distressStage: number }>;
@@ -245,5 +314,5 @@ export interface GarmentDetailDto extends GarmentDto {
 
 export interface GarmentMoveResultDto {
   garment: GarmentDto;
-  event: GarmentStatusEventDto;
+  event: GarmentStatusEventDto | null;
 }

@@ -115,11 +115,24 @@ export interface ProductionDto {
   today: string;
 }
 
+/** The record an audit event is about, named as people know it, with a link to where it is shown. */
+export interface AuditRecordDto {
+  /** Kind of record ("garment", "scene", …; a photo's event names its owner). */
+  type: string;
+  label: string;
+  /** Client path of the screen that shows it; null when it is gone or has no page. */
+  href: string | null;
+  /** The record was deleted since (the label comes from the event itself). */
+  gone: boolean;
+}
+
 export interface AuditEventDto {
   id: string;
   action: string;
   entityType: string;
   entityId: string | null;
+  /** What changed: the record's name and a link to it. */
+  record: AuditRecordDto | null;
   actorName: string | null;
   before: unknown;
   after: unknown;

@@ -1,8 +1,8 @@
 import { z } from "zod";
 import { idSchema } from "./common.js";
-import type { CopyAssignment, JsonValue, SnagKind, SnagSeverity, SnagSubject } from "../domain/snags/types.js";
+import type { CopyAssignment, JsonValue, SnagFact, SnagKind, SnagSeverity, SnagSubject } from "../domain/snags/types.js";
 
-export const snagKinds = ["fit", "continuity", "multiples", "booking", "rental", "availability", "quick_change", "workroom_late", "workroom_overbooked"] as const satisfies readonly SnagKind[];
+export const snagKinds = ["fit", "continuity", "multiples", "booking", "rental", "availability", "quick_change", "checkout_overdue", "workroom_late", "workroom_overbooked"] as const satisfies readonly SnagKind[];
 export const snagSeverities = ["blocking", "warning", "note"] as const satisfies readonly SnagSeverity[];
 
 /** Plain labels for the kinds, shown in filters and group headings. */
@@ -14,6 +14,7 @@ export const snagKindLabels: Record<SnagKind, string> = {
   rental: "Rental",
   availability: "Availability",
   quick_change: "Quick change",
+  checkout_overdue: "Out past due",
   workroom_late: "Workroom late",
   workroom_overbooked: "Workroom overbooked",
 };
@@ -94,6 +95,8 @@ export interface SnagDto {
   /** A dismissal made against older evidence: the snag shows again. */
   lapsedDismissal: SnagDismissalDto | null;
   assignment?: CopyAssignment[];
+  /** Present when snags with one cause were merged: each fact, as its rule stated it. */
+  facts?: SnagFact[];
 }
 
 export type SnagCounts = { total: number; dismissed: number; lapsed: number } & {

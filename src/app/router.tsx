@@ -3,7 +3,7 @@ import { createBrowserRouter, Navigate, Outlet, RouterProvider, useLocation, use
 import { useQueryClient } from "@tanstack/react-query";
 import { paths } from "@/config/paths";
 import { setUnauthorizedHandler } from "@/lib/api-client";
-import { useMe } from "@/features/auth/api/auth";
+import { isAuthPath, useMe } from "@/features/auth/api/auth";
 import { Spinner, ErrorAlert } from "@/components/ui/feedback";
 import { AppShell } from "@/components/layouts/app-shell";
 import { ScreenRoute } from "./routes/app/screen-route";
@@ -24,7 +24,9 @@ function RequireSignedIn() {
   useEffect(() => {
     setUnauthorizedHandler(() => {
       qc.setQueryData(["me"], null);
-      navigate(paths.auth.login.getHref(window.location.pathname + window.location.search));
+      const here = window.location.pathname + window.location.search;
+      // Already on a sign-in page (e.g. while signing out): go there plainly, never "back to /login".
+      navigate(paths.auth.login.getHref(isAuthPath(window.location.pathname) ? null : here));
     });
   }, [navigate, qc]);
   if (me.isPending) return <Spinner className="p-8" />;

@@ -235,4 +235,23 @@ describe("POST /garments/:id/copies", () => {
     expect(res.body.data.map((g: { copyNumber: number }) => g.copyNumber)).toEqual([1, 2, 3]);
     expect(res.body.data[0].id).toBe(a.id);
   });
+
+  it("writes a history row per copy: each copy says what it copies, the original names each copy made", async () => {
+    const a = await buildGarment({ production, name: "Smock" });
+
+    const res = await agent.post(`${base}/${a.id}/copies`, { count: 2 });
+
+    const [, c2, c3] = res.body.data as Array<{ id: string; tagCode: string }>;
+    const onOriginal = await GarmentStatusEvent.findAll({ where: { garmentId: a.id }, order: [["note", "ASC"]] });
+    expect(onOriginal.map((e) => [e.fromStatus, e.toStatus, e.note])).toEqual([
+      ["in_stock", "in_stock", `Copy #2 made: ${c2!.tagCode}`],
+      ["in_stock", "in_stock", `Copy #3 made: ${c3!.tagCode}`],
+    ]);
+    for (const c of [c2!, c3!]) {
+      const rows = await GarmentStatusEvent.findAll({ where: { garmentId: c.id } });
+      expect(rows.map((e) => [e.fromStatus, e.toStatus, e.note])).toEqual([[null, "in_stock", `Copy of ${a.tagCode}`]]);
+    }
+    const detail = await agent.get(`${base}/${a.id}`);
+    expect(detail.body.data.history).toHaveLength(2);
+  });
 });

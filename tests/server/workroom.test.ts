@@ -359,3 +359,28 @@ describe("evening reminders", () => {
     expect(await sendEveningReminders({ now: new Date("2030-09-03T09:00:00Z"), productionId: production.id })).toBe(0);
   });
 });
+
+describe("one cause, one snag card", () => {
+  it("a late alteration of a garment in the workroom on the day it is needed is one snag with both facts; its Fix link opens the ticket", async () => {
+    // Ann has 8 h a day; a 20 h job needed on Tue 2030-09-03 (due Mon with a 1-day buffer) cannot be ready:
+    // it is late, and on Tuesday the garment is still in the workroom.
+    const { production, actor, user } = await setup({ bufferWorkingDays: 1 });
+    await WorkroomCapacity.create({ productionId: production.id, userId: user.id, hoursPerWeekday: fullWeek, daysOff: [] });
+    const garmentId = await buildGarment(production.id, { tagCode: "W1", status: "workroom" });
+    await buildChangeOnDays(production.id, { garmentIds: [garmentId], dates: ["2030-09-03"] });
+    const ticket = await raiseOn("2030-09-02", actor, { garmentId, tasks: [take], estimateHours: 20 });
+    const supervisor = await buildMember("supervisor", { production });
+    const agent = await signedInAgent(app, supervisor.user.email);
+    clock.set("2030-09-03", { frozen: true });
+
+    const res = await agent.get(`/api/productions/${production.id}/snags`);
+
+    expect(res.status).toBe(200);
+    const aboutW1 = res.body.data.snags.filter((s: { garments: Array<{ tagCode: string }> }) => s.garments.some((g) => g.tagCode === "W1"));
+    expect(aboutW1.map((s: { kind: string }) => s.kind)).toEqual(["workroom_late"]);
+    const [card] = aboutW1;
+    expect(card.severity).toBe("blocking");
+    expect(card.facts.map((f: { kind: string }) => f.kind)).toEqual(["workroom_late", "availability"]);
+    expect(card.links[0]).toEqual({ label: "Alteration ticket for W1", href: `/p/${production.id}/workroom?tab=tickets&ticket=${ticket.id}` });
+  });
+});

@@ -56,6 +56,16 @@ describe("workroomSnags — hand-worked example", () => {
     expect(late[0].subject).toEqual({ garmentId: "g-A", shootDayIds: ["sd-2030-09-03"] });
   });
 
+  it("on a stage production the garment must be ready for the performance, not the shoot", () => {
+    const { plan, tickets } = handWorked();
+
+    const snags = workroomSnags({ plan, tickets, people: [ann], bufferWorkingDays: 1, scheduleKind: "stage" });
+
+    const a = snags.find((s) => s.key === "workroom_late:A")!;
+    expect(a.explanation).toContain("would not be ready for the performance on Tue 3 Sep 2030");
+    expect(a.explanation).not.toContain("shoot");
+  });
+
   it("groups Ann's overbooked Monday to Wednesday into one snag naming both late tickets", () => {
     const { plan, tickets } = handWorked();
 

@@ -2,6 +2,7 @@
 // stable evidence hashes. Every rule is a single pass over its inputs plus sorting, so a full
 // recompute stays near-linear in the size of the production.
 import { bookingSnags } from "./bookings";
+import { checkoutSnags } from "./checkouts";
 import { continuitySnags } from "./continuity";
 import { fitSnags } from "./fit";
 import { multiplesSnags, planMultiples, type GroupPlan } from "./multiples";
@@ -195,6 +196,7 @@ export function computeSnags(snapshot: ProductionSnapshot, options: SnagOptions)
     ...continuitySnags(ix, plans),
     ...bookingSnags(ix, plans, options.today),
     ...quickChangeSnags(ix),
+    ...checkoutSnags(ix, options.today),
   ];
   return sortSnags(drafts.map(finishSnag));
 }

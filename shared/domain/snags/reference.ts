@@ -4,6 +4,7 @@
 // It reuses only the snag wording builders and the per-point fit arithmetic.
 import { availabilitySnag, doubleBookingSnag, rentalSnag } from "./bookings";
 import { changeBreakSnag, distressBreakSnag, type CopyRecord } from "./continuity";
+import { checkoutOverdueSnag } from "./checkouts";
 import { finishSnag, sortSnags } from "./engine";
 import { checkFit, fitSnagFromFacts } from "./fit";
 import { multiplesSnagFromPlan, type GroupDemand, type GroupPlan } from "./multiples";
@@ -500,6 +501,26 @@ function refQuickChanges(s: ProductionSnapshot): SnagDraft[] {
 }
 
 /** Quadratic reference implementation of computeSnags (same rules, no indexes). */
+function refCheckouts(s: ProductionSnapshot, today: string): SnagDraft[] {
+  const out: SnagDraft[] = [];
+  const stage = s.production.kind === "stage";
+  for (const c of s.checkouts ?? []) {
+    const g = findById(s.garments, c.garmentId);
+    if (!g) continue;
+    const day = findById(s.shootDays, c.shootDayId) ?? findById(s.performances ?? [], c.shootDayId);
+    const d = checkoutOverdueSnag({
+      checkout: c,
+      tagCode: g.tagCode,
+      garmentName: g.name,
+      dayText: day ? `${stage ? "performance" : "shoot day"} ${day.date}` : null,
+      sceneNumber: findById(s.scenes, c.sceneId)?.number ?? null,
+      today,
+    });
+    if (d) out.push(d);
+  }
+  return out;
+}
+
 export function computeSnagsReference(snapshot: ProductionSnapshot, options: SnagOptions): Snag[] {
   const runs = runsOf(snapshot);
   const plans = refPlans(snapshot, runs);
@@ -511,6 +532,7 @@ export function computeSnagsReference(snapshot: ProductionSnapshot, options: Sna
     ...refDistressBreaks(snapshot, plans),
     ...refBookings(snapshot, runs, plans, options.today),
     ...refQuickChanges(snapshot),
+    ...refCheckouts(snapshot, options.today),
   ];
   return sortSnags(drafts.map(finishSnag));
 }

@@ -16,6 +16,8 @@ export type SnagKind =
   | "rental"
   | "availability"
   | "quick_change"
+  // A garment checked out to someone and not back by its due date.
+  | "checkout_overdue"
   // Workroom schedule (shared/domain/workroom-snags.ts).
   | "workroom_late"
   | "workroom_overbooked";
@@ -143,6 +145,22 @@ export interface ContinuityEntryRec {
   distressStage?: number | null;
 }
 
+/** An open check-out: a garment with a member or performer, due back on a date. */
+export interface CheckoutRec {
+  id: string;
+  garmentId: string;
+  /** Who has it ("Nell Carrow"). */
+  toName: string;
+  /** Performer id when it went out to a performer (for the link to them). */
+  toPerformerId?: string | null;
+  /** YYYY-MM-DD */
+  dueBackOn: string;
+  /** YYYY-MM-DD, the day it went out. */
+  checkedOutOn: string;
+  shootDayId?: string | null;
+  sceneId?: string | null;
+}
+
 /** Everything the snag rules read, as plain data. */
 export interface ProductionSnapshot {
   production: ProductionInfo;
@@ -159,6 +177,8 @@ export interface ProductionSnapshot {
   garments: GarmentRec[];
   multiplesGroups: MultiplesGroupRec[];
   continuityEntries: ContinuityEntryRec[];
+  /** Open check-outs (garments with someone); absent means none. */
+  checkouts?: CheckoutRec[];
 }
 
 export interface SnagOptions {
@@ -187,6 +207,14 @@ export interface CopyAssignment {
   shootDayIds: string[];
 }
 
+/** One of several facts with one cause, shown together on one card. */
+export interface SnagFact {
+  kind: SnagKind;
+  severity: SnagSeverity;
+  title: string;
+  explanation: string;
+}
+
 export interface Snag {
   /** Stable: built from kind and subject ids, so a dismissal can be matched after recompute. */
   key: string;
@@ -200,6 +228,8 @@ export interface Snag {
   /** FNV-1a hash of the canonical evidence: a dismissal lapses when this changes. */
   evidenceHash: string;
   assignment?: CopyAssignment[];
+  /** When snags with one cause were merged into this one: each fact as its own rule stated it. */
+  facts?: SnagFact[];
 }
 
 /** A snag before its evidence hash is added (rules build these; the engine finishes them). */

@@ -22,7 +22,8 @@ export function AppShell() {
   const [confirmSignOut, setConfirmSignOut] = useState(false);
   useQueueRunner(me.data?.id);
   const queue = useOfflineQueue();
-  const signOut = () => logout.mutate(me.data?.id, { onSettled: () => navigate(paths.auth.login.getHref()) });
+  // The mutation itself lands on the sign-in page with a full page load.
+  const signOut = () => logout.mutate(me.data?.id);
   const allowed = screens.filter((s) => can(role, s.action));
 
   return (
@@ -30,11 +31,12 @@ export function AppShell() {
       <a href="#main-content" className="sr-only rounded-md bg-chalk px-4 py-2 font-semibold text-ink shadow focus:not-sr-only focus:fixed focus:top-2 focus:left-2 focus:z-50">
         Skip to content
       </a>
+      {/* One row of fixed height at every width: the phone menu opens right below it (top-14), never under it. */}
       <header className="sticky top-0 z-20 bg-ink text-chalk shadow">
-        <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-3 px-3 py-2 sm:px-5">
+        <div className="mx-auto flex h-14 max-w-7xl flex-nowrap items-center gap-2 px-2 sm:gap-3 sm:px-5">
           <button
             type="button"
-            className="rounded p-2 md:hidden"
+            className="inline-flex size-11 shrink-0 items-center justify-center rounded md:hidden"
             aria-label="Menu"
             aria-expanded={menuOpen}
             aria-controls="main-nav"
@@ -42,20 +44,20 @@ export function AppShell() {
           >
             <span aria-hidden>☰</span>
           </button>
-          <span className="font-bold tracking-wide">Seamscene</span>
+          <span className="shrink-0 font-bold tracking-wide">Seamscene</span>
           <ProductionSwitcher
             productionId={productionId}
             productions={me.data?.memberships ?? []}
             onOpen={(id) => navigate(paths.production.root.getHref(id))}
             onNew={() => navigate(paths.productions.new.getHref())}
           />
-          <div className="ml-auto flex items-center gap-3 text-sm">
+          <div className="ml-auto flex shrink-0 items-center gap-3 text-sm">
             <QueueBadge />
-            <span className="hidden sm:inline">
+            <span className="hidden lg:inline">
               {me.data?.name}
               {role && <span className="ml-1 text-chalk/70">· {roleLabels[role]}</span>}
             </span>
-            <button type="button" className="rounded px-2 py-1 underline-offset-2 hover:underline" onClick={() => (queue.items.length ? setConfirmSignOut(true) : signOut())}>
+            <button type="button" className="min-h-11 rounded px-2 underline-offset-2 hover:underline" onClick={() => (queue.items.length ? setConfirmSignOut(true) : signOut())}>
               Sign out
             </button>
           </div>
@@ -79,14 +81,14 @@ export function AppShell() {
         </p>
       </ConfirmDialog>
       <div className="mx-auto flex max-w-7xl gap-5 px-3 py-4 sm:px-5">
-        <nav id="main-nav" aria-label="Screens" className={cn("w-48 shrink-0 md:block", menuOpen ? "fixed inset-x-0 top-14 z-10 block bg-chalk p-3 shadow-lg md:static md:p-0 md:shadow-none" : "hidden")}>
+        <nav id="main-nav" aria-label="Screens" className={cn("shrink-0 md:block md:w-48", menuOpen ? "fixed inset-x-0 top-14 z-10 block max-h-[calc(100dvh-3.5rem)] overflow-y-auto bg-chalk p-3 shadow-lg md:static md:max-h-none md:p-0 md:shadow-none" : "hidden")}>
           <ul className="grid gap-0.5">
             {allowed.map((s) => (
               <li key={s.key}>
                 <NavLink
                   to={paths.production.screen.getHref(productionId, s.key)}
                   onClick={() => setMenuOpen(false)}
-                  className={({ isActive }) => cn("block rounded-md px-3 py-2.5 text-sm font-semibold md:py-2", isActive || screen === s.key ? "bg-ink text-chalk" : "text-ink hover:bg-ink-50")}
+                  className={({ isActive }) => cn("flex min-h-11 items-center rounded-md px-3 text-sm font-semibold", isActive || screen === s.key ? "bg-ink text-chalk" : "text-ink hover:bg-ink-50")}
                 >
                   {s.label}
                 </NavLink>

@@ -25,7 +25,7 @@ export function ProductionSwitcher({ productionId, productions, onOpen, onNew }:
 
   return (
     <form
-      className="flex items-center gap-1"
+      className="flex min-w-0 flex-1 items-center gap-1 sm:flex-none"
       aria-label="Switch production"
       onSubmit={(e) => {
         e.preventDefault();
@@ -38,7 +38,7 @@ export function ProductionSwitcher({ productionId, productions, onOpen, onNew }:
       <select
         id="production-switcher"
         aria-describedby={pending ? "production-switcher-hint" : undefined}
-        className="max-w-[14rem] rounded-md border border-chalk/30 bg-ink-700 px-2 py-1 text-sm text-chalk focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-chalk focus-visible:outline-solid"
+        className="min-w-0 max-w-[14rem] flex-1 truncate rounded-md border border-chalk/30 bg-ink-700 px-2 py-1 text-sm text-chalk focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-chalk focus-visible:outline-solid"
         value={choice}
         onPointerDown={() => (lastInput.current = "pointer")}
         onKeyDown={(e) => {
@@ -66,7 +66,7 @@ export function ProductionSwitcher({ productionId, productions, onOpen, onNew }:
       </select>
       {pending && (
         <>
-          <button type="submit" className="rounded-md bg-chalk px-2 py-1 text-sm font-semibold text-ink focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-chalk focus-visible:outline-solid">
+          <button type="submit" className="shrink-0 rounded-md bg-chalk px-2 py-1 text-sm font-semibold text-ink focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-chalk focus-visible:outline-solid">
             Open
           </button>
           <span id="production-switcher-hint" className="sr-only" role="status">

@@ -161,6 +161,18 @@ function randomSnapshot(sh: Shape): ProductionSnapshot {
             garmentIds: garments.filter(() => r() < 0.2).map((g) => g.id),
             distressStage: r() < 0.6 ? int(0, 3) : null,
           }));
+  // Drawn last, so the earlier draws (and the cases they make) stay as they were.
+  const checkouts = garments
+    .filter(() => r() < 0.25)
+    .map((g, i) => ({
+      id: `co${i}`,
+      garmentId: r() < 0.9 ? g.id : "gone",
+      toName: `Person ${i}`,
+      dueBackOn: date(int(0, 9)),
+      checkedOutOn: date(0),
+      shootDayId: runIds.length && r() < 0.5 ? pick(runIds) : null,
+      sceneId: r() < 0.5 ? pick(scenes).id : null,
+    }));
   return {
     production: { id: "pr", kind: sh.kind, quickChangeThresholdMin: int(1, 5) },
     scenes,
@@ -174,6 +186,7 @@ function randomSnapshot(sh: Shape): ProductionSnapshot {
     garments,
     multiplesGroups: groups,
     continuityEntries,
+    checkouts,
   };
 }
 
@@ -222,7 +235,7 @@ describe("engine vs quadratic reference", () => {
       }),
       { numRuns: 300, seed: 42 },
     );
-    expect([...kinds].sort()).toEqual(["availability", "booking", "continuity", "fit", "multiples", "quick_change", "rental"]);
+    expect([...kinds].sort()).toEqual(["availability", "booking", "checkout_overdue", "continuity", "fit", "multiples", "quick_change", "rental"]);
   });
 
   it("same result on the benchmark generator at 1/10 scale", () => {

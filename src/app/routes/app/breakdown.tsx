@@ -16,6 +16,7 @@ import { ShootDayEditor } from "@/features/breakdown/components/shoot-day-editor
 import { SnagsForDay } from "@/features/snags/components/snags-for-day";
 import { ApiError } from "@/lib/api-client";
 import { cn } from "@/utils/cn";
+import { scheduleLabels } from "@shared/domain/schedule-labels";
 import { formatClockTime, formatDate } from "@shared/format";
 import { onTabListKeyDown } from "@/components/ui/tabs";
 
@@ -39,12 +40,12 @@ function BreakdownHome() {
   const sceneHref = useCallback((id: string) => `/p/${productionId}/breakdown/scenes/${id}`, [productionId]);
   const tabs = [
     { key: "scenes", label: stage ? "Running order" : "Scenes" },
-    { key: "days", label: stage ? "Performances" : "Shoot days" },
+    { key: "days", label: scheduleLabels(production).Days },
     { key: "csv", label: "Import / export" },
   ] as const;
   return (
     <div className="grid gap-4">
-      <PageHeader title="Breakdown" subtitle={stage ? "The order of the show, running times and performances" : "Scenes, story days and shoot days"} />
+      <PageHeader title="Breakdown" subtitle={stage ? "The order of the show, running times and performances" : `Scenes, story days and ${scheduleLabels(production).days}`} />
       <div role="tablist" aria-label="Breakdown views" onKeyDown={onTabListKeyDown} className="flex gap-1">
         {tabs.map((t) => (
           <button key={t.key} role="tab" type="button" aria-selected={tab === t.key} onClick={() => setTab(t.key)} className={cn("min-h-11 rounded-md px-3 text-sm font-semibold", tab === t.key ? "bg-ink text-chalk" : "bg-white text-ink")}>

@@ -11,6 +11,7 @@ import { ApiError } from "@/lib/api-client";
 import { useCharacterSchedule, useCharacters, useCreateCharacter, useCreatePerformer, usePerformers, useUpdatePerformer } from "@/features/breakdown/api/breakdown";
 import { StateBadges } from "@/features/breakdown/components/scene-page";
 import type { CharacterSceneDto } from "@shared/schemas/cast";
+import { scheduleLabels } from "@shared/domain/schedule-labels";
 import { formatDate } from "@shared/format";
 
 /** Cast screen: characters with performers and doubles, performer records, character pages. */
@@ -125,11 +126,12 @@ function NewPerformerForm({ productionId }: { productionId: string }) {
 }
 
 function SceneList({ rows, productionId, showDay, label }: { rows: Array<CharacterSceneDto & { shootDay?: { dayNumber: number; date: string } }>; productionId: string; showDay?: boolean; label: string }) {
+  const { production } = useCurrentProduction();
   return (
     <table className="w-full text-left text-sm" aria-label={label}>
       <thead>
         <tr className="border-b border-chalk-200">
-          {showDay && <th className="py-1 pr-2">Shoot day</th>}
+          {showDay && <th className="py-1 pr-2">{scheduleLabels(production).Day}</th>}
           <th className="py-1 pr-2">Scene</th>
           <th className="py-1 pr-2">Story day</th>
           <th className="py-1 pr-2">Change</th>
@@ -139,7 +141,7 @@ function SceneList({ rows, productionId, showDay, label }: { rows: Array<Charact
       <tbody>
         {rows.map((r, i) => (
           <tr key={`${r.appearanceId}-${i}`} className="border-b border-chalk-100">
-            {showDay && <td className="py-1 pr-2">{r.shootDay ? `Day ${r.shootDay.dayNumber} · ${formatDate(r.shootDay.date)}` : ""}</td>}
+            {showDay && <td className="py-1 pr-2">{r.shootDay ? `${scheduleLabels(production).numbered(r.shootDay.dayNumber)} · ${formatDate(r.shootDay.date)}` : ""}</td>}
             <td className="py-1 pr-2"><Link to={`/p/${productionId}/breakdown/scenes/${r.sceneId}`}>{r.sceneNumber}</Link></td>
             <td className="pr-2">{r.storyDay ?? "—"}</td>
             <td className="pr-2">{r.change ? r.change.number : "—"}</td>

@@ -20,6 +20,7 @@ import { enqueue } from "@/lib/offline/queue";
 import { queueRunner } from "@/lib/offline/runner";
 import { reducePhoto } from "@/lib/offline/reduce-photo";
 import { newClientId } from "@/lib/offline/client-id";
+import { scheduleLabels } from "@shared/domain/schedule-labels";
 
 /** Continuity screen: capture on set, a character's timeline, two scenes side by side. */
 export default function ContinuityScreen() {
@@ -41,7 +42,7 @@ function ContinuityHome() {
   const [dayId, setDayId] = useState("");
   const [sceneId, setSceneId] = useState("");
   const [characterId, setCharacterId] = useState("");
-  const stage = production?.kind === "stage";
+  const words = scheduleLabels(production);
 
   // Default to today's shoot day, else the next one, else the last.
   useEffect(() => {
@@ -60,13 +61,13 @@ function ContinuityHome() {
           {days.isPending ? (
             <Spinner />
           ) : !days.data?.length ? (
-            <EmptyState title={stage ? "No performances yet" : "No shoot days yet"} />
+            <EmptyState title={words.none} />
           ) : (
-            <SelectField label={stage ? "Performance" : "Shoot day"} value={dayId} onChange={(e) => { setDayId(e.target.value); setSceneId(""); setCharacterId(""); }}>
+            <SelectField label={words.Day} value={dayId} onChange={(e) => { setDayId(e.target.value); setSceneId(""); setCharacterId(""); }}>
               {days.data.map((d) => (
                 <option key={d.id} value={d.id}>
                   {d.date === today ? "Today · " : ""}
-                  {d.kind === "performance" ? `Performance ${d.dayNumber}` : `Day ${d.dayNumber}`} · {formatDate(d.date)}
+                  {scheduleLabels(d.kind === "performance" ? "stage" : "film").numbered(d.dayNumber)} · {formatDate(d.date)}
                   {d.startsAt ? ` ${formatClockTime(d.startsAt)}` : ""}
                 </option>
               ))}
@@ -230,36 +231,83 @@ function CaptureForm({ productionId, shootDayId, sceneId, characterId, label, on
 
 type TimelineScene = ContinuityTimelineDto["scenes"][number];
 
+/** Two scenes side by side, as a modal over the timeline (it opens in view, and Close returns to the same place). */
+function CompareDialog({ open, scenes, onClose }: { open: boolean; scenes: TimelineScene[]; onClose: () => void }) {
+  const ref = useRef<HTMLDialogElement>(null);
+  useEffect(() => {
+    const d = ref.current;
+    if (!d) return;
+    if (open && !d.open) d.showModal?.();
+    if (!open && d.open) d.close();
+  }, [open]);
+  return (
+    <dialog
+      ref={ref}
+      onCancel={(e) => {
+        e.preventDefault();
+        onClose();
+      }}
+      aria-labelledby="compare-title"
+      className="m-auto max-h-[92dvh] w-[min(64rem,96vw)] overflow-y-auto rounded-lg border border-chalk-200 bg-white p-4 shadow-xl backdrop:bg-ink-900/40"
+    >
+      <div className="mb-2 flex items-center justify-between gap-2">
+        <h2 id="compare-title" className="font-semibold text-ink">
+          Side by side
+        </h2>
+        <Button variant="secondary" onClick={onClose} autoFocus>
+          Close
+        </Button>
+      </div>
+      <div className="grid grid-cols-2 gap-3" aria-label="Compare scenes">
+        {scenes.map((s) => (
+          <div key={s.sceneId} className="grid min-w-0 content-start gap-1">
+            <p className="font-semibold">
+              Scene {s.number} · story day {s.storyDay ?? "—"} · change {s.change?.number ?? "—"}
+            </p>
+            {s.entries.flatMap((e) => e.photos).length ? (
+              s.entries.flatMap((e) => e.photos).map((p) => <img key={p.id} src={p.urls.display} alt={`Scene ${s.number}, ${viewLabels[p.view].toLowerCase()}`} className="w-full rounded" />)
+            ) : (
+              <p className="text-sm text-slate">No photos.</p>
+            )}
+            {s.entries.map((e) => e.notes && <p key={e.id} className="text-sm">{e.notes}</p>)}
+          </div>
+        ))}
+      </div>
+    </dialog>
+  );
+}
+
 function TimelineRoute() {
   const { characterId = "" } = useParams();
   const { productionId, production } = useCurrentProduction();
   const timeline = useContinuityTimeline(productionId, characterId);
   const [compare, setCompare] = useState<string[]>([]);
+  const [showing, setShowing] = useState(false);
   const scenes = timeline.data?.scenes ?? [];
   const picked = useMemo(() => compare.map((id) => scenes.find((s) => s.sceneId === id)).filter((s): s is TimelineScene => Boolean(s)), [compare, scenes]);
   if (timeline.isPending) return <Spinner />;
   if (timeline.error) return <ErrorAlert error={timeline.error} />;
-  const toggle = (id: string) => setCompare((c) => (c.includes(id) ? c.filter((x) => x !== id) : [...c, id].slice(-2)));
+  const toggle = (id: string) => {
+    const next = compare.includes(id) ? compare.filter((x) => x !== id) : [...compare, id].slice(-2);
+    setCompare(next);
+    // The second pick opens the comparison over the page, where the person is scrolled to.
+    if (next.length === 2 && !compare.includes(id)) setShowing(true);
+  };
   return (
-    <div className="grid gap-4">
+    <div className="grid grid-cols-1 gap-4">
       <PageHeader title={`${timeline.data.character.name}: continuity`} subtitle={<Link to={`/p/${productionId}/continuity`}>← Continuity</Link>} />
-      {picked.length === 2 && (
-        <Card>
-          <h2 className="mb-2 font-semibold text-ink">Side by side</h2>
-          <div className="grid grid-cols-2 gap-3" aria-label="Compare scenes">
-            {picked.map((s) => (
-              <div key={s.sceneId} className="grid content-start gap-1">
-                <p className="font-semibold">Scene {s.number} · story day {s.storyDay ?? "—"} · change {s.change?.number ?? "—"}</p>
-                {s.entries.flatMap((e) => e.photos).length ? (
-                  s.entries.flatMap((e) => e.photos).map((p) => <img key={p.id} src={p.urls.display} alt={`Scene ${s.number}, ${viewLabels[p.view].toLowerCase()}`} className="w-full rounded" />)
-                ) : (
-                  <p className="text-sm text-slate">No photos.</p>
-                )}
-                {s.entries.map((e) => e.notes && <p key={e.id} className="text-sm">{e.notes}</p>)}
-              </div>
-            ))}
-          </div>
-        </Card>
+      <CompareDialog open={showing && picked.length === 2} scenes={picked} onClose={() => setShowing(false)} />
+      {picked.length === 2 && !showing && (
+        // Stays at the bottom of the screen, wherever the timeline is scrolled to.
+        <div className="fixed inset-x-0 bottom-0 z-10 flex flex-wrap items-center justify-center gap-2 border-t border-chalk-200 bg-white/95 px-3 py-2 shadow-lg" role="region" aria-label="Scenes to compare">
+          <span className="text-sm text-ink-900">
+            Scenes {picked[0]!.number} and {picked[1]!.number}
+          </span>
+          <Button onClick={() => setShowing(true)}>Side by side</Button>
+          <Button variant="secondary" onClick={() => setCompare([])}>
+            Clear
+          </Button>
+        </div>
       )}
       <ol className="grid gap-3" aria-label={production?.kind === "stage" ? "Running order" : "Story order"}>
         {scenes.map((s) => (

@@ -41,8 +41,8 @@ function DoublesWorkspace() {
   const change = changes.data.find((c) => c.id === changeId) ?? changes.data[0]!;
   const set = (k: string, v: string) => setParams((p) => { p.set(k, v); return p; });
   return (
-    <div className="grid gap-4">
-      <Card className="grid gap-3 sm:grid-cols-[minmax(0,24rem)_1fr] sm:items-end">
+    <div className="grid grid-cols-1 gap-4">
+      <Card className="grid grid-cols-1 gap-3 sm:grid-cols-[minmax(0,24rem)_1fr] sm:items-end">
         <SelectField label="Character and change" value={change.id} onChange={(e) => set("change", e.target.value)}>
           {changes.data.map((c) => (
             <option key={c.id} value={c.id}>{c.characterName}: change {c.number}{c.description ? ` (${c.description.slice(0, 40)})` : ""}</option>
@@ -118,7 +118,8 @@ export default function DoublesPage() {
       <Route
         path="*"
         element={
-          <div className="grid gap-4">
+          // grid-cols-1 (minmax(0, 1fr)): panels, tables and canvases scroll inside their cards on a phone.
+          <div className="grid grid-cols-1 gap-4">
             <PageHeader title="Digital doubles" subtitle={vfx ? "Handoff packets published to you" : `Pattern panels, seams, yardage, fabric physics and handoff packets${production ? ` for ${production.title}` : ""}`} />
             {vfx ? <VfxPacketsRoute /> : <DoublesWorkspace />}
           </div>

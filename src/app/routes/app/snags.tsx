@@ -7,6 +7,7 @@ import { SnagsList, type SnagFilters } from "@/features/snags/components/snags-l
 import { MultiplesPlan } from "@/features/snags/components/multiples-plan";
 import { PageHeader } from "@/components/ui/page";
 import { ErrorAlert, Spinner } from "@/components/ui/feedback";
+import { scheduleLabels } from "@shared/domain/schedule-labels";
 
 /** Filters live in the URL so a filtered list can be shared. */
 function useFilters(): [SnagFilters, (f: SnagFilters) => void] {
@@ -30,7 +31,7 @@ function useFilters(): [SnagFilters, (f: SnagFilters) => void] {
 }
 
 function SnagsOverview() {
-  const { productionId, can } = useCurrentProduction();
+  const { productionId, production, can } = useCurrentProduction();
   const [filters, setFilters] = useFilters();
   const q = useSnags(productionId, {
     kind: filters.kind || undefined,
@@ -40,20 +41,21 @@ function SnagsOverview() {
   });
   return (
     <div>
-      <PageHeader title="Snags" subtitle="Conflicts in fit, continuity, multiples, bookings, rentals and quick changes, each with the numbers behind it." />
+      <PageHeader title="Snags" subtitle="Conflicts in fit, continuity, multiples, bookings, rentals, check-outs, quick changes and the workroom, each with the numbers behind it." />
       {q.isPending ? (
         <Spinner />
       ) : q.error ? (
         <ErrorAlert error={q.error} title="Snags could not be computed" />
       ) : (
-        <SnagsList productionId={productionId} data={q.data} filters={filters} onFiltersChange={setFilters} canDismiss={can("snag.dismiss")} />
+        <SnagsList productionId={productionId} kind={production?.kind ?? "film"} data={q.data} filters={filters} onFiltersChange={setFilters} canDismiss={can("snag.dismiss")} />
       )}
     </div>
   );
 }
 
 function MultiplesPlanPage() {
-  const { productionId } = useCurrentProduction();
+  const { productionId, production } = useCurrentProduction();
+  const words = scheduleLabels(production);
   const { groupId = "" } = useParams();
   const q = useMultiplesPlan(productionId, groupId);
   const back = `/p/${productionId}/snags`;
@@ -61,14 +63,14 @@ function MultiplesPlanPage() {
     <div>
       <PageHeader
         title={q.data ? `Copy plan: ${q.data.groupName}` : "Copy plan"}
-        subtitle="Which copy of the group to use in which scene, in shoot order."
+        subtitle={`Which copy of the group to use in which scene, ${words.day === "performance" ? "in running order" : "in shoot order"}.`}
         actions={
           <Link to={back} className="text-sm font-semibold text-ink underline-offset-2 hover:underline">
             Back to snags
           </Link>
         }
       />
-      {q.isPending ? <Spinner /> : q.error ? <ErrorAlert error={q.error} /> : <MultiplesPlan productionId={productionId} plan={q.data} />}
+      {q.isPending ? <Spinner /> : q.error ? <ErrorAlert error={q.error} /> : <MultiplesPlan productionId={productionId} plan={q.data} kind={production?.kind ?? "film"} />}
     </div>
   );
 }

@@ -19,7 +19,8 @@ export default function TeamPage() {
   const members = useMembers(productionId);
   const invitations = useInvitations(productionId);
   return (
-    <div className="grid gap-4">
+    // grid-cols-1 is minmax(0, 1fr): wide tables scroll inside their cards instead of widening the page on a phone.
+    <div className="grid grid-cols-1 gap-4">
       <PageHeader title="Team" subtitle={production ? `Who works on ${production.title}, and in which role` : undefined} />
       <Card>
         <h2 className="mb-3 font-semibold text-ink">Members</h2>

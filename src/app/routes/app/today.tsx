@@ -8,19 +8,21 @@ import { Badge, EmptyState, ErrorAlert, Spinner } from "@/components/ui/feedback
 import { SnagsForDay } from "@/features/snags/components/snags-for-day";
 import { useShootDays } from "@/features/breakdown/api/breakdown";
 import { useFittings, useWorkroomPlan } from "@/features/workroom/api/workroom";
+import { scheduleLabels } from "@shared/domain/schedule-labels";
 
 /** The next shoot day (or performance) with its scenes. */
 function NextDay({ productionId, stage, today }: { productionId: string; stage: boolean; today: string }) {
   const days = useShootDays(productionId);
+  const words = scheduleLabels(stage ? "stage" : "film");
   if (days.isPending) return <Spinner />;
   if (days.error) return <ErrorAlert error={days.error} />;
   const kind = stage ? "performance" : "shoot";
   const next = days.data.filter((d) => d.kind === kind && d.date >= today).sort((a, b) => a.date.localeCompare(b.date) || a.dayNumber - b.dayNumber)[0];
-  if (!next) return <EmptyState title={stage ? "No performances ahead" : "No shoot days ahead"}>Add them on the Breakdown screen.</EmptyState>;
+  if (!next) return <EmptyState title={`No ${words.days} ahead`}>Add them on the Breakdown screen.</EmptyState>;
   return (
     <div>
       <p className="font-semibold text-ink-900">
-        {next.date === today ? "Today" : nice(next.date)} · {stage ? "performance" : `shoot day ${next.dayNumber}`}
+        {next.date === today ? "Today" : nice(next.date)} · {stage ? words.day : `${words.day} ${next.dayNumber}`}
         {next.startsAt ? ` · ${formatClockTime(next.startsAt)}` : ""}
       </p>
       {next.notes && <p className="text-sm text-slate">{next.notes}</p>}
@@ -96,13 +98,14 @@ export default function TodayPage() {
   const { production, productionId, can, today } = useCurrentProduction();
   if (!production) return <Spinner />;
   const stage = production.kind === "stage";
+  const words = scheduleLabels(production);
   return (
     <div className="grid gap-4">
       <PageHeader title="Today" subtitle={`${production.title} · ${nice(production.today)}`} />
       <div className="grid gap-4 lg:grid-cols-2">
         {can("breakdown.read") && (
           <Card>
-            <h2 className="mb-2 font-semibold text-ink">{stage ? "Next performance" : "Next shoot day"}</h2>
+            <h2 className="mb-2 font-semibold text-ink">{words.Next}</h2>
             <NextDay productionId={productionId} stage={stage} today={today} />
             {can("report.rack") && (
               <Link to={`/p/${productionId}/reports/rack`} className="mt-3 inline-flex min-h-11 items-center rounded-md border border-ink-100 bg-white px-3 text-sm font-semibold text-ink hover:bg-ink-50">
@@ -111,7 +114,7 @@ export default function TodayPage() {
             )}
           </Card>
         )}
-        {can("snag.read") && <SnagsForDay productionId={productionId} />}
+        {can("snag.read") && <SnagsForDay productionId={productionId} kind={production.kind} />}
         {can("fitting.read") && (
           <Card>
             <h2 className="mb-2 font-semibold text-ink">Fittings</h2>

@@ -10,6 +10,7 @@ import { GarmentsTable } from "@/features/wardrobe/components/garments-table";
 import { GarmentDetail } from "@/features/wardrobe/components/garment-detail";
 import { GarmentForm } from "@/features/wardrobe/components/garment-form";
 import { CheckInOut } from "@/features/wardrobe/components/check-in-out";
+import { LabelPositionSelect } from "@/features/wardrobe/components/label-position";
 import { garmentFileUrls, useCreateGarment, useFabricOptions, useGarment, useGarmentFilterOptions } from "@/features/wardrobe/api/garments";
 import { OwnerPhotos } from "@/components/photos";
 
@@ -67,6 +68,7 @@ function GarmentPage() {
           productionId={productionId}
           garment={garment.data}
           unit={production.units}
+          kind={production.kind}
           canUpdate={can("garment.update")}
           canMove={can("garment.move")}
           canReadFabrics={can("fabric.read")}
@@ -105,6 +107,7 @@ function TagSheetPage() {
   const options = useGarmentFilterOptions(productionId);
   const [rack, setRack] = useState("");
   const [category, setCategory] = useState("");
+  const [start, setStart] = useState(1);
   return (
     <div>
       <PageHeader title="Tag sheet" subtitle={<Link to=".." relative="path" className="underline">Back to the wardrobe</Link>} />
@@ -125,7 +128,9 @@ function TagSheetPage() {
             <option key={c}>{c}</option>
           ))}
         </SelectField>
-        <a className="rounded-md bg-ink px-3 py-2 text-center text-sm font-semibold text-chalk hover:bg-ink-700" target="_blank" rel="noreferrer" href={garmentFileUrls.labels(productionId, { rack: rack || undefined, category: category || undefined })}>
+        <LabelPositionSelect value={start} onChange={setStart} />
+        <p className="-mt-2 text-xs text-slate">On a partly used sheet, choose the first free label; the rest of the sheet fills from there and further sheets start at the top left.</p>
+        <a className="rounded-md bg-ink px-3 py-2 text-center text-sm font-semibold text-chalk hover:bg-ink-700" target="_blank" rel="noreferrer" href={garmentFileUrls.labels(productionId, { rack: rack || undefined, category: category || undefined }, start)}>
           Open label sheet (PDF)
         </a>
       </Card>
@@ -134,7 +139,7 @@ function TagSheetPage() {
 }
 
 function ScanPage() {
-  const { productionId } = useCurrentProduction();
+  const { productionId, production } = useCurrentProduction();
   // A rack-list QR code opens this page with ?tag=…&to=on_set.
   const [params] = useSearchParams();
   const to = params.get("to");
@@ -142,7 +147,7 @@ function ScanPage() {
   return (
     <div>
       <PageHeader title="Check in / out" subtitle={<Link to=".." relative="path" className="underline">Back to the wardrobe</Link>} />
-      <CheckInOut key={params.toString()} productionId={productionId} initialTag={params.get("tag")?.slice(0, 20) || undefined} initialStatus={initialStatus} />
+      <CheckInOut key={params.toString()} productionId={productionId} kind={production?.kind ?? "film"} initialTag={params.get("tag")?.slice(0, 20) || undefined} initialStatus={initialStatus} />
     </div>
   );
 }

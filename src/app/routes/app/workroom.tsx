@@ -9,6 +9,7 @@ import { Card } from "@/components/ui/card";
 import { Button } from "@/components/ui/button";
 import { Badge, ErrorAlert, Spinner } from "@/components/ui/feedback";
 import { cn } from "@/utils/cn";
+import { scheduleLabels } from "@shared/domain/schedule-labels";
 import { useCapacity, useEmailJobs, useFitting, useFittings, useWorkroomOptions, useWorkroomPlan } from "@/features/workroom/api/workroom";
 import { FittingsList } from "@/features/workroom/components/fittings-list";
 import { FittingForm } from "@/features/workroom/components/fitting-form";
@@ -54,7 +55,7 @@ function Overview() {
     <div className="grid gap-4">
       <PageHeader
         title="Workroom"
-        subtitle="What must be finished before which shoot day, who does it, and what will be late"
+        subtitle={`What must be finished before which ${scheduleLabels(production).day}, who does it, and what will be late`}
         actions={
           can("fitting.update") && (
             <Button size="lg" onClick={() => setBooking(true)}>
@@ -118,7 +119,7 @@ function Overview() {
 
       {tab === "tickets" && (
         <Card>
-          {plan.isPending ? <Spinner /> : plan.error ? <ErrorAlert error={plan.error} /> : <TicketsTable productionId={productionId} tickets={plan.data.tickets} units={units} canUpdate={can("alteration.update")} canEstimate={can("alteration.estimate")} />}
+          {plan.isPending ? <Spinner /> : plan.error ? <ErrorAlert error={plan.error} /> : <TicketsTable productionId={productionId} tickets={plan.data.tickets} units={units} canUpdate={can("alteration.update")} canEstimate={can("alteration.estimate")} focusTicketId={params.get("ticket")} />}
         </Card>
       )}
 

@@ -3,7 +3,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { formResolver } from "@/lib/form-errors";
 import { Link, Navigate, useNavigate, useSearchParams } from "react-router";
 import { loginInputSchema, type LoginInput } from "@shared/schemas/auth";
-import { useLogin, useMe } from "@/features/auth/api/auth";
+import { isAuthPath, useLogin, useMe } from "@/features/auth/api/auth";
 import { AuthLayout } from "@/components/layouts/auth-layout";
 import { InputField } from "@/components/ui/field";
 import { Button } from "@/components/ui/button";
@@ -12,7 +12,9 @@ import { paths } from "@/config/paths";
 
 export default function LoginPage() {
   const [params] = useSearchParams();
-  const redirectTo = params.get("redirectTo");
+  const asked = params.get("redirectTo");
+  // Only a page of the app is a place to return to (not another sign-in page, not another site).
+  const redirectTo = asked && asked.startsWith("/") && !asked.startsWith("//") && !isAuthPath(asked.split("?")[0]!) ? asked : null;
   const navigate = useNavigate();
   const me = useMe();
   const login = useLogin();

@@ -5,6 +5,7 @@ import { ApiError } from "@/lib/api-client";
 import { isOfflineCopy } from "@/lib/offline/fallback";
 import { forgetAccount, rememberAccount } from "@/lib/offline/store";
 import { queueRunner } from "@/lib/offline/runner";
+import { paths } from "@/config/paths";
 
 // A sign-out made without a signal cleared this device at once; the server's session ends when the
 // connection is back (before anything else is asked).
@@ -71,7 +72,6 @@ export function useLogin() {
  * first when records wait), its offline packs and saved thumbnails.
  */
 export function useLogout() {
-  const qc = useQueryClient();
   return useMutation({
     mutationFn: async (userId: string | undefined) => {
       try {
@@ -86,10 +86,14 @@ export function useLogout() {
     },
     onSettled: () => {
       resetCsrfToken();
-      qc.clear();
-      qc.setQueryData(["me"], null);
+      window.location.replace(paths.auth.login.getHref());
     },
   });
+}
+
+/** Whether a pathname is one of the sign-in pages (never a place to return to after signing in). */
+export function isAuthPath(pathname: string): boolean {
+  return pathname === paths.auth.login.path || pathname === paths.auth.forgot.path || pathname.startsWith("/reset-password/") || pathname.startsWith("/invitations/");
 }
 
 export function useRequestPasswordReset() {

@@ -18,6 +18,7 @@ import type { CharacterDto } from "@shared/schemas/cast";
 import { compareSceneNumbers, formatEighths } from "@shared/domain/breakdown";
 import { controlClass } from "@/components/ui/field";
 import { cn } from "@/utils/cn";
+import { scheduleLabels } from "@shared/domain/schedule-labels";
 import { SortHeader } from "@/components/ui/table";
 import { formatDate } from "@shared/format";
 
@@ -49,7 +50,7 @@ function buildColumns(stage: boolean, sceneHref: (id: string) => string) {
       : col.accessor("lengthEighths", { header: "Pages", cell: (c) => (c.getValue() == null ? "" : formatEighths(c.getValue()!)), size: 70 }),
     col.accessor((r) => r.shootDays.map((d) => d.dayNumber).join(", "), {
       id: "shootDays",
-      header: stage ? "Performances" : "Shoot day",
+      header: stage ? scheduleLabels("stage").Days : scheduleLabels("film").Day,
       filterFn: hasShootDay,
       sortingFn: (a, b) => (a.original.shootDays[0]?.dayNumber ?? 1e9) - (b.original.shootDays[0]?.dayNumber ?? 1e9),
       size: 90,
@@ -105,7 +106,7 @@ export function BreakdownTable({ scenes, shootDays, characters, stage, sceneHref
           </select>
         </label>
         <label className="grid gap-1 text-sm font-semibold text-ink-900">
-          {stage ? "Performance" : "Shoot day"}
+          {scheduleLabels(stage ? "stage" : "film").Day}
           <select className={controlClass} value={filterValue("shootDays")} onChange={(e) => setFilter("shootDays", e.target.value)} disabled={stage}>
             <option value="">All</option>
             {shootDays.filter((d) => d.kind === "shoot").map((d) => (

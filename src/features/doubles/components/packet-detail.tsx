@@ -44,7 +44,7 @@ export function PacketDetail({ productionId, packet, showRecipients }: { product
   const { dateTime } = useProductionTime();
   const when = (iso: string | null) => (iso ? dateTime(iso) : "—");
   return (
-    <div className="grid gap-4">
+    <div className="grid grid-cols-1 gap-4">
       <div className="flex flex-wrap items-center gap-3">
         <a className="inline-flex min-h-12 items-center rounded-md bg-ink px-5 py-3 font-semibold text-chalk hover:bg-ink-700" href={packetDownloadHref(productionId, packet.id)} download>
           {packet.status === "published" ? `Download version ${packet.version} (ZIP${packet.zipBytes ? `, ${formatNumber(packet.zipBytes / 1e6, 2)} MB` : ""})` : "Download a draft preview (ZIP)"}

@@ -44,7 +44,7 @@ export function PanelEditor({ productionId, garmentId, panel, fabrics, onDone }:
   };
 
   return (
-    <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]" aria-label="Panel editor">
+    <div className="grid grid-cols-1 gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]" aria-label="Panel editor">
       <div className="grid gap-3">
         <div className="grid grid-cols-2 gap-3">
           <InputField label="Piece name" value={d.name} onChange={(e) => set("name", e.target.value)} error={fieldError.name} />

@@ -24,7 +24,7 @@ export function PanelsTab({ productionId, change, canEdit }: { productionId: str
   const current = panels.data?.find((p) => p.id === selected) ?? panels.data?.[0] ?? null;
   if (!change.garments.length) return <EmptyState title="No garments in this change">Add change items on the Changes screen first.</EmptyState>;
   return (
-    <div className="grid gap-4">
+    <div className="grid grid-cols-1 gap-4">
       <div role="tablist" aria-label="Garments" className="flex flex-wrap gap-2">
         {change.garments.map((g) => (
           <Button key={g.id} role="tab" aria-selected={g.id === garmentId} variant={g.id === garmentId ? "primary" : "secondary"} size="sm" onClick={() => { setGarmentId(g.id); setSelected(null); setMode("view"); }}>
@@ -43,7 +43,7 @@ export function PanelsTab({ productionId, change, canEdit }: { productionId: str
           <DxfImport productionId={productionId} garmentId={garmentId} fabrics={fabrics.data ?? []} onDone={() => setMode("view")} />
         </Card>
       ) : (
-        <div className="grid gap-4 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+        <div className="grid grid-cols-1 gap-4 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
           <Card>
             <div className="mb-3 flex flex-wrap items-center justify-between gap-2">
               <h2 className="font-semibold text-ink">Panels of {garment?.name}</h2>

@@ -55,7 +55,7 @@ export function SeamsTab({ productionId, change, canEdit }: { productionId: stri
   );
 
   return (
-    <div className="grid gap-4">
+    <div className="grid grid-cols-1 gap-4">
       <Card>
         <h2 className="mb-3 font-semibold text-ink">Seams</h2>
         {seams.isPending ? <Spinner /> : seams.error ? <ErrorAlert error={seams.error} /> : seams.data.length === 0 ? (

@@ -77,7 +77,7 @@ export function YardageTab({ productionId, change, canEdit }: { productionId: st
 
   const shown = result ?? saved.data?.fabrics ?? null;
   return (
-    <div className="grid gap-4">
+    <div className="grid grid-cols-1 gap-4">
       <Card>
         <div className="grid gap-3 sm:grid-cols-[1fr_10rem_auto_auto] sm:items-end">
           <SelectField label="Lay out" value={scopeId} onChange={(e) => setScopeId(e.target.value)}>

@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
-import type { CreateFabricInput, CreateFabricTestInput, FabricDetailDto, FabricDto, FabricTestDto, UpdateFabricInput } from "@shared/schemas/fabrics";
+import type { CreateFabricInput, CreateFabricTestRequest, FabricDetailDto, FabricDto, FabricTestDto, UpdateFabricInput } from "@shared/schemas/fabrics";
 
 const base = (pid: string) => `/productions/${pid}/fabrics`;
 
@@ -30,7 +30,7 @@ export function useUpdateFabric(pid: string, id: string) {
 export function useAddFabricTest(pid: string, id: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (input: CreateFabricTestInput) => api.post<FabricTestDto>(`${base(pid)}/${id}/tests`, input),
+    mutationFn: (input: CreateFabricTestRequest) => api.post<FabricTestDto>(`${base(pid)}/${id}/tests`, input),
     onSuccess: () => qc.invalidateQueries({ queryKey: ["fabrics", pid] }),
   });
 }

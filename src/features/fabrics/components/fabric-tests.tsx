@@ -1,11 +1,23 @@
 import { useState, type FormEvent } from "react";
-import type { FabricDetailDto, FabricTestDto, FabricTestKind, SimValueDto } from "@shared/schemas/fabrics";
+import {
+  colourfastnessAgentLabels,
+  colourfastnessAgents,
+  fabricCareTreatmentLabels,
+  fabricTestKinds,
+  type CreateFabricTestRequest,
+  type FabricDetailDto,
+  type FabricTestDto,
+  type FabricTestKind,
+  type SimValueDto,
+} from "@shared/schemas/fabrics";
+import { greyScaleGrades, greyScaleLabel } from "@shared/domain/fabric-care-tests";
 import { formatLength } from "@shared/domain/units";
 import { formatDate, formatNumber, formatSignificant } from "@shared/format";
 import { Button } from "@/components/ui/button";
-import { ErrorAlert } from "@/components/ui/feedback";
+import { ErrorAlert, SafetyNote } from "@/components/ui/feedback";
 import { ConfirmDialog } from "@/components/ui/dialog";
 import { InputField, SelectField } from "@/components/ui/field";
+import { OwnerPhotos } from "@/components/photos";
 import { ApiError } from "@/lib/api-client";
 import { useAddFabricTest, useDeleteFabricTest } from "../api/fabrics";
 
@@ -25,8 +37,19 @@ function readingsText(t: FabricTestDto): string {
       return `${t.direction} ${num(r.loadN)} N at ${num(r.extensionMm)} mm on ${num(r.stripWidthMm)} × ${num(r.gaugeLengthMm)} mm`;
     case "thickness":
       return `${num(r.thicknessMm)} mm`;
+    case "shrinkage": {
+      const pairs = (xs: Array<{ beforeMm: number; afterMm: number }>) => xs.map((p) => `${num(p.beforeMm)} → ${num(p.afterMm)}`).join(", ");
+      return `${fabricCareTreatmentLabels[r.treatment]}${r.cycles > 1 ? ` × ${r.cycles}` : ""}${r.procedure ? ` (${r.procedure})` : ""}: length ${pairs(r.length)} mm; width ${pairs(r.width)} mm`;
+    }
+    case "colourfastness":
+      return `${colourfastnessAgentLabels[r.agent]}${r.procedure ? `, ${r.procedure}` : ""}${r.adjacent ? `; staining read on ${r.adjacent}` : ""}`;
+    case "flame_retardancy":
+      return `${r.treatment}, treated ${formatDate(r.treatedOn)}${r.standard ? ` · ${r.standard}` : ""}${r.certificateRef ? ` · certificate ${r.certificateRef}` : ""}${r.renewBy ? ` · renew by ${formatDate(r.renewBy)}` : ""}`;
   }
 }
+
+/** A signed per cent as people write it: "−2.9 %" (shrinks) or "+0.6 %" (grows). */
+const pct = (x: number) => `${x > 0 ? "+" : x < 0 ? "−" : ""}${formatNumber(Math.abs(x), 1)} %`;
 
 function derivedText(t: FabricTestDto): string {
   const d = t.derived;
@@ -44,6 +67,14 @@ function derivedText(t: FabricTestDto): string {
       return d.tensileStiffnessNPerM === undefined ? "—" : `k = ${sig(d.tensileStiffnessNPerM)} N/m (strain ${num(d.strain! * 100)} %, ${sig(d.forcePerWidthNPerM!)} N/m load per width)`;
     case "thickness":
       return d.thicknessM === undefined ? "—" : `${sig(d.thicknessM)} m`;
+    case "shrinkage":
+      return d.lengthChangePct === undefined
+        ? "—"
+        : `length ${pct(d.lengthChangePct)}, width ${pct(d.widthChangePct!)} (negative shrinks); to end at size, cut length × ${num(d.lengthCutFactor!)}, width × ${num(d.widthCutFactor!)}`;
+    case "colourfastness":
+      return d.changeLabel === undefined ? "—" : `change ${d.changeLabel}${d.changeDeltaE !== undefined ? ` (the scale's pair is ΔE*ab ${num(d.changeDeltaE)} ± ${num(d.changeDeltaETolerance!)})` : ""}${d.stainingLabel ? `, staining ${d.stainingLabel}` : ""}; grey scale, 5 = none`;
+    case "flame_retardancy":
+      return "Record of treatment; the certificate photo is with the test";
   }
 }
 
@@ -52,7 +83,14 @@ const kindLabels: Record<FabricTestKind, string> = {
   cantilever: "Cantilever bending (ASTM D1388)",
   strip: "Strip stretch",
   thickness: "Thickness",
+  shrinkage: "Shrinkage after washing or dry-cleaning (ISO 5077)",
+  colourfastness: "Colour fastness (ISO 105 grey scales)",
+  flame_retardancy: "Flame-retardancy treatment",
 };
+
+/** Said wherever a flame-retardancy record is entered or shown. */
+const FLAME_CAUTION =
+  "This records a treatment and its certificate; the app does not judge whether cloth is safe on stage. Local fire codes, the venue and its fire officer decide what is acceptable and how it is tested. Many treatments wash or clean out: re-treat and re-test as the product and the venue require.";
 
 /** A fabric's tests: raw readings beside derived values, a form to record one, and the SI simulation values. */
 export function FabricTests({ productionId, fabric, canUpdate, today }: { productionId: string; fabric: FabricDetailDto; canUpdate: boolean; today: string }) {
@@ -60,23 +98,51 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
   const del = useDeleteFabricTest(productionId, fabric.id);
   const [kind, setKind] = useState<FabricTestKind>("mass");
   const [deleting, setDeleting] = useState<FabricTestDto | null>(null);
+  const [photosFor, setPhotosFor] = useState<string | null>(null);
   const fields = add.error instanceof ApiError ? add.error.fields : {};
   const f = (k: string) => fields[`readings.${k}`];
+  const photosTest = fabric.tests.find((t) => t.id === photosFor);
 
   const submit = (e: FormEvent<HTMLFormElement>) => {
     e.preventDefault();
     const form = e.currentTarget;
     const fd = new FormData(form);
-    const n = (k: string) => Number(String(fd.get(k) ?? "").replace(",", "."));
-    const readings =
+    const str = (k: string) => String(fd.get(k) ?? "").trim();
+    const n = (k: string) => Number(str(k).replace(",", "."));
+    // Up to three pairs of marks per direction; a pair with no "after" reading is left out.
+    const pairs = (dir: "length" | "width") =>
+      [1, 2, 3].filter((i) => str(`${dir}After${i}`) !== "").map((i) => ({ beforeMm: n(`${dir}Before`), afterMm: n(`${dir}After${i}`) }));
+    const readings: CreateFabricTestRequest["readings"] =
       kind === "mass"
         ? { kind, massG: n("massG"), lengthMm: n("lengthMm"), widthMm: n("widthMm") }
         : kind === "cantilever"
-          ? { kind, direction: String(fd.get("direction")) as "warp" | "weft", overhangMm: n("overhangMm"), angleDeg: n("angleDeg") }
+          ? { kind, direction: str("direction") as "warp" | "weft", overhangMm: n("overhangMm"), angleDeg: n("angleDeg") }
           : kind === "strip"
-            ? { kind, direction: String(fd.get("direction")) as "warp" | "weft", loadN: n("loadN"), stripWidthMm: n("stripWidthMm"), gaugeLengthMm: n("gaugeLengthMm"), extensionMm: n("extensionMm") }
-            : { kind, thicknessMm: n("thicknessMm") };
-    add.mutate({ testedOn: String(fd.get("testedOn")), readings, notes: String(fd.get("notes") ?? "") || null }, { onSuccess: () => form.reset() });
+            ? { kind, direction: str("direction") as "warp" | "weft", loadN: n("loadN"), stripWidthMm: n("stripWidthMm"), gaugeLengthMm: n("gaugeLengthMm"), extensionMm: n("extensionMm") }
+            : kind === "shrinkage"
+              ? { kind, treatment: str("treatment") as "washing" | "dry_cleaning", procedure: str("procedure") || null, cycles: n("cycles"), length: pairs("length"), width: pairs("width") }
+              : kind === "colourfastness"
+                ? {
+                    kind,
+                    agent: str("agent") as (typeof colourfastnessAgents)[number],
+                    procedure: str("procedure") || null,
+                    changeGrade: n("changeGrade"),
+                    stainingGrade: str("stainingGrade") ? n("stainingGrade") : null,
+                    adjacent: str("adjacent") || null,
+                  }
+                : kind === "flame_retardancy"
+                  ? { kind, treatment: str("treatment"), treatedOn: str("treatedOn"), standard: str("standard") || null, certificateRef: str("certificateRef") || null, renewBy: str("renewBy") || null }
+                  : { kind, thicknessMm: n("thicknessMm") };
+    add.mutate(
+      { testedOn: str("testedOn"), readings, notes: str("notes") || null },
+      {
+        onSuccess: (t) => {
+          form.reset();
+          // A flame-retardancy record wants its certificate next: open its photos.
+          if (t.kind === "flame_retardancy") setPhotosFor(t.id);
+        },
+      },
+    );
   };
 
   const simRow = (label: string, v: SimValueDto) => (
@@ -106,7 +172,7 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
                   <th className="px-2 py-1">Readings</th>
                   <th className="px-2 py-1">Derived</th>
                   <th className="px-2 py-1">By</th>
-                  {canUpdate && <th className="px-2 py-1"><span className="sr-only">Actions</span></th>}
+                  <th className="px-2 py-1"><span className="sr-only">Photos and actions</span></th>
                 </tr>
               </thead>
               <tbody>
@@ -117,17 +183,34 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
                     <td className="px-2 py-1">{readingsText(t)}</td>
                     <td className="px-2 py-1">{derivedText(t)}</td>
                     <td className="px-2 py-1">{t.testedByName ?? "—"}</td>
-                    {canUpdate && (
-                      <td className="px-2 py-1">
-                        <Button size="sm" variant="ghost" onClick={() => setDeleting(t)} aria-label={`Delete ${t.kind} test of ${formatDate(t.testedOn)}`}>
-                          Delete
+                    <td className="px-2 py-1">
+                      <span className="flex gap-1">
+                        <Button size="sm" variant="ghost" onClick={() => setPhotosFor(photosFor === t.id ? null : t.id)} aria-label={`Photos of the ${t.kind.replace(/_/g, " ")} test of ${formatDate(t.testedOn)}`}>
+                          {t.kind === "flame_retardancy" ? "Certificate" : "Photos"}
                         </Button>
-                      </td>
-                    )}
+                        {canUpdate && (
+                          <Button size="sm" variant="ghost" onClick={() => setDeleting(t)} aria-label={`Delete ${t.kind.replace(/_/g, " ")} test of ${formatDate(t.testedOn)}`}>
+                            Delete
+                          </Button>
+                        )}
+                      </span>
+                    </td>
                   </tr>
                 ))}
               </tbody>
             </table>
+          </div>
+        )}
+        {photosTest && (
+          <div className="mt-3 grid gap-2 rounded-md border border-chalk-200 bg-chalk p-3">
+            {photosTest.kind === "flame_retardancy" && <SafetyNote>{FLAME_CAUTION}</SafetyNote>}
+            <OwnerPhotos
+              productionId={productionId}
+              ownerType="fabric_test"
+              ownerId={photosTest.id}
+              canEdit={canUpdate}
+              title={photosTest.kind === "flame_retardancy" ? `Certificate: ${readingsText(photosTest)}` : `${kindLabels[photosTest.kind]}, ${formatDate(photosTest.testedOn)}`}
+            />
           </div>
         )}
       </section>
@@ -137,7 +220,7 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
           <h3 className="mb-2 font-semibold text-ink">Record a test</h3>
           <form onSubmit={submit} noValidate className="grid gap-3 sm:grid-cols-3 lg:grid-cols-6" aria-label="Record a test">
             <SelectField label="Test" value={kind} onChange={(e) => setKind(e.target.value as FabricTestKind)} className="sm:col-span-2">
-              {(Object.keys(kindLabels) as FabricTestKind[]).map((k) => (
+              {fabricTestKinds.map((k) => (
                 <option key={k} value={k}>
                   {kindLabels[k]}
                 </option>
@@ -172,6 +255,75 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
               </>
             )}
             {kind === "thickness" && <InputField label="Thickness (mm)" name="thicknessMm" inputMode="decimal" error={f("thicknessMm")} />}
+            {kind === "shrinkage" && (
+              <>
+                <p className="text-xs text-slate sm:col-span-3 lg:col-span-6">
+                  Mark the specimen and measure before and after, as ISO 3759 describes (a 500 × 500 mm specimen with marks 350 mm apart is usual); wash by an ISO 6330
+                  procedure or dry-clean by ISO 3175; the change is computed as ISO 5077 does: (after − before) ÷ before × 100, negative = shrinkage. Procedure codes from
+                  memory: write the one you ran.
+                </p>
+                <SelectField label="Treatment" name="treatment" defaultValue="washing" error={f("treatment")}>
+                  <option value="washing">{fabricCareTreatmentLabels.washing}</option>
+                  <option value="dry_cleaning">{fabricCareTreatmentLabels.dry_cleaning}</option>
+                </SelectField>
+                <InputField label="Procedure" name="procedure" placeholder="ISO 6330 4N, line dry" error={f("procedure")} />
+                <InputField label="Cycles" name="cycles" inputMode="numeric" defaultValue="1" error={f("cycles")} />
+                {(["length", "width"] as const).map((dir) => (
+                  <fieldset key={dir} className="grid grid-cols-2 gap-2 rounded-md border border-chalk-200 p-2 sm:col-span-3 sm:grid-cols-4">
+                    <legend className="px-1 text-sm font-semibold text-ink">{dir === "length" ? "Length (warp / wales)" : "Width (weft / courses)"}</legend>
+                    <InputField label="Marks before (mm)" name={`${dir}Before`} inputMode="decimal" defaultValue="350" error={f(`${dir}.0.beforeMm`)} />
+                    {[1, 2, 3].map((i) => (
+                      <InputField key={i} label={`After, pair ${i} (mm)`} name={`${dir}After${i}`} inputMode="decimal" error={i === 1 ? (f(dir) ?? f(`${dir}.0.afterMm`)) : f(`${dir}.${i - 1}.afterMm`)} />
+                    ))}
+                  </fieldset>
+                ))}
+              </>
+            )}
+            {kind === "colourfastness" && (
+              <>
+                <p className="text-xs text-slate sm:col-span-3 lg:col-span-6">
+                  Read the change in colour on the ISO 105-A02 grey scale and the staining of the adjacent fabric on the ISO 105-A03 grey scale: 5 is no change, 1 the most;
+                  half steps are written 4-5. The agent's ISO 105 part is named beside it (from memory).
+                </p>
+                <SelectField label="Agent" name="agent" defaultValue="washing" className="sm:col-span-2" error={f("agent")}>
+                  {colourfastnessAgents.map((a) => (
+                    <option key={a} value={a}>
+                      {colourfastnessAgentLabels[a]}
+                    </option>
+                  ))}
+                </SelectField>
+                <SelectField label="Change in colour (grade)" name="changeGrade" defaultValue="4" error={f("changeGrade")}>
+                  {[...greyScaleGrades].reverse().map((g) => (
+                    <option key={g} value={g}>
+                      {greyScaleLabel(g)}
+                    </option>
+                  ))}
+                </SelectField>
+                <SelectField label="Staining (grade)" name="stainingGrade" defaultValue="" error={f("stainingGrade")}>
+                  <option value="">Not read</option>
+                  {[...greyScaleGrades].reverse().map((g) => (
+                    <option key={g} value={g}>
+                      {greyScaleLabel(g)}
+                    </option>
+                  ))}
+                </SelectField>
+                <InputField label="Adjacent fabric" name="adjacent" placeholder="multifibre, wool strip" error={f("adjacent")} />
+                <InputField label="Procedure" name="procedure" placeholder="ISO 105-C06 A1S" error={f("procedure")} />
+              </>
+            )}
+            {kind === "flame_retardancy" && (
+              <>
+                <div className="sm:col-span-3 lg:col-span-6">
+                  <SafetyNote>{FLAME_CAUTION}</SafetyNote>
+                </div>
+                <InputField label="Treatment (product, applied by)" name="treatment" className="sm:col-span-2" error={f("treatment")} />
+                <InputField label="Treated on" name="treatedOn" type="date" defaultValue={today} error={f("treatedOn")} />
+                <InputField label="Standard or code on the certificate" name="standard" error={f("standard")} />
+                <InputField label="Certificate number" name="certificateRef" error={f("certificateRef")} />
+                <InputField label="Renew by" name="renewBy" type="date" error={f("renewBy")} hint="After this, re-treat or re-test." />
+                <p className="text-xs text-slate sm:col-span-3 lg:col-span-6">After saving, add the certificate as a photo (it opens below the tests).</p>
+              </>
+            )}
             <InputField label="Notes" name="notes" className="sm:col-span-2" />
             <div className="flex items-end">
               <Button type="submit" busy={add.isPending}>

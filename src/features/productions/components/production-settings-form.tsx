@@ -7,6 +7,7 @@ import { useUpdateProduction } from "../api/productions";
 import { InputField, SelectField } from "@/components/ui/field";
 import { Button } from "@/components/ui/button";
 import { ErrorAlert } from "@/components/ui/feedback";
+import { scheduleLabels } from "@shared/domain/schedule-labels";
 import { ApiError } from "@/lib/api-client";
 
 const num = (min: number, max: number) => z.union([z.literal(""), z.coerce.number().min(min, `at least ${min}`).max(max, `at most ${max}`)]);
@@ -78,7 +79,7 @@ export function ProductionSettingsForm({ production }: { production: ProductionD
         <option value="cm">Centimetres</option>
         <option value="in">Inches</option>
       </SelectField>
-      <InputField label="Workroom buffer (working days)" type="number" inputMode="numeric" {...form.register("bufferWorkingDays")} error={e.bufferWorkingDays?.message} hint="Finished alterations are due this many working days before the shoot day." />
+      <InputField label="Workroom buffer (working days)" type="number" inputMode="numeric" {...form.register("bufferWorkingDays")} error={e.bufferWorkingDays?.message} hint={`Finished alterations are due this many working days before the ${scheduleLabels(production).day}.`} />
       {production.kind === "stage" && (
         <InputField label="Quick change threshold (minutes)" type="number" step="0.5" {...form.register("quickChangeThresholdMin")} error={e.quickChangeThresholdMin?.message} />
       )}

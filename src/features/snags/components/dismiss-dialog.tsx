@@ -1,5 +1,5 @@
 import { useEffect, useRef, useState, type FormEvent } from "react";
-import { dismissSnagInputSchema, snagDismissalLimits } from "@shared/schemas/snags";
+import { dismissSnagInputSchema, snagDismissalLimits, type SnagDismissalDto } from "@shared/schemas/snags";
 import { Button } from "@/components/ui/button";
 import { TextareaField } from "@/components/ui/field";
 import { ErrorAlert } from "@/components/ui/feedback";
@@ -10,10 +10,12 @@ interface DismissDialogProps {
   productionId: string;
   snag: { key: string; title: string } | null;
   onClose: () => void;
+  /** Called with the saved dismissal (the list offers an inline Undo where the card was). */
+  onDismissed?: (dismissal: SnagDismissalDto) => void;
 }
 
 /** Asks why a snag is accepted; the reason is required (3–500 characters) and shown to everyone. */
-export function DismissDialog({ productionId, snag, onClose }: DismissDialogProps) {
+export function DismissDialog({ productionId, snag, onClose, onDismissed }: DismissDialogProps) {
   const ref = useRef<HTMLDialogElement>(null);
   const [reason, setReason] = useState("");
   const [fieldError, setFieldError] = useState<string | undefined>();
@@ -43,7 +45,10 @@ export function DismissDialog({ productionId, snag, onClose }: DismissDialogProp
     }
     setFieldError(undefined);
     dismiss.mutate(parsed.data, {
-      onSuccess: onClose,
+      onSuccess: (d) => {
+        onDismissed?.(d);
+        onClose();
+      },
       onError: (err) => {
         if (err instanceof ApiError && err.fields.reason) setFieldError(err.fields.reason);
       },

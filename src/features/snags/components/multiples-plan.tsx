@@ -1,14 +1,15 @@
 import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
-import { useState } from "react";
+import { useMemo, useState } from "react";
 import { Link } from "react-router";
 import type { MultiplesPlanDto, MultiplesUseDto } from "@shared/schemas/snags";
+import { scheduleLabels, type ScheduleKind } from "@shared/domain/schedule-labels";
 import { Badge } from "@/components/ui/feedback";
 import { SafetyNote } from "@/components/ui/feedback";
 import { formatDate } from "@shared/format";
 
 const col = createColumnHelper<MultiplesUseDto>();
-const columns = [
-  col.accessor((u) => u.date ?? "", { id: "date", header: "Shoot day", cell: (c) => (c.getValue() ? formatDate(c.getValue()) : "—") }),
+const columnsFor = (kind: ScheduleKind) => [
+  col.accessor((u) => u.date ?? "", { id: "date", header: scheduleLabels(kind).Day, cell: (c) => (c.getValue() ? formatDate(c.getValue()) : "—") }),
   col.accessor("sceneNumber", { header: "Scene" }),
   col.accessor("characterName", { header: "Character" }),
   col.accessor("stage", {
@@ -32,8 +33,9 @@ const columns = [
 ];
 
 /** A group's copy plan: a summary per copy, then every use in shoot order (sortable). */
-export function MultiplesPlan({ productionId, plan }: { productionId: string; plan: MultiplesPlanDto }) {
+export function MultiplesPlan({ productionId, plan, kind = "film" }: { productionId: string; plan: MultiplesPlanDto; kind?: ScheduleKind }) {
   const [sorting, setSorting] = useState<SortingState>([]);
+  const columns = useMemo(() => columnsFor(kind), [kind]);
   const table = useReactTable({ data: plan.uses, columns, state: { sorting }, onSortingChange: setSorting, getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel() });
   const short = plan.copiesNeeded > plan.copiesHeld;
   return (

@@ -63,7 +63,9 @@ export function SnagCard({ snag, canDismiss, onDismiss, onUndo, undoBusy, compac
     >
       <div className="flex flex-wrap items-center gap-1.5">
         <Badge tone={snag.severity}>{snag.severity}</Badge>
-        <Badge>{snagKindLabels[snag.kind]}</Badge>
+        {(snag.facts?.map((f) => f.kind) ?? [snag.kind]).map((k) => (
+          <Badge key={k}>{snagKindLabels[k]}</Badge>
+        ))}
         {snag.shootDays.slice(0, 3).map((d) => (
           <span key={d.id} className="text-xs text-slate">
             {formatDate(d.date)}
@@ -74,7 +76,22 @@ export function SnagCard({ snag, canDismiss, onDismiss, onUndo, undoBusy, compac
       <h3 id={titleId} className="mt-1 font-semibold text-ink-900">
         {snag.title}
       </h3>
-      {!compact && <p className="mt-1 text-sm text-ink-900">{snag.explanation}</p>}
+      {!compact &&
+        (snag.facts && snag.facts.length > 1 ? (
+          // One cause, several facts: each as its own rule stated it.
+          <ul className="mt-1 grid gap-1 text-sm text-ink-900" aria-label="What this concerns">
+            {snag.facts.map((f) => (
+              <li key={f.kind} className="flex gap-2">
+                <span className="shrink-0">
+                  <Badge>{snagKindLabels[f.kind]}</Badge>
+                </span>
+                <span>{f.explanation}</span>
+              </li>
+            ))}
+          </ul>
+        ) : (
+          <p className="mt-1 text-sm text-ink-900">{snag.explanation}</p>
+        ))}
       {!compact && (
         <details className="mt-2">
           <summary className="cursor-pointer text-xs font-semibold text-ink">The numbers</summary>

@@ -1,9 +1,11 @@
 import { useMemo, useState } from "react";
-import { snagKinds, snagKindLabels, snagSeverities, type SnagDto, type SnagListDto } from "@shared/schemas/snags";
+import { snagKinds, snagKindLabels, snagSeverities, type SnagDismissalDto, type SnagDto, type SnagListDto } from "@shared/schemas/snags";
+import { scheduleLabels, type ScheduleKind } from "@shared/domain/schedule-labels";
 import type { SnagKind } from "@shared/domain/snags/types";
 import { SelectField } from "@/components/ui/field";
 import { EmptyState, ErrorAlert } from "@/components/ui/feedback";
 import { Badge } from "@/components/ui/feedback";
+import { Button } from "@/components/ui/button";
 import { useUndoDismissal } from "../api/snags";
 import { DismissDialog } from "./dismiss-dialog";
 import { SnagCard } from "./snag-card";
@@ -11,29 +13,29 @@ import { formatDate } from "@shared/format";
 
 export type SnagGrouping = "severity" | "shootDay" | "character" | "kind";
 
-const groupingLabels: Record<SnagGrouping, string> = { severity: "Severity", shootDay: "Shoot day", character: "Character", kind: "Kind" };
+const groupingLabels = (kind: ScheduleKind): Record<SnagGrouping, string> => ({ severity: "Severity", shootDay: scheduleLabels(kind).Day, character: "Character", kind: "Kind" });
 const severityRank = { blocking: 0, warning: 1, note: 2 } as const;
 const NONE = "\uffff"; // sorts after every real key
 
 /** Group keys (and their headings) a snag falls under for a grouping; a snag may sit in several groups. */
-function groupsOf(s: SnagDto, by: SnagGrouping): { key: string; label: string }[] {
+function groupsOf(s: SnagDto, by: SnagGrouping, kind: ScheduleKind): { key: string; label: string }[] {
   switch (by) {
     case "severity":
       return [{ key: String(severityRank[s.severity]), label: s.severity }];
     case "kind":
       return [{ key: String(snagKinds.indexOf(s.kind)), label: snagKindLabels[s.kind] }];
     case "shootDay":
-      return s.shootDays.length ? s.shootDays.map((d) => ({ key: d.date, label: `Shoot day ${formatDate(d.date)}` })) : [{ key: NONE, label: "Not tied to one day" }];
+      return s.shootDays.length ? s.shootDays.map((d) => ({ key: d.date, label: `${scheduleLabels(kind).Day} ${formatDate(d.date)}` })) : [{ key: NONE, label: "Not tied to one day" }];
     case "character":
       return s.characters.length ? s.characters.map((c) => ({ key: c.name.toLowerCase(), label: c.name })) : [{ key: NONE, label: "No character" }];
   }
 }
 
 /** Groups snags, headings in order, snags inside by severity then title. Pure, for the list and tests. */
-export function groupSnags(snags: SnagDto[], by: SnagGrouping): { key: string; label: string; snags: SnagDto[] }[] {
+export function groupSnags(snags: SnagDto[], by: SnagGrouping, kind: ScheduleKind = "film"): { key: string; label: string; snags: SnagDto[] }[] {
   const groups = new Map<string, { key: string; label: string; snags: SnagDto[] }>();
   for (const s of snags) {
-    for (const g of groupsOf(s, by)) {
+    for (const g of groupsOf(s, by, kind)) {
       const cur = groups.get(g.key) ?? { ...g, snags: [] };
       cur.snags.push(s);
       groups.set(g.key, cur);
@@ -53,6 +55,8 @@ export interface SnagFilters {
 
 interface SnagsListProps {
   productionId: string;
+  /** The production's kind: a stage production's days are performances. */
+  kind?: ScheduleKind;
   data: SnagListDto;
   filters: SnagFilters;
   onFiltersChange: (f: SnagFilters) => void;
@@ -60,12 +64,25 @@ interface SnagsListProps {
 }
 
 /** Filters, grouping and the grouped snag cards with dismiss and undo. */
-export function SnagsList({ productionId, data, filters, onFiltersChange, canDismiss }: SnagsListProps) {
+export function SnagsList({ productionId, kind = "film", data, filters, onFiltersChange, canDismiss }: SnagsListProps) {
   const [grouping, setGrouping] = useState<SnagGrouping>("severity");
   const [dismissing, setDismissing] = useState<SnagDto | null>(null);
+  // Snags just dismissed here: they keep their place in the list as an "Undo" line until undone or left.
+  const [justDismissed, setJustDismissed] = useState<Map<string, { snag: SnagDto; dismissal: SnagDismissalDto }>>(new Map());
   const undo = useUndoDismissal(productionId);
-  const groups = useMemo(() => groupSnags(data.snags, grouping), [data.snags, grouping]);
+  const words = scheduleLabels(kind);
+  const listed = useMemo(() => {
+    const present = new Set(data.snags.map((s) => s.key));
+    return [...data.snags, ...[...justDismissed.values()].filter((d) => !present.has(d.snag.key)).map((d) => d.snag)];
+  }, [data.snags, justDismissed]);
+  const groups = useMemo(() => groupSnags(listed, grouping, kind), [listed, grouping, kind]);
   const set = (patch: Partial<SnagFilters>) => onFiltersChange({ ...filters, ...patch });
+  const forget = (key: string) =>
+    setJustDismissed((m) => {
+      const n = new Map(m);
+      n.delete(key);
+      return n;
+    });
 
   return (
     <div className="grid gap-4" role="region" aria-label="All snags">
@@ -81,9 +98,9 @@ export function SnagsList({ productionId, data, filters, onFiltersChange, canDis
       </div>
       <div className="grid grid-cols-2 gap-3 sm:grid-cols-4 lg:grid-cols-5">
         <SelectField label="Group by" value={grouping} onChange={(e) => setGrouping(e.target.value as SnagGrouping)}>
-          {(Object.keys(groupingLabels) as SnagGrouping[]).map((g) => (
+          {(Object.entries(groupingLabels(kind)) as [SnagGrouping, string][]).map(([g, label]) => (
             <option key={g} value={g}>
-              {groupingLabels[g]}
+              {label}
             </option>
           ))}
         </SelectField>
@@ -103,9 +120,12 @@ export function SnagsList({ productionId, data, filters, onFiltersChange, canDis
             </option>
           ))}
         </SelectField>
-        <SelectField label="Shoot day" value={filters.shootDayId} onChange={(e) => set({ shootDayId: e.target.value })}>
-          <option value="">All days</option>
-          <option value="next">Next day{data.nextShootDay ? ` (${formatDate(data.nextShootDay.date)})` : ""}</option>
+        <SelectField label={words.Day} value={filters.shootDayId} onChange={(e) => set({ shootDayId: e.target.value })}>
+          <option value="">All {words.days}</option>
+          <option value="next">
+            {words.Next}
+            {data.nextShootDay ? ` (${formatDate(data.nextShootDay.date)})` : ""}
+          </option>
           {data.shootDays.map((d) => (
             <option key={d.id} value={d.id}>
               {formatDate(d.date)}
@@ -128,20 +148,46 @@ export function SnagsList({ productionId, data, filters, onFiltersChange, canDis
             <h2 className="text-sm font-bold tracking-wide text-ink uppercase">
               {g.label} <span className="font-normal text-slate">({g.snags.length})</span>
             </h2>
-            {g.snags.map((s) => (
-              <SnagCard
-                key={s.key}
-                snag={s}
-                canDismiss={canDismiss}
-                onDismiss={setDismissing}
-                onUndo={(id) => undo.mutate(id)}
-                undoBusy={undo.isPending && undo.variables === s.dismissal?.id}
-              />
-            ))}
+            {g.snags.map((s) => {
+              const gone = justDismissed.get(s.key);
+              if (gone && !s.dismissal) {
+                // Where the card was: say what happened and offer to take it back.
+                return (
+                  <div key={s.key} role="status" className="flex flex-wrap items-center gap-2 rounded-md border border-dashed border-ink-100 bg-white/70 px-3 py-2 text-sm text-ink-900">
+                    <span className="min-w-0 flex-1">
+                      Dismissed: <span className="font-semibold">{s.title}</span>
+                    </span>
+                    <Button
+                      size="sm"
+                      variant="secondary"
+                      busy={undo.isPending && undo.variables === gone.dismissal.id}
+                      onClick={() => undo.mutate(gone.dismissal.id, { onSuccess: () => forget(s.key) })}
+                    >
+                      Undo
+                    </Button>
+                  </div>
+                );
+              }
+              return (
+                <SnagCard
+                  key={s.key}
+                  snag={s}
+                  canDismiss={canDismiss}
+                  onDismiss={setDismissing}
+                  onUndo={(id) => undo.mutate(id, { onSuccess: () => forget(s.key) })}
+                  undoBusy={undo.isPending && undo.variables === s.dismissal?.id}
+                />
+              );
+            })}
           </section>
         ))
       )}
-      <DismissDialog productionId={productionId} snag={dismissing} onClose={() => setDismissing(null)} />
+      <DismissDialog
+        productionId={productionId}
+        snag={dismissing}
+        onClose={() => setDismissing(null)}
+        onDismissed={(d) => dismissing && setJustDismissed((m) => new Map(m).set(dismissing.key, { snag: dismissing, dismissal: d }))}
+      />
     </div>
   );
 }

@@ -11,6 +11,9 @@ import { SortHeader } from "@/components/ui/table";
 import { useProductionTime } from "@/hooks/use-production-time";
 
 const col = createColumnHelper<MemberDto>();
+/** Columns a phone leaves out: the e-mail moves under the name, the join date is for the desk. */
+const PHONE_HIDDEN = new Set(["email", "joinedAt"]);
+const cellClass = (id: string) => (PHONE_HIDDEN.has(id) ? "hidden sm:table-cell" : "");
 
 /** Members with their roles; the supervisor changes a role inline or removes a member after confirming. */
 export function MembersTable({ productionId, members, currentUserId }: { productionId: string; members: MemberDto[]; currentUserId: string }) {
@@ -21,14 +24,22 @@ export function MembersTable({ productionId, members, currentUserId }: { product
   const { dateOf } = useProductionTime();
 
   const columns = [
-    col.accessor("name", { header: "Name", cell: (c) => <span className="font-semibold text-ink-900">{c.getValue()}</span> }),
+    col.accessor("name", {
+      header: "Name",
+      cell: (c) => (
+        <>
+          <span className="font-semibold text-ink-900">{c.getValue()}</span>
+          <span className="block text-xs break-all text-slate sm:hidden">{c.row.original.email}</span>
+        </>
+      ),
+    }),
     col.accessor("email", { header: "E-mail", cell: (c) => <span className="break-all">{c.getValue()}</span> }),
     col.accessor("role", {
       header: "Role",
       cell: (c) => (
         <select
           aria-label={`Role of ${c.row.original.name}`}
-          className={`${controlClass} max-w-56 py-1`}
+          className={`${controlClass} max-w-56 min-w-32 py-1`}
           value={c.getValue()}
           disabled={updateRole.isPending}
           onChange={(e) => updateRole.mutate({ id: c.row.original.id, role: e.target.value as Role })}
@@ -67,7 +78,7 @@ export function MembersTable({ productionId, members, currentUserId }: { product
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
                 {hg.headers.map((h) => (
-                  <th key={h.id} className="px-2 py-2 font-semibold">
+                  <th key={h.id} className={`px-2 py-2 font-semibold ${cellClass(h.column.id)}`}>
                     <SortHeader header={h} />
                   </th>
                 ))}
@@ -78,7 +89,7 @@ export function MembersTable({ productionId, members, currentUserId }: { product
             {table.getRowModel().rows.map((row) => (
               <tr key={row.id} className="border-b border-chalk-200 last:border-0">
                 {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className="px-2 py-2 align-middle">
+                  <td key={cell.id} className={`px-2 py-2 align-middle ${cellClass(cell.column.id)}`}>
                     {flexRender(cell.column.columnDef.cell, cell.getContext())}
                   </td>
                 ))}

@@ -1,6 +1,7 @@
 import { useEffect, useRef, useState, type FormEvent } from "react";
 import { Link } from "react-router";
-import { garmentStatuses, garmentStatusLabels, type GarmentMoveResultDto, type GarmentStatus } from "@shared/schemas/garments";
+import { checkedOutStatuses, garmentStatuses, garmentStatusLabels, type GarmentMoveResultDto, type GarmentStatus } from "@shared/schemas/garments";
+import type { ScheduleKind } from "@shared/domain/schedule-labels";
 import { parseTagCode } from "@shared/domain/tag-codes";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
@@ -11,8 +12,9 @@ import { useMe } from "@/features/auth/api/auth";
 import { enqueue } from "@/lib/offline/queue";
 import { queueRunner } from "@/lib/offline/runner";
 import { newClientId } from "@/lib/offline/client-id";
-import { useScanGarment } from "../api/garments";
+import { useCheckoutOptions, useScanGarment } from "../api/garments";
 import { StatusBadge } from "./status-badge";
+import { CheckoutFields, CheckoutSummary, checkoutFromDraft, emptyCheckout, type CheckoutDraft } from "./checkout-fields";
 
 interface LogLine {
   at: number;
@@ -67,15 +69,20 @@ function CameraScanner({ onCode, onClose }: { onCode: (code: string) => void; on
   );
 }
 
+const outStatus = (s: GarmentStatus) => (checkedOutStatuses as readonly GarmentStatus[]).includes(s);
+
 /**
- * Check in / out: pick a status and place once, then scan or type tag after tag — one action per garment.
+ * Check in / out: pick a status and place once (and, going out, to whom, for which day and scene, due
+ * back when), then scan or type tag after tag — one action per garment.
  * A QR code on the rack list opens this with the tag and status filled in (`?tag=…&to=on_set`); the
  * move still waits for one tap, so opening a link never moves a garment by itself.
  */
-export function CheckInOut({ productionId, initialTag, initialStatus }: { productionId: string; initialTag?: string; initialStatus?: GarmentStatus }) {
+export function CheckInOut({ productionId, kind, initialTag, initialStatus }: { productionId: string; kind: ScheduleKind; initialTag?: string; initialStatus?: GarmentStatus }) {
   const scan = useScanGarment(productionId);
   const me = useMe();
+  const options = useCheckoutOptions(productionId);
   const [status, setStatus] = useState<GarmentStatus>(initialStatus ?? "on_set");
+  const [checkout, setCheckout] = useState<CheckoutDraft>(emptyCheckout);
   const [rack, setRack] = useState("");
   const [bin, setBin] = useState("");
   const [code, setCode] = useState(initialTag ?? "");
@@ -89,8 +96,9 @@ export function CheckInOut({ productionId, initialTag, initialStatus }: { produc
       setLog((l) => [{ at: Date.now(), code: raw, ok: false, text: parsed.reason }, ...l].slice(0, 30));
       return;
     }
+    const to = outStatus(status) ? checkoutFromDraft(checkout) : null;
     scan.mutate(
-      { tagCode: parsed.code, status, ...(rack.trim() ? { locationRack: rack.trim() } : {}), ...(bin.trim() ? { locationBin: bin.trim() } : {}) },
+      { tagCode: parsed.code, status, ...(rack.trim() ? { locationRack: rack.trim() } : {}), ...(bin.trim() ? { locationBin: bin.trim() } : {}), ...(to ? { checkout: to } : {}) },
       {
         onSuccess: (r) =>
           setLog((l) => [{ at: Date.now(), code: parsed.code, ok: true, text: r.event ? `${r.garment.name} → ${garmentStatusLabels[r.garment.status]}` : `${r.garment.name} was already there`, result: r }, ...l].slice(0, 30)),
@@ -98,7 +106,7 @@ export function CheckInOut({ productionId, initialTag, initialStatus }: { produc
           const userId = me.data?.id;
           // No signal: the move waits on this phone and is sent with the continuity queue.
           if (e instanceof ApiError && e.status === 0 && userId) {
-            const payload = { tagCode: parsed.code, status, ...(rack.trim() ? { locationRack: rack.trim() } : {}), ...(bin.trim() ? { locationBin: bin.trim() } : {}) };
+            const payload = { tagCode: parsed.code, status, ...(rack.trim() ? { locationRack: rack.trim() } : {}), ...(bin.trim() ? { locationBin: bin.trim() } : {}), ...(to ? { checkout: to } : {}) };
             void enqueue({ clientId: newClientId(), userId, productionId, kind: "garment-scan", summary: `${parsed.code} → ${garmentStatusLabels[status]}`, queuedAt: new Date().toISOString(), payload, photos: [] })
               .then(() => {
                 setLog((l) => [{ at: Date.now(), code: parsed.code, ok: true, text: `No signal: kept on this phone, moves to ${garmentStatusLabels[status]} when sent` }, ...l].slice(0, 30));
@@ -139,6 +147,7 @@ export function CheckInOut({ productionId, initialTag, initialStatus }: { produc
             ))}
           </div>
         </fieldset>
+        {outStatus(status) && <CheckoutFields options={options.data} kind={kind} value={checkout} onChange={setCheckout} />}
         <div className="grid grid-cols-2 gap-2">
           <InputField label="Rack" value={rack} onChange={(e) => setRack(e.target.value)} placeholder="unchanged" hint="Leave empty to keep each garment's rack" />
           <InputField label="Bin" value={bin} onChange={(e) => setBin(e.target.value)} placeholder="unchanged" />
@@ -162,7 +171,7 @@ export function CheckInOut({ productionId, initialTag, initialStatus }: { produc
             hint="Scan with a USB scanner (it types and presses Enter) or type the code."
           />
           <Button type="submit" size="lg" busy={scan.isPending} autoFocus={Boolean(initialTag)}>
-            Move to {garmentStatusLabels[status]}
+            {outStatus(status) && checkout.to ? `Check out (${garmentStatusLabels[status]})` : `Move to ${garmentStatusLabels[status]}`}
           </Button>
         </form>
         {camera ? (
@@ -183,8 +192,9 @@ export function CheckInOut({ productionId, initialTag, initialStatus }: { produc
               <li key={l.at + l.code} className={cn("rounded-md border px-3 py-2 text-sm", l.ok ? "border-chalk-200" : "border-madder/40 bg-madder-50 text-madder")}>
                 <span className="font-mono font-semibold">{l.code}</span> — {l.text}
                 {l.result && (
-                  <span className="ml-2 inline-flex items-center gap-2">
+                  <span className="ml-2 inline-flex flex-wrap items-center gap-2">
                     <StatusBadge status={l.result.garment.status} />
+                    {l.result.garment.checkout && <CheckoutSummary checkout={l.result.garment.checkout} kind={kind} compact />}
                     <Link to={`../garments/${l.result.garment.id}`} relative="path" className="text-ink underline">
                       open
                     </Link>

@@ -16,6 +16,7 @@ import { controlClass, InputField, SelectField } from "@/components/ui/field";
 import { cn } from "@/utils/cn";
 import { garmentFileUrls, useGarmentFilterOptions, useGarments, useMoveGarments, type GarmentListParams } from "../api/garments";
 import { StatusBadge } from "./status-badge";
+import { CheckoutSummary } from "./checkout-fields";
 import { formatDate } from "@shared/format";
 
 const col = createColumnHelper<GarmentDto>();
@@ -51,12 +52,21 @@ function buildColumns(unit: LengthUnit) {
         </span>
       ),
     }),
+    // Status and who has it come first: on a phone they are what a set costumer looks for.
+    col.accessor("status", { header: "Status", cell: (c) => <StatusBadge status={c.getValue()} /> }),
+    col.accessor("checkout", {
+      header: "With",
+      cell: (c) => {
+        const v = c.getValue();
+        return v ? <CheckoutSummary checkout={v} kind="film" compact /> : "—";
+      },
+      enableSorting: false,
+    }),
     col.accessor("category", { header: "Category" }),
     col.accessor("sizeLabel", { header: "Size", cell: (c) => c.getValue() ?? "—" }),
-    col.accessor("status", { header: "Status", cell: (c) => <StatusBadge status={c.getValue()} /> }),
     col.accessor("locationRack", { header: "Rack", cell: (c) => [c.getValue(), c.row.original.locationBin].filter(Boolean).join(" / ") || "—" }),
     col.accessor("source", { header: "Source" }),
-    col.accessor("rentalDueOn", { header: "Due back", cell: (c) => { const v = c.getValue(); return v ? formatDate(v) : "—"; } }),
+    col.accessor("rentalDueOn", { header: "Rental due", cell: (c) => { const v = c.getValue(); return v ? formatDate(v) : "—"; } }),
     col.accessor("fabricName", { header: "Fabric", cell: (c) => c.getValue() ?? "—", enableSorting: false }),
     col.accessor("colour", { header: "Colour", cell: (c) => c.getValue() ?? "—", enableSorting: false }),
     col.accessor("multiplesGroupName", { header: "Multiples", cell: (c) => c.getValue() ?? "—", enableSorting: false }),
@@ -84,6 +94,7 @@ export function GarmentsTable({ productionId, unit, canMove }: { productionId: s
     rack: search.get("rack") ?? undefined,
     source: search.get("source") ?? undefined,
     dueWithinDays: search.get("dueWithinDays") ?? undefined,
+    out: search.get("out") ?? undefined,
     sort: search.get("sort") ?? "tagCode",
     dir: (search.get("dir") as "asc" | "desc") ?? "asc",
   };
@@ -138,7 +149,7 @@ export function GarmentsTable({ productionId, unit, canMove }: { productionId: s
 
   return (
     <div className="grid gap-3">
-      <form className="grid grid-cols-2 gap-2 sm:grid-cols-3 lg:grid-cols-7" role="search" aria-label="Filter garments" onSubmit={(e) => e.preventDefault()}>
+      <form className="grid grid-cols-2 gap-2 sm:grid-cols-4 lg:grid-cols-8" role="search" aria-label="Filter garments" onSubmit={(e) => e.preventDefault()}>
         <InputField label="Search" placeholder="name, tag, colour" defaultValue={params.q} onChange={(e) => setParam("q", e.target.value || undefined)} />
         <SelectField label="Category" value={params.category ?? ""} onChange={(e) => setParam("category", e.target.value || undefined)}>
           <option value="">All</option>
@@ -173,6 +184,11 @@ export function GarmentsTable({ productionId, unit, canMove }: { productionId: s
           <option value="built">Built</option>
           <option value="bought">Bought</option>
           <option value="rented">Rented</option>
+        </SelectField>
+        <SelectField label="Checked out" value={params.out ?? ""} onChange={(e) => setParam("out", e.target.value || undefined)}>
+          <option value="">All</option>
+          <option value="out">With someone</option>
+          <option value="past_due">Past due back</option>
         </SelectField>
         <InputField
           label="Rented, due within (days)"

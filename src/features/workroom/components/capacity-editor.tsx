@@ -5,6 +5,8 @@ import { Button } from "@/components/ui/button";
 import { ErrorAlert } from "@/components/ui/feedback";
 import { InputField, controlClass } from "@/components/ui/field";
 import { useUpdateWorkroomSettings, useUpsertCapacity } from "../api/workroom";
+import { useCurrentProduction } from "@/hooks/use-current-production";
+import { scheduleLabels } from "@shared/domain/schedule-labels";
 import { fieldErrorsOf } from "@/lib/form-errors";
 
 const DAY_LABEL: Record<Weekday, string> = { mon: "Mon", tue: "Tue", wed: "Wed", thu: "Thu", fri: "Fri", sat: "Sat", sun: "Sun" };
@@ -60,6 +62,7 @@ function PersonRow({ productionId, person, canEdit }: { productionId: string; pe
 
 /** Each workroom member's hours per weekday and days off, plus the production's buffer and reminder hour. */
 export function CapacityEditor(props: { productionId: string; people: CapacityDto[]; settings: { bufferWorkingDays: number; reminderHour: number }; canEdit: boolean }) {
+  const words = scheduleLabels(useCurrentProduction().production);
   const saveSettings = useUpdateWorkroomSettings(props.productionId);
   const [buffer, setBuffer] = useState(String(props.settings.bufferWorkingDays));
   const [hour, setHour] = useState(String(props.settings.reminderHour));
@@ -87,7 +90,7 @@ export function CapacityEditor(props: { productionId: string; people: CapacityDt
         </table>
       </div>
       <div className="grid max-w-xl gap-3 sm:grid-cols-[1fr_1fr_auto] sm:items-end">
-        <InputField label="Buffer before a shoot day (working days)" type="number" min={0} max={10} value={buffer} disabled={!props.canEdit} onChange={(e) => setBuffer(e.target.value)} hint="Time for pressing and rack prep." />
+        <InputField label={`Buffer before a ${words.day} (working days)`} type="number" min={0} max={10} value={buffer} disabled={!props.canEdit} onChange={(e) => setBuffer(e.target.value)} hint="Time for pressing and rack prep." />
         <InputField label="Evening reminders at (hour)" type="number" min={0} max={23} value={hour} disabled={!props.canEdit} onChange={(e) => setHour(e.target.value)} />
         {props.canEdit && (
           <Button busy={saveSettings.isPending} onClick={() => saveSettings.mutate({ bufferWorkingDays: Number(buffer), reminderHour: Number(hour) })}>

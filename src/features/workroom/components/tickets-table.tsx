@@ -1,4 +1,4 @@
-import { useMemo, useState } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
 import type { PlannedTicketDto, TicketStatus } from "@shared/schemas/workroom";
 import { hazardousTaskKinds } from "@shared/schemas/workroom";
@@ -21,7 +21,21 @@ const NEXT: Partial<Record<TicketStatus, Array<{ to: TicketStatus; label: string
 };
 
 /** Open and done tickets with their plan: due date, who, planned finish, lateness; status moves and estimates inline. */
-export function TicketsTable(props: { productionId: string; tickets: PlannedTicketDto[]; units: LengthUnit; canUpdate: boolean; canEstimate: boolean }) {
+export function TicketsTable(props: {
+  productionId: string;
+  tickets: PlannedTicketDto[];
+  units: LengthUnit;
+  canUpdate: boolean;
+  canEstimate: boolean;
+  /** A ticket to open on (a snag's Fix link): its row is marked, scrolled into view and focused. */
+  focusTicketId?: string | null;
+}) {
+  const focused = useRef<HTMLTableRowElement>(null);
+  useEffect(() => {
+    if (!props.focusTicketId || !focused.current) return;
+    focused.current.scrollIntoView({ block: "center" });
+    focused.current.focus();
+  }, [props.focusTicketId, props.tickets.length]);
   const [sorting, setSorting] = useState<SortingState>([{ id: "dueDate", desc: false }]);
   const setStatus = useSetTicketStatus(props.productionId);
   const update = useUpdateTicket(props.productionId);
@@ -149,7 +163,14 @@ export function TicketsTable(props: { productionId: string; tickets: PlannedTick
           </thead>
           <tbody>
             {table.getRowModel().rows.map((row) => (
-              <tr key={row.id} aria-label={`Ticket ${row.original.tagCode}`} className={row.original.late ? "border-b border-chalk-200 bg-madder-50/50" : "border-b border-chalk-200"}>
+              <tr
+                key={row.id}
+                ref={row.original.id === props.focusTicketId ? focused : undefined}
+                tabIndex={row.original.id === props.focusTicketId ? -1 : undefined}
+                aria-current={row.original.id === props.focusTicketId ? "true" : undefined}
+                aria-label={`Ticket ${row.original.tagCode}`}
+                className={`border-b border-chalk-200 ${row.original.late ? "bg-madder-50/50" : ""} ${row.original.id === props.focusTicketId ? "outline-2 -outline-offset-2 outline-ink" : ""}`}
+              >
                 {row.getVisibleCells().map((cell) => (
                   <td key={cell.id} className="px-2 py-2 align-top">
                     {flexRender(cell.column.columnDef.cell, cell.getContext())}

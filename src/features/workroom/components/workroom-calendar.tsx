@@ -11,6 +11,7 @@ import { Button } from "@/components/ui/button";
 import { ErrorAlert } from "@/components/ui/feedback";
 import { ConfirmDialog } from "@/components/ui/dialog";
 import { controlClass } from "@/components/ui/field";
+import { scheduleLabels } from "@shared/domain/schedule-labels";
 import { cn } from "@/utils/cn";
 import { useUpdateFitting } from "../api/workroom";
 
@@ -186,7 +187,7 @@ export function WorkroomCalendar(props: {
   const events = useMemo<CalEvent[]>(() => {
     const out: CalEvent[] = [];
     for (const s of props.plan.shootDays) {
-      out.push({ id: `sd-${s.id}`, title: `${s.kind === "performance" ? "Performance" : "Shoot day"} ${s.dayNumber}`, start: day(s.date), end: day(s.date), allDay: true, kind: "shoot" });
+      out.push({ id: `sd-${s.id}`, title: `${scheduleLabels(s.kind === "performance" ? "stage" : "film").Day} ${s.dayNumber}`, start: day(s.date), end: day(s.date), allDay: true, kind: "shoot" });
     }
     for (const f of props.fittings) {
       if (f.status === "cancelled") continue;
@@ -241,7 +242,7 @@ export function WorkroomCalendar(props: {
           {LEGEND.map((l) => (
             <li key={l.kind} className="flex items-center gap-1">
               <span aria-hidden className={cn("inline-block size-3 rounded-sm", `cal-event-${l.kind}`)} />
-              {l.label}
+              {l.kind === "shoot" ? scheduleLabels(props.plan.shootDays.some((s) => s.kind === "performance") ? "stage" : "film").Day : l.label}
             </li>
           ))}
         </ul>
