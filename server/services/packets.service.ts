@@ -269,7 +269,7 @@ export async function snapshotContents(productionId: string, changeId: string, s
         toleranceMm: d.effectiveToleranceMm,
       };
     }),
-    fabrics: fabrics.map((f) => ({ id: f.fabricId, name: f.name, construction: f.construction, fabricClass: f.fabricClass, fibreContent: f.fibreContent, widthMm: f.widthMm, simulation: f.values, tests: f.tests })),
+    fabrics: fabrics.map((f) => ({ id: f.fabricId, name: f.name, construction: f.construction, fabricClass: f.fabricClass, fibreContent: f.fibreContent, widthMm: f.widthMm, simulation: f.values, tests: f.tests, retest: f.retest })),
     photos: photos.map(({ sceneId: _sceneId, ...p }) => p),
     shots,
     measurements,

@@ -3,6 +3,7 @@ import { idSchema } from "./common.js";
 import { validatePolygon, type Point } from "../domain/panels/geometry.js";
 import type { SeamStatus } from "../domain/panels/seams.js";
 import type { FabricSimulationValues } from "../domain/fabric-physics.js";
+import type { CantileverRetest } from "../domain/cantilever.js";
 import type { Placement } from "../domain/panels/nesting.js";
 
 /** Largest coordinate accepted, mm (a 10 m piece is already far beyond any garment). */
@@ -249,4 +250,6 @@ export interface FabricPhysicsDto {
   values: FabricSimulationValues;
   /** Test id → kind, direction and date, so "measured" can name its test. */
   tests: { id: string; kind: string; direction: string | null; testedOn: string }[];
+  /** The exported bending values put back through the cantilever test; null without a cantilever test. */
+  retest: CantileverRetest | null;
 }

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { idSchema } from "./common.js";
 import type { FabricSimulationValues } from "../domain/fabric-physics.js";
+import type { CantileverRetest } from "../domain/cantilever.js";
 import type { SeamStatus } from "../domain/panels/seams.js";
 import type { PacketDiff } from "../domain/packet-diff.js";
 
@@ -85,6 +86,8 @@ export interface PacketFabricSnapshot {
   widthMm: number | null;
   simulation: FabricSimulationValues;
   tests: { id: string; kind: string; direction: string | null; testedOn: string }[];
+  /** Virtual cantilever re-test of the exported values (absent in versions published before it existed). */
+  retest?: CantileverRetest | null;
 }
 
 export interface PacketPhotoSnapshot {
