@@ -274,6 +274,7 @@ export async function snapshotContents(productionId: string, changeId: string, s
     shots,
     measurements,
     notes: s.notes,
+    meshTargetEdgeMm: s.meshEdgeMm,
   };
 }
 

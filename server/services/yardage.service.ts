@@ -93,8 +93,8 @@ export async function physicsForFabrics(productionId: string, fabricIds: string[
   return fabrics.map((f) => {
     const rows = tests.filter((t) => t.fabricId === f.id);
     const fabricClass = fabricClassOf(f.construction, f.massPerAreaGsm);
-    const tests = rows.flatMap(fabricTestsFromRow);
-    const values = fabricSimulationValues({ fabricClass, declaredMassPerAreaGsm: f.massPerAreaGsm ?? undefined, tests });
+    const recorded = rows.flatMap(fabricTestsFromRow);
+    const values = fabricSimulationValues({ fabricClass, declaredMassPerAreaGsm: f.massPerAreaGsm ?? undefined, tests: recorded });
     // A thickness on the fabric record beats the class default when no thickness test exists.
     if (values.thickness.basis === "assumed" && f.thicknessMm) {
       values.thickness = { value: f.thicknessMm / 1000, unit: "m", basis: "assumed", note: `thickness ${f.thicknessMm} mm from the fabric record, not tested` };
@@ -108,7 +108,7 @@ export async function physicsForFabrics(productionId: string, fabricIds: string[
       widthMm: f.widthMm,
       values,
       tests: rows.map((t) => ({ id: t.id, kind: t.kind, direction: t.direction, testedOn: t.testedOn })),
-      retest: cantileverRetest(values, tests),
+      retest: cantileverRetest(values, recorded),
     };
   });
 }
