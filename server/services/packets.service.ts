@@ -122,6 +122,7 @@ export async function getPacket(actor: Actor, packetId: string): Promise<PacketD
     if (!mine) prev = null;
   }
   const diff: PacketDiff | null = prev?.contents ? diffPacketContents(prev.contents, contents) : null;
+  const sinceReceived = await lastReceivedBefore(actor, packet, contents);
   const publisher = packet.publishedBy ? await User.findByPk(packet.publishedBy) : null;
   const counts = { panels: contents.panels.length, photos: contents.photos.length, shots: contents.shots.length, fabrics: contents.fabrics.length };
   return {
@@ -130,7 +131,26 @@ export async function getPacket(actor: Actor, packetId: string): Promise<PacketD
     contents,
     previousVersion: prev?.version ?? null,
     diff,
+    sinceReceived,
   };
+}
+
+/** The actor's own newest receipt of an earlier version of the same change, and the diff from it to these contents. */
+async function lastReceivedBefore(actor: Actor, packet: Packet, contents: PacketContents): Promise<PacketDetailDto["sinceReceived"]> {
+  const receipts = await PacketRecipient.findAll({ where: { userId: actor.user.id, productionId: actor.productionId, receivedAt: { [Op.ne]: null } } });
+  if (receipts.length === 0) return null;
+  const earlier = await Packet.findOne({
+    where: {
+      id: { [Op.in]: receipts.map((r) => r.packetId) },
+      changeId: packet.changeId,
+      status: "published",
+      ...(packet.version !== null ? { version: { [Op.lt]: packet.version } } : {}),
+    },
+    order: [["version", "DESC"]],
+  });
+  if (!earlier?.contents || earlier.version === null) return null;
+  const receipt = receipts.find((r) => r.packetId === earlier.id)!;
+  return { version: earlier.version, receivedAt: receipt.receivedAt!.toISOString(), diff: diffPacketContents(earlier.contents, contents) };
 }
 
 function normalizedSelection(p: Packet): PacketSelection {

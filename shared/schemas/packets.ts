@@ -175,6 +175,8 @@ export interface PacketDetailDto extends PacketSummaryDto {
   contents: PacketContents;
   previousVersion: number | null;
   diff: PacketDiff | null;
+  /** For a recipient: the newest earlier version they marked received, and what changed since it (null when none). */
+  sinceReceived: { version: number; receivedAt: string; diff: PacketDiff } | null;
 }
 
 /** Choices offered by the packet builder for one change. */

@@ -326,6 +326,32 @@ describe("what a vfx user sees", () => {
     expect((await vfx.get(`${base()}/packets/options?changeId=${ids.changeId}`)).status).toBe(403);
   });
 
+  it("shows a recipient what changed since the version they last marked received, skipping versions they did not", async () => {
+    const v1 = await publishedV1();
+    await vfx.post(`${base()}/packets/${v1}/received`);
+    const publishNext = async () => {
+      const d = await cutter.post(`${base()}/packets`, { changeId: ids.changeId });
+      const p = await supervisor.post(`${base()}/packets/${d.body.data.id}/publish`);
+      expect(p.status, JSON.stringify(p.body)).toBe(200);
+      return d.body.data.id as string;
+    };
+    await cutter.patch(`${base()}/panels/${ids.panelIds[2]}`, { cutCount: 4 });
+    await publishNext();
+    await cutter.patch(`${base()}/panels/${ids.panelIds[0]}`, { name: "Front left" });
+    const v3 = await publishNext();
+
+    const seen = await vfx.get(`${base()}/packets/${v3}`);
+    const first = await vfx.get(`${base()}/packets/${v1}`);
+    const staff = await supervisor.get(`${base()}/packets/${v3}`);
+
+    // Version 2 was never marked received: the comparison goes back to version 1 and holds both edits.
+    expect(seen.body.data.previousVersion).toBe(2);
+    expect(seen.body.data.sinceReceived).toMatchObject({ version: 1 });
+    expect(seen.body.data.sinceReceived.diff.panels.changed.map((c: { id: string }) => c.id).sort()).toEqual([ids.panelIds[0], ids.panelIds[2]].sort());
+    expect(first.body.data.sinceReceived).toBeNull();
+    expect(staff.body.data.sinceReceived).toBeNull();
+  });
+
   it("marks received; the supervisor sees who received which version", async () => {
     const id = await publishedV1();
     await download(vfx, id);

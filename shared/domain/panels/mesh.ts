@@ -9,7 +9,7 @@
 // otherwise the other side gets a point at the same fraction. Free edges are split evenly. Interior
 // points come from an equilateral lattice at the target length, kept half a target length clear of
 // the outline. The points are triangulated by Delaunator with the boundary enforced by
-// Constrainautor (a constrained Delaunay triangulation); then Delaunay refinement (after Ruppert)
+// Constrainautor (a constrained Delaunay triangulation); then Delaunay refinement
 // inserts the circumcentre of every triangle below the minimum angle, or splits the boundary segment
 // that circumcentre would encroach on. A split on a seam is made on both of its sides, so the stitch
 // counts stay equal, and both panels are meshed again.
