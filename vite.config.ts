@@ -20,7 +20,7 @@ export default defineConfig({
   },
   build: { outDir: "dist", sourcemap: true },
   test: {
-    reporters: process.env.CI ? ["default", ["json", { outputFile: ".data/vitest-report.json" }]] : ["default"],
+    reporters: process.env.CI ? ["default", ["json", { outputFile: process.env.VITEST_REPORT_FILE ?? ".data/vitest-report.json" }]] : ["default"],
     projects: [
       {
         extends: true,

@@ -2,12 +2,13 @@
 import { prepareLocalEnv } from "./lib/local-env.js";
 
 async function main() {
-  await prepareLocalEnv();
+  const local = await prepareLocalEnv();
   const { sequelize } = await import("../server/db.js");
   const { migrate } = await import("../server/migrator.js");
   const done = await migrate(sequelize);
   console.log(done.length ? `Applied: ${done.join(", ")}` : "No pending migrations.");
   await sequelize.close();
+  local.pg?.stop();
 }
 
 main().catch((err) => {

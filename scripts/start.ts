@@ -42,12 +42,15 @@ async function main() {
   await startServer();
   const url = `http://${config.HOST}:${config.PORT}`;
   console.log(`\nSeamscene is running at ${url}${seeded ? " (demo data loaded)" : ""}`);
+  if (local.pg) {
+    console.log(`PostgreSQL on 127.0.0.1:${local.pg.port}, data in ${local.pg.dataDir}${local.pg.startedHere ? "" : " (already running; left running on exit)"}`);
+  }
   console.log(`Mail goes to ${local.startSmtpFake ? `the local SMTP fake on 127.0.0.1:${process.env.SMTP_PORT} (see Team → Outbox)` : config.SMTP_HOST}`);
   console.log("\nDemo accounts (password for all: " + demoAccounts[0]!.password + "):");
   for (const a of demoAccounts) console.log(`  ${a.role.padEnd(13)} ${a.email}`);
   console.log("\nStop with Ctrl+C.");
-  const stopPg = () => local.pg?.stop();
-  process.once("exit", stopPg);
+  // Stops PostgreSQL only if this process started it (a second instance leaves the first one's alone).
+  process.once("exit", () => local.pg?.stop());
 }
 
 main().catch((err) => {

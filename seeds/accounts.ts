@@ -3,6 +3,7 @@ import { Membership, Production, User } from "../server/models/index.js";
 import { hashPassword } from "../server/auth/passwords.js";
 import type { Role } from "../shared/permissions.js";
 import { demoId } from "./ids.js";
+import { DEMO_TIME_ZONE, demoDaysFromToday } from "./calendar.js";
 
 export const DEMO_PASSWORD = "seamscene-demo";
 
@@ -30,10 +31,10 @@ export async function seedAccounts(transaction: Transaction): Promise<void> {
       id: SALTMARSH_ID,
       title: "Saltmarsh Hollow",
       kind: "film",
-      startsOn: "2026-11-23",
-      endsOn: "2027-01-29",
+      startsOn: demoDaysFromToday(-9),
+      endsOn: demoDaysFromToday(58),
       units: "cm",
-      settings: { bufferWorkingDays: 1, reminderHour: 18, seamToleranceMm: 3 },
+      settings: { timeZone: DEMO_TIME_ZONE, bufferWorkingDays: 1, reminderHour: 18, seamToleranceMm: 3 },
       createdBy: userId("supervisor"),
     },
     { transaction },
@@ -43,10 +44,10 @@ export async function seedAccounts(transaction: Transaction): Promise<void> {
       id: GLASS_ORCHARD_ID,
       title: "The Glass Orchard",
       kind: "stage",
-      startsOn: "2026-11-30",
-      endsOn: "2027-02-14",
+      startsOn: demoDaysFromToday(-2),
+      endsOn: demoDaysFromToday(74),
       units: "in",
-      settings: { quickChangeThresholdMin: 2, bufferWorkingDays: 1, reminderHour: 17 },
+      settings: { timeZone: DEMO_TIME_ZONE, quickChangeThresholdMin: 2, bufferWorkingDays: 1, reminderHour: 17 },
       createdBy: userId("supervisor"),
     },
     { transaction },

@@ -7,10 +7,11 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../server/db.js";
 import { ChangeItem, ContinuityEntry, ContinuityEntryGarment, Photo } from "../server/models/index.js";
 import { renderSwatch } from "../server/lib/images.js";
-import { storeImage } from "../server/services/photos.service.js";
+import { releaseStoredImages, storeImage } from "../server/services/photos.service.js";
 import { demoId } from "./ids.js";
 import { SALTMARSH_ID, userId } from "./accounts.js";
-import { characters, keyGarments, SHOOT_DAY_DATES } from "./scenario.js";
+import { characters, keyGarments } from "./scenario.js";
+import { shootDay } from "./calendar.js";
 import { castOf, changeFor, demoSchedule, stateFor } from "./breakdown.js";
 
 type CharKey = keyof typeof characters;
@@ -86,12 +87,13 @@ export async function seedBreakdownLinks(t: Transaction): Promise<void> {
         const worn = (changeItems[`${k}:${change}`] ?? []).map(([, tg]) => garmentId(tg)).filter((g): g is string => Boolean(g && garments.has(g)));
         for (const g of worn) await ContinuityEntryGarment.upsert({ id: demoId(`ceg:${entryId}:${g}`), productionId: SALTMARSH_ID, continuityEntryId: entryId, garmentId: g }, { transaction: t });
         for (const view of ["front", "back"] as const) {
-          const img = await renderSwatch({ width: 600, height: 800, background: COLOURS[k], label: `${characters[k].name.split(" ").slice(-2).join(" ")} · ch ${change}`, sublabel: `Sc ${n} · ${SHOOT_DAY_DATES[d]} · ${view}` });
+          const img = await renderSwatch({ width: 600, height: 800, background: COLOURS[k], label: `${characters[k].name.split(" ").slice(-2).join(" ")} · ch ${change}`, sublabel: `Sc ${n} · ${shootDay(d + 1)} · ${view}` });
           const stored = await storeImage(img);
           await Photo.upsert(
             { id: demoId(`photo:${entryId}:${view}`), productionId: SALTMARSH_ID, ownerType: "continuity_entry", ownerId: entryId, view, caption: `${view} view (generated demo image)`, contentHash: stored.contentHash, originalName: `${n}-${k}-${view}.jpg`, width: stored.width, height: stored.height, bytes: stored.bytes, variants: stored.variants, uploadedBy: userId("set_costumer") },
             { transaction: t },
           );
+          await releaseStoredImages([stored]);
         }
       }
     }

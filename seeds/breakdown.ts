@@ -7,7 +7,8 @@ import type { Transaction } from "sequelize";
 import { Appearance, Change, Character, CharacterDouble, Performer, Scene, ShootDay, ShootDayScene } from "../server/models/index.js";
 import { demoId } from "./ids.js";
 import { GLASS_ORCHARD_ID, SALTMARSH_ID } from "./accounts.js";
-import { characters, performers, SHOOT_DAY_DATES } from "./scenario.js";
+import { characters, FROCK_COAT_WORN_ON_SHOOT_DAY, performers } from "./scenario.js";
+import { demoDaysFromToday, demoInstant, performanceDates, shootDayDates } from "./calendar.js";
 
 type CharKey = keyof typeof characters;
 
@@ -118,7 +119,7 @@ export function stateFor(k: CharKey, n: number): { distressStage: number; wet: b
   return s;
 }
 
-/** Scene numbers per shoot day (index 0 = SHOOT_DAY_DATES[0]): grouped by set, out of story order. */
+/** Scene numbers per shoot day (index 0 = shoot day 1): grouped by set, out of story order. */
 export function demoSchedule(): number[][] {
   const special = [36, 33, 31]; // one day: the storm run, shot against story order
   const rest = Array.from({ length: 60 }, (_, i) => i + 1).filter((n) => !special.includes(n));
@@ -130,8 +131,8 @@ export function demoSchedule(): number[][] {
     days.push(size ? rest.slice(i, i + size) : [...special]);
     i += size;
   }
-  // Shoot day 2026-12-17 must include a Reverend scene (planned rental conflict).
-  const idx = SHOOT_DAY_DATES.indexOf("2026-12-17");
+  // This shoot day must include a Reverend scene (planned rental conflict).
+  const idx = FROCK_COAT_WORN_ON_SHOOT_DAY - 1;
   if (!days[idx]!.some((n) => castOf(n).includes("ambrose"))) {
     const from = days.findIndex((d, j) => j !== idx && j > 3 && days[j] !== days[4] && d.some((n) => castOf(n).includes("ambrose")));
     const pick = days[from]!.find((n) => castOf(n).includes("ambrose"))!;
@@ -161,7 +162,7 @@ async function seedSaltmarsh(t: Transaction): Promise<void> {
     }
     for (const ch of demoChanges[key]) {
       await Change.upsert(
-        { id: demoId(`change:${key}:${ch.number}`), productionId: pid, characterId: c.id, number: ch.number, description: ch.description, storyDayFrom: ch.from, storyDayTo: ch.to, approval: ch.number === 1 ? "approved" : "proposed", approvedBy: null, approvedAt: ch.number === 1 ? new Date("2026-11-20T10:00:00Z") : null },
+        { id: demoId(`change:${key}:${ch.number}`), productionId: pid, characterId: c.id, number: ch.number, description: ch.description, storyDayFrom: ch.from, storyDayTo: ch.to, approval: ch.number === 1 ? "approved" : "proposed", approvedBy: null, approvedAt: ch.number === 1 ? demoInstant(demoDaysFromToday(-12), "10:00") : null },
         { transaction: t },
       );
     }
@@ -180,7 +181,7 @@ async function seedSaltmarsh(t: Transaction): Promise<void> {
     }
   }
   const schedule = demoSchedule();
-  for (const [i, date] of SHOOT_DAY_DATES.entries()) {
+  for (const [i, date] of shootDayDates().entries()) {
     const dayId = demoId(`shootday:saltmarsh:${i + 1}`);
     await ShootDay.upsert({ id: dayId, productionId: pid, dayNumber: i + 1, date, kind: "shoot", startsAt: "07:00", notes: null }, { transaction: t });
     await ShootDayScene.destroy({ where: { shootDayId: dayId }, transaction: t });
@@ -248,7 +249,7 @@ async function seedGlassOrchard(t: Transaction): Promise<void> {
     }
     const used = [...new Set(Object.values(c.changes) as number[])].sort();
     for (const num of used) {
-      await Change.upsert({ id: demoId(`change:glass:${c.key}:${num}`), productionId: pid, characterId: charId, number: num, description: glassOrchard.changeNames[num - 1]!, storyDayFrom: null, storyDayTo: null, approval: "approved", approvedBy: null, approvedAt: new Date("2026-11-25T10:00:00Z") }, { transaction: t });
+      await Change.upsert({ id: demoId(`change:glass:${c.key}:${num}`), productionId: pid, characterId: charId, number: num, description: glassOrchard.changeNames[num - 1]!, storyDayFrom: null, storyDayTo: null, approval: "approved", approvedBy: null, approvedAt: demoInstant(demoDaysFromToday(-7), "10:00") }, { transaction: t });
     }
     // On stage every costume change between entrances is planned: the breakdown marks it.
     let previous: number | null = null;
@@ -263,12 +264,7 @@ async function seedGlassOrchard(t: Transaction): Promise<void> {
     }
   }
   // Performances: evenings at 19:30 and Saturday matinees at 14:30 (invented run).
-  const perfs: Array<[string, string]> = [
-    ["2026-12-03", "19:30"], ["2026-12-04", "19:30"], ["2026-12-05", "14:30"], ["2026-12-05", "19:30"],
-    ["2026-12-10", "19:30"], ["2026-12-11", "19:30"], ["2026-12-12", "14:30"], ["2026-12-12", "19:30"],
-    ["2026-12-17", "19:30"], ["2026-12-18", "19:30"], ["2026-12-19", "14:30"], ["2026-12-19", "19:30"],
-  ];
-  for (const [i, [date, time]] of perfs.entries()) {
+  for (const [i, { date, time }] of performanceDates().entries()) {
     await ShootDay.upsert({ id: demoId(`performance:glass:${i + 1}`), productionId: pid, dayNumber: i + 1, date, kind: "performance", startsAt: time, notes: i === 0 ? "Opening night" : null }, { transaction: t });
   }
 }

@@ -16,6 +16,7 @@ import { packetSelectionSchema } from "../shared/schemas/packets.js";
 import { demoId } from "./ids.js";
 import { SALTMARSH_ID, userId } from "./accounts.js";
 import { characters, keyGarments, performers } from "./scenario.js";
+import { demoDaysFromToday, demoInstant } from "./calendar.js";
 import { demoPanels, demoSeams } from "./doubles-patterns.js";
 
 const P = SALTMARSH_ID;
@@ -30,10 +31,10 @@ async function one<T extends object>(sql: string, replacements: Record<string, u
 }
 
 
-const PUBLISHED_AT = new Date("2026-11-27T16:00:00.000Z");
 
 /** Panels, seams, the change's yardage marker and the published, received packet. */
 export async function seedDoubles(t: Transaction): Promise<void> {
+  const PUBLISHED_AT = demoInstant(demoDaysFromToday(-5), "16:00");
   const change = await one<{ id: string }>(
     `SELECT c.id FROM changes c LEFT JOIN change_items ci ON ci.change_id = c.id AND ci.garment_id = :jacket
       WHERE c.character_id = :c ORDER BY (ci.id IS NULL), c.number LIMIT 1`,
@@ -139,8 +140,8 @@ export async function seedDoubles(t: Transaction): Promise<void> {
       packetId,
       userId: userId("vfx"),
       notifiedAt: PUBLISHED_AT,
-      downloadedAt: new Date("2026-11-28T09:12:00.000Z"),
-      receivedAt: new Date("2026-11-28T09:30:00.000Z"),
+      downloadedAt: demoInstant(demoDaysFromToday(-4), "09:12"),
+      receivedAt: demoInstant(demoDaysFromToday(-4), "09:30"),
     },
     { transaction: t },
   );

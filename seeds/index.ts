@@ -11,6 +11,8 @@ import { seedBreakdownLinks } from "./breakdown-links.js";
 import { seedWardrobe } from "./wardrobe.js";
 import { seedWorkroom } from "./workroom.js";
 import { seedDoubles } from "./doubles.js";
+import { anchorDemo, DEMO_TIME_ZONE } from "./calendar.js";
+import { clock } from "../server/lib/clock.js";
 
 export { demoAccounts };
 
@@ -29,16 +31,22 @@ const steps: Array<{ name: string; run: (t: Transaction) => Promise<void> }> = [
   { name: "doubles: panels, seams, marker, packet", run: seedDoubles },
 ];
 
-/** Loads every demo step (idempotent). */
-export async function seedDemo(): Promise<void> {
+export interface SeedOptions {
+  /** The day the demo is anchored to (yyyy-MM-dd); default: today on the server's clock in the demo's zone. */
+  today?: string;
+}
+
+/** Loads every demo step (idempotent), with every date relative to the anchor day (seeds/calendar.ts). */
+export async function seedDemo(options: SeedOptions = {}): Promise<void> {
+  anchorDemo(options.today ?? clock.today(DEMO_TIME_ZONE));
   await sequelize.transaction(async (transaction) => {
     for (const step of steps) await step.run(transaction);
   });
 }
 
 /** Loads the demo data when the database has no users yet. Returns whether it did. */
-export async function seedIfEmpty(): Promise<boolean> {
+export async function seedIfEmpty(options: SeedOptions = {}): Promise<boolean> {
   if ((await User.count()) > 0) return false;
-  await seedDemo();
+  await seedDemo(options);
   return true;
 }

@@ -1,17 +1,15 @@
 /**
  * The invented demo scenario shared by every seed step, so records made by different steps link up.
  * "Saltmarsh Hollow": a 1920s coastal-village feature; 60 scenes over 12 story days, 18 shoot days
- * (Mon–Fri, 2026-11-30 to 2026-12-23), 10 characters, 2 stunt doubles, one digital double.
- * All names are invented.
+ * (working days, anchored to the day the demo is seeded: see seeds/calendar.ts), 10 characters,
+ * 2 stunt doubles, one digital double. All names are invented.
  */
 import { demoId } from "./ids.js";
 
-export const SHOOT_DAY_DATES = [
-  "2026-11-30", "2026-12-01", "2026-12-02", "2026-12-03", "2026-12-04",
-  "2026-12-07", "2026-12-08", "2026-12-09", "2026-12-10", "2026-12-11",
-  "2026-12-14", "2026-12-15", "2026-12-16", "2026-12-17", "2026-12-18",
-  "2026-12-21", "2026-12-22", "2026-12-23",
-] as const;
+/** Shoot day (1-based) on which the Reverend wears the rented frock coat after it is due back. */
+export const FROCK_COAT_WORN_ON_SHOOT_DAY = 14;
+/** Shoot day on whose date the frock coat is due back at the hire house. */
+export const FROCK_COAT_DUE_SHOOT_DAY = 10;
 
 /** Performers (real-person records in the app; invented here). */
 export const performers = {
@@ -55,7 +53,7 @@ export const keyGarments = {
   eliasBoots: demoId("garment:elias-boots"),
   /** Silas's storm oilskin: multiples group of 2 copies, but the shoot order needs 3 → multiples snag. */
   silasOilskinGroup: demoId("group:silas-oilskin"),
-  /** Reverend's frock coat, rented, due back 2026-12-11 but worn on shoot day 2026-12-17 → rental snag. */
+  /** Reverend's frock coat, rented, due back on shoot day 10's date but worn on shoot day 14 → rental snag. */
   ambroseFrockCoat: demoId("garment:ambrose-frock-coat"),
   maudDressDay: demoId("garment:maud-day-dress"),
   maudShawl: demoId("garment:maud-shawl"),
@@ -67,7 +65,7 @@ export const plannedConflicts = [
   "fit: Elias Marr's keeper's jacket is tight at the chest on Corwen Blakely",
   "continuity: Maud Penhallow changes between scenes 18 and 19 (story day 4) with no change marked",
   "multiples: Silas Rowe's storm oilskin needs 3 copies in shoot order (distress 2, 1, 0 on one day run) but the group holds 2",
-  "rental: the Reverend's frock coat is due back 2026-12-11 but is worn on shoot day 2026-12-17",
+  "rental: the Reverend's frock coat is due back on shoot day 10's date but is worn on shoot day 14",
   "quick change (stage): The Glass Orchard's Nell has under 2 minutes between acts in different changes",
 ] as const;
 

@@ -18,7 +18,8 @@ import type { FabricTestReadings } from "../shared/schemas/fabrics.js";
 import type { FinishedPoint, FitIntentValue, GarmentSource, GarmentStatus } from "../shared/schemas/garments.js";
 import { demoId } from "./ids.js";
 import { SALTMARSH_ID, userId } from "./accounts.js";
-import { performers, keyGarments } from "./scenario.js";
+import { FROCK_COAT_DUE_SHOOT_DAY, performers, keyGarments } from "./scenario.js";
+import { demoDate, demoDaysFromToday, demoInstant, type DemoDate } from "./calendar.js";
 
 type PerformerKey = keyof typeof performers;
 type Body = Partial<Record<MeasurementKey, number>>;
@@ -62,12 +63,12 @@ export const currentBodies: Record<PerformerKey, Body> = {
 };
 
 /** Earlier sets (casting measurements) for a few performers, so the history shows a change. */
-const earlierBodies: Partial<Record<PerformerKey, { takenOn: string; body: Body }>> = {
+const earlierBodies: Partial<Record<PerformerKey, { takenOn: DemoDate; body: Body }>> = {
   // Corwen Blakely put on weight for the role after the keeper's jacket was cut.
-  elias: { takenOn: "2026-10-14", body: { ...man(1820, 1015, 865, 995, 272) } },
-  maud: { takenOn: "2026-10-12", body: { ...woman(1680, 905, 725, 985, 245) } },
-  silas: { takenOn: "2026-10-15", body: { ...man(1850, 1055, 915, 1020, 280) } },
-  tamsin: { takenOn: "2026-10-16", body: { ...woman(1595, 835, 655, 895, 235) } },
+  elias: { takenOn: { daysFromToday: -49 }, body: { ...man(1820, 1015, 865, 995, 272) } },
+  maud: { takenOn: { daysFromToday: -51 }, body: { ...woman(1680, 905, 725, 985, 245) } },
+  silas: { takenOn: { daysFromToday: -48 }, body: { ...man(1850, 1055, 915, 1020, 280) } },
+  tamsin: { takenOn: { daysFromToday: -47 }, body: { ...woman(1595, 835, 655, 895, 235) } },
 };
 
 // ---------------------------------------------------------------------------------------------------------
@@ -91,7 +92,7 @@ interface GarmentSeed {
   source: GarmentSource;
   vendor?: string;
   costCents?: number;
-  rentalDueOn?: string;
+  rentalDueOn?: DemoDate;
   rack: string;
   bin?: string;
   status?: GarmentStatus;
@@ -218,20 +219,20 @@ export const garmentSeeds: GarmentSeed[] = [
   ]),
   // Reverend Ambrose Kittow.
   ...principal("ambrose", false, 4, [
-    { key: "ambrose-frock-coat", name: "Frock coat", category: "coat", fabric: "melton", colour: "black", source: "rented", vendor: RENTAL_A, costCents: 22000, rentalDueOn: "2026-12-11", rack: "RENT", bin: "01", notes: "Hire house asks for it back unaltered." },
+    { key: "ambrose-frock-coat", name: "Frock coat", category: "coat", fabric: "melton", colour: "black", source: "rented", vendor: RENTAL_A, costCents: 22000, rentalDueOn: { shootDay: FROCK_COAT_DUE_SHOOT_DAY }, rack: "RENT", bin: "01", notes: "Hire house asks for it back unaltered." },
     { key: "ambrose-shirt", name: "Clerical shirt", category: "shirt", fabric: "lawn", colour: "white", costCents: 7000 },
     { key: "ambrose-waistcoat", name: "Clerical waistcoat", category: "waistcoat", fabric: "crepe", colour: "black", costCents: 9000 },
     { key: "ambrose-trousers", name: "Black trousers", category: "trousers", fabric: "flannel", colour: "black", costCents: 9000 },
-    { key: "ambrose-hat", name: "Shovel hat", category: "hat", source: "rented", vendor: RENTAL_A, colour: "black", costCents: 4000, rentalDueOn: "2026-12-18", rack: "RENT", bin: "02" },
+    { key: "ambrose-hat", name: "Shovel hat", category: "hat", source: "rented", vendor: RENTAL_A, colour: "black", costCents: 4000, rentalDueOn: { shootDay: 15 }, rack: "RENT", bin: "02" },
     { key: "ambrose-shoes", name: "Black shoes", category: "shoes", source: "bought", vendor: "Cobbles & Welt", colour: "black", costCents: 12000 },
-    { key: "ambrose-cassock", name: "Cassock", category: "coat", fit: "loose", fabric: "crepe", colour: "black", source: "rented", vendor: RENTAL_B, costCents: 15000, rentalDueOn: "2027-01-08", rack: "RENT", bin: "03" },
+    { key: "ambrose-cassock", name: "Cassock", category: "coat", fit: "loose", fabric: "crepe", colour: "black", source: "rented", vendor: RENTAL_B, costCents: 15000, rentalDueOn: { workday: 27 }, rack: "RENT", bin: "03" },
   ]),
   // Hester Quiller.
   ...principal("hester", true, 5, [
     { key: "hester-dress", name: "Print dress", category: "dress", fit: "fitted", fabric: "linen", colour: "sprig print", costCents: 21000 },
     { key: "hester-blouse", name: "Work blouse", category: "blouse", fabric: "calico", colour: "cream", costCents: 6000 },
     { key: "hester-skirt", name: "Heavy skirt", category: "skirt", fabric: "drill", colour: "brown", costCents: 8000 },
-    { key: "hester-shawl", name: "Paisley shawl", category: "shawl", points: [], source: "rented", vendor: RENTAL_B, colour: "red paisley", costCents: 3000, rentalDueOn: "2026-12-23", rack: "RENT", bin: "04" },
+    { key: "hester-shawl", name: "Paisley shawl", category: "shawl", points: [], source: "rented", vendor: RENTAL_B, colour: "red paisley", costCents: 3000, rentalDueOn: { shootDay: 18 }, rack: "RENT", bin: "04" },
     { key: "hester-coat", name: "Fish-market coat", category: "coat", fit: "loose", fabric: "oilskin", colour: "black", costCents: 19000 },
     { key: "hester-boots", name: "Clogs", category: "shoes", source: "bought", vendor: "Cobbles & Welt", colour: "brown", costCents: 9000 },
     { key: "hester-apron", name: "Gutting apron", category: "apron", points: [], fabric: "oilskin", colour: "mustard", costCents: 2500 },
@@ -244,7 +245,7 @@ export const garmentSeeds: GarmentSeed[] = [
     { key: "silas-shirt", name: "Wing-collar shirt", category: "shirt", fabric: "lawn", colour: "white", costCents: 7000 },
     { key: "silas-trousers", name: "Sea trousers", category: "trousers", fabric: "drill", colour: "navy", costCents: 9000 },
     { key: "silas-gansey", name: "Captain's gansey", category: "knitwear", fit: "loose", fabric: "gansey", colour: "navy", costCents: 15000 },
-    { key: "silas-cap", name: "Peaked cap", category: "hat", source: "rented", vendor: RENTAL_B, colour: "navy", costCents: 3500, rentalDueOn: "2027-01-15", rack: "RENT", bin: "05" },
+    { key: "silas-cap", name: "Peaked cap", category: "hat", source: "rented", vendor: RENTAL_B, colour: "navy", costCents: 3500, rentalDueOn: { workday: 32 }, rack: "RENT", bin: "05" },
     { key: "silas-boots", name: "Sea boots", category: "boots", source: "bought", vendor: "Cobbles & Welt", colour: "black", costCents: 16000 },
     { key: "silas-wet-shirt", name: "Shirt (wet scenes)", category: "shirt", fabric: "calico", colour: "unbleached", group: { key: "silas-wet-shirt", name: "Silas's wet-scene shirt", copies: 3 }, costCents: 5000 },
   ]),
@@ -263,10 +264,10 @@ export const garmentSeeds: GarmentSeed[] = [
     { key: "obadiah-waistcoat", name: "Suit waistcoat", category: "waistcoat", fit: "fitted", fabric: "flannel", colour: "charcoal", costCents: 12000 },
     { key: "obadiah-trousers", name: "Suit trousers", category: "trousers", fabric: "flannel", colour: "charcoal", costCents: 14000 },
     { key: "obadiah-shirt", name: "Stiff-collar shirt", category: "shirt", fabric: "lawn", colour: "white", costCents: 7000 },
-    { key: "obadiah-overcoat", name: "Chesterfield overcoat", category: "coat", fit: "loose", fabric: "melton", colour: "black", source: "rented", vendor: RENTAL_A, costCents: 26000, rentalDueOn: "2026-12-31", rack: "RENT", bin: "06" },
-    { key: "obadiah-hat", name: "Homburg", category: "hat", source: "rented", vendor: RENTAL_A, colour: "black", costCents: 4500, rentalDueOn: "2026-12-31", rack: "RENT", bin: "07" },
+    { key: "obadiah-overcoat", name: "Chesterfield overcoat", category: "coat", fit: "loose", fabric: "melton", colour: "black", source: "rented", vendor: RENTAL_A, costCents: 26000, rentalDueOn: { workday: 21 }, rack: "RENT", bin: "06" },
+    { key: "obadiah-hat", name: "Homburg", category: "hat", source: "rented", vendor: RENTAL_A, colour: "black", costCents: 4500, rentalDueOn: { workday: 21 }, rack: "RENT", bin: "07" },
     { key: "obadiah-shoes", name: "Oxford shoes", category: "shoes", source: "bought", vendor: "Cobbles & Welt", colour: "oxblood", costCents: 15000 },
-    { key: "obadiah-evening", name: "Evening tailcoat", category: "coat", fabric: "melton", colour: "black", source: "rented", vendor: RENTAL_B, costCents: 32000, rentalDueOn: "2026-12-14", rack: "RENT", bin: "08", status: "returned", notes: "Scene cut; sent back early." },
+    { key: "obadiah-evening", name: "Evening tailcoat", category: "coat", fabric: "melton", colour: "black", source: "rented", vendor: RENTAL_B, costCents: 32000, rentalDueOn: { shootDay: 11 }, rack: "RENT", bin: "08", status: "returned", notes: "Scene cut; sent back early." },
   ]),
   // Lowdy Trevaskis.
   ...principal("lowdy", true, 9, [
@@ -284,7 +285,7 @@ export const garmentSeeds: GarmentSeed[] = [
     { key: "pascoe-trousers", name: "Uniform trousers", category: "trousers", fabric: "melton", colour: "navy", costCents: 14000 },
     { key: "pascoe-shirt", name: "Uniform shirt", category: "shirt", fabric: "drill", colour: "blue", costCents: 6000 },
     { key: "pascoe-cape", name: "Rain cape", category: "coat", fit: "loose", fabric: "oilskin", colour: "black", costCents: 17000 },
-    { key: "pascoe-helmet", name: "Custodian helmet", category: "hat", source: "rented", vendor: RENTAL_A, colour: "navy", costCents: 5000, rentalDueOn: "2027-01-22", rack: "RENT", bin: "09" },
+    { key: "pascoe-helmet", name: "Custodian helmet", category: "hat", source: "rented", vendor: RENTAL_A, colour: "navy", costCents: 5000, rentalDueOn: { workday: 37 }, rack: "RENT", bin: "09" },
     { key: "pascoe-boots", name: "Uniform boots", category: "boots", source: "bought", vendor: "Cobbles & Welt", colour: "black", costCents: 17000 },
   ]),
   // Stunt doubles: their own copies, cut to their own bodies.
@@ -303,7 +304,7 @@ const stockSizes = [
   { label: "M", man: man(1780, 980, 840, 990, 270), woman: woman(1650, 920, 740, 990, 242) },
   { label: "L", man: man(1820, 1060, 920, 1060, 280), woman: woman(1700, 1000, 820, 1070, 250) },
 ];
-const stockLines: Array<{ key: string; name: string; category: string; female: boolean; fabric: string | null; colour: string; fit: FitIntentValue; source?: GarmentSource; vendor?: string; due?: string }> = [
+const stockLines: Array<{ key: string; name: string; category: string; female: boolean; fabric: string | null; colour: string; fit: FitIntentValue; source?: GarmentSource; vendor?: string; due?: DemoDate }> = [
   { key: "fisher-coat", name: "Fisherman's coat", category: "coat", female: false, fabric: "oilskin", colour: "black", fit: "loose" },
   { key: "fisher-gansey", name: "Village gansey", category: "knitwear", female: false, fabric: "gansey", colour: "navy", fit: "loose" },
   { key: "fisher-trousers", name: "Canvas trousers", category: "trousers", female: false, fabric: "drill", colour: "tan", fit: "regular" },
@@ -311,9 +312,9 @@ const stockLines: Array<{ key: string; name: string; category: string; female: b
   { key: "market-blouse", name: "Market blouse", category: "blouse", female: true, fabric: "calico", colour: "cream", fit: "regular" },
   { key: "market-skirt", name: "Market skirt", category: "skirt", female: true, fabric: "drill", colour: "brown", fit: "regular" },
   { key: "village-dress", name: "Village dress", category: "dress", female: true, fabric: "linen", colour: "faded print", fit: "regular" },
-  { key: "chapel-jacket", name: "Chapel jacket", category: "jacket", female: false, fabric: "flannel", colour: "grey", fit: "regular", source: "rented", vendor: RENTAL_B, due: "2027-01-06" },
+  { key: "chapel-jacket", name: "Chapel jacket", category: "jacket", female: false, fabric: "flannel", colour: "grey", fit: "regular", source: "rented", vendor: RENTAL_B, due: { workday: 25 } },
   { key: "village-shawl", name: "Village shawl", category: "shawl", female: true, fabric: "gansey", colour: "grey", fit: "loose" },
-  { key: "chapel-coat", name: "Chapel coat", category: "coat", female: true, fabric: "melton", colour: "black", fit: "loose", source: "rented", vendor: RENTAL_A, due: "2026-12-21" },
+  { key: "chapel-coat", name: "Chapel coat", category: "coat", female: true, fabric: "melton", colour: "black", fit: "loose", source: "rented", vendor: RENTAL_A, due: { shootDay: 16 } },
   { key: "worker-waistcoat", name: "Working waistcoat", category: "waistcoat", female: false, fabric: "moleskin", colour: "brown", fit: "regular" },
   { key: "village-cap", name: "Village cap", category: "hat", female: false, fabric: "flannel", colour: "grey", fit: "regular" },
 ];
@@ -396,15 +397,15 @@ async function seedFabrics(transaction: Transaction): Promise<void> {
   for (const [i, f] of fabricSeeds.entries()) {
     // Two 100 × 100 mm specimens within ±2 % of the declared weight (suppliers round).
     const wobble = 1 + (((i * 37) % 9) - 4) / 200;
-    tests.push({ key: "mass-1", fabric: f.key, readings: { kind: "mass", massG: Math.round(f.gsm * wobble) / 100, lengthMm: 100, widthMm: 100 }, testedOn: "2026-11-10" });
-    tests.push({ key: "mass-2", fabric: f.key, readings: { kind: "mass", massG: Math.round(f.gsm * (2 - wobble)) / 100 + 0.01, lengthMm: 100, widthMm: 100 }, testedOn: "2026-11-10" });
-    tests.push({ key: "bend-warp", fabric: f.key, readings: { kind: "cantilever", direction: "warp", overhangMm: f.overhang[0], angleDeg: 41.5 }, testedOn: "2026-11-11" });
-    tests.push({ key: "bend-weft", fabric: f.key, readings: { kind: "cantilever", direction: "weft", overhangMm: f.overhang[1], angleDeg: 41.5 }, testedOn: "2026-11-11" });
+    tests.push({ key: "mass-1", fabric: f.key, readings: { kind: "mass", massG: Math.round(f.gsm * wobble) / 100, lengthMm: 100, widthMm: 100 }, testedOn: demoDaysFromToday(-22) });
+    tests.push({ key: "mass-2", fabric: f.key, readings: { kind: "mass", massG: Math.round(f.gsm * (2 - wobble)) / 100 + 0.01, lengthMm: 100, widthMm: 100 }, testedOn: demoDaysFromToday(-22) });
+    tests.push({ key: "bend-warp", fabric: f.key, readings: { kind: "cantilever", direction: "warp", overhangMm: f.overhang[0], angleDeg: 41.5 }, testedOn: demoDaysFromToday(-21) });
+    tests.push({ key: "bend-weft", fabric: f.key, readings: { kind: "cantilever", direction: "weft", overhangMm: f.overhang[1], angleDeg: 41.5 }, testedOn: demoDaysFromToday(-21) });
     if (f.stripLoad) {
-      tests.push({ key: "strip-warp", fabric: f.key, readings: { kind: "strip", direction: "warp", loadN: f.stripLoad[0], stripWidthMm: 50, gaugeLengthMm: 200, extensionMm: 4 }, testedOn: "2026-11-12" });
-      tests.push({ key: "strip-weft", fabric: f.key, readings: { kind: "strip", direction: "weft", loadN: f.stripLoad[1], stripWidthMm: 50, gaugeLengthMm: 200, extensionMm: 4 }, testedOn: "2026-11-12" });
+      tests.push({ key: "strip-warp", fabric: f.key, readings: { kind: "strip", direction: "warp", loadN: f.stripLoad[0], stripWidthMm: 50, gaugeLengthMm: 200, extensionMm: 4 }, testedOn: demoDaysFromToday(-20) });
+      tests.push({ key: "strip-weft", fabric: f.key, readings: { kind: "strip", direction: "weft", loadN: f.stripLoad[1], stripWidthMm: 50, gaugeLengthMm: 200, extensionMm: 4 }, testedOn: demoDaysFromToday(-20) });
     }
-    tests.push({ key: "thickness", fabric: f.key, readings: { kind: "thickness", thicknessMm: f.thicknessMm }, testedOn: "2026-11-12" });
+    tests.push({ key: "thickness", fabric: f.key, readings: { kind: "thickness", thicknessMm: f.thicknessMm }, testedOn: demoDaysFromToday(-20) });
   }
   await FabricTest.bulkCreate(
     tests.map((t) => ({
@@ -429,9 +430,9 @@ async function seedMeasurements(transaction: Transaction): Promise<void> {
   for (const key of Object.keys(performers) as PerformerKey[]) {
     const earlier = earlierBodies[key];
     if (earlier) {
-      rows.push({ id: demoId(`measurements:${key}:casting`), productionId: SALTMARSH_ID, performerId: performers[key].id, takenOn: earlier.takenOn, takenBy: userId("designer"), valuesMm: earlier.body, enteredUnit: "cm", notes: "Casting measurements." });
+      rows.push({ id: demoId(`measurements:${key}:casting`), productionId: SALTMARSH_ID, performerId: performers[key].id, takenOn: demoDate(earlier.takenOn), takenBy: userId("designer"), valuesMm: earlier.body, enteredUnit: "cm", notes: "Casting measurements." });
     }
-    rows.push({ id: demoId(`measurements:${key}:current`), productionId: SALTMARSH_ID, performerId: performers[key].id, takenOn: "2026-11-18", takenBy: userId("cutter"), valuesMm: currentBodies[key], enteredUnit: key === "silas" ? "in" : "cm", notes: "First fitting." });
+    rows.push({ id: demoId(`measurements:${key}:current`), productionId: SALTMARSH_ID, performerId: performers[key].id, takenOn: demoDaysFromToday(-14), takenBy: userId("cutter"), valuesMm: currentBodies[key], enteredUnit: key === "silas" ? "in" : "cm", notes: "First fitting." });
   }
   await MeasurementSet.bulkCreate(rows, { transaction, updateOnDuplicate: ["takenOn", "takenBy", "valuesMm", "enteredUnit", "notes", "updatedAt"] });
 }
@@ -484,7 +485,7 @@ async function seedGarments(transaction: Transaction): Promise<number> {
         source: g.source,
         vendor: g.vendor ?? null,
         costCents: g.costCents ?? null,
-        rentalDueOn: g.rentalDueOn ?? null,
+        rentalDueOn: g.rentalDueOn ? demoDate(g.rentalDueOn) : null,
         locationRack: status === "on_set" || status === "returned" || status === "lost" ? null : g.rack,
         locationBin: status === "on_set" || status === "returned" || status === "lost" ? null : (g.bin ?? null),
         status,
@@ -494,9 +495,9 @@ async function seedGarments(transaction: Transaction): Promise<number> {
         notes: g.notes ?? null,
       });
       const home = [g.rack, g.bin].filter(Boolean).join(" / ");
-      events.push({ id: demoId(`garment-event:${key}:0`), productionId: SALTMARSH_ID, garmentId: garmentId(key), fromStatus: null, toStatus: "in_stock", fromLocation: null, toLocation: home, note: "Added to stock", actorId: userId("supervisor"), createdAt: new Date("2026-11-16T09:00:00Z") });
+      events.push({ id: demoId(`garment-event:${key}:0`), productionId: SALTMARSH_ID, garmentId: garmentId(key), fromStatus: null, toStatus: "in_stock", fromLocation: null, toLocation: home, note: "Added to stock", actorId: userId("supervisor"), createdAt: demoInstant(demoDaysFromToday(-16), "09:00") });
       if (status !== "in_stock") {
-        events.push({ id: demoId(`garment-event:${key}:1`), productionId: SALTMARSH_ID, garmentId: garmentId(key), fromStatus: "in_stock", toStatus: status, fromLocation: home, toLocation: status === "on_set" || status === "returned" || status === "lost" ? null : home, note: null, actorId: userId(status === "fitting" ? "cutter" : "set_costumer"), createdAt: new Date("2026-11-27T16:30:00Z") });
+        events.push({ id: demoId(`garment-event:${key}:1`), productionId: SALTMARSH_ID, garmentId: garmentId(key), fromStatus: "in_stock", toStatus: status, fromLocation: home, toLocation: status === "on_set" || status === "returned" || status === "lost" ? null : home, note: null, actorId: userId(status === "fitting" ? "cutter" : "set_costumer"), createdAt: demoInstant(demoDaysFromToday(-5), "16:30") });
       }
     }
   }

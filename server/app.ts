@@ -1,7 +1,7 @@
 import fs from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import express, { type Express } from "express";
+import express, { type Express, type RequestHandler } from "express";
 import helmet from "helmet";
 import session from "express-session";
 import connectPgSimple from "connect-pg-simple";
@@ -14,10 +14,38 @@ import { passport } from "./auth/passport.js";
 import { buildApiRouter } from "./routes/index.js";
 import { apiNotFound, errorHandler } from "./middleware/error-handler.js";
 import { HttpError } from "./errors.js";
+import { healthRouter } from "./routes/health.routes.js";
 
 const rootDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 
 let sessionPool: pg.Pool | undefined;
+
+/**
+ * The session store's own pool. An idle client whose server goes away emits "error" on the pool;
+ * without a listener that would end the process, so it is logged and the pool opens new clients later.
+ */
+function createSessionPool(): pg.Pool {
+  const pool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 5, connectionTimeoutMillis: 5000 });
+  pool.on("error", (err) => logger.warn({ err: { message: err.message, code: (err as { code?: string }).code } }, "session store connection lost"));
+  return pool;
+}
+
+/**
+ * express-session saves or touches the session while the answer is being written, and reports a
+ * failure (the database went away) by calling `next` a second time. By then the answer is out and
+ * Express's request pipeline has finished, so that call would end in Express's default handler,
+ * which prints the error and cuts the keep-alive connection under the next request. Log it instead.
+ */
+function lateErrorsLogged(mw: RequestHandler): RequestHandler {
+  return (req, res, next) =>
+    mw(req, res, (err?: unknown) => {
+      if (err && res.headersSent) {
+        logger.warn({ url: req.originalUrl, reason: (err as Error)?.message }, "session store failed after the response was sent");
+        return;
+      }
+      next(err);
+    });
+}
 
 /** Builds the Express app. Never listens (server/index.ts does), so tests use it with supertest. */
 export function createApp(): Express {
@@ -44,18 +72,26 @@ export function createApp(): Express {
 
   app.use(express.json({ limit: "2mb" }));
 
-  sessionPool ??= new pg.Pool({ connectionString: config.DATABASE_URL, max: 5 });
+  app.use("/api", healthRouter);
+
+  sessionPool ??= createSessionPool();
   const PgStore = connectPgSimple(session);
   app.use(
-    session({
+    lateErrorsLogged(session({
       name: "seamscene.sid",
-      store: new PgStore({ pool: sessionPool, tableName: "session", createTableIfMissing: false, pruneSessionInterval: isProduction ? 900 : false }),
+      store: new PgStore({
+        pool: sessionPool,
+        tableName: "session",
+        createTableIfMissing: false,
+        pruneSessionInterval: isProduction ? 900 : false,
+        errorLog: (...args: unknown[]) => logger.warn({ detail: args.map(String).join(" ") }, "session store error"),
+      }),
       secret: config.SESSION_SECRET,
       resave: false,
       saveUninitialized: false,
       rolling: true,
       cookie: { httpOnly: true, sameSite: "lax", secure: config.SECURE_COOKIES, maxAge: 14 * 86_400_000 },
-    }),
+    })),
   );
   app.use(passport.initialize());
   app.use(passport.session());

@@ -7,7 +7,7 @@ const envSchema = z.object({
   PORT: z.coerce.number().int().default(3000),
   /** Public address used in e-mailed links. */
   APP_URL: z.string().url().default("http://127.0.0.1:3000"),
-  DATABASE_URL: z.string().min(1).default("postgres://app@127.0.0.1:5433/seamscene"),
+  DATABASE_URL: z.string().min(1).default("postgres://seamscene@127.0.0.1:5433/seamscene"),
   SESSION_SECRET: z.string().min(16).default("seamscene-development-session-secret"),
   /** Set when the app is served over HTTPS (cookies become Secure). */
   TRUST_PROXY: z.stringbool().default(false),
@@ -20,6 +20,8 @@ const envSchema = z.object({
   MAIL_FROM: z.string().default("Seamscene <no-reply@seamscene.invalid>"),
   /** Show the development outbox (messages caught by the local SMTP fake). */
   DEV_OUTBOX: z.stringbool().default(true),
+  /** Private working folder (mode 0700): upload temp files, backup and restore staging. */
+  DATA_DIR: z.string().default(".data"),
   STORAGE_DRIVER: z.enum(["disk", "s3"]).default("disk"),
   STORAGE_DIR: z.string().default(".data/storage"),
   S3_ENDPOINT: z.string().optional(),

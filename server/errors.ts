@@ -22,3 +22,5 @@ export const UnsupportedMediaTypeError = (message: string) => new HttpError(415,
 export const UnprocessableError = (message: string, fields?: Record<string, string>) =>
   new HttpError(422, "unprocessable", message, fields);
 export const TooManyRequestsError = (message: string) => new HttpError(429, "too_many_requests", message);
+export const DatabaseUnavailableError = (message = "The database is not reachable right now. Nothing was changed; try again in a moment.") =>
+  new HttpError(503, "database_unavailable", message);

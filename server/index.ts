@@ -5,6 +5,7 @@ import { sequelize } from "./db.js";
 import { migrate } from "./migrator.js";
 import { logger } from "./lib/logger.js";
 import { startJobs, stopJobs } from "./lib/jobs.js";
+import { sweepStorage } from "./services/storage-sweep.service.js";
 
 /** Migrates, then listens; closes cleanly on SIGINT/SIGTERM. */
 export async function startServer(): Promise<Server> {
@@ -17,6 +18,8 @@ export async function startServer(): Promise<Server> {
   });
   // The job queue (workroom invitations and reminders); a failure to start it must not stop the app.
   await startJobs().catch((err) => logger.error({ err }, "job queue did not start; e-mails are sent inline"));
+  // What a killed predecessor left behind (temp files, files without rows), in the background.
+  void sweepStorage().catch((err: unknown) => logger.error({ err }, "storage sweep failed"));
   const shutdown = async () => {
     logger.info("shutting down");
     server.close();

@@ -52,6 +52,12 @@ export const permissionTable = {
   "snag.dismiss": [S, D],
   "fitting.read": [S, D, SC, C],
   "fitting.update": [S, D, C],
+  /**
+   * At a fitting, link a change item that has no garment yet to one from stock, or add the garment
+   * there. The workroom may do this although it cannot edit changes: it is a wardrobe fact (which
+   * piece the item is), not a design decision, and the fitting is where it is found out.
+   */
+  "fitting.link_garment": [S, D, C],
   "alteration.read": [S, D, SC, C],
   "alteration.update": [S, D, C],
   "alteration.estimate": [S, D, C],

@@ -38,7 +38,7 @@ export interface BreakdownBenchResult {
 export async function runBreakdownBench(): Promise<BreakdownBenchResult> {
   const pg = await ensureLocalPostgres({ dataDir: process.env.PGDATA_DIR ?? path.resolve(".data/pg"), port: Number(process.env.PGPORT ?? 5433) });
   await dropDatabase(pg.adminUrl, "seamscene_bench");
-  process.env.DATABASE_URL = await ensureDatabase(pg.adminUrl, "seamscene_bench");
+  process.env.DATABASE_URL = await ensureDatabase(pg, "seamscene_bench");
   process.env.NODE_ENV = "test";
   process.env.LOG_LEVEL = "silent";
   const storageDir = fs.mkdtempSync(path.join(os.tmpdir(), "seamscene-bench-"));

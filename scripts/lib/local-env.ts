@@ -11,7 +11,10 @@ export async function prepareLocalEnv(): Promise<{ pg?: LocalPostgres; startSmtp
     const dataDir = process.env.PGDATA_DIR ?? path.resolve(".data/pg");
     const port = Number(process.env.PGPORT ?? 5433);
     pg = await ensureLocalPostgres({ dataDir, port });
-    process.env.DATABASE_URL = await ensureDatabase(pg.adminUrl, process.env.PGDATABASE ?? "seamscene");
+    if (pg.relocatedFrom) {
+      console.log(`PostgreSQL keeps its data in ${pg.dataDir}: the postgres user cannot enter ${pg.relocatedFrom} (a parent folder is private).`);
+    }
+    process.env.DATABASE_URL = await ensureDatabase(pg, process.env.PGDATABASE ?? "seamscene");
   }
   // Without a configured relay, mail goes to the local fake on loopback and shows in the outbox.
   const startSmtpFake = !process.env.SMTP_HOST;

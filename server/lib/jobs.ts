@@ -6,6 +6,7 @@
 import PgBoss from "pg-boss";
 import { config } from "../config.js";
 import { logger } from "./logger.js";
+import { isDatabaseUnavailable } from "./db-errors.js";
 
 /** Attempt information a handler receives (retryCount counts earlier failures). */
 export interface JobMeta {
@@ -71,7 +72,12 @@ export async function runJobNow(name: string, data: Record<string, unknown>, met
 export async function startJobs(): Promise<void> {
   if (boss || !config.JOBS_ENABLED) return;
   const b = new PgBoss({ connectionString: config.DATABASE_URL, max: 4, application_name: "seamscene-jobs" });
-  b.on("error", (err) => logger.error({ err }, "job queue error"));
+  // pg-boss reports its pool's and loops' errors here (a listener must exist, or the process ends). While
+  // PostgreSQL is down each poll fails; the queue carries on polling and resumes once it is back.
+  b.on("error", (err) => {
+    if (isDatabaseUnavailable(err)) logger.warn({ reason: err.message }, "job queue: database unavailable");
+    else logger.error({ err }, "job queue error");
+  });
   await b.start();
   for (const [name, def] of defs) {
     await b.createQueue(name, { name, retryLimit: def.retryLimit, retryDelay: def.retryDelay, retryBackoff: def.retryBackoff });

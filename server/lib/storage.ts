@@ -4,8 +4,10 @@ import fs from "node:fs";
 import fsp from "node:fs/promises";
 import path from "node:path";
 import { Readable } from "node:stream";
-import { DeleteObjectCommand, GetObjectCommand, HeadObjectCommand, PutObjectCommand, S3Client, CreateBucketCommand, HeadBucketCommand } from "@aws-sdk/client-s3";
+import { randomUUID } from "node:crypto";
+import { DeleteObjectCommand, GetObjectCommand, HeadObjectCommand, ListObjectsV2Command, PutObjectCommand, S3Client, CreateBucketCommand, HeadBucketCommand } from "@aws-sdk/client-s3";
 import { config } from "../config.js";
+import { instanceTag } from "./instance.js";
 
 /** A place to put, read and remove files by key. */
 export interface Storage {
@@ -18,6 +20,15 @@ export interface Storage {
   exists(key: string): Promise<boolean>;
   /** Removes the file; a missing file is not an error. */
   delete(key: string): Promise<void>;
+  /** Every stored file whose key starts with `prefix` (temporary files included), in no set order. */
+  list(prefix?: string): Promise<StoredFileInfo[]>;
+}
+
+/** One stored file as a listing shows it. */
+export interface StoredFileInfo {
+  key: string;
+  bytes: number;
+  modifiedAt: Date;
 }
 
 /** Raised when a key has no file. */
@@ -42,8 +53,9 @@ export function createDiskStorage(root: string): Storage {
     async put(key, body) {
       const file = abs(key);
       await fsp.mkdir(path.dirname(file), { recursive: true });
-      // Write then rename so a reader never sees half a file.
-      const tmp = `${file}.${process.pid}.${Date.now()}.tmp`;
+      // Write then rename so a reader never sees half a file. The name says which process wrote it,
+      // so the start-up sweep can remove what a killed process left.
+      const tmp = `${file}.${instanceTag}.${randomUUID().slice(0, 8)}.tmp`;
       await fsp.writeFile(tmp, body);
       await fsp.rename(tmp, file);
     },
@@ -62,6 +74,31 @@ export function createDiskStorage(root: string): Storage {
     },
     async exists(key) {
       return fs.existsSync(abs(key));
+    },
+    async list(prefix = "") {
+      const rootAbs = path.resolve(root);
+      const out: StoredFileInfo[] = [];
+      const walk = async (dir: string): Promise<void> => {
+        let entries: fs.Dirent[];
+        try {
+          entries = await fsp.readdir(dir, { withFileTypes: true });
+        } catch (err) {
+          if ((err as NodeJS.ErrnoException).code === "ENOENT") return;
+          throw err;
+        }
+        for (const e of entries) {
+          const full = path.join(dir, e.name);
+          if (e.isDirectory()) await walk(full);
+          else if (e.isFile()) {
+            const key = path.relative(rootAbs, full).split(path.sep).join("/");
+            if (!key.startsWith(prefix)) continue;
+            const st = await fsp.stat(full);
+            out.push({ key, bytes: st.size, modifiedAt: st.mtime });
+          }
+        }
+      };
+      await walk(rootAbs);
+      return out;
     },
     async delete(key) {
       await fsp.rm(abs(key), { force: true });
@@ -153,6 +190,19 @@ export function createS3Storage(o: S3StorageOptions): Storage {
     async delete(key) {
       await ensureBucket();
       await client.send(new DeleteObjectCommand({ Bucket: o.bucket, Key: safeKey(key) }));
+    },
+    async list(prefix = "") {
+      await ensureBucket();
+      const out: StoredFileInfo[] = [];
+      let token: string | undefined;
+      do {
+        const page = await client.send(new ListObjectsV2Command({ Bucket: o.bucket, Prefix: prefix || undefined, ContinuationToken: token }));
+        for (const obj of page.Contents ?? []) {
+          if (obj.Key) out.push({ key: obj.Key, bytes: obj.Size ?? 0, modifiedAt: obj.LastModified ?? new Date(0) });
+        }
+        token = page.IsTruncated ? page.NextContinuationToken : undefined;
+      } while (token);
+      return out;
     },
   };
 }

@@ -17,3 +17,18 @@ export function zonedParts(instant: Date, timeZone: string): { date: string; hou
 export function formatZoned(instant: Date, timeZone: string): string {
   return new Intl.DateTimeFormat("en-GB", { timeZone, weekday: "short", day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", hourCycle: "h23" }).format(instant);
 }
+
+/** The instant at which a zone's wall clock shows `date` (yyyy-MM-dd) at `time` (HH:mm); the later one in a repeated hour. */
+export function zonedInstant(date: string, time: string, timeZone: string): Date {
+  const [y, mo, d] = date.split("-").map(Number) as [number, number, number];
+  const [h, mi] = time.split(":").map(Number) as [number, number];
+  const wanted = Date.UTC(y, mo - 1, d, h, mi);
+  let t = wanted;
+  // Two corrections settle the zone's offset, also across a daylight-saving change.
+  for (let i = 0; i < 2; i++) {
+    const p = zonedParts(new Date(t), timeZone);
+    const [py, pmo, pd] = p.date.split("-").map(Number) as [number, number, number];
+    t += wanted - Date.UTC(py, pmo - 1, pd, p.hour, p.minute);
+  }
+  return new Date(t);
+}

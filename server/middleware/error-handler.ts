@@ -2,7 +2,8 @@ import type { ErrorRequestHandler, RequestHandler } from "express";
 import { ZodError } from "zod";
 import { BaseError, UniqueConstraintError, ValidationError as SequelizeValidationError, ForeignKeyConstraintError, EmptyResultError, DatabaseError } from "sequelize";
 import multer from "multer";
-import { HttpError } from "../errors.js";
+import { DatabaseUnavailableError, HttpError } from "../errors.js";
+import { isDatabaseUnavailable } from "../lib/db-errors.js";
 import { logger } from "../lib/logger.js";
 
 function zodToHttp(err: ZodError): HttpError {
@@ -23,6 +24,8 @@ function camel(s: string): string {
 /** Maps any thrown error onto one HttpError. */
 export function toHttpError(err: unknown): HttpError {
   if (err instanceof HttpError) return err;
+  // PostgreSQL restarting or unreachable: a 503 the client can retry, not a 500.
+  if (isDatabaseUnavailable(err)) return DatabaseUnavailableError();
   if (err instanceof ZodError) return zodToHttp(err);
   if (err instanceof UniqueConstraintError) {
     const fields: Record<string, string> = {};
@@ -62,7 +65,17 @@ export function toHttpError(err: unknown): HttpError {
 /** The one place error responses are written. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   const httpError = toHttpError(err);
-  if (httpError.status >= 500) logger.error({ err, url: req.originalUrl }, "request failed");
+  if (res.headersSent) {
+    // Too late for an error response: e.g. the session store failed to save after the answer went out
+    // (express-session saves while the body is written). Log it; cut the connection only if the
+    // body is still unfinished, so the client does not wait for ever.
+    logger.warn({ url: req.originalUrl, reason: (err as Error)?.message, code: httpError.code }, "error after the response was sent");
+    if (!res.writableEnded) req.socket?.destroy();
+    return;
+  }
+  if (httpError.code === "database_unavailable") logger.warn({ url: req.originalUrl, reason: (err as Error)?.message }, "database unavailable");
+  else if (httpError.status >= 500) logger.error({ err, url: req.originalUrl }, "request failed");
+  if (httpError.status === 503) res.set("Retry-After", "5");
   res.status(httpError.status).json({
     error: { code: httpError.code, message: httpError.message, ...(httpError.fields ? { fields: httpError.fields } : {}) },
   });

@@ -7,6 +7,7 @@ import {
   listAppearancesQuerySchema,
   listScenesQuerySchema,
   listShootDaysQuerySchema,
+  moveSceneInputSchema,
   sceneInputSchema,
   shootDayInputSchema,
   updateAppearanceInputSchema,
@@ -16,9 +17,9 @@ import {
 import { authorize, actorOf } from "../middleware/require-auth.js";
 import { sendList } from "../lib/http.js";
 import { createScene, deleteScene, getSceneDetail, listScenes, updateScene } from "../services/scenes.service.js";
-import { createShootDay, deleteShootDay, getShootDay, listShootDays, updateShootDay } from "../services/shoot-days.service.js";
+import { createShootDay, deleteShootDay, getShootDay, listShootDays, moveSceneToDay, updateShootDay } from "../services/shoot-days.service.js";
 import { createAppearance, deleteAppearance, listAppearances, updateAppearance } from "../services/appearances.service.js";
-import { exportBreakdown, importBreakdown, previewBreakdownImport } from "../services/imports.service.js";
+import { breakdownTemplate, exportBreakdown, importBreakdown, previewBreakdownImport } from "../services/imports.service.js";
 import { presentAppearance, presentScene } from "../presenters/breakdown.presenter.js";
 
 const idParams = z.object({ id: idSchema });
@@ -86,6 +87,12 @@ shootDaysRouter.patch("/:id", authorize("breakdown.update"), async (req, res) =>
   res.json({ data: await updateShootDay(actorOf(req), id, input) });
 });
 
+shootDaysRouter.post("/:id/move-scene", authorize("breakdown.update"), async (req, res) => {
+  const { id } = idParams.parse(req.params);
+  const input = moveSceneInputSchema.parse(req.body);
+  res.json({ data: await moveSceneToDay(actorOf(req), id, input) });
+});
+
 shootDaysRouter.delete("/:id", authorize("breakdown.update"), async (req, res) => {
   const { id } = idParams.parse(req.params);
   await deleteShootDay(actorOf(req), id);
@@ -120,6 +127,13 @@ appearancesRouter.delete("/:id", authorize("breakdown.update"), async (req, res)
 
 /** /api/productions/:productionId/imports — breakdown CSV: preview (nothing saved), then import. */
 export const importsRouter = Router({ mergeParams: true });
+
+importsRouter.get("/breakdown/template", authorize("breakdown.import"), async (req, res) => {
+  const csv = await breakdownTemplate(actorOf(req));
+  res.setHeader("Content-Type", "text/csv; charset=utf-8");
+  res.setHeader("Content-Disposition", `attachment; filename="breakdown-template.csv"`);
+  res.send(csv);
+});
 
 importsRouter.post("/breakdown/preview", authorize("breakdown.import"), async (req, res) => {
   const input = breakdownImportInputSchema.parse(req.body);

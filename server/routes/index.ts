@@ -1,5 +1,4 @@
 import { Router } from "express";
-import { sequelize } from "../db.js";
 import { requireAuth, loadProduction } from "../middleware/require-auth.js";
 import { authRouter, invitationsPublicRouter } from "./auth.routes.js";
 import { productionsRouter, productionRouter } from "./productions.routes.js";
@@ -21,15 +20,6 @@ import { packetsRouter } from "./packets.routes.js";
 /** Everything under /api. Feature routers mount on `production` (one production's records). */
 export function buildApiRouter(): Router {
   const api = Router();
-
-  api.get("/health", async (_req, res) => {
-    try {
-      await sequelize.query("SELECT 1");
-      res.json({ ok: true, db: "up" });
-    } catch {
-      res.status(503).json({ ok: false, db: "down" });
-    }
-  });
 
   api.use("/auth", authRouter);
   api.use("/invitations", invitationsPublicRouter);

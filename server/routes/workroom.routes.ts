@@ -5,6 +5,7 @@ import {
   createFittingInputSchema,
   createTicketInputSchema,
   listEmailJobsQuerySchema,
+  linkFittingItemInputSchema,
   listFittingsQuerySchema,
   listTicketsQuerySchema,
   planQuerySchema,
@@ -15,7 +16,7 @@ import {
   workroomSettingsInputSchema,
 } from "@shared/schemas/workroom.js";
 import { authorize, actorOf } from "../middleware/require-auth.js";
-import { createFitting, getFittingDetail, listFittings, updateFitting } from "../services/fittings.service.js";
+import { createFitting, getFittingDetail, linkFittingItem, listFittings, updateFitting } from "../services/fittings.service.js";
 import { getTicket, listTickets, presentTickets, raiseTicket, setTicketStatus, updateTicket } from "../services/alterations.service.js";
 import { buildPlan, listCapacity, updateWorkroomSettings, upsertCapacity, workroomOptions } from "../services/workroom.service.js";
 import { listEmailJobs, retryEmailJob } from "../services/workroom-mail.service.js";
@@ -41,6 +42,12 @@ fittingsRouter.post("/", authorize("fitting.update"), async (req, res) => {
 fittingsRouter.get("/:id", authorize("fitting.read"), async (req, res) => {
   const { id } = idParams.parse(req.params);
   res.json({ data: await getFittingDetail(actorOf(req), id) });
+});
+
+fittingsRouter.post("/:id/items/:changeItemId/garment", authorize("fitting.link_garment"), async (req, res) => {
+  const { id, changeItemId } = z.object({ id: idSchema, changeItemId: idSchema }).parse(req.params);
+  const input = linkFittingItemInputSchema.parse(req.body);
+  res.json({ data: await linkFittingItem(actorOf(req), id, changeItemId, input) });
 });
 
 fittingsRouter.patch("/:id", authorize("fitting.update"), async (req, res) => {

@@ -8,7 +8,7 @@ import { Appearance, Change, Character, ContinuityEntry, ContinuityEntryGarment,
 import { NotFoundError, ValidationError } from "../errors.js";
 import { presentPhoto } from "../presenters/photos.presenter.js";
 import { recordAudit } from "./audit.service.js";
-import { deletePhotosOfOwners, linkPhoto, photosForOwners, removeUnreferencedFiles, storeImage, type StoredImage, type UploadedFile } from "./photos.service.js";
+import { deletePhotosOfOwners, linkPhoto, photosForOwners, releaseStoredImages, removeUnreferencedFiles, storeImage, type StoredImage, type UploadedFile } from "./photos.service.js";
 import type { Actor } from "../middleware/require-auth.js";
 
 async function checkGarments(productionId: string, ids: string[], transaction: Transaction): Promise<void> {
@@ -87,8 +87,10 @@ export async function createContinuityEntry(actor: Actor, input: ContinuityEntry
       await recordAudit({ productionId: pid, actorId: actor.user.id, action: "continuity.log", entityType: "continuity_entry", entityId: e.id, after: { sceneId: input.sceneId, characterId: input.characterId, photos: stored.length } }, transaction);
       return e.id;
     });
+    await releaseStoredImages(stored);
     return getContinuityEntry(actor, id);
   } catch (err) {
+    await releaseStoredImages(stored);
     await removeUnreferencedFiles(stored.map((s) => s.contentHash));
     throw err;
   }

@@ -7,8 +7,10 @@ import { randomUUID } from "node:crypto";
 import { sequelize } from "../db.js";
 import { config } from "../config.js";
 import { productionTimeZone } from "../lib/clock.js";
-import { AlterationTicket, Fitting, Membership, Production, User } from "../models/index.js";
-import type { CreateFittingInput, FittingDetailDto, FittingDto, ListFittingsQuery, UpdateFittingInput } from "@shared/schemas/workroom.js";
+import { AlterationTicket, ChangeItem, Fitting, Garment, Membership, Production, User } from "../models/index.js";
+import type { CreateFittingInput, FittingDetailDto, FittingDto, LinkFittingItemInput, ListFittingsQuery, UpdateFittingInput } from "@shared/schemas/workroom.js";
+import { createGarmentInputSchema } from "@shared/schemas/garments.js";
+import { createGarmentsIn, mapTagRace } from "./garments.service.js";
 import { can } from "@shared/permissions.js";
 import { checkFit, describePointFit, fitSnagFromFacts } from "@shared/domain/snags/fit.js";
 import { finishSnag } from "@shared/domain/snags/engine.js";
@@ -243,4 +245,37 @@ export async function updateFitting(actor: Actor, id: string, input: UpdateFitti
     else if (moved && wasBooked && f.status === "booked") await queueFittingMail(actor, f, "update", transaction);
   });
   return getFitting(actor, id);
+}
+
+/**
+ * At a fitting: links a change item that has no garment yet to a garment from stock, or adds the
+ * garment to stock there and links it, in one transaction. The change's approval stands: which
+ * physical piece an item is does not change the design.
+ * @returns the fitting as the tablet shows it now
+ */
+export async function linkFittingItem(actor: Actor, fittingId: string, changeItemId: string, input: LinkFittingItemInput): Promise<FittingDetailDto> {
+  await sequelize
+    .transaction(async (transaction) => {
+      const f = await loadFitting(actor, fittingId, transaction);
+      if (f.status === "cancelled") throw ConflictError("This fitting is cancelled; book a new one.");
+      const item = f.changeId ? await ChangeItem.findOne({ where: { id: changeItemId, productionId: actor.productionId, changeId: f.changeId }, transaction, lock: transaction.LOCK.UPDATE }) : null;
+      if (!item) throw NotFoundError("That item is not part of this fitting's change.");
+      if (item.garmentId || item.multiplesGroupId) throw ConflictError(`"${item.label}" already has a garment; change it on the Changes screen.`, { changeItemId: "already has a garment" });
+      let garmentId: string;
+      if (input.garmentId) {
+        const g = await Garment.findOne({ where: { id: input.garmentId, productionId: actor.productionId }, attributes: ["id"], transaction });
+        if (!g) throw ValidationError("garmentId: no such garment in this production", { garmentId: "no such garment in this production" });
+        garmentId = g.id;
+      } else {
+        const [id] = await createGarmentsIn(actor, createGarmentInputSchema.parse({ ...input.newGarment, copies: 1 }), transaction);
+        garmentId = id!;
+      }
+      await item.update({ garmentId }, { transaction });
+      await recordAudit(
+        { productionId: actor.productionId, actorId: actor.user.id, action: "change_item.link_garment", entityType: "change_item", entityId: item.id, before: { garmentId: null }, after: { garmentId, fittingId: f.id, created: Boolean(input.newGarment) } },
+        transaction,
+      );
+    })
+    .catch(mapTagRace);
+  return getFittingDetail(actor, fittingId);
 }

@@ -162,7 +162,7 @@ async function assertFabricInProduction(productionId: string, fabricId: string |
 }
 
 // A duplicate that slipped past the check (two requests at once) is still a bad tag code for the user.
-function mapTagRace(err: unknown): never {
+export function mapTagRace(err: unknown): never {
   if (err instanceof UniqueConstraintError && err.errors.some((e) => e.path === "tag_code" || e.path === "tagCode" || /tag_code/.test(e.message))) {
     throw ValidationError("tagCode: is already used by another garment", { tagCode: "is already used by another garment" });
   }
@@ -171,37 +171,42 @@ function mapTagRace(err: unknown): never {
 
 /** Creates one garment, or N copies (#1..#N) in a new multiples group, each with a first history row. */
 export async function createGarments(actor: Actor, input: CreateGarmentInput): Promise<Garment[]> {
-  const { copies, groupName, tagCode, status, ...fields } = input;
-  const ids = await sequelize
-    .transaction(async (transaction) => {
-      await assertFabricInProduction(actor.productionId, fields.fabricId, transaction);
-      if (tagCode) await assertTagCodeFree(actor.productionId, tagCode, null, transaction);
-      const codes = tagCode ? [tagCode] : await freshTagCodes(actor.productionId, copies, transaction);
-      let groupId: string | null = null;
-      if (copies > 1) {
-        const group = await MultiplesGroup.create({ productionId: actor.productionId, name: groupName || fields.name, notes: null }, { transaction });
-        groupId = group.id;
-      }
-      const created: Garment[] = [];
-      for (let i = 0; i < copies; i++) {
-        const g = await Garment.create(
-          { ...fields, productionId: actor.productionId, tagCode: codes[i]!, status, multiplesGroupId: groupId, copyNumber: groupId ? i + 1 : null },
-          { transaction },
-        );
-        await GarmentStatusEvent.create(
-          { productionId: actor.productionId, garmentId: g.id, fromStatus: null, toStatus: status, fromLocation: null, toLocation: locationLabel(g.locationRack, g.locationBin), note: "Added to stock", actorId: actor.user.id },
-          { transaction },
-        );
-        created.push(g);
-      }
-      await recordAudit(
-        { productionId: actor.productionId, actorId: actor.user.id, action: "garment.create", entityType: "garment", entityId: created[0]!.id, after: { tagCodes: codes, name: fields.name, copies, multiplesGroupId: groupId } },
-        transaction,
-      );
-      return created.map((g) => g.id);
-    })
-    .catch(mapTagRace);
+  const ids = await sequelize.transaction((transaction) => createGarmentsIn(actor, input, transaction)).catch(mapTagRace);
   return Garment.findAll({ where: { id: ids }, include: includeNames, order: [["copyNumber", "ASC"]] });
+}
+
+/**
+ * The same inside a caller's transaction (a fitting adds a garment and links it in one step).
+ * A tag-code race surfaces as a unique-constraint error; callers map it with `mapTagRace`.
+ * @returns the new garments' ids
+ */
+export async function createGarmentsIn(actor: Actor, input: CreateGarmentInput, transaction: Transaction): Promise<string[]> {
+  const { copies, groupName, tagCode, status, ...fields } = input;
+  await assertFabricInProduction(actor.productionId, fields.fabricId, transaction);
+  if (tagCode) await assertTagCodeFree(actor.productionId, tagCode, null, transaction);
+  const codes = tagCode ? [tagCode] : await freshTagCodes(actor.productionId, copies, transaction);
+  let groupId: string | null = null;
+  if (copies > 1) {
+    const group = await MultiplesGroup.create({ productionId: actor.productionId, name: groupName || fields.name, notes: null }, { transaction });
+    groupId = group.id;
+  }
+  const created: Garment[] = [];
+  for (let i = 0; i < copies; i++) {
+    const g = await Garment.create(
+      { ...fields, productionId: actor.productionId, tagCode: codes[i]!, status, multiplesGroupId: groupId, copyNumber: groupId ? i + 1 : null },
+      { transaction },
+    );
+    await GarmentStatusEvent.create(
+      { productionId: actor.productionId, garmentId: g.id, fromStatus: null, toStatus: status, fromLocation: null, toLocation: locationLabel(g.locationRack, g.locationBin), note: "Added to stock", actorId: actor.user.id },
+      { transaction },
+    );
+    created.push(g);
+  }
+  await recordAudit(
+    { productionId: actor.productionId, actorId: actor.user.id, action: "garment.create", entityType: "garment", entityId: created[0]!.id, after: { tagCodes: codes, name: fields.name, copies, multiplesGroupId: groupId } },
+    transaction,
+  );
+  return created.map((g) => g.id);
 }
 
 /** Edits a garment's description (not its status: moves keep the history). */

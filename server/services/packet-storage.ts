@@ -7,6 +7,7 @@ import { PassThrough, Transform, type Readable } from "node:stream";
 import { pipeline } from "node:stream/promises";
 import { config } from "../config.js";
 import { getStorage } from "../lib/storage.js";
+import { instanceTag } from "../lib/instance.js";
 
 /** What the packet service needs from file storage. Keys are relative, forward-slash paths. */
 export interface PacketFileStore {
@@ -33,7 +34,8 @@ export function diskStore(root: string): PacketFileStore {
     async write(key, source) {
       const target = safeJoin(root, key);
       await fs.promises.mkdir(path.dirname(target), { recursive: true });
-      const tmp = `${target}.${randomUUID()}.tmp`;
+      // The writer's tag lets the start-up sweep remove a half-written ZIP of a killed process.
+      const tmp = `${target}.${instanceTag}.${randomUUID().slice(0, 8)}.tmp`;
       const hash = createHash("sha256");
       let bytes = 0;
       const tap = new Transform({

@@ -1,6 +1,6 @@
 // Photos: hash, check and re-encode the upload, write the files, then commit the row. Files are
 // keyed by content hash, so the same image is stored once however many records show it.
-import { createHash } from "node:crypto";
+import { createHash, randomUUID } from "node:crypto";
 import fsp from "node:fs/promises";
 import type { Readable } from "node:stream";
 import { Op, type Transaction } from "sequelize";
@@ -12,6 +12,7 @@ import { ForbiddenError, HttpError, NotFoundError, PayloadTooLargeError, Validat
 import { ImageRejectedError, makeVariants } from "../lib/images.js";
 import { getStorage, StorageNotFoundError } from "../lib/storage.js";
 import { logger } from "../lib/logger.js";
+import { instance } from "../lib/instance.js";
 import { photoOwner, type PhotoOwnerType } from "./photo-owners.js";
 import { recordAudit } from "./audit.service.js";
 import type { Actor } from "../middleware/require-auth.js";
@@ -32,6 +33,8 @@ export interface StoredImage {
   variants: PhotoVariants;
   /** Keys this call wrote (empty when the files were already stored). */
   written: string[];
+  /** The pending_photo_files row that keeps the start-up sweep off these files until released. */
+  pendingId: string;
 }
 
 function ownerOrThrow(ownerType: string): PhotoOwnerType {
@@ -72,6 +75,12 @@ export async function storeImage(file: UploadedFile | Buffer): Promise<StoredIma
   const keys = keysFor(contentHash);
   const storage = getStorage();
   const written: string[] = [];
+  // Recorded before any file is written: until released, the start-up sweep of any server leaves
+  // these files alone while this process lives, and removes them if it dies before the row exists.
+  const pendingId = randomUUID();
+  await sequelize.query(`INSERT INTO pending_photo_files (id, content_hash, host, pid, instance) VALUES (:id, :hash, :host, :pid, :instance)`, {
+    replacements: { id: pendingId, hash: contentHash, host: instance.host, pid: instance.pid, instance: instance.id },
+  });
   try {
     for (const size of ["original", "display", "thumb"] as const) {
       if (await storage.exists(keys[size])) continue;
@@ -79,10 +88,22 @@ export async function storeImage(file: UploadedFile | Buffer): Promise<StoredIma
       written.push(keys[size]);
     }
   } catch (err) {
-    await removeKeys(written);
+    await releaseStoredImages([{ pendingId }]);
+    await removeUnreferencedFiles([contentHash]);
     throw err;
   }
-  return { contentHash, width: v.width, height: v.height, bytes: buf.length, variants: keys, written };
+  return { contentHash, width: v.width, height: v.height, bytes: buf.length, variants: keys, written, pendingId };
+}
+
+/** Ends the protection of storeImage's files (after their rows committed, or before removing them). */
+export async function releaseStoredImages(stored: Array<Pick<StoredImage, "pendingId">>): Promise<void> {
+  if (!stored.length) return;
+  try {
+    await sequelize.query(`DELETE FROM pending_photo_files WHERE id IN (:ids)`, { replacements: { ids: stored.map((s) => s.pendingId) } });
+  } catch (err) {
+    // The row outlives this process at worst; the next start-up sweep removes it.
+    logger.warn({ err }, "could not release pending photo files");
+  }
 }
 
 async function removeKeys(keys: string[]): Promise<void> {
@@ -96,11 +117,12 @@ async function removeKeys(keys: string[]): Promise<void> {
   }
 }
 
-/** Deletes a hash's files when no photo row refers to it any more. */
+/** Deletes a hash's files when no photo row refers to it any more and no upload of it is in progress. */
 export async function removeUnreferencedFiles(hashes: string[]): Promise<void> {
   for (const hash of new Set(hashes)) {
     const still = await Photo.count({ where: { contentHash: hash } });
-    if (still === 0) await removeKeys(Object.values(keysFor(hash)));
+    const [pending] = await sequelize.query(`SELECT 1 FROM pending_photo_files WHERE content_hash = :hash LIMIT 1`, { replacements: { hash } });
+    if (still === 0 && pending.length === 0) await removeKeys(Object.values(keysFor(hash)));
   }
 }
 
@@ -153,8 +175,11 @@ export async function uploadPhoto(
       return linkPhoto(actor, stored, { ...input, originalName: file.originalname }, transaction);
     });
   } catch (err) {
+    await releaseStoredImages([stored]);
     await removeUnreferencedFiles([stored.contentHash]);
     throw err;
+  } finally {
+    await releaseStoredImages([stored]);
   }
 }
 

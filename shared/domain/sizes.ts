@@ -1,6 +1,6 @@
 // Size designations from body measurements (stored in mm): EN 13402-3 for garments, ISO 9407 for shoes.
 //
-// Source status (see shared/reference/check-values.md §5):
+// Source status (see docs/references.md, "EN 13402"):
 // - Verified: EN 13402 designates sizes by body dimensions in cm; men's tops use chest girth and women's
 //   tops bust girth as the primary dimension; women's jackets take height and hip girth as secondary.
 // - From memory [M], NOT checked against the purchased standard: trousers waist primary / inside leg
@@ -60,7 +60,7 @@ export const SIZE_TABLES: Record<SizedGarment, SizeTable> = {
     primary: { key: "chest_girth", grid: GRID.mensChest },
     secondary: [{ key: "height", grid: GRID.mensHeight }],
     letterBands: "mens_chest",
-    source: "EN 13402-2: men's tops, chest girth primary [V: check-values §5]; height secondary [M]",
+    source: "EN 13402-2: men's tops, chest girth primary; height secondary [M]",
   },
   womens_top: {
     primary: { key: "bust_girth", grid: GRID.womensBust },
@@ -69,7 +69,7 @@ export const SIZE_TABLES: Record<SizedGarment, SizeTable> = {
       { key: "hip_girth", grid: GRID.hip },
     ],
     letterBands: "womens_bust",
-    source: "EN 13402-2: women's jackets, bust primary, height and hip secondary [V: check-values §5]",
+    source: "EN 13402-2: women's jackets, bust primary, height and hip secondary",
   },
   trousers: {
     primary: { key: "waist_girth", grid: GRID.waist },
@@ -97,8 +97,10 @@ export interface LetterBand {
 }
 
 // Letter codes by girth, EN 13402-3. ALL FROM MEMORY [M]; only men's S/M/L were corroborated by a secondary
-// source (check-values §5). Bands are half-open [min, max): a girth exactly on an edge takes the LARGER
-// letter (94.0 cm men's chest → M), because the published bands share their edges (86–94, 94–102).
+// source (docs/references.md). Bands are half-open [min, max): a value exactly on an edge takes the LARGER
+// letter (94 cm men's chest → M), because the published bands share their edges (86–94, 94–102).
+// The letter is looked up with the designated (pictogram) value, not the raw girth, so the two never
+// disagree: a 92 cm chest is designated 94 and labelled M (not "94" beside "S").
 /** Letter-code band tables by primary girth (values in cm; [min, max)). */
 export const LETTER_BANDS = {
   mens_chest: [
@@ -207,13 +209,15 @@ export function sizeDesignation(garment: SizedGarment, body: BodyMeasurementsMm)
     secondary,
     missing,
     pictogram: [primary, ...secondary].map((d) => d.designatedCm).join("-"),
-    letter: table.letterBands ? letterCode(table.letterBands, primaryMm) : null,
+    // From the designated value, so the letter and the pictogram name the same size.
+    letter: table.letterBands ? letterCode(table.letterBands, primary.designatedCm * 10) : null,
   };
 }
 
 // ISO 9407 Mondopoint: shoe size = foot length / foot width in mm. The 5 mm length interval is [M]
 // (it is the step used in ski-boot and military Mondopoint sizing); width is kept to whole mm because the
-// standard's width interval was not verified [M]. Ties round up (a shoe a little long beats one too short).
+// standard's width interval was not verified [M]. Lengths round UP to the next step: a shoe a little long
+// beats one too short (a 262 mm foot is size 265, never 260).
 /** Mondopoint intervals in mm; change here when checked against ISO 9407. */
 export const MONDOPOINT = {
   lengthStepMm: 5, // [M]
@@ -223,7 +227,7 @@ export const MONDOPOINT = {
 
 /** A Mondopoint designation. */
 export interface MondopointSize {
-  /** Foot length rounded to the length step, mm. */
+  /** Foot length rounded up to the length step, mm (never shorter than the foot). */
   lengthMm: number;
   /** Foot width rounded to the width step, mm (when measured). */
   widthMm?: number;
@@ -235,10 +239,15 @@ function roundToStep(mm: number, step: number): number {
   return Math.floor(mm / step + 0.5 + 1e-9) * step;
 }
 
+function roundUpToStep(mm: number, step: number): number {
+  // The tolerance keeps 265.0000000001 (float noise from a unit conversion) at 265.
+  return Math.ceil(mm / step - 1e-9) * step;
+}
+
 /** ISO 9407 Mondopoint size from foot length (and width when given), both in mm. */
 export function mondopoint(footLengthMm: number, footWidthMm?: number): MondopointSize {
   if (!Number.isFinite(footLengthMm) || footLengthMm <= 0) throw new RangeError("foot length must be positive");
-  const lengthMm = roundToStep(footLengthMm, MONDOPOINT.lengthStepMm);
+  const lengthMm = roundUpToStep(footLengthMm, MONDOPOINT.lengthStepMm);
   if (footWidthMm === undefined) return { lengthMm, label: `${lengthMm}` };
   if (!Number.isFinite(footWidthMm) || footWidthMm <= 0) throw new RangeError("foot width must be positive");
   const widthMm = roundToStep(footWidthMm, MONDOPOINT.widthStepMm);

@@ -86,6 +86,16 @@ export type ShootDayInput = z.infer<typeof shootDayInputSchema>;
 export const updateShootDayInputSchema = shootDayInputSchema.partial();
 export type UpdateShootDayInput = z.infer<typeof updateShootDayInputSchema>;
 
+/** Move one scene from a shoot day to another in one step (both days renumber their positions). */
+export const moveSceneInputSchema = z.object({
+  sceneId: idSchema,
+  /** The day the scene goes to. */
+  toShootDayId: idSchema,
+  /** 1-based place on the new day; last when omitted. */
+  position: z.number().int().min(1).max(500).optional(),
+});
+export type MoveSceneInput = z.infer<typeof moveSceneInputSchema>;
+
 export const listShootDaysQuerySchema = paginationQuerySchema.extend({
   pageSize: z.coerce.number().int().min(1).max(2000).default(Limits.pageSizeDefault),
   kind: z.enum(shootDayKinds).optional(),
@@ -171,16 +181,51 @@ export const breakdownImportInputSchema = z.object({
   fileName: z.string().max(255).optional(),
 });
 
+/** One field of one row in the import preview: the stored value and the file's (as written in CSV). */
+export interface ImportFieldChange {
+  /** A CSV column, or "shoot day N" for the row's place on that day ("position 3"). */
+  column: string;
+  old: string;
+  new: string;
+}
+
+/** One data row of the file: what it does to its scene. */
+export interface ImportRowChange {
+  line: number;
+  scene: string;
+  status: "new" | "changed" | "unchanged";
+  /** Only the fields whose value changes. */
+  fields: ImportFieldChange[];
+}
+
+/** One shoot day named in the file: date and scene order before and after. */
+export interface ImportDayChange {
+  dayNumber: number;
+  status: "new" | "changed" | "unchanged";
+  date: { old: string; new: string };
+  scenes: { old: string[]; new: string[] };
+}
+
+/** Counts of an import: records made, changed, and named in the file but left as they were. */
+export interface ImportCounts {
+  created: number;
+  updated: number;
+  unchanged: number;
+}
+
 export interface ImportPreviewDto {
   valid: boolean;
   rows: number;
-  scenes: { created: number; updated: number };
-  shootDays: { created: number; updated: number };
+  scenes: ImportCounts;
+  shootDays: ImportCounts;
   errors: ImportRowError[];
+  /** Per data row, each field's old → new value (nothing is written by a preview). */
+  changes: ImportRowChange[];
+  days: ImportDayChange[];
 }
 
 export interface ImportResultDto {
   rows: number;
-  scenes: { created: number; updated: number };
-  shootDays: { created: number; updated: number };
+  scenes: ImportCounts;
+  shootDays: ImportCounts;
 }

@@ -3,6 +3,7 @@ import { Limits } from "../constants.js";
 import { idSchema, isoDateSchema } from "./common.js";
 import { WEEKDAYS, type Weekday } from "../domain/workroom.js";
 import type { Snag } from "../domain/snags/types.js";
+import { garmentSources, tagCodeSchema } from "./garments.js";
 
 // ---------- fittings ----------
 
@@ -41,6 +42,29 @@ export const updateFittingInputSchema = z.object({
   status: z.enum(fittingStatuses).optional(),
 });
 export type UpdateFittingInput = z.infer<typeof updateFittingInputSchema>;
+
+const optText = (max: number) => z.string().trim().max(max).nullish().transform((v) => (v ? v : null));
+
+/** A garment added to stock at a fitting: the few facts known at the rail; the rest is filled in on Wardrobe. */
+export const fittingNewGarmentSchema = z.object({
+  name: z.string().trim().min(1, "is required").max(Limits.nameMax),
+  category: z.string().trim().toLowerCase().min(1, "is required").max(40),
+  sizeLabel: optText(40),
+  colour: optText(80),
+  /** Built in the workroom unless said otherwise. */
+  source: z.enum(garmentSources).default("built"),
+  /** Re-use a printed label; otherwise the app makes a tag code. */
+  tagCode: tagCodeSchema.optional(),
+});
+
+/** Link a change item at a fitting: a garment from stock, or a new one. Exactly one of the two. */
+export const linkFittingItemInputSchema = z
+  .object({
+    garmentId: idSchema.optional(),
+    newGarment: fittingNewGarmentSchema.optional(),
+  })
+  .refine((v) => Boolean(v.garmentId) !== Boolean(v.newGarment), { message: "choose a garment from stock or describe a new one", path: ["garmentId"] });
+export type LinkFittingItemInput = z.infer<typeof linkFittingItemInputSchema>;
 
 export const listFittingsQuerySchema = z.object({
   from: isoDateSchema.optional(),

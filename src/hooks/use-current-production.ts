@@ -4,7 +4,10 @@ import { api } from "@/lib/api-client";
 import { can, type Action } from "@shared/permissions";
 import type { ProductionDto } from "@shared/schemas/productions";
 
-/** The production in the URL with the user's role, plus a `can(action)` check for hiding actions. */
+/**
+ * The production in the URL with the user's role, a `can(action)` check for hiding actions, and `today`
+ * in the production's time zone from the server's clock (the browser's clock never decides "today").
+ */
 export function useCurrentProduction() {
   const { productionId = "" } = useParams();
   const query = useQuery({
@@ -13,5 +16,5 @@ export function useCurrentProduction() {
     enabled: Boolean(productionId),
   });
   const role = query.data?.role;
-  return { productionId, production: query.data, query, role, can: (action: Action) => can(role, action) };
+  return { productionId, production: query.data, query, role, today: query.data?.today ?? "", can: (action: Action) => can(role, action) };
 }

@@ -3,8 +3,10 @@ import pg from "pg";
 import { useBrowser, signIn } from "./browser.js";
 import { SALTMARSH_ID } from "../../seeds/accounts.js";
 import { keyGarments, performers } from "../../seeds/scenario.js";
+import { anchorDemo, demoDaysFromToday } from "../../seeds/calendar.js";
 
 const baseUrl = inject("baseUrl");
+anchorDemo(inject("today"));
 const databaseUrl = inject("databaseUrl");
 const browser = useBrowser();
 
@@ -17,8 +19,10 @@ describe("measurements as the demo cutter", () => {
     await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/cast/performers/${performers.jory.id}/measurements`);
     await page.getByRole("heading", { name: performers.jory.name }).waitFor();
     const form = page.getByRole("form", { name: "New measurement set" });
+    // A set taken later than any seeded one, so it becomes the current set.
+    const takenOn = demoDaysFromToday(28);
     await form.getByRole("radio", { name: "Inches" }).click();
-    await form.getByLabel("Taken on").fill("2026-12-30");
+    await form.getByLabel("Taken on").fill(takenOn);
     await form.getByLabel("Chest girth (in)").fill("40");
     await form.getByLabel("Waist girth (in)").fill("32 1/2");
     await form.getByLabel("Height (in)").fill("70");
@@ -26,16 +30,17 @@ describe("measurements as the demo cutter", () => {
     await form.getByText("Saved.").waitFor();
 
     const history = page.getByRole("table", { name: "Measurement history" });
-    await history.getByText("2026-12-30 (current)").waitFor();
+    await history.getByText(`${takenOn} (current)`).waitFor();
     const chestRow = history.getByRole("row", { name: /Chest girth/ });
     // 40 in × 25.4 = 1016 mm exactly → 101.6 cm in the production's unit.
     expect(await chestRow.locator("td").first().textContent()).toContain("101.6 cm");
     // 32 1/2 in = 825.5 mm → 82.6 cm (rounded half away from zero).
     expect(await history.getByRole("row", { name: /Waist girth/ }).locator("td").first().textContent()).toContain("82.6 cm");
     const sizes = page.getByLabel("Sizes");
-    // Men's chest 101.6 cm: grid point 102, letter M ([94, 102) cm); height 177.8 cm → 176 on the 6 cm grid.
+    // Men's chest 101.6 cm: grid point 102, whose letter is L ([102, 110) cm, edge → larger; the letter follows
+    // the designated value so the two agree); height 177.8 cm → 176 on the 6 cm grid.
     await expect(sizes.textContent()).resolves.toContain("102-176");
-    await expect(sizes.textContent()).resolves.toMatch(/102-176\s*M/);
+    await expect(sizes.textContent()).resolves.toMatch(/102-176\s*L/);
     await page.screenshot({ path: ".data/e2e-measurements.png", fullPage: true });
     await page.close();
   });

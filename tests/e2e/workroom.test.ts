@@ -1,8 +1,12 @@
 import { describe, expect, inject, it } from "vitest";
 import { useBrowser, signIn } from "./browser.js";
+import { format, parseISO } from "date-fns";
 import { SALTMARSH_ID } from "../../seeds/accounts.js";
+import { anchorDemo, shootDay } from "../../seeds/calendar.js";
 
 const baseUrl = inject("baseUrl");
+const today = inject("today");
+anchorDemo(today);
 const browser = useBrowser();
 
 describe("the workroom as the demo cutter", () => {
@@ -48,12 +52,12 @@ describe("the workroom as the demo cutter", () => {
 
     await signIn(page, baseUrl, "supervisor@seamscene.test");
     await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
-    // Plan from the demo's Wednesday of the first shoot week, independent of today's date.
-    await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/workroom?tab=tickets&from=2026-12-02`);
+    // The plan starts today (the server's pinned clock); the jacket is needed on shoot day 4.
+    await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/workroom?tab=tickets`);
     const snags = page.getByRole("region", { name: "Workroom snags" });
     await snags.getByText("97Y-JUG Keeper's jacket: alteration late by 1 working day").waitFor();
 
-    expect(await snags.textContent()).toContain("It would not be ready for the shoot on Thu 3 Dec 2026");
+    expect(await snags.textContent()).toContain(`It would not be ready for the shoot on ${format(parseISO(shootDay(4)), "EEE d MMM yyyy")}`);
     await page.close();
   });
 });

@@ -36,7 +36,8 @@ describe("POST /api/productions/:pid/imports/breakdown", () => {
     const res = await agent.post(`/api/productions/${pid}/imports/breakdown/preview`, { csv });
 
     expect(res.status).toBe(200);
-    expect(res.body.data).toEqual({ valid: true, rows: 2, scenes: { created: 2, updated: 0 }, shootDays: { created: 1, updated: 0 }, errors: [] });
+    expect(res.body.data).toMatchObject({ valid: true, rows: 2, scenes: { created: 2, updated: 0, unchanged: 0 }, shootDays: { created: 1, updated: 0, unchanged: 0 }, errors: [] });
+    expect(res.body.data.changes.map((c: { scene: string; status: string }) => [c.scene, c.status])).toEqual([["1", "new"], ["2", "new"]]);
     expect(await Scene.count()).toBe(0);
   });
 
@@ -97,7 +98,7 @@ describe("POST /api/productions/:pid/imports/breakdown", () => {
 
     const res = await agent.post(`/api/productions/${pid}/imports/breakdown`, { csv: [header, "1,Changed set,EXT,DAY,1,1,,,,1,2026-11-30,1", "5,New,EXT,DAY,2,5,,,,3,2026-12-02,1"].join("\n") });
 
-    expect(res.body.data).toMatchObject({ scenes: { created: 1, updated: 1 }, shootDays: { created: 1, updated: 1 } });
+    expect(res.body.data).toMatchObject({ scenes: { created: 1, updated: 1, unchanged: 0 }, shootDays: { created: 1, updated: 0, unchanged: 1 } });
     expect((await Scene.findOne({ where: { productionId: pid, number: "1" } }))!.setName).toBe("Changed set");
     expect(await Scene.count({ where: { productionId: pid } })).toBe(3);
   });
@@ -124,5 +125,114 @@ describe("POST /api/productions/:pid/imports/breakdown", () => {
     expect(exported.headers["content-type"]).toMatch(/text\/csv/);
     expect(exported.text.split("\r\n")).toHaveLength(62); // header + 60 rows + final newline
     expect(again.text).toBe(exported.text);
+  });
+
+  it("rows with only the scene and shoot columns keep every stored scene field (merge, not blank)", async () => {
+    await agent.post(`/api/productions/${pid}/imports/breakdown`, { csv: [header, '1,Harbour wall,EXT,DAY,3,1,1 3/8,,"Nets mended at dusk",1,2026-11-30,1', "2,Chapel,INT,NIGHT,4,2,4/8,,Vigil,1,2026-11-30,2", "3,Net loft,INT/EXT,DAWN,5,3,2,,Storm warning,2,2026-12-01,1"].join("\n") }).expect(201);
+    const before = (await Scene.findAll({ where: { productionId: pid }, order: [["number", "ASC"]] })).map((s) => [s.number, s.setName, s.intExt, s.timeOfDay, s.storyDay, s.storyOrder, s.lengthEighths, s.synopsis]);
+
+    const res = await agent.post(`/api/productions/${pid}/imports/breakdown`, { csv: ["scene,shoot_day,shoot_date,shoot_position", "1,3,2026-12-02,1", "2,3,2026-12-02,2", "3,3,2026-12-02,3"].join("\n") });
+
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const after = (await Scene.findAll({ where: { productionId: pid }, order: [["number", "ASC"]] })).map((s) => [s.number, s.setName, s.intExt, s.timeOfDay, s.storyDay, s.storyOrder, s.lengthEighths, s.synopsis]);
+    expect(after).toEqual(before);
+    expect(before[0]).toEqual(["1", "Harbour wall", "EXT", "DAY", 3, 1, 11, "Nets mended at dusk"]);
+  });
+
+  it("an empty cell keeps the stored value and (clear) empties the field", async () => {
+    await agent.post(`/api/productions/${pid}/imports/breakdown`, { csv: [header, "1,Harbour wall,EXT,DAY,3,1,1 3/8,,Nets mended,,,"].join("\n") }).expect(201);
+
+    const res = await agent.post(`/api/productions/${pid}/imports/breakdown`, { csv: [header, "1,,INT,(clear),,,(CLEAR),,,,,"].join("\n") });
+
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const s = (await Scene.findOne({ where: { productionId: pid, number: "1" } }))!;
+    expect([s.setName, s.intExt, s.timeOfDay, s.storyDay, s.lengthEighths, s.synopsis]).toEqual(["Harbour wall", "INT", null, 3, null, "Nets mended"]);
+  });
+
+  it("refuses (clear) where a value is required", async () => {
+    const res = await agent.post(`/api/productions/${pid}/imports/breakdown/preview`, { csv: ["scene,story_order,shoot_day,shoot_date", "(clear),1,,", "2,(clear),,"].join("\n") });
+
+    expect(res.body.data.valid).toBe(false);
+    expect(res.body.data.errors.map((e: { line: number; column: string }) => `${e.line}:${e.column}`)).toEqual(["2:scene", "3:story_order"]);
+  });
+
+  it("the preview lists each row's fields old → new before anything is written", async () => {
+    await agent.post(`/api/productions/${pid}/imports/breakdown`, { csv: [header, "1,Harbour wall,EXT,DAY,3,1,1 3/8,,Nets mended,1,2026-11-30,1", "2,Chapel,INT,NIGHT,4,2,4/8,,Vigil,1,2026-11-30,2"].join("\n") }).expect(201);
+
+    const res = await agent.post(`/api/productions/${pid}/imports/breakdown/preview`, { csv: ["scene,set,pages,synopsis,shoot_day,shoot_date,shoot_position", "1,Harbour steps,1 3/8,(clear),1,,2", "2,,,,,,", "7,Quay,2/8,,4,2026-12-03,1"].join("\n") });
+
+    expect(res.status).toBe(200);
+    const rows = res.body.data.changes;
+    expect(rows).toEqual([
+      {
+        line: 2,
+        scene: "1",
+        status: "changed",
+        fields: [
+          { column: "set", old: "Harbour wall", new: "Harbour steps" },
+          { column: "synopsis", old: "Nets mended", new: "" },
+          { column: "shoot day 1", old: "position 1", new: "position 2" },
+        ],
+      },
+      { line: 3, scene: "2", status: "unchanged", fields: [] },
+      {
+        line: 4,
+        scene: "7",
+        status: "new",
+        fields: [
+          { column: "set", old: "", new: "Quay" },
+          { column: "story_order", old: "", new: "3" },
+          { column: "pages", old: "", new: "2/8" },
+          { column: "shoot day 4", old: "", new: "position 1" },
+        ],
+      },
+    ]);
+    expect(res.body.data.days).toEqual([
+      { dayNumber: 1, status: "changed", date: { old: "2026-11-30", new: "2026-11-30" }, scenes: { old: ["1", "2"], new: ["2", "1"] } },
+      { dayNumber: 4, status: "new", date: { old: "", new: "2026-12-03" }, scenes: { old: [], new: ["7"] } },
+    ]);
+    expect((await Scene.findOne({ where: { productionId: pid, number: "1" } }))!.setName).toBe("Harbour wall");
+    expect(await Scene.count({ where: { productionId: pid } })).toBe(2);
+  });
+
+  it("a day named in the file keeps its other scenes; (clear) in shoot_position takes a scene off", async () => {
+    await agent.post(`/api/productions/${pid}/imports/breakdown`, { csv: [header, "1,A,,,,1,,,,1,2026-11-30,1", "2,B,,,,2,,,,1,2026-11-30,2", "3,C,,,,3,,,,1,2026-11-30,3", "4,D,,,,4,,,,,,"].join("\n") }).expect(201);
+
+    const res = await agent.post(`/api/productions/${pid}/imports/breakdown`, { csv: ["scene,shoot_day,shoot_position", "4,1,1", "2,1,(clear)"].join("\n") });
+
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const day = await ShootDay.findOne({ where: { productionId: pid, dayNumber: 1 } });
+    expect(day!.date).toBe("2026-11-30");
+    const slots = await ShootDayScene.findAll({ where: { shootDayId: day!.id }, include: [{ model: Scene, as: "scene" }], order: [["position", "ASC"]] });
+    expect(slots.map((s) => [s.scene!.number, s.position])).toEqual([["4", 1], ["1", 2], ["3", 3]]);
+  });
+
+  it("names the line when a new shoot day has no date", async () => {
+    const res = await agent.post(`/api/productions/${pid}/imports/breakdown/preview`, { csv: ["scene,shoot_day", "1,9"].join("\n") });
+
+    expect(res.body.data.errors).toEqual([{ line: 2, column: "shoot_date", message: "is required for a new shoot day (day 9 does not exist yet)" }]);
+  });
+});
+
+describe("GET /api/productions/:pid/imports/breakdown/template", () => {
+  it("downloads a template with the header, one example row and each column's accepted format that imports as it is", async () => {
+    await resetDb();
+    const { user, production } = await buildMember("supervisor");
+    const agent = await signedInAgent(app, user.email);
+
+    const res = await agent.get(`/api/productions/${production.id}/imports/breakdown/template`);
+
+    expect(res.status).toBe(200);
+    expect(res.headers["content-type"]).toMatch(/text\/csv/);
+    expect(res.headers["content-disposition"]).toMatch(/attachment; filename=".*template.*\.csv"/);
+    const lines = res.text.trim().split(/\r?\n/);
+    expect(lines.filter((l) => l.startsWith("#")).length).toBeGreaterThanOrEqual(12);
+    expect(lines.find((l) => l.startsWith("# scene:"))).toMatch(/required/);
+    expect(res.text).toMatch(/\(clear\)/);
+    const data = lines.filter((l) => !l.startsWith("#"));
+    expect(data[0]).toBe(header);
+    expect(data).toHaveLength(2);
+    const preview = await agent.post(`/api/productions/${production.id}/imports/breakdown/preview`, { csv: res.text });
+    expect(preview.body.data).toMatchObject({ valid: true, scenes: { created: 1, updated: 0 } });
   });
 });

@@ -80,9 +80,10 @@ describe("GET measurements", () => {
     expect(res.body.data.performer).toEqual({ id: performer.id, name: "Corwen Blakely" });
     expect(res.body.data.sets.map((s: { takenOn: string }) => s.takenOn)).toEqual(["2026-11-18", "2026-10-01"]);
     const top = res.body.data.sizes.find((s: { garment: string }) => s.garment === "mens_top");
-    // EN 13402-3 letter bands (from memory, check-values §5): men's chest M is [94, 102) cm → 101.6 cm is M.
-    expect(top.letter).toBe("M");
-    // ISO 9407 Mondopoint with the 5 mm length step [M]: 268 mm → 270.
+    // EN 13402-3 letter bands (from memory): 101.6 cm is designated 102, the M/L edge; an edge takes the
+    // larger letter, L ([102, 110) cm), so the letter and the pictogram agree.
+    expect(top.letter).toBe("L");
+    // ISO 9407 Mondopoint with the 5 mm length step [M], rounded up: 268 mm → 270.
     expect(res.body.data.mondopoint.label).toBe("270");
   });
 });

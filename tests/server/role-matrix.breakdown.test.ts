@@ -19,6 +19,10 @@ const cases: MatrixCase[] = [
   { name: "delete scene", method: "delete", path: (c) => `${P(c)}/scenes/00000000-0000-4000-8000-000000000000`, expect: only([...editors], 404) },
   { name: "list shoot days", method: "get", path: (c) => `${P(c)}/shoot-days`, expect: only([...readers], 200) },
   { name: "create shoot day", method: "post", path: (c) => `${P(c)}/shoot-days`, body: () => ({}), expect: only([...editors], 400) },
+  { name: "edit shoot day", method: "patch", path: (c) => `${P(c)}/shoot-days/${c.extra.shootDayId}`, body: () => ({ date: "not a date" }), expect: only([...editors], 400) },
+  { name: "move a scene to another day", method: "post", path: (c) => `${P(c)}/shoot-days/${c.extra.shootDayId}/move-scene`, body: () => ({}), expect: only([...editors], 400) },
+  { name: "delete shoot day", method: "delete", path: (c) => `${P(c)}/shoot-days/00000000-0000-4000-8000-000000000000`, expect: only([...editors], 404) },
+  { name: "import template", method: "get", path: (c) => `${P(c)}/imports/breakdown/template`, expect: only([...editors], 200) },
   { name: "import preview", method: "post", path: (c) => `${P(c)}/imports/breakdown/preview`, body: () => ({}), expect: only([...editors], 400) },
   { name: "import", method: "post", path: (c) => `${P(c)}/imports/breakdown`, body: () => ({}), expect: only([...editors], 400) },
   { name: "list appearances", method: "get", path: (c) => `${P(c)}/appearances?sceneId=${c.extra.sceneId}`, expect: only([...readers], 200) },
@@ -46,7 +50,7 @@ runRoleMatrix("breakdown", createApp(), cases, async (c) => {
   const character = await buildCharacter({ production });
   const change = await buildChange(character);
   const scene = await buildScene({ production, number: "7" });
-  await buildShootDay({ production, scenes: [scene] });
+  const day = await buildShootDay({ production, scenes: [scene] });
   const appearance = await buildAppearance(scene, character, change);
-  return { sceneId: scene.id, characterId: character.id, changeId: change.id, appearanceId: appearance.id, performerId: character.performerId! };
+  return { shootDayId: day.id, sceneId: scene.id, characterId: character.id, changeId: change.id, appearanceId: appearance.id, performerId: character.performerId! };
 });

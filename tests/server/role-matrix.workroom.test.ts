@@ -16,6 +16,7 @@ const cases: MatrixCase[] = [
   { name: "list fittings", method: "get", path: (c) => `${base(c)}/fittings`, expect: only([...READERS], 200) },
   { name: "book a fitting", method: "post", path: (c) => `${base(c)}/fittings`, body: () => ({}), expect: only([...EDITORS], 400) },
   { name: "open a fitting", method: "get", path: (c) => `${base(c)}/fittings/${missing}`, expect: only([...READERS], 404) },
+  { name: "link an item at a fitting", method: "post", path: (c) => `${base(c)}/fittings/${missing}/items/${missing}/garment`, body: () => ({}), expect: only(["supervisor", "designer", "cutter"], 400) },
   { name: "move a fitting", method: "patch", path: (c) => `${base(c)}/fittings/${missing}`, body: () => ({ durationMinutes: 1 }), expect: only([...EDITORS], 400) },
   { name: "list tickets", method: "get", path: (c) => `${base(c)}/alterations`, expect: only([...READERS], 200) },
   { name: "read a ticket", method: "get", path: (c) => `${base(c)}/alterations/${c.extra.ticketId}`, expect: only([...READERS], 200) },

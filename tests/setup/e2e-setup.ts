@@ -7,7 +7,8 @@ import net from "node:net";
 import path from "node:path";
 import type { TestProject } from "vitest/node";
 import { dropDatabase, ensureDatabase } from "../../scripts/lib/postgres.js";
-import { startTestPostgres, testAdminUrl } from "./test-postgres.js";
+import { startTestPostgres } from "./test-postgres.js";
+import { TEST_CLOCK_AT, testToday } from "./test-clock.js";
 
 function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -24,18 +25,22 @@ declare module "vitest" {
   export interface ProvidedContext {
     baseUrl: string;
     databaseUrl: string;
+    /** The day the server's clock reads and the demo is anchored to (yyyy-MM-dd). */
+    today: string;
+    /** The instant the server's clock started at. */
+    clockAt: string;
   }
 }
 
 let child: ChildProcess | undefined;
 
 export default async function setup(project: TestProject) {
-  await startTestPostgres();
-  await dropDatabase(testAdminUrl(), "seamscene_e2e");
-  const databaseUrl = await ensureDatabase(testAdminUrl(), "seamscene_e2e");
+  const pg = await startTestPostgres();
+  await dropDatabase(pg.adminUrl, "seamscene_e2e");
+  const databaseUrl = await ensureDatabase(pg, "seamscene_e2e");
   const port = await freePort();
   const smtpPort = await freePort();
-  const env: NodeJS.ProcessEnv = { ...process.env, DATABASE_URL: databaseUrl, PORT: String(port), SMTP_PORT: String(smtpPort), NODE_ENV: "development", LOG_LEVEL: "warn", STORAGE_DIR: ".data/e2e-storage", APP_URL: `http://127.0.0.1:${port}` };
+  const env: NodeJS.ProcessEnv = { ...process.env, DATABASE_URL: databaseUrl, PORT: String(port), SMTP_PORT: String(smtpPort), NODE_ENV: "development", LOG_LEVEL: "warn", STORAGE_DIR: ".data/e2e-storage", DATA_DIR: ".data/e2e-data", APP_URL: `http://127.0.0.1:${port}`, CLOCK_AT: TEST_CLOCK_AT };
   delete env.SMTP_HOST;
   child = spawn(process.execPath, [path.resolve("node_modules/tsx/dist/cli.mjs"), "scripts/start.ts"], { env, stdio: ["ignore", "pipe", "pipe"] });
   let output = "";
@@ -56,6 +61,8 @@ export default async function setup(project: TestProject) {
   }
   project.provide("baseUrl", baseUrl);
   project.provide("databaseUrl", databaseUrl);
+  project.provide("today", testToday());
+  project.provide("clockAt", TEST_CLOCK_AT);
   return async () => {
     child?.kill("SIGTERM");
     await new Promise((r) => setTimeout(r, 300));

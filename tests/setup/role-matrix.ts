@@ -69,7 +69,10 @@ export function runRoleMatrix(name: string, app: Express, cases: MatrixCase[], p
             res = await (c.method === "get" ? a.get(c.path(ctx)) : c.method === "delete" ? a.delete(c.path(ctx)) : a[c.method](c.path(ctx), c.body?.(ctx)));
           }
           expect(res.status, JSON.stringify(res.body).slice(0, 300)).toBe(expected);
-          if (expected >= 400) expect(res.body.error.code).toEqual(expect.any(String));
+          // The error code each refusal must carry (style guide: one error shape, stable codes).
+          const codes: Record<number, string> = { 401: "authentication_required", 403: "forbidden", 404: "not_found" };
+          if (codes[expected]) expect(res.body.error.code).toBe(codes[expected]);
+          else if (expected >= 400) expect(res.body.error.code).toMatch(/^[a-z]+(_[a-z]+)*$/);
         });
       }
     }

@@ -2,14 +2,19 @@
  * Per test file, before any server module loads: point the app at this worker's own database
  * (cloned from the migrated template) and at a local SMTP fake on a free port.
  */
-import { afterAll } from "vitest";
+import path from "node:path";
+import { afterAll, inject } from "vitest";
 import { ensureDatabase } from "../../scripts/lib/postgres.js";
-import { testAdminUrl, TEMPLATE_DB } from "./test-postgres.js";
+import { databaseAdmin, TEMPLATE_DB } from "./test-postgres.js";
+import { TEST_CLOCK_AT } from "./test-clock.js";
 
 const worker = process.env.VITEST_POOL_ID ?? process.env.VITEST_WORKER_ID ?? "1";
 process.env.NODE_ENV = "test";
-process.env.DATABASE_URL = await ensureDatabase(testAdminUrl(), `seamscene_test_w${worker}`, TEMPLATE_DB);
+// The server's business clock starts at a pinned instant: tests never depend on today's date.
+process.env.CLOCK_AT = TEST_CLOCK_AT;
+process.env.DATABASE_URL = await ensureDatabase(databaseAdmin(inject("testPg")), `seamscene_test_w${worker}`, TEMPLATE_DB);
 process.env.STORAGE_DIR = `.data/test-storage-w${worker}`;
+process.env.DATA_DIR = path.resolve(`.data/test-data-w${worker}`);
 process.env.SMTP_HOST = "127.0.0.1";
 process.env.SMTP_PORT = "0";
 process.env.DEV_OUTBOX = "true";

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import Papa from "papaparse";
-import { breakdownToCsv, parseBreakdownCsv } from "@shared/domain/breakdown-csv";
+import { breakdownTemplateCsv, breakdownToCsv, mergeDayOrder, parseBreakdownCsv, planBreakdownImport, type SceneValues } from "@shared/domain/breakdown-csv";
 
 const header = "scene,set,int_ext,time_of_day,story_day,story_order,pages,running_minutes,synopsis,shoot_day,shoot_date,shoot_position";
 
@@ -12,13 +12,13 @@ describe("parseBreakdownCsv", () => {
 
     expect(r.errors).toEqual([]);
     expect(r.rows).toBe(3);
-    expect(r.scenes.map((s) => [s.number, s.lengthEighths, s.synopsis])).toEqual([
+    expect(r.scenes.map((s) => [s.number, s.fields.lengthEighths, s.fields.synopsis])).toEqual([
       ["1", 11, "Boats come in, late"],
-      ["2", 4, null],
+      ["2", 4, undefined],
     ]);
-    expect(r.shootDays).toEqual([
-      { dayNumber: 1, date: "2026-11-30", scenes: [{ number: "2", position: 1 }, { number: "1", position: 2 }] },
-      { dayNumber: 2, date: "2026-12-01", scenes: [{ number: "2", position: 1 }] },
+    expect(r.shootDays.map((d) => ({ dayNumber: d.dayNumber, date: d.date, scenes: d.scenes.map((s) => [s.number, s.position]) }))).toEqual([
+      { dayNumber: 1, date: "2026-11-30", scenes: [["1", 2], ["2", 1]] },
+      { dayNumber: 2, date: "2026-12-01", scenes: [["2", 1]] },
     ]);
   });
 
@@ -67,11 +67,72 @@ describe("breakdownToCsv", () => {
     // Independent reader: papaparse without our checks.
     const raw = Papa.parse<string[]>(csv.trim()).data;
 
+    const plan = planBreakdownImport(back, { scenes: new Map(), days: new Map(), nextStoryOrder: 1 });
+    const values = new Map(plan.sceneWrites.map((w) => [w.number, w.values]));
+
     expect(back.errors).toEqual([]);
-    expect(back.shootDays).toEqual(days);
-    expect(back.scenes.map(({ line: _l, ...s }) => s)).toEqual([scenes[1], scenes[0]].map((s) => ({ ...s, storyOrder: s.storyOrder })));
+    expect(plan.errors).toEqual([]);
+    expect(plan.dayWrites.map((d) => ({ dayNumber: d.dayNumber, date: d.date, scenes: d.sceneNumbers.map((number, i) => ({ number, position: i + 1 })) }))).toEqual(days);
+    expect([...values.entries()].map(([number, v]) => ({ number, ...v }))).toEqual([scenes[1], scenes[0]]);
     expect(raw[2]![1]).toBe("Chapel, vestry");
     expect(raw[2]![8]).toBe('He says "no"');
-    expect(breakdownToCsv(back.scenes.map((s) => ({ ...s, storyOrder: s.storyOrder ?? 0 })), back.shootDays)).toBe(csv);
+    expect(breakdownToCsv([...values.entries()].map(([number, v]) => ({ number, ...v })), days)).toBe(csv);
+  });
+});
+
+const stored = (over: Partial<SceneValues> = {}): SceneValues => ({ setName: "Harbour wall", intExt: "EXT", timeOfDay: "DAY", storyDay: 3, storyOrder: 1, lengthEighths: 11, runningMinutes: null, synopsis: "Nets", ...over });
+
+describe("planBreakdownImport (merge into the stored breakdown)", () => {
+  it("keeps every stored field a row leaves empty or does not have, and clears only on (clear)", () => {
+    const parsed = parseBreakdownCsv("scene,set,time_of_day,synopsis\n1,,(Clear),\n");
+
+    const plan = planBreakdownImport(parsed, { scenes: new Map([["1", stored()]]), days: new Map(), nextStoryOrder: 2 });
+
+    expect(plan.sceneWrites).toEqual([{ number: "1", isNew: false, values: stored({ timeOfDay: null }) }]);
+    expect(plan.changes).toEqual([{ line: 2, scene: "1", status: "changed", fields: [{ column: "time_of_day", old: "DAY", new: "" }] }]);
+    expect(plan.counts.scenes).toEqual({ created: 0, updated: 1, unchanged: 0 });
+  });
+
+  it("leaves an unchanged scene out of the writes and counts it as unchanged", () => {
+    const plan = planBreakdownImport(parseBreakdownCsv("scene,set\n1,Harbour wall\n"), { scenes: new Map([["1", stored()]]), days: new Map(), nextStoryOrder: 2 });
+
+    expect(plan.sceneWrites).toEqual([]);
+    expect(plan.changes[0]!.status).toBe("unchanged");
+    expect(plan.counts.scenes).toEqual({ created: 0, updated: 0, unchanged: 1 });
+  });
+
+  it("reads a file that starts with comment lines and counts lines from the top of the file", () => {
+    const parsed = parseBreakdownCsv("# a note\n# another\nscene,story_day\n1,x\n");
+
+    expect(parsed.errors).toEqual([{ line: 4, column: "story_day", message: "must be a whole number" }]);
+  });
+
+  it("the template parses cleanly and has one example row", () => {
+    for (const kind of ["film", "stage"] as const) {
+      const parsed = parseBreakdownCsv(breakdownTemplateCsv(kind));
+
+      expect(parsed.errors).toEqual([]);
+      expect(parsed.rows).toBe(1);
+    }
+  });
+});
+
+describe("mergeDayOrder", () => {
+  const slot = (number: string, position: number | null, remove = false) => ({ number, position, remove, line: 0 });
+
+  it("places, keeps, appends and takes off", () => {
+    expect(mergeDayOrder(["1", "2", "3"], [slot("4", 1), slot("2", null, true)])).toEqual(["4", "1", "3"]);
+    expect(mergeDayOrder(["1", "2"], [slot("1", null), slot("5", null)])).toEqual(["1", "2", "5"]);
+    expect(mergeDayOrder(["1", "2"], [slot("1", 2)])).toEqual(["2", "1"]);
+    expect(mergeDayOrder([], [slot("1", 2), slot("2", 1)])).toEqual(["2", "1"]);
+    expect(mergeDayOrder(["1"], [slot("9", 40)])).toEqual(["1", "9"]);
+  });
+
+  it("reproduces any full order written with positions 1..n over any stored order (export → import is stable)", () => {
+    // Property: a file that lists every scene of a day with positions 1..n yields exactly that order.
+    const orders = [["1", "2", "3"], ["3", "1", "2"], ["2", "3", "1"]];
+    for (const storedOrder of orders) for (const target of orders) {
+      expect(mergeDayOrder(storedOrder, target.map((n, i) => slot(n, i + 1)))).toEqual(target);
+    }
   });
 });

@@ -7,6 +7,7 @@ import { Button } from "@/components/ui/button";
 import { ErrorAlert, Spinner } from "@/components/ui/feedback";
 import { cn } from "@/utils/cn";
 import { useDeletePhoto, usePhotos, useUploadPhoto } from "./use-photos";
+import { ConfirmDialog } from "@/components/ui/dialog";
 
 export const viewLabels: Record<PhotoView, string> = { front: "Front", back: "Back", left: "Left", right: "Right", detail: "Detail", other: "Other" };
 
@@ -158,6 +159,7 @@ export function OwnerPhotos({ productionId, ownerType, ownerId, canEdit, title =
   const photos = usePhotos(productionId, ownerType, ownerId);
   const upload = useUploadPhoto(productionId, ownerType, ownerId);
   const del = useDeletePhoto(productionId, ownerType, ownerId);
+  const [deleting, setDeleting] = useState<PhotoDto | null>(null);
   const [failed, setFailed] = useState<PendingPhoto[]>([]);
   const send = async (list: PendingPhoto[]) => {
     const left: PendingPhoto[] = [];
@@ -173,7 +175,19 @@ export function OwnerPhotos({ productionId, ownerType, ownerId, canEdit, title =
   return (
     <section aria-label={title} className="grid gap-2">
       <h3 className="text-sm font-semibold text-ink">{title}</h3>
-      {photos.isPending ? <Spinner /> : photos.error ? <ErrorAlert error={photos.error} /> : <PhotoStrip photos={photos.data} onDelete={canEdit ? (p) => del.mutate(p.id) : undefined} />}
+      {photos.isPending ? <Spinner /> : photos.error ? <ErrorAlert error={photos.error} /> : <PhotoStrip photos={photos.data} onDelete={canEdit ? setDeleting : undefined} />}
+      {del.error && <ErrorAlert error={del.error} title="Photo not deleted" />}
+      <ConfirmDialog
+        open={Boolean(deleting)}
+        title={`Delete this ${deleting ? viewLabels[deleting.view].toLowerCase() : ""} photo?`}
+        confirmLabel="Delete photo"
+        danger
+        busy={del.isPending}
+        onCancel={() => setDeleting(null)}
+        onConfirm={() => deleting && del.mutate(deleting.id, { onSettled: () => setDeleting(null) })}
+      >
+        The photo and its smaller sizes are deleted. This cannot be undone.
+      </ConfirmDialog>
       {upload.error && <ErrorAlert error={upload.error} title="Photo not saved" />}
       {failed.length > 0 && (
         <Button variant="secondary" onClick={() => send(failed)}>

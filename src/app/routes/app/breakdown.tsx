@@ -1,5 +1,5 @@
 import { useCallback, useState } from "react";
-import { Link, Route, Routes, useParams } from "react-router";
+import { Link, Route, Routes, useNavigate, useParams } from "react-router";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { PageHeader } from "@/components/ui/page";
 import { Card } from "@/components/ui/card";
@@ -11,6 +11,9 @@ import { useChanges, useCharacters, useCreateScene, useScene, useScenes, useShoo
 import { BreakdownTable } from "@/features/breakdown/components/breakdown-table";
 import { ImportPanel } from "@/features/breakdown/components/import-panel";
 import { ScenePage } from "@/features/breakdown/components/scene-page";
+import { SceneForm } from "@/features/breakdown/components/scene-form";
+import { ShootDayEditor } from "@/features/breakdown/components/shoot-day-editor";
+import { SnagsForDay } from "@/features/snags/components/snags-for-day";
 import { ApiError } from "@/lib/api-client";
 import { cn } from "@/utils/cn";
 
@@ -63,35 +66,23 @@ function BreakdownHome() {
       )}
       {tab === "days" && (
         <Card>
-          {days.isPending ? (
+          {days.isPending || scenes.isPending ? (
             <Spinner />
           ) : days.error ? (
             <ErrorAlert error={days.error} />
+          ) : scenes.error ? (
+            <ErrorAlert error={scenes.error} />
           ) : (
-            <ol className="grid gap-2">
-              {days.data.map((d) => (
-                <li key={d.id} className="rounded border border-chalk-200 p-2 text-sm">
-                  <p className="font-semibold text-ink">
-                    {d.kind === "performance" ? `Performance ${d.dayNumber}` : `Day ${d.dayNumber}`} · {d.date}
-                    {d.startsAt ? ` · ${d.startsAt}` : ""} {d.notes ? `· ${d.notes}` : ""}
-                  </p>
-                  {d.kind === "shoot" ? (
-                    <p>
-                      {d.scenes.map((s, i) => (
-                        <span key={s.id}>
-                          {i > 0 && " → "}
-                          <Link className="underline-offset-2 hover:underline" to={sceneHref(s.id)}>
-                            {s.number}
-                          </Link>
-                        </span>
-                      ))}
-                    </p>
-                  ) : (
-                    <p className="text-slate">Full show, {d.scenes.length} scenes in running order.</p>
-                  )}
-                </li>
-              ))}
-            </ol>
+            <ShootDayEditor
+              productionId={productionId}
+              days={days.data}
+              scenes={scenes.data}
+              stage={stage}
+              canEdit={can("breakdown.update")}
+              today={production?.today ?? ""}
+              sceneHref={sceneHref}
+              daySnags={can("snag.read") ? (d) => <SnagsForDay productionId={productionId} day={d} /> : undefined}
+            />
           )}
         </Card>
       )}
@@ -147,15 +138,32 @@ function NewSceneForm({ productionId, stage }: { productionId: string; stage: bo
 
 function SceneRoute() {
   const { sceneId = "" } = useParams();
+  const navigate = useNavigate();
   const { productionId, production, can } = useCurrentProduction();
   const scene = useScene(productionId, sceneId);
+  const [editing, setEditing] = useState(false);
   const characters = useCharacters(productionId);
   const changes = useChanges(productionId);
   if (scene.isPending) return <Spinner />;
   if (scene.error) return <ErrorAlert error={scene.error} />;
   return (
     <div className="grid gap-4">
-      <PageHeader title={`Scene ${scene.data.number}`} subtitle={<Link to={`/p/${productionId}/breakdown`}>← Breakdown</Link>} />
+      <PageHeader
+        title={`Scene ${scene.data.number}`}
+        subtitle={<Link to={`/p/${productionId}/breakdown`}>← Breakdown</Link>}
+        actions={
+          can("breakdown.update") ? (
+            <Button variant="secondary" aria-expanded={editing} onClick={() => setEditing((e) => !e)}>
+              {editing ? "Close the form" : "Edit scene"}
+            </Button>
+          ) : undefined
+        }
+      />
+      {editing && can("breakdown.update") && (
+        <Card>
+          <SceneForm key={scene.data.id} productionId={productionId} scene={scene.data} stage={production?.kind === "stage"} onDeleted={() => navigate(`/p/${productionId}/breakdown`)} />
+        </Card>
+      )}
       <Card>
         <ScenePage
           productionId={productionId}

@@ -8,6 +8,7 @@ import { Button } from "@/components/ui/button";
 import { InputField, SelectField, controlClass } from "@/components/ui/field";
 import { Badge, ErrorAlert, Spinner, EmptyState } from "@/components/ui/feedback";
 import { ApiError } from "@/lib/api-client";
+import { ConfirmDialog } from "@/components/ui/dialog";
 import { useChanges, useCharacters, useCreateChange, useSetApproval, useUpdateChange } from "@/features/breakdown/api/breakdown";
 
 const approvalTone = { draft: "neutral", proposed: "warning", approved: "note" } as const;
@@ -55,6 +56,7 @@ function ChangeCard({ productionId, change, canEdit, canApprove }: { productionI
   const approve = useSetApproval(productionId);
   const update = useUpdateChange(productionId);
   const [label, setLabel] = useState("");
+  const [removing, setRemoving] = useState<number | null>(null);
   const items = change.items.map((i) => ({ label: i.label, garmentId: i.garmentId, multiplesGroupId: i.multiplesGroupId }));
   return (
     <Card className="grid gap-2">
@@ -81,13 +83,25 @@ function ChangeCard({ productionId, change, canEdit, canApprove }: { productionI
               {i.garmentId && <Badge>garment linked</Badge>}
               {i.multiplesGroupId && <Badge tone="note">multiples group</Badge>}
               {canEdit && (
-                <button type="button" className="text-xs text-madder underline" onClick={() => update.mutate({ id: change.id, input: { items: items.filter((_, k) => k !== n) } })}>
+                <button type="button" className="min-h-8 text-xs text-madder underline" onClick={() => setRemoving(n)} aria-label={`Remove ${i.label} from change ${change.number}`}>
                   remove
                 </button>
               )}
             </li>
           ))}
         </ul>
+        <ConfirmDialog
+          open={removing !== null}
+          title={`Remove ${removing !== null ? (change.items[removing]?.label ?? "") : ""} from change ${change.number}?`}
+          confirmLabel="Remove item"
+          danger
+          busy={update.isPending}
+          onCancel={() => setRemoving(null)}
+          onConfirm={() => removing !== null && update.mutate({ id: change.id, input: { items: items.filter((_, k) => k !== removing) } }, { onSettled: () => setRemoving(null) })}
+        >
+          {removing !== null && change.items[removing]?.garmentId ? "Its link to the garment goes too (the garment stays in stock). " : ""}
+          {change.approval === "approved" ? "Editing an approved change sends it back to draft." : ""}
+        </ConfirmDialog>
         {canEdit && (
           <form className="mt-1 flex gap-2" onSubmit={(e) => { e.preventDefault(); if (label.trim()) update.mutate({ id: change.id, input: { items: [...items, { label: label.trim(), garmentId: null, multiplesGroupId: null }] } }, { onSuccess: () => setLabel("") }); }}>
             <input className={`${controlClass} max-w-60 py-1`} placeholder="Add item (e.g. waistcoat)" aria-label={`New item for change ${change.number}`} value={label} onChange={(e) => setLabel(e.target.value)} />

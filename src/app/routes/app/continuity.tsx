@@ -23,15 +23,10 @@ export default function ContinuityScreen() {
   );
 }
 
-function todayIso(): string {
-  const d = new Date();
-  return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, "0")}-${String(d.getDate()).padStart(2, "0")}`;
-}
-
 const VIEW_ORDER: PhotoView[] = ["front", "back", "left", "right", "detail"];
 
 function ContinuityHome() {
-  const { productionId, production, can } = useCurrentProduction();
+  const { productionId, production, can, today } = useCurrentProduction();
   const days = useShootDays(productionId);
   const characters = useCharacters(productionId);
   const [dayId, setDayId] = useState("");
@@ -42,7 +37,6 @@ function ContinuityHome() {
   // Default to today's shoot day, else the next one, else the last.
   useEffect(() => {
     if (dayId || !days.data?.length) return;
-    const today = todayIso();
     const pick = days.data.find((d) => d.date === today) ?? days.data.find((d) => d.date > today) ?? days.data[days.data.length - 1]!;
     setDayId(pick.id);
   }, [days.data, dayId]);
@@ -61,7 +55,7 @@ function ContinuityHome() {
             <SelectField label={stage ? "Performance" : "Shoot day"} value={dayId} onChange={(e) => { setDayId(e.target.value); setSceneId(""); setCharacterId(""); }}>
               {days.data.map((d) => (
                 <option key={d.id} value={d.id}>
-                  {d.date === todayIso() ? "Today · " : ""}
+                  {d.date === today ? "Today · " : ""}
                   {d.kind === "performance" ? `Performance ${d.dayNumber}` : `Day ${d.dayNumber}`} · {d.date}
                   {d.startsAt ? ` ${d.startsAt}` : ""}
                 </option>

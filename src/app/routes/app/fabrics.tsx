@@ -79,7 +79,7 @@ function FabricLibrary() {
 
 function FabricPage() {
   const { fabricId = "" } = useParams();
-  const { productionId, production, can } = useCurrentProduction();
+  const { productionId, production, can, today } = useCurrentProduction();
   const fabric = useFabric(productionId, fabricId);
   const update = useUpdateFabric(productionId, fabricId);
   const [editing, setEditing] = useState(false);
@@ -120,7 +120,7 @@ function FabricPage() {
         )}
       </Card>
       <Card>
-        <FabricTests productionId={productionId} fabric={f} canUpdate={can("fabric.update")} today={new Date().toISOString().slice(0, 10)} />
+        <FabricTests productionId={productionId} fabric={f} canUpdate={can("fabric.update")} today={today} />
       </Card>
     </div>
   );

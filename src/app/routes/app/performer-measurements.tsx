@@ -12,7 +12,7 @@ import { MeasurementHistory, SizesPanel } from "@/features/measurements/componen
 /** A performer's measurements under Cast: history, sizes, a new set, and the printable sheet. */
 export default function PerformerMeasurementsPage() {
   const { performerId = "" } = useParams();
-  const { productionId, production, can } = useCurrentProduction();
+  const { productionId, production, can, today } = useCurrentProduction();
   const canRead = can("measurement.read");
   const data = usePerformerMeasurements(productionId, canRead ? performerId : "");
   const del = useDeleteMeasurementSet(productionId, performerId);
@@ -67,7 +67,7 @@ export default function PerformerMeasurementsPage() {
       {can("measurement.update") && (
         <Card>
           <h2 className="mb-2 font-semibold text-ink">New measurement set</h2>
-          <MeasurementForm productionId={productionId} performerId={performerId} defaultUnit={production.units} today={new Date().toISOString().slice(0, 10)} />
+          <MeasurementForm productionId={productionId} performerId={performerId} defaultUnit={production.units} today={today} />
         </Card>
       )}
     </div>

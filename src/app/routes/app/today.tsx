@@ -8,15 +8,13 @@ import { SnagsForDay } from "@/features/snags/components/snags-for-day";
 import { useShootDays } from "@/features/breakdown/api/breakdown";
 import { useFittings, useWorkroomPlan } from "@/features/workroom/api/workroom";
 
-const todayIso = () => format(new Date(), "yyyy-MM-dd");
 const nice = (iso: string) => format(parseISO(iso), "EEE d MMM yyyy");
 
 /** The next shoot day (or performance) with its scenes. */
-function NextDay({ productionId, stage }: { productionId: string; stage: boolean }) {
+function NextDay({ productionId, stage, today }: { productionId: string; stage: boolean; today: string }) {
   const days = useShootDays(productionId);
   if (days.isPending) return <Spinner />;
   if (days.error) return <ErrorAlert error={days.error} />;
-  const today = todayIso();
   const kind = stage ? "performance" : "shoot";
   const next = days.data.filter((d) => d.kind === kind && d.date >= today).sort((a, b) => a.date.localeCompare(b.date) || a.dayNumber - b.dayNumber)[0];
   if (!next) return <EmptyState title={stage ? "No performances ahead" : "No shoot days ahead"}>Add them on the Breakdown screen.</EmptyState>;
@@ -45,11 +43,10 @@ function NextDay({ productionId, stage }: { productionId: string; stage: boolean
 }
 
 /** Fittings from today on (the next few). */
-function UpcomingFittings({ productionId }: { productionId: string }) {
+function UpcomingFittings({ productionId, today }: { productionId: string; today: string }) {
   const fittings = useFittings(productionId);
   if (fittings.isPending) return <Spinner />;
   if (fittings.error) return <ErrorAlert error={fittings.error} />;
-  const today = todayIso();
   const next = fittings.data.filter((f) => f.status === "booked" && f.startsAt.slice(0, 10) >= today).sort((a, b) => a.startsAt.localeCompare(b.startsAt)).slice(0, 5);
   if (!next.length) return <p className="text-sm text-slate">No fittings booked from today on.</p>;
   return (
@@ -96,24 +93,24 @@ function WorkDue({ productionId }: { productionId: string }) {
 
 /** The next shoot day or performance at a glance: scenes, snags, fittings and work due. */
 export default function TodayPage() {
-  const { production, productionId, can } = useCurrentProduction();
+  const { production, productionId, can, today } = useCurrentProduction();
   if (!production) return <Spinner />;
   const stage = production.kind === "stage";
   return (
     <div className="grid gap-4">
-      <PageHeader title="Today" subtitle={`${production.title} · ${nice(todayIso())}`} />
+      <PageHeader title="Today" subtitle={`${production.title} · ${nice(today)}`} />
       <div className="grid gap-4 lg:grid-cols-2">
         {can("breakdown.read") && (
           <Card>
             <h2 className="mb-2 font-semibold text-ink">{stage ? "Next performance" : "Next shoot day"}</h2>
-            <NextDay productionId={productionId} stage={stage} />
+            <NextDay productionId={productionId} stage={stage} today={today} />
           </Card>
         )}
         {can("snag.read") && <SnagsForDay productionId={productionId} />}
         {can("fitting.read") && (
           <Card>
             <h2 className="mb-2 font-semibold text-ink">Fittings</h2>
-            <UpcomingFittings productionId={productionId} />
+            <UpcomingFittings productionId={productionId} today={today} />
           </Card>
         )}
         {can("alteration.read") && (

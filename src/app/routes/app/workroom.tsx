@@ -26,12 +26,12 @@ const TABS = [
 type Tab = (typeof TABS)[number]["key"];
 
 function Overview() {
-  const { productionId, production, can } = useCurrentProduction();
+  const { productionId, production, can, today } = useCurrentProduction();
   const [params, setParams] = useSearchParams();
   const tab = (TABS.some((t) => t.key === params.get("tab")) ? params.get("tab") : "fittings") as Tab;
   const from = params.get("from") ?? undefined;
   const dateParam = params.get("date");
-  const calDate = dateParam && isValid(parseISO(dateParam)) ? parseISO(dateParam) : new Date();
+  const calDate = dateParam && isValid(parseISO(dateParam)) ? parseISO(dateParam) : today ? parseISO(today) : new Date();
   const calView = (["month", "week", "day"].includes(params.get("view") ?? "") ? params.get("view") : "week") as View;
   const [booking, setBooking] = useState(false);
   const plan = useWorkroomPlan(productionId, from);
@@ -165,7 +165,7 @@ function FittingPage() {
   if (fitting.isPending || options.isPending) return <Spinner />;
   if (fitting.error) return <ErrorAlert error={fitting.error} />;
   if (options.error) return <ErrorAlert error={options.error} />;
-  return <FittingView productionId={productionId} fitting={fitting.data} options={options.data} units={production?.units ?? "cm"} canEdit={can("alteration.update")} />;
+  return <FittingView productionId={productionId} fitting={fitting.data} options={options.data} units={production?.units ?? "cm"} canEdit={can("alteration.update")} canLink={can("fitting.link_garment")} />;
 }
 
 /** The Workroom screen: fittings, tickets with their plan, calendar, hours; a fitting's own page for tablets. */

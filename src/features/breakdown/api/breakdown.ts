@@ -2,7 +2,7 @@
 // continuity and the CSV import. Keys: ["breakdown", pid, ...].
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { api, qs } from "@/lib/api-client";
-import type { AppearanceDto, AppearanceInput, ImportPreviewDto, ImportResultDto, SceneDetailDto, SceneInput, SceneRowDto, ShootDayDto, ShootDayInput, UpdateAppearanceInput } from "@shared/schemas/breakdown";
+import type { AppearanceDto, AppearanceInput, ImportPreviewDto, ImportResultDto, MoveSceneInput, SceneDetailDto, SceneDto, SceneInput, SceneRowDto, ShootDayDto, ShootDayInput, UpdateAppearanceInput, UpdateShootDayInput } from "@shared/schemas/breakdown";
 import type { CharacterDto, CharacterInput, CharacterScheduleDto, PerformerDto, PerformerInput } from "@shared/schemas/cast";
 import type { ChangeApproval, ChangeDto, ChangeInput, UpdateChangeInput } from "@shared/schemas/changes";
 import type { ContinuityEntryDto, ContinuityTimelineDto } from "@shared/schemas/continuity";
@@ -38,6 +38,15 @@ function useInvalidate(pid: string) {
   return () => qc.invalidateQueries({ queryKey: ["breakdown", pid] });
 }
 
+/**
+ * After a change to the schedule or a scene: snags (bookings, multiples, rentals…) and the workroom
+ * plan (due dates come from shoot days) are computed from it, so they are fetched again too.
+ */
+function useInvalidateSchedule(pid: string) {
+  const qc = useQueryClient();
+  return () => Promise.all([["breakdown", pid], ["snags", pid], ["workroom", pid]].map((queryKey) => qc.invalidateQueries({ queryKey })));
+}
+
 /** Adds a scene. */
 export function useCreateScene(pid: string) {
   const invalidate = useInvalidate(pid);
@@ -45,17 +54,37 @@ export function useCreateScene(pid: string) {
 }
 /** Edits a scene. */
 export function useUpdateScene(pid: string, id: string) {
-  const invalidate = useInvalidate(pid);
-  return useMutation({ mutationFn: (input: Partial<SceneInput>) => api.patch(`${base(pid)}/scenes/${id}`, input), onSuccess: invalidate });
+  const invalidate = useInvalidateSchedule(pid);
+  return useMutation({ mutationFn: (input: Partial<SceneInput>) => api.patch<SceneDto>(`${base(pid)}/scenes/${id}`, input), onSuccess: invalidate });
+}
+/** Deletes a scene with its appearances and continuity (ask first). */
+export function useDeleteScene(pid: string) {
+  const invalidate = useInvalidateSchedule(pid);
+  return useMutation({ mutationFn: (id: string) => api.delete(`${base(pid)}/scenes/${id}`), onSuccess: invalidate });
 }
 /** Adds a shoot day or performance. */
 export function useCreateShootDay(pid: string) {
-  const invalidate = useInvalidate(pid);
+  const invalidate = useInvalidateSchedule(pid);
   return useMutation({ mutationFn: (input: Partial<ShootDayInput>) => api.post<ShootDayDto>(`${base(pid)}/shoot-days`, input), onSuccess: invalidate });
+}
+/** Edits a shoot day; `sceneIds` replaces its scene order. */
+export function useUpdateShootDay(pid: string) {
+  const invalidate = useInvalidateSchedule(pid);
+  return useMutation({ mutationFn: ({ id, ...input }: UpdateShootDayInput & { id: string }) => api.patch<ShootDayDto>(`${base(pid)}/shoot-days/${id}`, input), onSuccess: invalidate });
+}
+/** Moves a scene from one shoot day to another. */
+export function useMoveScene(pid: string) {
+  const invalidate = useInvalidateSchedule(pid);
+  return useMutation({ mutationFn: ({ fromId, ...input }: MoveSceneInput & { fromId: string }) => api.post<{ from: ShootDayDto; to: ShootDayDto }>(`${base(pid)}/shoot-days/${fromId}/move-scene`, input), onSuccess: invalidate });
+}
+/** Deletes a shoot day or performance (ask first). */
+export function useDeleteShootDay(pid: string) {
+  const invalidate = useInvalidateSchedule(pid);
+  return useMutation({ mutationFn: (id: string) => api.delete(`${base(pid)}/shoot-days/${id}`), onSuccess: invalidate });
 }
 /** Puts a character in a scene. */
 export function useCreateAppearance(pid: string) {
-  const invalidate = useInvalidate(pid);
+  const invalidate = useInvalidateSchedule(pid);
   return useMutation({ mutationFn: (input: Partial<AppearanceInput>) => api.post<AppearanceDto>(`${base(pid)}/appearances`, input), onSuccess: invalidate });
 }
 /** Edits the change or state of an appearance. */
@@ -65,7 +94,7 @@ export function useUpdateAppearance(pid: string) {
 }
 /** Removes an appearance. */
 export function useDeleteAppearance(pid: string) {
-  const invalidate = useInvalidate(pid);
+  const invalidate = useInvalidateSchedule(pid);
   return useMutation({ mutationFn: (id: string) => api.delete(`${base(pid)}/appearances/${id}`), onSuccess: invalidate });
 }
 /** Checks a CSV without saving. */
@@ -74,7 +103,7 @@ export function useImportPreview(pid: string) {
 }
 /** Imports a CSV (all rows or none). */
 export function useImportBreakdown(pid: string) {
-  const invalidate = useInvalidate(pid);
+  const invalidate = useInvalidateSchedule(pid);
   return useMutation({ mutationFn: (p: { csv: string; fileName?: string }) => api.post<ImportResultDto>(`${base(pid)}/imports/breakdown`, p), onSuccess: invalidate });
 }
 /** Adds a performer. */

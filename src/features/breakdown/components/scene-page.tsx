@@ -6,6 +6,7 @@ import type { ChangeDto } from "@shared/schemas/changes";
 import { formatEighths } from "@shared/domain/breakdown";
 import { Badge, ErrorAlert, SafetyNote } from "@/components/ui/feedback";
 import { Button } from "@/components/ui/button";
+import { ConfirmDialog } from "@/components/ui/dialog";
 import { controlClass } from "@/components/ui/field";
 import { PhotoStrip } from "@/components/photos";
 import { useContinuityEntries, useCreateAppearance, useDeleteAppearance, useUpdateAppearance } from "../api/breakdown";
@@ -33,6 +34,7 @@ export function ScenePage({ productionId, scene, characters, changes, canEdit, s
   const update = useUpdateAppearance(productionId);
   const remove = useDeleteAppearance(productionId);
   const [adding, setAdding] = useState("");
+  const [removing, setRemoving] = useState<App | null>(null);
   const present = new Set(scene.appearances.map((a) => a.characterId));
   const risky = scene.appearances.some((a) => a.wet || a.stunt || a.blood);
   return (
@@ -49,10 +51,22 @@ export function ScenePage({ productionId, scene, characters, changes, canEdit, s
         <h2 className="font-semibold text-ink">Characters and changes</h2>
         <ul className="grid gap-2">
           {scene.appearances.map((a) => (
-            <AppearanceRow key={a.id} a={a} changes={changes.filter((c) => c.characterId === a.characterId)} canEdit={canEdit} stage={stage} characterHref={characterHref} onSave={(input) => update.mutate({ id: a.id, input })} onRemove={() => remove.mutate(a.id)} />
+            <AppearanceRow key={a.id} a={a} changes={changes.filter((c) => c.characterId === a.characterId)} canEdit={canEdit} stage={stage} characterHref={characterHref} onSave={(input) => update.mutate({ id: a.id, input })} onRemove={() => setRemoving(a)} />
           ))}
         </ul>
         {update.error && <ErrorAlert error={update.error} title="Not saved" />}
+        {remove.error && <ErrorAlert error={remove.error} title="Not removed" />}
+        <ConfirmDialog
+          open={Boolean(removing)}
+          title={`Take ${removing?.characterName ?? ""} out of scene ${scene.number}?`}
+          confirmLabel="Take out of scene"
+          danger
+          busy={remove.isPending}
+          onCancel={() => setRemoving(null)}
+          onConfirm={() => removing && remove.mutate(removing.id, { onSettled: () => setRemoving(null) })}
+        >
+          The change worn here, the distress stage and the wet, stunt, blood and effects flags of this appearance are deleted. Continuity already logged stays.
+        </ConfirmDialog>
         {canEdit && (
           <div className="flex flex-wrap items-end gap-2">
             <label className="grid gap-1 text-sm font-semibold">

@@ -27,6 +27,7 @@ export function PacketBuilder({ productionId, packet, canPublish, onPublished }:
   const options = usePacketOptions(productionId, packet.changeId);
   const [s, setS] = useState<PacketSelection>(packet.selection);
   const [confirm, setConfirm] = useState(false);
+  const [confirmDelete, setConfirmDelete] = useState(false);
   const update = useUpdatePacket(productionId);
   const publish = usePublishPacket(productionId, onPublished);
   const del = useDeletePacket(productionId);
@@ -90,9 +91,13 @@ export function PacketBuilder({ productionId, packet, canPublish, onPublished }:
       <div className="flex flex-wrap gap-2">
         <Button variant="secondary" disabled={!dirty} busy={update.isPending} onClick={() => update.mutate({ id: packet.id, input: s })}>Save draft</Button>
         {canPublish && <Button disabled={dirty} onClick={() => setConfirm(true)}>Publish version</Button>}
-        <Button variant="ghost" busy={del.isPending} onClick={() => del.mutate(packet.id)}>Delete draft</Button>
+        <Button variant="ghost" busy={del.isPending} onClick={() => setConfirmDelete(true)}>Delete draft</Button>
         {dirty && <span className="self-center text-xs text-slate">Save the draft before publishing.</span>}
       </div>
+      {del.error && <ErrorAlert error={del.error} title="Draft not deleted" />}
+      <ConfirmDialog open={confirmDelete} title="Delete this draft?" confirmLabel="Delete draft" danger busy={del.isPending} onCancel={() => setConfirmDelete(false)} onConfirm={() => del.mutate(packet.id, { onSettled: () => setConfirmDelete(false) })}>
+        The choices in this draft are lost. Published versions stay as they are.
+      </ConfirmDialog>
       <ConfirmDialog open={confirm} title="Publish this packet?" confirmLabel="Publish" busy={publish.isPending} onCancel={() => setConfirm(false)} onConfirm={() => publish.mutate(packet.id, { onSettled: () => setConfirm(false) })}>
         It becomes a numbered version that never changes, and the chosen vfx members are e-mailed. Later edits make a new version.
       </ConfirmDialog>

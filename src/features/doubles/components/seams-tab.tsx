@@ -6,6 +6,7 @@ import { InputField, SelectField } from "@/components/ui/field";
 import { Badge, EmptyState, ErrorAlert, Spinner } from "@/components/ui/feedback";
 import { ApiError } from "@/lib/api-client";
 import { useCreateSeam, useDeleteSeam, usePanels, useSeams } from "../api/doubles";
+import { ConfirmDialog } from "@/components/ui/dialog";
 
 const mm = (v: number) => `${v.toFixed(1)} mm`;
 const runText = (s: SeamDto["a"]) => `${s.panelName} ${typeof s.from === "number" ? s.from : `${s.from.edge}+${s.from.t}`}→${typeof s.to === "number" ? s.to : `${s.to.edge}+${s.to.t}`}${s.direction === "backward" ? " (backward)" : ""}`;
@@ -25,6 +26,7 @@ export function SeamsTab({ productionId, change, canEdit }: { productionId: stri
   const panels = usePanels(productionId, { changeId: change.id });
   const create = useCreateSeam(productionId);
   const del = useDeleteSeam(productionId);
+  const [deleting, setDeleting] = useState<{ id: string; name: string } | null>(null);
   const [name, setName] = useState("");
   const [a, setA] = useState<SideForm>({ panelId: "", from: 0, to: 1, direction: "forward" });
   const [b, setB] = useState<SideForm>({ panelId: "", from: 0, to: 1, direction: "forward" });
@@ -74,7 +76,7 @@ export function SeamsTab({ productionId, change, canEdit }: { productionId: stri
                     <td className="px-2 py-1">{mm(s.lengthB)}</td>
                     <td className="px-2 py-1">{s.differenceMm >= 0 ? "+" : ""}{mm(s.differenceMm)}</td>
                     <td className="px-2 py-1">{statusBadge(s)} <span className="block text-xs text-slate">{s.eased ? `ease ${s.eased.minMm} to ${s.eased.maxMm} mm` : `± ${s.effectiveToleranceMm} mm`}</span></td>
-                    <td className="px-2 py-1">{canEdit && <Button size="sm" variant="ghost" onClick={() => del.mutate(s.id)}>Delete</Button>}</td>
+                    <td className="px-2 py-1">{canEdit && <Button size="sm" variant="ghost" onClick={() => setDeleting(s)} aria-label={`Delete seam ${s.name}`}>Delete</Button>}</td>
                   </tr>
                 ))}
               </tbody>
@@ -82,6 +84,10 @@ export function SeamsTab({ productionId, change, canEdit }: { productionId: stri
           </div>
         )}
       </Card>
+      {del.error && <ErrorAlert error={del.error} title="Seam not deleted" />}
+      <ConfirmDialog open={Boolean(deleting)} title={`Delete seam ${deleting?.name ?? ""}?`} confirmLabel="Delete seam" danger busy={del.isPending} onCancel={() => setDeleting(null)} onConfirm={() => deleting && del.mutate(deleting.id, { onSettled: () => setDeleting(null) })}>
+        The pairing of the two edges goes; the panels stay. Packets already published keep their copy.
+      </ConfirmDialog>
       {canEdit && (
         <Card>
           <h2 className="mb-3 font-semibold text-ink">Join two runs</h2>

@@ -4,12 +4,15 @@ import { ErrorAlert, Spinner } from "@/components/ui/feedback";
 import { useSnags } from "../api/snags";
 import { SnagCard } from "./snag-card";
 
-/** The open snags of the next shoot day (or performance), compact, with a link to the Snags screen. */
-export function SnagsForDay({ productionId, max = 8 }: { productionId: string; max?: number }) {
-  const q = useSnags(productionId, { shootDayId: "next" });
-  const day = q.data?.nextShootDay;
+/**
+ * The open snags of the next shoot day (or performance), or of the day given, compact, with a link
+ * to the Snags screen.
+ */
+export function SnagsForDay({ productionId, max = 8, day: given }: { productionId: string; max?: number; day?: { id: string; date: string; kind: "shoot" | "performance" } }) {
+  const q = useSnags(productionId, { shootDayId: given?.id ?? "next" });
+  const day = given ?? q.data?.nextShootDay;
   return (
-    <Card role="region" aria-label="Snags for the next day">
+    <Card role="region" aria-label={given ? `Snags for ${given.date}` : "Snags for the next day"}>
       <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
         <h2 className="font-semibold text-ink">Snags{day ? ` for ${day.kind === "performance" ? "the performance" : "shoot day"} ${day.date}` : ""}</h2>
         <Link to={`/p/${productionId}/snags`} className="text-sm font-semibold text-ink underline-offset-2 hover:underline">

@@ -8,6 +8,7 @@ import type {
   EmailJobDto,
   FittingDetailDto,
   FittingDto,
+  LinkFittingItemInput,
   TicketStatus,
   UpdateFittingInput,
   UpdateTicketInput,
@@ -16,6 +17,7 @@ import type {
   WorkroomPlanDto,
   WorkroomSettingsInput,
 } from "@shared/schemas/workroom";
+import type { GarmentDto } from "@shared/schemas/garments";
 
 const base = (pid: string) => `/productions/${pid}`;
 // Every workroom query key starts with ["workroom", pid] so one invalidation re-plans everything.
@@ -49,3 +51,13 @@ export const useUpsertCapacity = (pid: string) =>
   useWorkroomMutation(pid, ({ userId, ...input }: UpsertCapacityInput & { userId: string }) => api.put<CapacityDto>(`${base(pid)}/workroom/capacity/${userId}`, input));
 export const useUpdateWorkroomSettings = (pid: string) => useWorkroomMutation(pid, (input: WorkroomSettingsInput) => api.patch(`${base(pid)}/workroom/settings`, input));
 export const useRetryEmailJob = (pid: string) => useWorkroomMutation(pid, (id: string) => api.post<EmailJobDto>(`${base(pid)}/workroom/email-jobs/${id}/retry`));
+
+/** Garments in stock matching a tag code or name (for linking an item at a fitting). */
+export const useGarmentSearch = (pid: string, q: string) =>
+  useQuery({ queryKey: key(pid, "garment-search", q), queryFn: () => api.get<GarmentDto[]>(`${base(pid)}/garments${qs({ q, pageSize: 8 })}`), enabled: q.trim().length >= 2 });
+
+/** Links a change item at a fitting to a garment from stock or a new one; the fitting and plan refresh. */
+export const useLinkFittingItem = (pid: string) =>
+  useWorkroomMutation(pid, ({ fittingId, changeItemId, ...input }: LinkFittingItemInput & { fittingId: string; changeItemId: string }) =>
+    api.post<FittingDetailDto>(`${base(pid)}/fittings/${fittingId}/items/${changeItemId}/garment`, input),
+  );

@@ -1,4 +1,6 @@
+import { useState } from "react";
 import type { EmailJobDto } from "@shared/schemas/workroom";
+import { ConfirmDialog } from "@/components/ui/dialog";
 import { Button } from "@/components/ui/button";
 import { Badge, ErrorAlert } from "@/components/ui/feedback";
 import { useRetryEmailJob } from "../api/workroom";
@@ -6,6 +8,7 @@ import { useRetryEmailJob } from "../api/workroom";
 /** Workroom e-mails that are not sent yet or failed (supervisors), with a retry. */
 export function EmailFailures({ productionId, jobs }: { productionId: string; jobs: EmailJobDto[] }) {
   const retry = useRetryEmailJob(productionId);
+  const [again, setAgain] = useState<EmailJobDto | null>(null);
   if (jobs.length === 0) return <p className="text-sm text-slate">Every invitation and reminder went out.</p>;
   return (
     <div className="grid gap-2">
@@ -21,13 +24,23 @@ export function EmailFailures({ productionId, jobs }: { productionId: string; jo
               </span>
             </span>
             {j.status !== "sent" && (
-              <Button size="sm" variant="secondary" busy={retry.isPending && retry.variables === j.id} onClick={() => retry.mutate(j.id)}>
+              <Button size="sm" variant="secondary" busy={retry.isPending && retry.variables === j.id} onClick={() => setAgain(j)}>
                 Send again
               </Button>
             )}
           </li>
         ))}
       </ul>
+      <ConfirmDialog
+        open={Boolean(again)}
+        title="Send this e-mail again?"
+        confirmLabel="Send again"
+        busy={retry.isPending}
+        onCancel={() => setAgain(null)}
+        onConfirm={() => again && retry.mutate(again.id, { onSettled: () => setAgain(null) })}
+      >
+        “{again?.subject}” goes to {again?.recipient}. If an earlier attempt did reach them, they get it twice.
+      </ConfirmDialog>
     </div>
   );
 }

@@ -12,11 +12,15 @@ import { useUpdateFitting } from "../api/workroom";
 import { TicketForm } from "./ticket-form";
 import { TaskSafetyNotes } from "./safety";
 import { OwnerPhotos } from "@/components/photos";
+import { ConfirmDialog } from "@/components/ui/dialog";
+import { LinkGarment } from "./link-garment";
 
 /** During a fitting, on a tablet: the change's garments with their fit, measurements, fit snags, notes, one tap per garment to raise a ticket. */
-export function FittingView(props: { productionId: string; fitting: FittingDetailDto; options: WorkroomOptionsDto; units: LengthUnit; canEdit: boolean }) {
+export function FittingView(props: { productionId: string; fitting: FittingDetailDto; options: WorkroomOptionsDto; units: LengthUnit; canEdit: boolean; canLink: boolean }) {
   const { fitting: f, productionId } = props;
   const [raisingFor, setRaisingFor] = useState<string | null>(null);
+  const [linking, setLinking] = useState<string | null>(null);
+  const [confirmCancel, setConfirmCancel] = useState(false);
   const [outcome, setOutcome] = useState(f.outcome ?? "");
   const [notes, setNotes] = useState(f.notes ?? "");
   const update = useUpdateFitting(productionId);
@@ -53,10 +57,16 @@ export function FittingView(props: { productionId: string; fitting: FittingDetai
                   </p>
                   <p className="text-sm text-slate">
                     {item.label}
+                    {!item.garmentId ? " · no garment linked yet" : ""}
                     {item.garmentStatus ? ` · ${item.garmentStatus.replace("_", " ")}` : ""}
                     {item.openTicketIds.length ? ` · ${item.openTicketIds.length} open ticket${item.openTicketIds.length === 1 ? "" : "s"}` : ""}
                   </p>
                 </div>
+                {props.canLink && !item.garmentId && linking !== item.changeItemId && f.status !== "cancelled" && (
+                  <Button size="lg" variant="secondary" onClick={() => setLinking(item.changeItemId)} aria-label={`Link a garment to ${item.label}`}>
+                    Link a garment
+                  </Button>
+                )}
                 {props.canEdit && item.garmentId && raisingFor !== item.garmentId && f.status !== "cancelled" && (
                   <Button size="lg" onClick={() => setRaisingFor(item.garmentId)} aria-label={`Raise ticket for ${item.tagCode ?? ""} ${item.garmentName ?? item.label}`.trim()}>
                     Raise ticket
@@ -73,6 +83,21 @@ export function FittingView(props: { productionId: string; fitting: FittingDetai
                     </li>
                   ))}
                 </ul>
+              )}
+              {linking === item.changeItemId && !item.garmentId && (
+                <div className="mt-3">
+                  <LinkGarment
+                    productionId={productionId}
+                    fittingId={f.id}
+                    changeItemId={item.changeItemId}
+                    itemLabel={item.label}
+                    onCancel={() => setLinking(null)}
+                    onLinked={(gid) => {
+                      setLinking(null);
+                      if (props.canEdit) setRaisingFor(gid);
+                    }}
+                  />
+                </div>
               )}
               {raisingFor === item.garmentId && item.garmentId && (
                 <div className="mt-3">
@@ -166,12 +191,24 @@ export function FittingView(props: { productionId: string; fitting: FittingDetai
                 </Button>
               )}
               {f.status === "booked" && (
-                <Button size="lg" variant="danger" busy={update.isPending} onClick={() => update.mutate({ id: f.id, status: "cancelled" })}>
-                  Cancel fitting
+                <Button size="lg" variant="ghost" className="text-madder" disabled={update.isPending} onClick={() => setConfirmCancel(true)}>
+                  Cancel fitting…
                 </Button>
               )}
             </div>
           )}
+          <ConfirmDialog
+            open={confirmCancel}
+            title={`Cancel the fitting with ${f.performerName}?`}
+            confirmLabel="Cancel fitting and e-mail"
+            danger
+            busy={update.isPending}
+            onCancel={() => setConfirmCancel(false)}
+            onConfirm={() => update.mutate({ id: f.id, status: "cancelled" }, { onSettled: () => setConfirmCancel(false) })}
+          >
+            {f.performerEmail ? `${f.performerName} is e-mailed a cancellation at ${f.performerEmail} and the booking leaves their calendar. ` : `${f.performerName} has no e-mail address on file, so nobody is told; let them know yourself. `}
+            A cancelled fitting cannot be reopened; book a new one if needed.
+          </ConfirmDialog>
         </div>
       </Card>
     </div>

@@ -7,6 +7,7 @@ import "react-big-calendar/lib/css/react-big-calendar.css";
 import "react-big-calendar/lib/addons/dragAndDrop/styles.css";
 import type { FittingDto, WorkroomPlanDto } from "@shared/schemas/workroom";
 import { ErrorAlert } from "@/components/ui/feedback";
+import { ConfirmDialog } from "@/components/ui/dialog";
 import { controlClass } from "@/components/ui/field";
 import { useUpdateFitting } from "../api/workroom";
 
@@ -40,6 +41,8 @@ export function WorkroomCalendar(props: {
 }) {
   const [person, setPerson] = useState("");
   const move = useUpdateFitting(props.productionId);
+  // A drop only proposes the new time: the performer is e-mailed, so it is confirmed first.
+  const [pending, setPending] = useState<{ fitting: FittingDto; startsAt: Date } | null>(null);
 
   const events = useMemo<CalEvent[]>(() => {
     const out: CalEvent[] = [];
@@ -65,8 +68,10 @@ export function WorkroomCalendar(props: {
     if (event.kind !== "fitting" || !event.fitting) return;
     const startsAt = new Date(start);
     if (event.allDay || Number.isNaN(startsAt.getTime())) return;
-    move.mutate({ id: event.fitting.id, startsAt: startsAt.toISOString() });
+    if (startsAt.getTime() === new Date(event.fitting.startsAt).getTime()) return;
+    setPending({ fitting: event.fitting, startsAt });
   };
+  const when = (d: Date) => d.toLocaleString(undefined, { weekday: "short", day: "numeric", month: "short", hour: "2-digit", minute: "2-digit" });
 
   return (
     <div className="grid gap-2">
@@ -87,6 +92,17 @@ export function WorkroomCalendar(props: {
         </p>
       </div>
       {move.error && <ErrorAlert error={move.error} title="Fitting not moved" />}
+      <ConfirmDialog
+        open={Boolean(pending)}
+        title={pending ? `Move the fitting with ${pending.fitting.performerName}?` : ""}
+        confirmLabel="Move and e-mail"
+        busy={move.isPending}
+        onCancel={() => setPending(null)}
+        onConfirm={() => pending && move.mutate({ id: pending.fitting.id, startsAt: pending.startsAt.toISOString() }, { onSettled: () => setPending(null) })}
+      >
+        {pending && `From ${when(new Date(pending.fitting.startsAt))} to ${when(pending.startsAt)}. `}
+        {pending?.fitting.performerEmail ? `${pending.fitting.performerName} is e-mailed the new time at ${pending.fitting.performerEmail}.` : "The performer has no e-mail on file; tell them yourself."}
+      </ConfirmDialog>
       <div className="h-[44rem] rounded-lg border border-chalk-200 bg-white p-2" aria-label="Workroom calendar" role="region">
         <DnDCalendar
           localizer={localizer}
