@@ -52,6 +52,8 @@ export default defineConfig({
           testTimeout: 60_000,
           hookTimeout: 120_000,
           fileParallelism: false,
+          // A loaded CI machine can take seconds to re-render after a request; 1 s (the default) is too tight.
+          expect: { poll: { timeout: 20_000, interval: 100 } },
         },
       },
     ],

@@ -437,6 +437,27 @@ async function seedMeasurements(transaction: Transaction): Promise<void> {
   await MeasurementSet.bulkCreate(rows, { transaction, updateOnDuplicate: ["takenOn", "takenBy", "valuesMm", "enteredUnit", "notes", "updatedAt"] });
 }
 
+// Reports: what hires cost by the week, and what happens to owned garments at wrap. Kept apart from
+// the garment lines above: a rented garment's cost is then only a flat fee the hire house charges.
+/** Weekly hire rates in pence, by garment key (stock lines by their key's prefix). */
+const hireRates: Record<string, number> = {
+  "ambrose-frock-coat": 4500, "ambrose-hat": 1200, "ambrose-cassock": 2800, "hester-shawl": 900, "silas-cap": 800,
+  "obadiah-overcoat": 4000, "obadiah-hat": 1200, "obadiah-evening": 6000, "pascoe-helmet": 1500,
+  "stock-chapel-jacket": 1400, "stock-chapel-coat": 1600,
+};
+/** Flat fees a hire house charges on top of the weekly rate (cleaning), in pence. */
+const hireFlatFees: Record<string, number> = { "ambrose-frock-coat": 2500 };
+/** Principals' pieces the production plans to sell at wrap; village stock is kept. */
+const sellAtWrap = new Set(["elias-cap", "maud-hat", "obadiah-suit-jacket", "tamsin-party-dress"]);
+
+function reportFields(key: string, source: GarmentSource, costCents: number | null): Pick<CreationAttributes<Garment>, "costCents" | "rentalCostPerWeekCents" | "wrapDisposition"> {
+  if (source === "rented") {
+    const rate = Object.entries(hireRates).find(([k]) => key === k || key.startsWith(`${k}-`))?.[1] ?? null;
+    return { costCents: hireFlatFees[key] ?? null, rentalCostPerWeekCents: rate, wrapDisposition: null };
+  }
+  return { costCents, rentalCostPerWeekCents: null, wrapDisposition: key.startsWith("stock-") ? "keep" : sellAtWrap.has(key) ? "sell" : null };
+}
+
 async function seedGarments(transaction: Transaction): Promise<number> {
   const groups = new Map<string, string>();
   for (const g of garmentSeeds) if (g.group) groups.set(g.group.key, g.group.name);
@@ -493,6 +514,7 @@ async function seedGarments(transaction: Transaction): Promise<number> {
         multiplesGroupId: g.group ? groupId(g.group.key) : null,
         copyNumber: g.group ? n : null,
         notes: g.notes ?? null,
+        ...reportFields(key, g.source, g.costCents ?? null),
       });
       const home = [g.rack, g.bin].filter(Boolean).join(" / ");
       events.push({ id: demoId(`garment-event:${key}:0`), productionId: SALTMARSH_ID, garmentId: garmentId(key), fromStatus: null, toStatus: "in_stock", fromLocation: null, toLocation: home, note: "Added to stock", actorId: userId("supervisor"), createdAt: demoInstant(demoDaysFromToday(-16), "09:00") });
@@ -505,7 +527,7 @@ async function seedGarments(transaction: Transaction): Promise<number> {
   if (!rows.some((r) => r.multiplesGroupId === keyGarments.silasOilskinGroup)) throw new Error("Silas's oilskin group is missing from the wardrobe seed");
   await Garment.bulkCreate(rows, {
     transaction,
-    updateOnDuplicate: ["name", "category", "sizeLabel", "fitIntent", "finishedMeasurements", "fabricId", "colour", "source", "vendor", "costCents", "rentalDueOn", "locationRack", "locationBin", "status", "distressStage", "multiplesGroupId", "copyNumber", "notes", "tagCode", "updatedAt"],
+    updateOnDuplicate: ["name", "category", "sizeLabel", "fitIntent", "finishedMeasurements", "fabricId", "colour", "source", "vendor", "costCents", "rentalDueOn", "locationRack", "locationBin", "status", "distressStage", "multiplesGroupId", "copyNumber", "notes", "tagCode", "rentalCostPerWeekCents", "wrapDisposition", "updatedAt"],
   });
   await GarmentStatusEvent.bulkCreate(events, { transaction, updateOnDuplicate: ["fromStatus", "toStatus", "fromLocation", "toLocation", "note", "actorId"] });
   return rows.length;

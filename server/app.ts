@@ -14,6 +14,7 @@ import { passport } from "./auth/passport.js";
 import { buildApiRouter } from "./routes/index.js";
 import { apiNotFound, errorHandler } from "./middleware/error-handler.js";
 import { HttpError } from "./errors.js";
+import { closeWorkerPool } from "./lib/worker-pool.js";
 import { healthRouter } from "./routes/health.routes.js";
 
 const rootDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
@@ -124,8 +125,9 @@ export function createApp(): Express {
   return app;
 }
 
-/** Closes the session store's pool (tests and shutdown). */
+/** Closes the session store's pool and the worker threads (tests and shutdown). */
 export async function closeAppResources(): Promise<void> {
   await sessionPool?.end();
   sessionPool = undefined;
+  await closeWorkerPool();
 }

@@ -1,3 +1,4 @@
+import os from "node:os";
 import { z } from "zod";
 
 /** Environment, parsed once. Nothing else in server/ reads process.env. */
@@ -39,6 +40,11 @@ const envSchema = z.object({
   /** Workroom: start the PostgreSQL job queue (reminders, invitation e-mails) inside the server process. */
   JOBS_ENABLED: z.stringbool().default(true),
   LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).default("info"),
+  /**
+   * Worker threads for CPU-heavy work (DXF reading, outline checks, packet ZIP and PDF building), so
+   * requests keep being answered meanwhile. Default: one fewer than the machine's cores, 1 to 4.
+   */
+  WORKER_THREADS: z.coerce.number().int().min(1).max(16).default(Math.max(1, Math.min(4, os.availableParallelism() - 1))),
   /** Failed sign-ins allowed per address and account in the window before requests are refused. */
   LOGIN_MAX_FAILURES: z.coerce.number().int().positive().default(10),
 });

@@ -16,6 +16,18 @@ export const Limits = {
   /** Longest edge of the stored display and thumbnail sizes. */
   photoDisplayPx: 1600,
   photoThumbPx: 320,
+  /**
+   * Pattern pieces. Points per outline after curves are flattened (a bodice at 0.01 mm chord tolerance
+   * has a few hundred; the checks, nesting and meshes stay quick well past this).
+   */
+  panelMaxVertices: 5000,
+  /** DXF uploads: bytes, pieces per file, points and entities after blocks are placed and curves flattened. */
+  dxfMaxBytes: 5 * 1024 * 1024,
+  dxfMaxPieces: 200,
+  dxfMaxTotalVertices: 250_000,
+  dxfMaxEntities: 200_000,
+  /** Panels in one handoff packet. */
+  packetMaxPanels: 200,
 } as const;
 
 /** Photo file types accepted for upload: extension → MIME types a browser may send for it. */

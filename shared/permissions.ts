@@ -70,6 +70,16 @@ export const permissionTable = {
   "packet.prepare": [S, C],
   "packet.publish": [S],
   "packet.receive": [V],
+  /** Reports screen: opens it (each report below has its own action). */
+  "report.read": [S, D, SC],
+  /** Continuity book PDFs (one character, or every book in one ZIP). No measurements appear in them. */
+  "report.continuity": [S, D, SC],
+  /** Tomorrow's rack list (phone view and PDF for the rack). */
+  "report.rack": [S, D, SC],
+  /** Returns and wrap: rentals due back, lost items, garments out, what to return, keep or sell. */
+  "report.returns": [S, D, SC],
+  /** Budget: costs by category, character, change and source. */
+  "report.budget": [S, D],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Action = keyof typeof permissionTable;
@@ -93,6 +103,7 @@ export const screens = [
   { key: "snags", label: "Snags", action: "snag.read" },
   { key: "doubles", label: "Digital doubles", action: "packet.read" },
   { key: "fabrics", label: "Fabrics", action: "fabric.read" },
+  { key: "reports", label: "Reports", action: "report.read" },
   { key: "team", label: "Team", action: "member.read" },
 ] as const satisfies ReadonlyArray<{ key: string; label: string; action: Action }>;
 export type ScreenKey = (typeof screens)[number]["key"];

@@ -114,8 +114,22 @@ export async function buildFabric(overrides: Partial<{ production: Production; n
   });
 }
 
-/** A garment in stock with a fresh tag code. */
-export async function buildGarment(overrides: Partial<{ production: Production; name: string; status: Garment["status"]; tagCode: string; category: string }> = {}) {
+/** A garment in stock with a fresh tag code (built, no cost, unless told). */
+export async function buildGarment(
+  overrides: Partial<{
+    production: Production;
+    name: string;
+    status: Garment["status"];
+    tagCode: string;
+    category: string;
+    source: Garment["source"];
+    vendor: string | null;
+    costCents: number | null;
+    rentalDueOn: string | null;
+    rentalCostPerWeekCents: number | null;
+    wrapDisposition: Garment["wrapDisposition"];
+  }> = {},
+) {
   const production = overrides.production ?? (await buildProduction());
   return Garment.create({
     productionId: production.id,
@@ -125,10 +139,12 @@ export async function buildGarment(overrides: Partial<{ production: Production; 
     sizeLabel: null,
     fabricId: null,
     colour: null,
-    source: "built",
-    vendor: null,
-    costCents: null,
-    rentalDueOn: null,
+    source: overrides.source ?? "built",
+    vendor: overrides.vendor ?? null,
+    costCents: overrides.costCents ?? null,
+    rentalDueOn: overrides.rentalDueOn ?? null,
+    rentalCostPerWeekCents: overrides.rentalCostPerWeekCents ?? null,
+    wrapDisposition: overrides.wrapDisposition ?? null,
     locationRack: "A1",
     locationBin: null,
     status: overrides.status ?? "in_stock",

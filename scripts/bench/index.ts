@@ -7,6 +7,8 @@ const benches: Array<{ name: string; load: () => Promise<{ run: () => unknown | 
   { name: "simulation meshes (demo change)", load: async () => ({ run: (await import("./meshing.js")).runMeshingBench }) },
   { name: "breakdown (CSV import, photo upload)", load: async () => ({ run: (await import("./breakdown.js")).runBreakdownBench }) },
   { name: "handoff packet ZIP", load: async () => ({ run: (await import("./packets.js")).runPacketBench }) },
+  { name: "reports (continuity book PDF)", load: async () => ({ run: (await import("./reports.js")).runReportsBench }) },
+  { name: "heavy uploads vs /api/health (worker pool)", load: async () => ({ run: (await import("./uploads.js")).runUploadsBench }) },
 ];
 
 for (const b of benches) {

@@ -1,6 +1,6 @@
 import { createEvent } from "ics";
 import { emailHtml } from "./layout.js";
-import { formatZoned } from "../lib/zoned-time.js";
+import { formatDateTimeWithZone } from "@shared/format.js";
 import type { OutgoingMail } from "../lib/mailer.js";
 
 export type FittingMailKind = "invite" | "update" | "cancel";
@@ -16,6 +16,7 @@ export interface FittingMailInput {
   startsAt: Date;
   durationMinutes: number;
   room: string | null;
+  /** The member who booked the fitting: ORGANIZER of the invitation and Reply-To of the e-mail. */
   organizer: { name: string; email: string };
   timeZone: string;
 }
@@ -45,14 +46,16 @@ export function fittingIcs(p: FittingMailInput): string {
 
 /** The e-mail (with its text/calendar part) that books, moves or cancels a fitting. */
 export function fittingEmail(p: FittingMailInput): OutgoingMail {
-  const when = `${formatZoned(p.startsAt, p.timeZone)} (${p.durationMinutes} minutes)`;
+  // The performer may read this anywhere: the time carries its zone.
+  const at = formatDateTimeWithZone(p.startsAt, p.timeZone);
+  const when = `${at} (${p.durationMinutes} minutes)`;
   const where = p.room ? ` in ${p.room}` : "";
   const what = p.changeLabel ? ` for ${p.changeLabel}` : "";
   const subject =
     p.kind === "invite"
-      ? `Costume fitting: ${formatZoned(p.startsAt, p.timeZone)} — ${p.productionTitle}`
+      ? `Costume fitting: ${at} — ${p.productionTitle}`
       : p.kind === "update"
-        ? `Fitting moved: ${formatZoned(p.startsAt, p.timeZone)} — ${p.productionTitle}`
+        ? `Fitting moved: ${at} — ${p.productionTitle}`
         : `Fitting cancelled — ${p.productionTitle}`;
   const lines =
     p.kind === "cancel"
@@ -62,10 +65,11 @@ export function fittingEmail(p: FittingMailInput): OutgoingMail {
           p.kind === "invite"
             ? `the costume department of "${p.productionTitle}" has booked a fitting${what} on ${when}${where}.`
             : `your costume fitting${what} has moved to ${when}${where}.`,
-          "The attached calendar invitation adds it to your calendar. Please reply to the costume department if the time does not work.",
+          `The attached calendar invitation adds it to your calendar; please accept or decline it there. If the time does not work, reply to this e-mail: it reaches ${p.organizer.name}.`,
         ];
   return {
     to: p.performer.email,
+    replyTo: { name: p.organizer.name, address: p.organizer.email },
     subject,
     text: lines.join("\n\n") + "\n",
     html: emailHtml(lines),

@@ -98,3 +98,16 @@ export async function renderSwatch(opts: { width: number; height: number; backgr
   const img = sharp(Buffer.from(svg));
   return opts.format === "png" ? img.png().toBuffer() : img.jpeg({ quality: 85 }).toBuffer();
 }
+
+/**
+ * Re-encodes a stored photo size (WebP) as a JPEG for a printed report: PDF readers show JPEG
+ * natively, and the longest edge is capped at `maxPx` so a book stays small.
+ */
+export async function toPrintJpeg(input: Buffer, maxPx: number, quality = 78): Promise<{ body: Buffer; width: number; height: number }> {
+  const { data, info } = await sharp(input, { failOn: "error" })
+    .resize({ width: maxPx, height: maxPx, fit: "inside", withoutEnlargement: true })
+    .flatten({ background: "#ffffff" })
+    .jpeg({ quality, chromaSubsampling: "4:2:0" })
+    .toBuffer({ resolveWithObject: true });
+  return { body: data, width: info.width, height: info.height };
+}

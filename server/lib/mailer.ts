@@ -19,6 +19,8 @@ export interface OutgoingMail {
   text: string;
   html: string;
   attachments?: Attachment[];
+  /** Where replies go when they should reach a person rather than the sending address. */
+  replyTo?: { name: string; address: string };
   /** Extra alternatives, e.g. a text/calendar part for invitations. */
   icalEvent?: { method: string; content: string; filename?: string };
 }

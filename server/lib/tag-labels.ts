@@ -19,7 +19,7 @@ export interface TagLabel {
 }
 
 /** Draws a QR code as vector squares (sharp at any printer resolution). */
-function drawQr(doc: PDFKit.PDFDocument, text: string, x: number, y: number, size: number) {
+export function drawQr(doc: PDFKit.PDFDocument, text: string, x: number, y: number, size: number) {
   // Medium error correction survives a crease or a wash-faded corner on a sewn-in label.
   const qr = QRCode.create(text, { errorCorrectionLevel: "M" });
   const n = qr.modules.size;

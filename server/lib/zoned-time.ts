@@ -13,11 +13,6 @@ export function zonedParts(instant: Date, timeZone: string): { date: string; hou
   return { date: `${get("year")}-${get("month")}-${get("day")}`, hour: Number(get("hour")), minute: Number(get("minute")) };
 }
 
-/** "Mon 30 Nov 2026, 10:00" in the given zone, for e-mails. */
-export function formatZoned(instant: Date, timeZone: string): string {
-  return new Intl.DateTimeFormat("en-GB", { timeZone, weekday: "short", day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit", hourCycle: "h23" }).format(instant);
-}
-
 /** The instant at which a zone's wall clock shows `date` (yyyy-MM-dd) at `time` (HH:mm); the later one in a repeated hour. */
 export function zonedInstant(date: string, time: string, timeZone: string): Date {
   const [y, mo, d] = date.split("-").map(Number) as [number, number, number];

@@ -5,16 +5,17 @@ import multer from "multer";
 import { DatabaseUnavailableError, HttpError } from "../errors.js";
 import { isDatabaseUnavailable } from "../lib/db-errors.js";
 import { logger } from "../lib/logger.js";
+import { fieldSentences, issuesToFieldSentences, plainMessage } from "@shared/field-messages.js";
 
 function zodToHttp(err: ZodError): HttpError {
-  const fields: Record<string, string> = {};
-  for (const issue of err.issues) {
-    const key = issue.path.length ? issue.path.join(".") : "_";
-    if (!fields[key]) fields[key] = issue.message;
-  }
-  const [firstKey, firstMsg] = Object.entries(fields)[0] ?? ["_", "Invalid input"];
-  const message = firstKey === "_" ? firstMsg : `${firstKey}: ${firstMsg}`;
-  return new HttpError(400, "validation_error", message, fields);
+  const fields = issuesToFieldSentences(err.issues);
+  return new HttpError(400, "validation_error", Object.values(fields)[0] ?? "The input is not valid.", fields);
+}
+
+/** Field names and predicates in the person's words ("Name is required"), whoever threw the error. */
+function inPlainWords(e: HttpError): HttpError {
+  if (e.status >= 500) return e;
+  return new HttpError(e.status, e.code, plainMessage(e.message), e.fields ? fieldSentences(e.fields) : undefined);
 }
 
 function camel(s: string): string {
@@ -48,7 +49,7 @@ export function toHttpError(err: unknown): HttpError {
     return new HttpError(400, "validation_error", "A value has the wrong form.");
   }
   if (err instanceof multer.MulterError) {
-    if (err.code === "LIMIT_FILE_SIZE") return new HttpError(413, "payload_too_large", "The file is larger than the upload limit.");
+    if (err.code === "LIMIT_FILE_SIZE") return new HttpError(413, "payload_too_large", "The file is larger than the upload limit.", { [err.field ?? "file"]: "larger than the upload limit" });
     if (err.code === "LIMIT_FILE_COUNT" || err.code === "LIMIT_UNEXPECTED_FILE")
       return new HttpError(400, "validation_error", "Too many files or an unexpected file field.", { [err.field ?? "file"]: err.message });
     return new HttpError(400, "validation_error", err.message);
@@ -64,7 +65,7 @@ export function toHttpError(err: unknown): HttpError {
 
 /** The one place error responses are written. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
-  const httpError = toHttpError(err);
+  const httpError = inPlainWords(toHttpError(err));
   if (res.headersSent) {
     // Too late for an error response: e.g. the session store failed to save after the answer went out
     // (express-session saves while the body is written). Log it; cut the connection only if the

@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type NonAttribute } from "sequelize";
 import { sequelize } from "../db.js";
-import type { FinishedPoint, FitIntentValue, GarmentSource, GarmentStatus } from "@shared/schemas/garments.js";
+import type { FinishedPoint, FitIntentValue, GarmentSource, GarmentStatus, WrapDisposition } from "@shared/schemas/garments.js";
 import type { Fabric } from "./Fabric.js";
 import type { MultiplesGroup } from "./MultiplesGroup.js";
 
@@ -20,6 +20,10 @@ export class Garment extends Model<InferAttributes<Garment>, InferCreationAttrib
   declare vendor: string | null;
   declare costCents: number | null;
   declare rentalDueOn: string | null;
+  /** Rented: the hire house's weekly rate, in cents of the production's currency. */
+  declare rentalCostPerWeekCents: CreationOptional<number | null>;
+  /** Owned garments: what happens at wrap (rented ones always go back). Null = not decided yet. */
+  declare wrapDisposition: CreationOptional<WrapDisposition | null>;
   declare locationRack: string | null;
   declare locationBin: string | null;
   declare status: CreationOptional<GarmentStatus>;
@@ -49,6 +53,8 @@ Garment.init(
     vendor: { type: DataTypes.STRING(160), allowNull: true },
     costCents: { type: DataTypes.INTEGER, allowNull: true },
     rentalDueOn: { type: DataTypes.DATEONLY, allowNull: true },
+    rentalCostPerWeekCents: { type: DataTypes.INTEGER, allowNull: true, defaultValue: null },
+    wrapDisposition: { type: DataTypes.STRING(4), allowNull: true, defaultValue: null, validate: { isIn: [["keep", "sell"]] } },
     locationRack: { type: DataTypes.STRING(40), allowNull: true },
     locationBin: { type: DataTypes.STRING(40), allowNull: true },
     status: { type: DataTypes.STRING(10), allowNull: false, defaultValue: "in_stock" },

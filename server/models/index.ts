@@ -35,6 +35,7 @@ import { Seam } from "./Seam.js";
 import { Marker } from "./Marker.js";
 import { Packet } from "./Packet.js";
 import { PacketRecipient } from "./PacketRecipient.js";
+import { ReportRun } from "./ReportRun.js";
 
 // Associations, grouped by owner.
 Membership.belongsTo(User, { as: "user", foreignKey: "userId" });
@@ -86,3 +87,6 @@ PacketRecipient.belongsTo(Packet, { as: "packet", foreignKey: "packetId" });
 PacketRecipient.belongsTo(User, { as: "user", foreignKey: "userId" });
 
 export { Panel, Seam, Marker, Packet, PacketRecipient };
+
+// Reports
+export { ReportRun };

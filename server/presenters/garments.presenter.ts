@@ -18,6 +18,8 @@ export function presentGarment(g: Garment): GarmentDto {
     vendor: g.vendor,
     costCents: g.costCents,
     rentalDueOn: g.rentalDueOn,
+    rentalCostPerWeekCents: g.rentalCostPerWeekCents ?? null,
+    wrapDisposition: g.wrapDisposition ?? null,
     locationRack: g.locationRack,
     locationBin: g.locationBin,
     status: g.status,

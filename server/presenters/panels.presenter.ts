@@ -1,16 +1,11 @@
 import type { Panel } from "../models/index.js";
 import type { PanelDto } from "@shared/schemas/doubles.js";
 import { perimeter, polygonArea } from "@shared/domain/panels/geometry.js";
-import { cutLineFromSewLine } from "@shared/domain/panels/offset.js";
+import { cutAreaOf } from "../services/panel-cut-area.js";
 
 /** A panel with its areas (shoelace) and effective fabric. */
 export function presentPanel(p: Panel, garmentFabricId: string | null): PanelDto {
-  let cutAreaMm2 = polygonArea(p.outline);
-  try {
-    cutAreaMm2 = polygonArea(cutLineFromSewLine(p.outline, p.seamAllowanceMm));
-  } catch {
-    // An outline clipper cannot offset keeps its sew-line area; the editor shows the warning.
-  }
+  const cutAreaMm2 = cutAreaOf(p);
   return {
     id: p.id,
     garmentId: p.garmentId,

@@ -6,6 +6,7 @@ import {
   createPanelInputSchema,
   createSeamInputSchema,
   dxfImportFieldsSchema,
+  dxfPreviewFieldsSchema,
   listPanelsQuerySchema,
   markerInputSchema,
   markerQuerySchema,
@@ -25,7 +26,7 @@ import {
   listDoublesChanges,
   listFabricOptions,
   listPanels,
-  parseDxfUpload,
+  readDxfUpload,
   updatePanel,
 } from "../services/panels.service.js";
 import { createSeam, deleteSeam, listSeams, updateSeam } from "../services/seams.service.js";
@@ -94,17 +95,18 @@ panelsRouter.post("/", authorize("panel.update"), async (req, res) => {
 });
 
 panelsRouter.post("/dxf-preview", authorize("panel.update"), dxfUpload, async (req, res) => {
-  const parsed = parseDxfUpload(requireFile(req.file));
-  res.json({ data: parsed });
+  const buffer = requireFile(req.file);
+  const fields = dxfPreviewFieldsSchema.parse(req.body);
+  res.json({ data: await readDxfUpload(buffer, fields) });
 });
 
 panelsRouter.post("/dxf-import", authorize("panel.update"), dxfUpload, async (req, res) => {
   const buffer = requireFile(req.file);
   const fields = dxfImportFieldsSchema.parse(req.body);
   const actor = actorOf(req);
-  const { panels, warnings } = await importDxfPanels(actor, fields, buffer);
+  const { panels, warnings, skipped } = await importDxfPanels(actor, fields, buffer);
   const fabric = await garmentFabricOf(actor, fields.garmentId);
-  res.status(201).json({ data: { panels: panels.map((p) => presentPanel(p, fabric)), warnings } });
+  res.status(201).json({ data: { panels: panels.map((p) => presentPanel(p, fabric)), warnings, skipped } });
 });
 
 panelsRouter.get("/:panelId", authorize("panel.read"), async (req, res) => {

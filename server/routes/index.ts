@@ -16,6 +16,7 @@ import { alterationsRouter, fittingsRouter, workroomRouter } from "./workroom.ro
 import { snagsRouter } from "./snags.routes.js";
 import { doublesRouter, panelsRouter, seamsRouter } from "./doubles.routes.js";
 import { packetsRouter } from "./packets.routes.js";
+import { reportsRouter } from "./reports.routes.js";
 
 /** Everything under /api. Feature routers mount on `production` (one production's records). */
 export function buildApiRouter(): Router {
@@ -57,6 +58,8 @@ export function buildApiRouter(): Router {
   production.use("/panels", panelsRouter);
   production.use("/seams", seamsRouter);
   production.use("/packets", packetsRouter);
+  // Reports: continuity books, rack list, returns and wrap, budget.
+  production.use("/reports", reportsRouter);
   production.use("/", productionRouter);
   api.use("/productions/:productionId", production);
 

@@ -14,6 +14,7 @@ import {
   markPacketReceived,
   packetOptions,
   publishPacket,
+  publishProgress,
   updatePacketDraft,
 } from "../services/packets.service.js";
 
@@ -58,6 +59,11 @@ packetsRouter.delete("/:packetId", authorize("packet.prepare"), async (req, res)
 packetsRouter.post("/:packetId/publish", authorize("packet.publish"), async (req, res) => {
   const { packetId } = packetParams.parse(req.params);
   res.json({ data: await publishPacket(actorOf(req), packetId) });
+});
+
+packetsRouter.get("/:packetId/publish-progress", authorize("packet.publish"), async (req, res) => {
+  const { packetId } = packetParams.parse(req.params);
+  res.json({ data: await publishProgress(actorOf(req), packetId) });
 });
 
 packetsRouter.post("/:packetId/received", authorize("packet.receive"), async (req, res) => {

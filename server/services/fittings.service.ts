@@ -34,10 +34,15 @@ import { presentTickets } from "./alterations.service.js";
 import type { Actor } from "../middleware/require-auth.js";
 import type { Transaction } from "sequelize";
 
-/** The plain address in MAIL_FROM ("Name <a@b>" or "a@b"). */
-function organizerAddress(): { name: string; email: string } {
-  const m = config.MAIL_FROM.match(/^\s*"?([^"<]*)"?\s*<([^>]+)>\s*$/);
-  return m ? { name: m[1].trim() || "Costume department", email: m[2] } : { name: "Costume department", email: config.MAIL_FROM };
+/**
+ * The fitting's organizer: the member who booked it, so the performer's reply (and their calendar's RSVP)
+ * reaches a person. RFC 5545 keeps one ORGANIZER for all sequences, so updates and cancellations name the
+ * same member; a fitting with no recorded booker falls back to the member acting now.
+ */
+async function organizerOf(actor: Actor, f: Fitting, transaction: Transaction): Promise<{ name: string; email: string }> {
+  const booker = f.createdBy ? await User.findByPk(f.createdBy, { transaction }) : null;
+  const who = booker ?? actor.user;
+  return { name: who.name, email: who.email };
 }
 
 /** Garment row → the snag engine's garment record (fabric stretch % → stretch ratio for knits). */
@@ -171,7 +176,7 @@ async function queueFittingMail(actor: Actor, f: Fitting, kind: FittingMailKind,
     startsAt: f.startsAt,
     durationMinutes: f.durationMinutes,
     room: f.room,
-    organizer: organizerAddress(),
+    organizer: await organizerOf(actor, f, transaction),
     timeZone: production ? productionTimeZone(production) : config.TIME_ZONE,
   });
   await queueWorkroomEmail({ productionId: actor.productionId, kind: kind === "invite" ? "fitting_invite" : kind === "update" ? "fitting_update" : "fitting_cancel", dedupeKey: `fitting:${f.id}:${f.icsSequence}:${kind}`, mail }, transaction);

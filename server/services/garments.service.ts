@@ -246,7 +246,7 @@ export async function addCopies(actor: Actor, id: string, input: AddCopiesInput)
         {
           productionId: actor.productionId, tagCode: codes[i]!, name: g.name, category: g.category, sizeLabel: g.sizeLabel, fitIntent: g.fitIntent,
           finishedMeasurements: g.finishedMeasurements, fabricId: g.fabricId, colour: g.colour, source: g.source, vendor: g.vendor, costCents: g.costCents,
-          rentalDueOn: g.rentalDueOn, locationRack: g.locationRack, locationBin: g.locationBin, status: "in_stock", distressStage: 0,
+          rentalDueOn: g.rentalDueOn, rentalCostPerWeekCents: g.rentalCostPerWeekCents, wrapDisposition: g.wrapDisposition, locationRack: g.locationRack, locationBin: g.locationBin, status: "in_stock", distressStage: 0,
           multiplesGroupId: groupId, copyNumber: maxCopy + i + 1, notes: null,
         },
         { transaction },

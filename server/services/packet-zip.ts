@@ -4,14 +4,16 @@ import { createHash } from "node:crypto";
 import path from "node:path";
 import { createRequire } from "node:module";
 import type { Archiver, ArchiverOptions, ProgressData } from "archiver";
-import PDFDocument from "pdfkit";
 import type { Readable } from "node:stream";
 import type { PacketContents, PacketFabricSnapshot } from "@shared/schemas/packets.js";
 import { packetManifestJsonSchema, PACKET_MANIFEST_SCHEMA_ID, type PacketManifest, type StitchesFile } from "@shared/schemas/packet-manifest.js";
 import { meshPanelsForSimulation, meshToObj } from "@shared/domain/panels/mesh.js";
 import { panelsToJson, panelsToObj, panelsToSvg, type SeamRef } from "@shared/domain/panels/export.js";
-import { panelsToDxf } from "@shared/domain/panels/dxf.js";
+import { panelsToDxf, panelToDxf } from "@shared/domain/panels/dxf-writer.js";
 import type { PanelShape } from "@shared/domain/panels/geometry.js";
+import { summaryPdf, type PacketBuildMeta } from "./packet-summary.js";
+
+export type { PacketBuildMeta } from "./packet-summary.js";
 
 /** One file of the packet. */
 export interface PacketFile {
@@ -19,14 +21,6 @@ export interface PacketFile {
   data: Buffer;
   mediaType: string;
   description: string;
-}
-
-/** Who and when, for the manifest and summary. */
-export interface PacketBuildMeta {
-  packetId: string;
-  version: number;
-  publishedAt: Date;
-  publishedByName: string;
 }
 
 /** Progress while the ZIP is written. */
@@ -72,67 +66,6 @@ export function photoZipPath(index: number, view: string, photoId: string, stora
   return `photos/${String(index + 1).padStart(2, "0")}-${view}-${photoId.slice(0, 8)}${ext.toLowerCase()}`;
 }
 
-function fmt(v: number, digits = 3): string {
-  if (v === 0) return "0";
-  const a = Math.abs(v);
-  return a >= 1e-2 && a < 1e5 ? v.toFixed(digits).replace(/\.?0+$/, "") : v.toExponential(3);
-}
-
-/** A one-page PDF summary of the packet (pdfkit; built-in Helvetica, A4). */
-export async function summaryPdf(contents: PacketContents, meta: PacketBuildMeta, productionTitle: string): Promise<Buffer> {
-  const doc = new PDFDocument({ size: "A4", margin: 42, info: { Title: `Handoff packet v${meta.version}`, Author: "Seamscene", CreationDate: meta.publishedAt, ModDate: meta.publishedAt } });
-  const chunks: Buffer[] = [];
-  doc.on("data", (c: Buffer) => chunks.push(c));
-  const done = new Promise<void>((resolve) => doc.on("end", () => resolve()));
-  const bottom = doc.page.height - doc.page.margins.bottom - 30;
-  const line = (text: string, opts: { size?: number; bold?: boolean; gap?: number } = {}) => {
-    if (doc.y > bottom) return false;
-    doc.font(opts.bold ? "Helvetica-Bold" : "Helvetica").fontSize(opts.size ?? 9).text(text, { width: doc.page.width - 84 });
-    if (opts.gap) doc.moveDown(opts.gap);
-    return true;
-  };
-  // Lists are cut short so the summary stays on one page; the JSON files hold everything.
-  const list = (items: string[], max: number) => {
-    items.slice(0, max).forEach((t) => line(`• ${t}`));
-    if (items.length > max) line(`… and ${items.length - max} more (see the JSON files)`);
-  };
-  line(`Handoff packet: ${contents.character.name}, change ${contents.change.number}`, { size: 16, bold: true, gap: 0.2 });
-  line(`${productionTitle} · version ${meta.version} · published ${meta.publishedAt.toISOString().slice(0, 10)} by ${meta.publishedByName}`, { size: 10, gap: 0.6 });
-  if (contents.change.description) line(contents.change.description, { gap: 0.5 });
-  line("Garments and panels (sew-line area)", { size: 11, bold: true, gap: 0.2 });
-  list(
-    contents.garments.map((g) => {
-      const ps = contents.panels.filter((p) => p.garmentId === g.id);
-      return `${g.name} (${g.tagCode}): ${ps.map((p) => `${p.name} ×${p.cutCount} ${fmt(p.areaMm2 / 1e6, 4)} m²`).join(", ") || "no panels"}`;
-    }),
-    8,
-  );
-  const mismatched = contents.seams.filter((s) => s.status === "mismatch" || s.status === "eased_out_of_range");
-  line(`Seams: ${contents.seams.length}, ${mismatched.length ? `${mismatched.length} outside tolerance` : "all within tolerance"}`, { gap: 0.5 });
-  line("Fabrics (SI; M = measured, A = assumed)", { size: 11, bold: true, gap: 0.2 });
-  list(
-    contents.fabrics.map((f) => {
-      const s = f.simulation;
-      const tag = (b: { basis: string }) => (b.basis === "measured" ? "M" : "A");
-      return `${f.name}: ${fmt(s.massPerArea.value)} kg/m² ${tag(s.massPerArea)}; bending warp ${fmt(s.bendingStiffness.warp.value)} / weft ${fmt(s.bendingStiffness.weft.value)} N·m ${tag(s.bendingStiffness.warp)}${tag(s.bendingStiffness.weft)}; stretch warp ${fmt(s.stretchStiffness.warp.value, 0)} / weft ${fmt(s.stretchStiffness.weft.value, 0)} N/m ${tag(s.stretchStiffness.warp)}${tag(s.stretchStiffness.weft)}; thickness ${fmt(s.thickness.value * 1000, 2)} mm ${tag(s.thickness)}`;
-    }),
-    6,
-  );
-  doc.moveDown(0.4);
-  line("Effects shots (distress stage)", { size: 11, bold: true, gap: 0.2 });
-  list(
-    contents.shots.map((s) => `Scene ${s.sceneNumber}${s.storyDay ? ` (story day ${s.storyDay})` : ""}: distress ${s.distressStage}${s.wet ? ", wet" : ""}${s.blood ? ", blood" : ""}${s.stunt ? ", stunt" : ""}${s.photoFiles.length ? `, ${s.photoFiles.length} photo(s)` : ""}`),
-    10,
-  );
-  doc.moveDown(0.4);
-  line(`Reference photos: ${contents.photos.length}. Performer measurements: ${contents.measurements ? "included (personal data: keep confidential, delete when the work ends)" : "not included"}.`, { gap: 0.4 });
-  if (contents.notes) line(`Notes: ${contents.notes}`, { gap: 0.4 });
-  line("Check the files with: sha256sum -c SHA256SUMS. Units are SI except panels.json / .svg / .dxf (millimetres).", { size: 8 });
-  doc.end();
-  await done;
-  return Buffer.concat(chunks);
-}
-
 /** Simulation meshes (one OBJ per panel) and stitches.json; none for versions snapshotted before meshes existed. */
 export function simulationFiles(contents: PacketContents, shapes: PanelShape[]): { files: PacketFile[]; manifest: NonNullable<PacketManifest["simulation"]> } | null {
   if (contents.meshTargetEdgeMm === undefined || contents.panels.length === 0) return null;
@@ -142,7 +75,6 @@ export function simulationFiles(contents: PacketContents, shapes: PanelShape[]):
     { targetEdgeMm: contents.meshTargetEdgeMm },
   );
   const shapeOf = new Map(shapes.map((sh) => [sh.id, sh]));
-  const slug = (t: string) => t.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "") || "panel";
   const pathOf = new Map(contents.panels.map((p, i) => [p.id, `meshes/${String(i + 1).padStart(2, "0")}-${slug(shapeOf.get(p.id)!.name)}.obj`]));
   const files: PacketFile[] = sim.meshes.map((m) => ({
     path: pathOf.get(m.panelId)!,
@@ -209,84 +141,155 @@ export function canonical<T>(v: T): T {
   return v;
 }
 
+/** What each packet file builder gets. */
+export interface PacketBuildContext {
+  /** The snapshot with keys sorted (see {@link canonical}). */
+  contents: PacketContents;
+  meta: PacketBuildMeta;
+  /** Panels for the exporters, names unique across garments. */
+  shapes: PanelShape[];
+  seamRefs: SeamRef[];
+  /** The flat OBJ export, shared by panels.obj and seams.json. */
+  obj: ReturnType<typeof panelsToObj>;
+  readPhoto: (storageKey: string) => Promise<Buffer>;
+  /** Simulation meshes and stitches (null for versions snapshotted before meshes existed), shared by their files and the manifest. */
+  simulation: ReturnType<typeof simulationFiles>;
+}
+
+/** Builds some files of the packet (none when it has nothing to add). */
+export type PacketFileBuilder = (ctx: PacketBuildContext) => PacketFile[] | Promise<PacketFile[]>;
+
+/** File-name-safe form of a piece name: "Jacket - Front" → "jacket-front". */
+function slug(s: string): string {
+  return (
+    s
+      .normalize("NFKD")
+      .replace(/\p{M}+/gu, "")
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, "-")
+      .replace(/^-+|-+$/g, "")
+      .slice(0, 60) || "piece"
+  );
+}
+
+const panelsJson: PacketFileBuilder = ({ contents, shapes }) => {
+  const extra = new Map(contents.panels.map((p) => [p.id, p]));
+  return [
+    {
+      path: "panels.json",
+      // The shared writer, plus the garment, fabric and area of each piece.
+      data: Buffer.from(panelsToJson(shapes.map((s) => ({ ...s, garmentId: extra.get(s.id)!.garmentId, fabricId: extra.get(s.id)!.fabricId, areaMm2: extra.get(s.id)!.areaMm2 }))) + "\n", "utf8"),
+      mediaType: "application/json",
+      description: "Flat pattern pieces: sew-line outline, grainline, notches, seam allowance, cut count (millimetres, y up)",
+    },
+  ];
+};
+
+const panelsSvg: PacketFileBuilder = ({ shapes }) => [
+  { path: "panels.svg", data: Buffer.from(panelsToSvg(shapes), "utf8"), mediaType: "image/svg+xml", description: "Pieces drawn 1:1 in millimetres: sew line, cut line, grainline, notches" },
+];
+
+const dxfDescription = "ASTM D6673 layers: cut line 1, sew line 14, grain line 7, notches 4; piece name and quantity as text (millimetres)";
+const panelsDxf: PacketFileBuilder = ({ shapes }) => [
+  { path: "panels.dxf", data: Buffer.from(panelsToDxf(shapes), "utf8"), mediaType: "image/vnd.dxf", description: `Every piece in one ASCII DXF, one block each; ${dxfDescription}` },
+  ...shapes.map((s, i) => ({
+    path: `dxf/${String(i + 1).padStart(2, "0")}-${slug(s.name)}.dxf`,
+    data: Buffer.from(panelToDxf(s), "utf8"),
+    mediaType: "image/vnd.dxf",
+    description: `${s.name}: ${dxfDescription}`,
+  })),
+];
+
+const panelsObj: PacketFileBuilder = ({ obj, contents }) => [
+  { path: "panels.obj", data: Buffer.from(obj.obj, "utf8"), mediaType: "model/obj", description: "Each piece flat and triangulated (metres, z = 0), one group per piece, UV = flat position" },
+  {
+    path: "seams.json",
+    data: json({ ...obj.seams, seams: obj.seams.seams.map((s) => ({ ...s, name: contents.seams.find((x) => x.id === s.id)?.name ?? s.id })) }),
+    mediaType: "application/json",
+    description: "Which panels.obj vertex runs are sewn together (1-based OBJ indices)",
+  },
+];
+
+const simulationMeshes: PacketFileBuilder = ({ simulation }) => simulation?.files ?? [];
+
+const fabricsJson: PacketFileBuilder = ({ contents }) => [
+  {
+    path: "fabrics.json",
+    data: json({
+      units: "SI",
+      fabrics: contents.fabrics.map((f) => ({ id: f.id, name: f.name, construction: f.construction, fabricClass: f.fabricClass, fibreContent: f.fibreContent, widthM: f.widthMm === null ? null : f.widthMm / 1000, simulation: f.simulation, tests: f.tests, ...retestField(f) })),
+      panels: contents.panels.map((p) => ({ panelId: p.id, fabricId: p.fabricId })),
+    }),
+    mediaType: "application/json",
+    description: "Simulation values per fabric, each measured (with its tests) or assumed (class default), and the cantilever re-test of the bending values (overhangs in mm)",
+  },
+];
+
+const measurementsJson: PacketFileBuilder = ({ contents }) =>
+  contents.measurements
+    ? [
+        {
+          path: "measurements.json",
+          data: json({
+            units: "m",
+            personalData: true,
+            performer: contents.measurements.performerName,
+            takenOn: contents.measurements.takenOn,
+            valuesM: Object.fromEntries(Object.entries(contents.measurements.valuesMm).map(([k, v]) => [k, v / 1000])),
+          }),
+          mediaType: "application/json",
+          description: "Performer body measurements (ISO 8559-1 names, metres); personal data",
+        },
+      ]
+    : [];
+
+const photos: PacketFileBuilder = async ({ contents, readPhoto }) => {
+  const out: PacketFile[] = [];
+  for (const p of contents.photos) {
+    if (!p.storageKey) continue;
+    out.push({ path: p.fileName, data: await readPhoto(p.storageKey), mediaType: mediaTypeOf(p.fileName), description: `${p.ownerType} photo, ${p.view}${p.caption ? `: ${p.caption}` : ""}` });
+  }
+  return out;
+};
+
+const shotsJson: PacketFileBuilder = ({ contents }) => [
+  { path: "shots.json", data: json({ shots: contents.shots }), mediaType: "application/json", description: "Effects shots with the distress stage worn and continuity photos" },
+];
+
+const summary: PacketFileBuilder = async ({ contents, meta }) => [
+  { path: "summary.pdf", data: await summaryPdf(contents, meta, contents.production.title), mediaType: "application/pdf", description: "Summary: panels, fabrics, shots" },
+];
+
+const manifestSchema: PacketFileBuilder = () => [
+  { path: "manifest.schema.json", data: json(packetManifestJsonSchema()), mediaType: "application/schema+json", description: "JSON Schema of manifest.json" },
+];
+
+/**
+ * The files of a packet, in ZIP order: the one place a file is added. manifest.json (listing them all)
+ * goes first and SHA256SUMS (covering all the others) last.
+ */
+export const PACKET_FILE_BUILDERS: readonly PacketFileBuilder[] = [panelsJson, panelsSvg, panelsDxf, panelsObj, simulationMeshes, fabricsJson, measurementsJson, photos, shotsJson, summary, manifestSchema];
+
 /**
  * Every file of the packet, SHA256SUMS last (covering all the others).
  * @param readPhoto reads a photo file by storage key
+ * @param onProgress called after each group of files with (groups done, groups in all)
  */
 export async function buildPacketFiles(
   snapshot: PacketContents,
   meta: PacketBuildMeta,
   readPhoto: (storageKey: string) => Promise<Buffer>,
+  onProgress?: (done: number, total: number) => void,
 ): Promise<PacketFile[]> {
   const contents = canonical(snapshot);
   const shapes = exportShapes(contents);
   const seamRefs: SeamRef[] = contents.seams.map((s) => ({ id: s.id, a: s.a, b: s.b }));
-  const obj = panelsToObj(shapes, seamRefs);
-  const extra = new Map(contents.panels.map((p) => [p.id, p]));
-  const files: PacketFile[] = [
-    {
-      path: "panels.json",
-      // The shared writer, plus the garment, fabric and area of each piece.
-      data: Buffer.from(
-        panelsToJson(shapes.map((s) => ({ ...s, garmentId: extra.get(s.id)!.garmentId, fabricId: extra.get(s.id)!.fabricId, areaMm2: extra.get(s.id)!.areaMm2 }))) + "\n",
-        "utf8",
-      ),
-      mediaType: "application/json",
-      description: "Flat pattern pieces: sew-line outline, grainline, notches, seam allowance, cut count (millimetres, y up)",
-    },
-    { path: "panels.svg", data: Buffer.from(panelsToSvg(shapes), "utf8"), mediaType: "image/svg+xml", description: "Pieces drawn 1:1 in millimetres: sew line, cut line, grainline, notches" },
-    { path: "panels.dxf", data: Buffer.from(panelsToDxf(shapes), "utf8"), mediaType: "image/vnd.dxf", description: "Pieces as ASCII DXF (millimetres), one layer per piece" },
-    { path: "panels.obj", data: Buffer.from(obj.obj, "utf8"), mediaType: "model/obj", description: "Each piece flat and triangulated (metres, z = 0), one group per piece, UV = flat position" },
-    {
-      path: "seams.json",
-      data: json({ ...obj.seams, seams: obj.seams.seams.map((s) => ({ ...s, name: contents.seams.find((x) => x.id === s.id)?.name ?? s.id })) }),
-      mediaType: "application/json",
-      description: "Which panels.obj vertex runs are sewn together (1-based OBJ indices)",
-    },
-    {
-      path: "fabrics.json",
-      data: json({
-        units: "SI",
-        fabrics: contents.fabrics.map((f) => ({ id: f.id, name: f.name, construction: f.construction, fabricClass: f.fabricClass, fibreContent: f.fibreContent, widthM: f.widthMm === null ? null : f.widthMm / 1000, simulation: f.simulation, tests: f.tests, ...retestField(f) })),
-        panels: contents.panels.map((p) => ({ panelId: p.id, fabricId: p.fabricId })),
-      }),
-      mediaType: "application/json",
-      description: "Simulation values per fabric, each measured (with its tests) or assumed (class default), and the cantilever re-test of the bending values (overhangs in mm)",
-    },
-  ];
-  const simulation = simulationFiles(contents, shapes);
-  if (simulation) files.push(...simulation.files);
-  if (contents.measurements) {
-    files.push({
-      path: "measurements.json",
-      data: json({
-        units: "m",
-        personalData: true,
-        performer: contents.measurements.performerName,
-        takenOn: contents.measurements.takenOn,
-        valuesM: Object.fromEntries(Object.entries(contents.measurements.valuesMm).map(([k, v]) => [k, v / 1000])),
-      }),
-      mediaType: "application/json",
-      description: "Performer body measurements (ISO 8559-1 names, metres); personal data",
-    });
+  const ctx: PacketBuildContext = { contents, meta, shapes, seamRefs, obj: panelsToObj(shapes, seamRefs), readPhoto, simulation: simulationFiles(contents, shapes) };
+  const files: PacketFile[] = [];
+  for (const [i, build] of PACKET_FILE_BUILDERS.entries()) {
+    files.push(...(await build(ctx)));
+    onProgress?.(i + 1, PACKET_FILE_BUILDERS.length);
   }
-  for (const p of contents.photos) {
-    if (!p.storageKey) continue;
-    files.push({ path: p.fileName, data: await readPhoto(p.storageKey), mediaType: mediaTypeOf(p.fileName), description: `${p.ownerType} photo, ${p.view}${p.caption ? `: ${p.caption}` : ""}` });
-  }
-  files.push({
-    path: "shots.json",
-    data: json({ shots: contents.shots }),
-    mediaType: "application/json",
-    description: "Effects shots with the distress stage worn and continuity photos",
-  });
-  files.push({
-    path: "summary.pdf",
-    data: await summaryPdf(contents, meta, contents.production.title),
-    mediaType: "application/pdf",
-    description: "One-page summary",
-  });
-  files.push({ path: "manifest.schema.json", data: json(packetManifestJsonSchema()), mediaType: "application/schema+json", description: "JSON Schema of manifest.json" });
 
   const manifest: PacketManifest = {
     $schema: PACKET_MANIFEST_SCHEMA_ID,
@@ -311,7 +314,7 @@ export async function buildPacketFiles(
       files: files.map((f) => ({ path: f.path, mediaType: f.mediaType, bytes: f.data.length, sha256: sha256(f.data), description: f.description })),
     },
     notes: contents.notes,
-    ...(simulation ? { simulation: simulation.manifest } : {}),
+    ...(ctx.simulation ? { simulation: ctx.simulation.manifest } : {}),
   };
   files.unshift({ path: "manifest.json", data: json(manifest), mediaType: "application/json", description: "What this packet holds" });
   // sha256sum's text format: "<hex>  <path>", one line per file.

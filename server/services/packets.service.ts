@@ -1,5 +1,5 @@
 import { Op, type Transaction } from "sequelize";
-import type { Readable } from "node:stream";
+import { Readable } from "node:stream";
 import { sequelize } from "../db.js";
 import { config } from "../config.js";
 import { logger } from "../lib/logger.js";
@@ -11,8 +11,12 @@ import { canReceivePacket, canSeePacket } from "../policies/packets.policy.js";
 import { findChange, garmentsOfChange, latestMeasurementSet, listChanges, listPhotoCandidates, listVfxShots, type ChangeRow } from "./doubles-records.js";
 import { physicsForFabrics } from "./yardage.service.js";
 import { productionSeamTolerance, presentSeam } from "./seams.service.js";
-import { buildPacketFiles, photoZipPath, zipPacketFiles, type ZipProgress } from "./packet-zip.js";
-import { packetStore, packetZipKey, photoStorageKey } from "./packet-storage.js";
+import { photoZipPath } from "./packet-zip.js";
+import { packetStore, packetZipKey, photoStorageKey, type PacketFileStore } from "./packet-storage.js";
+import { progressRecorder, readProgress, type WorkProgressDto } from "./work-progress.service.js";
+import { runHeavy } from "../lib/worker-pool.js";
+import type { HeavyProgress } from "../workers/heavy-tasks.js";
+import { Limits } from "@shared/constants.js";
 import { packetPublishedEmail } from "../emails/packet-published.email.js";
 import type { Actor } from "../middleware/require-auth.js";
 import {
@@ -203,6 +207,12 @@ async function validateSelection(productionId: string, change: ChangeRow, s: Pac
   subsetOrThrow("garmentIds", s.garmentIds, new Set(garments.map((g) => g.id)), "a garment of this change");
   const panels = await Panel.findAll({ where: { productionId, garmentId: { [Op.in]: s.garmentIds } }, attributes: ["id"], transaction });
   subsetOrThrow("panelIds", s.panelIds, new Set(panels.map((p) => p.id)), "a panel of the chosen garments");
+  // An empty panel list means every panel of the chosen garments.
+  const panelCount = s.panelIds.length || panels.length;
+  if (panelCount > Limits.packetMaxPanels) {
+    const msg = `a packet holds at most ${Limits.packetMaxPanels} panels; this choice has ${panelCount} — choose fewer garments or panels`;
+    throw ValidationError(`panelIds: ${msg}`, { panelIds: msg });
+  }
   const photos = await listPhotoCandidates(productionId, change, garments.map((g) => g.id), transaction);
   subsetOrThrow("photoIds", s.photoIds, new Set(photos.map((p) => p.id)), "a reference photo of this change");
   const shots = await listVfxShots(productionId, change.id, transaction);
@@ -403,18 +413,38 @@ function describeDiff(d: PacketDiff | null): string | null {
   return parts.join("; ");
 }
 
+/** Reads the photo files a packet copies in, keyed by storage key (the worker cannot reach storage). */
+async function packetPhotos(contents: PacketContents, store: PacketFileStore): Promise<Record<string, Uint8Array>> {
+  const out: Record<string, Uint8Array> = {};
+  for (const p of contents.photos) if (p.storageKey && !out[p.storageKey]) out[p.storageKey] = await store.readBuffer(p.storageKey);
+  return out;
+}
+
+/** Builds a packet's files and ZIP in the worker pool; returns the ZIP bytes and checksum. */
+async function buildZipOffThread(contents: PacketContents, meta: { packetId: string; version: number; publishedAt: Date; publishedByName: string }, onProgress?: (p: HeavyProgress) => void) {
+  const photos = await packetPhotos(contents, packetStore());
+  const built = await runHeavy("buildPacketZip", { contents, meta, photos }, { onProgress });
+  return { zip: Buffer.from(built.zip.buffer, built.zip.byteOffset, built.zip.byteLength), sha256: built.sha256 };
+}
+
 /** Builds a version's ZIP from its frozen contents into storage; returns size and checksum. */
 export async function writePacketZip(
   packet: { id: string; version: number },
   contents: PacketContents,
   meta: { publishedAt: Date; publishedByName: string },
-  onProgress?: (p: ZipProgress) => void,
+  onProgress?: (p: HeavyProgress) => void,
 ): Promise<{ key: string; bytes: number; sha256: string }> {
-  const store = packetStore();
-  const files = await buildPacketFiles(contents, { packetId: packet.id, version: packet.version, ...meta }, (key) => store.readBuffer(key));
+  const { zip } = await buildZipOffThread(contents, { packetId: packet.id, version: packet.version, ...meta }, onProgress);
   const key = packetZipKey(packet.id, packet.version);
-  const { bytes, sha256 } = await store.write(key, zipPacketFiles(files, { date: meta.publishedAt, onProgress }));
+  const { bytes, sha256 } = await packetStore().write(key, Readable.from([zip]));
   return { key, bytes, sha256 };
+}
+
+/** How far the publishing of a packet has got (null when it is not being published). */
+export async function publishProgress(actor: Actor, packetId: string): Promise<WorkProgressDto | null> {
+  const packet = await Packet.findOne({ where: { id: packetId, productionId: actor.productionId }, attributes: ["id"] });
+  if (!packet) throw NotFoundError("Packet not found.");
+  return readProgress(actor.productionId, packetId, "packet_publish");
 }
 
 /**
@@ -424,6 +454,7 @@ export async function writePacketZip(
 export async function publishPacket(actor: Actor, packetId: string): Promise<PacketDetailDto> {
   let writtenKey: string | null = null;
   let mail;
+  const progress = progressRecorder(actor.productionId, packetId, "packet_publish");
   try {
     mail = await sequelize.transaction(async (transaction) => {
       const packet = await lockedPacket(actor, packetId, transaction);
@@ -439,7 +470,8 @@ export async function publishPacket(actor: Actor, packetId: string): Promise<Pac
       const max = (await Packet.max("version", { where: { changeId: change.id }, transaction })) as number | null;
       const version = (max ?? 0) + 1;
       const publishedAt = new Date(Math.floor(Date.now() / 1000) * 1000);
-      const zip = await writePacketZip({ id: packet.id, version }, contents, { publishedAt, publishedByName: actor.user.name });
+      progress.report({ stage: "snapshot", done: 1, total: 1 });
+      const zip = await writePacketZip({ id: packet.id, version }, contents, { publishedAt, publishedByName: actor.user.name }, progress.report);
       writtenKey = zip.key;
       const prev = await previousPublished(packet, transaction);
       await packet.update(
@@ -470,6 +502,8 @@ export async function publishPacket(actor: Actor, packetId: string): Promise<Pac
     const orphan: string | null = writtenKey;
     if (orphan) await packetStore().remove(orphan).catch((e: unknown) => logger.warn({ err: e }, "could not remove an orphan packet zip"));
     throw err;
+  } finally {
+    await progress.finish();
   }
   // After commit: a failed send is logged and does not undo the publication.
   const users = await User.findAll({ where: { id: { [Op.in]: mail.recipients } } });
@@ -501,8 +535,8 @@ export async function downloadPacket(actor: Actor, packetId: string): Promise<Pa
   // A draft preview: streamed straight from archiver, nothing stored.
   const contents = await snapshotContents(actor.productionId, packet.changeId, normalizedSelection(packet));
   const now = new Date(Math.floor(Date.now() / 1000) * 1000);
-  const files = await buildPacketFiles(contents, { packetId: packet.id, version: 0, publishedAt: now, publishedByName: `${actor.user.name} (draft preview)` }, (key) => packetStore().readBuffer(key));
-  return { stream: zipPacketFiles(files, { date: now }), fileName: `${contents.character.name.replace(/[^A-Za-z0-9]+/g, "-")}-change-${contents.change.number}-draft.zip`, bytes: null, sha256: null };
+  const { zip, sha256 } = await buildZipOffThread(contents, { packetId: packet.id, version: 0, publishedAt: now, publishedByName: `${actor.user.name} (draft preview)` });
+  return { stream: Readable.from([zip]), fileName: `${contents.character.name.replace(/[^A-Za-z0-9]+/g, "-")}-change-${contents.change.number}-draft.zip`, bytes: zip.length, sha256 };
 }
 
 /** Marks a published version received by the signed-in vfx recipient (idempotent). */

@@ -1,13 +1,16 @@
 import { Op, type Transaction } from "sequelize";
 import { sequelize } from "../db.js";
 import { Panel, Seam } from "../models/index.js";
-import { NotFoundError, UnprocessableError, ValidationError } from "../errors.js";
+import { NotFoundError, PayloadTooLargeError, UnprocessableError, ValidationError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
 import { findChange, findGarment, garmentsOfChange, listChanges, listFabrics, type GarmentRow } from "./doubles-records.js";
 import type { Actor } from "../middleware/require-auth.js";
-import type { CreatePanelInput, DoublesChangeDto, DoublesFabricOptionDto, UpdatePanelInput } from "@shared/schemas/doubles.js";
-import { parseDxfPanels, type DxfParseResult } from "@shared/domain/panels/dxf.js";
-import { validatePolygon, type PanelShape } from "@shared/domain/panels/geometry.js";
+import type { CreatePanelInput, DoublesChangeDto, DoublesFabricOptionDto, DxfImportFields, DxfPreviewFields, UpdatePanelInput } from "@shared/schemas/doubles.js";
+import { noPieceReason, type DxfImport, type DxfPiece } from "@shared/domain/panels/dxf.js";
+import { Limits } from "@shared/constants.js";
+import type { PanelShape } from "@shared/domain/panels/geometry.js";
+import { runHeavy } from "../lib/worker-pool.js";
+import { rememberCutArea } from "./panel-cut-area.js";
 
 /** Changes of the production with their garments and panel counts, for the doubles screen's picker. */
 export async function listDoublesChanges(actor: Actor): Promise<DoublesChangeDto[]> {
@@ -172,42 +175,51 @@ export async function deletePanel(actor: Actor, panelId: string): Promise<void> 
 }
 
 /** Largest DXF accepted, bytes. */
-export const DXF_MAX_BYTES = 5 * 1024 * 1024;
+export const DXF_MAX_BYTES = Limits.dxfMaxBytes;
 
-/** Parses an uploaded DXF file into pieces; refuses files that are not readable DXF or hold no closed piece. */
-export function parseDxfUpload(buffer: Buffer): DxfParseResult {
-  let result: DxfParseResult;
-  try {
-    result = parseDxfPanels(buffer.toString("utf8"));
-  } catch (err) {
-    throw UnprocessableError(`file: not a readable DXF file (${err instanceof Error ? err.message : "parse error"})`, { file: "not a readable DXF file" });
-  }
-  if (result.panels.length === 0) throw UnprocessableError("file: no closed piece outline found in the DXF file", { file: "no closed piece outline found" });
-  for (const p of result.panels) {
-    const v = validatePolygon(p.outline);
-    if (!v.valid) result.warnings.push(`piece "${p.name}": ${v.issues.map((i) => i.message).join("; ")}`);
-  }
-  return result;
+/**
+ * Reads an uploaded DXF file in the worker pool (parsing, curve flattening and outline checks are CPU
+ * work that would otherwise hold up every other request). 422 for a file that is not readable DXF,
+ * 413 naming the limit for a drawing beyond the caps.
+ */
+export async function readDxfUpload(buffer: Buffer, fields: DxfPreviewFields): Promise<DxfImport> {
+  // A copy the worker can own: multer's buffer may share a pooled ArrayBuffer with other data.
+  const bytes = new Uint8Array(buffer.byteLength);
+  bytes.set(buffer);
+  const result = await runHeavy("readDxf", { bytes, options: { units: fields.units, seamAllowanceMm: fields.seamAllowanceMm } }, { transfer: [bytes.buffer] });
+  if (!result.ok && result.kind === "limit") throw PayloadTooLargeError(`file: ${result.message}`, { file: result.message });
+  if (!result.ok) throw UnprocessableError(`file: not a readable DXF file (${result.message})`, { file: "not a readable DXF file" });
+  return result.value;
 }
 
-/** Imports every valid piece of a DXF file onto a garment, in one transaction. */
-export async function importDxfPanels(
-  actor: Actor,
-  input: { garmentId: string; seamAllowanceMm: number; fabricId: string | null },
-  buffer: Buffer,
-): Promise<{ panels: Panel[]; warnings: string[] }> {
-  const parsed = parseDxfUpload(buffer);
-  const valid: PanelShape[] = parsed.panels.filter((p) => validatePolygon(p.outline).valid);
-  if (valid.length === 0) throw UnprocessableError("file: no valid piece in the DXF file", { file: "no valid piece" });
+/** The pieces of a read file that can be imported; 422 with the reason when there are none. */
+function importablePieces(read: DxfImport): DxfPiece[] {
+  if (read.pieces.length === 0) {
+    const reason = noPieceReason(read);
+    throw UnprocessableError(`file: ${reason}`, { file: reason });
+  }
+  const ok = read.pieces.filter((p) => p.importable);
+  if (ok.length === 0) {
+    const first = read.pieces[0];
+    const why = `no piece can be imported: "${first.name}" ${first.problems.slice(0, 3).join("; ")}${read.pieces.length > 1 ? ` (and ${read.pieces.length - 1} more with problems)` : ""}`;
+    throw UnprocessableError(`file: ${why}`, { file: why });
+  }
+  return ok;
+}
+
+/** Imports every importable piece of a DXF file onto a garment, in one transaction. */
+export async function importDxfPanels(actor: Actor, input: DxfImportFields, buffer: Buffer): Promise<{ panels: Panel[]; warnings: string[]; skipped: string[] }> {
+  const read = await readDxfUpload(buffer, input);
+  const pieces = importablePieces(read);
+  const skipped = read.pieces.filter((p) => !p.importable).map((p) => `${p.name}: ${p.problems.slice(0, 3).join("; ")}`);
   return sequelize.transaction(async (transaction) => {
     const garment = await findGarment(actor.productionId, input.garmentId, transaction);
     if (!garment) throw ValidationError("garmentId: no such garment in this production", { garmentId: "no such garment in this production" });
     await assertFabric(actor, input.fabricId, transaction);
     let order = await nextSortOrder(garment.id, transaction);
     const created: Panel[] = [];
-    for (const p of valid) {
-      created.push(
-        await Panel.create(
+    for (const p of pieces) {
+      const panel = await Panel.create(
           {
             productionId: actor.productionId,
             garmentId: garment.id,
@@ -215,7 +227,7 @@ export async function importDxfPanels(
             outline: p.outline.map(([x, y]) => [x, y] as [number, number]),
             grainline: p.grainline ? [[p.grainline[0][0], p.grainline[0][1]], [p.grainline[1][0], p.grainline[1][1]]] : null,
             notches: (p.notches ?? []).map((n) => ({ point: [n.point[0], n.point[1]] as [number, number], edge: n.edge })),
-            seamAllowanceMm: input.seamAllowanceMm,
+            seamAllowanceMm: Math.min(100, Math.max(0, p.seamAllowanceMm)),
             cutCount: Math.min(99, Math.max(1, p.cutCount)),
             mirrored: Boolean(p.mirrored),
             grainMode: "straight",
@@ -224,11 +236,16 @@ export async function importDxfPanels(
             sortOrder: order++,
           },
           { transaction },
-        ),
-      );
+        );
+      // The worker already offset the outline; the response then needs no clipper work on this thread.
+      if (panel.seamAllowanceMm === p.seamAllowanceMm) rememberCutArea(panel, p.cutAreaMm2);
+      created.push(panel);
     }
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "panel.import_dxf", entityType: "garment", entityId: garment.id, after: { pieces: created.map((c) => c.name) } }, transaction);
-    return { panels: created, warnings: parsed.warnings };
+    await recordAudit(
+      { productionId: actor.productionId, actorId: actor.user.id, action: "panel.import_dxf", entityType: "garment", entityId: garment.id, after: { pieces: created.map((c) => c.name), units: read.units.unit, convention: read.convention } },
+      transaction,
+    );
+    return { panels: created, warnings: read.warnings, skipped };
   });
 }
 

@@ -17,6 +17,7 @@ import { buildPlan, nextDay } from "./workroom.service.js";
 import { clock, productionTimeZone } from "../lib/clock.js";
 import { changeLabel, findChange, findPerformer } from "./workroom-facts.service.js";
 import { longDate, taskSummary } from "@shared/domain/workroom-snags.js";
+import { formatTime } from "@shared/format.js";
 import { recordAudit } from "./audit.service.js";
 import type { Actor } from "../middleware/require-auth.js";
 import type { EmailJobStatus } from "@shared/schemas/workroom.js";
@@ -118,8 +119,7 @@ export async function sendEveningReminders(opts: { now?: Date; productionId?: st
       if (zonedParts(f.startsAt, zone).date !== tomorrow) continue;
       const performer = await findPerformer(production.id, f.performerId);
       const change = f.changeId ? await findChange(production.id, f.changeId) : null;
-      const z = zonedParts(f.startsAt, zone);
-      const item = { time: `${String(z.hour).padStart(2, "0")}:${String(z.minute).padStart(2, "0")}`, performer: performer?.name ?? "performer", change: change ? changeLabel(change) : null, room: f.room };
+      const item = { time: formatTime(f.startsAt, zone), performer: performer?.name ?? "performer", change: change ? changeLabel(change) : null, room: f.room };
       for (const uid of f.attendeeIds) entry(uid).fittings.push(item);
     }
     const plan = await buildPlan(production.id, today);
@@ -136,6 +136,7 @@ export async function sendEveningReminders(opts: { now?: Date; productionId?: st
         name: user.name,
         productionTitle: production.title,
         dateLabel: longDate(tomorrow),
+        timeZone: zone,
         fittings: e.fittings,
         tickets: e.tickets,
         url: `${config.APP_URL}/p/${production.id}/workroom`,

@@ -1,6 +1,6 @@
 // Workroom snags: turn a plan (planTickets) into snags of the same shape the snag engine produces, so the
 // Snags screen can list late alterations and overbooked workroom days beside the other conflicts.
-import { format, parseISO } from "date-fns";
+import { formatDate, formatHours } from "../format";
 import { finishSnag, sortSnags } from "./snags/engine";
 import type { JsonValue, Snag, SnagDraft } from "./snags/types";
 import type { PlanResult } from "./workroom";
@@ -28,12 +28,10 @@ export interface WorkroomSnagInput {
   bufferWorkingDays: number;
 }
 
-/** "Tue 1 Dec 2026" from YYYY-MM-DD. */
-export function longDate(date: string): string {
-  return format(parseISO(date), "EEE d MMM yyyy");
-}
+/** "Tue 1 Dec 2026" from YYYY-MM-DD (the app's one date format). */
+export const longDate = formatDate;
 
-const hoursText = (h: number): string => `${Number.isInteger(h) ? h : h.toFixed(2).replace(/0$/, "")} h`;
+const hoursText = formatHours;
 const plural = (n: number, one: string, many = `${one}s`): string => `${n} ${n === 1 ? one : many}`;
 
 /** A snag for one late (or unschedulable) ticket, or null when it is on time. */

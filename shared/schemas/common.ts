@@ -1,5 +1,7 @@
 import { z } from "zod";
 import { Limits } from "../constants.js";
+// Plain-words messages for every schema (side effect: configures zod once, on both sides).
+import "./error-map.js";
 
 /** A uuid path or body id. */
 export const idSchema = z.uuid({ message: "must be a valid id" });

@@ -5,6 +5,8 @@ import type { SeamStatus } from "../domain/panels/seams.js";
 import type { FabricSimulationValues } from "../domain/fabric-physics.js";
 import type { CantileverRetest } from "../domain/cantilever.js";
 import type { Placement } from "../domain/panels/nesting.js";
+import { Limits } from "../constants.js";
+import { DXF_UNITS, type DxfUnit } from "../domain/panels/dxf-units.js";
 
 /** Largest coordinate accepted, mm (a 10 m piece is already far beyond any garment). */
 const COORD_MAX = 10_000;
@@ -16,7 +18,7 @@ export const pointSchema = z.tuple([z.number().finite().min(-COORD_MAX).max(COOR
 export const outlineSchema = z
   .array(pointSchema)
   .min(3, { message: "needs at least 3 points" })
-  .max(2000, { message: "has more than 2000 points" })
+  .max(Limits.panelMaxVertices, { message: `has more than ${Limits.panelMaxVertices.toLocaleString("en-GB")} points (the most a piece may have)` })
   .superRefine((pts, ctx) => {
     const check = validatePolygon(pts as Point[]);
     if (!check.valid) ctx.addIssue({ code: "custom", message: check.issues.map((i) => i.message).join("; ") });
@@ -81,12 +83,26 @@ export type UpdatePanelInput = z.infer<typeof updatePanelInputSchema>;
 
 export const listPanelsQuerySchema = z.object({ garmentId: idSchema.optional(), changeId: idSchema.optional() });
 
-/** Multipart fields sent with a DXF file. */
-export const dxfImportFieldsSchema = z.object({
-  garmentId: idSchema,
+const dxfUnits = Object.keys(DXF_UNITS) as [DxfUnit, ...DxfUnit[]];
+
+/** Multipart fields sent with a DXF file for the preview. */
+export const dxfPreviewFieldsSchema = z.object({
+  /** Drawing units to use instead of the file's own (for files that do not say); empty = the file's. */
+  units: z
+    .union([z.enum(dxfUnits), z.literal("")])
+    .optional()
+    .transform((v) => v || undefined),
+  /** Seam allowance for pieces without a separate cut and sew line in the file, mm. */
   seamAllowanceMm: z.coerce.number().min(0).max(100).default(10),
+});
+export type DxfPreviewFields = z.infer<typeof dxfPreviewFieldsSchema>;
+
+/** Multipart fields sent with a DXF file to import it. */
+export const dxfImportFieldsSchema = dxfPreviewFieldsSchema.extend({
+  garmentId: idSchema,
   fabricId: z.union([idSchema, z.literal("")]).optional().transform((v) => v || null),
 });
+export type DxfImportFields = z.infer<typeof dxfImportFieldsSchema>;
 
 /** A run end: a vertex index or a position along an edge (0 ≤ t ≤ 1). */
 export const runEndSchema = z.union([

@@ -19,6 +19,10 @@ export const garmentStatusLabels: Record<GarmentStatus, string> = {
 export const garmentSources = ["built", "bought", "rented"] as const;
 export type GarmentSource = (typeof garmentSources)[number];
 
+/** What happens to an owned garment at wrap; rented garments always go back to the hire house. */
+export const wrapDispositions = ["keep", "sell"] as const;
+export type WrapDisposition = (typeof wrapDispositions)[number];
+
 export const fitIntents = ["fitted", "regular", "loose"] as const;
 export type FitIntentValue = (typeof fitIntents)[number];
 
@@ -71,6 +75,10 @@ const garmentFields = {
   costCents: z.number().int("must be whole cents").min(0, "cannot be negative").max(100_000_000).nullish().transform((v) => v ?? null),
   /** Only meaningful for rented garments. */
   rentalDueOn: isoDateSchema.nullish().transform((v) => v ?? null),
+  /** Rented: the weekly hire rate in cents of the production's currency. */
+  rentalCostPerWeekCents: z.number().int("must be whole cents").min(0, "cannot be negative").max(10_000_000).nullish().transform((v) => v ?? null),
+  /** Owned garments at wrap: keep in stock or sell; null = not decided. */
+  wrapDisposition: z.enum(wrapDispositions).nullish().transform((v) => v ?? null),
   locationRack: text(40),
   locationBin: text(40),
   distressStage: z.number().int().min(0, "cannot be negative").max(10).default(0),
@@ -106,6 +114,8 @@ export const updateGarmentInputSchema = z
     vendor: garmentFields.vendor,
     costCents: garmentFields.costCents,
     rentalDueOn: garmentFields.rentalDueOn,
+    rentalCostPerWeekCents: garmentFields.rentalCostPerWeekCents,
+    wrapDisposition: garmentFields.wrapDisposition,
     distressStage: z.number().int().min(0, "cannot be negative").max(10),
     notes: garmentFields.notes,
     tagCode: tagCodeSchema,
@@ -190,6 +200,8 @@ export interface GarmentDto {
   vendor: string | null;
   costCents: number | null;
   rentalDueOn: string | null;
+  rentalCostPerWeekCents: number | null;
+  wrapDisposition: WrapDisposition | null;
   locationRack: string | null;
   locationBin: string | null;
   status: GarmentStatus;

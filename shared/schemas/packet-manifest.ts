@@ -91,7 +91,7 @@ export const packetManifestSchema = z
     $schema: z.literal(PACKET_MANIFEST_SCHEMA_ID),
     format: z.literal("seamscene-handoff-packet"),
     formatVersion: z.literal(1),
-    /** Units of every value in the packet, except where a file says otherwise (panels.json, panels.svg and panels.dxf use millimetres). */
+    /** Units of every value in the packet, except where a file says otherwise (panels.json, panels.svg, panels.dxf and dxf/ use millimetres). */
     units: z.object({
       length: z.literal("m"),
       mass: z.literal("kg"),

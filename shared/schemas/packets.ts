@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { idSchema } from "./common.js";
+import { Limits } from "../constants.js";
 import type { FabricSimulationValues } from "../domain/fabric-physics.js";
 import type { CantileverRetest } from "../domain/cantilever.js";
 import type { SeamStatus } from "../domain/panels/seams.js";
@@ -11,7 +12,7 @@ const packetChoiceFields = {
   /** Garments of the change whose panels go in. */
   garmentIds: z.array(idSchema).max(100),
   /** Panels of those garments; an empty list means every panel of the chosen garments. */
-  panelIds: z.array(idSchema).max(2000),
+  panelIds: z.array(idSchema).max(Limits.packetMaxPanels, { message: `a packet holds at most ${Limits.packetMaxPanels} panels` }),
   /** Reference photos (fittings, continuity, garment turnarounds). */
   photoIds: z.array(idSchema).max(500),
   /** Effects shots: appearances marked vfx_shot. */

@@ -23,6 +23,23 @@ export function isKnownTimeZone(name: string): boolean {
   }
 }
 
+/** Paper sizes for printed reports. */
+export const paperSizes = ["A4", "Letter"] as const;
+export type PaperSize = (typeof paperSizes)[number];
+/** Defaults when a production sets none. */
+export const DEFAULT_CURRENCY = "GBP";
+export const DEFAULT_PAPER_SIZE: PaperSize = "A4";
+
+/** True for an ISO 4217 code the platform can format (e.g. "EUR"). */
+export function isKnownCurrency(code: string): boolean {
+  try {
+    new Intl.NumberFormat("en", { style: "currency", currency: code });
+    return typeof Intl.supportedValuesOf !== "function" || Intl.supportedValuesOf("currency").includes(code);
+  } catch {
+    return false;
+  }
+}
+
 export const productionSettingsSchema = z.object({
   /** The department's local time zone (IANA name): "today", shoot days, reminders and fitting times. */
   timeZone: z.string().trim().min(1).max(64).refine(isKnownTimeZone, "is not a time zone name such as Europe/London").optional(),
@@ -32,6 +49,16 @@ export const productionSettingsSchema = z.object({
   bufferWorkingDays: z.number().int().min(0).max(10).optional(),
   /** Hour (0–23, production's local time) at which evening reminders go out. */
   reminderHour: z.number().int().min(0).max(23).optional(),
+  /** Currency of every cost (ISO 4217 code, e.g. GBP, EUR, USD); amounts are stored in cents. */
+  currency: z
+    .string()
+    .trim()
+    .toUpperCase()
+    .regex(/^[A-Z]{3}$/, "must be a three-letter currency code such as GBP")
+    .refine(isKnownCurrency, "is not a currency code this system knows")
+    .optional(),
+  /** Paper for printed reports (continuity books, rack lists): ISO A4 or US Letter. */
+  paperSize: z.enum(paperSizes).optional(),
   /** Seam length mismatch tolerance in mm. */
   seamToleranceMm: z.number().min(0).max(50).optional(),
   /**

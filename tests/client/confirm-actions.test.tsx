@@ -144,7 +144,7 @@ describe("asks before destroying work or e-mailing", () => {
     const onDelete = vi.fn();
     wrap(<MeasurementHistory sets={[{ id: "m1", takenOn: "2030-09-01", valuesMm: { chest_girth: 980 }, notes: null, takenByName: null } as never]} unit="cm" onDelete={onDelete} />);
 
-    fireEvent.click(screen.getByRole("button", { name: "Delete the set of 2030-09-01" }));
+    fireEvent.click(screen.getByRole("button", { name: "Delete the set of Sun 1 Sep 2030" }));
 
     // The history only asks the page to confirm; it deletes nothing itself.
     expect(onDelete).toHaveBeenCalledWith("m1");

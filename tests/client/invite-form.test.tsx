@@ -22,7 +22,7 @@ afterEach(() => {
 });
 
 describe("InviteForm", () => {
-  it("shows the schema's message under the e-mail field and sends nothing", async () => {
+  it("shows the schema's message, naming the field as the form does, and sends nothing", async () => {
     const fetchMock = vi.fn();
     vi.stubGlobal("fetch", fetchMock);
     renderForm();
@@ -30,14 +30,14 @@ describe("InviteForm", () => {
     fireEvent.change(screen.getByLabelText("E-mail"), { target: { value: "not-an-address" } });
     fireEvent.click(screen.getByRole("button", { name: "Send invitation" }));
 
-    expect(await screen.findByText("must be an e-mail address")).toBeTruthy();
+    expect(await screen.findByText("E-mail must be an e-mail address")).toBeTruthy();
     expect(fetchMock).not.toHaveBeenCalled();
   });
 
   it("shows the server's field message (409 already a member) under the field", async () => {
     const fetchMock = vi.fn(async (url: string, _init?: RequestInit) => {
       if (url === "/api/auth/csrf") return jsonResponse(200, { token: "t" });
-      return jsonResponse(409, { error: { code: "conflict", message: "email: already a member", fields: { email: "is already a member of this production" } } });
+      return jsonResponse(409, { error: { code: "conflict", message: "E-mail is already a member of this production", fields: { email: "E-mail is already a member of this production" } } });
     });
     vi.stubGlobal("fetch", fetchMock);
     renderForm();
@@ -46,7 +46,7 @@ describe("InviteForm", () => {
     fireEvent.change(screen.getByLabelText("Role"), { target: { value: "cutter" } });
     fireEvent.click(screen.getByRole("button", { name: "Send invitation" }));
 
-    await waitFor(() => expect(screen.getByText("is already a member of this production")).toBeTruthy());
+    await waitFor(() => expect(screen.getByText("E-mail is already a member of this production")).toBeTruthy());
     const post = fetchMock.mock.calls.find(([u]) => u === "/api/productions/p1/invitations")!;
     expect(JSON.parse(post[1]!.body as string)).toEqual({ email: "cutter@seamscene.test", role: "cutter" });
     expect((post[1]!.headers as Record<string, string>)["X-CSRF-Token"]).toBe("t");

@@ -73,7 +73,7 @@ describe("groupSnags", () => {
   });
 
   it("puts snags without a shoot day last when grouping by day", () => {
-    expect(groupSnags(snags, "shootDay").map((g) => g.label)).toEqual(["Shoot day 2027-01-11", "Not tied to one day"]);
+    expect(groupSnags(snags, "shootDay").map((g) => g.label)).toEqual(["Shoot day Mon 11 Jan 2027", "Not tied to one day"]);
   });
 });
 

@@ -4,6 +4,7 @@ import { useBrowser, signIn } from "./browser.js";
 import { SALTMARSH_ID } from "../../seeds/accounts.js";
 import { characters } from "../../seeds/scenario.js";
 import { anchorDemo, shootDay } from "../../seeds/calendar.js";
+import { formatDate } from "../../shared/format.js";
 
 const baseUrl = inject("baseUrl");
 // The demo is anchored to the day the server's clock reads (seeds/calendar.ts).
@@ -21,7 +22,7 @@ describe("continuity on a phone", () => {
     await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/continuity`);
     const daySelect = page.getByLabel("Shoot day");
     await daySelect.waitFor();
-    const value = await daySelect.locator("option", { hasText: `Day 2 · ${shootDay(2)}` }).getAttribute("value");
+    const value = await daySelect.locator("option", { hasText: `Day 2 · ${formatDate(shootDay(2))}` }).getAttribute("value");
     await daySelect.selectOption(value!);
     await page.getByRole("button", { name: "Sc 1", exact: true }).click();
     const character = page.getByRole("button", { name: new RegExp(characters.elias.name) });

@@ -44,4 +44,27 @@ describe("digital-double handoff", () => {
     await vfx.screenshot({ path: ".data/e2e-doubles-vfx.png" });
     await vfx.close();
   });
+
+  it("the demo cutter previews a DXF file of ASTM D6673 blocks, sees what was left out, and imports its pieces by keyboard", async () => {
+    const page = await browser().newPage({ viewport: { width: 1280, height: 900 } });
+    await signIn(page, baseUrl, "cutter@seamscene.test");
+    await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
+    await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/doubles?tab=panels`);
+    await page.getByRole("tab", { name: /Hobnail boots/ }).click();
+    await page.getByRole("button", { name: "Import DXF" }).click();
+
+    // Written by ezdxf (tests/fixtures/doubles/make-dxf-fixtures.py).
+    await page.getByLabel("DXF file").setInputFiles("tests/fixtures/doubles/ezdxf/astm-pieces.dxf");
+    await page.getByRole("status").filter({ hasText: "2 pieces found · ASTM D6673 layers" }).waitFor();
+    const skipped = await page.getByRole("table", { name: "Not used from the file" }).textContent();
+    expect(skipped).toContain("turn points (layer 2)");
+    expect(skipped).toContain("internal lines (layer 8)");
+    await page.getByRole("button", { name: "Import 2 pieces" }).focus();
+    await page.keyboard.press("Enter");
+
+    await page.getByRole("heading", { name: /Panels of Hobnail boots/ }).waitFor();
+    await page.getByRole("tab", { name: /Hobnail boots \(2\)/ }).waitFor();
+    await page.screenshot({ path: ".data/e2e-doubles-dxf.png" });
+    await page.close();
+  });
 });

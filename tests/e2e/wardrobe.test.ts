@@ -4,6 +4,7 @@ import { useBrowser, signIn } from "./browser.js";
 import { SALTMARSH_ID } from "../../seeds/accounts.js";
 import { keyGarments, performers } from "../../seeds/scenario.js";
 import { anchorDemo, demoDaysFromToday } from "../../seeds/calendar.js";
+import { formatDate } from "../../shared/format.js";
 
 const baseUrl = inject("baseUrl");
 anchorDemo(inject("today"));
@@ -30,7 +31,7 @@ describe("measurements as the demo cutter", () => {
     await form.getByText("Saved.").waitFor();
 
     const history = page.getByRole("table", { name: "Measurement history" });
-    await history.getByText(`${takenOn} (current)`).waitFor();
+    await history.getByText(`${formatDate(takenOn)} (current)`).waitFor();
     const chestRow = history.getByRole("row", { name: /Chest girth/ });
     // 40 in × 25.4 = 1016 mm exactly → 101.6 cm in the production's unit.
     expect(await chestRow.locator("td").first().textContent()).toContain("101.6 cm");

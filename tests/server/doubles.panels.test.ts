@@ -57,7 +57,7 @@ describe("POST /panels", () => {
   });
 
   it("creates a panel and reports the shoelace area of the worked example", async () => {
-    // check-values §9: trapezoid (0,0),(60,0),(50,70),(10,70) cm → 3500 cm² = 350 000 mm².
+    // Trapezoid (0,0),(60,0),(50,70),(10,70) cm: (60 + 40) / 2 × 70 = 3500 cm² = 350 000 mm² (trapezoid area, by hand).
     const res = await cutter.post(`${base()}/panels`, {
       garmentId: garmentIds[0],
       name: "Skirt front",
@@ -137,10 +137,10 @@ describe("POST /panels/dxf-import", () => {
     const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).attach("file", fixture("skirt-cm.dxf"));
 
     expect(res.status).toBe(201);
-    // check-values §9: 3500 cm²; an independent polygon library agrees on the imported outline.
+    // Trapezoid area by hand: 3500 cm²; an independent polygon library (d3-polygon) agrees on the imported outline.
     const outline = res.body.data.panels[0].outline as [number, number][];
     expect(res.body.data.panels[0].areaMm2).toBeCloseTo(350_000, 6);
-    // d3-polygon's area is signed for a y-down frame (check-values §10): compare absolute values.
+    // d3-polygon's area is signed for a y-down frame: compare absolute values.
     expect(Math.abs(d3PolygonArea(outline))).toBeCloseTo(350_000, 6);
   });
 
@@ -148,7 +148,7 @@ describe("POST /panels/dxf-import", () => {
     const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).attach("file", fixture("not-a-drawing.dxf"));
 
     expect(res.status).toBe(422);
-    expect(res.body.error.fields.file).toBeDefined();
+    expect(res.body.error.fields.file).toBe("not a readable DXF file");
     expect(await Panel.count()).toBe(0);
   });
 
@@ -160,12 +160,93 @@ describe("POST /panels/dxf-import", () => {
     expect(await Panel.count()).toBe(0);
   });
 
-  it("preview parses without writing", async () => {
+  it("preview parses without writing and says what it recognised", async () => {
     const res = await cutter.agent.post(`${base()}/panels/dxf-preview`).set("X-CSRF-Token", cutter.csrf).attach("file", fixture("two-pieces-mm.dxf"));
 
     expect(res.status).toBe(200);
-    expect(res.body.data.panels.map((p: { name: string }) => p.name)).toEqual(["Back", "Yoke"]);
+    expect(res.body.data.pieces.map((p: { name: string }) => p.name)).toEqual(["Back", "Yoke"]);
+    expect(res.body.data.pieces[0].recognised.join("; ")).toMatch(/grain line/);
+    expect(res.body.data.units).toMatchObject({ unit: "mm" });
     expect(await Panel.count()).toBe(0);
+  });
+
+  it("imports an ezdxf-written file of ASTM D6673 blocks: sew lines, measured seam allowances, rotated and mirrored INSERT", async () => {
+    // Written by ezdxf through tests/fixtures/doubles/make-dxf-fixtures.py; figures from its expected.json.
+    const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).field("seamAllowanceMm", "5").attach("file", fixture("ezdxf/astm-pieces.dxf"));
+
+    expect(res.status).toBe(201);
+    const [back, facing] = res.body.data.panels;
+    expect(back).toMatchObject({ name: "Back", cutCount: 2, mirrored: true, seamAllowanceMm: 10, source: "dxf" });
+    expect(back.areaMm2).toBeCloseTo(100_000, 6);
+    expect(facing).toMatchObject({ name: "Facing", cutCount: 1, seamAllowanceMm: 15 });
+    expect(facing.areaMm2).toBeCloseTo(225_000, 4);
+  });
+
+  it("closed SPLINE outlines import (defect: 'no closed piece outline found')", async () => {
+    const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).attach("file", fixture("ezdxf/curves.dxf"));
+
+    expect(res.status).toBe(201);
+    expect(res.body.data.panels).toHaveLength(5);
+  });
+
+  it("a file that does not say its units imports in the units chosen in the preview", async () => {
+    const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).field("units", "in").attach("file", fixture("ezdxf/unitless-inches.dxf"));
+
+    expect(res.status).toBe(201);
+    // 6 × 7 in, 1 in = 25.4 mm exactly (NIST SP 811, B.8).
+    expect(res.body.data.panels[0].areaMm2).toBeCloseTo(42 * 25.4 * 25.4, 6);
+  });
+
+  it("422 says why no piece was found: lines that stop 2 mm short of closing", async () => {
+    const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).attach("file", fixture("ezdxf/open-outline.dxf"));
+
+    expect(res.status).toBe(422);
+    expect(res.body.error.fields.file).toMatch(/no closed piece outline found: 4 × LINE on layer 0: .*2 mm apart/);
+    expect(await Panel.count()).toBe(0);
+  });
+
+  it("413 names the file when a piece has more points than the limit; nothing written", async () => {
+    const n = 6000;
+    const pts = Array.from({ length: n }, (_, i) => `10\n${300 * Math.cos((2 * Math.PI * i) / n)}\n20\n${300 * Math.sin((2 * Math.PI * i) / n)}`).join("\n");
+    const file = `0\nSECTION\n2\nENTITIES\n0\nLWPOLYLINE\n8\n0\n90\n${n}\n70\n1\n${pts}\n0\nENDSEC\n0\nEOF\n`;
+
+    const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).attach("file", Buffer.from(file), "circle.dxf");
+
+    expect(res.status).toBe(413);
+    expect(res.body.error.code).toBe("payload_too_large");
+    expect(res.body.error.fields.file).toMatch(/6,000 points.*at most 5,000/);
+    expect(await Panel.count()).toBe(0);
+  });
+});
+
+describe("one upload must not stall the server: outline checks and caps", () => {
+  /** A 2,000-point outline of zigzag teeth crossing back over themselves about a million times. */
+  function crossedOutline(): [number, number][] {
+    const pts: [number, number][] = [];
+    for (let i = 0; i < 1000; i++) pts.push([i * 5, i % 2 ? 500 : 0]);
+    for (let i = 999; i >= 0; i--) pts.push([i * 5 + 2.5, i % 2 ? 0 : 500]);
+    return pts;
+  }
+
+  it("a 2,000-point self-crossing outline gets a short 400 listing at most 20 crossings", async () => {
+    const res = await cutter.post(`${base()}/panels`, { garmentId: garmentIds[0], name: "Zigzag", outline: crossedOutline() });
+
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.outline).toMatch(/first 20 crossings are listed/);
+    expect(res.body.error.fields.outline.match(/cross at/g)).toHaveLength(20);
+    // The whole answer stays small (it was 274 MB when every crossing was listed).
+    expect(JSON.stringify(res.body).length).toBeLessThan(10_000);
+    expect(await Panel.count()).toBe(0);
+  });
+
+  it("an outline over 5,000 points answers 400 naming the outline field", async () => {
+    const n = 5001;
+    const outline = Array.from({ length: n }, (_, i) => [Math.round(3000 * Math.cos((2 * Math.PI * i) / n) * 1000) / 1000, Math.round(3000 * Math.sin((2 * Math.PI * i) / n) * 1000) / 1000]);
+
+    const res = await cutter.post(`${base()}/panels`, { garmentId: garmentIds[0], name: "Circle skirt", outline });
+
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.outline).toMatch(/more than 5,000 points/);
   });
 });
 

@@ -80,7 +80,7 @@ describe("POST /api/productions/:pid/fittings/:id/items/:itemId/garment", () => 
     const neither = await agent.post(`/api/productions/${pid}/fittings/${fittingId}/items/${itemId}/garment`, {});
 
     expect(neither.status).toBe(400);
-    expect(neither.body.error.fields).toEqual({ garmentId: "choose a garment from stock or describe a new one" });
+    expect(neither.body.error.fields).toEqual({ garmentId: "Choose a garment from stock or describe a new one" });
   });
 
   it("409 for an item that already has a garment; the link stays", async () => {

@@ -1,10 +1,18 @@
 import { createHash, randomUUID } from "node:crypto";
+import { execFileSync } from "node:child_process";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
 import { beforeEach, describe, expect, it } from "vitest";
 import unzipper from "unzipper";
 import { Readable } from "node:stream";
 import { createApp } from "../../server/app.js";
 import { sequelize } from "../../server/db.js";
-import { Packet, PacketRecipient } from "../../server/models/index.js";
+import { Packet, PacketRecipient, Panel } from "../../server/models/index.js";
+import { SUMMARY_FIGURES } from "../../server/services/packet-summary.js";
+import { progressRecorder } from "../../server/services/work-progress.service.js";
+import { printedHalfUnit } from "@shared/domain/number-format.js";
+import { readDxfPieces } from "@shared/domain/panels/dxf.js";
 import { packetStore } from "../../server/services/packet-storage.js";
 import { buildPacketFiles, zipPacketFiles } from "../../server/services/packet-zip.js";
 import { packetManifestSchema, stitchesFileSchema } from "@shared/schemas/packet-manifest.js";
@@ -64,6 +72,9 @@ beforeEach(async () => {
   const { id: fabricId } = await buildFabric(production.id, { name: "Keeper wool" }, [
     { kind: "mass", readings: { massG: 2, lengthMm: 100, widthMm: 100 } },
     { kind: "cantilever", direction: "warp", readings: { overhangMm: 40 } },
+    // 28 N on a 50 mm strip at 4 mm over a 200 mm gauge: 560 N/m ÷ 0.02 = 28,000 N/m (and 22,000 weft).
+    { kind: "strip", direction: "warp", readings: { loadN: 28, stripWidthMm: 50, gaugeLengthMm: 200, extensionMm: 4 } },
+    { kind: "strip", direction: "weft", readings: { loadN: 22, stripWidthMm: 50, gaugeLengthMm: 200, extensionMm: 4 } },
   ]);
   const g = await buildChangeWithGarments(production.id, { garments: 2, fabricId, name: "Elias Test" });
   const front = await buildPanel(production.id, g.garmentIds[0], { name: "Front", outline: [[0, 0], [300, 0], [300, 600], [0, 600]], cutCount: 2 });
@@ -151,7 +162,7 @@ describe("the ZIP", () => {
     // Every file but SHA256SUMS itself is listed, and every listed hash matches (sha256sum -c).
     expect([...listed.keys()].sort()).toEqual([...files.keys()].filter((p) => p !== "SHA256SUMS").sort());
     for (const [p, h] of listed) expect(sha(files.get(p)!), p).toBe(h);
-    for (const name of ["manifest.json", "manifest.schema.json", "panels.json", "panels.svg", "panels.dxf", "panels.obj", "seams.json", "fabrics.json", "shots.json", "summary.pdf"]) {
+    for (const name of ["manifest.json", "manifest.schema.json", "panels.json", "panels.svg", "panels.dxf", "dxf/01-garment-1-front.dxf", "panels.obj", "seams.json", "fabrics.json", "shots.json", "summary.pdf"]) {
       expect(files.has(name), name).toBe(true);
     }
     expect(files.has("measurements.json")).toBe(false);
@@ -258,6 +269,144 @@ describe("simulation meshes, stitches and the cantilever re-test", () => {
 
     expect(res.status).toBe(200);
     expect(res.body.data[0].retest.directions[0]).toMatchObject({ direction: "warp", measuredOverhangMm: 40 });
+  });
+});
+
+describe("summary.pdf and the DXF files", () => {
+  /** The PDF's text as poppler's pdftotext extracts it (Debian package poppler-utils). */
+  function pdfText(pdf: Buffer): string {
+    const file = path.join(fs.mkdtempSync(path.join(os.tmpdir(), "seamscene-pdf-")), "summary.pdf");
+    fs.writeFileSync(file, pdf);
+    try {
+      return execFileSync("pdftotext", ["-layout", "-enc", "UTF-8", file, "-"], { encoding: "utf8" });
+    } finally {
+      fs.rmSync(path.dirname(file), { recursive: true, force: true });
+    }
+  }
+  /** "28,000" → 28000. */
+  const parse = (s: string) => Number(s.replace(/,/g, ""));
+  /** A printed figure agrees with the JSON value to the precision it is printed with. */
+  function expectPrinted(printed: string, jsonValue: number, kind: keyof typeof SUMMARY_FIGURES) {
+    const f = SUMMARY_FIGURES[kind];
+    const want = jsonValue * f.factor;
+    expect(Math.abs(parse(printed) - want), `${kind}: printed ${printed}, JSON gives ${want}`).toBeLessThanOrEqual(printedHalfUnit(want, f.precision) * (1 + 1e-9));
+  }
+
+  it("prints every fabric and panel figure as fabrics.json and panels.json hold it (defect: 28,000 N/m printed as 28)", async () => {
+    const id = await publishedV1();
+    const { files } = await download(vfx, id);
+    const text = pdfText(files.get("summary.pdf")!);
+    const panels = JSON.parse(files.get("panels.json")!.toString("utf8")).panels as Array<{ id: string; name: string; garmentId: string; areaMm2: number; seamAllowanceMm: number; cutCount: number }>;
+    const fabrics = JSON.parse(files.get("fabrics.json")!.toString("utf8")).fabrics as Array<{ name: string; simulation: Record<string, { value: number } & Record<string, { value: number }>> }>;
+    const lines = text.split("\n").map((l) => l.trim());
+
+    expect(text).toContain("stretch stiffness warp 28,000 N/m (M), weft 22,000 N/m (M)");
+    expect(panels).toHaveLength(3);
+    for (const p of panels) {
+      // panels.json names pieces "<garment> - <piece>"; the summary lists them under their garment.
+      const piece = p.name.split(" - ").slice(1).join(" - ");
+      const line = lines.find((l) => l.startsWith(`• ${piece}: cut ${p.cutCount}`));
+      expect(line, piece).toBeDefined();
+      const m = /area ([\d,.]+) cm²; seam allowance ([\d,.]+) mm/.exec(line!)!;
+      expectPrinted(m[1], p.areaMm2, "panelArea");
+      expectPrinted(m[2], p.seamAllowanceMm, "seamAllowance");
+    }
+    expect(fabrics).toHaveLength(1);
+    for (const f of fabrics) {
+      const s = f.simulation;
+      const at = lines.indexOf(f.name);
+      const block = lines.slice(at, at + 5).join("\n");
+      const grab = (re: RegExp) => re.exec(block)!;
+      expectPrinted(grab(/mass per area ([\d,.]+) g\/m²/)[1], s.massPerArea.value, "massPerArea");
+      expectPrinted(grab(/thickness ([\d,.]+) mm/)[1], s.thickness.value, "thickness");
+      const bending = grab(/bending stiffness warp ([\d,.]+) µN·m \(\w\), weft ([\d,.]+) µN·m/);
+      expectPrinted(bending[1], s.bendingStiffness.warp.value, "bendingStiffness");
+      expectPrinted(bending[2], s.bendingStiffness.weft.value, "bendingStiffness");
+      const stretch = grab(/stretch stiffness warp ([\d,.]+) N\/m \(\w\), weft ([\d,.]+) N\/m/);
+      expectPrinted(stretch[1], s.stretchStiffness.warp.value, "stretchStiffness");
+      expectPrinted(stretch[2], s.stretchStiffness.weft.value, "stretchStiffness");
+    }
+  });
+
+  it("holds one DXF per piece with cut and sew lines; Seamscene's reader and ezdxf read back the same pieces", async () => {
+    const id = await publishedV1();
+    const { files } = await download(vfx, id);
+    const panels = JSON.parse(files.get("panels.json")!.toString("utf8")).panels as Array<{ name: string; outline: [number, number][]; seamAllowanceMm: number; cutCount: number; areaMm2: number }>;
+    const dxfs = [...files.keys()].filter((p) => p.startsWith("dxf/")).sort();
+
+    expect(dxfs).toHaveLength(panels.length);
+    dxfs.forEach((p, i) => {
+      const back = readDxfPieces(files.get(p)!.toString("utf8"));
+      expect(back.pieces).toHaveLength(1);
+      expect(back.pieces[0]).toMatchObject({ name: panels[i].name, cutCount: panels[i].cutCount, seamAllowanceMm: panels[i].seamAllowanceMm, seamAllowanceFrom: "file" });
+      expect(back.pieces[0].outline).toEqual(panels[i].outline);
+      expect(back.pieces[0].cutLine).not.toBeNull();
+    });
+
+    // ezdxf (Debian's python3-ezdxf, installed by .ci/run) audits each file and measures its layers.
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), "seamscene-dxf-"));
+    const paths = dxfs.map((p, i) => {
+      const f = path.join(dir, `${i}.dxf`);
+      fs.writeFileSync(f, files.get(p)!);
+      return f;
+    });
+    const script = [
+      "import json, sys, ezdxf",
+      "from ezdxf.math import area",
+      "out = []",
+      "for path in sys.argv[1:]:",
+      "    doc = ezdxf.readfile(path)",
+      "    errors = len(doc.audit().errors)",
+      "    blocks = [b for b in doc.blocks if b.name.startswith('PIECE_')]",
+      "    b = blocks[0]",
+      "    polys = {e.dxf.layer: e for e in b if e.dxftype() == 'POLYLINE'}",
+      "    texts = [e.dxf.text for e in b if e.dxftype() == 'TEXT']",
+      "    out.append({'units': doc.header.get('$INSUNITS'), 'errors': errors, 'blocks': len(blocks), 'inserts': len(doc.modelspace().query('INSERT')),",
+      "                'sew': area([v.dxf.location for v in polys['14'].vertices]), 'cut': area([v.dxf.location for v in polys['1'].vertices]), 'texts': texts})",
+      "print(json.dumps(out))",
+    ].join("\n");
+    let seen: Array<{ units: number; errors: number; blocks: number; inserts: number; sew: number; cut: number; texts: string[] }>;
+    try {
+      seen = JSON.parse(execFileSync("/usr/bin/python3", ["-c", script, ...paths], { encoding: "utf8" }));
+    } catch (err) {
+      throw new Error(`reading the DXF files back with ezdxf failed (apt-get install python3-ezdxf): ${(err as Error).message}`);
+    } finally {
+      fs.rmSync(dir, { recursive: true, force: true });
+    }
+    seen.forEach((e, i) => {
+      expect(e).toMatchObject({ units: 4, errors: 0, blocks: 1, inserts: 1 });
+      expect(Math.abs(e.sew - panels[i].areaMm2)).toBeLessThan(1e-6 * panels[i].areaMm2);
+      expect(e.cut).toBeGreaterThan(e.sew);
+      expect(e.texts).toEqual(expect.arrayContaining([`Piece Name: ${panels[i].name}`, `Quantity: ${panels[i].cutCount}`]));
+    });
+  });
+
+  it("400 names panelIds when the chosen garments hold more than 200 panels; nothing written", async () => {
+    await Panel.bulkCreate(
+      Array.from({ length: 199 }, (_, i) => ({ productionId: production.id, garmentId: ids.garmentIds[1], name: `Scrap ${i}`, outline: [[0, 0], [50, 0], [50, 50]] as [number, number][], grainline: null, notches: [], seamAllowanceMm: 10, cutCount: 1, mirrored: false, grainMode: "straight" as const, fabricId: null, source: "drawn" as const, sortOrder: i + 10 })),
+    );
+
+    const res = await cutter.post(`${base()}/packets`, { changeId: ids.changeId, recipientUserIds: [vfxUser.id] });
+
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.panelIds).toMatch(/at most 200 panels; this choice has 202/);
+    expect(await Packet.count()).toBe(0);
+  });
+
+  it("reports publishing progress only while it runs", async () => {
+    const id = await publishedV1();
+    const after = await supervisor.get(`${base()}/packets/${id}/publish-progress`);
+    const recorder = progressRecorder(production.id, id, "packet_publish");
+
+    recorder.report({ stage: "zip", done: 3, total: 12 });
+    await recorder.flushed();
+    const during = await supervisor.get(`${base()}/packets/${id}/publish-progress`);
+    await recorder.finish();
+    const done = await supervisor.get(`${base()}/packets/${id}/publish-progress`);
+
+    expect(after.body.data).toBeNull();
+    expect(during.body.data).toMatchObject({ stage: "zip", done: 3, total: 12 });
+    expect(done.body.data).toBeNull();
   });
 });
 

@@ -31,6 +31,7 @@ const cases: MatrixCase[] = [
   { name: "edit a published packet", method: "patch", path: (c) => `${p(c)}/packets/${c.extra.packetId}`, body: () => ({}), expect: only(["supervisor", "cutter"], 409) },
   { name: "delete a draft", method: "delete", path: (c) => `${p(c)}/packets/${NONE}`, expect: only(["supervisor", "cutter"], 404) },
   { name: "publish", method: "post", path: (c) => `${p(c)}/packets/${c.extra.packetId}/publish`, expect: only(["supervisor"], 409) },
+  { name: "publishing progress", method: "get", path: (c) => `${p(c)}/packets/${c.extra.packetId}/publish-progress`, expect: only(["supervisor"], 200) },
   { name: "mark received", method: "post", path: (c) => `${p(c)}/packets/${c.extra.packetId}/received`, expect: only(["vfx"], 200) },
   { name: "download", method: "get", path: (c) => `${p(c)}/packets/${c.extra.packetId}/download`, expect: only(["supervisor", "cutter", "vfx"], 200) },
 ];

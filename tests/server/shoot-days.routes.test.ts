@@ -120,7 +120,7 @@ describe("shoot-day editor routes", () => {
       const res = await agent.post(`/api/productions/${pid}/shoot-days/${from.id}/move-scene`, { sceneId: s1.id, toShootDayId: to.id });
 
       expect(res.status).toBe(400);
-      expect(res.body.error.fields).toEqual({ sceneId: "is not on day 1" });
+      expect(res.body.error.fields).toEqual({ sceneId: "Scene is not on day 1" });
     });
 
     it("404 for a day of another production", async () => {

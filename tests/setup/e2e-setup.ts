@@ -47,7 +47,8 @@ export default async function setup(project: TestProject) {
   child.stdout?.on("data", (d) => (output += d));
   child.stderr?.on("data", (d) => (output += d));
   const baseUrl = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 110_000;
+  // Generous: on a loaded machine the first start also builds the client.
+  const deadline = Date.now() + 360_000;
   for (;;) {
     if (child.exitCode !== null) throw new Error(`The e2e server exited:\n${output}`);
     try {

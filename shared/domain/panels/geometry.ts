@@ -2,6 +2,11 @@
 // Frame: millimetres, y up. A polygon lists its vertices once (the closing edge from the last
 // vertex back to the first is implied); a positive signed area means counter-clockwise.
 
+import { findCrossings, type EdgeCrossing } from "./crossings";
+
+/** Most crossings listed for one outline; a badly crossed outline would otherwise list millions. */
+export const MAX_LISTED_CROSSINGS = 20;
+
 /** A point [x, y] in millimetres. */
 export type Point = readonly [number, number];
 /** A closed polygon given by its vertices, without repeating the first one at the end. */
@@ -258,15 +263,7 @@ export function runLength(
   return polylineLength(runPoints(poly, from, to, direction));
 }
 
-/** A pair of edges that cross (or overlap) each other. */
-export interface EdgeCrossing {
-  /** Lower edge index. */
-  edgeA: number;
-  /** Higher edge index. */
-  edgeB: number;
-  /** A point where they meet. */
-  point: Point;
-}
+export type { EdgeCrossing } from "./crossings";
 
 /** One problem found by {@link validatePolygon}. */
 export interface PolygonIssue {
@@ -311,9 +308,12 @@ export function segmentIntersection(a: Point, b: Point, c: Point, d: Point): Poi
   return null;
 }
 
+const round3 = (v: number) => Math.round(v * 1000) / 1000;
+
 /**
  * Checks a polygon: at least 3 finite points, closed, no zero-length edges, non-zero area and no
- * self-intersection; crossing edge pairs are listed.
+ * self-intersection; crossing edge pairs are listed, at most {@link MAX_LISTED_CROSSINGS} of them
+ * (sweep line, O(n log n)).
  * @param options.closed false when the source polyline was not marked closed (then last must equal first)
  */
 export function validatePolygon(points: readonly Point[], options: { closed?: boolean } = {}): PolygonValidation {
@@ -342,31 +342,12 @@ export function validatePolygon(points: readonly Point[], options: { closed?: bo
     }
   }
   if (signedArea(poly) === 0) issues.push({ code: "zero_area", message: "the outline encloses no area" });
-  for (let i = 0; i < n; i++) {
-    const a = poly[i];
-    const b = poly[(i + 1) % n];
-    for (let j = i + 1; j < n; j++) {
-      const c = poly[j];
-      const d = poly[(j + 1) % n];
-      const adjacentNext = j === i + 1;
-      const adjacentWrap = i === 0 && j === n - 1;
-      if (adjacentNext || adjacentWrap) {
-        // Neighbours share a vertex; they are faulty only when they fold back over each other.
-        const shared = adjacentNext ? b : a;
-        const p = adjacentNext ? a : b;
-        const q = adjacentNext ? d : c;
-        if (orient(p, shared, q) === 0 && (q[0] - shared[0]) * (p[0] - shared[0]) + (q[1] - shared[1]) * (p[1] - shared[1]) > 0) {
-          crossings.push({ edgeA: i, edgeB: j, point: shared });
-        }
-        continue;
-      }
-      const hit = segmentIntersection(a, b, c, d);
-      if (hit) crossings.push({ edgeA: i, edgeB: j, point: hit });
-    }
-  }
+  const found = findCrossings(poly, MAX_LISTED_CROSSINGS);
+  crossings.push(...found.crossings);
   for (const c of crossings) {
-    issues.push({ code: "self_intersection", message: `edges ${c.edgeA} and ${c.edgeB} cross at (${c.point[0]}, ${c.point[1]})` });
+    issues.push({ code: "self_intersection", message: `edges ${c.edgeA} and ${c.edgeB} cross at (${round3(c.point[0])}, ${round3(c.point[1])})` });
   }
+  if (found.truncated) issues.push({ code: "self_intersection", message: `the first ${MAX_LISTED_CROSSINGS} crossings are listed; there may be more` });
   return { valid: issues.length === 0, issues, crossings };
 }
 

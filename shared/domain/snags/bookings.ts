@@ -2,6 +2,7 @@
 // scene, and garments that are not available (workroom, cleaning, returned, lost) when needed.
 import type { GarmentRec, GarmentStatus, JsonValue, SnagDraft, SnapshotIndex } from "./types";
 import type { GroupPlan } from "./multiples";
+import { formatDate } from "../../format";
 
 const cmpStr = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
 
@@ -92,12 +93,12 @@ export function pinnedUses(ix: SnapshotIndex, keep?: (garmentId: string) => bool
   return out;
 }
 
-/** Plain label for a run: "on shoot day 2026-03-04" or "in the running order (every performance)". */
+/** Plain label for a run: "on shoot day Wed 4 Mar 2026" or "in the running order (every performance)". */
 export function runLabelOf(ix: SnapshotIndex, runId: string): string {
   const run = ix.runs.find((r) => r.id === runId);
-  if (run && run.isShootDay) return `on shoot day ${run.dates[0]}`;
+  if (run && run.isShootDay) return `on shoot day ${formatDate(run.dates[0]!)}`;
   const day = ix.snapshot.shootDays.find((d) => d.id === runId);
-  if (day) return `on shoot day ${day.date}`;
+  if (day) return `on shoot day ${formatDate(day.date)}`;
   return "in the running order (every performance)";
 }
 
@@ -111,7 +112,7 @@ export function doubleBookingSnags(ix: SnapshotIndex, uses: PinnedUse[] = pinned
     list.push(u);
   }
   const labels = new Map<string, string>();
-  for (const r of ix.runs) labels.set(r.id, r.isShootDay ? `on shoot day ${r.dates[0]}` : "in the running order (every performance)");
+  for (const r of ix.runs) labels.set(r.id, r.isShootDay ? `on shoot day ${formatDate(r.dates[0]!)}` : "in the running order (every performance)");
   const out: SnagDraft[] = [];
   for (const [garmentId, list] of byGarment) {
     const garment = ix.garmentsById.get(garmentId);
@@ -199,10 +200,10 @@ export function rentalSnag(g: GarmentRec, dates: string[]): SnagDraft | null {
     key: `rental:${g.id}`,
     kind: "rental",
     severity: "warning",
-    title: `Rental ${g.tagCode} ${g.name} due back ${g.rentalDueDate}, needed until ${last}`,
+    title: `Rental ${g.tagCode} ${g.name} due back ${formatDate(g.rentalDueDate)}, needed until ${formatDate(last)}`,
     explanation:
-      `${g.tagCode} ${g.name} is rented and due back on ${g.rentalDueDate}, but it is needed on ${after.length} ` +
-      `later day${after.length === 1 ? "" : "s"}, the last on ${last} (${late} day${late === 1 ? "" : "s"} after the due date). ` +
+      `${g.tagCode} ${g.name} is rented and due back on ${formatDate(g.rentalDueDate)}, but it is needed on ${after.length} ` +
+      `later day${after.length === 1 ? "" : "s"}, the last on ${formatDate(last)} (${late} day${late === 1 ? "" : "s"} after the due date). ` +
       `Extend the rental, buy it out or plan a replacement.`,
     subject: { garmentId: g.id },
     evidence: { dueDate: g.rentalDueDate, lastNeeded: last, daysLate: late, datesAfterDue: after },

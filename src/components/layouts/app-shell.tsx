@@ -6,6 +6,7 @@ import { useCurrentProduction } from "@/hooks/use-current-production";
 import { paths } from "@/config/paths";
 import { cn } from "@/utils/cn";
 import { Spinner, ErrorAlert } from "@/components/ui/feedback";
+import { ProductionSwitcher } from "./production-switcher";
 
 /** Header with production switcher and account, navigation built from the permission table. */
 export function AppShell() {
@@ -19,6 +20,9 @@ export function AppShell() {
 
   return (
     <div className="min-h-dvh">
+      <a href="#main-content" className="sr-only rounded-md bg-chalk px-4 py-2 font-semibold text-ink shadow focus:not-sr-only focus:fixed focus:top-2 focus:left-2 focus:z-50">
+        Skip to content
+      </a>
       <header className="sticky top-0 z-20 bg-ink text-chalk shadow">
         <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-3 px-3 py-2 sm:px-5">
           <button
@@ -32,25 +36,12 @@ export function AppShell() {
             <span aria-hidden>☰</span>
           </button>
           <span className="font-bold tracking-wide">Seamscene</span>
-          <label className="sr-only" htmlFor="production-switcher">
-            Production
-          </label>
-          <select
-            id="production-switcher"
-            className="max-w-[14rem] rounded-md border border-chalk/30 bg-ink-700 px-2 py-1 text-sm text-chalk focus:outline-none"
-            value={productionId}
-            onChange={(e) => {
-              if (e.target.value === "__new") navigate(paths.productions.new.getHref());
-              else navigate(paths.production.root.getHref(e.target.value));
-            }}
-          >
-            {me.data?.memberships.map((m) => (
-              <option key={m.productionId} value={m.productionId}>
-                {m.title}
-              </option>
-            ))}
-            <option value="__new">+ New production…</option>
-          </select>
+          <ProductionSwitcher
+            productionId={productionId}
+            productions={me.data?.memberships ?? []}
+            onOpen={(id) => navigate(paths.production.root.getHref(id))}
+            onNew={() => navigate(paths.productions.new.getHref())}
+          />
           <div className="ml-auto flex items-center gap-3 text-sm">
             <span className="hidden sm:inline">
               {me.data?.name}
@@ -78,7 +69,7 @@ export function AppShell() {
             ))}
           </ul>
         </nav>
-        <main className="min-w-0 flex-1">
+        <main id="main-content" tabIndex={-1} className="min-w-0 flex-1 outline-none">
           {query.isPending ? <Spinner /> : query.error ? <ErrorAlert error={query.error} title="Cannot open this production" /> : production ? <Outlet /> : null}
         </main>
       </div>

@@ -174,7 +174,7 @@ export function OwnerPhotos({ productionId, ownerType, ownerId, canEdit, title =
   };
   return (
     <section aria-label={title} className="grid gap-2">
-      <h3 className="text-sm font-semibold text-ink">{title}</h3>
+      <h2 className="text-sm font-semibold text-ink">{title}</h2>
       {photos.isPending ? <Spinner /> : photos.error ? <ErrorAlert error={photos.error} /> : <PhotoStrip photos={photos.data} onDelete={canEdit ? setDeleting : undefined} />}
       {del.error && <ErrorAlert error={del.error} title="Photo not deleted" />}
       <ConfirmDialog

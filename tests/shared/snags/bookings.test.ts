@@ -49,7 +49,7 @@ describe("double booking", () => {
   it("one garment on two characters the same shoot day → blocking", () => {
     const snags = of(snap([app("a1", "s1", "c1", "x1"), app("a2", "s2", "c2", "x2")], [garment("cloak")], items), "booking");
     expect(snags.map((s) => [s.key, s.severity])).toEqual([["booking:cloak:d1", "blocking"]]);
-    expect(snags[0].explanation).toContain("Ada (scene 1) and Bram (scene 2) on shoot day 2027-03-01");
+    expect(snags[0].explanation).toContain("Ada (scene 1) and Bram (scene 2) on shoot day Mon 1 Mar 2027");
   });
   it("different days, or the same character twice, is fine", () => {
     expect(of(snap([app("a1", "s1", "c1", "x1"), app("a2", "s3", "c2", "x2")], [garment("cloak")], items), "booking")).toEqual([]);

@@ -16,6 +16,8 @@ import { ShootDayEditor } from "@/features/breakdown/components/shoot-day-editor
 import { SnagsForDay } from "@/features/snags/components/snags-for-day";
 import { ApiError } from "@/lib/api-client";
 import { cn } from "@/utils/cn";
+import { formatClockTime, formatDate } from "@shared/format";
+import { onTabListKeyDown } from "@/components/ui/tabs";
 
 /** Breakdown screen: the scene table, shoot days (or running order and performances), import/export, scene pages. */
 export default function BreakdownScreen() {
@@ -43,7 +45,7 @@ function BreakdownHome() {
   return (
     <div className="grid gap-4">
       <PageHeader title="Breakdown" subtitle={stage ? "The order of the show, running times and performances" : "Scenes, story days and shoot days"} />
-      <div role="tablist" aria-label="Breakdown views" className="flex gap-1">
+      <div role="tablist" aria-label="Breakdown views" onKeyDown={onTabListKeyDown} className="flex gap-1">
         {tabs.map((t) => (
           <button key={t.key} role="tab" type="button" aria-selected={tab === t.key} onClick={() => setTab(t.key)} className={cn("min-h-11 rounded-md px-3 text-sm font-semibold", tab === t.key ? "bg-ink text-chalk" : "bg-white text-ink")}>
             {t.label}

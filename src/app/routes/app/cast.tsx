@@ -11,6 +11,7 @@ import { ApiError } from "@/lib/api-client";
 import { useCharacterSchedule, useCharacters, useCreateCharacter, useCreatePerformer, usePerformers, useUpdatePerformer } from "@/features/breakdown/api/breakdown";
 import { StateBadges } from "@/features/breakdown/components/scene-page";
 import type { CharacterSceneDto } from "@shared/schemas/cast";
+import { formatDate } from "@shared/format";
 
 /** Cast screen: characters with performers and doubles, performer records, character pages. */
 export default function CastScreen() {
@@ -138,7 +139,7 @@ function SceneList({ rows, productionId, showDay, label }: { rows: Array<Charact
       <tbody>
         {rows.map((r, i) => (
           <tr key={`${r.appearanceId}-${i}`} className="border-b border-chalk-100">
-            {showDay && <td className="py-1 pr-2">{r.shootDay ? `Day ${r.shootDay.dayNumber} · ${r.shootDay.date}` : ""}</td>}
+            {showDay && <td className="py-1 pr-2">{r.shootDay ? `Day ${r.shootDay.dayNumber} · ${formatDate(r.shootDay.date)}` : ""}</td>}
             <td className="py-1 pr-2"><Link to={`/p/${productionId}/breakdown/scenes/${r.sceneId}`}>{r.sceneNumber}</Link></td>
             <td className="pr-2">{r.storyDay ?? "—"}</td>
             <td className="pr-2">{r.change ? r.change.number : "—"}</td>

@@ -3,6 +3,7 @@ import { Link, Route, Routes, useParams } from "react-router";
 import type { ContinuityTimelineDto } from "@shared/schemas/continuity";
 import type { PhotoView } from "@shared/schemas/photos";
 import { useCurrentProduction } from "@/hooks/use-current-production";
+import { formatClockTime, formatDate } from "@shared/format";
 import { PageHeader } from "@/components/ui/page";
 import { Card } from "@/components/ui/card";
 import { Button } from "@/components/ui/button";
@@ -36,10 +37,10 @@ function ContinuityHome() {
 
   // Default to today's shoot day, else the next one, else the last.
   useEffect(() => {
-    if (dayId || !days.data?.length) return;
+    if (dayId || !days.data?.length || !today) return;
     const pick = days.data.find((d) => d.date === today) ?? days.data.find((d) => d.date > today) ?? days.data[days.data.length - 1]!;
     setDayId(pick.id);
-  }, [days.data, dayId]);
+  }, [days.data, dayId, today]);
   const day = days.data?.find((d) => d.id === dayId);
 
   return (
@@ -56,8 +57,8 @@ function ContinuityHome() {
               {days.data.map((d) => (
                 <option key={d.id} value={d.id}>
                   {d.date === today ? "Today · " : ""}
-                  {d.kind === "performance" ? `Performance ${d.dayNumber}` : `Day ${d.dayNumber}`} · {d.date}
-                  {d.startsAt ? ` ${d.startsAt}` : ""}
+                  {d.kind === "performance" ? `Performance ${d.dayNumber}` : `Day ${d.dayNumber}`} · {formatDate(d.date)}
+                  {d.startsAt ? ` ${formatClockTime(d.startsAt)}` : ""}
                 </option>
               ))}
             </SelectField>

@@ -17,6 +17,8 @@ import { PacketBuilder } from "@/features/doubles/components/packet-builder";
 import { PacketDetail } from "@/features/doubles/components/packet-detail";
 import { VfxPackets } from "@/features/doubles/components/vfx-packets";
 import { ArtistPacketView } from "@/features/doubles/components/artist-packet";
+import { useProductionTime } from "@/hooks/use-production-time";
+import { onTabListKeyDown } from "@/components/ui/tabs";
 
 const tabs = [
   { key: "panels", label: "Panels" },
@@ -47,7 +49,7 @@ function DoublesWorkspace() {
             <option key={c.id} value={c.id}>{c.characterName}: change {c.number}{c.description ? ` (${c.description.slice(0, 40)})` : ""}</option>
           ))}
         </SelectField>
-        <div role="tablist" aria-label="Doubles sections" className="flex flex-wrap gap-2">
+        <div role="tablist" aria-label="Doubles sections" onKeyDown={onTabListKeyDown} className="flex flex-wrap gap-2">
           {tabs.map((t) => (
             <Button key={t.key} role="tab" aria-selected={tab === t.key} variant={tab === t.key ? "primary" : "secondary"} onClick={() => set("tab", t.key)}>
               {t.label}
@@ -68,6 +70,7 @@ function DoublesWorkspace() {
 function PacketPage() {
   const { packetId = "" } = useParams();
   const { productionId, can, role } = useCurrentProduction();
+  const { dateTime } = useProductionTime();
   const q = usePacket(productionId, packetId);
   const received = useMarkReceived(productionId);
   const [justPublished, setJustPublished] = useState(false);
@@ -80,7 +83,7 @@ function PacketPage() {
     <div className="grid gap-4">
       <PageHeader
         title={`${p.characterName}, change ${p.changeNumber}: ${p.status === "draft" ? "draft packet" : `version ${p.version}`}`}
-        subtitle={p.publishedAt ? `Published ${new Date(p.publishedAt).toLocaleString()} by ${p.publishedByName ?? ""}` : "Not published yet"}
+        subtitle={p.publishedAt ? `Published ${dateTime(p.publishedAt)} by ${p.publishedByName ?? ""}` : "Not published yet"}
         actions={<Link className="text-sm text-ink underline" to={role === "vfx" ? `/p/${productionId}/doubles` : `/p/${productionId}/doubles?change=${p.changeId}&tab=packets`}>Back</Link>}
       />
       {justPublished && <p role="status" className="rounded bg-ink-50 px-3 py-2 text-sm text-ink">Published as version {p.version}; the recipients were e-mailed.</p>}
@@ -94,7 +97,7 @@ function PacketPage() {
         {role === "vfx" && p.status === "published" && (
           <div className="mt-4">
             {mine?.receivedAt ? (
-              <p className="text-sm text-ink">You marked this version received on {new Date(mine.receivedAt).toLocaleString()}.</p>
+              <p className="text-sm text-ink">You marked this version received on {dateTime(mine.receivedAt)}.</p>
             ) : (
               <Button size="lg" busy={received.isPending} onClick={() => received.mutate(p.id)}>Mark received</Button>
             )}

@@ -1,5 +1,6 @@
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-errors";
 import { useNavigate } from "react-router";
 import { z } from "zod";
 import { createProductionInputSchema, productionKinds } from "@shared/schemas/productions";
@@ -15,7 +16,7 @@ type FormValues = z.input<typeof createProductionInputSchema>;
 export default function NewProductionPage() {
   const navigate = useNavigate();
   const create = useCreateProduction();
-  const form = useForm<FormValues>({ resolver: zodResolver(createProductionInputSchema), defaultValues: { title: "", kind: "film", units: "cm", startsOn: null, endsOn: null } });
+  const form = useForm<FormValues>({ resolver: formResolver(zodResolver(createProductionInputSchema)), defaultValues: { title: "", kind: "film", units: "cm", startsOn: null, endsOn: null } });
   const onSubmit = form.handleSubmit((v) =>
     create.mutate(createProductionInputSchema.parse({ ...v, startsOn: v.startsOn || null, endsOn: v.endsOn || null }), { onSuccess: (p) => navigate(paths.production.screen.getHref(p.id, "team")) }),
   );

@@ -6,6 +6,7 @@ import { MEASUREMENT_KEYS, MEASUREMENT_LABELS } from "@shared/domain/plausibilit
 import { formatLength } from "@shared/domain/units";
 import { usePerformerMeasurements } from "@/features/measurements/api/measurements";
 import { SizesPanel } from "@/features/measurements/components/measurement-history";
+import { formatDate, formatNumber } from "@shared/format";
 
 // Only the sheet prints: everything else on the page is hidden in print.
 const PRINT_CSS = `@media print {
@@ -41,7 +42,7 @@ export default function PerformerMeasurementSheet() {
           <h1 className="text-2xl font-bold">{d.performer.name}</h1>
           {current ? (
             <p className="text-sm">
-              Taken {current.takenOn} by {current.takenByName ?? "—"}
+              Taken {formatDate(current.takenOn)} by {current.takenByName ?? "—"}
               {current.notes ? ` · ${current.notes}` : ""}
             </p>
           ) : (
@@ -64,7 +65,7 @@ export default function PerformerMeasurementSheet() {
                   <td className="py-1">{cap(MEASUREMENT_LABELS[k])}</td>
                   <td className="py-1">{formatLength(current.valuesMm[k]!, "cm")}</td>
                   <td className="py-1">{formatLength(current.valuesMm[k]!, "in")}</td>
-                  <td className="py-1 text-slate">{Math.round(current.valuesMm[k]! * 10) / 10}</td>
+                  <td className="py-1 text-slate">{formatNumber(current.valuesMm[k]!, 1)}</td>
                 </tr>
               ))}
             </tbody>

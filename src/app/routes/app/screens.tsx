@@ -18,6 +18,7 @@ export const screenComponents: Partial<Record<ScreenKey, LazyExoticComponent<Com
   workroom: lazy(() => import("./workroom")),
   snags: lazy(() => import("./snags")),
   doubles: lazy(() => import("./doubles")),
+  reports: lazy(() => import("./reports")),
 };
 
 /**

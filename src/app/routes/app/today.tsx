@@ -1,14 +1,13 @@
 import { Link } from "react-router";
-import { format, parseISO } from "date-fns";
+import { calendarDateIn, formatClockTime, formatDate as nice } from "@shared/format";
 import { useCurrentProduction } from "@/hooks/use-current-production";
+import { useProductionTime } from "@/hooks/use-production-time";
 import { PageHeader } from "@/components/ui/page";
 import { Card } from "@/components/ui/card";
 import { Badge, EmptyState, ErrorAlert, Spinner } from "@/components/ui/feedback";
 import { SnagsForDay } from "@/features/snags/components/snags-for-day";
 import { useShootDays } from "@/features/breakdown/api/breakdown";
 import { useFittings, useWorkroomPlan } from "@/features/workroom/api/workroom";
-
-const nice = (iso: string) => format(parseISO(iso), "EEE d MMM yyyy");
 
 /** The next shoot day (or performance) with its scenes. */
 function NextDay({ productionId, stage, today }: { productionId: string; stage: boolean; today: string }) {
@@ -22,7 +21,7 @@ function NextDay({ productionId, stage, today }: { productionId: string; stage: 
     <div>
       <p className="font-semibold text-ink-900">
         {next.date === today ? "Today" : nice(next.date)} · {stage ? "performance" : `shoot day ${next.dayNumber}`}
-        {next.startsAt ? ` · ${next.startsAt.slice(0, 5)}` : ""}
+        {next.startsAt ? ` · ${formatClockTime(next.startsAt)}` : ""}
       </p>
       {next.notes && <p className="text-sm text-slate">{next.notes}</p>}
       <ul className="mt-2 divide-y divide-chalk-200 text-sm" aria-label="Scenes of the next day">
@@ -45,9 +44,10 @@ function NextDay({ productionId, stage, today }: { productionId: string; stage: 
 /** Fittings from today on (the next few). */
 function UpcomingFittings({ productionId, today }: { productionId: string; today: string }) {
   const fittings = useFittings(productionId);
+  const { timeZone, dateTime } = useProductionTime();
   if (fittings.isPending) return <Spinner />;
   if (fittings.error) return <ErrorAlert error={fittings.error} />;
-  const next = fittings.data.filter((f) => f.status === "booked" && f.startsAt.slice(0, 10) >= today).sort((a, b) => a.startsAt.localeCompare(b.startsAt)).slice(0, 5);
+  const next = fittings.data.filter((f) => f.status === "booked" && calendarDateIn(f.startsAt, timeZone) >= today).sort((a, b) => a.startsAt.localeCompare(b.startsAt)).slice(0, 5);
   if (!next.length) return <p className="text-sm text-slate">No fittings booked from today on.</p>;
   return (
     <ul className="divide-y divide-chalk-200 text-sm" aria-label="Upcoming fittings">
@@ -57,7 +57,7 @@ function UpcomingFittings({ productionId, today }: { productionId: string; today
             {f.performerName}
           </Link>{" "}
           <span className="text-slate">
-            · {format(new Date(f.startsAt), "EEE d MMM, HH:mm")} · {f.room ?? "room not set"}
+            · {dateTime(f.startsAt)} · {f.room ?? "room not set"}
             {f.changeLabel ? ` · ${f.changeLabel}` : ""}
           </span>
         </li>
@@ -98,12 +98,17 @@ export default function TodayPage() {
   const stage = production.kind === "stage";
   return (
     <div className="grid gap-4">
-      <PageHeader title="Today" subtitle={`${production.title} · ${nice(today)}`} />
+      <PageHeader title="Today" subtitle={`${production.title} · ${nice(production.today)}`} />
       <div className="grid gap-4 lg:grid-cols-2">
         {can("breakdown.read") && (
           <Card>
             <h2 className="mb-2 font-semibold text-ink">{stage ? "Next performance" : "Next shoot day"}</h2>
             <NextDay productionId={productionId} stage={stage} today={today} />
+            {can("report.rack") && (
+              <Link to={`/p/${productionId}/reports/rack`} className="mt-3 inline-flex min-h-11 items-center rounded-md border border-ink-100 bg-white px-3 text-sm font-semibold text-ink hover:bg-ink-50">
+                {stage ? "Rack list for the next performance" : "Tomorrow's rack list"}
+              </Link>
+            )}
           </Card>
         )}
         {can("snag.read") && <SnagsForDay productionId={productionId} />}

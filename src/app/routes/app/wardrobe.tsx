@@ -1,5 +1,6 @@
 import { useState } from "react";
-import { Link, Route, Routes, useNavigate, useParams } from "react-router";
+import { Link, Route, Routes, useNavigate, useParams, useSearchParams } from "react-router";
+import { garmentStatuses, type GarmentStatus } from "@shared/schemas/garments";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { PageHeader } from "@/components/ui/page";
 import { Card } from "@/components/ui/card";
@@ -134,10 +135,14 @@ function TagSheetPage() {
 
 function ScanPage() {
   const { productionId } = useCurrentProduction();
+  // A rack-list QR code opens this page with ?tag=…&to=on_set.
+  const [params] = useSearchParams();
+  const to = params.get("to");
+  const initialStatus = (garmentStatuses as readonly string[]).includes(to ?? "") ? (to as GarmentStatus) : undefined;
   return (
     <div>
       <PageHeader title="Check in / out" subtitle={<Link to=".." relative="path" className="underline">Back to the wardrobe</Link>} />
-      <CheckInOut productionId={productionId} />
+      <CheckInOut key={params.toString()} productionId={productionId} initialTag={params.get("tag")?.slice(0, 20) || undefined} initialStatus={initialStatus} />
     </div>
   );
 }

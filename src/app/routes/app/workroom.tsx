@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { Route, Routes, useParams, useSearchParams } from "react-router";
-import { format, parseISO, isValid } from "date-fns";
+import { parseISO, isValid } from "date-fns";
+import { isoDateOf } from "@shared/format";
 import type { View } from "react-big-calendar";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { PageHeader } from "@/components/ui/page";
@@ -16,6 +17,7 @@ import { TicketsTable } from "@/features/workroom/components/tickets-table";
 import { CapacityEditor } from "@/features/workroom/components/capacity-editor";
 import { WorkroomCalendar } from "@/features/workroom/components/workroom-calendar";
 import { EmailFailures } from "@/features/workroom/components/email-failures";
+import { onTabListKeyDown } from "@/components/ui/tabs";
 
 const TABS = [
   { key: "fittings", label: "Fittings" },
@@ -31,7 +33,8 @@ function Overview() {
   const tab = (TABS.some((t) => t.key === params.get("tab")) ? params.get("tab") : "fittings") as Tab;
   const from = params.get("from") ?? undefined;
   const dateParam = params.get("date");
-  const calDate = dateParam && isValid(parseISO(dateParam)) ? parseISO(dateParam) : today ? parseISO(today) : new Date();
+  // The calendar opens on the production's today (from the server's clock), never the browser's.
+  const calDate = dateParam && isValid(parseISO(dateParam)) ? parseISO(dateParam) : today ? parseISO(today) : null;
   const calView = (["month", "week", "day"].includes(params.get("view") ?? "") ? params.get("view") : "week") as View;
   const [booking, setBooking] = useState(false);
   const plan = useWorkroomPlan(productionId, from);
@@ -81,20 +84,21 @@ function Overview() {
         </Card>
       )}
 
-      <nav aria-label="Workroom sections" className="flex flex-wrap gap-1 border-b border-chalk-200">
+      <div role="tablist" aria-label="Workroom sections" onKeyDown={onTabListKeyDown} className="flex flex-wrap gap-1 border-b border-chalk-200">
         {TABS.map((t) => (
           <button
             key={t.key}
             type="button"
             role="tab"
             aria-selected={tab === t.key}
+            tabIndex={tab === t.key ? 0 : -1}
             onClick={() => setParam({ tab: t.key })}
             className={cn("min-h-11 rounded-t-md px-4 text-sm font-semibold", tab === t.key ? "bg-white text-ink border border-b-0 border-chalk-200" : "text-slate hover:text-ink")}
           >
             {t.label}
           </button>
         ))}
-      </nav>
+      </div>
 
       {tab === "fittings" && <Card>{fittings.isPending ? <Spinner /> : fittings.error ? <ErrorAlert error={fittings.error} /> : <FittingsList productionId={productionId} fittings={fittings.data} />}</Card>}
 
@@ -119,7 +123,7 @@ function Overview() {
       )}
 
       {tab === "calendar" &&
-        (plan.isPending || fittings.isPending ? (
+        (plan.isPending || fittings.isPending || !calDate || !production ? (
           <Spinner />
         ) : plan.error || fittings.error ? (
           <ErrorAlert error={plan.error ?? fittings.error} />
@@ -131,7 +135,9 @@ function Overview() {
             canMoveFittings={can("fitting.update")}
             date={calDate}
             view={calView}
-            onNavigate={(d, v) => setParam({ date: format(d, "yyyy-MM-dd"), view: v })}
+            timeZone={production.timeZone}
+            today={production.today}
+            onNavigate={(d, v) => setParam({ date: isoDateOf(d), view: v })}
           />
         ))}
 

@@ -1,5 +1,6 @@
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-errors";
 import { Link } from "react-router";
 import { requestPasswordResetInputSchema, type RequestPasswordResetInput } from "@shared/schemas/auth";
 import { useRequestPasswordReset } from "@/features/auth/api/auth";
@@ -11,7 +12,7 @@ import { paths } from "@/config/paths";
 
 export default function ForgotPasswordPage() {
   const reset = useRequestPasswordReset();
-  const form = useForm<RequestPasswordResetInput>({ resolver: zodResolver(requestPasswordResetInputSchema), defaultValues: { email: "" } });
+  const form = useForm<RequestPasswordResetInput>({ resolver: formResolver(zodResolver(requestPasswordResetInputSchema)), defaultValues: { email: "" } });
   return (
     <AuthLayout title="Reset your password">
       {reset.isSuccess ? (

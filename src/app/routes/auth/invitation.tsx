@@ -1,5 +1,6 @@
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-errors";
 import { z } from "zod";
 import { useQuery } from "@tanstack/react-query";
 import { Link, useNavigate, useParams } from "react-router";
@@ -20,7 +21,7 @@ export default function InvitationPage() {
   const me = useMe();
   const preview = useQuery(invitationQueryOptions(token));
   const accept = useAcceptInvitation();
-  const form = useForm<z.infer<typeof schema>>({ resolver: zodResolver(schema), defaultValues: { name: "", password: "" } });
+  const form = useForm<z.infer<typeof schema>>({ resolver: formResolver(zodResolver(schema)), defaultValues: { name: "", password: "" } });
   const go = (productionId: string) => navigate(paths.production.root.getHref(productionId), { replace: true });
 
   if (preview.isPending) return <AuthLayout title="Invitation"><Spinner /></AuthLayout>;

@@ -1,5 +1,6 @@
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-errors";
 import { Link, Navigate, useNavigate, useSearchParams } from "react-router";
 import { loginInputSchema, type LoginInput } from "@shared/schemas/auth";
 import { useLogin, useMe } from "@/features/auth/api/auth";
@@ -15,7 +16,7 @@ export default function LoginPage() {
   const navigate = useNavigate();
   const me = useMe();
   const login = useLogin();
-  const form = useForm<LoginInput>({ resolver: zodResolver(loginInputSchema), defaultValues: { email: "", password: "" } });
+  const form = useForm<LoginInput>({ resolver: formResolver(zodResolver(loginInputSchema)), defaultValues: { email: "", password: "" } });
   if (me.data) return <Navigate to={redirectTo?.startsWith("/") ? redirectTo : "/"} replace />;
   const onSubmit = form.handleSubmit((v) => login.mutate(v, { onSuccess: () => navigate(redirectTo?.startsWith("/") ? redirectTo : "/", { replace: true }) }));
   return (

@@ -1,5 +1,6 @@
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-errors";
 import { z } from "zod";
 import { useNavigate, useParams } from "react-router";
 import { passwordSchema } from "@shared/schemas/auth";
@@ -15,7 +16,7 @@ export default function ResetPasswordPage() {
   const { token = "" } = useParams();
   const navigate = useNavigate();
   const reset = useResetPassword();
-  const form = useForm<z.infer<typeof schema>>({ resolver: zodResolver(schema), defaultValues: { password: "", confirm: "" } });
+  const form = useForm<z.infer<typeof schema>>({ resolver: formResolver(zodResolver(schema)), defaultValues: { password: "", confirm: "" } });
   return (
     <AuthLayout title="Choose a new password">
       <form onSubmit={form.handleSubmit((v) => reset.mutate({ token, password: v.password }, { onSuccess: () => navigate("/", { replace: true }) }))} noValidate className="grid gap-4">

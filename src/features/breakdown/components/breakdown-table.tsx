@@ -19,6 +19,7 @@ import { compareSceneNumbers, formatEighths } from "@shared/domain/breakdown";
 import { controlClass } from "@/components/ui/field";
 import { cn } from "@/utils/cn";
 import { SortHeader } from "@/components/ui/table";
+import { formatDate } from "@shared/format";
 
 const col = createColumnHelper<SceneRowDto>();
 
@@ -109,7 +110,7 @@ export function BreakdownTable({ scenes, shootDays, characters, stage, sceneHref
             <option value="">All</option>
             {shootDays.filter((d) => d.kind === "shoot").map((d) => (
               <option key={d.id} value={d.id}>
-                Day {d.dayNumber} · {d.date}
+                Day {d.dayNumber} · {formatDate(d.date)}
               </option>
             ))}
           </select>

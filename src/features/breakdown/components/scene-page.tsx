@@ -10,6 +10,7 @@ import { ConfirmDialog } from "@/components/ui/dialog";
 import { controlClass } from "@/components/ui/field";
 import { PhotoStrip } from "@/components/photos";
 import { useContinuityEntries, useCreateAppearance, useDeleteAppearance, useUpdateAppearance } from "../api/breakdown";
+import { formatDate } from "@shared/format";
 
 type App = SceneDetailDto["appearances"][number];
 
@@ -43,7 +44,7 @@ export function ScenePage({ productionId, scene, characters, changes, canEdit, s
         <div><dt className="text-slate">Set</dt><dd>{scene.setName ?? "—"} {scene.intExt ? `(${scene.intExt})` : ""}</dd></div>
         <div><dt className="text-slate">Time · story day</dt><dd>{scene.timeOfDay ?? "—"} · {scene.storyDay ?? "—"}</dd></div>
         <div><dt className="text-slate">{stage ? "Running time" : "Length"}</dt><dd>{stage ? `${scene.runningMinutes ?? "?"} min` : scene.lengthEighths != null ? `${formatEighths(scene.lengthEighths)} pages` : "—"}</dd></div>
-        <div><dt className="text-slate">{stage ? "Running order" : "Shoot days"}</dt><dd>{stage ? scene.storyOrder : scene.shootDays.map((d) => `Day ${d.dayNumber} (${d.date})`).join(", ") || "not scheduled"}</dd></div>
+        <div><dt className="text-slate">{stage ? "Running order" : "Shoot days"}</dt><dd>{stage ? scene.storyOrder : scene.shootDays.map((d) => `Day ${d.dayNumber} (${formatDate(d.date)})`).join(", ") || "not scheduled"}</dd></div>
       </dl>
       {scene.synopsis && <p className="text-sm text-ink-900">{scene.synopsis}</p>}
       {risky && <SafetyNote>This scene has wet, stunt or blood work: check fabric and fastenings with the stunt coordinator, keep dry changes and warm layers ready, and use only approved stage blood on approved fabrics.</SafetyNote>}

@@ -12,7 +12,8 @@ import type {
   SeamDto,
   UpdatePanelInput,
 } from "@shared/schemas/doubles";
-import type { DxfParseResult } from "@shared/domain/panels/dxf";
+import type { DxfImport } from "@shared/domain/panels/dxf";
+import type { DxfUnit } from "@shared/domain/panels/dxf-units";
 
 const base = (pid: string) => `/productions/${pid}`;
 
@@ -67,27 +68,33 @@ export function useDeletePanel(pid: string) {
   return useMutation({ mutationFn: (id: string) => api.delete(`${base(pid)}/panels/${id}`), onSuccess: invalidate });
 }
 
+/** What the DXF preview and import send besides the file. */
+export interface DxfReadChoices {
+  file: File;
+  /** Units to read the drawing in; "" = what the file says. */
+  units: DxfUnit | "";
+  /** Seam allowance for pieces without a cut line in the file, mm. */
+  seamAllowanceMm: number;
+}
+
+function dxfForm(p: DxfReadChoices, extra: Record<string, string> = {}): FormData {
+  const form = new FormData();
+  form.append("units", p.units);
+  form.append("seamAllowanceMm", String(p.seamAllowanceMm));
+  for (const [k, v] of Object.entries(extra)) form.append(k, v);
+  form.append("file", p.file);
+  return form;
+}
+
 export function useDxfPreview(pid: string) {
-  return useMutation({
-    mutationFn: (file: File) => {
-      const form = new FormData();
-      form.append("file", file);
-      return api.upload<DxfParseResult>(`${base(pid)}/panels/dxf-preview`, form);
-    },
-  });
+  return useMutation({ mutationFn: (p: DxfReadChoices) => api.upload<DxfImport>(`${base(pid)}/panels/dxf-preview`, dxfForm(p)) });
 }
 
 export function useDxfImport(pid: string) {
   const invalidate = useInvalidateDoubles(pid);
   return useMutation({
-    mutationFn: (p: { file: File; garmentId: string; seamAllowanceMm: number; fabricId: string }) => {
-      const form = new FormData();
-      form.append("garmentId", p.garmentId);
-      form.append("seamAllowanceMm", String(p.seamAllowanceMm));
-      form.append("fabricId", p.fabricId);
-      form.append("file", p.file);
-      return api.upload<{ panels: PanelDto[]; warnings: string[] }>(`${base(pid)}/panels/dxf-import`, form);
-    },
+    mutationFn: (p: DxfReadChoices & { garmentId: string; fabricId: string }) =>
+      api.upload<{ panels: PanelDto[]; warnings: string[]; skipped: string[] }>(`${base(pid)}/panels/dxf-import`, dxfForm(p, { garmentId: p.garmentId, fabricId: p.fabricId })),
     onSuccess: invalidate,
   });
 }

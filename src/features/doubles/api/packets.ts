@@ -49,6 +49,21 @@ export function usePublishPacket(pid: string, onPublished?: (p: PacketDetailDto)
   });
 }
 
+/** How far a running publication is (files built, ZIP entries written); polled while publishing. */
+export interface PublishProgress {
+  stage: string;
+  done: number;
+  total: number;
+  updatedAt: string;
+}
+export const usePublishProgress = (pid: string, id: string, running: boolean) =>
+  useQuery({
+    queryKey: ["packets", pid, "publish-progress", id],
+    queryFn: () => api.get<PublishProgress | null>(`${base(pid)}/${id}/publish-progress`),
+    enabled: running,
+    refetchInterval: running ? 700 : false,
+  });
+
 export function useMarkReceived(pid: string) {
   const invalidate = useInvalidatePackets(pid);
   return useMutation({ mutationFn: (id: string) => api.post<PacketDetailDto>(`${base(pid)}/${id}/received`), onSuccess: invalidate });

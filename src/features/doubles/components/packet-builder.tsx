@@ -6,7 +6,7 @@ import { MESH_EDGE_RANGE_MM } from "@shared/domain/panels/mesh";
 import { ErrorAlert, Spinner } from "@/components/ui/feedback";
 import { ConfirmDialog } from "@/components/ui/dialog";
 import { ApiError } from "@/lib/api-client";
-import { useDeletePacket, usePacketOptions, usePublishPacket, useUpdatePacket } from "../api/packets";
+import { useDeletePacket, usePacketOptions, usePublishPacket, usePublishProgress, useUpdatePacket, type PublishProgress } from "../api/packets";
 
 function toggle(list: string[], id: string, on: boolean): string[] {
   return on ? [...new Set([...list, id])] : list.filter((x) => x !== id);
@@ -22,6 +22,14 @@ function Group({ title, children, error }: { title: string; children: ReactNode;
   );
 }
 
+/** Plain words for how far publishing is. */
+function describeProgress(p: PublishProgress | null): string {
+  if (!p) return "Publishing…";
+  if (p.stage === "files") return `Building the files: ${p.done} of ${p.total} groups done…`;
+  if (p.stage === "zip") return `Writing the ZIP: ${p.done} of ${p.total} files…`;
+  return "Taking the snapshot…";
+}
+
 /** Choose what goes in a draft; save; publish (supervisor) as the next immutable version. */
 export function PacketBuilder({ productionId, packet, canPublish, onPublished }: { productionId: string; packet: PacketDetailDto; canPublish: boolean; onPublished: (p: PacketDetailDto) => void }) {
   const options = usePacketOptions(productionId, packet.changeId);
@@ -30,6 +38,7 @@ export function PacketBuilder({ productionId, packet, canPublish, onPublished }:
   const [confirmDelete, setConfirmDelete] = useState(false);
   const update = useUpdatePacket(productionId);
   const publish = usePublishPacket(productionId, onPublished);
+  const progress = usePublishProgress(productionId, packet.id, publish.isPending);
   const del = useDeletePacket(productionId);
   const fields = { ...(update.error instanceof ApiError ? update.error.fields : {}), ...(publish.error instanceof ApiError ? publish.error.fields : {}) };
   if (options.isPending) return <Spinner />;
@@ -100,6 +109,11 @@ export function PacketBuilder({ productionId, packet, canPublish, onPublished }:
       </ConfirmDialog>
       <ConfirmDialog open={confirm} title="Publish this packet?" confirmLabel="Publish" busy={publish.isPending} onCancel={() => setConfirm(false)} onConfirm={() => publish.mutate(packet.id, { onSettled: () => setConfirm(false) })}>
         It becomes a numbered version that never changes, and the chosen vfx members are e-mailed. Later edits make a new version.
+        {publish.isPending && (
+          <span className="mt-2 block text-sm text-ink" role="status">
+            {describeProgress(progress.data ?? null)}
+          </span>
+        )}
       </ConfirmDialog>
     </div>
   );

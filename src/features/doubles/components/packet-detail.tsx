@@ -2,8 +2,9 @@ import type { PacketDetailDto } from "@shared/schemas/packets";
 import type { DiffGroup } from "@shared/domain/packet-diff";
 import { Badge } from "@/components/ui/feedback";
 import { packetDownloadHref } from "../api/packets";
+import { useProductionTime } from "@/hooks/use-production-time";
+import { formatNumber } from "@shared/format";
 
-const when = (iso: string | null) => (iso ? new Date(iso).toLocaleString() : "—");
 
 function DiffList({ label, g }: { label: string; g: DiffGroup }) {
   if (!g.added.length && !g.removed.length && !g.changed.length) return null;
@@ -49,11 +50,13 @@ export function PacketDiffView({ packet }: { packet: PacketDetailDto }) {
 /** Contents summary, checksum, download link and the recipients' receipts. */
 export function PacketDetail({ productionId, packet, showRecipients }: { productionId: string; packet: PacketDetailDto; showRecipients: boolean }) {
   const c = packet.contents;
+  const { dateTime } = useProductionTime();
+  const when = (iso: string | null) => (iso ? dateTime(iso) : "—");
   return (
     <div className="grid gap-4">
       <div className="flex flex-wrap items-center gap-3">
         <a className="inline-flex min-h-12 items-center rounded-md bg-ink px-5 py-3 font-semibold text-chalk hover:bg-ink-700" href={packetDownloadHref(productionId, packet.id)} download>
-          {packet.status === "published" ? `Download version ${packet.version} (ZIP${packet.zipBytes ? `, ${(packet.zipBytes / 1e6).toFixed(2)} MB` : ""})` : "Download a draft preview (ZIP)"}
+          {packet.status === "published" ? `Download version ${packet.version} (ZIP${packet.zipBytes ? `, ${formatNumber(packet.zipBytes / 1e6, 2)} MB` : ""})` : "Download a draft preview (ZIP)"}
         </a>
         {packet.zipSha256 && <code className="break-all text-xs text-slate" title="SHA-256 of the ZIP">SHA-256 {packet.zipSha256}</code>}
       </div>

@@ -4,12 +4,14 @@ import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { Badge, EmptyState, ErrorAlert, Spinner } from "@/components/ui/feedback";
 import { useCreatePacket, usePackets } from "../api/packets";
+import { useProductionTime } from "@/hooks/use-production-time";
 
 /** Versions and drafts of the change's handoff packet, and "new draft". */
 export function PacketsTab({ productionId, change, canPrepare }: { productionId: string; change: DoublesChangeDto; canPrepare: boolean }) {
   const list = usePackets(productionId, change.id);
   const create = useCreatePacket(productionId);
   const navigate = useNavigate();
+  const { dateOf } = useProductionTime();
   const hasDraft = list.data?.some((p) => p.status === "draft");
   return (
     <Card>
@@ -35,7 +37,7 @@ export function PacketsTab({ productionId, change, canPrepare }: { productionId:
                 <td className="px-2 py-1">
                   <Link className="font-semibold text-ink underline" to={`packets/${p.id}`}>{p.status === "draft" ? "Draft" : `Version ${p.version}`}</Link>
                 </td>
-                <td className="px-2 py-1">{p.publishedAt ? `${new Date(p.publishedAt).toLocaleDateString()} by ${p.publishedByName ?? ""}` : <Badge tone="warning">not published</Badge>}</td>
+                <td className="px-2 py-1">{p.publishedAt ? `${dateOf(p.publishedAt)} by ${p.publishedByName ?? ""}` : <Badge tone="warning">not published</Badge>}</td>
                 <td className="px-2 py-1">{p.counts.panels} panels · {p.counts.photos} photos · {p.counts.shots} shots{p.includeMeasurements ? " · measurements" : ""}</td>
                 <td className="px-2 py-1">{p.status === "published" ? `${p.recipients.filter((r) => r.receivedAt).length} of ${p.recipients.length}` : "—"}</td>
               </tr>

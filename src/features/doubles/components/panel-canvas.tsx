@@ -9,6 +9,8 @@ export interface CanvasPanel {
   grainline: [[number, number], [number, number]] | null;
   notches: { point: [number, number]; edge: number }[];
   seamAllowanceMm: number;
+  /** A cut line to draw as it is (e.g. from an imported file); otherwise it is offset from the sew line. */
+  cutLine?: [number, number][] | null;
 }
 
 const n1 = (v: number) => Math.round(v * 10) / 10;
@@ -27,8 +29,8 @@ export interface CanvasSeamMark {
 export function PanelCanvas({ panel, height = 320, showVertices = true, onAddPoint, label, seams = [] }: { panel: CanvasPanel; height?: number; showVertices?: boolean; onAddPoint?: (p: [number, number]) => void; label?: string; seams?: readonly CanvasSeamMark[] }) {
   const drawn = useMemo(() => {
     const valid = panel.outline.length >= 3 && validatePolygon(panel.outline as Point[]).valid;
-    let cut: Point[] | null = null;
-    if (valid && panel.seamAllowanceMm > 0) {
+    let cut: Point[] | null = panel.cutLine ?? null;
+    if (!cut && valid && panel.seamAllowanceMm > 0) {
       try {
         cut = cutLineFromSewLine(panel.outline, panel.seamAllowanceMm);
       } catch {
@@ -105,10 +107,13 @@ export function PanelCanvas({ panel, height = 320, showVertices = true, onAddPoi
       {showVertices &&
         panel.outline.map((p, i) => (
           <g key={i}>
-            <circle cx={p[0]} cy={-p[1]} r={stroke * 2} fill="#C98B2B" />
-            <text x={p[0] + stroke * 3} y={-p[1] - stroke * 3} fontSize={font * 0.6} fill="#5B6770">
-              {i}
-            </text>
+            <circle cx={p[0]} cy={-p[1]} r={stroke * (panel.outline.length > 60 ? 0.8 : 2)} fill="#C98B2B" />
+            {/* Curved pieces have hundreds of points: number every few so the labels stay readable. */}
+            {i % Math.max(1, Math.ceil(panel.outline.length / 40)) === 0 && (
+              <text x={p[0] + stroke * 3} y={-p[1] - stroke * 3} fontSize={font * 0.6} fill="#5B6770">
+                {i}
+              </text>
+            )}
           </g>
         ))}
       {drawn.label && (

@@ -76,7 +76,7 @@ export function PanelEditor({ productionId, garmentId, panel, fabrics, onDone }:
                   <th className="px-2 text-left">#</th>
                   <th className="px-2 text-left">x</th>
                   <th className="px-2 text-left">y</th>
-                  <th />
+                  <th><span className="sr-only">Actions</span></th>
                 </tr>
               </thead>
               <tbody>

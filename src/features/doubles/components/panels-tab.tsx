@@ -60,7 +60,7 @@ export function PanelsTab({ productionId, change, canEdit }: { productionId: str
               <div className="overflow-x-auto">
                 <table className="w-full text-left text-sm" aria-label="Panels">
                   <thead className="border-b border-chalk-200 text-xs uppercase tracking-wide text-slate">
-                    <tr><th className="px-2 py-1">Piece</th><th className="px-2 py-1">Cut</th><th className="px-2 py-1">Area</th><th className="px-2 py-1">With allowance</th><th className="px-2 py-1">Allowance</th><th /></tr>
+                    <tr><th className="px-2 py-1">Piece</th><th className="px-2 py-1">Cut</th><th className="px-2 py-1">Area</th><th className="px-2 py-1">With allowance</th><th className="px-2 py-1">Allowance</th><th><span className="sr-only">Actions</span></th></tr>
                   </thead>
                   <tbody>
                     {panels.data.map((p) => (

@@ -4,6 +4,7 @@ import { RETEST_TOLERANCE_PERCENT, type CantileverRetest } from "@shared/domain/
 import { Card } from "@/components/ui/card";
 import { Badge, EmptyState, ErrorAlert, Spinner } from "@/components/ui/feedback";
 import { usePhysics } from "../api/doubles";
+import { formatDate } from "@shared/format";
 
 function fmt(v: number): string {
   const a = Math.abs(v);
@@ -14,7 +15,7 @@ function fmt(v: number): string {
 function Value({ v, f }: { v?: TaggedValue<string>; f: FabricPhysicsDto }) {
   if (!v) return <span className="text-slate">—</span>;
   const test = v.basis === "measured" ? f.tests.find((t) => t.id === v.testId) : undefined;
-  const why = v.basis === "measured" ? `measured: ${v.testIds.length} test${v.testIds.length > 1 ? "s" : ""}${test ? ` (${test.kind}${test.direction ? ` ${test.direction}` : ""}, ${test.testedOn})` : ""}` : v.note;
+  const why = v.basis === "measured" ? `measured: ${v.testIds.length} test${v.testIds.length > 1 ? "s" : ""}${test ? ` (${test.kind}${test.direction ? ` ${test.direction}` : ""}, ${formatDate(test.testedOn)})` : ""}` : v.note;
   return (
     <span title={why}>
       {fmt(v.value)} <span className="text-xs text-slate">{v.unit}</span>{" "}

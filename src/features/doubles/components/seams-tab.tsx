@@ -64,7 +64,7 @@ export function SeamsTab({ productionId, change, canEdit }: { productionId: stri
           <div className="overflow-x-auto">
             <table className="w-full text-left text-sm" aria-label="Seams">
               <thead className="border-b border-chalk-200 text-xs uppercase tracking-wide text-slate">
-                <tr><th className="px-2 py-1">Seam</th><th className="px-2 py-1">Side A</th><th className="px-2 py-1">Side B</th><th className="px-2 py-1">A</th><th className="px-2 py-1">B</th><th className="px-2 py-1">A − B</th><th className="px-2 py-1">Check</th><th /></tr>
+                <tr><th className="px-2 py-1">Seam</th><th className="px-2 py-1">Side A</th><th className="px-2 py-1">Side B</th><th className="px-2 py-1">A</th><th className="px-2 py-1">B</th><th className="px-2 py-1">A − B</th><th className="px-2 py-1">Check</th><th><span className="sr-only">Actions</span></th></tr>
               </thead>
               <tbody>
                 {seams.data.map((s) => (

@@ -2,10 +2,12 @@ import { Link } from "react-router";
 import { Card } from "@/components/ui/card";
 import { Badge, EmptyState, ErrorAlert, Spinner } from "@/components/ui/feedback";
 import { packetDownloadHref, usePackets } from "../api/packets";
+import { useProductionTime } from "@/hooks/use-production-time";
 
 /** A vfx artist's view: only the packet versions published to them. */
 export function VfxPackets({ productionId }: { productionId: string }) {
   const q = usePackets(productionId);
+  const { dateOf } = useProductionTime();
   if (q.isPending) return <Spinner />;
   if (q.error) return <ErrorAlert error={q.error} />;
   if (!q.data.length) return <EmptyState title="No packets for you yet">When the costume supervisor publishes a packet to you, it appears here and you get an e-mail.</EmptyState>;
@@ -20,7 +22,7 @@ export function VfxPackets({ productionId }: { productionId: string }) {
                 {p.characterName}, change {p.changeNumber}: version {p.version}
               </Link>
               <p className="text-sm text-slate">
-                Published {p.publishedAt ? new Date(p.publishedAt).toLocaleDateString() : ""} · {p.counts.panels} panels, {p.counts.photos} photos, {p.counts.shots} shots
+                Published {p.publishedAt ? dateOf(p.publishedAt) : ""} · {p.counts.panels} panels, {p.counts.photos} photos, {p.counts.shots} shots
               </p>
               {mine?.receivedAt ? <Badge tone="note">received</Badge> : <Badge tone="warning">not marked received</Badge>}
             </div>

@@ -7,6 +7,7 @@ import { Card } from "@/components/ui/card";
 import { InputField, SelectField } from "@/components/ui/field";
 import { Badge, ErrorAlert } from "@/components/ui/feedback";
 import { useFabricOptions, useMarker, usePanels, useSaveMarker } from "../api/doubles";
+import { useProductionTime } from "@/hooks/use-production-time";
 
 const cm = (mm: number) => `${(mm / 10).toFixed(1)} cm`;
 
@@ -15,7 +16,7 @@ function MarkerResult({ r }: { r: MarkerFabricResultDto | YardageFabricResult })
   const svg = markerToSvg(r as NestResult);
   return (
     <div className="grid gap-2" aria-label={`Marker for ${r.fabricName}`}>
-      <h3 className="font-semibold text-ink">{r.fabricName}</h3>
+      <h2 className="font-semibold text-ink">{r.fabricName}</h2>
       <dl className="grid grid-cols-2 gap-x-4 text-sm sm:grid-cols-5">
         <div><dt className="text-xs text-slate">Marker length</dt><dd className="font-semibold">{cm(r.markerLengthMm)} ({(r.markerLengthMm / 914.4).toFixed(2)} yd)</dd></div>
         <div><dt className="text-xs text-slate">Efficiency</dt><dd className="font-semibold">{(r.efficiency * 100).toFixed(1)} %</dd></div>
@@ -37,6 +38,7 @@ export function YardageTab({ productionId, change, canEdit }: { productionId: st
   const fabrics = useFabricOptions(productionId);
   const saved = useMarker(productionId, { scope, scopeId, multiples });
   const save = useSaveMarker(productionId);
+  const { dateTime } = useProductionTime();
   const [progress, setProgress] = useState<{ done: number; total: number } | null>(null);
   const [search, setSearch] = useState<{ fraction: number; fabricName: string; bestLengthMm: number } | null>(null);
   const [result, setResult] = useState<YardageFabricResult[] | null>(null);
@@ -113,7 +115,7 @@ export function YardageTab({ productionId, change, canEdit }: { productionId: st
         {error && <ErrorAlert error={error} title="Could not lay the marker" />}
         {save.error && <ErrorAlert error={save.error} title="Not saved" />}
         {!result && saved.data && (
-          <p className="mt-2 text-sm text-slate">Saved marker from {new Date(saved.data.createdAt).toLocaleString()} {saved.data.current ? "" : <Badge tone="warning">panels changed since</Badge>}</p>
+          <p className="mt-2 text-sm text-slate">Saved marker from {dateTime(saved.data.createdAt)} {saved.data.current ? "" : <Badge tone="warning">panels changed since</Badge>}</p>
         )}
       </Card>
       {shown?.map((r) => (

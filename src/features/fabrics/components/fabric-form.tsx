@@ -6,6 +6,7 @@ import { Button } from "@/components/ui/button";
 import { ErrorAlert } from "@/components/ui/feedback";
 import { InputField, SelectField, TextareaField } from "@/components/ui/field";
 import { ApiError } from "@/lib/api-client";
+import { fieldError, fieldErrorsOf } from "@/lib/form-errors";
 
 interface Props {
   unit: LengthUnit;
@@ -38,12 +39,12 @@ export function FabricForm({ unit, initial, busy, error, submitLabel, onSubmit }
     const errs: Record<string, string> = {};
     const fibreContent = fibres.filter((f) => f.fibre.trim() || f.percent.trim()).map((f) => ({ fibre: f.fibre.trim(), percent: Number(f.percent) }));
     const fc = fibreContentSchema.safeParse(fibreContent);
-    if (!fc.success) errs.fibreContent = fc.error.issues[0]?.message ?? "check the fibres";
+    if (!fc.success) errs.fibreContent = Object.values(fieldErrorsOf(fc.error, "fibreContent"))[0] ?? "Check the fibres";
     let widthMm: number | null = null;
     const w = String(fd.get("width") ?? "").trim();
     if (w) {
       const r = parseLength(w, unit);
-      if (!r.ok) errs.widthMm = r.reason;
+      if (!r.ok) errs.widthMm = fieldError("widthMm", r.reason);
       else widthMm = Math.round(r.mm);
     }
     setLocalErrors(errs);

@@ -1,6 +1,7 @@
 import { useState, type FormEvent } from "react";
 import type { FabricDetailDto, FabricTestDto, FabricTestKind, SimValueDto } from "@shared/schemas/fabrics";
-import { formatLength, roundTo } from "@shared/domain/units";
+import { formatLength } from "@shared/domain/units";
+import { formatDate, formatNumber, formatSignificant } from "@shared/format";
 import { Button } from "@/components/ui/button";
 import { ErrorAlert } from "@/components/ui/feedback";
 import { ConfirmDialog } from "@/components/ui/dialog";
@@ -10,19 +11,20 @@ import { useAddFabricTest, useDeleteFabricTest } from "../api/fabrics";
 
 // 1 mg·cm (the older cgs unit for bending rigidity) = 0.0980665 µN·m (check-values §2).
 const MICRO_NM_PER_MG_CM = 0.0980665;
-const sig = (x: number, n = 4) => Number(x.toPrecision(n)).toLocaleString(undefined, { maximumSignificantDigits: n });
+const sig = formatSignificant;
+const num = (x: number) => formatNumber(x, 3);
 
 function readingsText(t: FabricTestDto): string {
   const r = t.readings;
   switch (r.kind) {
     case "mass":
-      return `${r.massG} g on ${r.lengthMm} × ${r.widthMm} mm`;
+      return `${num(r.massG)} g on ${num(r.lengthMm)} × ${num(r.widthMm)} mm`;
     case "cantilever":
-      return `${t.direction} overhang ${r.overhangMm} mm at ${r.angleDeg}°`;
+      return `${t.direction} overhang ${num(r.overhangMm)} mm at ${num(r.angleDeg)}°`;
     case "strip":
-      return `${t.direction} ${r.loadN} N at ${r.extensionMm} mm on ${r.stripWidthMm} × ${r.gaugeLengthMm} mm`;
+      return `${t.direction} ${num(r.loadN)} N at ${num(r.extensionMm)} mm on ${num(r.stripWidthMm)} × ${num(r.gaugeLengthMm)} mm`;
     case "thickness":
-      return `${r.thicknessMm} mm`;
+      return `${num(r.thicknessMm)} mm`;
   }
 }
 
@@ -39,7 +41,7 @@ function derivedText(t: FabricTestDto): string {
               ? `; G = ${sig(d.flexuralRigidityMicroNm)} µN·m = ${sig(d.flexuralRigidityNm!)} N·m (${sig(d.flexuralRigidityMicroNm / MICRO_NM_PER_MG_CM)} mg·cm) using ${sig(d.massPerAreaUsedGsm!)} g/m² ${d.massBasis}`
               : "; rigidity needs a mass per area");
     case "strip":
-      return d.tensileStiffnessNPerM === undefined ? "—" : `k = ${sig(d.tensileStiffnessNPerM)} N/m (strain ${roundTo(d.strain! * 100, 3)} %, ${sig(d.forcePerWidthNPerM!)} N/m load per width)`;
+      return d.tensileStiffnessNPerM === undefined ? "—" : `k = ${sig(d.tensileStiffnessNPerM)} N/m (strain ${num(d.strain! * 100)} %, ${sig(d.forcePerWidthNPerM!)} N/m load per width)`;
     case "thickness":
       return d.thicknessM === undefined ? "—" : `${sig(d.thicknessM)} m`;
   }
@@ -110,14 +112,14 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
               <tbody>
                 {fabric.tests.map((t) => (
                   <tr key={t.id} className="border-t border-chalk-200 align-top">
-                    <td className="px-2 py-1 whitespace-nowrap">{t.testedOn}</td>
+                    <td className="px-2 py-1 whitespace-nowrap">{formatDate(t.testedOn)}</td>
                     <td className="px-2 py-1">{kindLabels[t.kind]}</td>
                     <td className="px-2 py-1">{readingsText(t)}</td>
                     <td className="px-2 py-1">{derivedText(t)}</td>
                     <td className="px-2 py-1">{t.testedByName ?? "—"}</td>
                     {canUpdate && (
                       <td className="px-2 py-1">
-                        <Button size="sm" variant="ghost" onClick={() => setDeleting(t)} aria-label={`Delete ${t.kind} test of ${t.testedOn}`}>
+                        <Button size="sm" variant="ghost" onClick={() => setDeleting(t)} aria-label={`Delete ${t.kind} test of ${formatDate(t.testedOn)}`}>
                           Delete
                         </Button>
                       </td>
@@ -190,7 +192,7 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
         onCancel={() => setDeleting(null)}
         onConfirm={() => deleting && del.mutate(deleting.id, { onSettled: () => setDeleting(null) })}
       >
-        {deleting ? `${kindLabels[deleting.kind]} of ${deleting.testedOn}: ${readingsText(deleting)}. ` : ""}The other tests are recomputed without it.
+        {deleting ? `${kindLabels[deleting.kind]} of ${formatDate(deleting.testedOn)}: ${readingsText(deleting)}. ` : ""}The other tests are recomputed without it.
       </ConfirmDialog>
       {del.error != null && <ErrorAlert error={del.error} title="Test not deleted" />}
       <section>

@@ -3,6 +3,7 @@ import { formatLength, type LengthUnit } from "@shared/domain/units";
 import type { MeasurementSetDto, PerformerMeasurementsDto } from "@shared/schemas/measurements";
 import { Button } from "@/components/ui/button";
 import { cn } from "@/utils/cn";
+import { formatDate } from "@shared/format";
 
 const cap = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
 
@@ -18,14 +19,14 @@ export function MeasurementHistory({ sets, unit, onDelete }: { sets: Measurement
             {sets.map((s, i) => (
               <th key={s.id} className="px-2 py-1 align-bottom">
                 <span className="block font-semibold text-ink">
-                  {s.takenOn}
+                  {formatDate(s.takenOn)}
                   {i === 0 && " (current)"}
                 </span>
                 <span className="block font-normal">
                   {s.takenByName ?? "—"} · typed in {s.enteredUnit}
                 </span>
                 {onDelete && (
-                  <Button size="sm" variant="ghost" className="px-0" onClick={() => onDelete(s.id)} aria-label={`Delete the set of ${s.takenOn}`}>
+                  <Button size="sm" variant="ghost" className="px-0" onClick={() => onDelete(s.id)} aria-label={`Delete the set of ${formatDate(s.takenOn)}`}>
                     Delete
                   </Button>
                 )}

@@ -1,7 +1,8 @@
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-errors";
 import { z } from "zod";
-import type { ProductionDto } from "@shared/schemas/productions";
+import { DEFAULT_CURRENCY, DEFAULT_PAPER_SIZE, type ProductionDto } from "@shared/schemas/productions";
 import { useUpdateProduction } from "../api/productions";
 import { InputField, SelectField } from "@/components/ui/field";
 import { Button } from "@/components/ui/button";
@@ -18,6 +19,8 @@ const formSchema = z.object({
   quickChangeThresholdMin: num(0, 60),
   reminderHour: num(0, 23),
   seamToleranceMm: num(0, 50),
+  currency: z.union([z.literal(""), z.string().trim().regex(/^[A-Za-z]{3}$/, "three letters, such as GBP, EUR or USD")]),
+  paperSize: z.enum(["A4", "Letter"]),
 });
 type FormValues = z.input<typeof formSchema>;
 
@@ -28,7 +31,7 @@ export function ProductionSettingsForm({ production }: { production: ProductionD
   const update = useUpdateProduction(production.id);
   const s = production.settings;
   const form = useForm<FormValues>({
-    resolver: zodResolver(formSchema),
+    resolver: formResolver(zodResolver(formSchema)),
     defaultValues: {
       title: production.title,
       startsOn: production.startsOn ?? "",
@@ -38,6 +41,8 @@ export function ProductionSettingsForm({ production }: { production: ProductionD
       quickChangeThresholdMin: s.quickChangeThresholdMin ?? "",
       reminderHour: s.reminderHour ?? "",
       seamToleranceMm: s.seamToleranceMm ?? "",
+      currency: s.currency ?? "",
+      paperSize: s.paperSize ?? DEFAULT_PAPER_SIZE,
     },
   });
   const e = form.formState.errors;
@@ -48,7 +53,14 @@ export function ProductionSettingsForm({ production }: { production: ProductionD
         startsOn: v.startsOn || null,
         endsOn: v.endsOn || null,
         units: v.units,
-        settings: { bufferWorkingDays: opt(v.bufferWorkingDays), quickChangeThresholdMin: opt(v.quickChangeThresholdMin), reminderHour: opt(v.reminderHour), seamToleranceMm: opt(v.seamToleranceMm) },
+        settings: {
+          bufferWorkingDays: opt(v.bufferWorkingDays),
+          quickChangeThresholdMin: opt(v.quickChangeThresholdMin),
+          reminderHour: opt(v.reminderHour),
+          seamToleranceMm: opt(v.seamToleranceMm),
+          currency: v.currency ? v.currency.toUpperCase() : undefined,
+          paperSize: v.paperSize,
+        },
       },
       {
         onError: (err) => {
@@ -72,6 +84,11 @@ export function ProductionSettingsForm({ production }: { production: ProductionD
       )}
       <InputField label="Evening reminder hour (0–23)" type="number" {...form.register("reminderHour")} error={e.reminderHour?.message} />
       <InputField label="Seam length tolerance (mm)" type="number" step="0.5" {...form.register("seamToleranceMm")} error={e.seamToleranceMm?.message} />
+      <InputField label="Currency" placeholder={DEFAULT_CURRENCY} autoCapitalize="characters" maxLength={3} {...form.register("currency")} error={e.currency?.message} hint={`ISO 4217 code for every cost and the budget (default ${DEFAULT_CURRENCY}).`} />
+      <SelectField label="Paper for printed reports" {...form.register("paperSize")} error={e.paperSize?.message} hint="Continuity books and rack lists.">
+        <option value="A4">A4 (210 × 297 mm)</option>
+        <option value="Letter">US Letter (8.5 × 11 in)</option>
+      </SelectField>
       <div className="flex items-center gap-3 sm:col-span-2">
         <Button type="submit" busy={update.isPending} disabled={!form.formState.isDirty}>
           Save settings

@@ -4,10 +4,11 @@ import { Link } from "react-router";
 import type { MultiplesPlanDto, MultiplesUseDto } from "@shared/schemas/snags";
 import { Badge } from "@/components/ui/feedback";
 import { SafetyNote } from "@/components/ui/feedback";
+import { formatDate } from "@shared/format";
 
 const col = createColumnHelper<MultiplesUseDto>();
 const columns = [
-  col.accessor((u) => u.date ?? "", { id: "date", header: "Shoot day", cell: (c) => c.getValue() || "—" }),
+  col.accessor((u) => u.date ?? "", { id: "date", header: "Shoot day", cell: (c) => (c.getValue() ? formatDate(c.getValue()) : "—") }),
   col.accessor("sceneNumber", { header: "Scene" }),
   col.accessor("characterName", { header: "Character" }),
   col.accessor("stage", {

@@ -4,6 +4,8 @@ import { snagKindLabels, type SnagDto } from "@shared/schemas/snags";
 import { Badge } from "@/components/ui/feedback";
 import { Button } from "@/components/ui/button";
 import { cn } from "@/utils/cn";
+import { useProductionTime } from "@/hooks/use-production-time";
+import { formatDate } from "@shared/format";
 
 const severityBorder = { blocking: "border-l-madder", warning: "border-l-ochre", note: "border-l-slate" } as const;
 
@@ -53,6 +55,7 @@ interface SnagCardProps {
 /** One snag: severity, title, explanation with numbers, links to fix it, and dismiss / undo. */
 export function SnagCard({ snag, canDismiss, onDismiss, onUndo, undoBusy, compact }: SnagCardProps) {
   const titleId = `snag-${snag.evidenceHash}-${snag.key.length}`;
+  const { dateOf } = useProductionTime();
   return (
     <article
       aria-labelledby={titleId}
@@ -63,7 +66,7 @@ export function SnagCard({ snag, canDismiss, onDismiss, onUndo, undoBusy, compac
         <Badge>{snagKindLabels[snag.kind]}</Badge>
         {snag.shootDays.slice(0, 3).map((d) => (
           <span key={d.id} className="text-xs text-slate">
-            {d.date}
+            {formatDate(d.date)}
           </span>
         ))}
         {snag.dismissal && <Badge tone="neutral">dismissed</Badge>}
@@ -87,7 +90,7 @@ export function SnagCard({ snag, canDismiss, onDismiss, onUndo, undoBusy, compac
       )}
       {snag.dismissal && (
         <p className="mt-2 text-xs text-slate">
-          Dismissed by {snag.dismissal.dismissedByName ?? "someone"} on {new Date(snag.dismissal.dismissedAt).toLocaleDateString()}: “{snag.dismissal.reason}”
+          Dismissed by {snag.dismissal.dismissedByName ?? "someone"} on {dateOf(snag.dismissal.dismissedAt)}: “{snag.dismissal.reason}”
         </p>
       )}
       <div className="mt-2 flex flex-wrap items-center gap-x-3 gap-y-1">

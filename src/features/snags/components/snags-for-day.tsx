@@ -3,6 +3,7 @@ import { Card } from "@/components/ui/card";
 import { ErrorAlert, Spinner } from "@/components/ui/feedback";
 import { useSnags } from "../api/snags";
 import { SnagCard } from "./snag-card";
+import { formatDate } from "@shared/format";
 
 /**
  * The open snags of the next shoot day (or performance), or of the day given, compact, with a link
@@ -14,7 +15,7 @@ export function SnagsForDay({ productionId, max = 8, day: given }: { productionI
   return (
     <Card role="region" aria-label={given ? `Snags for ${given.date}` : "Snags for the next day"}>
       <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
-        <h2 className="font-semibold text-ink">Snags{day ? ` for ${day.kind === "performance" ? "the performance" : "shoot day"} ${day.date}` : ""}</h2>
+        <h2 className="font-semibold text-ink">Snags{day ? ` for ${day.kind === "performance" ? "the performance" : "shoot day"} ${formatDate(day.date)}` : ""}</h2>
         <Link to={`/p/${productionId}/snags`} className="text-sm font-semibold text-ink underline-offset-2 hover:underline">
           All snags
         </Link>

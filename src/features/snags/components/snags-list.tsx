@@ -7,6 +7,7 @@ import { Badge } from "@/components/ui/feedback";
 import { useUndoDismissal } from "../api/snags";
 import { DismissDialog } from "./dismiss-dialog";
 import { SnagCard } from "./snag-card";
+import { formatDate } from "@shared/format";
 
 export type SnagGrouping = "severity" | "shootDay" | "character" | "kind";
 
@@ -22,7 +23,7 @@ function groupsOf(s: SnagDto, by: SnagGrouping): { key: string; label: string }[
     case "kind":
       return [{ key: String(snagKinds.indexOf(s.kind)), label: snagKindLabels[s.kind] }];
     case "shootDay":
-      return s.shootDays.length ? s.shootDays.map((d) => ({ key: d.date, label: `Shoot day ${d.date}` })) : [{ key: NONE, label: "Not tied to one day" }];
+      return s.shootDays.length ? s.shootDays.map((d) => ({ key: d.date, label: `Shoot day ${formatDate(d.date)}` })) : [{ key: NONE, label: "Not tied to one day" }];
     case "character":
       return s.characters.length ? s.characters.map((c) => ({ key: c.name.toLowerCase(), label: c.name })) : [{ key: NONE, label: "No character" }];
   }
@@ -75,7 +76,7 @@ export function SnagsList({ productionId, data, filters, onFiltersChange, canDis
           </Badge>
         ))}
         <span className="text-xs text-slate">
-          {data.counts.dismissed} dismissed{data.counts.lapsed ? ` · ${data.counts.lapsed} dismissal${data.counts.lapsed > 1 ? "s" : ""} lapsed` : ""} · judged on {data.today}
+          {data.counts.dismissed} dismissed{data.counts.lapsed ? ` · ${data.counts.lapsed} dismissal${data.counts.lapsed > 1 ? "s" : ""} lapsed` : ""} · judged on {formatDate(data.today)}
         </span>
       </div>
       <div className="grid grid-cols-2 gap-3 sm:grid-cols-4 lg:grid-cols-5">
@@ -104,10 +105,10 @@ export function SnagsList({ productionId, data, filters, onFiltersChange, canDis
         </SelectField>
         <SelectField label="Shoot day" value={filters.shootDayId} onChange={(e) => set({ shootDayId: e.target.value })}>
           <option value="">All days</option>
-          <option value="next">Next day{data.nextShootDay ? ` (${data.nextShootDay.date})` : ""}</option>
+          <option value="next">Next day{data.nextShootDay ? ` (${formatDate(data.nextShootDay.date)})` : ""}</option>
           {data.shootDays.map((d) => (
             <option key={d.id} value={d.id}>
-              {d.date}
+              {formatDate(d.date)}
             </option>
           ))}
         </SelectField>

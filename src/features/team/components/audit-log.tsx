@@ -1,11 +1,13 @@
 import { useAuditEvents } from "../api/team";
 import { Spinner, ErrorAlert, EmptyState } from "@/components/ui/feedback";
+import { useProductionTime } from "@/hooks/use-production-time";
 
 const label = (action: string) => action.replace(/[._]/g, " ");
 
 /** The latest changes in the production: who, what, when. */
 export function AuditLog({ productionId }: { productionId: string }) {
   const q = useAuditEvents(productionId);
+  const { dateTime } = useProductionTime();
   if (q.isPending) return <Spinner />;
   if (q.error) return <ErrorAlert error={q.error} />;
   if (!q.data.length) return <EmptyState title="Nothing recorded yet" />;
@@ -17,7 +19,7 @@ export function AuditLog({ productionId }: { productionId: string }) {
             <span className="font-semibold text-ink-900">{e.actorName ?? "System"}</span> · {label(e.action)}
           </span>
           <time className="text-xs text-slate" dateTime={e.createdAt}>
-            {new Date(e.createdAt).toLocaleString()}
+            {dateTime(e.createdAt)}
           </time>
         </li>
       ))}

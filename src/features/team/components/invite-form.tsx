@@ -1,5 +1,6 @@
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-errors";
 import { inviteMemberInputSchema, type InviteMemberInput } from "@shared/schemas/members";
 import { roles, roleLabels } from "@shared/permissions";
 import { InputField, SelectField } from "@/components/ui/field";
@@ -11,7 +12,7 @@ import { useInviteMember } from "../api/team";
 /** Invite by e-mail with a role; schema checked here and again on the server. */
 export function InviteForm({ productionId }: { productionId: string }) {
   const invite = useInviteMember(productionId);
-  const form = useForm<InviteMemberInput>({ resolver: zodResolver(inviteMemberInputSchema), defaultValues: { email: "", role: "set_costumer" } });
+  const form = useForm<InviteMemberInput>({ resolver: formResolver(zodResolver(inviteMemberInputSchema)), defaultValues: { email: "", role: "set_costumer" } });
   const onSubmit = form.handleSubmit((values) =>
     invite.mutate(values, {
       onSuccess: () => form.reset({ email: "", role: values.role }),

@@ -8,6 +8,7 @@ import { ErrorAlert } from "@/components/ui/feedback";
 import { useRemoveMember, useUpdateMemberRole } from "../api/team";
 import { controlClass } from "@/components/ui/field";
 import { SortHeader } from "@/components/ui/table";
+import { useProductionTime } from "@/hooks/use-production-time";
 
 const col = createColumnHelper<MemberDto>();
 
@@ -17,6 +18,7 @@ export function MembersTable({ productionId, members, currentUserId }: { product
   const [removing, setRemoving] = useState<MemberDto | null>(null);
   const updateRole = useUpdateMemberRole(productionId);
   const remove = useRemoveMember(productionId);
+  const { dateOf } = useProductionTime();
 
   const columns = [
     col.accessor("name", { header: "Name", cell: (c) => <span className="font-semibold text-ink-900">{c.getValue()}</span> }),
@@ -39,7 +41,7 @@ export function MembersTable({ productionId, members, currentUserId }: { product
         </select>
       ),
     }),
-    col.accessor("joinedAt", { header: "Joined", cell: (c) => new Date(c.getValue()).toLocaleDateString() }),
+    col.accessor("joinedAt", { header: "Joined", cell: (c) => dateOf(c.getValue()) }),
     col.display({
       id: "actions",
       header: () => <span className="sr-only">Actions</span>,

@@ -1,11 +1,13 @@
 import { useState } from "react";
 import { useOutbox } from "../api/team";
 import { Spinner, ErrorAlert, EmptyState } from "@/components/ui/feedback";
+import { useProductionTime } from "@/hooks/use-production-time";
 
 /** Messages the local SMTP fake caught (development only): invitations, resets, reminders. */
 export function Outbox({ productionId }: { productionId: string }) {
   const q = useOutbox(productionId, true);
   const [open, setOpen] = useState<string | null>(null);
+  const { dateTime } = useProductionTime();
   if (q.isPending) return <Spinner />;
   if (q.error) return <ErrorAlert error={q.error} title="Outbox unavailable" />;
   if (!q.data.length) return <EmptyState title="No messages yet">Invitations and reminders sent in development appear here.</EmptyState>;
@@ -16,7 +18,7 @@ export function Outbox({ productionId }: { productionId: string }) {
           <button type="button" className="w-full text-left" aria-expanded={open === m.id} onClick={() => setOpen(open === m.id ? null : m.id)}>
             <span className="block font-semibold text-ink-900">{m.subject || "(no subject)"}</span>
             <span className="block text-xs text-slate">
-              to {m.recipients} · {new Date(m.receivedAt).toLocaleString()}
+              to {m.recipients} · {dateTime(m.receivedAt)}
               {m.attachments.length ? ` · ${m.attachments.map((a) => a.filename ?? a.contentType).join(", ")}` : ""}
             </span>
           </button>

@@ -63,13 +63,17 @@ function CameraScanner({ onCode, onClose }: { onCode: (code: string) => void; on
   );
 }
 
-/** Check in / out: pick a status and place once, then scan or type tag after tag — one action per garment. */
-export function CheckInOut({ productionId }: { productionId: string }) {
+/**
+ * Check in / out: pick a status and place once, then scan or type tag after tag — one action per garment.
+ * A QR code on the rack list opens this with the tag and status filled in (`?tag=…&to=on_set`); the
+ * move still waits for one tap, so opening a link never moves a garment by itself.
+ */
+export function CheckInOut({ productionId, initialTag, initialStatus }: { productionId: string; initialTag?: string; initialStatus?: GarmentStatus }) {
   const scan = useScanGarment(productionId);
-  const [status, setStatus] = useState<GarmentStatus>("on_set");
+  const [status, setStatus] = useState<GarmentStatus>(initialStatus ?? "on_set");
   const [rack, setRack] = useState("");
   const [bin, setBin] = useState("");
-  const [code, setCode] = useState("");
+  const [code, setCode] = useState(initialTag ?? "");
   const [log, setLog] = useState<LogLine[]>([]);
   const [camera, setCamera] = useState(false);
   const input = useRef<HTMLInputElement>(null);
@@ -121,19 +125,24 @@ export function CheckInOut({ productionId }: { productionId: string }) {
           <InputField label="Bin" value={bin} onChange={(e) => setBin(e.target.value)} placeholder="unchanged" />
         </div>
         <form onSubmit={onSubmit} className="grid gap-2" aria-label="Scan a tag">
+          {initialTag && code === initialTag && (
+            <p className="rounded-md bg-ink-50 px-3 py-2 text-sm text-ink-900" role="note">
+              From the rack list: press the button to move <span className="font-mono font-semibold">{initialTag}</span> to {garmentStatusLabels[status]}.
+            </p>
+          )}
           <InputField
             ref={input}
             label="Tag code"
             value={code}
             onChange={(e) => setCode(e.target.value)}
-            autoFocus
+            autoFocus={!initialTag}
             autoComplete="off"
             autoCapitalize="characters"
             spellCheck={false}
             className="[&_input]:py-3 [&_input]:font-mono [&_input]:text-xl"
             hint="Scan with a USB scanner (it types and presses Enter) or type the code."
           />
-          <Button type="submit" size="lg" busy={scan.isPending}>
+          <Button type="submit" size="lg" busy={scan.isPending} autoFocus={Boolean(initialTag)}>
             Move to {garmentStatusLabels[status]}
           </Button>
         </form>

@@ -9,6 +9,8 @@ import { InputField, SelectField } from "@/components/ui/field";
 import { useAddCopies, useFabricOptions, useMoveGarments, useUpdateGarment } from "../api/garments";
 import { StatusBadge } from "./status-badge";
 import { GarmentForm } from "./garment-form";
+import { useProductionTime } from "@/hooks/use-production-time";
+import { formatDate } from "@shared/format";
 
 interface Props {
   productionId: string;
@@ -22,6 +24,7 @@ interface Props {
 /** One garment: measurements, where it is and has been, which changes use it, its copies. */
 export function GarmentDetail({ productionId, garment: g, unit, canUpdate, canMove, canReadFabrics }: Props) {
   const [editing, setEditing] = useState(false);
+  const { dateTime } = useProductionTime();
   const update = useUpdateGarment(productionId, g.id);
   const copies = useAddCopies(productionId, g.id);
   const move = useMoveGarments(productionId);
@@ -51,7 +54,7 @@ export function GarmentDetail({ productionId, garment: g, unit, canUpdate, canMo
           <div className="text-right">
             <StatusBadge status={g.status} />
             <p className="mt-1 text-sm text-slate">{[g.locationRack, g.locationBin].filter(Boolean).join(" / ") || "no location"}</p>
-            {g.rentalDueOn && <p className="text-sm font-semibold text-ochre">Rental due back {g.rentalDueOn}</p>}
+            {g.rentalDueOn && <p className="text-sm font-semibold text-ochre">Rental due back {formatDate(g.rentalDueOn)}</p>}
             <p className="text-sm text-slate">Distress stage {g.distressStage}</p>
           </div>
         </div>
@@ -197,7 +200,7 @@ export function GarmentDetail({ productionId, garment: g, unit, canUpdate, canMo
               <tbody>
                 {g.history.map((e) => (
                   <tr key={e.id} className="border-t border-chalk-200">
-                    <td className="px-2 py-1 whitespace-nowrap">{new Date(e.at).toLocaleString()}</td>
+                    <td className="px-2 py-1 whitespace-nowrap">{dateTime(e.at)}</td>
                     <td className="px-2 py-1">{e.actorName ?? "—"}</td>
                     <td className="px-2 py-1">{e.fromStatus ? `${garmentStatusLabels[e.fromStatus]}${e.fromLocation ? ` · ${e.fromLocation}` : ""}` : "—"}</td>
                     <td className="px-2 py-1">

@@ -5,6 +5,7 @@ import {
   fitIntents,
   garmentCategories,
   garmentSources,
+  wrapDispositions,
   type FinishedPoint,
   type GarmentDto,
 } from "@shared/schemas/garments";
@@ -56,6 +57,7 @@ export function GarmentForm({ unit, fabrics, initial, allowCopies, busy, error, 
     setLengthErrors(errs);
     if (Object.keys(errs).length) return;
     const cost = str("cost");
+    const weekly = str("rentalCostPerWeek");
     const values: GarmentFormValues = {
       name: str("name") ?? "",
       category: str("category") ?? "",
@@ -65,6 +67,8 @@ export function GarmentForm({ unit, fabrics, initial, allowCopies, busy, error, 
       vendor: str("vendor"),
       costCents: cost === null ? null : Math.round(Number(cost) * 100),
       rentalDueOn: str("rentalDueOn"),
+      rentalCostPerWeekCents: weekly === null ? null : Math.round(Number(weekly) * 100),
+      wrapDisposition: str("wrapDisposition"),
       fabricId: str("fabricId"),
       colour: str("colour"),
       distressStage: Number(str("distressStage") ?? 0),
@@ -106,8 +110,26 @@ export function GarmentForm({ unit, fabrics, initial, allowCopies, busy, error, 
           ))}
         </SelectField>
         <InputField label="Vendor / maker" name="vendor" defaultValue={initial?.vendor ?? ""} />
-        <InputField label="Cost" name="cost" type="number" step="0.01" min={0} defaultValue={initial?.costCents != null ? (initial.costCents / 100).toFixed(2) : ""} error={fields.costCents} />
+        <InputField label="Cost" name="cost" type="number" step="0.01" min={0} defaultValue={initial?.costCents != null ? (initial.costCents / 100).toFixed(2) : ""} error={fields.costCents} hint="Built: making cost; bought: price; rented: any flat hire fee" />
         <InputField label="Rental due back" name="rentalDueOn" type="date" defaultValue={initial?.rentalDueOn ?? ""} error={fields.rentalDueOn} />
+        <InputField
+          label="Hire rate per week"
+          name="rentalCostPerWeek"
+          type="number"
+          step="0.01"
+          min={0}
+          defaultValue={initial?.rentalCostPerWeekCents != null ? (initial.rentalCostPerWeekCents / 100).toFixed(2) : ""}
+          error={fields.rentalCostPerWeekCents}
+          hint="Rented garments; the budget counts it for every week hired"
+        />
+        <SelectField label="At wrap" name="wrapDisposition" defaultValue={initial?.wrapDisposition ?? ""} error={fields.wrapDisposition} hint="Owned garments; rented ones go back">
+          <option value="">Not decided</option>
+          {wrapDispositions.map((w) => (
+            <option key={w} value={w}>
+              {w === "keep" ? "Keep in stock" : "Sell"}
+            </option>
+          ))}
+        </SelectField>
         <SelectField label="Fabric" name="fabricId" defaultValue={initial?.fabricId ?? ""} error={fields.fabricId}>
           <option value="">—</option>
           {fabrics.map((f) => (

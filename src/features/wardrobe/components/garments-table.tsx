@@ -16,6 +16,7 @@ import { controlClass, InputField, SelectField } from "@/components/ui/field";
 import { cn } from "@/utils/cn";
 import { garmentFileUrls, useGarmentFilterOptions, useGarments, useMoveGarments, type GarmentListParams } from "../api/garments";
 import { StatusBadge } from "./status-badge";
+import { formatDate } from "@shared/format";
 
 const col = createColumnHelper<GarmentDto>();
 const PAGE_SIZE = 50;
@@ -55,7 +56,7 @@ function buildColumns(unit: LengthUnit) {
     col.accessor("status", { header: "Status", cell: (c) => <StatusBadge status={c.getValue()} /> }),
     col.accessor("locationRack", { header: "Rack", cell: (c) => [c.getValue(), c.row.original.locationBin].filter(Boolean).join(" / ") || "—" }),
     col.accessor("source", { header: "Source" }),
-    col.accessor("rentalDueOn", { header: "Due back", cell: (c) => c.getValue() ?? "—" }),
+    col.accessor("rentalDueOn", { header: "Due back", cell: (c) => { const v = c.getValue(); return v ? formatDate(v) : "—"; } }),
     col.accessor("fabricName", { header: "Fabric", cell: (c) => c.getValue() ?? "—", enableSorting: false }),
     col.accessor("colour", { header: "Colour", cell: (c) => c.getValue() ?? "—", enableSorting: false }),
     col.accessor("multiplesGroupName", { header: "Multiples", cell: (c) => c.getValue() ?? "—", enableSorting: false }),

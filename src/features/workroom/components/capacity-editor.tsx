@@ -5,6 +5,7 @@ import { Button } from "@/components/ui/button";
 import { ErrorAlert } from "@/components/ui/feedback";
 import { InputField, controlClass } from "@/components/ui/field";
 import { useUpdateWorkroomSettings, useUpsertCapacity } from "../api/workroom";
+import { fieldErrorsOf } from "@/lib/form-errors";
 
 const DAY_LABEL: Record<Weekday, string> = { mon: "Mon", tue: "Tue", wed: "Wed", thu: "Thu", fri: "Fri", sat: "Sat", sun: "Sun" };
 
@@ -19,7 +20,7 @@ function PersonRow({ productionId, person, canEdit }: { productionId: string; pe
       daysOff: daysOff.split(/[\s,;]+/).filter(Boolean),
     };
     const parsed = upsertCapacityInputSchema.safeParse(input);
-    if (!parsed.success) return setError(parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; "));
+    if (!parsed.success) return setError(Object.values(fieldErrorsOf(parsed.error)).join("; "));
     setError(null);
     save.mutate({ userId: person.userId, ...parsed.data });
   };
@@ -75,7 +76,7 @@ export function CapacityEditor(props: { productionId: string; people: CapacityDt
                 </th>
               ))}
               <th className="px-1 py-2">Days off</th>
-              <th />
+              <th className="px-1 py-2"><span className="sr-only">Actions</span></th>
             </tr>
           </thead>
           <tbody>

@@ -5,10 +5,14 @@ import { InputField, SelectField, TextareaField } from "@/components/ui/field";
 import { ErrorAlert } from "@/components/ui/feedback";
 import { ApiError } from "@/lib/api-client";
 import { useCreateFitting } from "../api/workroom";
+import { fieldErrorsOf } from "@/lib/form-errors";
+import { useProductionTime } from "@/hooks/use-production-time";
+import { instantFromZoned } from "@shared/format";
 
-/** Book a fitting: performer, change, date and time (browser's local time), length, room, who attends. */
+/** Book a fitting: performer, change, date and time (the production's time zone), length, room, who attends. */
 export function FittingForm({ productionId, options, onDone }: { productionId: string; options: WorkroomOptionsDto; onDone: () => void }) {
   const create = useCreateFitting(productionId);
+  const { timeZone } = useProductionTime();
   const [performerId, setPerformerId] = useState("");
   const [changeId, setChangeId] = useState("");
   const [date, setDate] = useState("");
@@ -23,11 +27,12 @@ export function FittingForm({ productionId, options, onDone }: { productionId: s
 
   const submit = (e: FormEvent) => {
     e.preventDefault();
-    const when = date && time ? new Date(`${date}T${time}`) : null;
+    // The time typed is the department's local time, wherever this browser is.
+    const when = date && time ? instantFromZoned(date, time, timeZone) : null;
     const input = {
       performerId,
       changeId: changeId || null,
-      startsAt: when && !Number.isNaN(when.getTime()) ? when.toISOString() : "",
+      startsAt: when ? when.toISOString() : "",
       durationMinutes: Number(minutes),
       room: room.trim() || null,
       attendeeIds: attendees,
@@ -35,9 +40,8 @@ export function FittingForm({ productionId, options, onDone }: { productionId: s
     };
     const parsed = createFittingInputSchema.safeParse(input);
     if (!parsed.success) {
-      const errs: Record<string, string> = {};
-      for (const issue of parsed.error.issues) errs[issue.path.join(".")] ??= issue.message;
-      if (errs.startsAt) errs.date = "choose a date and time";
+      const errs = fieldErrorsOf(parsed.error);
+      if (errs.startsAt) errs.date = "Choose a date and time";
       setErrors(errs);
       return;
     }
@@ -65,7 +69,7 @@ export function FittingForm({ productionId, options, onDone }: { productionId: s
           ))}
         </SelectField>
         <InputField label="Date" type="date" value={date} onChange={(e) => setDate(e.target.value)} error={errors.date} />
-        <InputField label="Time" type="time" value={time} onChange={(e) => setTime(e.target.value)} />
+        <InputField label="Time" type="time" value={time} onChange={(e) => setTime(e.target.value)} hint={`${timeZone} time`} />
         <InputField label="Length (minutes)" type="number" min={5} max={480} step={5} value={minutes} onChange={(e) => setMinutes(e.target.value)} error={errors.durationMinutes} />
         <InputField label="Room" value={room} onChange={(e) => setRoom(e.target.value)} error={errors.room} />
       </div>

@@ -12,6 +12,8 @@ import { useUpdateFitting } from "../api/workroom";
 import { TicketForm } from "./ticket-form";
 import { TaskSafetyNotes } from "./safety";
 import { OwnerPhotos } from "@/components/photos";
+import { useProductionTime } from "@/hooks/use-production-time";
+import { formatDate, formatHours } from "@shared/format";
 import { ConfirmDialog } from "@/components/ui/dialog";
 import { LinkGarment } from "./link-garment";
 
@@ -24,7 +26,7 @@ export function FittingView(props: { productionId: string; fitting: FittingDetai
   const [outcome, setOutcome] = useState(f.outcome ?? "");
   const [notes, setNotes] = useState(f.notes ?? "");
   const update = useUpdateFitting(productionId);
-  const start = new Date(f.startsAt);
+  const { dateTime } = useProductionTime();
 
   return (
     <div className="grid gap-4">
@@ -35,7 +37,7 @@ export function FittingView(props: { productionId: string; fitting: FittingDetai
           </Link>
           <h1 className="text-2xl font-bold text-ink">Fitting: {f.performerName}</h1>
           <p className="text-slate">
-            {f.changeLabel ?? "General fitting"} · {start.toLocaleString(undefined, { weekday: "long", day: "numeric", month: "long", hour: "2-digit", minute: "2-digit" })} · {f.durationMinutes} min
+            {f.changeLabel ?? "General fitting"} · {dateTime(f.startsAt)} · {f.durationMinutes} min
             {f.room ? ` · ${f.room}` : ""}
           </p>
           {f.attendeeNames.length > 0 && <p className="text-sm text-slate">With {f.attendeeNames.join(", ")}</p>}
@@ -134,7 +136,7 @@ export function FittingView(props: { productionId: string; fitting: FittingDetai
         <h2 className="mb-2 font-semibold text-ink">Current measurements</h2>
         {f.measurements ? (
           <>
-            <p className="mb-2 text-xs text-slate">Taken {f.measurements.takenOn}. Personal data: do not copy outside the department.</p>
+            <p className="mb-2 text-xs text-slate">Taken {formatDate(f.measurements.takenOn)}. Personal data: do not copy outside the department.</p>
             <dl className="grid grid-cols-2 gap-x-4 gap-y-1 text-sm sm:grid-cols-3">
               {Object.entries(f.measurements.valuesMm).map(([k, v]) => (
                 <div key={k} className="flex justify-between border-b border-chalk-200 py-1">
@@ -160,7 +162,7 @@ export function FittingView(props: { productionId: string; fitting: FittingDetai
                 <span className="font-semibold">
                   {t.tagCode} {t.garmentName}
                 </span>{" "}
-                · {t.tasks.map((k) => `${taskKindLabels[k.kind]}${k.amountMm ? ` ${formatLength(k.amountMm, props.units)}` : ""}${k.distressStage ? ` to stage ${k.distressStage}` : ""}`).join(", ")} · {t.estimateHours} h ·{" "}
+                · {t.tasks.map((k) => `${taskKindLabels[k.kind]}${k.amountMm ? ` ${formatLength(k.amountMm, props.units)}` : ""}${k.distressStage ? ` to stage ${k.distressStage}` : ""}`).join(", ")} · {formatHours(t.estimateHours)} ·{" "}
                 <Badge>{t.status.replace("_", " ")}</Badge>
                 <div className="mt-1">
                   <TaskSafetyNotes kinds={t.tasks.map((k) => k.kind)} />

@@ -1,11 +1,11 @@
 import { Link } from "react-router";
 import type { FittingDto } from "@shared/schemas/workroom";
 import { Badge, EmptyState } from "@/components/ui/feedback";
-
-const when = (iso: string) => new Date(iso).toLocaleString(undefined, { weekday: "short", day: "numeric", month: "short", hour: "2-digit", minute: "2-digit" });
+import { useProductionTime } from "@/hooks/use-production-time";
 
 /** Fittings by start time, each a large link to the tablet view. */
 export function FittingsList({ productionId, fittings }: { productionId: string; fittings: FittingDto[] }) {
+  const { dateTime: when } = useProductionTime();
   if (fittings.length === 0) return <EmptyState title="No fittings booked">Book the first one with the button above.</EmptyState>;
   return (
     <ul className="grid gap-2" aria-label="Fittings">

@@ -7,6 +7,7 @@ import { ErrorAlert } from "@/components/ui/feedback";
 import { ApiError } from "@/lib/api-client";
 import { useRaiseTicket } from "../api/workroom";
 import { TaskSafetyNotes } from "./safety";
+import { fieldError, fieldErrorsOf } from "@/lib/form-errors";
 
 interface TaskRow {
   kind: TaskKind;
@@ -44,16 +45,16 @@ export function TicketForm(props: {
       if (r.amount.trim()) {
         const parsed = parseLength(r.amount, props.units);
         if (parsed.ok) amountMm = Math.abs(parsed.mm);
-        else errs[`tasks.${i}.amountMm`] = parsed.reason;
+        else errs[`tasks.${i}.amountMm`] = fieldError(`tasks.${i}.amountMm`, parsed.reason);
       }
       const task = { kind: r.kind, amountMm, note: r.note.trim() || null, distressStage: r.distressStage ? Number(r.distressStage) : null };
       const check = alterationTaskSchema.safeParse(task);
-      if (!check.success) for (const issue of check.error.issues) errs[`tasks.${i}.${issue.path.join(".")}`] = issue.message;
+      if (!check.success) Object.assign(errs, fieldErrorsOf(check.error, `tasks.${i}`));
       return task;
     });
     const input = { garmentId: props.garment.id, fittingId: props.fittingId ?? null, tasks, estimateHours: Number(estimate), assigneeId: assigneeId || null, notes: notes.trim() || null };
     const parsed = createTicketInputSchema.safeParse(input);
-    if (!parsed.success) for (const issue of parsed.error.issues) errs[issue.path.join(".")] ??= issue.message;
+    if (!parsed.success) for (const [k, m] of Object.entries(fieldErrorsOf(parsed.error))) errs[k] ??= m;
     setErrors(errs);
     if (Object.keys(errs).length) return;
     raise.mutate(parsed.data!, {

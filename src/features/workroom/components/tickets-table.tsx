@@ -11,6 +11,7 @@ import { useSetTicketStatus, useUpdateTicket } from "../api/workroom";
 import { TaskSafetyNotes } from "./safety";
 import { OwnerPhotos } from "@/components/photos";
 import { SortHeader } from "@/components/ui/table";
+import { formatDate, formatHours } from "@shared/format";
 
 const col = createColumnHelper<PlannedTicketDto>();
 const NEXT: Partial<Record<TicketStatus, Array<{ to: TicketStatus; label: string }>>> = {
@@ -80,18 +81,18 @@ export function TicketsTable(props: { productionId: string; tickets: PlannedTick
               }}
             />
           ) : (
-            `${c.getValue()} h`
+            formatHours(c.getValue())
           ),
       }),
       col.accessor((t) => t.plannedAssigneeName ?? t.assigneeName ?? "", { id: "who", header: "Who", cell: (c) => c.getValue() || <span className="text-slate">nobody has hours</span> }),
-      col.accessor((t) => t.neededOn ?? "", { id: "neededOn", header: "Needed", cell: (c) => <span className="whitespace-nowrap">{c.getValue() || "—"}</span> }),
-      col.accessor((t) => t.dueDate ?? "9999", { id: "dueDate", header: "Due", cell: (c) => <span className="whitespace-nowrap">{c.row.original.dueDate ?? "—"}</span> }),
+      col.accessor((t) => t.neededOn ?? "", { id: "neededOn", header: "Needed", cell: (c) => <span className="whitespace-nowrap">{c.getValue() ? formatDate(c.getValue()) : "—"}</span> }),
+      col.accessor((t) => t.dueDate ?? "9999", { id: "dueDate", header: "Due", cell: (c) => <span className="whitespace-nowrap">{c.row.original.dueDate ? formatDate(c.row.original.dueDate) : "—"}</span> }),
       col.accessor((t) => t.plannedFinish ?? "", {
         id: "finish",
         header: "Planned finish",
         cell: (c) => (
           <span className="whitespace-nowrap" data-planned-finish={c.row.original.plannedFinish ?? ""}>
-            {c.row.original.planStatus === "done" ? "done" : (c.row.original.plannedFinish ?? `${c.row.original.unplannedHours} h do not fit`)}
+            {c.row.original.planStatus === "done" ? "done" : (c.row.original.plannedFinish ? formatDate(c.row.original.plannedFinish) : `${formatHours(c.row.original.unplannedHours)} do not fit`)}
             {c.row.original.late && (
               <>
                 {" "}
