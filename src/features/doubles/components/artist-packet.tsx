@@ -1,22 +1,33 @@
 import type { PacketContents, PacketDetailDto, PacketFabricSnapshot } from "@shared/schemas/packets";
 import type { TaggedValue } from "@shared/domain/fabric-physics";
 import { runPoints, type Point } from "@shared/domain/panels/geometry";
+import { formatQuantity, type Precision } from "@shared/domain/number-format";
 import { Badge } from "@/components/ui/feedback";
+import { useProductionTime } from "@/hooks/use-production-time";
 import { PanelCanvas, type CanvasSeamMark } from "./panel-canvas";
 import { PacketDiffList } from "./packet-detail";
 import { RetestFigure } from "./physics-tab";
 
-function fmt(v: number): string {
-  const a = Math.abs(v);
-  return a !== 0 && (a < 0.01 || a >= 1e5) ? v.toExponential(3) : String(Math.round(v * 10000) / 10000);
-}
+/** How each SI unit of fabrics.json is shown: in the units summary.pdf prints, three significant digits. */
+const DISPLAY: Record<string, { unit: string; factor: number; precision: Precision }> = {
+  "kg/m²": { unit: "g/m²", factor: 1000, precision: { significant: 3 } },
+  "N·m": { unit: "µN·m", factor: 1e6, precision: { significant: 3 } },
+  "N/m": { unit: "N/m", factor: 1, precision: { significant: 3 } },
+  m: { unit: "mm", factor: 1000, precision: { significant: 3 } },
+};
+const shown = (value: number, unit: string) => {
+  const d = DISPLAY[unit] ?? { unit, factor: 1, precision: { significant: 3 } };
+  return formatQuantity(value * d.factor, d.unit, d.precision);
+};
 
 /** A simulation value with its measured / assumed mark. */
-function SimValue({ v }: { v?: TaggedValue<string> }) {
+function SimValue({ v, label }: { v?: TaggedValue<string>; label?: string }) {
   if (!v) return <span className="text-slate">—</span>;
   return (
-    <span className="whitespace-nowrap" title={v.basis === "measured" ? `measured (${v.testIds.length} test${v.testIds.length > 1 ? "s" : ""})` : v.note}>
-      {fmt(v.value)} <span className="text-xs text-slate">{v.unit}</span> <Badge tone={v.basis === "measured" ? "note" : "warning"}>{v.basis === "measured" ? "measured" : "assumed"}</Badge>
+    <span className="block" title={v.basis === "measured" ? `measured (${v.testIds.length} test${v.testIds.length > 1 ? "s" : ""})` : v.note}>
+      {label ? <span className="text-xs text-slate">{label} </span> : null}
+      <span className="whitespace-nowrap">{shown(v.value, v.unit)}</span>{" "}
+      <Badge tone={v.basis === "measured" ? "note" : "warning"}>{v.basis === "measured" ? "measured" : "assumed"}</Badge>
     </span>
   );
 }
@@ -49,21 +60,26 @@ function FabricTable({ fabrics }: { fabrics: PacketFabricSnapshot[] }) {
             <th className="px-2 py-1">Bending warp / weft</th>
             <th className="px-2 py-1">Stretch warp / weft</th>
             <th className="px-2 py-1">Thickness</th>
-            <th className="px-2 py-1">Cantilever re-test</th>
           </tr>
         </thead>
-        <tbody>
-          {fabrics.map((f) => (
-            <tr key={f.id} className="border-b border-chalk-200 align-top last:border-0">
-              <th scope="row" className="px-2 py-2 font-semibold">{f.name}<span className="block text-xs font-normal text-slate">{f.construction}</span></th>
+        {/* Each fabric: its values, then the re-test across the full width so the table fits a tablet. */}
+        {fabrics.map((f) => (
+          <tbody key={f.id} className="border-b border-chalk-200 last:border-0">
+            <tr className="align-top">
+              <th scope="row" rowSpan={2} className="px-2 py-2 font-semibold">{f.name}<span className="block text-xs font-normal text-slate">{f.construction}</span></th>
               <td className="px-2 py-2"><SimValue v={f.simulation.massPerArea} /></td>
-              <td className="grid gap-1 px-2 py-2"><SimValue v={f.simulation.bendingStiffness.warp} /><SimValue v={f.simulation.bendingStiffness.weft} /></td>
-              <td className="px-2 py-2"><div className="grid gap-1"><SimValue v={f.simulation.stretchStiffness.warp} /><SimValue v={f.simulation.stretchStiffness.weft} /></div></td>
+              <td className="px-2 py-2"><div className="grid gap-1"><SimValue label="warp" v={f.simulation.bendingStiffness.warp} /><SimValue label="weft" v={f.simulation.bendingStiffness.weft} /></div></td>
+              <td className="px-2 py-2"><div className="grid gap-1"><SimValue label="warp" v={f.simulation.stretchStiffness.warp} /><SimValue label="weft" v={f.simulation.stretchStiffness.weft} /></div></td>
               <td className="px-2 py-2"><SimValue v={f.simulation.thickness} /></td>
-              <td className="px-2 py-2">{f.retest === undefined ? <span className="text-xs text-slate">not in this version</span> : <RetestFigure retest={f.retest} />}</td>
             </tr>
-          ))}
-        </tbody>
+            <tr>
+              <td colSpan={4} className="px-2 pb-2 text-sm">
+                <span className="font-semibold">Cantilever re-test: </span>
+                {f.retest === undefined ? <span className="text-xs text-slate">not in this version</span> : <RetestFigure retest={f.retest} />}
+              </td>
+            </tr>
+          </tbody>
+        ))}
       </table>
     </div>
   );
@@ -75,6 +91,7 @@ function FabricTable({ fabrics }: { fabrics: PacketFabricSnapshot[] }) {
  * cantilever re-test, the effects shots, and what changed since the version they last marked received.
  */
 export function ArtistPacketView({ packet }: { packet: PacketDetailDto }) {
+  const { dateOf } = useProductionTime();
   const c = packet.contents;
   const marks = seamMarks(c);
   const panelName = new Map(c.panels.map((p) => [p.id, p.name]));
@@ -84,7 +101,7 @@ export function ArtistPacketView({ packet }: { packet: PacketDetailDto }) {
         <h2 id="artist-changes" className="text-lg font-semibold text-ink">What changed for you</h2>
         {packet.sinceReceived ? (
           <>
-            <p className="text-sm">Since version {packet.sinceReceived.version}, which you marked received on {new Date(packet.sinceReceived.receivedAt).toLocaleDateString()}:</p>
+            <p className="text-sm">Since version {packet.sinceReceived.version}, which you marked received on {dateOf(packet.sinceReceived.receivedAt)}:</p>
             <PacketDiffList diff={packet.sinceReceived.diff} />
           </>
         ) : (
@@ -130,7 +147,7 @@ export function ArtistPacketView({ packet }: { packet: PacketDetailDto }) {
       <section aria-labelledby="artist-fabrics" className="grid gap-2">
         <h2 id="artist-fabrics" className="text-lg font-semibold text-ink">Fabrics</h2>
         <FabricTable fabrics={c.fabrics} />
-        <p className="text-xs text-slate">SI units. "Measured" values come from the workroom's tests, "assumed" ones from class defaults. The re-test bends a virtual strip with the exported bending stiffness and mass per area and compares the overhang at 41.5° with the measured one (ASTM D1388).</p>
+        <p className="text-xs text-slate">fabrics.json holds these in SI units (kg/m², N·m, N/m, m); they are shown here as summary.pdf prints them. "Measured" values come from the workroom's tests, "assumed" ones from class defaults. The re-test bends a virtual strip with the exported bending stiffness and mass per area and compares the overhang at 41.5° with the measured one (ASTM D1388).</p>
       </section>
 
       <section aria-labelledby="artist-shots" className="grid gap-2">

@@ -5,6 +5,7 @@ import { Card } from "@/components/ui/card";
 import { Badge, EmptyState, ErrorAlert, Spinner } from "@/components/ui/feedback";
 import { usePhysics } from "../api/doubles";
 import { formatDate } from "@shared/format";
+import { formatQuantity } from "@shared/domain/number-format";
 
 function fmt(v: number): string {
   const a = Math.abs(v);
@@ -25,7 +26,7 @@ function Value({ v, f }: { v?: TaggedValue<string>; f: FabricPhysicsDto }) {
   );
 }
 
-const mm1 = (v: number) => `${v.toFixed(1)} mm`;
+const mm1 = (v: number) => formatQuantity(v, "mm", { decimals: 1 });
 
 /** The exported bending values put back through the cantilever test: simulated against measured overhang, per direction. */
 export function RetestFigure({ retest }: { retest: CantileverRetest | null | undefined }) {
