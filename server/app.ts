@@ -6,10 +6,11 @@ import helmet from "helmet";
 import session from "express-session";
 import connectPgSimple from "connect-pg-simple";
 import pg from "pg";
-import { pinoHttp } from "pino-http";
+import cookieParser from "cookie-parser";
 import { csrfSync } from "csrf-sync";
 import { config, isProduction } from "./config.js";
 import { logger } from "./lib/logger.js";
+import { loggablePath, requestLog } from "./middleware/request-log.js";
 import { passport } from "./auth/passport.js";
 import { buildApiRouter } from "./routes/index.js";
 import { apiNotFound, errorHandler } from "./middleware/error-handler.js";
@@ -20,6 +21,7 @@ import { healthRouter } from "./routes/health.routes.js";
 const rootDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 
 let sessionPool: pg.Pool | undefined;
+const CSRF_COOKIE = "seamscene.csrf";
 
 /**
  * The session store's own pool. An idle client whose server goes away emits "error" on the pool;
@@ -41,7 +43,7 @@ function lateErrorsLogged(mw: RequestHandler): RequestHandler {
   return (req, res, next) =>
     mw(req, res, (err?: unknown) => {
       if (err && res.headersSent) {
-        logger.warn({ url: req.originalUrl, reason: (err as Error)?.message }, "session store failed after the response was sent");
+        logger.warn({ method: req.method, path: loggablePath(req.originalUrl), reason: (err as Error)?.message }, "session store failed after the response was sent");
         return;
       }
       next(err);
@@ -63,13 +65,14 @@ export function createApp(): Express {
           styleSrc: ["'self'", "'unsafe-inline'"],
           fontSrc: ["'self'", "data:"],
           connectSrc: ["'self'"],
-          upgradeInsecureRequests: config.SECURE_COOKIES ? [] : null,
+          upgradeInsecureRequests: config.HSTS ? [] : null,
         },
       },
-      strictTransportSecurity: config.SECURE_COOKIES,
+      // HTTPS only for a year once seen over https (APP_URL https); never on plain http.
+      strictTransportSecurity: config.HSTS ? { maxAge: 31_536_000, includeSubDomains: false } : false,
     }),
   );
-  if (config.NODE_ENV !== "test") app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => !req.url?.startsWith("/api") } }));
+  app.use("/api", requestLog);
 
   app.use(express.json({ limit: "2mb" }));
 
@@ -96,9 +99,19 @@ export function createApp(): Express {
   );
   app.use(passport.initialize());
   app.use(passport.session());
+  app.use(cookieParser(config.SESSION_SECRET));
 
+  // Signed-out visitors get no session row (saveUninitialized: false): their CSRF token lives in a
+  // signed, HttpOnly cookie instead. Signed-in people keep it in their session.
+  const csrfCookie = { httpOnly: true, sameSite: "lax", secure: config.SECURE_COOKIES, signed: true, path: "/api" } as const;
   const { csrfSynchronisedProtection, generateToken } = csrfSync({
     getTokenFromRequest: (req) => req.headers["x-csrf-token"] as string | undefined,
+    getTokenFromState: (req) => (req.user ? req.session.csrfToken : (req.signedCookies?.[CSRF_COOKIE] as string | undefined) || undefined),
+    storeTokenInState: (req, token) => {
+      if (req.user) req.session.csrfToken = token;
+      else if (token) req.res?.cookie(CSRF_COOKIE, token, csrfCookie);
+      else req.res?.clearCookie(CSRF_COOKIE, csrfCookie);
+    },
     errorConfig: { statusCode: 403, message: "csrf token invalid", code: "EBADCSRFTOKEN" },
   });
   app.get("/api/auth/csrf", (req, res) => {

@@ -9,7 +9,8 @@ const DUMMY_HASH = "scrypt$32768$8$1$AAAAAAAAAAAAAAAAAAAAAA==$" + Buffer.alloc(6
 passport.use(
   new LocalStrategy({ usernameField: "email", passwordField: "password" }, async (email, password, done) => {
     try {
-      const user = await User.findOne({ where: { email: email.trim().toLowerCase() } });
+      // The route already normalised the address (emailSchema); one normalisation for limiter and sign-in.
+      const user = await User.findOne({ where: { email } });
       const ok = await verifyPassword(password, user?.passwordHash ?? DUMMY_HASH);
       if (!user || !ok || !user.isActive) return done(null, false);
       return done(null, user);

@@ -46,19 +46,27 @@ export function jobsRunning(): boolean {
   return boss !== null;
 }
 
-/** Queues a job; without a running queue, runs its handler once now (failures are logged, not thrown). */
-export async function enqueue(name: string, data: Record<string, unknown>): Promise<void> {
+/**
+ * Queues a job; without a running queue, runs its handler once now (failures are logged, not thrown).
+ * With `inlineInBackground` the inline run starts after the caller returns, so a request that must take
+ * the same time whatever the job finds (password resets) does not wait for it even without the queue.
+ */
+export async function enqueue(name: string, data: Record<string, unknown>, options: { inlineInBackground?: boolean } = {}): Promise<void> {
   const def = defs.get(name);
   if (!def) throw new Error(`unknown job "${name}"`);
   if (boss) {
     await boss.send(name, data, { retryLimit: def.retryLimit, retryDelay: def.retryDelay, retryBackoff: def.retryBackoff });
     return;
   }
-  try {
-    await def.handler(data, { retryCount: 0, retryLimit: 0 });
-  } catch (err) {
-    logger.warn({ err, job: name }, "inline job failed");
-  }
+  const run = async () => {
+    try {
+      await def.handler(data, { retryCount: 0, retryLimit: 0 });
+    } catch (err) {
+      logger.warn({ err, job: name }, "inline job failed");
+    }
+  };
+  if (options.inlineInBackground) setImmediate(() => void run());
+  else await run();
 }
 
 /** Runs a job's handler directly (tests), with the given attempt information; errors propagate. */
