@@ -11,6 +11,7 @@ const benches: Array<{ name: string; load: () => Promise<{ run: () => unknown | 
   { name: "breakdown (CSV import, photo upload)", load: async () => ({ run: (await import("./breakdown.js")).runBreakdownBench }) },
   { name: "handoff packet ZIP", load: async () => ({ run: (await import("./packets.js")).runPacketBench }) },
   { name: "reports (continuity book PDF)", load: async () => ({ run: (await import("./reports.js")).runReportsBench }) },
+  { name: "offline app shell (precache, initial JS)", load: async () => ({ run: (await import("./offline.js")).runOfflineBench }) },
   { name: "heavy uploads vs /api/health (worker pool)", load: async () => ({ run: (await import("./uploads.js")).runUploadsBench }) },
   { name: "sign-in and password reset (server process)", load: async () => ({ run: (await import("./auth.js")).runAuthBench }) },
 ];

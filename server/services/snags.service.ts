@@ -105,10 +105,11 @@ export async function loadSnapshot(productionId: string): Promise<LoadedProducti
               f.construction, f.stretch_warp_pct, f.stretch_weft_pct
          FROM garments g LEFT JOIN fabrics f ON f.id = g.fabric_id WHERE g.production_id = :pid`),
     q(`SELECT id, name FROM multiples_groups WHERE production_id = :pid`),
+    // Entries whose scene or character went while they waited on a phone are for review, not for rules.
     q(`SELECT e.id, e.shoot_day_id, e.scene_id, e.character_id, e.distress_stage,
               COALESCE(array_agg(eg.garment_id ORDER BY eg.garment_id) FILTER (WHERE eg.garment_id IS NOT NULL), '{}') AS garment_ids
          FROM continuity_entries e LEFT JOIN continuity_entry_garments eg ON eg.continuity_entry_id = e.id
-         WHERE e.production_id = :pid GROUP BY e.id`),
+         WHERE e.production_id = :pid AND e.scene_id IS NOT NULL AND e.character_id IS NOT NULL GROUP BY e.id`),
   ]);
   const prod = productions[0];
   if (!prod) throw NotFoundError("Production not found.");
