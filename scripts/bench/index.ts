@@ -7,6 +7,7 @@ const benches: Array<{ name: string; load: () => Promise<{ run: () => unknown | 
   { name: "workroom planner", load: async () => ({ run: (await import("./workroom.js")).runWorkroomBench }) },
   { name: "snag engine", load: async () => ({ run: (await import("./snags.js")).runSnagBench }) },
   { name: "nesting (yardage marker)", load: async () => ({ run: (await import("./nesting.js")).runNestingBench }) },
+  { name: "simulation meshes (demo change)", load: async () => ({ run: (await import("./meshing.js")).runMeshingBench }) },
   { name: "breakdown (CSV import, photo upload)", load: async () => ({ run: (await import("./breakdown.js")).runBreakdownBench }) },
   { name: "handoff packet ZIP", load: async () => ({ run: (await import("./packets.js")).runPacketBench }) },
   { name: "reports (continuity book PDF)", load: async () => ({ run: (await import("./reports.js")).runReportsBench }) },

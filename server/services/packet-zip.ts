@@ -5,8 +5,9 @@ import path from "node:path";
 import { createRequire } from "node:module";
 import type { Archiver, ArchiverOptions, ProgressData } from "archiver";
 import type { Readable } from "node:stream";
-import type { PacketContents } from "@shared/schemas/packets.js";
-import { packetManifestJsonSchema, PACKET_MANIFEST_SCHEMA_ID, type PacketManifest } from "@shared/schemas/packet-manifest.js";
+import type { PacketContents, PacketFabricSnapshot } from "@shared/schemas/packets.js";
+import { packetManifestJsonSchema, PACKET_MANIFEST_SCHEMA_ID, type PacketManifest, type StitchesFile } from "@shared/schemas/packet-manifest.js";
+import { meshPanelsForSimulation, meshToObj } from "@shared/domain/panels/mesh.js";
 import { panelsToJson, panelsToObj, panelsToSvg, type SeamRef } from "@shared/domain/panels/export.js";
 import { panelsToDxf, panelToDxf } from "@shared/domain/panels/dxf-writer.js";
 import type { PanelShape } from "@shared/domain/panels/geometry.js";
@@ -65,6 +66,68 @@ export function photoZipPath(index: number, view: string, photoId: string, stora
   return `photos/${String(index + 1).padStart(2, "0")}-${view}-${photoId.slice(0, 8)}${ext.toLowerCase()}`;
 }
 
+/** Simulation meshes (one OBJ per panel) and stitches.json; none for versions snapshotted before meshes existed. */
+export function simulationFiles(contents: PacketContents, shapes: PanelShape[]): { files: PacketFile[]; manifest: NonNullable<PacketManifest["simulation"]> } | null {
+  if (contents.meshTargetEdgeMm === undefined || contents.panels.length === 0) return null;
+  const sim = meshPanelsForSimulation(
+    contents.panels.map((p) => ({ id: p.id, outline: p.outline })),
+    contents.seams.map((x) => ({ id: x.id, a: x.a, b: x.b })),
+    { targetEdgeMm: contents.meshTargetEdgeMm },
+  );
+  const shapeOf = new Map(shapes.map((sh) => [sh.id, sh]));
+  const pathOf = new Map(contents.panels.map((p, i) => [p.id, `meshes/${String(i + 1).padStart(2, "0")}-${slug(shapeOf.get(p.id)!.name)}.obj`]));
+  const files: PacketFile[] = sim.meshes.map((m) => ({
+    path: pathOf.get(m.panelId)!,
+    data: Buffer.from(meshToObj(m, shapeOf.get(m.panelId)!.name), "utf8"),
+    mediaType: "model/obj",
+    description: `Simulation mesh of ${shapeOf.get(m.panelId)!.name}: ${m.triangles.length / 3} triangles, min angle ${m.minAngleDeg.toFixed(1)}° (v in metres, vt in millimetres)`,
+  }));
+  const seamName = new Map(contents.seams.map((x) => [x.id, x.name]));
+  const stitches: StitchesFile = {
+    format: "seamscene-stitches",
+    formatVersion: 1,
+    indexBase: 0,
+    targetEdgeMm: sim.targetEdgeMm,
+    minAngleTargetDeg: sim.minAngleTargetDeg,
+    seams: sim.stitches.map((st) => ({
+      seamId: st.seamId,
+      name: seamName.get(st.seamId) ?? st.seamId,
+      a: { mesh: pathOf.get(st.a.panelId)!, panelId: st.a.panelId },
+      b: { mesh: pathOf.get(st.b.panelId)!, panelId: st.b.panelId },
+      pairs: st.a.indices.map((ia, k) => [ia, st.b.indices[k]] as [number, number]),
+    })),
+    skipped: sim.skipped.map((x) => ({ ...x, name: seamName.get(x.seamId) ?? x.seamId })),
+  };
+  files.push({ path: "stitches.json", data: json(stitches), mediaType: "application/json", description: "Mesh vertex pairs a simulator joins along each seam (0-based indices into meshes/*.obj)" });
+  const panelOf = new Map(contents.panels.map((p) => [p.id, p]));
+  return {
+    files,
+    manifest: {
+      targetEdgeMm: sim.targetEdgeMm,
+      minAngleTargetDeg: sim.minAngleTargetDeg,
+      units: { positions: "m", uv: "mm" },
+      meshes: sim.meshes.map((m) => ({
+        path: pathOf.get(m.panelId)!,
+        panelId: m.panelId,
+        name: shapeOf.get(m.panelId)!.name,
+        vertexCount: m.vertices.length,
+        triangleCount: m.triangles.length / 3,
+        boundaryVertexCount: m.boundaryCount,
+        minAngleDeg: Math.round(m.minAngleDeg * 100) / 100,
+        areaM2: m.areaMm2 / 1e6,
+        cutCount: panelOf.get(m.panelId)!.cutCount,
+        mirrored: panelOf.get(m.panelId)!.mirrored,
+      })),
+      stitches: { path: "stitches.json", seamCount: stitches.seams.length, pairCount: stitches.seams.reduce((n, x) => n + x.pairs.length, 0) },
+    },
+  };
+}
+
+/** The virtual cantilever re-test beside a fabric in fabrics.json (absent for versions snapshotted before it existed). */
+function retestField(f: PacketFabricSnapshot): { cantileverRetest?: PacketFabricSnapshot["retest"] } {
+  return f.retest === undefined ? {} : { cantileverRetest: f.retest };
+}
+
 /** A deep copy with object keys sorted, so a snapshot read back from jsonb (which reorders keys) writes the same bytes. */
 export function canonical<T>(v: T): T {
   if (Array.isArray(v)) return v.map(canonical) as T;
@@ -89,6 +152,8 @@ export interface PacketBuildContext {
   /** The flat OBJ export, shared by panels.obj and seams.json. */
   obj: ReturnType<typeof panelsToObj>;
   readPhoto: (storageKey: string) => Promise<Buffer>;
+  /** Simulation meshes and stitches (null for versions snapshotted before meshes existed), shared by their files and the manifest. */
+  simulation: ReturnType<typeof simulationFiles>;
 }
 
 /** Builds some files of the packet (none when it has nothing to add). */
@@ -145,16 +210,18 @@ const panelsObj: PacketFileBuilder = ({ obj, contents }) => [
   },
 ];
 
+const simulationMeshes: PacketFileBuilder = ({ simulation }) => simulation?.files ?? [];
+
 const fabricsJson: PacketFileBuilder = ({ contents }) => [
   {
     path: "fabrics.json",
     data: json({
       units: "SI",
-      fabrics: contents.fabrics.map((f) => ({ id: f.id, name: f.name, construction: f.construction, fabricClass: f.fabricClass, fibreContent: f.fibreContent, widthM: f.widthMm === null ? null : f.widthMm / 1000, simulation: f.simulation, tests: f.tests })),
+      fabrics: contents.fabrics.map((f) => ({ id: f.id, name: f.name, construction: f.construction, fabricClass: f.fabricClass, fibreContent: f.fibreContent, widthM: f.widthMm === null ? null : f.widthMm / 1000, simulation: f.simulation, tests: f.tests, ...retestField(f) })),
       panels: contents.panels.map((p) => ({ panelId: p.id, fabricId: p.fabricId })),
     }),
     mediaType: "application/json",
-    description: "Simulation values per fabric, each measured (with its tests) or assumed (class default)",
+    description: "Simulation values per fabric, each measured (with its tests) or assumed (class default), and the cantilever re-test of the bending values (overhangs in mm)",
   },
 ];
 
@@ -201,7 +268,7 @@ const manifestSchema: PacketFileBuilder = () => [
  * The files of a packet, in ZIP order: the one place a file is added. manifest.json (listing them all)
  * goes first and SHA256SUMS (covering all the others) last.
  */
-export const PACKET_FILE_BUILDERS: readonly PacketFileBuilder[] = [panelsJson, panelsSvg, panelsDxf, panelsObj, fabricsJson, measurementsJson, photos, shotsJson, summary, manifestSchema];
+export const PACKET_FILE_BUILDERS: readonly PacketFileBuilder[] = [panelsJson, panelsSvg, panelsDxf, panelsObj, simulationMeshes, fabricsJson, measurementsJson, photos, shotsJson, summary, manifestSchema];
 
 /**
  * Every file of the packet, SHA256SUMS last (covering all the others).
@@ -217,7 +284,7 @@ export async function buildPacketFiles(
   const contents = canonical(snapshot);
   const shapes = exportShapes(contents);
   const seamRefs: SeamRef[] = contents.seams.map((s) => ({ id: s.id, a: s.a, b: s.b }));
-  const ctx: PacketBuildContext = { contents, meta, shapes, seamRefs, obj: panelsToObj(shapes, seamRefs), readPhoto };
+  const ctx: PacketBuildContext = { contents, meta, shapes, seamRefs, obj: panelsToObj(shapes, seamRefs), readPhoto, simulation: simulationFiles(contents, shapes) };
   const files: PacketFile[] = [];
   for (const [i, build] of PACKET_FILE_BUILDERS.entries()) {
     files.push(...(await build(ctx)));
@@ -247,6 +314,7 @@ export async function buildPacketFiles(
       files: files.map((f) => ({ path: f.path, mediaType: f.mediaType, bytes: f.data.length, sha256: sha256(f.data), description: f.description })),
     },
     notes: contents.notes,
+    ...(ctx.simulation ? { simulation: ctx.simulation.manifest } : {}),
   };
   files.unshift({ path: "manifest.json", data: json(manifest), mediaType: "application/json", description: "What this packet holds" });
   // sha256sum's text format: "<hex>  <path>", one line per file.

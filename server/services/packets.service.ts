@@ -126,6 +126,7 @@ export async function getPacket(actor: Actor, packetId: string): Promise<PacketD
     if (!mine) prev = null;
   }
   const diff: PacketDiff | null = prev?.contents ? diffPacketContents(prev.contents, contents) : null;
+  const sinceReceived = await lastReceivedBefore(actor, packet, contents);
   const publisher = packet.publishedBy ? await User.findByPk(packet.publishedBy) : null;
   const counts = { panels: contents.panels.length, photos: contents.photos.length, shots: contents.shots.length, fabrics: contents.fabrics.length };
   return {
@@ -134,7 +135,26 @@ export async function getPacket(actor: Actor, packetId: string): Promise<PacketD
     contents,
     previousVersion: prev?.version ?? null,
     diff,
+    sinceReceived,
   };
+}
+
+/** The actor's own newest receipt of an earlier version of the same change, and the diff from it to these contents. */
+async function lastReceivedBefore(actor: Actor, packet: Packet, contents: PacketContents): Promise<PacketDetailDto["sinceReceived"]> {
+  const receipts = await PacketRecipient.findAll({ where: { userId: actor.user.id, productionId: actor.productionId, receivedAt: { [Op.ne]: null } } });
+  if (receipts.length === 0) return null;
+  const earlier = await Packet.findOne({
+    where: {
+      id: { [Op.in]: receipts.map((r) => r.packetId) },
+      changeId: packet.changeId,
+      status: "published",
+      ...(packet.version !== null ? { version: { [Op.lt]: packet.version } } : {}),
+    },
+    order: [["version", "DESC"]],
+  });
+  if (!earlier?.contents || earlier.version === null) return null;
+  const receipt = receipts.find((r) => r.packetId === earlier.id)!;
+  return { version: earlier.version, receivedAt: receipt.receivedAt!.toISOString(), diff: diffPacketContents(earlier.contents, contents) };
 }
 
 function normalizedSelection(p: Packet): PacketSelection {
@@ -279,11 +299,12 @@ export async function snapshotContents(productionId: string, changeId: string, s
         toleranceMm: d.effectiveToleranceMm,
       };
     }),
-    fabrics: fabrics.map((f) => ({ id: f.fabricId, name: f.name, construction: f.construction, fabricClass: f.fabricClass, fibreContent: f.fibreContent, widthMm: f.widthMm, simulation: f.values, tests: f.tests })),
+    fabrics: fabrics.map((f) => ({ id: f.fabricId, name: f.name, construction: f.construction, fabricClass: f.fabricClass, fibreContent: f.fibreContent, widthMm: f.widthMm, simulation: f.values, tests: f.tests, retest: f.retest })),
     photos: photos.map(({ sceneId: _sceneId, ...p }) => p),
     shots,
     measurements,
     notes: s.notes,
+    meshTargetEdgeMm: s.meshEdgeMm,
   };
 }
 

@@ -8,6 +8,7 @@ import type { Actor } from "../middleware/require-auth.js";
 import type { FabricPhysicsDto, MarkerDto, MarkerFabricResultDto, MarkerInput } from "@shared/schemas/doubles.js";
 import { planYardage, type YardageGroup } from "@shared/domain/panels/yardage.js";
 import { fabricSimulationValues } from "@shared/domain/fabric-physics.js";
+import { cantileverRetest } from "@shared/domain/cantilever.js";
 
 /** Groups the panels of a garment or change by the fabric they are cut from. */
 async function yardageGroups(productionId: string, input: Pick<MarkerInput, "scope" | "scopeId">, transaction?: Transaction): Promise<YardageGroup[]> {
@@ -92,11 +93,8 @@ export async function physicsForFabrics(productionId: string, fabricIds: string[
   return fabrics.map((f) => {
     const rows = tests.filter((t) => t.fabricId === f.id);
     const fabricClass = fabricClassOf(f.construction, f.massPerAreaGsm);
-    const values = fabricSimulationValues({
-      fabricClass,
-      declaredMassPerAreaGsm: f.massPerAreaGsm ?? undefined,
-      tests: rows.flatMap(fabricTestsFromRow),
-    });
+    const recorded = rows.flatMap(fabricTestsFromRow);
+    const values = fabricSimulationValues({ fabricClass, declaredMassPerAreaGsm: f.massPerAreaGsm ?? undefined, tests: recorded });
     // A thickness on the fabric record beats the class default when no thickness test exists.
     if (values.thickness.basis === "assumed" && f.thicknessMm) {
       values.thickness = { value: f.thicknessMm / 1000, unit: "m", basis: "assumed", note: `thickness ${f.thicknessMm} mm from the fabric record, not tested` };
@@ -110,6 +108,7 @@ export async function physicsForFabrics(productionId: string, fabricIds: string[
       widthMm: f.widthMm,
       values,
       tests: rows.map((t) => ({ id: t.id, kind: t.kind, direction: t.direction, testedOn: t.testedOn })),
+      retest: cantileverRetest(values, recorded),
     };
   });
 }

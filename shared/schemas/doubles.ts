@@ -3,6 +3,7 @@ import { idSchema, nameSchema } from "./common.js";
 import { validatePolygon, type Point } from "../domain/panels/geometry.js";
 import type { SeamStatus } from "../domain/panels/seams.js";
 import type { FabricSimulationValues } from "../domain/fabric-physics.js";
+import type { CantileverRetest } from "../domain/cantilever.js";
 import type { Placement } from "../domain/panels/nesting.js";
 import { Limits } from "../constants.js";
 import { DXF_UNITS, type DxfUnit } from "../domain/panels/dxf-units.js";
@@ -265,4 +266,6 @@ export interface FabricPhysicsDto {
   values: FabricSimulationValues;
   /** Test id → kind, direction and date, so "measured" can name its test. */
   tests: { id: string; kind: string; direction: string | null; testedOn: string }[];
+  /** The exported bending values put back through the cantilever test; null without a cantilever test. */
+  retest: CantileverRetest | null;
 }

@@ -2,8 +2,10 @@ import { z } from "zod";
 import { idSchema } from "./common.js";
 import { Limits } from "../constants.js";
 import type { FabricSimulationValues } from "../domain/fabric-physics.js";
+import type { CantileverRetest } from "../domain/cantilever.js";
 import type { SeamStatus } from "../domain/panels/seams.js";
 import type { PacketDiff } from "../domain/packet-diff.js";
+import { DEFAULT_MESH_EDGE_MM, MESH_EDGE_RANGE_MM } from "../domain/panels/mesh.js";
 
 /** The choices of a packet, each optional (for create and update bodies). */
 const packetChoiceFields = {
@@ -20,6 +22,11 @@ const packetChoiceFields = {
   /** Personal data: off unless chosen. */
   includeMeasurements: z.boolean(),
   notes: z.string().max(5000).nullable(),
+  /** Target edge length of the simulation meshes, mm. */
+  meshEdgeMm: z
+    .number()
+    .min(MESH_EDGE_RANGE_MM.min, { message: `must be at least ${MESH_EDGE_RANGE_MM.min} mm` })
+    .max(MESH_EDGE_RANGE_MM.max, { message: `must be at most ${MESH_EDGE_RANGE_MM.max} mm` }),
 };
 
 /** What a packet holds, as chosen by the cutter or supervisor (defaults filled in). */
@@ -31,6 +38,7 @@ export const packetSelectionSchema = z.object({
   recipientUserIds: packetChoiceFields.recipientUserIds.default([]),
   includeMeasurements: packetChoiceFields.includeMeasurements.default(false),
   notes: packetChoiceFields.notes.default(null),
+  meshEdgeMm: packetChoiceFields.meshEdgeMm.default(DEFAULT_MESH_EDGE_MM),
 });
 export type PacketSelection = z.infer<typeof packetSelectionSchema>;
 
@@ -86,6 +94,8 @@ export interface PacketFabricSnapshot {
   widthMm: number | null;
   simulation: FabricSimulationValues;
   tests: { id: string; kind: string; direction: string | null; testedOn: string }[];
+  /** Virtual cantilever re-test of the exported values (absent in versions published before it existed). */
+  retest?: CantileverRetest | null;
 }
 
 export interface PacketPhotoSnapshot {
@@ -128,6 +138,8 @@ export interface PacketContents {
   shots: PacketShotSnapshot[];
   measurements: { performerName: string; takenOn: string; valuesMm: Record<string, number> } | null;
   notes: string | null;
+  /** Target edge length of the simulation meshes, mm (absent in versions published before meshes were added: those have none). */
+  meshTargetEdgeMm?: number;
 }
 
 export interface PacketRecipientDto {
@@ -164,6 +176,8 @@ export interface PacketDetailDto extends PacketSummaryDto {
   contents: PacketContents;
   previousVersion: number | null;
   diff: PacketDiff | null;
+  /** For a recipient: the newest earlier version they marked received, and what changed since it (null when none). */
+  sinceReceived: { version: number; receivedAt: string; diff: PacketDiff } | null;
 }
 
 /** Choices offered by the packet builder for one change. */

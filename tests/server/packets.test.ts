@@ -15,7 +15,8 @@ import { printedHalfUnit } from "@shared/domain/number-format.js";
 import { readDxfPieces } from "@shared/domain/panels/dxf.js";
 import { packetStore } from "../../server/services/packet-storage.js";
 import { buildPacketFiles, zipPacketFiles } from "../../server/services/packet-zip.js";
-import { packetManifestSchema } from "@shared/schemas/packet-manifest.js";
+import { packetManifestSchema, stitchesFileSchema } from "@shared/schemas/packet-manifest.js";
+import { pointSegmentDistance } from "@shared/domain/panels/geometry.js";
 import { resetDb, signedInAgent, waitForMail, type TestAgent } from "../setup/http.js";
 import { buildMember, buildUser } from "../factories.js";
 import { buildChangeWithGarments, buildFabric, buildMeasurementSet, buildPanel, buildPhotoRow, buildSeam, buildShot } from "../setup/doubles-fixtures.js";
@@ -189,6 +190,85 @@ describe("the ZIP", () => {
     const m = JSON.parse(files.get("measurements.json")!.toString("utf8"));
     expect(m.units).toBe("m");
     expect(m.valuesM.chest_girth).toBeCloseTo(1.01, 12);
+  });
+});
+
+describe("simulation meshes, stitches and the cantilever re-test", () => {
+  /** Vertex positions (mm, from the vt lines) and triangles of an OBJ written by the packet. */
+  const parseObj = (text: string) => {
+    const lines = text.split("\n");
+    const uv = lines.filter((l) => l.startsWith("vt ")).map((l) => l.split(" ").slice(1, 3).map(Number) as [number, number]);
+    const faces = lines.filter((l) => l.startsWith("f ")).map((l) => l.split(" ").slice(1).map((x) => Number(x.split("/")[0]) - 1));
+    return { uv, faces };
+  };
+
+  it("holds one mesh per panel and stitches the side seam with equal counts on the seam runs", async () => {
+    const id = await publishedV1();
+
+    const { files } = await download(vfx, id);
+
+    const manifest = packetManifestSchema.parse(JSON.parse(files.get("manifest.json")!.toString("utf8")));
+    expect(manifest.simulation).toMatchObject({ targetEdgeMm: 10, minAngleTargetDeg: 20, units: { positions: "m", uv: "mm" } });
+    expect(manifest.simulation!.meshes.map((m) => m.cutCount)).toEqual([2, 1, 2]);
+    for (const m of manifest.simulation!.meshes) {
+      const { uv, faces } = parseObj(files.get(m.path)!.toString("utf8"));
+      expect(uv).toHaveLength(m.vertexCount);
+      expect(faces).toHaveLength(m.triangleCount);
+      // The triangles tile the panel: 0.3 × 0.6 m, 0.32 × 0.6 m and 0.25 × 0.55 m within 0.01 %.
+      const area = faces.reduce((s, [a, b, c]) => s + ((uv[b][0] - uv[a][0]) * (uv[c][1] - uv[a][1]) - (uv[b][1] - uv[a][1]) * (uv[c][0] - uv[a][0])) / 2, 0);
+      expect(area / 1e6 / m.areaM2).toBeCloseTo(1, 4);
+      expect(m.minAngleDeg).toBeGreaterThanOrEqual(20);
+    }
+    const stitches = stitchesFileSchema.parse(JSON.parse(files.get("stitches.json")!.toString("utf8")));
+    expect(stitches.seams).toHaveLength(1);
+    const seam = stitches.seams[0];
+    expect(seam.name).toBe("Side seam");
+    // 600 mm at a 10 mm target: 61 pairs from end to end.
+    expect(seam.pairs).toHaveLength(61);
+    const a = parseObj(files.get(seam.a.mesh)!.toString("utf8")).uv;
+    const b = parseObj(files.get(seam.b.mesh)!.toString("utf8")).uv;
+    for (const [ia, ib] of seam.pairs) {
+      // Front run: vertex 1 → 2 (x = 300); back run: vertex 3 → 0 (x = 0); paired at equal heights.
+      expect(pointSegmentDistance(a[ia], [300, 0], [300, 600]).distance).toBeLessThan(1e-6);
+      expect(pointSegmentDistance(b[ib], [0, 600], [0, 0]).distance).toBeLessThan(1e-6);
+      expect(a[ia][1]).toBeCloseTo(600 - b[ib][1], 6);
+    }
+    const schema = JSON.parse(files.get("manifest.schema.json")!.toString("utf8"));
+    expect(Object.keys(schema.$defs.stitchesFile.properties)).toEqual(expect.arrayContaining(["indexBase", "seams", "skipped"]));
+    expect(Object.keys(schema.properties)).toContain("simulation");
+  });
+
+  it("uses the mesh edge length chosen when publishing, and 400 names the field when it is out of range", async () => {
+    const bad = await cutter.post(`${base()}/packets`, { changeId: ids.changeId, recipientUserIds: [vfxUser.id], meshEdgeMm: 2 });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields.meshEdgeMm).toBeDefined();
+    const draft = await cutter.post(`${base()}/packets`, { changeId: ids.changeId, recipientUserIds: [vfxUser.id], meshEdgeMm: 25 });
+    await supervisor.post(`${base()}/packets/${draft.body.data.id}/publish`);
+
+    const { files } = await download(vfx, draft.body.data.id);
+
+    const stitches = stitchesFileSchema.parse(JSON.parse(files.get("stitches.json")!.toString("utf8")));
+    expect(stitches.targetEdgeMm).toBe(25);
+    expect(stitches.seams[0].pairs).toHaveLength(25);
+  });
+
+  it("carries the re-test overhang next to the measured one in fabrics.json (ASTM D1388: c = O/2 → O = 40 mm)", async () => {
+    const id = await publishedV1();
+
+    const { files } = await download(vfx, id);
+
+    const fabrics = JSON.parse(files.get("fabrics.json")!.toString("utf8"));
+    const retest = fabrics.fabrics[0].cantileverRetest;
+    expect(retest.directions).toHaveLength(1);
+    expect(retest.directions[0]).toMatchObject({ direction: "warp", angleDeg: 41.5, measuredOverhangMm: 40 });
+    expect(Math.abs(retest.directions[0].simulatedOverhangMm - 40) / 40).toBeLessThan(0.01);
+  });
+
+  it("the Fabric physics tab's data carries the re-test", async () => {
+    const res = await cutter.get(`${base()}/doubles/physics?changeId=${ids.changeId}`);
+
+    expect(res.status).toBe(200);
+    expect(res.body.data[0].retest.directions[0]).toMatchObject({ direction: "warp", measuredOverhangMm: 40 });
   });
 });
 
@@ -393,6 +473,32 @@ describe("what a vfx user sees", () => {
     expect((await vfx.get(`${base()}/panels?changeId=${ids.changeId}`)).status).toBe(403);
     expect((await vfx.get(`${base()}/doubles/physics?changeId=${ids.changeId}`)).status).toBe(403);
     expect((await vfx.get(`${base()}/packets/options?changeId=${ids.changeId}`)).status).toBe(403);
+  });
+
+  it("shows a recipient what changed since the version they last marked received, skipping versions they did not", async () => {
+    const v1 = await publishedV1();
+    await vfx.post(`${base()}/packets/${v1}/received`);
+    const publishNext = async () => {
+      const d = await cutter.post(`${base()}/packets`, { changeId: ids.changeId });
+      const p = await supervisor.post(`${base()}/packets/${d.body.data.id}/publish`);
+      expect(p.status, JSON.stringify(p.body)).toBe(200);
+      return d.body.data.id as string;
+    };
+    await cutter.patch(`${base()}/panels/${ids.panelIds[2]}`, { cutCount: 4 });
+    await publishNext();
+    await cutter.patch(`${base()}/panels/${ids.panelIds[0]}`, { name: "Front left" });
+    const v3 = await publishNext();
+
+    const seen = await vfx.get(`${base()}/packets/${v3}`);
+    const first = await vfx.get(`${base()}/packets/${v1}`);
+    const staff = await supervisor.get(`${base()}/packets/${v3}`);
+
+    // Version 2 was never marked received: the comparison goes back to version 1 and holds both edits.
+    expect(seen.body.data.previousVersion).toBe(2);
+    expect(seen.body.data.sinceReceived).toMatchObject({ version: 1 });
+    expect(seen.body.data.sinceReceived.diff.panels.changed.map((c: { id: string }) => c.id).sort()).toEqual([ids.panelIds[0], ids.panelIds[2]].sort());
+    expect(first.body.data.sinceReceived).toBeNull();
+    expect(staff.body.data.sinceReceived).toBeNull();
   });
 
   it("marks received; the supervisor sees who received which version", async () => {

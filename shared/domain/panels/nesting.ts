@@ -9,7 +9,8 @@
 // because their drawn grainline does not need to follow the warp.
 // Mirrored pairs: copies 0, 2, 4… are cut as drafted and copies 1, 3, 5… as the mirror image (x → −x).
 //
-// Method: pieces go largest area first. For each copy and each allowed orientation, the feasible places
+// Method: pieces go longest side first (a local search may then change the order and orientations,
+// see nestPieces). For each copy and each allowed orientation, the feasible places
 // are the inner-fit rectangle of the strip minus the no-fit polygons (NFP) of the pieces already placed,
 // NFP(A, B) = A ⊕ (−B) built from convex parts on integers and united with clipper-lib; the left-most (then lowest) feasible vertex
 // wins, and the orientation whose right edge ends furthest left is kept. To keep exact touching fits
@@ -53,8 +54,24 @@ export interface NestPiece {
 export interface NestOptions {
   /** Usable fabric width (cloth width less selvages), mm. */
   usableWidthMm: number;
-  /** Called after each copy is placed: done copies, total copies. */
+  /** Called after each copy of the first (constructive) layout is placed: done copies, total copies. */
   onProgress?: (done: number, total: number) => void;
+  /** Local search after the first layout; none when omitted. */
+  search?: NestSearchOptions;
+}
+
+/** Budget and seed of the local search. */
+export interface NestSearchOptions {
+  /** Seed of the move generator; default 1. */
+  seed?: number;
+  /** Stop after this many layouts (the first, constructive one included). */
+  maxEvaluations?: number;
+  /** Stop after this many milliseconds. */
+  timeBudgetMs?: number;
+  /** Clock for the time budget, ms; default Date.now. */
+  now?: () => number;
+  /** Called every few layouts and at the end. */
+  onProgress?: (p: NestSearchProgress) => void;
 }
 
 /** One placed copy of a piece. */
@@ -127,6 +144,8 @@ interface Placed {
   minY: number;
   maxX: number;
   maxY: number;
+  /** This piece's NFPs against each moving orientation, already translated to where it lies. */
+  clips: Map<string, IntPath[]>;
 }
 
 const snap = (v: number) => Math.round(v / GRID) * GRID;
@@ -311,13 +330,18 @@ function placeOrientation(
   const fallback = { X: rightEdge, Y: 0 };
   const clips: IntPath[] = [];
   for (const p of placed) {
-    const key = `${p.orient.key}>${o.key}`;
-    let nfp = nfpCache.get(key);
-    if (!nfp) {
-      nfp = noFitPolygon(p.orient.parts, o.shrunkParts);
-      nfpCache.set(key, nfp);
+    let moved = p.clips.get(o.key);
+    if (!moved) {
+      const key = `${p.orient.key}>${o.key}`;
+      let nfp = nfpCache.get(key);
+      if (!nfp) {
+        nfp = noFitPolygon(p.orient.parts, o.shrunkParts);
+        nfpCache.set(key, nfp);
+      }
+      moved = nfp.map((part) => translate(part, p.t));
+      p.clips.set(o.key, moved);
     }
-    for (const part of nfp) clips.push(translate(part, p.t));
+    for (const part of moved) clips.push(part);
   }
   const ifr: IntPath = [
     { X: -EPS, Y: -EPS },
@@ -350,48 +374,107 @@ function placeOrientation(
   return fallback;
 }
 
-/** Expands pieces into copies, largest area first (stable by input order). */
+/** Expands pieces into copies, longest bounding-box side first (stable by input order). */
 function copiesOf(pieces: readonly NestPiece[]): { piece: NestPiece; copy: number; area: number; order: number }[] {
   const list: { piece: NestPiece; copy: number; area: number; order: number }[] = [];
   pieces.forEach((piece, order) => {
     const area = polygonArea(piece.outline);
     for (let copy = 0; copy < piece.cutCount; copy++) list.push({ piece, copy, area, order });
   });
-  return list.sort((a, b) => b.area - a.area || a.order - b.order || a.copy - b.copy);
+  // Longest side first (of the grain-aligned bounding box): long pieces, a bias strip lying at 45°
+  // included, then shape the marker and small ones fill in; it starts far better than largest area first.
+  const key = (c: { piece: NestPiece }) => {
+    const o = buildOrientation(c.piece, false, 0);
+    return Math.max(o.width, o.height);
+  };
+  return list.map((c) => ({ ...c, k: key(c) })).sort((a, b) => b.k - a.k || a.order - b.order || a.copy - b.copy);
+}
+
+/** Everything a layout needs that does not change between layouts: copies, orientations and the NFP cache. */
+interface NestContext {
+  W: number;
+  widthUnits: number;
+  copies: { piece: NestPiece; copy: number; area: number; order: number; mirrored: boolean; steps: number[] }[];
+  orientCache: Map<string, Orientation>;
+  nfpCache: Map<string, IntPath[]>;
+}
+
+function nestContext(pieces: readonly NestPiece[], W: number): NestContext {
+  return {
+    W,
+    widthUnits: Math.floor((W * S) / GRID) * GRID,
+    copies: copiesOf(pieces).map((c) => ({
+      ...c,
+      mirrored: Boolean(c.piece.mirrored) && c.copy % 2 === 1,
+      steps: (c.piece.grainMode ?? "straight") === "straight" ? [0, 180] : [0, 90, 180, 270],
+    })),
+    orientCache: new Map(),
+    nfpCache: new Map(),
+  };
+}
+
+function orientationOf(ctx: NestContext, piece: NestPiece, mirrored: boolean, step: number): Orientation {
+  const key = `${piece.id}|${mirrored ? "m" : "n"}|${step}`;
+  let o = ctx.orientCache.get(key);
+  if (!o) {
+    o = buildOrientation(piece, mirrored, step);
+    ctx.orientCache.set(key, o);
+  }
+  return o;
+}
+
+/** One layout: the copies in `order`, each in its fixed orientation step or (null) the best allowed one. */
+interface Layout {
+  order: number[];
+  steps: (number | null)[];
+  placed: Placed[];
+  /** Copy index (into ctx.copies) of each placed entry. */
+  placedCopy: number[];
+  unplaced: number[];
+  /** Marker length, clipper units. */
+  length: number;
+  /** Sum of the placed pieces' right edges: smaller means packed further left (tie-breaker). */
+  compaction: number;
+  /** State after the first k copies of the order, so a later layout sharing that prefix resumes there. */
+  after: { placed: number; unplaced: number; rightEdge: number; compaction: number }[];
+}
+
+/** Length of the common prefix of two layouts' orders (with equal orientation choices). */
+function sharedPrefix(a: Layout, order: readonly number[], steps: readonly (number | null)[]): number {
+  let k = 0;
+  while (k < order.length && a.order[k] === order[k] && a.steps[order[k]] === steps[order[k]]) k++;
+  return k;
 }
 
 /**
- * Lays all copies of the pieces on a strip of the given usable width by bottom-left fill with
- * no-fit polygons; placed outlines never overlap and stay within 0 ≤ y ≤ width.
+ * Bottom-left fill of the copies in the given order, resuming after the part it shares with `from`.
+ * Stops early (returning null) once the marker grows past `abortAbove` units, since such a layout
+ * cannot beat the best one known.
  */
-export function nestPieces(pieces: readonly NestPiece[], options: NestOptions): NestResult {
-  const W = options.usableWidthMm;
-  if (!(W > 0)) throw new Error("usable width must be positive");
-  const widthUnits = Math.floor((W * S) / GRID) * GRID;
-  const copies = copiesOf(pieces);
-  const total = copies.length;
-  const lowerBoundMm = copies.reduce((s, c) => s + c.area, 0) / W;
-  const orientCache = new Map<string, Orientation>();
-  const nfpCache = new Map<string, IntPath[]>();
-  const placed: Placed[] = [];
-  const placements: Placement[] = [];
-  const unplaced: UnplacedCopy[] = [];
-  let rightEdge = 0;
-  options.onProgress?.(0, total);
-
-  copies.forEach(({ piece, copy }, index) => {
-    const mirrored = Boolean(piece.mirrored) && copy % 2 === 1;
-    const steps = (piece.grainMode ?? "straight") === "straight" ? [0, 180] : [0, 90, 180, 270];
+function layOut(
+  ctx: NestContext,
+  order: readonly number[],
+  steps: readonly (number | null)[],
+  options: { from?: Layout; abortAbove?: number; onPlaced?: (done: number) => void } = {},
+): Layout | null {
+  const abortAbove = options.abortAbove ?? Infinity;
+  const k0 = options.from ? sharedPrefix(options.from, order, steps) : 0;
+  const snap0 = k0 > 0 ? options.from!.after[k0 - 1] : { placed: 0, unplaced: 0, rightEdge: 0, compaction: 0 };
+  const placed: Placed[] = k0 > 0 ? options.from!.placed.slice(0, snap0.placed) : [];
+  const placedCopy: number[] = k0 > 0 ? options.from!.placedCopy.slice(0, snap0.placed) : [];
+  const unplaced: number[] = k0 > 0 ? options.from!.unplaced.slice(0, snap0.unplaced) : [];
+  const after = k0 > 0 ? options.from!.after.slice(0, k0) : [];
+  let rightEdge = snap0.rightEdge;
+  let compaction = snap0.compaction;
+  for (let k = k0; k < order.length; k++) {
+    const ci = order[k];
+    const { piece, mirrored } = ctx.copies[ci];
+    const fixed = steps[ci];
     let best: { o: Orientation; t: IntPoint; score: [number, number, number] } | null = null;
-    for (const step of steps) {
-      const key = `${piece.id}|${mirrored ? "m" : "n"}|${step}`;
-      let o = orientCache.get(key);
-      if (!o) {
-        o = buildOrientation(piece, mirrored, step);
-        orientCache.set(key, o);
-      }
-      if (o.height > widthUnits) continue;
-      const t = placeOrientation(o, placed, widthUnits, rightEdge, nfpCache);
+    for (const step of fixed === null ? ctx.copies[ci].steps : [fixed]) {
+      const o = orientationOf(ctx, piece, mirrored, step);
+      if (o.height > ctx.widthUnits) continue;
+      const t = placeOrientation(o, placed, ctx.widthUnits, rightEdge, ctx.nfpCache);
       // Prefer the orientation whose right edge stays furthest left, then the lowest, then the narrowest.
       const score: [number, number, number] = [t.X + o.width, t.Y, o.width];
       if (
@@ -402,26 +485,65 @@ export function nestPieces(pieces: readonly NestPiece[], options: NestOptions): 
         best = { o, t, score };
       }
     }
-    if (!best) {
-      unplaced.push({ pieceId: piece.id, copy, reason: `wider than the usable width ${W} mm in every allowed orientation` });
-    } else {
+    if (!best) unplaced.push(ci);
+    else {
       const { o, t } = best;
-      const path = translate(o.path, t);
-      placed.push({ orient: o, t, path, minX: t.X, minY: t.Y, maxX: t.X + o.width, maxY: t.Y + o.height });
+      placed.push({ orient: o, t, path: translate(o.path, t), minX: t.X, minY: t.Y, maxX: t.X + o.width, maxY: t.Y + o.height, clips: new Map() });
+      placedCopy.push(ci);
       rightEdge = Math.max(rightEdge, t.X + o.width);
-      placements.push({
-        pieceId: piece.id,
-        name: piece.name ?? piece.id,
-        copy,
-        mirrored: o.mirrored,
-        rotationDeg: o.rotationDeg,
-        offset: [(t.X - o.shift.X) / S, (t.Y - o.shift.Y) / S],
-        polygon: path.map((p) => [p.X / S, p.Y / S] as Point),
-      });
+      compaction += t.X + o.width;
+      if (rightEdge > abortAbove) return null;
     }
-    options.onProgress?.(index + 1, total);
-  });
+    after.push({ placed: placed.length, unplaced: unplaced.length, rightEdge, compaction });
+    options.onPlaced?.(k + 1);
+  }
+  return { order: [...order], steps: [...steps], placed, placedCopy, unplaced, length: rightEdge, compaction, after };
+}
 
+const better = (a: Layout, b: Layout) => a.unplaced.length < b.unplaced.length || (a.unplaced.length === b.unplaced.length && (a.length < b.length || (a.length === b.length && a.compaction < b.compaction)));
+
+/** A small seeded generator (mulberry32), so a search repeats exactly for the same seed and budget. */
+function seededRandom(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/** Progress of the local search. */
+export interface NestSearchProgress {
+  /** Layouts tried so far (the first is the constructive one). */
+  evaluations: number;
+  /** Marker length of the best layout so far, mm. */
+  bestLengthMm: number;
+  /** Share of the budget used, 0..1. */
+  fraction: number;
+}
+
+function finish(ctx: NestContext, layout: Layout, lowerBoundMm: number): NestResult {
+  const placements: Placement[] = layout.placed.map((p, i) => {
+    const c = ctx.copies[layout.placedCopy[i]];
+    const o = p.orient;
+    return {
+      pieceId: c.piece.id,
+      name: c.piece.name ?? c.piece.id,
+      copy: c.copy,
+      mirrored: o.mirrored,
+      rotationDeg: o.rotationDeg,
+      offset: [(p.t.X - o.shift.X) / S, (p.t.Y - o.shift.Y) / S] as Point,
+      polygon: p.path.map((q) => [q.X / S, q.Y / S] as Point),
+    };
+  });
+  const unplaced: UnplacedCopy[] = layout.unplaced.map((ci) => ({
+    pieceId: ctx.copies[ci].piece.id,
+    copy: ctx.copies[ci].copy,
+    reason: `wider than the usable width ${ctx.W} mm in every allowed orientation`,
+  }));
+  const W = ctx.W;
   const markerLengthMm = placements.length ? Math.max(...placements.map((p) => boundingBox(p.polygon).maxX)) : 0;
   const pieceAreaMm2 = placements.reduce((s, p) => s + polygonArea(p.polygon), 0);
   return {
@@ -433,6 +555,80 @@ export function nestPieces(pieces: readonly NestPiece[], options: NestOptions): 
     placements,
     unplaced,
   };
+}
+
+/**
+ * Lays all copies of the pieces on a strip of the given usable width by bottom-left fill with
+ * no-fit polygons, then (when given a budget) improves the layout by local search; placed outlines
+ * never overlap and stay within 0 ≤ y ≤ width.
+ *
+ * Local search: starting from the largest-first order with each copy in its best orientation, a move
+ * swaps two copies in the order, moves one copy earlier, or fixes one copy's orientation (0°/180°,
+ * and 90°/270° where the grain allows); a move is kept when the marker gets no longer (ties go to the
+ * layout packed further left). NFPs are cached across layouts, and a layout is abandoned as soon as
+ * it grows past the best one. With a fixed seed and `maxEvaluations` (and no time budget) the result
+ * is the same on every run; a time budget makes it depend on the machine's speed.
+ */
+export function nestPieces(pieces: readonly NestPiece[], options: NestOptions): NestResult {
+  const W = options.usableWidthMm;
+  if (!(W > 0)) throw new Error("usable width must be positive");
+  const ctx = nestContext(pieces, W);
+  const total = ctx.copies.length;
+  const lowerBoundMm = ctx.copies.reduce((s, c) => s + c.area, 0) / W;
+  options.onProgress?.(0, total);
+  const order = ctx.copies.map((_, i) => i);
+  const steps: (number | null)[] = ctx.copies.map(() => null);
+  let best = layOut(ctx, order, steps, { onPlaced: (done) => options.onProgress?.(done, total) })!;
+  const maxEvaluations = options.search?.maxEvaluations ?? (options.search?.timeBudgetMs !== undefined ? Infinity : 0);
+  const budgetMs = options.search?.timeBudgetMs ?? Infinity;
+  const now = options.search?.now ?? (() => Date.now());
+  const started = now();
+  const random = seededRandom(options.search?.seed ?? 1);
+  let evaluations = 1;
+  const report = () =>
+    options.search?.onProgress?.({
+      evaluations,
+      bestLengthMm: best.length / S,
+      fraction: Math.min(1, Math.max(evaluations / Math.max(1, maxEvaluations), Number.isFinite(budgetMs) ? (now() - started) / budgetMs : 0)),
+    });
+  if (total > 1) {
+    while (evaluations < maxEvaluations && now() - started < budgetMs) {
+      const o = [...best.order];
+      const st = [...best.steps];
+      const move = random();
+      // Half the moves start from a copy near the marker's end: that is where the length is decided.
+      const tail = best.placed.map((p, i) => [p.maxX, i] as const).filter(([x]) => x >= best.length * 0.85).map(([, i]) => o.indexOf(best.placedCopy[i]));
+      const pickPos = () => (tail.length && random() < 0.5 ? tail[Math.floor(random() * tail.length)] : Math.floor(random() * total));
+      if (move < 0.4) {
+        // Swap two copies, mostly near each other in the order.
+        const i = pickPos();
+        const span = Math.max(1, Math.round(total * (random() < 0.7 ? 0.2 : 1)));
+        const j = Math.min(total - 1, Math.max(0, i + Math.floor(random() * (2 * span + 1)) - span));
+        if (i === j) continue;
+        [o[i], o[j]] = [o[j], o[i]];
+      } else if (move < 0.7) {
+        // Move one copy earlier.
+        const i = Math.max(1, pickPos());
+        const j = Math.floor(random() * i);
+        const [c] = o.splice(i, 1);
+        o.splice(j, 0, c);
+      } else {
+        // Fix (or free again) one copy's orientation.
+        const ci = Math.floor(random() * total);
+        const allowed = ctx.copies[ci].steps;
+        const pick = Math.floor(random() * (allowed.length + 1));
+        st[ci] = pick === allowed.length ? null : allowed[pick];
+        if (st[ci] === best.steps[ci]) continue;
+      }
+      evaluations++;
+      const candidate = layOut(ctx, o, st, { from: best, abortAbove: best.length });
+      // Keep a layout that is no longer (equal length: only when packed further left).
+      if (candidate && !better(best, candidate)) best = candidate;
+      if (evaluations % 5 === 0) report();
+    }
+  }
+  report();
+  return finish(ctx, best, lowerBoundMm);
 }
 
 /** A nesting piece from a panel: its sew line grown by the seam allowance (miter joins) as the cut line. */

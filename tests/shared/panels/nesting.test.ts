@@ -5,6 +5,7 @@ import ClipperLib from "clipper-lib";
 import { polygonArea as d3Area, polygonContains } from "d3-polygon";
 import { nestPieceFromPanel, nestPieces, type NestPiece, type NestResult } from "@shared/domain/panels/nesting";
 import type { Point } from "@shared/domain/panels/geometry";
+import { benchPieces } from "../../../scripts/bench/nesting";
 
 type XY = [number, number];
 const d3 = (p: readonly Point[]) => p.map(([x, y]) => [x, y] as XY);
@@ -222,5 +223,67 @@ describe("nestPieces on garment-like and random sets", () => {
     // A 100 × 200 sew line with 10 mm allowance and miter corners cuts as 120 × 220 (elementary geometry).
     expect(area(piece.outline)).toBe(120 * 220);
     expect(piece.cutCount).toBe(2);
+  });
+});
+
+describe("nestPieces local search", () => {
+  const W = 1450;
+
+  it("keeps every layout it accepts valid: no overlap, inside the width, on grain (the 30-copy bench set, 40 layouts)", () => {
+    const pieces = benchPieces();
+
+    const first = nestPieces(pieces, { usableWidthMm: W });
+    const improved = nestPieces(pieces, { usableWidthMm: W, search: { seed: 7, maxEvaluations: 40 } });
+
+    checkMarker(pieces, improved, W);
+    expect(improved.placements).toHaveLength(30);
+    expect(improved.markerLengthMm).toBeLessThanOrEqual(first.markerLengthMm);
+    // Length can never beat the area bound (total area / width).
+    expect(improved.markerLengthMm).toBeGreaterThanOrEqual(improved.lowerBoundMm);
+  });
+
+  it("repeats exactly for the same seed and budget, and reports its progress", () => {
+    const pieces = benchPieces().slice(5, 12);
+    const progress: number[] = [];
+
+    const a = nestPieces(pieces, { usableWidthMm: W, search: { seed: 3, maxEvaluations: 25, onProgress: (p) => progress.push(p.fraction) } });
+    const b = nestPieces(pieces, { usableWidthMm: W, search: { seed: 3, maxEvaluations: 25 } });
+
+    expect(b).toEqual(a);
+    expect(progress.at(-1)).toBe(1);
+    expect([...progress].sort((x, y) => x - y)).toEqual(progress);
+  });
+
+  it("stops at the time budget on the clock it is given", () => {
+    let t = 0;
+    const pieces = benchPieces().slice(5, 12);
+    let layouts = 0;
+
+    nestPieces(pieces, { usableWidthMm: W, search: { seed: 1, timeBudgetMs: 100, now: () => (t += 10), onProgress: (p) => (layouts = p.evaluations) } });
+
+    // Each clock reading advances 10 ms: a 100 ms budget allows about ten readings.
+    expect(layouts).toBeGreaterThan(1);
+    expect(layouts).toBeLessThan(15);
+  });
+
+  it("never overlaps on random polygon sets after searching", () => {
+    const pieceArb = fc
+      .record({ radii: fc.array(fc.integer({ min: 40, max: 300 }), { minLength: 4, maxLength: 10 }), cutCount: fc.integer({ min: 1, max: 3 }), mirrored: fc.boolean(), grainMode: fc.constantFrom("straight" as const, "free" as const) })
+      .map(({ radii, cutCount, mirrored, grainMode }) => ({
+        outline: radii.map((r, i): Point => [r * Math.cos((2 * Math.PI * i) / radii.length), r * Math.sin((2 * Math.PI * i) / radii.length)]),
+        cutCount,
+        mirrored,
+        grainMode,
+      }));
+    fc.assert(
+      fc.property(fc.array(pieceArb, { minLength: 2, maxLength: 5 }), fc.integer({ min: 700, max: 1500 }), fc.integer({ min: 1, max: 1000 }), (raw, width, seed) => {
+        const pieces: NestPiece[] = raw.map((p, i) => ({ id: `p${i}`, ...p }));
+
+        const result = nestPieces(pieces, { usableWidthMm: width, search: { seed, maxEvaluations: 8 } });
+
+        checkMarker(pieces, result, width);
+      }),
+      { numRuns: 6 },
+    );
   });
 });

@@ -16,6 +16,7 @@ import { PacketsTab } from "@/features/doubles/components/packets-tab";
 import { PacketBuilder } from "@/features/doubles/components/packet-builder";
 import { PacketDetail } from "@/features/doubles/components/packet-detail";
 import { VfxPackets } from "@/features/doubles/components/vfx-packets";
+import { ArtistPacketView } from "@/features/doubles/components/artist-packet";
 import { useProductionTime } from "@/hooks/use-production-time";
 import { onTabListKeyDown } from "@/components/ui/tabs";
 
@@ -104,6 +105,11 @@ function PacketPage() {
           </div>
         )}
       </Card>
+      {can("packet.receive") && (
+        <Card>
+          <ArtistPacketView packet={p} />
+        </Card>
+      )}
     </div>
   );
 }

@@ -1,7 +1,8 @@
 import { useState, type ReactNode } from "react";
 import type { PacketDetailDto, PacketSelection } from "@shared/schemas/packets";
 import { Button } from "@/components/ui/button";
-import { TextareaField } from "@/components/ui/field";
+import { InputField, TextareaField } from "@/components/ui/field";
+import { MESH_EDGE_RANGE_MM } from "@shared/domain/panels/mesh";
 import { ErrorAlert, Spinner } from "@/components/ui/feedback";
 import { ConfirmDialog } from "@/components/ui/dialog";
 import { ApiError } from "@/lib/api-client";
@@ -82,6 +83,17 @@ export function PacketBuilder({ productionId, packet, canPublish, onPublished }:
         {check(o.hasMeasurements ? "Include the performer's measurements" : "No measurements recorded", s.includeMeasurements, (v) => setS({ ...s, includeMeasurements: v }), "measurements")}
         <p className="text-xs text-slate">Personal data: off by default. Include them only when the double cannot be built without them; recipients are told to keep them confidential.</p>
       </Group>
+      <InputField
+        label="Simulation mesh: target edge length (mm)"
+        type="number"
+        min={MESH_EDGE_RANGE_MM.min}
+        max={MESH_EDGE_RANGE_MM.max}
+        step={1}
+        value={Number.isFinite(s.meshEdgeMm) ? s.meshEdgeMm : ""}
+        onChange={(e) => setS({ ...s, meshEdgeMm: e.target.value === "" ? Number.NaN : Number(e.target.value) })}
+        error={fields.meshEdgeMm}
+        hint={`Each panel goes in as a triangle mesh a cloth solver can load, with stitches.json pairing the vertices along every seam. ${MESH_EDGE_RANGE_MM.min}–${MESH_EDGE_RANGE_MM.max} mm; 10 mm suits most garments, smaller makes more triangles.`}
+      />
       <TextareaField label="Notes for the artists" value={s.notes ?? ""} onChange={(e) => setS({ ...s, notes: e.target.value || null })} />
       {update.error && !Object.keys(fields).length && <ErrorAlert error={update.error} title="Not saved" />}
       {publish.error && <ErrorAlert error={publish.error} title="Not published" />}

@@ -20,13 +20,10 @@ function DiffList({ label, g }: { label: string; g: DiffGroup }) {
   );
 }
 
-/** What changed since the previous version. */
-export function PacketDiffView({ packet }: { packet: PacketDetailDto }) {
-  if (!packet.diff) return <p className="text-sm text-slate">{packet.previousVersion === null ? "First version: nothing to compare with." : ""}</p>;
-  const d = packet.diff;
+/** The groups of one diff, or a note when nothing differs. */
+export function PacketDiffList({ diff: d }: { diff: NonNullable<PacketDetailDto["diff"]> }) {
   return (
-    <section aria-label="Changes since the previous version" className="grid gap-2">
-      <h3 className="font-semibold text-ink">Since version {packet.previousVersion}</h3>
+    <div className="grid gap-2">
       {d.empty ? <p className="text-sm text-slate">No differences.</p> : null}
       <DiffList label="Panels" g={d.panels} />
       <DiffList label="Seams" g={d.seams} />
@@ -34,6 +31,18 @@ export function PacketDiffView({ packet }: { packet: PacketDetailDto }) {
       <DiffList label="Effects shots" g={d.shots} />
       <DiffList label="Photos" g={d.photos} />
       {d.measurements !== "unchanged" && <p className="text-sm">Performer measurements: {d.measurements}</p>}
+    </div>
+  );
+}
+
+/** What changed since the previous version. */
+export function PacketDiffView({ packet }: { packet: PacketDetailDto }) {
+  if (!packet.diff) return <p className="text-sm text-slate">{packet.previousVersion === null ? "First version: nothing to compare with." : ""}</p>;
+  const d = packet.diff;
+  return (
+    <section aria-label="Changes since the previous version" className="grid gap-2">
+      <h3 className="font-semibold text-ink">Since version {packet.previousVersion}</h3>
+      <PacketDiffList diff={d} />
     </section>
   );
 }

@@ -20,7 +20,13 @@ const n1 = (v: number) => Math.round(v * 10) / 10;
  * grainline arrow, notches, vertex numbers, name and area. y is flipped so the pattern's y runs up.
  * Clicking adds a point (mm, rounded) when `onAddPoint` is given.
  */
-export function PanelCanvas({ panel, height = 320, showVertices = true, onAddPoint, label }: { panel: CanvasPanel; height?: number; showVertices?: boolean; onAddPoint?: (p: [number, number]) => void; label?: string }) {
+/** A seam run drawn on a panel: its points along the sew line and a short label. */
+export interface CanvasSeamMark {
+  label: string;
+  points: readonly Point[];
+}
+
+export function PanelCanvas({ panel, height = 320, showVertices = true, onAddPoint, label, seams = [] }: { panel: CanvasPanel; height?: number; showVertices?: boolean; onAddPoint?: (p: [number, number]) => void; label?: string; seams?: readonly CanvasSeamMark[] }) {
   const drawn = useMemo(() => {
     const valid = panel.outline.length >= 3 && validatePolygon(panel.outline as Point[]).valid;
     let cut: Point[] | null = panel.cutLine ?? null;
@@ -81,6 +87,22 @@ export function PanelCanvas({ panel, height = 320, showVertices = true, onAddPoi
         const ox = n.point[0] + (s * (b[1] - a[1]) * d) / len;
         const oy = n.point[1] - (s * (b[0] - a[0]) * d) / len;
         return <line key={i} x1={n.point[0]} y1={-n.point[1]} x2={ox} y2={-oy} stroke="#B5452E" strokeWidth={stroke * 1.5} />;
+      })}
+      {seams.map((m, i) => {
+        const mid = m.points[Math.floor(m.points.length / 2)];
+        return (
+          <g key={`seam-${i}`}>
+            <polyline points={m.points.map((p) => `${p[0]},${-p[1]}`).join(" ")} fill="none" stroke="#C98B2B" strokeWidth={stroke * 4} strokeOpacity={0.75} strokeLinecap="round" />
+            {mid && (
+              <g>
+                <circle cx={mid[0]} cy={-mid[1]} r={font * 1.1} fill="#fff" stroke="#C98B2B" strokeWidth={stroke * 1.5} />
+                <text x={mid[0]} y={-mid[1]} fontSize={font * 1.4} fontWeight="bold" fill="#172041" textAnchor="middle" dominantBaseline="central">
+                  {m.label}
+                </text>
+              </g>
+            )}
+          </g>
+        );
       })}
       {showVertices &&
         panel.outline.map((p, i) => (

@@ -40,6 +40,7 @@ export function YardageTab({ productionId, change, canEdit }: { productionId: st
   const save = useSaveMarker(productionId);
   const { dateTime } = useProductionTime();
   const [progress, setProgress] = useState<{ done: number; total: number } | null>(null);
+  const [search, setSearch] = useState<{ fraction: number; fabricName: string; bestLengthMm: number } | null>(null);
   const [result, setResult] = useState<YardageFabricResult[] | null>(null);
   const [error, setError] = useState<string | null>(null);
   const worker = useRef<Worker | null>(null);
@@ -63,12 +64,15 @@ export function YardageTab({ productionId, change, canEdit }: { productionId: st
     setError(null);
     setResult(null);
     setProgress({ done: 0, total: 1 });
+    setSearch(null);
     w.onmessage = (e: MessageEvent) => {
       if (e.data.type === "progress") setProgress({ done: e.data.done, total: e.data.total });
+      else if (e.data.type === "search") setSearch({ fraction: e.data.fraction, fabricName: e.data.fabricName, bestLengthMm: e.data.bestLengthMm });
       else {
         if (e.data.type === "done") setResult([...e.data.result].sort((a: YardageFabricResult, b: YardageFabricResult) => a.fabricName.localeCompare(b.fabricName)));
         else setError(e.data.message);
         setProgress(null);
+        setSearch(null);
         w.terminate();
       }
     };
@@ -90,11 +94,22 @@ export function YardageTab({ productionId, change, canEdit }: { productionId: st
           <Button onClick={run} disabled={!panels.data?.length || Boolean(progress)}>Lay marker</Button>
           {canEdit && <Button variant="secondary" busy={save.isPending} onClick={() => save.mutate({ scope, scopeId, multiples })}>Save on server</Button>}
         </div>
-        <p className="mt-2 text-xs text-slate">Pieces are grouped by fabric and laid across its usable width (cloth width less 25 mm selvage each side), straight-grain pieces at 0° or 180°, bias and free pieces also crosswise; mirrored pairs alternate.</p>
+        <p className="mt-2 text-xs text-slate">Pieces are grouped by fabric and laid across its usable width (cloth width less 25 mm selvage each side), straight-grain pieces at 0° or 180°, bias and free pieces also crosswise; mirrored pairs alternate. After the first layout, the browser spends about 10 s trying other orders and turns and keeps the shortest marker; "Save on server" keeps the server's first layout.</p>
         {progress && (
-          <div className="mt-3">
-            <progress className="w-full" max={progress.total} value={progress.done} aria-label="Nesting progress" />
-            <p className="text-xs text-slate">{progress.done} of {progress.total} pieces laid</p>
+          <div className="mt-3" role="status">
+            {search ? (
+              <>
+                <progress className="w-full" max={1} value={search.fraction} aria-label="Nesting progress" />
+                <p className="text-xs text-slate">
+                  Shortening the marker: {Math.round(search.fraction * 100)} % of about 10 s · {search.fabricName}: best so far {cm(search.bestLengthMm)}
+                </p>
+              </>
+            ) : (
+              <>
+                <progress className="w-full" max={progress.total} value={progress.done} aria-label="Nesting progress" />
+                <p className="text-xs text-slate">{progress.done} of {progress.total} pieces laid</p>
+              </>
+            )}
           </div>
         )}
         {error && <ErrorAlert error={error} title="Could not lay the marker" />}
