@@ -1,7 +1,7 @@
 /**
  * The PostgreSQL job queue (pg-boss 10), started inside the server process. Features define jobs with
  * `defineJob`; `enqueue` sends to the queue when it runs, and otherwise (unit tests, scripts) runs the
- * handler inline once, so tests call handlers directly instead of waiting for schedules.
+ * handler inline once (its failure rejects), so tests call handlers directly instead of waiting for schedules.
  */
 import PgBoss from "pg-boss";
 import { config } from "../config.js";
@@ -46,7 +46,10 @@ export function jobsRunning(): boolean {
   return boss !== null;
 }
 
-/** Queues a job; without a running queue, runs its handler once now (failures are logged, not thrown). */
+/**
+ * Queues a job; without a running queue, runs its handler once now. An inline run's failure rejects, so
+ * the caller decides what it means (record it, tell the user, or fail the request) instead of losing it.
+ */
 export async function enqueue(name: string, data: Record<string, unknown>): Promise<void> {
   const def = defs.get(name);
   if (!def) throw new Error(`unknown job "${name}"`);
@@ -54,11 +57,7 @@ export async function enqueue(name: string, data: Record<string, unknown>): Prom
     await boss.send(name, data, { retryLimit: def.retryLimit, retryDelay: def.retryDelay, retryBackoff: def.retryBackoff });
     return;
   }
-  try {
-    await def.handler(data, { retryCount: 0, retryLimit: 0 });
-  } catch (err) {
-    logger.warn({ err, job: name }, "inline job failed");
-  }
+  await def.handler(data, { retryCount: 0, retryLimit: 0 });
 }
 
 /** Runs a job's handler directly (tests), with the given attempt information; errors propagate. */

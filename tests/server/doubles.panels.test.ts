@@ -75,6 +75,20 @@ describe("POST /panels", () => {
   });
 });
 
+describe("GET /panels/:panelId", () => {
+  it("gives no cut area when the cut line cannot be drawn, rather than the sew-line area", async () => {
+    // A stored piece a few tenths of a micrometre across: clipper works in whole micrometres, so the outline
+    // collapses to one point and offsetting it yields no cut line.
+    const p = await buildPanel(productionId, garmentIds[0], { name: "Speck", outline: [[0, 0], [0.0004, 0], [0, 0.0004]], seamAllowanceMm: 10 });
+
+    const res = await cutter.get(`${base()}/panels/${p.id}`);
+
+    expect(res.status).toBe(200);
+    expect(res.body.data.areaMm2).toBeCloseTo(0.0004 * 0.0004 / 2, 12);
+    expect(res.body.data.cutAreaMm2).toBeNull();
+  });
+});
+
 describe("PATCH /panels/:panelId", () => {
   it("changes only the fields sent", async () => {
     const p = await buildPanel(productionId, garmentIds[0], { seamAllowanceMm: 15 });
@@ -152,11 +166,12 @@ describe("POST /panels/dxf-import", () => {
     expect(await Panel.count()).toBe(0);
   });
 
-  it("400 names the file field when the upload is not .dxf", async () => {
+  it("415 names the file field when the upload is not .dxf", async () => {
     const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).attach("file", Buffer.from("x"), "piece.txt");
 
-    expect(res.status).toBe(400);
-    expect(res.body.error.fields.file).toBeDefined();
+    expect(res.status).toBe(415);
+    expect(res.body.error.code).toBe("unsupported_media_type");
+    expect(res.body.error.fields).toEqual({ file: "Choose a .dxf file" });
     expect(await Panel.count()).toBe(0);
   });
 
