@@ -188,7 +188,7 @@ export async function readDxfUpload(buffer: Buffer, fields: DxfPreviewFields): P
   bytes.set(buffer);
   const result = await runHeavy("readDxf", { bytes, options: { units: fields.units, seamAllowanceMm: fields.seamAllowanceMm } }, { transfer: [bytes.buffer] });
   if (!result.ok && result.kind === "limit") throw PayloadTooLargeError(`file: ${result.message}`, { file: result.message });
-  if (!result.ok) throw UnprocessableError(`file: not a readable DXF file (${result.message})`, { file: "not a readable DXF file" });
+  if (!result.ok) throw UnprocessableError(`file: is not a readable DXF file (${result.message})`, { file: "is not a readable DXF file" });
   return result.value;
 }
 

@@ -162,7 +162,7 @@ describe("POST /panels/dxf-import", () => {
     const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).attach("file", fixture("not-a-drawing.dxf"));
 
     expect(res.status).toBe(422);
-    expect(res.body.error.fields.file).toBe("not a readable DXF file");
+    expect(res.body.error.fields.file).toBe("File is not a readable DXF file");
     expect(await Panel.count()).toBe(0);
   });
 
