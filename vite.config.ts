@@ -3,6 +3,8 @@ import { fileURLToPath } from "node:url";
 import { defineConfig } from "vite";
 import react from "@vitejs/plugin-react";
 import tailwindcss from "@tailwindcss/vite";
+import { VitePWA } from "vite-plugin-pwa";
+import { keepOfflineEntries } from "./scripts/lib/precache.js";
 
 const alias = {
   "@": fileURLToPath(new URL("./src", import.meta.url)),
@@ -11,14 +13,52 @@ const alias = {
 };
 
 export default defineConfig({
-  plugins: [react(), tailwindcss()],
+  plugins: [
+    react(),
+    tailwindcss(),
+    // Installable app: the manifest, and our own service worker (src/sw.ts) with the precache list
+    // injected. Only what the set's screens need offline is precached (see globPatterns); the
+    // budget is checked by `npm run bench`.
+    VitePWA({
+      strategies: "injectManifest",
+      srcDir: "src",
+      filename: "sw.ts",
+      registerType: "prompt",
+      injectRegister: false,
+      manifest: {
+        name: "Seamscene",
+        short_name: "Seamscene",
+        description: "Costume continuity, wardrobe and workroom for film, series and stage.",
+        start_url: "/",
+        scope: "/",
+        display: "standalone",
+        orientation: "any",
+        theme_color: "#2B3A67",
+        background_color: "#F7F4EE",
+        icons: [
+          { src: "/icon-192.png", sizes: "192x192", type: "image/png" },
+          { src: "/icon-512.png", sizes: "512x512", type: "image/png" },
+          { src: "/icon-maskable-512.png", sizes: "512x512", type: "image/png", purpose: "maskable" },
+          { src: "/favicon.svg", sizes: "any", type: "image/svg+xml" },
+        ],
+      },
+      injectManifest: {
+        globPatterns: ["**/*.{js,css,html,svg,png,woff2,webmanifest}"],
+        globIgnores: ["sw.js", "**/*.map"],
+        // Keep the shell and the set's screens; the office screens load from the network.
+        manifestTransforms: [async (entries) => ({ manifest: keepOfflineEntries(entries, fileURLToPath(new URL("./dist", import.meta.url))), warnings: [] })],
+      },
+      devOptions: { enabled: false },
+    }),
+  ],
   resolve: { alias },
   server: {
     host: "127.0.0.1",
     port: 5173,
     proxy: { "/api": "http://127.0.0.1:3000" },
   },
-  build: { outDir: "dist", sourcemap: true },
+  // The manifest lets the precache list follow the module graph (see precacheFilter).
+  build: { outDir: "dist", sourcemap: true, manifest: true },
   test: {
     reporters: process.env.CI ? ["default", ["json", { outputFile: process.env.VITEST_REPORT_FILE ?? ".data/vitest-report.json" }]] : ["default"],
     projects: [
@@ -40,7 +80,7 @@ export default defineConfig({
       },
       {
         extends: true,
-        test: { name: "client", include: ["tests/client/**/*.test.tsx"], environment: "jsdom" },
+        test: { name: "client", include: ["tests/client/**/*.test.{ts,tsx}"], environment: "jsdom" },
       },
       {
         extends: true,

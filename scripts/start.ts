@@ -6,6 +6,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { execFileSync } from "node:child_process";
 import { prepareLocalEnv } from "./lib/local-env.js";
+import { startBanner } from "./lib/banner.js";
 
 function newestMtime(p: string): number {
   if (!fs.existsSync(p)) return 0;
@@ -41,14 +42,9 @@ async function main() {
   const { config } = await import("../server/config.js");
   await startServer();
   const url = `http://${config.HOST}:${config.PORT}`;
-  console.log(`\nSeamscene is running at ${url}${seeded ? " (demo data loaded)" : ""}`);
-  if (local.pg) {
-    console.log(`PostgreSQL on 127.0.0.1:${local.pg.port}, data in ${local.pg.dataDir}${local.pg.startedHere ? "" : " (already running; left running on exit)"}`);
-  }
-  console.log(`Mail goes to ${local.startSmtpFake ? `the local SMTP fake on 127.0.0.1:${process.env.SMTP_PORT} (see Team → Outbox)` : config.SMTP_HOST}`);
-  console.log("\nDemo accounts (password for all: " + demoAccounts[0]!.password + "):");
-  for (const a of demoAccounts) console.log(`  ${a.role.padEnd(13)} ${a.email}`);
-  console.log("\nStop with Ctrl+C.");
+  const mailTo = local.startSmtpFake ? `the local SMTP fake on 127.0.0.1:${process.env.SMTP_PORT}${config.DEV_OUTBOX ? " (see Team → Outbox)" : ""}` : config.SMTP_HOST;
+  const database = local.pg ? `PostgreSQL on 127.0.0.1:${local.pg.port}, data in ${local.pg.dataDir}${local.pg.startedHere ? "" : " (already running; left running on exit)"}` : undefined;
+  for (const line of startBanner({ url, seeded, production: config.NODE_ENV === "production", database, mailTo, demoAccounts })) console.log(line);
   // Stops PostgreSQL only if this process started it (a second instance leaves the first one's alone).
   process.once("exit", () => local.pg?.stop());
 }

@@ -3,23 +3,27 @@ import path from "node:path";
 import { fileURLToPath } from "node:url";
 import express, { type Express, type RequestHandler } from "express";
 import helmet from "helmet";
+import compression from "compression";
 import session from "express-session";
 import connectPgSimple from "connect-pg-simple";
 import pg from "pg";
-import { pinoHttp } from "pino-http";
+import cookieParser from "cookie-parser";
 import { csrfSync } from "csrf-sync";
 import { config, isProduction } from "./config.js";
 import { logger } from "./lib/logger.js";
+import { loggablePath, requestLog } from "./middleware/request-log.js";
 import { passport } from "./auth/passport.js";
 import { buildApiRouter } from "./routes/index.js";
 import { apiNotFound, errorHandler } from "./middleware/error-handler.js";
 import { HttpError } from "./errors.js";
+import { touchSessionNowAndThen } from "./middleware/session-touch.js";
 import { closeWorkerPool } from "./lib/worker-pool.js";
 import { healthRouter } from "./routes/health.routes.js";
 
 const rootDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 
 let sessionPool: pg.Pool | undefined;
+const CSRF_COOKIE = "seamscene.csrf";
 
 /**
  * The session store's own pool. An idle client whose server goes away emits "error" on the pool;
@@ -41,7 +45,7 @@ function lateErrorsLogged(mw: RequestHandler): RequestHandler {
   return (req, res, next) =>
     mw(req, res, (err?: unknown) => {
       if (err && res.headersSent) {
-        logger.warn({ url: req.originalUrl, reason: (err as Error)?.message }, "session store failed after the response was sent");
+        logger.warn({ method: req.method, path: loggablePath(req.originalUrl), reason: (err as Error)?.message }, "session store failed after the response was sent");
         return;
       }
       next(err);
@@ -63,13 +67,16 @@ export function createApp(): Express {
           styleSrc: ["'self'", "'unsafe-inline'"],
           fontSrc: ["'self'", "data:"],
           connectSrc: ["'self'"],
-          upgradeInsecureRequests: config.SECURE_COOKIES ? [] : null,
+          upgradeInsecureRequests: config.HSTS ? [] : null,
         },
       },
-      strictTransportSecurity: config.SECURE_COOKIES,
+      // HTTPS only for a year once seen over https (APP_URL https); never on plain http.
+      strictTransportSecurity: config.HSTS ? { maxAge: 31_536_000, includeSubDomains: false } : false,
     }),
   );
-  if (config.NODE_ENV !== "test") app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => !req.url?.startsWith("/api") } }));
+  // gzip or brotli for JSON, CSV and the client's text assets (images and ZIPs are left as they are).
+  app.use(compression({ threshold: 1024 }));
+  app.use("/api", requestLog);
 
   app.use(express.json({ limit: "2mb" }));
 
@@ -80,25 +87,38 @@ export function createApp(): Express {
   app.use(
     lateErrorsLogged(session({
       name: "seamscene.sid",
+      // No touch per request: touchSessionNowAndThen moves the expiry at most every few minutes.
       store: new PgStore({
         pool: sessionPool,
         tableName: "session",
         createTableIfMissing: false,
         pruneSessionInterval: isProduction ? 900 : false,
+        disableTouch: true,
         errorLog: (...args: unknown[]) => logger.warn({ detail: args.map(String).join(" ") }, "session store error"),
       }),
       secret: config.SESSION_SECRET,
       resave: false,
       saveUninitialized: false,
-      rolling: true,
+      rolling: false,
       cookie: { httpOnly: true, sameSite: "lax", secure: config.SECURE_COOKIES, maxAge: 14 * 86_400_000 },
     })),
   );
+  app.use(touchSessionNowAndThen);
   app.use(passport.initialize());
   app.use(passport.session());
+  app.use(cookieParser(config.SESSION_SECRET));
 
+  // Signed-out visitors get no session row (saveUninitialized: false): their CSRF token lives in a
+  // signed, HttpOnly cookie instead. Signed-in people keep it in their session.
+  const csrfCookie = { httpOnly: true, sameSite: "lax", secure: config.SECURE_COOKIES, signed: true, path: "/api" } as const;
   const { csrfSynchronisedProtection, generateToken } = csrfSync({
     getTokenFromRequest: (req) => req.headers["x-csrf-token"] as string | undefined,
+    getTokenFromState: (req) => (req.user ? req.session.csrfToken : (req.signedCookies?.[CSRF_COOKIE] as string | undefined) || undefined),
+    storeTokenInState: (req, token) => {
+      if (req.user) req.session.csrfToken = token;
+      else if (token) req.res?.cookie(CSRF_COOKIE, token, csrfCookie);
+      else req.res?.clearCookie(CSRF_COOKIE, csrfCookie);
+    },
     errorConfig: { statusCode: 403, message: "csrf token invalid", code: "EBADCSRFTOKEN" },
   });
   app.get("/api/auth/csrf", (req, res) => {
@@ -114,15 +134,32 @@ export function createApp(): Express {
   app.use("/api", buildApiRouter());
   app.use("/api", apiNotFound);
 
-  // The built client, with index.html for every other GET (client-side routes).
-  const distDir = path.join(rootDir, "dist");
-  if (fs.existsSync(path.join(distDir, "index.html"))) {
-    app.use(express.static(distDir, { index: false, maxAge: "1h" }));
-    app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(path.join(distDir, "index.html")));
-  }
+  serveBuiltClient(app, path.join(rootDir, "dist"));
 
   app.use(errorHandler);
   return app;
+}
+
+/** Vite writes only content-hashed file names under dist/assets (index-3fA9_x2Q.js, fonts, maps). */
+function isHashedAsset(distDir: string, filePath: string): boolean {
+  return path.relative(distDir, filePath).startsWith(`assets${path.sep}`);
+}
+
+/**
+ * The built client, with index.html for every other GET (client-side routes). Hashed assets are
+ * cached for a year; index.html and other files are revalidated so a new release shows at once.
+ */
+export function serveBuiltClient(app: Express, distDir: string): void {
+  if (!fs.existsSync(path.join(distDir, "index.html"))) return;
+  app.use(
+    express.static(distDir, {
+      index: false,
+      setHeaders: (res, filePath) => {
+        res.setHeader("Cache-Control", isHashedAsset(distDir, filePath) ? "public, max-age=31536000, immutable" : "no-cache");
+      },
+    }),
+  );
+  app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(path.join(distDir, "index.html"), { headers: { "Cache-Control": "no-cache" } }));
 }
 
 /** Closes the session store's pool and the worker threads (tests and shutdown). */

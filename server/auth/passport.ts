@@ -1,5 +1,7 @@
 import passport from "passport";
 import { Strategy as LocalStrategy } from "passport-local";
+import { QueryTypes } from "sequelize";
+import { sequelize } from "../db.js";
 import { User } from "../models/index.js";
 import { verifyPassword } from "./passwords.js";
 
@@ -9,7 +11,8 @@ const DUMMY_HASH = "scrypt$32768$8$1$AAAAAAAAAAAAAAAAAAAAAA==$" + Buffer.alloc(6
 passport.use(
   new LocalStrategy({ usernameField: "email", passwordField: "password" }, async (email, password, done) => {
     try {
-      const user = await User.findOne({ where: { email: email.trim().toLowerCase() } });
+      // The route already normalised the address (emailSchema); one normalisation for limiter and sign-in.
+      const user = await User.findOne({ where: { email } });
       const ok = await verifyPassword(password, user?.passwordHash ?? DUMMY_HASH);
       if (!user || !ok || !user.isActive) return done(null, false);
       return done(null, user);
@@ -22,7 +25,8 @@ passport.use(
 passport.serializeUser((user, done) => done(null, (user as User).id));
 passport.deserializeUser(async (id: string, done) => {
   try {
-    const user = await User.findByPk(id);
+    // Every signed-in request: plain SQL mapped onto the model (findByPk's query building cost more than the query).
+    const [user] = await sequelize.query<User>(`SELECT * FROM users WHERE id = :id`, { replacements: { id }, type: QueryTypes.SELECT, model: User, mapToModel: true });
     done(null, user && user.isActive ? user : false);
   } catch (err) {
     done(err);

@@ -47,17 +47,25 @@ export function jobsRunning(): boolean {
 }
 
 /**
- * Queues a job; without a running queue, runs its handler once now. An inline run's failure rejects, so
+ * Queues a job; without a running queue, runs its handler once now, and an inline run's failure rejects so
  * the caller decides what it means (record it, tell the user, or fail the request) instead of losing it.
+ * With `inlineInBackground` the inline run starts after the caller returns, so a request that must take
+ * the same time whatever the job finds (password resets) does not wait for it even without the queue;
+ * nobody awaits that run, so its failure is logged as an error.
  */
-export async function enqueue(name: string, data: Record<string, unknown>): Promise<void> {
+export async function enqueue(name: string, data: Record<string, unknown>, options: { inlineInBackground?: boolean } = {}): Promise<void> {
   const def = defs.get(name);
   if (!def) throw new Error(`unknown job "${name}"`);
   if (boss) {
     await boss.send(name, data, { retryLimit: def.retryLimit, retryDelay: def.retryDelay, retryBackoff: def.retryBackoff });
     return;
   }
-  await def.handler(data, { retryCount: 0, retryLimit: 0 });
+  const run = () => def.handler(data, { retryCount: 0, retryLimit: 0 });
+  if (options.inlineInBackground) {
+    setImmediate(() => void run().catch((err) => logger.error({ err, job: name }, "background inline job failed")));
+    return;
+  }
+  await run();
 }
 
 /** Runs a job's handler directly (tests), with the given attempt information; errors propagate. */

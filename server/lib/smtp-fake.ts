@@ -3,6 +3,13 @@ import { simpleParser } from "mailparser";
 import type { AddressInfo } from "node:net";
 import { OutboxMessage } from "../models/index.js";
 import { logger } from "./logger.js";
+import { OUTBOX_HEADERS } from "./mailer.js";
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+function header(value: unknown): string | null {
+  return typeof value === "string" ? value.trim() : null;
+}
 
 /**
  * A local SMTP server on loopback for development and tests: the real protocol runs, nothing
@@ -14,11 +21,16 @@ export async function startSmtpFake(options: { port: number; host?: string }): P
     disabledCommands: ["STARTTLS"],
     logger: false,
     size: 30 * 1024 * 1024,
-    onData(stream, _session, callback) {
+    onData(stream, session, callback) {
       simpleParser(stream)
         .then(async (parsed) => {
           const to = Array.isArray(parsed.to) ? parsed.to.map((a) => a.text).join(", ") : (parsed.to?.text ?? "");
+          const productionId = header(parsed.headers.get(OUTBOX_HEADERS.production));
           await OutboxMessage.create({
+            // What the outbox scopes by: the production the mail was sent for and who actually received it.
+            productionId: productionId && UUID.test(productionId) ? productionId.toLowerCase() : null,
+            mailKind: header(parsed.headers.get(OUTBOX_HEADERS.kind))?.slice(0, 40) ?? null,
+            deliveredTo: session.envelope.rcptTo.map((r) => r.address.trim().toLowerCase()),
             recipients: to,
             sender: parsed.from?.text ?? null,
             subject: parsed.subject ?? "",

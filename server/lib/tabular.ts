@@ -1,10 +1,8 @@
 // Report tables as CSV and XLSX. Numbers stay numbers (a sum in a spreadsheet just works); text that a
 // spreadsheet would run as a formula is escaped in CSV. XLSX is streamed row by row with ExcelJS.
-//
-// `toCsv` is the one CSV writer of the reports; when the app gains a shared CSV module, swap it in here.
 import type { Writable } from "node:stream";
-import Papa from "papaparse";
 import ExcelJS from "exceljs";
+import { writeCsv } from "@shared/csv.js";
 
 export type CellValue = string | number | null;
 
@@ -27,12 +25,11 @@ export interface Sheet {
   totals?: boolean;
 }
 
-/** The sheet as CSV text (RFC 4180 quoting; formula-looking text cells escaped with a leading quote). */
+/** The sheet as CSV text through the app's one CSV writer (formula-looking text made inert; numbers stay numbers). */
 export function toCsv(sheet: Sheet): string {
-  const data = sheet.rows.map((r) => sheet.columns.map((c) => c.value(r) ?? ""));
-  if (sheet.totals && sheet.columns.some((c) => c.sum)) data.push(totalRow(sheet).map((v) => v ?? ""));
-  // escapeFormulae touches strings only, so negative numbers stay numbers.
-  return Papa.unparse({ fields: sheet.columns.map((c) => c.header), data }, { escapeFormulae: true });
+  const data = sheet.rows.map((r) => sheet.columns.map((c) => c.value(r)));
+  if (sheet.totals && sheet.columns.some((c) => c.sum)) data.push(totalRow(sheet));
+  return writeCsv(sheet.columns.map((c) => c.header), data);
 }
 
 function totalRow(sheet: Sheet): CellValue[] {

@@ -6,6 +6,7 @@ import { DatabaseUnavailableError, HttpError } from "../errors.js";
 import { isDatabaseUnavailable } from "../lib/db-errors.js";
 import { logger } from "../lib/logger.js";
 import { fieldSentences, issuesToFieldSentences, plainMessage } from "@shared/field-messages.js";
+import { loggablePath } from "./request-log.js";
 
 function zodToHttp(err: ZodError): HttpError {
   const fields = issuesToFieldSentences(err.issues);
@@ -70,12 +71,12 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     // Too late for an error response: e.g. the session store failed to save after the answer went out
     // (express-session saves while the body is written). Log it; cut the connection only if the
     // body is still unfinished, so the client does not wait for ever.
-    logger.warn({ url: req.originalUrl, reason: (err as Error)?.message, code: httpError.code }, "error after the response was sent");
+    logger.warn({ method: req.method, path: loggablePath(req.originalUrl), reason: (err as Error)?.message, code: httpError.code }, "error after the response was sent");
     if (!res.writableEnded) req.socket?.destroy();
     return;
   }
-  if (httpError.code === "database_unavailable") logger.warn({ url: req.originalUrl, reason: (err as Error)?.message }, "database unavailable");
-  else if (httpError.status >= 500) logger.error({ err, url: req.originalUrl }, "request failed");
+  if (httpError.code === "database_unavailable") logger.warn({ method: req.method, path: loggablePath(req.originalUrl), reason: (err as Error)?.message }, "database unavailable");
+  else if (httpError.status >= 500) logger.error({ err, method: req.method, path: loggablePath(req.originalUrl) }, "request failed");
   if (httpError.status === 503) res.set("Retry-After", "5");
   res.status(httpError.status).json({
     error: { code: httpError.code, message: httpError.message, ...(httpError.fields ? { fields: httpError.fields } : {}) },

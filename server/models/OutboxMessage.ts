@@ -11,6 +11,12 @@ export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCr
   declare htmlBody: string | null;
   declare attachments: CreationOptional<Array<{ filename: string | null; contentType: string; size: number; content?: string }>>;
   declare receivedAt: CreationOptional<Date>;
+  /** The production the mail was sent for; null for account mail (password resets) and older rows. */
+  declare productionId: string | null;
+  /** Why it was sent (server/lib/mailer.ts MailKind). */
+  declare mailKind: string | null;
+  /** Lower-cased addresses from the SMTP envelope: everyone who received it, Bcc included. */
+  declare deliveredTo: CreationOptional<string[]>;
 }
 
 OutboxMessage.init(
@@ -23,6 +29,9 @@ OutboxMessage.init(
     htmlBody: { type: DataTypes.TEXT, allowNull: true },
     attachments: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
     receivedAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
+    productionId: { type: DataTypes.UUID, allowNull: true },
+    mailKind: { type: DataTypes.STRING(40), allowNull: true },
+    deliveredTo: { type: DataTypes.ARRAY(DataTypes.TEXT), allowNull: false, defaultValue: [] },
   },
   { sequelize, tableName: "outbox_messages", modelName: "OutboxMessage", timestamps: false },
 );

@@ -1,8 +1,14 @@
 import type { GarmentDto, GarmentStatusEventDto } from "@shared/schemas/garments.js";
 import type { Garment, GarmentStatusEvent } from "../models/index.js";
 
+/** What the presenter reads: a model instance, or a list's plain row with the same fields. */
+type GarmentFields = Omit<Garment["_attributes"], "fabric" | "multiplesGroup"> & {
+  fabric?: { name: string | null } | null;
+  multiplesGroup?: { name: string | null } | null;
+};
+
 /** Garment → wire shape (fabric and group names when they were loaded). */
-export function presentGarment(g: Garment): GarmentDto {
+export function presentGarment(g: GarmentFields): GarmentDto {
   return {
     id: g.id,
     tagCode: g.tagCode,

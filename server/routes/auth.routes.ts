@@ -10,22 +10,42 @@ import { acceptInvitation, previewInvitation } from "../services/members.service
 import { presentMe } from "../presenters/auth.presenter.js";
 import { PostgresRateLimitStore } from "../lib/rate-limit-store.js";
 import type { User } from "../models/User.js";
-import type { Request } from "express";
+import type { Request, RequestHandler } from "express";
+import type { LoginInput } from "@shared/schemas/auth.js";
 
 export const authRouter = Router();
 
 const tooMany = (message: string) => (_req: Request, _res: unknown, next: (err: unknown) => void) => next(new HttpError(429, "too_many_requests", message));
 
-// Failed sign-ins per address + account; successes do not count.
-const loginLimiter = rateLimit({
+// The e-mail is normalised once (trim, lower case: emailSchema) before both limiters and the sign-in
+// read it, so " Designer@…" counts against the same account as "designer@…".
+const parseLogin: RequestHandler = (req, _res, next) => {
+  req.body = loginInputSchema.parse(req.body);
+  next();
+};
+
+// Failed sign-ins per client address + account; successes do not count.
+const accountLoginLimiter = rateLimit({
   windowMs: 15 * 60_000,
-  limit: config.LOGIN_MAX_FAILURES,
+  limit: () => config.LOGIN_MAX_FAILURES,
   skipSuccessfulRequests: true,
   standardHeaders: "draft-8",
   legacyHeaders: false,
-  keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? "")}|${String(req.body?.email ?? "").toLowerCase()}`,
+  keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? "")}|${(req.body as LoginInput).email}`,
   store: new PostgresRateLimitStore("login"),
   handler: tooMany("Too many failed sign-ins. Wait 15 minutes or reset your password."),
+});
+
+// Failed sign-ins per client address across every account (one client guessing many accounts).
+const clientLoginLimiter = rateLimit({
+  windowMs: 15 * 60_000,
+  limit: () => config.LOGIN_MAX_FAILURES_PER_CLIENT,
+  skipSuccessfulRequests: true,
+  standardHeaders: "draft-8",
+  legacyHeaders: false,
+  keyGenerator: (req) => ipKeyGenerator(req.ip ?? ""),
+  store: new PostgresRateLimitStore("login-client"),
+  handler: tooMany("Too many failed sign-ins from this network. Wait 15 minutes and try again."),
 });
 
 const resetLimiter = rateLimit({
@@ -45,8 +65,7 @@ async function meResponse(user: User) {
   return presentMe(user, await listProductionsForUser(user));
 }
 
-authRouter.post("/login", loginLimiter, async (req, res, next) => {
-  loginInputSchema.parse(req.body);
+authRouter.post("/login", parseLogin, clientLoginLimiter, accountLoginLimiter, async (req, res, next) => {
   passport.authenticate("local", async (err: unknown, user: User | false) => {
     try {
       if (err) return next(err);

@@ -28,12 +28,16 @@ continuityRouter.get("/:id", authorize("continuity.read"), async (req, res) => {
   res.json({ data: await getContinuityEntry(actorOf(req), id) });
 });
 
-/** Multipart: the entry's fields plus up to 8 `photos` with a `views` value per photo. JSON works too. */
+/**
+ * Multipart: the entry's fields plus up to 8 `photos` with a `views` value per photo. JSON works too.
+ * 201 with the new entry; 200 with the stored one when its `clientId` was sent before.
+ */
 continuityRouter.post("/", authorize("continuity.log"), uploadPhotos, async (req, res) => {
   const files = (req.files as Express.Multer.File[] | undefined) ?? [];
   try {
     const input = continuityEntryInputSchema.parse(req.body ?? {});
-    res.status(201).json({ data: await createContinuityEntry(actorOf(req), input, files) });
+    const { entry, replayed } = await createContinuityEntry(actorOf(req), input, files);
+    res.status(replayed ? 200 : 201).json({ data: entry });
   } finally {
     cleanupUploads(files);
   }

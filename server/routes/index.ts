@@ -8,6 +8,7 @@ import { scenesRouter, shootDaysRouter, appearancesRouter, importsRouter } from 
 import { charactersRouter, performersRouter } from "./cast.routes.js";
 import { changesRouter } from "./changes.routes.js";
 import { continuityRouter } from "./continuity.routes.js";
+import { offlineRouter } from "./offline.routes.js";
 import { photosRouter } from "./photos.routes.js";
 import { garmentsRouter } from "./garments.routes.js";
 import { fabricsRouter } from "./fabrics.routes.js";
@@ -43,6 +44,8 @@ export function buildApiRouter(): Router {
   production.use("/performers", performersRouter);
   production.use("/changes", changesRouter);
   production.use("/continuity", continuityRouter);
+  // Offline on set: what a phone keeps for a day without a signal.
+  production.use("/offline-pack", offlineRouter);
   production.use("/photos", photosRouter);
   // Wardrobe: garments, fabrics, and the measurements sub-resource of performers (mounted before any
   // performers router so /performers/:id/measurements always reaches it).

@@ -8,7 +8,7 @@ import { presentInvitation, presentMember, presentOutboxMessage } from "../prese
 import { listOutbox } from "../services/outbox.service.js";
 import { sendList } from "../lib/http.js";
 import { NotFoundError } from "../errors.js";
-import { config } from "../config.js";
+import { outboxEnabled } from "../config.js";
 
 const memberParams = z.object({ memberId: idSchema });
 const invitationParams = z.object({ invitationId: idSchema });
@@ -55,9 +55,11 @@ invitationsRouter.delete("/:invitationId", authorize("member.invite"), async (re
 /** /api/productions/:productionId/outbox — messages caught by the local SMTP fake (development only). */
 export const outboxRouter = Router({ mergeParams: true });
 
+// No outbox at all on a production server, whatever the role.
+outboxRouter.use((_req, _res, next) => next(outboxEnabled() ? undefined : NotFoundError("The outbox exists only in development.")));
+
 outboxRouter.get("/", authorize("outbox.read"), async (req, res) => {
-  if (!config.DEV_OUTBOX) throw NotFoundError("The outbox exists only in development.");
   const q = paginationQuerySchema.parse(req.query);
-  const { rows, count } = await listOutbox(q);
+  const { rows, count } = await listOutbox(actorOf(req), q);
   sendList(res, rows.map(presentOutboxMessage), count, q);
 });

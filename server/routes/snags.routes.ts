@@ -4,8 +4,8 @@ import { authorize, actorOf } from "../middleware/require-auth.js";
 import { dismissSnag, listSnags, multiplesPlan, undoDismissal } from "../services/snags.service.js";
 
 /**
- * /api/productions/:productionId/snags — computed conflicts. The list is recomputed on each read
- * and is not paged: the screen groups and sorts all of it, and counts come with it.
+ * /api/productions/:productionId/snags — computed conflicts, recomputed on the first read after a change
+ * (server/services/snags.service.ts). Not paged: the screen groups and sorts all of it, and counts come with it.
  */
 export const snagsRouter = Router({ mergeParams: true });
 

@@ -5,21 +5,33 @@ import { Limits } from "@shared/constants.js";
 import { NotFoundError } from "../errors.js";
 import { hashPassword, hashToken, newToken } from "../auth/passwords.js";
 import { passwordResetEmail } from "../emails/password-reset.email.js";
-import { sendMail } from "../lib/mailer.js";
+import { sendMailOrThrow } from "../lib/mailer.js";
+import { defineJob, enqueue } from "../lib/jobs.js";
 import type { ResetPasswordInput } from "@shared/schemas/auth.js";
 
+export const PASSWORD_RESET_JOB = "password-reset-mail";
+
 /**
- * Sends a single-use, expiring reset link when the address has an account. Answers the same either
- * way so addresses cannot be probed.
+ * Asks for a reset link. The request only queues the address: whether it has an account is decided
+ * in the job, so the answer takes the same work (and time) for every address and none can be probed.
+ * @param email already normalised (trimmed, lower case) by the request schema
  */
 export async function requestPasswordReset(email: string): Promise<void> {
-  const user = await User.findOne({ where: { email } });
+  await enqueue(PASSWORD_RESET_JOB, { email }, { inlineInBackground: true });
+}
+
+/** Job handler: sends a single-use, expiring reset link when the address has an active account. */
+export async function sendPasswordReset(data: { email: string }): Promise<void> {
+  const user = await User.findOne({ where: { email: data.email } });
   if (!user || !user.isActive) return;
   const { token, tokenHash } = newToken();
   await PasswordReset.create({ userId: user.id, tokenHash, expiresAt: new Date(Date.now() + Limits.passwordResetMinutes * 60_000), usedAt: null });
   const mail = passwordResetEmail({ name: user.name, url: `${config.APP_URL}/reset-password/${token}`, minutes: Limits.passwordResetMinutes });
-  await sendMail({ to: user.email, ...mail });
+  // Account mail: no production, so it never shows in any outbox.
+  await sendMailOrThrow({ to: user.email, ...mail }, { kind: "password_reset", productionId: null });
 }
+
+defineJob<{ email: string }>(PASSWORD_RESET_JOB, { retryLimit: 3, retryDelay: 30, retryBackoff: true }, sendPasswordReset);
 
 /** Sets a new password with a reset token; the token works once. */
 export async function resetPassword(input: ResetPasswordInput): Promise<User> {

@@ -66,7 +66,7 @@ export async function inviteMember(actor: Actor, input: InviteMemberInput): Prom
     url: `${config.APP_URL}/invitations/${token}`,
     days: Limits.invitationDays,
   });
-  await sendMail({ to: input.email, ...mail });
+  await sendMail({ to: input.email, ...mail }, { kind: "invitation", productionId: actor.productionId });
   return invitation;
 }
 

@@ -488,7 +488,7 @@ export async function publishPacket(actor: Actor, packetId: string): Promise<Pac
   // After commit: a failed send is logged and does not undo the publication.
   const users = await User.findAll({ where: { id: { [Op.in]: mail.recipients } } });
   for (const u of users) {
-    if (await sendMail({ to: u.email, ...mail.email })) {
+    if (await sendMail({ to: u.email, ...mail.email }, { kind: "packet_published", productionId: actor.productionId })) {
       await PacketRecipient.update({ notifiedAt: new Date() }, { where: { packetId, userId: u.id } });
     }
   }

@@ -8,6 +8,7 @@ import type { Actor } from "../middleware/require-auth.js";
 import type { CreatePanelInput, DoublesChangeDto, DoublesFabricOptionDto, DxfImportFields, DxfPreviewFields, UpdatePanelInput } from "@shared/schemas/doubles.js";
 import { noPieceReason, type DxfImport, type DxfPiece } from "@shared/domain/panels/dxf.js";
 import { Limits } from "@shared/constants.js";
+import { nameFromFile } from "@shared/schemas/common.js";
 import type { PanelShape } from "@shared/domain/panels/geometry.js";
 import { runHeavy } from "../lib/worker-pool.js";
 import { rememberCutArea } from "./panel-cut-area.js";
@@ -223,7 +224,7 @@ export async function importDxfPanels(actor: Actor, input: DxfImportFields, buff
           {
             productionId: actor.productionId,
             garmentId: garment.id,
-            name: p.name.slice(0, 120) || "Piece",
+            name: nameFromFile(p.name, 120, "Piece"),
             outline: p.outline.map(([x, y]) => [x, y] as [number, number]),
             grainline: p.grainline ? [[p.grainline[0][0], p.grainline[0][1]], [p.grainline[1][0], p.grainline[1][1]]] : null,
             notches: (p.notches ?? []).map((n) => ({ point: [n.point[0], n.point[1]] as [number, number], edge: n.edge })),

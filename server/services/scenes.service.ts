@@ -1,4 +1,4 @@
-import { Op, QueryTypes, type Transaction, type WhereOptions } from "sequelize";
+import { Op, QueryTypes, type Transaction } from "sequelize";
 import type { ListScenesQuery, SceneDetailDto, SceneInput, SceneRowDto, UpdateSceneInput } from "@shared/schemas/breakdown.js";
 import { compareSceneNumbers, minutesSincePreviousExit } from "@shared/domain/breakdown.js";
 import { sequelize } from "../db.js";
@@ -16,34 +16,72 @@ export async function findScene(actor: Actor, id: string, transaction?: Transact
   return s;
 }
 
-/** Scenes in story order with their shoot days and characters (the breakdown table's rows). */
+/**
+ * Scenes in story order with their shoot days and characters (the breakdown table's rows), and the
+ * total: one statement, so one round trip however long the page.
+ */
 export async function listScenes(actor: Actor, q: ListScenesQuery): Promise<{ rows: SceneRowDto[]; total: number }> {
-  const pid = actor.productionId;
-  const where: WhereOptions<Scene> & Record<string | symbol, unknown> = { productionId: pid };
-  if (q.storyDay !== undefined) where.storyDay = q.storyDay;
-  if (q.setName) where.setName = q.setName;
-  const and: unknown[] = [];
-  if (q.shootDayId) and.push(sequelize.literal(`"Scene"."id" IN (SELECT scene_id FROM shoot_day_scenes WHERE shoot_day_id = ${sequelize.escape(q.shootDayId)})`));
-  if (q.characterId) and.push(sequelize.literal(`"Scene"."id" IN (SELECT scene_id FROM appearances WHERE character_id = ${sequelize.escape(q.characterId)})`));
-  if (and.length) where[Op.and] = and;
-  const { rows, count } = await Scene.findAndCountAll({ where, order: [["storyOrder", "ASC"], ["number", "ASC"]], limit: q.pageSize, offset: (q.page - 1) * q.pageSize });
-  const ids = rows.map((r) => r.id);
-  if (!ids.length) return { rows: [], total: count };
-  const slots = await sequelize.query<{ scene_id: string; id: string; day_number: number; date: string }>(
-    `SELECT sds.scene_id, sd.id, sd.day_number, sd.date FROM shoot_day_scenes sds JOIN shoot_days sd ON sd.id = sds.shoot_day_id
-     WHERE sds.production_id = :pid AND sds.scene_id IN (:ids) ORDER BY sd.day_number`,
-    { replacements: { pid, ids }, type: QueryTypes.SELECT },
+  const conditions = ["s.production_id = :pid"];
+  if (q.storyDay !== undefined) conditions.push("s.story_day = :storyDay");
+  if (q.setName) conditions.push("s.set_name = :setName");
+  if (q.shootDayId) conditions.push("s.id IN (SELECT scene_id FROM shoot_day_scenes WHERE shoot_day_id = :shootDayId)");
+  if (q.characterId) conditions.push("s.id IN (SELECT scene_id FROM appearances WHERE character_id = :characterId)");
+  const where = conditions.join(" AND ");
+  const rows = await sequelize.query<SceneListRow>(
+    `SELECT (SELECT count(*) FROM scenes s WHERE ${where})::int AS total, p.*,
+            COALESCE((SELECT json_agg(json_build_object('id', sd.id, 'dayNumber', sd.day_number, 'date', sd.date) ORDER BY sd.day_number)
+                        FROM shoot_day_scenes sds JOIN shoot_days sd ON sd.id = sds.shoot_day_id WHERE sds.scene_id = p.id), '[]') AS shoot_days,
+            COALESCE((SELECT json_agg(json_build_object('id', c.id, 'name', c.name, 'changeNumber', ch.number) ORDER BY c.sort_order, c.name)
+                        FROM appearances a JOIN characters c ON c.id = a.character_id LEFT JOIN changes ch ON ch.id = a.change_id
+                       WHERE a.scene_id = p.id), '[]') AS characters
+       FROM (SELECT 1) AS one
+       LEFT JOIN LATERAL (
+         SELECT s.id, s.number, s.set_name, s.int_ext, s.time_of_day, s.story_day, s.story_order, s.length_eighths, s.running_minutes, s.synopsis
+           FROM scenes s WHERE ${where} ORDER BY s.story_order, s.number LIMIT :limit OFFSET :offset
+       ) p ON true
+      ORDER BY p.story_order, p.number`,
+    {
+      replacements: { pid: actor.productionId, storyDay: q.storyDay, setName: q.setName, shootDayId: q.shootDayId, characterId: q.characterId, limit: q.pageSize, offset: (q.page - 1) * q.pageSize },
+      type: QueryTypes.SELECT,
+    },
   );
-  const apps = await sequelize.query<{ scene_id: string; id: string; name: string; sort_order: number; number: number | null }>(
-    `SELECT a.scene_id, c.id, c.name, c.sort_order, ch.number FROM appearances a JOIN characters c ON c.id = a.character_id
-     LEFT JOIN changes ch ON ch.id = a.change_id WHERE a.production_id = :pid AND a.scene_id IN (:ids) ORDER BY c.sort_order, c.name`,
-    { replacements: { pid, ids }, type: QueryTypes.SELECT },
-  );
-  const slotsBy = new Map<string, SceneRowDto["shootDays"]>();
-  for (const s of slots) slotsBy.set(s.scene_id, [...(slotsBy.get(s.scene_id) ?? []), { id: s.id, dayNumber: s.day_number, date: s.date }]);
-  const appsBy = new Map<string, SceneRowDto["characters"]>();
-  for (const a of apps) appsBy.set(a.scene_id, [...(appsBy.get(a.scene_id) ?? []), { id: a.id, name: a.name, changeNumber: a.number }]);
-  return { rows: rows.map((s) => ({ ...presentScene(s), shootDays: slotsBy.get(s.id) ?? [], characters: appsBy.get(s.id) ?? [] })), total: count };
+  const total = rows[0]?.total ?? 0;
+  return {
+    total,
+    rows: rows
+      .filter((r) => r.id !== null)
+      .map((r) => ({
+        id: r.id!,
+        number: r.number,
+        setName: r.set_name,
+        intExt: r.int_ext as SceneRowDto["intExt"],
+        timeOfDay: r.time_of_day,
+        storyDay: r.story_day,
+        storyOrder: r.story_order,
+        lengthEighths: r.length_eighths,
+        runningMinutes: num(r.running_minutes),
+        synopsis: r.synopsis,
+        shootDays: r.shoot_days,
+        characters: r.characters,
+      })),
+  };
+}
+
+/** One row of the scene list query (a page past the end gives one row of nulls carrying the total). */
+interface SceneListRow {
+  total: number;
+  id: string | null;
+  number: string;
+  set_name: string | null;
+  int_ext: string | null;
+  time_of_day: string | null;
+  story_day: number | null;
+  story_order: number;
+  length_eighths: number | null;
+  running_minutes: string | null;
+  synopsis: string | null;
+  shoot_days: SceneRowDto["shootDays"];
+  characters: SceneRowDto["characters"];
 }
 
 /** Running-time gaps for every appearance of a stage production (empty for film). */

@@ -7,6 +7,7 @@ import { NotFoundError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
 import { buildPlan } from "./workroom.service.js";
 import { clock, productionTimeZone } from "../lib/clock.js";
+import { VersionedCache } from "../lib/versioned-cache.js";
 import type { Actor } from "../middleware/require-auth.js";
 import { GARMENT_FACTS_SQL, currentMeasurementsSql, easeOverridesOf, garmentRecOf, measurementValuesOf, type GarmentFactsRow } from "./fit-facts.js";
 import { computeMultiplesPlans, computeSnags } from "@shared/domain/snags/engine.js";
@@ -92,10 +93,11 @@ export async function loadSnapshot(productionId: string): Promise<LoadedProducti
          FROM appearances WHERE production_id = :pid`),
     q(GARMENT_FACTS_SQL),
     q(`SELECT id, name FROM multiples_groups WHERE production_id = :pid`),
+    // Entries whose scene or character went while they waited on a phone are for review, not for rules.
     q(`SELECT e.id, e.shoot_day_id, e.scene_id, e.character_id, e.distress_stage,
               COALESCE(array_agg(eg.garment_id ORDER BY eg.garment_id) FILTER (WHERE eg.garment_id IS NOT NULL), '{}') AS garment_ids
          FROM continuity_entries e LEFT JOIN continuity_entry_garments eg ON eg.continuity_entry_id = e.id
-         WHERE e.production_id = :pid GROUP BY e.id`),
+         WHERE e.production_id = :pid AND e.scene_id IS NOT NULL AND e.character_id IS NOT NULL GROUP BY e.id`),
   ]);
   const prod = productions[0];
   if (!prod) throw NotFoundError("Production not found.");
@@ -374,14 +376,70 @@ function presentDismissal(d: SnagDismissal): SnagDismissalDto {
   };
 }
 
-/** Current snags of a production (recomputed from the database) with the date they were judged on. */
-export async function currentSnags(productionId: string): Promise<{ loaded: LoadedProduction; snags: Snag[]; today: string }> {
-  const loaded = await loadSnapshot(productionId);
+/** A production's snags at one data version, judged on one day, with what presenting them needs. */
+interface SnagState {
+  loaded: LoadedProduction;
+  snags: Snag[];
+  today: string;
+  resolver: Resolver;
+  dismissalByKey: Map<string, SnagDismissal>;
+  /** Finished lists by query, filled as they are asked for. */
+  lists: Map<string, SnagListDto>;
+}
+
+/** Productions whose snags this server keeps in memory (a 10× production takes tens of MB). */
+const SNAG_CACHE_PRODUCTIONS = 8;
+/** Filter combinations kept per production (the screens ask for a handful). */
+const SNAG_LISTS_PER_PRODUCTION = 64;
+
+/**
+ * Computed snags per production, in this process's memory. Valid while the production's data version
+ * (bumped by database triggers on every committed write, dismissals included) and today's date in its
+ * zone are unchanged. Kept in memory rather than in PostgreSQL: answering from it costs nothing, and the
+ * version read before each answer makes every server agree; each server recomputes once per change.
+ */
+const snagStates = new VersionedCache<SnagState>(SNAG_CACHE_PRODUCTIONS);
+
+/** The production's data version and today in its zone: what a snag list is valid for. */
+async function snagValidity(productionId: string): Promise<{ key: string; today: string }> {
+  const [row] = await sequelize.query<{ data_version: string; settings: { timeZone?: string } | null }>(
+    `SELECT data_version::text AS data_version, settings FROM productions WHERE id = :pid`,
+    { replacements: { pid: productionId }, type: QueryTypes.SELECT },
+  );
+  if (!row) throw NotFoundError("Production not found.");
   // Judged on today in the production's time zone (server/lib/clock.ts is the one clock).
-  const today = clock.today(loaded.timeZone);
-  // Late tickets and overbooked workroom days come from the workroom plan, judged on the same day.
-  const plan = await buildPlan(productionId, today);
-  return { loaded, snags: [...computeSnags(loaded.snapshot, { today }), ...plan.snags], today };
+  const today = clock.today(productionTimeZone({ settings: row.settings }));
+  return { key: `${row.data_version}@${today}`, today };
+}
+
+/**
+ * The production's snags: from this server's memory when nothing changed since they were computed,
+ * else recomputed. The version is read before the data, so a result is never older than its key.
+ */
+async function snagState(productionId: string): Promise<SnagState> {
+  const { key, today } = await snagValidity(productionId);
+  return snagStates.get(productionId, key, async () => {
+    const [loaded, dismissals] = await Promise.all([
+      loadSnapshot(productionId),
+      SnagDismissal.findAll({ where: { productionId }, include: [{ model: User, as: "dismisser", attributes: ["id", "name"] }] }),
+    ]);
+    // Late tickets and overbooked workroom days come from the workroom plan, judged on the same day.
+    const plan = await buildPlan(productionId, today);
+    return {
+      loaded,
+      snags: [...computeSnags(loaded.snapshot, { today }), ...plan.snags],
+      today,
+      resolver: new Resolver(productionId, loaded),
+      dismissalByKey: new Map(dismissals.map((d) => [d.snagKey, d])),
+      lists: new Map(),
+    };
+  });
+}
+
+/** Current snags of a production with the date they were judged on. */
+export async function currentSnags(productionId: string): Promise<{ loaded: LoadedProduction; snags: Snag[]; today: string }> {
+  const { loaded, snags, today } = await snagState(productionId);
+  return { loaded, snags, today };
 }
 
 const zeroCounts = (): SnagCounts => ({
@@ -392,14 +450,19 @@ const zeroCounts = (): SnagCounts => ({
   byKind: Object.fromEntries(snagKinds.map((k) => [k, 0])) as SnagCounts["byKind"],
 });
 
-/** The snag list with dismissals merged, filtered, counted and explained. */
+/** The snag list with dismissals merged, filtered, counted and explained (kept per filter until the data change). */
 export async function listSnags(actor: Actor, query: ListSnagsQuery): Promise<SnagListDto> {
-  const [{ loaded, snags, today }, dismissals] = await Promise.all([
-    currentSnags(actor.productionId),
-    SnagDismissal.findAll({ where: { productionId: actor.productionId }, include: [{ model: User, as: "dismisser", attributes: ["id", "name"] }] }),
-  ]);
-  const r = new Resolver(actor.productionId, loaded);
-  const dismissalByKey = new Map(dismissals.map((d) => [d.snagKey, d]));
+  const state = await snagState(actor.productionId);
+  const queryKey = JSON.stringify(query);
+  const kept = state.lists.get(queryKey);
+  if (kept) return kept;
+  const list = buildSnagList(state, query);
+  if (state.lists.size < SNAG_LISTS_PER_PRODUCTION) state.lists.set(queryKey, list);
+  return list;
+}
+
+function buildSnagList(state: SnagState, query: ListSnagsQuery): SnagListDto {
+  const { loaded, snags, today, resolver: r, dismissalByKey } = state;
   const upcoming = loaded.days.filter((d) => d.date >= today && (loaded.snapshot.production.kind === "stage" ? d.kind === "performance" : d.kind === "shoot"));
   const next = upcoming[0] ?? null;
 
@@ -509,11 +572,10 @@ export async function undoDismissal(actor: Actor, dismissalId: string): Promise<
 
 /** The copy plan of one multiples group: which copy goes into which scene, in shoot order. */
 export async function multiplesPlan(actor: Actor, groupId: string): Promise<MultiplesPlanDto> {
-  const loaded = await loadSnapshot(actor.productionId);
+  const { loaded, resolver: r } = await snagState(actor.productionId);
   const s = loaded.snapshot;
   const group = s.multiplesGroups.find((g) => g.id === groupId);
   if (!group) throw NotFoundError("Multiples group not found.");
-  const r = new Resolver(actor.productionId, loaded);
   const garmentRef = (id: string | undefined | null) => {
     const g = id ? r.garments.get(id) : undefined;
     return g ? { id: g.id, tagCode: g.tagCode, name: g.name } : null;

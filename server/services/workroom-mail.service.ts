@@ -52,7 +52,7 @@ export async function sendWorkroomEmail(data: { emailJobId: string }, meta: { re
   const job = await WorkroomEmailJob.findByPk(data.emailJobId);
   if (!job || job.status === "sent") return;
   try {
-    await sendMailOrThrow(job.payload);
+    await sendMailOrThrow(job.payload, { kind: job.kind, productionId: job.productionId });
     await job.update({ status: "sent", attempts: job.attempts + 1, sentAt: new Date(), lastError: null });
   } catch (err) {
     const final = meta.retryCount >= meta.retryLimit;

@@ -6,6 +6,7 @@
 // the stored value; the token `(clear)` empties a field. `planBreakdownImport` works out, for the
 // preview and the import alike, each row's old → new values and each shoot day's new order.
 import Papa from "papaparse";
+import { writeCsv } from "../csv.js";
 import { compareSceneNumbers, formatEighths, parseEighths } from "./breakdown.js";
 import type { ImportDayChange, ImportFieldChange, ImportRowChange, ImportRowError, IntExt } from "../schemas/breakdown.js";
 export const breakdownCsvColumns = [
@@ -382,11 +383,6 @@ export function planBreakdownImport(parsed: ParsedBreakdownCsv, stored: StoredBr
 
   const changes: ImportRowChange[] = parsed.lines.map(({ line, number }) => ({ line, scene: number, status: rowStatus.get(line) ?? "unchanged", fields: fieldChanges.get(line) ?? [] }));
   return { sceneWrites, dayWrites, changes, days, counts, errors };
-}
-
-/** Writes rows as CSV text (CRLF, quoted where needed). The one place the breakdown writes CSV. */
-export function writeCsv(fields: readonly string[], rows: ReadonlyArray<readonly string[]>): string {
-  return Papa.unparse({ fields: [...fields], data: rows.map((r) => [...r]) }, { newline: "\r\n" }) + "\r\n";
 }
 
 /**

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { nameSchema } from "./common.js";
 import { Limits } from "../constants.js";
 import type { Role } from "../permissions.js";
 
@@ -26,7 +27,7 @@ export type ResetPasswordInput = z.infer<typeof resetPasswordInputSchema>;
 export const acceptInvitationInputSchema = z.object({
   token: z.string().min(20).max(200),
   /** Required when the invitee has no account yet. */
-  name: z.string().trim().min(1, "is required").max(120).optional(),
+  name: nameSchema(120).optional(),
   password: passwordSchema.optional(),
 });
 export type AcceptInvitationInput = z.infer<typeof acceptInvitationInputSchema>;

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { Limits } from "../constants.js";
-import { idSchema, isoDateSchema, paginationQuerySchema } from "./common.js";
+import { idSchema, isoDateSchema, paginationQuerySchema, optionalNameSchema } from "./common.js";
 
 export const intExtValues = ["INT", "EXT", "INT/EXT"] as const;
 export type IntExt = (typeof intExtValues)[number];
@@ -18,7 +18,7 @@ const optText = (max: number) => z.string().trim().max(max).nullish().transform(
 export const sceneInputSchema = z.object({
   number: sceneNumberSchema,
   /** Set or location name. */
-  setName: optText(200),
+  setName: optionalNameSchema(200),
   intExt: z.enum(intExtValues).nullish().transform((v) => v ?? null),
   /** DAY, NIGHT, DAWN, DUSK, CONTINUOUS… */
   timeOfDay: optText(20),

@@ -1,12 +1,12 @@
 import { z } from "zod";
 import { Limits } from "../constants.js";
-import { idSchema } from "./common.js";
+import { idSchema, nameSchema } from "./common.js";
 
 const optText = (max: number) => z.string().trim().max(max).nullish().transform((v) => (v ? v : null));
 
 /** A performer: a real person (name, contact, notes). Measurements live with the Wardrobe feature. */
 export const performerInputSchema = z.object({
-  name: z.string().trim().min(1, "is required").max(Limits.nameMax),
+  name: nameSchema(Limits.nameMax),
   email: z.email({ message: "must be an e-mail address" }).nullish().or(z.literal("")).transform((v) => (v ? v : null)),
   phone: optText(40),
   /** Agent or other contact, free text. */
@@ -32,7 +32,7 @@ export const doubleKinds = ["stunt", "photo", "understudy"] as const;
 export type DoubleKind = (typeof doubleKinds)[number];
 
 export const characterInputSchema = z.object({
-  name: z.string().trim().min(1, "is required").max(Limits.nameMax),
+  name: nameSchema(Limits.nameMax),
   performerId: idSchema.nullish().transform((v) => v ?? null),
   sortOrder: z.number().int().min(0).max(100_000).optional(),
   notes: optText(Limits.notesMax),

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { Limits } from "../constants.js";
-import { idSchema } from "./common.js";
+import { idSchema, nameSchema } from "./common.js";
 
 export const changeApprovals = ["draft", "proposed", "approved"] as const;
 export type ChangeApproval = (typeof changeApprovals)[number];
@@ -8,7 +8,7 @@ export type ChangeApproval = (typeof changeApprovals)[number];
 /** One piece of a change; points at one garment or one multiples group, or neither yet. */
 export const changeItemInputSchema = z
   .object({
-    label: z.string().trim().min(1, "is required").max(120),
+    label: nameSchema(120),
     garmentId: idSchema.nullish().transform((v) => v ?? null),
     multiplesGroupId: idSchema.nullish().transform((v) => v ?? null),
   })

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { idSchema } from "./common.js";
+import { idSchema, nameSchema } from "./common.js";
 import { validatePolygon, type Point } from "../domain/panels/geometry.js";
 import type { SeamStatus } from "../domain/panels/seams.js";
 import type { FabricSimulationValues } from "../domain/fabric-physics.js";
@@ -36,7 +36,7 @@ export const grainModes = ["straight", "bias", "free"] as const;
 /** Fields of a panel a cutter edits (no defaults, so a partial update leaves the others alone). */
 const panelFields = {
   /** Piece name, e.g. "Front". */
-  name: z.string().trim().min(1, { message: "is required" }).max(120),
+  name: nameSchema(120),
   /** Sew line, mm, y up. */
   outline: outlineSchema,
   grainline: grainlineSchema.nullable(),
@@ -123,7 +123,7 @@ export const easeRangeSchema = z
   .refine((e) => e.minMm <= e.maxMm, { message: "minimum must not exceed maximum", path: ["maxMm"] });
 
 const seamFields = {
-  name: z.string().trim().min(1, { message: "is required" }).max(120),
+  name: nameSchema(120),
   a: seamSideSchema,
   b: seamSideSchema,
   /** Plain-seam tolerance, mm; null uses the production's setting (3 mm by default). */

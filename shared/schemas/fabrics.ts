@@ -1,13 +1,14 @@
 import { z } from "zod";
 import { Limits } from "../constants.js";
-import { isoDateSchema } from "./common.js";
+import { isoDateSchema, nameSchema } from "./common.js";
+import { checkFabricReadings } from "../domain/fabric-plausibility.js";
 
 export const fabricConstructions = ["woven", "knit"] as const;
 export type FabricConstruction = (typeof fabricConstructions)[number];
 
 /** One fibre and its share of the cloth, in percent. */
 export const fibreShareSchema = z.object({
-  fibre: z.string().trim().min(1, "is required").max(60),
+  fibre: nameSchema(60),
   percent: z.number().positive("must be greater than 0").max(100, "cannot be more than 100"),
 });
 
@@ -26,7 +27,7 @@ const positiveOrNull = (what: string, max: number) =>
 const pctOrNull = z.number().min(0, "cannot be negative").max(1000).nullish().transform((v) => v ?? null);
 
 const fabricFields = {
-  name: z.string().trim().min(1, "is required").max(Limits.nameMax),
+  name: nameSchema(Limits.nameMax),
   supplier: text(160),
   fibreContent: fibreContentSchema,
   construction: z.enum(fabricConstructions),
@@ -49,8 +50,8 @@ export type UpdateFabricInput = z.infer<typeof updateFabricInputSchema>;
 const pos = (unit: string, max: number) => z.number({ message: `must be a number of ${unit}` }).positive("must be greater than 0").max(max);
 const direction = z.enum(["warp", "weft"]);
 
-/** Raw readings per test kind; all lengths mm, masses g, loads N. */
-export const fabricTestReadingsSchema = z.discriminatedUnion("kind", [
+/** The shape of each test kind's readings (hard limits; plausibility is checked below). */
+const readingsByKind = z.discriminatedUnion("kind", [
   /** ASTM D3776 option C: a cut specimen weighed. */
   z.object({ kind: z.literal("mass"), massG: pos("grams", 5000), lengthMm: pos("millimetres", 5000), widthMm: pos("millimetres", 5000) }),
   /** ASTM D1388 option A: overhang at which the strip touches the 41.5° incline. */
@@ -66,6 +67,14 @@ export const fabricTestReadingsSchema = z.discriminatedUnion("kind", [
   }),
   z.object({ kind: z.literal("thickness"), thicknessMm: pos("millimetres", 50) }),
 ]);
+
+/**
+ * Raw readings per test kind; all lengths mm, masses g, loads N. Each reading must also be plausible
+ * (shared/domain/fabric-plausibility.ts), with the reason under the field.
+ */
+export const fabricTestReadingsSchema = readingsByKind.superRefine((r, ctx) => {
+  for (const p of checkFabricReadings(r)) ctx.addIssue({ code: "custom", path: [p.field], message: p.reason });
+});
 export type FabricTestReadings = z.infer<typeof fabricTestReadingsSchema>;
 export type FabricTestKind = FabricTestReadings["kind"];
 

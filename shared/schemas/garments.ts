@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { Limits } from "../constants.js";
-import { isoDateSchema, idSchema, paginationQuerySchema } from "./common.js";
+import { isoDateSchema, idSchema, paginationQuerySchema, nameSchema, optionalNameSchema } from "./common.js";
 import { parseTagCode } from "../domain/tag-codes.js";
 
 /** Where a garment is in its life; every change is kept as a history row. */
@@ -62,8 +62,8 @@ const text = (max: number) => z.string().trim().max(max).nullish().transform((v)
 
 const garmentFields = {
   /** Short name people use ("keeper's jacket"). */
-  name: z.string().trim().min(1, "is required").max(Limits.nameMax),
-  category: z.string().trim().toLowerCase().min(1, "is required").max(40),
+  name: nameSchema(Limits.nameMax),
+  category: nameSchema(40).toLowerCase(),
   sizeLabel: text(40),
   fitIntent: z.enum(fitIntents).default("regular"),
   finishedMeasurements: finishedMeasurementsSchema.default({}),
@@ -95,7 +95,7 @@ export const createGarmentInputSchema = z
     /** How many copies to make; more than 1 creates a multiples group. */
     copies: z.number().int().min(1).max(20).default(1),
     /** Name of the multiples group (defaults to the garment name). */
-    groupName: z.string().trim().max(Limits.nameMax).optional(),
+    groupName: optionalNameSchema(Limits.nameMax).optional(),
   })
   .refine((v) => !(v.tagCode && v.copies > 1), { message: "give a tag code only when making one copy", path: ["tagCode"] });
 export type CreateGarmentInput = z.infer<typeof createGarmentInputSchema>;
@@ -124,7 +124,7 @@ export const updateGarmentInputSchema = z
 export type UpdateGarmentInput = z.infer<typeof updateGarmentInputSchema>;
 
 /** Make more copies of a garment; it becomes #1 of a new group if it is not in one yet. */
-export const addCopiesInputSchema = z.object({ count: z.number().int().min(1).max(20), groupName: z.string().trim().max(Limits.nameMax).optional() });
+export const addCopiesInputSchema = z.object({ count: z.number().int().min(1).max(20), groupName: optionalNameSchema(Limits.nameMax).optional() });
 export type AddCopiesInput = z.infer<typeof addCopiesInputSchema>;
 
 const moveFields = {

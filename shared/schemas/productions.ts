@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { Limits } from "../constants.js";
-import { isoDateSchema } from "./common.js";
+import { isoDateSchema, nameSchema } from "./common.js";
 import type { Role } from "../permissions.js";
 
 export const productionKinds = ["film", "series", "stage"] as const;
@@ -77,7 +77,7 @@ export type ProductionSettings = z.infer<typeof productionSettingsSchema>;
 export const createProductionInputSchema = z
   .object({
     /** Working title shown everywhere. */
-    title: z.string().trim().min(1, "is required").max(Limits.titleMax),
+    title: nameSchema(Limits.titleMax),
     kind: z.enum(productionKinds),
     startsOn: isoDateSchema.nullish(),
     endsOn: isoDateSchema.nullish(),
@@ -91,7 +91,7 @@ export const createProductionInputSchema = z
 export type CreateProductionInput = z.infer<typeof createProductionInputSchema>;
 
 export const updateProductionInputSchema = z.object({
-  title: z.string().trim().min(1, "is required").max(Limits.titleMax).optional(),
+  title: nameSchema(Limits.titleMax).optional(),
   startsOn: isoDateSchema.nullish(),
   endsOn: isoDateSchema.nullish(),
   units: z.enum(["cm", "in"]).optional(),

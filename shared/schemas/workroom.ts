@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { Limits } from "../constants.js";
-import { idSchema, isoDateSchema } from "./common.js";
+import { idSchema, isoDateSchema, nameSchema } from "./common.js";
 import { WEEKDAYS, type Weekday } from "../domain/workroom.js";
 import type { Snag } from "../domain/snags/types.js";
 import { garmentSources, tagCodeSchema } from "./garments.js";
@@ -47,7 +47,7 @@ const optText = (max: number) => z.string().trim().max(max).nullish().transform(
 
 /** A garment added to stock at a fitting: the few facts known at the rail; the rest is filled in on Wardrobe. */
 export const fittingNewGarmentSchema = z.object({
-  name: z.string().trim().min(1, "is required").max(Limits.nameMax),
+  name: nameSchema(Limits.nameMax),
   category: z.string().trim().toLowerCase().min(1, "is required").max(40),
   sizeLabel: optText(40),
   colour: optText(80),

@@ -1,4 +1,5 @@
 import type { ApiErrorBody } from "@shared/schemas/common";
+import { offlineAnswer } from "./offline/fallback";
 
 /** A failed API call, with the server's code, message and per-field messages. */
 export class ApiError extends Error {
@@ -40,14 +41,27 @@ async function request<T>(method: Method, url: string, body?: unknown, opts: { r
   const headers: Record<string, string> = { Accept: "application/json" };
   const isForm = typeof FormData !== "undefined" && body instanceof FormData;
   if (body !== undefined && !isForm) headers["Content-Type"] = "application/json";
-  if (method !== "GET") headers["X-CSRF-Token"] = await getCsrfToken();
-  const res = await fetch(`/api${url}`, {
-    method,
-    headers,
-    credentials: "same-origin",
-    body: body === undefined ? undefined : isForm ? (body as FormData) : JSON.stringify(body),
-    signal: opts.signal,
-  });
+  let res: Response;
+  try {
+    if (method !== "GET") headers["X-CSRF-Token"] = await getCsrfToken();
+    res = await fetch(`/api${url}`, {
+      method,
+      headers,
+      credentials: "same-origin",
+      body: body === undefined ? undefined : isForm ? (body as FormData) : JSON.stringify(body),
+      signal: opts.signal,
+    });
+  } catch (err) {
+    if (err instanceof DOMException && err.name === "AbortError") throw err;
+    // The network could not be reached. Reads fall back to what this device saved for offline use
+    // (network first: a reachable server always answers); writes say plainly that nothing was sent.
+    if (method === "GET") {
+      const saved = await offlineAnswer(url).catch(() => undefined);
+      if (saved !== undefined) return (opts.raw ? saved : saved.data) as T;
+      throw new ApiError(0, "offline", "No connection, and this is not saved on this device for use without a signal.");
+    }
+    throw new ApiError(0, "offline", "No connection: nothing was sent. Try again when the signal is back.");
+  }
   if (res.status === 204) return undefined as T;
   const text = await res.text();
   const json = text ? (JSON.parse(text) as unknown) : undefined;

@@ -214,7 +214,7 @@ describe("the shoot-day editor", () => {
     const api = stubApi();
     editor();
 
-    fireEvent.click(screen.getByRole("button", { name: "Take scene 1 off this day" }));
+    fireEvent.click(screen.getByRole("button", { name: "Take off scene 1 from this day" }));
     const undo = await screen.findByRole("button", { name: "Undo" });
     expect(screen.getAllByRole("status").map((x) => x.textContent).join(" ")).toContain("Scene 1 taken off Day 1.");
     fireEvent.click(undo);

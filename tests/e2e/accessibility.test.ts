@@ -119,8 +119,9 @@ describe("keyboard", () => {
     await tabs.getByRole("tab", { name: "Fittings" }).focus();
     await page.keyboard.press("ArrowRight");
 
-    expect(await tabs.getByRole("tab", { name: "Tickets" }).getAttribute("aria-selected")).toBe("true");
-    expect(await tabs.getByRole("tab", { name: "Tickets" }).evaluate((el) => el === document.activeElement)).toBe(true);
+    // The tab changes through the router's search params, which settle after the key press returns.
+    await expect.poll(() => tabs.getByRole("tab", { name: "Tickets" }).getAttribute("aria-selected")).toBe("true");
+    await expect.poll(() => tabs.getByRole("tab", { name: "Tickets" }).evaluate((el) => el === document.activeElement)).toBe(true);
     await page.close();
   });
 });

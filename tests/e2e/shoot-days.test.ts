@@ -132,7 +132,7 @@ describe("the shoot-day editor", () => {
     expect((await call<Day>(page, "GET", `${api}/shoot-days/${lastDay.id}`)).scenes.map((s) => s.number)).toEqual(lastBefore);
 
     // Take one off; it is gone from the day, and Undo is offered.
-    await section.getByRole("button", { name: `Take scene ${candidates[1]} off this day` }).click();
+    await section.getByRole("button", { name: `Take off scene ${candidates[1]} from this day` }).click();
     await section.getByRole("status").getByText(`Scene ${candidates[1]} taken off Day ${number}.`).waitFor();
     expect(await list.getByRole("link", { name: `Scene ${candidates[1]}` }).count()).toBe(0);
 

@@ -6,6 +6,9 @@ import { useCurrentProduction } from "@/hooks/use-current-production";
 import { paths } from "@/config/paths";
 import { cn } from "@/utils/cn";
 import { Spinner, ErrorAlert } from "@/components/ui/feedback";
+import { ConfirmDialog } from "@/components/ui/dialog";
+import { QueueBadge } from "@/components/offline";
+import { useOfflineQueue, useQueueRunner } from "@/lib/offline/hooks";
 import { ProductionSwitcher } from "./production-switcher";
 
 /** Header with production switcher and account, navigation built from the permission table. */
@@ -16,6 +19,10 @@ export function AppShell() {
   const { screen } = useParams();
   const { productionId, production, role, query } = useCurrentProduction();
   const [menuOpen, setMenuOpen] = useState(false);
+  const [confirmSignOut, setConfirmSignOut] = useState(false);
+  useQueueRunner(me.data?.id);
+  const queue = useOfflineQueue();
+  const signOut = () => logout.mutate(me.data?.id, { onSettled: () => navigate(paths.auth.login.getHref()) });
   const allowed = screens.filter((s) => can(role, s.action));
 
   return (
@@ -43,16 +50,34 @@ export function AppShell() {
             onNew={() => navigate(paths.productions.new.getHref())}
           />
           <div className="ml-auto flex items-center gap-3 text-sm">
+            <QueueBadge />
             <span className="hidden sm:inline">
               {me.data?.name}
               {role && <span className="ml-1 text-chalk/70">· {roleLabels[role]}</span>}
             </span>
-            <button type="button" className="rounded px-2 py-1 underline-offset-2 hover:underline" onClick={() => logout.mutate(undefined, { onSettled: () => navigate(paths.auth.login.getHref()) })}>
+            <button type="button" className="rounded px-2 py-1 underline-offset-2 hover:underline" onClick={() => (queue.items.length ? setConfirmSignOut(true) : signOut())}>
               Sign out
             </button>
           </div>
         </div>
       </header>
+      <ConfirmDialog
+        open={confirmSignOut}
+        title="Sign out and delete what waits on this phone?"
+        confirmLabel="Sign out and delete"
+        danger
+        busy={logout.isPending}
+        onCancel={() => setConfirmSignOut(false)}
+        onConfirm={() => {
+          setConfirmSignOut(false);
+          signOut();
+        }}
+      >
+        <p>
+          {queue.items.length} record{queue.items.length === 1 ? "" : "s"} captured on this phone {queue.items.length === 1 ? "has" : "have"} not been sent yet. Signing out deletes
+          {queue.items.length === 1 ? " it" : " them"} and everything saved for offline for your account from this phone.
+        </p>
+      </ConfirmDialog>
       <div className="mx-auto flex max-w-7xl gap-5 px-3 py-4 sm:px-5">
         <nav id="main-nav" aria-label="Screens" className={cn("w-48 shrink-0 md:block", menuOpen ? "fixed inset-x-0 top-14 z-10 block bg-chalk p-3 shadow-lg md:static md:p-0 md:shadow-none" : "hidden")}>
           <ul className="grid gap-0.5">

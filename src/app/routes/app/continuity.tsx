@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useState } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import { Link, Route, Routes, useParams } from "react-router";
 import type { ContinuityTimelineDto } from "@shared/schemas/continuity";
 import type { PhotoView } from "@shared/schemas/photos";
@@ -10,9 +10,16 @@ import { Button } from "@/components/ui/button";
 import { SelectField, TextareaField, InputField } from "@/components/ui/field";
 import { ErrorAlert, Spinner, EmptyState, SafetyNote } from "@/components/ui/feedback";
 import { PhotoCapture, PhotoStrip, viewLabels, type PendingPhoto } from "@/components/photos";
-import { useCharacters, useContinuityTimeline, useLogContinuity, useScene, useShootDays } from "@/features/breakdown/api/breakdown";
+import { useCharacters, useContinuityTimeline, useScene, useShootDays } from "@/features/breakdown/api/breakdown";
 import { StateBadges } from "@/features/breakdown/components/scene-page";
 import { cn } from "@/utils/cn";
+import { useMe } from "@/features/auth/api/auth";
+import { OfflineStamp } from "@/components/offline";
+import { useOfflineQueue } from "@/lib/offline/hooks";
+import { enqueue } from "@/lib/offline/queue";
+import { queueRunner } from "@/lib/offline/runner";
+import { reducePhoto } from "@/lib/offline/reduce-photo";
+import { newClientId } from "@/lib/offline/client-id";
 
 /** Continuity screen: capture on set, a character's timeline, two scenes side by side. */
 export default function ContinuityScreen() {
@@ -30,6 +37,7 @@ function ContinuityHome() {
   const { productionId, production, can, today } = useCurrentProduction();
   const days = useShootDays(productionId);
   const characters = useCharacters(productionId);
+  const me = useMe();
   const [dayId, setDayId] = useState("");
   const [sceneId, setSceneId] = useState("");
   const [characterId, setCharacterId] = useState("");
@@ -48,6 +56,7 @@ function ContinuityHome() {
       <PageHeader title="Continuity" subtitle={can("continuity.log") ? "Log what was worn, with photos, in a few taps" : "What was worn, scene by scene"} />
       {can("continuity.log") && (
         <Card className="grid gap-4">
+          {me.data && production && <OfflineStamp userId={me.data.id} productionId={productionId} timeZone={production.timeZone} />}
           {days.isPending ? (
             <Spinner />
           ) : !days.data?.length ? (
@@ -76,7 +85,7 @@ function ContinuityHome() {
             </fieldset>
           )}
           {sceneId && <CharacterPicker productionId={productionId} sceneId={sceneId} characterId={characterId} onPick={setCharacterId} />}
-          {sceneId && characterId && <CaptureForm key={`${sceneId}:${characterId}`} productionId={productionId} shootDayId={dayId} sceneId={sceneId} characterId={characterId} onDone={() => setCharacterId("")} />}
+          {sceneId && characterId && <CaptureForm key={`${sceneId}:${characterId}`} productionId={productionId} shootDayId={dayId} sceneId={sceneId} characterId={characterId} label={`Scene ${day?.scenes.find((s) => s.id === sceneId)?.number ?? "?"} · ${characters.data?.find((c) => c.id === characterId)?.name ?? "character"}`} onDone={() => setCharacterId("")} />}
         </Card>
       )}
       <Card>
@@ -120,32 +129,72 @@ function CharacterPicker({ productionId, sceneId, characterId, onPick }: { produ
   );
 }
 
-function CaptureForm({ productionId, shootDayId, sceneId, characterId, onDone }: { productionId: string; shootDayId: string; sceneId: string; characterId: string; onDone: () => void }) {
-  const log = useLogContinuity(productionId);
+function CaptureForm({ productionId, shootDayId, sceneId, characterId, label, onDone }: { productionId: string; shootDayId: string; sceneId: string; characterId: string; label: string; onDone: () => void }) {
+  const me = useMe();
+  const queue = useOfflineQueue();
   const [photos, setPhotos] = useState<PendingPhoto[]>([]);
   const [notes, setNotes] = useState("");
   const [distress, setDistress] = useState("");
-  const [saved, setSaved] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<Error | null>(null);
+  const [queuedId, setQueuedId] = useState<string | null>(null);
+  const [sent, setSent] = useState(false);
+  const [seenQueued, setSeenQueued] = useState(false);
+  // Listening before the record is queued: with a good signal it can be stored before the next render.
+  const pending = useRef<string | null>(null);
+  useEffect(() => queueRunner.onSent((r) => r.clientId === pending.current && setSent(true)), []);
   useEffect(() => () => photos.forEach((p) => URL.revokeObjectURL(p.previewUrl)), [photos]);
   const nextView = VIEW_ORDER.find((v) => !photos.some((p) => p.view === v)) ?? "detail";
-  const save = () => {
-    const form = new FormData();
-    if (shootDayId) form.set("shootDayId", shootDayId);
-    form.set("sceneId", sceneId);
-    form.set("characterId", characterId);
-    form.set("notes", notes);
-    if (distress !== "") form.set("distressStage", distress);
-    for (const p of photos) {
-      form.append("views", p.view);
-      form.append("photos", p.file, p.file.name);
+  // Every entry goes through the phone's queue (photos reduced first): with a signal it is sent at
+  // once, without one it waits on the phone and goes when the signal is back.
+  const save = async () => {
+    const userId = me.data?.id;
+    if (!userId) return;
+    setBusy(true);
+    setError(null);
+    try {
+      const reduced = await Promise.all(photos.map((p, i) => reducePhoto(p.file, p.view, i)));
+      const clientId = newClientId();
+      pending.current = clientId;
+      await enqueue({
+        clientId,
+        userId,
+        productionId,
+        kind: "continuity",
+        summary: `${label}${reduced.length ? ` · ${reduced.length} photo${reduced.length > 1 ? "s" : ""}` : ""}`,
+        queuedAt: new Date().toISOString(),
+        payload: { shootDayId, sceneId, characterId, notes, distressStage: distress },
+        photos: reduced,
+      });
+      setQueuedId(clientId);
+      setPhotos([]);
+      setNotes("");
+      queueRunner.kick(true);
+    } catch (e) {
+      // On failure everything stays on screen so nothing is lost; Save can be pressed again.
+      setError(e instanceof Error ? e : new Error(String(e)));
+    } finally {
+      setBusy(false);
     }
-    // On failure everything stays on screen so nothing is lost; Save can be pressed again.
-    log.mutate(form, { onSuccess: (e) => { setSaved(e.id); setPhotos([]); setNotes(""); } });
   };
-  if (saved) {
+  if (queuedId) {
+    const waiting = queue.items.find((i) => i.clientId === queuedId);
+    if (waiting && !seenQueued) setSeenQueued(true);
     return (
       <div role="status" className="grid gap-2 rounded border border-ink-100 bg-ink-50 p-3">
-        <p className="font-semibold text-ink">Saved.</p>
+        <p className="font-semibold text-ink">
+          {sent
+            ? "Saved."
+            : !waiting
+              ? seenQueued
+                ? "Cancelled: not sent."
+                : "Kept on this phone; sending…"
+              : waiting.state === "held"
+              ? `Kept on this phone, not accepted: ${waiting.lastError ?? ""}`
+              : queue.online
+                ? "Kept on this phone; sending…"
+                : "Kept on this phone. It is sent when the signal is back."}
+        </p>
         <div className="flex flex-wrap gap-2">
           <Link className="font-semibold text-ink underline" to={`/p/${productionId}/continuity/timeline/${characterId}`}>See the timeline</Link>
           <Button variant="secondary" onClick={onDone}>Log another character</Button>
@@ -155,7 +204,7 @@ function CaptureForm({ productionId, shootDayId, sceneId, characterId, onDone }:
   }
   return (
     <div className="grid gap-3">
-      <PhotoCapture nextView={nextView} onAdd={(list) => setPhotos((ps) => [...ps, ...list].slice(0, 8))} disabled={log.isPending} />
+      <PhotoCapture nextView={nextView} onAdd={(list) => setPhotos((ps) => [...ps, ...list].slice(0, 8))} disabled={busy} />
       {photos.length > 0 && (
         <ul className="flex flex-wrap gap-2" aria-label="Photos to save">
           {photos.map((p) => (
@@ -171,8 +220,8 @@ function CaptureForm({ productionId, shootDayId, sceneId, characterId, onDone }:
       )}
       <TextareaField label="Notes" placeholder="collar open, left cuff rolled twice" value={notes} onChange={(e) => setNotes(e.target.value)} />
       <InputField label="Distress stage worn (optional)" type="number" min={0} max={10} inputMode="numeric" value={distress} onChange={(e) => setDistress(e.target.value)} className="max-w-48" />
-      {log.error && <ErrorAlert error={log.error} title="Not saved; your notes and photos are still here" />}
-      <Button size="lg" onClick={save} busy={log.isPending} disabled={!photos.length && !notes.trim()}>
+      {error && <ErrorAlert error={error} title="Not saved; your notes and photos are still here" />}
+      <Button size="lg" onClick={() => void save()} busy={busy} disabled={!photos.length && !notes.trim()}>
         Save continuity{photos.length ? ` (${photos.length} photo${photos.length > 1 ? "s" : ""})` : ""}
       </Button>
     </div>

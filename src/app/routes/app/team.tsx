@@ -49,7 +49,7 @@ export default function TeamPage() {
       </Card>
       <Card>
         <h2 className="mb-1 font-semibold text-ink">Outbox (development)</h2>
-        <p className="mb-3 text-xs text-slate">Mail caught by the local SMTP server; nothing here left the machine.</p>
+        <p className="mb-3 text-xs text-slate">Mail to this production's members, caught by the local SMTP server; nothing here left the machine. Password-reset and invitation mail is never shown.</p>
         <Outbox productionId={productionId} />
       </Card>
     </div>

@@ -2,11 +2,47 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/r
 import { api, resetCsrfToken } from "@/lib/api-client";
 import type { LoginInput, MeDto, InvitationPreviewDto, AcceptInvitationInput } from "@shared/schemas/auth";
 import { ApiError } from "@/lib/api-client";
+import { isOfflineCopy } from "@/lib/offline/fallback";
+import { forgetAccount, rememberAccount } from "@/lib/offline/store";
+import { queueRunner } from "@/lib/offline/runner";
 
-/** The signed-in user, or null when signed out. */
-export async function getMe(): Promise<MeDto | null> {
+// A sign-out made without a signal cleared this device at once; the server's session ends when the
+// connection is back (before anything else is asked).
+const SIGN_OUT_PENDING = "seamscene.signOutPending";
+
+function signOutPending(): boolean {
   try {
-    return await api.get<MeDto>("/auth/me");
+    return localStorage.getItem(SIGN_OUT_PENDING) === "1";
+  } catch {
+    return false;
+  }
+}
+
+function setSignOutPending(on: boolean): void {
+  try {
+    if (on) localStorage.setItem(SIGN_OUT_PENDING, "1");
+    else localStorage.removeItem(SIGN_OUT_PENDING);
+  } catch {
+    /* private mode: nothing to remember */
+  }
+}
+
+/** The signed-in user, or null when signed out. Without a signal: the account last signed in here. */
+export async function getMe(): Promise<MeDto | null> {
+  if (signOutPending()) {
+    try {
+      await api.post<void>("/auth/logout");
+      setSignOutPending(false);
+      resetCsrfToken();
+    } catch (err) {
+      if (err instanceof ApiError && err.status === 0) return null;
+      setSignOutPending(false);
+    }
+  }
+  try {
+    const me = await api.get<MeDto>("/auth/me");
+    if (!isOfflineCopy(me)) void rememberAccount(me).catch(() => undefined);
+    return me;
   } catch (err) {
     if (err instanceof ApiError && err.status === 401) return null;
     throw err;
@@ -23,14 +59,31 @@ export function useLogin() {
     onSuccess: (me) => {
       resetCsrfToken();
       qc.setQueryData(["me"], me);
+      void rememberAccount(me).catch(() => undefined);
+      // Records that waited for a new sign-in go now.
+      queueRunner.kick(true);
     },
   });
 }
 
+/**
+ * Signs out and deletes this account's offline data from the device: its queue (the screen asks
+ * first when records wait), its offline packs and saved thumbnails.
+ */
 export function useLogout() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: () => api.post<void>("/auth/logout"),
+    mutationFn: async (userId: string | undefined) => {
+      try {
+        await api.post<void>("/auth/logout");
+      } catch (err) {
+        if (!(err instanceof ApiError && err.status === 0)) throw err;
+        setSignOutPending(true);
+      } finally {
+        queueRunner.stop();
+        if (userId) await forgetAccount(userId).catch(() => undefined);
+      }
+    },
     onSettled: () => {
       resetCsrfToken();
       qc.clear();

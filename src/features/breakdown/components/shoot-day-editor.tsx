@@ -108,7 +108,7 @@ function NewDayForm({ productionId, kind, days, onCreated }: { productionId: str
   };
   return (
     <form onSubmit={submit} aria-label={`Add a ${label}`} className="grid grid-cols-2 gap-2 rounded-md border border-chalk-200 bg-white p-3">
-      <h3 className="col-span-2 text-sm font-semibold text-ink">Add a {label}</h3>
+      <h2 className="col-span-2 text-sm font-semibold text-ink">Add a {label}</h2>
       <InputField label="Number" type="number" min={1} placeholder={String(next)} value={v.dayNumber} onChange={(e) => setV({ ...v, dayNumber: e.target.value })} error={fields.dayNumber} />
       <InputField label="Date" type="date" value={v.date} onChange={(e) => setV({ ...v, date: e.target.value })} error={missing ? "Choose the date." : fields.date} />
       <InputField label={kind === "performance" ? "Curtain" : "Call time"} type="time" value={v.startsAt} onChange={(e) => setV({ ...v, startsAt: e.target.value })} error={fields.startsAt} />
@@ -332,7 +332,7 @@ function SceneSlot(props: { id: string; place: number; scene: SceneRowDto | unde
               </Button>
             </>
           )}
-          <Button size="sm" variant="ghost" disabled={props.busy} onClick={props.onTakeOff} aria-label={`Take scene ${number} off this day`}>
+          <Button size="sm" variant="ghost" disabled={props.busy} onClick={props.onTakeOff} aria-label={`Take off scene ${number} from this day`}>
             Take off
           </Button>
         </span>

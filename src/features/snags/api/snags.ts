@@ -23,7 +23,7 @@ export const snagsQueryOptions = (pid: string, params: SnagListParams = {}) =>
     placeholderData: keepPreviousData,
   });
 
-/** The snags of a production, recomputed by the server on each fetch. */
+/** The snags of a production (the server recomputes them on the first read after a change). */
 export const useSnags = (pid: string, params: SnagListParams = {}) => useQuery({ ...snagsQueryOptions(pid, params), enabled: Boolean(pid) });
 
 /** Query options for one multiples group's copy plan. */

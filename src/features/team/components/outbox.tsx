@@ -1,16 +1,21 @@
 import { useState } from "react";
 import { useOutbox } from "../api/team";
 import { Spinner, ErrorAlert, EmptyState } from "@/components/ui/feedback";
+import { ApiError } from "@/lib/api-client";
 import { useProductionTime } from "@/hooks/use-production-time";
 
-/** Messages the local SMTP fake caught (development only): invitations, resets, reminders. */
+/**
+ * Mail the local SMTP fake caught for this production (development only): reminders, fitting and packet
+ * notices sent to its members. Sign-in mail (password resets, invitations) never shows here.
+ */
 export function Outbox({ productionId }: { productionId: string }) {
   const q = useOutbox(productionId, true);
   const [open, setOpen] = useState<string | null>(null);
   const { dateTime } = useProductionTime();
   if (q.isPending) return <Spinner />;
+  if (q.error instanceof ApiError && q.error.status === 404) return <p className="text-sm text-slate">This server has no outbox: mail goes to the configured mail relay.</p>;
   if (q.error) return <ErrorAlert error={q.error} title="Outbox unavailable" />;
-  if (!q.data.length) return <EmptyState title="No messages yet">Invitations and reminders sent in development appear here.</EmptyState>;
+  if (!q.data.length) return <EmptyState title="No messages yet">Reminders and notices sent to this production's members appear here.</EmptyState>;
   return (
     <ul className="divide-y divide-chalk-200 text-sm">
       {q.data.map((m) => (

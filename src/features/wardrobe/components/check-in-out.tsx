@@ -7,6 +7,10 @@ import { Card } from "@/components/ui/card";
 import { InputField } from "@/components/ui/field";
 import { ApiError } from "@/lib/api-client";
 import { cn } from "@/utils/cn";
+import { useMe } from "@/features/auth/api/auth";
+import { enqueue } from "@/lib/offline/queue";
+import { queueRunner } from "@/lib/offline/runner";
+import { newClientId } from "@/lib/offline/client-id";
 import { useScanGarment } from "../api/garments";
 import { StatusBadge } from "./status-badge";
 
@@ -70,6 +74,7 @@ function CameraScanner({ onCode, onClose }: { onCode: (code: string) => void; on
  */
 export function CheckInOut({ productionId, initialTag, initialStatus }: { productionId: string; initialTag?: string; initialStatus?: GarmentStatus }) {
   const scan = useScanGarment(productionId);
+  const me = useMe();
   const [status, setStatus] = useState<GarmentStatus>(initialStatus ?? "on_set");
   const [rack, setRack] = useState("");
   const [bin, setBin] = useState("");
@@ -89,7 +94,21 @@ export function CheckInOut({ productionId, initialTag, initialStatus }: { produc
       {
         onSuccess: (r) =>
           setLog((l) => [{ at: Date.now(), code: parsed.code, ok: true, text: r.event ? `${r.garment.name} → ${garmentStatusLabels[r.garment.status]}` : `${r.garment.name} was already there`, result: r }, ...l].slice(0, 30)),
-        onError: (e) => setLog((l) => [{ at: Date.now(), code: parsed.code, ok: false, text: e instanceof ApiError ? e.message : String(e) }, ...l].slice(0, 30)),
+        onError: (e) => {
+          const userId = me.data?.id;
+          // No signal: the move waits on this phone and is sent with the continuity queue.
+          if (e instanceof ApiError && e.status === 0 && userId) {
+            const payload = { tagCode: parsed.code, status, ...(rack.trim() ? { locationRack: rack.trim() } : {}), ...(bin.trim() ? { locationBin: bin.trim() } : {}) };
+            void enqueue({ clientId: newClientId(), userId, productionId, kind: "garment-scan", summary: `${parsed.code} → ${garmentStatusLabels[status]}`, queuedAt: new Date().toISOString(), payload, photos: [] })
+              .then(() => {
+                setLog((l) => [{ at: Date.now(), code: parsed.code, ok: true, text: `No signal: kept on this phone, moves to ${garmentStatusLabels[status]} when sent` }, ...l].slice(0, 30));
+                queueRunner.kick();
+              })
+              .catch((err: unknown) => setLog((l) => [{ at: Date.now(), code: parsed.code, ok: false, text: `Not kept: ${String(err)}` }, ...l].slice(0, 30)));
+            return;
+          }
+          setLog((l) => [{ at: Date.now(), code: parsed.code, ok: false, text: e instanceof ApiError ? e.message : String(e) }, ...l].slice(0, 30));
+        },
       },
     );
   };

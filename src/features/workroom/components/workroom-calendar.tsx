@@ -97,6 +97,11 @@ function useFlattenedGridRoles(ref: RefObject<HTMLElement | null>) {
         el.removeAttribute("aria-sort");
         if (el.classList.contains("rbc-month-view")) el.removeAttribute("aria-label");
       }
+      // The hours grid scrolls; a keyboard user must be able to reach it even on a week with no events.
+      for (const el of root.querySelectorAll<HTMLElement>(".rbc-time-content:not([tabindex])")) {
+        el.tabIndex = 0;
+        el.setAttribute("aria-label", "Hours of the day");
+      }
     };
     strip();
     const observer = new MutationObserver(strip);
