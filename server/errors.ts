@@ -18,7 +18,7 @@ export const ForbiddenError = (message = "Your role in this production does not 
 export const NotFoundError = (message = "Not found.") => new HttpError(404, "not_found", message);
 export const ConflictError = (message: string, fields?: Record<string, string>) => new HttpError(409, "conflict", message, fields);
 export const PayloadTooLargeError = (message = "The file is too large.", fields?: Record<string, string>) => new HttpError(413, "payload_too_large", message, fields);
-export const UnsupportedMediaTypeError = (message: string) => new HttpError(415, "unsupported_media_type", message);
+export const UnsupportedMediaTypeError = (message: string, fields?: Record<string, string>) => new HttpError(415, "unsupported_media_type", message, fields);
 export const UnprocessableError = (message: string, fields?: Record<string, string>) =>
   new HttpError(422, "unprocessable", message, fields);
 /** The server's worker pool has a full queue; the client may try again shortly. */

@@ -67,6 +67,11 @@ export const permissionTable = {
   "panel.read": [S, D, C],
   "panel.update": [S, C],
   "packet.read": [S, C, V],
+  /**
+   * Every packet of the production: drafts, all versions and all recipients. Without it a reader sees only
+   * the published versions sent to them, and only their own receipt.
+   */
+  "packet.read_all": [S, C],
   "packet.prepare": [S, C],
   "packet.publish": [S],
   "packet.receive": [V],
@@ -89,6 +94,11 @@ export const actions = Object.keys(permissionTable) as Action[];
 export function can(role: Role | null | undefined, action: Action): boolean {
   if (!role) return false;
   return (permissionTable[action] as readonly Role[]).includes(role);
+}
+
+/** The roles that may perform an action (e.g. who can be sent a packet). */
+export function rolesThatCan(action: Action): Role[] {
+  return [...permissionTable[action]];
 }
 
 /** Screens of the app and the action that opens each; the client builds its navigation from this. */

@@ -20,9 +20,25 @@ export function buildPerformer(productionId: string, o: { name?: string; email?:
   return insert("performers", { production_id: productionId, name: o.name ?? "Test Performer", email: o.email === undefined ? `performer-${randomUUID().slice(0, 6)}@test.invalid` : o.email, agent_contact: o.agentContact ?? null });
 }
 
-/** A garment (status in_stock unless given). */
-export function buildGarment(productionId: string, o: { tagCode?: string; name?: string; status?: string; category?: string; finished?: Record<string, number>; groupId?: string | null; copyNumber?: number | null } = {}) {
+/** A fabric (woven, untested stretch unless given). */
+export function buildFabric(productionId: string, o: { name?: string; construction?: "woven" | "knit"; stretchWarpPct?: number | null; stretchWeftPct?: number | null } = {}) {
+  return insert("fabrics", {
+    production_id: productionId,
+    name: o.name ?? "Test fabric",
+    construction: o.construction ?? "woven",
+    stretch_warp_pct: o.stretchWarpPct ?? null,
+    stretch_weft_pct: o.stretchWeftPct ?? null,
+  });
+}
+
+/** A garment (status in_stock, regular fit, no fabric unless given). */
+export function buildGarment(
+  productionId: string,
+  o: { tagCode?: string; name?: string; status?: string; category?: string; finished?: Record<string, number>; groupId?: string | null; copyNumber?: number | null; fitIntent?: "fitted" | "regular" | "loose"; fabricId?: string | null } = {},
+) {
   return insert("garments", {
+    fit_intent: o.fitIntent ?? "regular",
+    fabric_id: o.fabricId ?? null,
     production_id: productionId,
     tag_code: o.tagCode ?? `G-${randomUUID().slice(0, 6)}`,
     name: o.name ?? "Test jacket",
@@ -72,4 +88,9 @@ export async function buildChangeOnDays(
 export async function garmentState(garmentId: string): Promise<{ status: string; events: number }> {
   const [[row]] = (await sequelize.query(`SELECT status, (SELECT COUNT(*)::int FROM garment_status_events e WHERE e.garment_id = g.id) AS events FROM garments g WHERE id = :garmentId`, { replacements: { garmentId } })) as [Array<{ status: string; events: number }>, unknown];
   return row;
+}
+
+/** A measurement set for a performer (values in mm, ISO 8559-1 names). */
+export function buildMeasurementSet(productionId: string, performerId: string, valuesMm: Record<string, number>, takenOn = "2030-08-20") {
+  return insert("measurement_sets", { production_id: productionId, performer_id: performerId, taken_on: takenOn, values_mm: valuesMm });
 }

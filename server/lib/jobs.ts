@@ -1,7 +1,7 @@
 /**
  * The PostgreSQL job queue (pg-boss 10), started inside the server process. Features define jobs with
  * `defineJob`; `enqueue` sends to the queue when it runs, and otherwise (unit tests, scripts) runs the
- * handler inline once, so tests call handlers directly instead of waiting for schedules.
+ * handler inline once (its failure rejects), so tests call handlers directly instead of waiting for schedules.
  */
 import PgBoss from "pg-boss";
 import { config } from "../config.js";
@@ -47,9 +47,11 @@ export function jobsRunning(): boolean {
 }
 
 /**
- * Queues a job; without a running queue, runs its handler once now (failures are logged, not thrown).
+ * Queues a job; without a running queue, runs its handler once now, and an inline run's failure rejects so
+ * the caller decides what it means (record it, tell the user, or fail the request) instead of losing it.
  * With `inlineInBackground` the inline run starts after the caller returns, so a request that must take
- * the same time whatever the job finds (password resets) does not wait for it even without the queue.
+ * the same time whatever the job finds (password resets) does not wait for it even without the queue;
+ * nobody awaits that run, so its failure is logged as an error.
  */
 export async function enqueue(name: string, data: Record<string, unknown>, options: { inlineInBackground?: boolean } = {}): Promise<void> {
   const def = defs.get(name);
@@ -58,15 +60,12 @@ export async function enqueue(name: string, data: Record<string, unknown>, optio
     await boss.send(name, data, { retryLimit: def.retryLimit, retryDelay: def.retryDelay, retryBackoff: def.retryBackoff });
     return;
   }
-  const run = async () => {
-    try {
-      await def.handler(data, { retryCount: 0, retryLimit: 0 });
-    } catch (err) {
-      logger.warn({ err, job: name }, "inline job failed");
-    }
-  };
-  if (options.inlineInBackground) setImmediate(() => void run());
-  else await run();
+  const run = () => def.handler(data, { retryCount: 0, retryLimit: 0 });
+  if (options.inlineInBackground) {
+    setImmediate(() => void run().catch((err) => logger.error({ err, job: name }, "background inline job failed")));
+    return;
+  }
+  await run();
 }
 
 /** Runs a job's handler directly (tests), with the given attempt information; errors propagate. */

@@ -6,7 +6,7 @@ import multer from "multer";
 import type { RequestHandler } from "express";
 import { Limits, photoUploadTypes } from "@shared/constants.js";
 import { config } from "../config.js";
-import { ValidationError } from "../errors.js";
+import { UnsupportedMediaTypeError } from "../errors.js";
 import { instanceTag } from "../lib/instance.js";
 
 /** Where every server process keeps its upload temp folders (mode 0700: photos carry GPS positions). */
@@ -37,7 +37,7 @@ function fileFilter(_req: unknown, file: Express.Multer.File, cb: multer.FileFil
   const ext = path.extname(file.originalname).slice(1).toLowerCase();
   const types = photoUploadTypes[ext];
   if (!types || !types.includes(file.mimetype.toLowerCase())) {
-    return cb(ValidationError(`${file.fieldname}: only JPEG, PNG, WebP, AVIF or TIFF photos are accepted`, { [file.fieldname]: "is not an accepted image type" }));
+    return cb(UnsupportedMediaTypeError(`${file.fieldname}: only JPEG, PNG, WebP, AVIF or TIFF photos are accepted`, { [file.fieldname]: "is not an accepted image type" }));
   }
   cb(null, true);
 }

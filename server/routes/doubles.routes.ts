@@ -15,7 +15,7 @@ import {
   updateSeamInputSchema,
 } from "@shared/schemas/doubles.js";
 import { authorize, actorOf } from "../middleware/require-auth.js";
-import { ValidationError } from "../errors.js";
+import { UnsupportedMediaTypeError, ValidationError } from "../errors.js";
 import {
   createPanel,
   deletePanel,
@@ -43,7 +43,7 @@ const dxfUpload = multer({
   limits: { fileSize: DXF_MAX_BYTES, files: 1 },
   fileFilter: (_req, file, cb) => {
     if (/\.dxf$/i.test(file.originalname)) cb(null, true);
-    else cb(ValidationError("file: choose a .dxf file", { file: "choose a .dxf file" }));
+    else cb(UnsupportedMediaTypeError("file: choose a .dxf file", { file: "choose a .dxf file" }));
   },
 }).single("file");
 

@@ -199,7 +199,7 @@ export function fabricTestsFromRow(row: FabricTestRow): FabricTest[] {
 
 /**
  * Fabric class for defaults, from construction and mass per area: light below 150 g/m², heavy above
- * 350 g/m² (retailer guidance, check-values §3; common practice, no source), medium otherwise.
+ * 350 g/m² (retailer guidance; common practice, no source), medium otherwise.
  */
 export function fabricClassOf(construction: "woven" | "knit", gsm: number | null): FabricClass {
   const band = gsm === null ? "medium" : gsm < 150 ? "light" : gsm > 350 ? "heavy" : "medium";

@@ -139,7 +139,7 @@ export async function deleteFabric(actor: Actor, id: string): Promise<void> {
 }
 
 function classOf(construction: "woven" | "knit", gsm: number | null): FabricClass {
-  // Weight bands from retailer guidance (check-values §3): light < 150, medium 150–350, heavy > 350 g/m².
+  // Weight bands from retailer guidance (common practice, no source): light < 150, medium 150–350, heavy > 350 g/m².
   const band = gsm === null ? "medium" : gsm < 150 ? "light" : gsm <= 350 ? "medium" : "heavy";
   return `${construction}_${band}` as FabricClass;
 }

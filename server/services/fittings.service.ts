@@ -14,19 +14,17 @@ import { createGarmentsIn, mapTagRace } from "./garments.service.js";
 import { can } from "@shared/permissions.js";
 import { checkFit, describePointFit, fitSnagFromFacts } from "@shared/domain/snags/fit.js";
 import { finishSnag } from "@shared/domain/snags/engine.js";
-import type { GarmentRec, Snag } from "@shared/domain/snags/types.js";
+import type { Snag } from "@shared/domain/snags/types.js";
 import { ConflictError, NotFoundError, ValidationError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
 import {
   changeItemsWithGarments,
   changeLabel,
   characterOfPerformer,
-  currentMeasurements,
   findChange,
-  findGarments,
   findPerformer,
-  type GarmentRow,
 } from "./workroom-facts.service.js";
+import { loadFittingFacts } from "./fit-facts.js";
 import { fittingEmail, type FittingMailKind } from "../emails/fitting.email.js";
 import { invitationAddress, queueWorkroomEmail } from "./workroom-mail.service.js";
 import { presentFitting } from "../presenters/workroom.presenter.js";
@@ -43,26 +41,6 @@ async function organizerOf(actor: Actor, f: Fitting, transaction: Transaction): 
   const booker = f.createdBy ? await User.findByPk(f.createdBy, { transaction }) : null;
   const who = booker ?? actor.user;
   return { name: who.name, email: who.email };
-}
-
-/** Garment row → the snag engine's garment record (fabric stretch % → stretch ratio for knits). */
-export function garmentRec(g: GarmentRow): GarmentRec {
-  const stretch = g.stretch_weft_pct === null ? null : Number(g.stretch_weft_pct);
-  return {
-    id: g.id,
-    tagCode: g.tag_code,
-    name: g.name,
-    category: g.category,
-    fitIntent: g.fit_intent,
-    construction: g.construction ?? "woven",
-    stretchRatio: g.construction === "knit" && stretch !== null ? 1 + stretch / 100 : null,
-    finished: g.finished_measurements ?? {},
-    source: g.source,
-    rentalDueDate: g.rental_due_on,
-    status: g.status as GarmentRec["status"],
-    multiplesGroupId: g.multiples_group_id,
-    copyNumber: g.copy_number,
-  };
 }
 
 async function assertAttendees(productionId: string, ids: string[], transaction: Transaction): Promise<void> {
@@ -127,9 +105,11 @@ export async function getFittingDetail(actor: Actor, id: string): Promise<Fittin
   const f = await loadFitting(actor, id);
   const [base] = await presentFittings(actor.productionId, [f]);
   const mayMeasure = can(actor.role, "measurement.read");
-  const measurements = mayMeasure ? await currentMeasurements(actor.productionId, f.performerId) : null;
   const items = f.changeId ? await changeItemsWithGarments(actor.productionId, f.changeId) : [];
-  const garments = new Map((await findGarments(actor.productionId, items.flatMap((i) => (i.garment_id ? [i.garment_id] : [])))).map((g) => [g.id, g]));
+  // The same fit facts as the Snags screen (production ease ranges, knit stretch), so both give one verdict.
+  const facts = await loadFittingFacts(actor.productionId, f.performerId, items.flatMap((i) => (i.garment_id ? [i.garment_id] : [])));
+  const measurements = mayMeasure ? facts.measurements : null;
+  const garments = facts.garments;
   const openTickets = await AlterationTicket.findAll({ where: { productionId: actor.productionId, garmentId: [...garments.keys()], status: { [Op.ne]: "checked" } } });
   const fromFitting = await AlterationTicket.findAll({ where: { productionId: actor.productionId, fittingId: f.id }, include: [{ model: User, as: "assignee" }], order: [["createdAt", "ASC"]] });
   const performer = await findPerformer(actor.productionId, f.performerId);
@@ -139,17 +119,16 @@ export async function getFittingDetail(actor: Actor, id: string): Promise<Fittin
     const g = i.garment_id ? garments.get(i.garment_id) : undefined;
     let fit: FittingDetailDto["items"][number]["fit"] = [];
     if (g && measurements) {
-      const rec = garmentRec(g);
-      const points = checkFit(rec, measurements.valuesMm);
-      fit = points.map((p) => ({ point: p.point, status: p.status, by: Math.round(p.by), sentence: describePointFit(p, rec.fitIntent, rec.category) }));
-      const draft = fitSnagFromFacts({ garment: rec, performerId: f.performerId, performerName: performer?.name ?? "", characterId, asDouble: false, points });
+      const points = checkFit(g, measurements.valuesMm, facts.easeOverrides);
+      fit = points.map((p) => ({ point: p.point, status: p.status, by: Math.round(p.by), sentence: describePointFit(p, g.fitIntent, g.category) }));
+      const draft = fitSnagFromFacts({ garment: g, performerId: f.performerId, performerName: performer?.name ?? "", characterId, asDouble: false, points });
       if (draft) fitSnags.push(finishSnag(draft));
     }
     return {
       changeItemId: i.change_item_id,
       label: i.label,
       garmentId: g?.id ?? null,
-      tagCode: g?.tag_code ?? null,
+      tagCode: g?.tagCode ?? null,
       garmentName: g?.name ?? null,
       garmentStatus: g?.status ?? null,
       fit,

@@ -8,6 +8,7 @@ import { Membership, Packet, PacketRecipient, Panel, Production, Seam, User } fr
 import { ConflictError, NotFoundError, UnprocessableError, ValidationError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
 import { canReceivePacket, canSeePacket } from "../policies/packets.policy.js";
+import { can, rolesThatCan } from "@shared/permissions.js";
 import { findChange, garmentsOfChange, latestMeasurementSet, listChanges, listPhotoCandidates, listVfxShots, type ChangeRow } from "./doubles-records.js";
 import { physicsForFabrics } from "./yardage.service.js";
 import { productionSeamTolerance, presentSeam } from "./seams.service.js";
@@ -63,7 +64,7 @@ function presentRecipient(r: PacketRecipient): PacketRecipientDto {
 
 function summarize(actor: Actor, p: Packet, change: ChangeRow | undefined, recipients: PacketRecipient[], publisherName: string | null, counts: PacketSummaryDto["counts"]): PacketSummaryDto {
   // A vfx user sees only their own receipt, not who else the packet went to.
-  const visible = actor.role === "vfx" ? recipients.filter((r) => r.userId === actor.user.id) : recipients;
+  const visible = can(actor.role, "packet.read_all") ? recipients : recipients.filter((r) => r.userId === actor.user.id);
   return {
     id: p.id,
     changeId: p.changeId,
@@ -93,7 +94,7 @@ function countsOf(p: Packet): PacketSummaryDto["counts"] {
 export async function listPackets(actor: Actor, query: { changeId?: string }): Promise<PacketSummaryDto[]> {
   const where: Record<string, unknown> = { productionId: actor.productionId };
   if (query.changeId) where.changeId = query.changeId;
-  if (actor.role === "vfx") {
+  if (!can(actor.role, "packet.read_all")) {
     where.status = "published";
     where.id = { [Op.in]: sequelize.literal(`(SELECT packet_id FROM packet_recipients WHERE user_id = ${sequelize.escape(actor.user.id)})`) };
   }
@@ -121,7 +122,7 @@ export async function getPacket(actor: Actor, packetId: string): Promise<PacketD
   const contents = packet.contents ?? (await snapshotContents(actor.productionId, packet.changeId, normalizedSelection(packet)));
   // vfx users only compare with versions they were sent.
   let prev = await previousPublished(packet);
-  if (prev && actor.role === "vfx") {
+  if (prev && !can(actor.role, "packet.read_all")) {
     const mine = await PacketRecipient.findOne({ where: { packetId: prev.id, userId: actor.user.id } });
     if (!mine) prev = null;
   }
@@ -131,7 +132,7 @@ export async function getPacket(actor: Actor, packetId: string): Promise<PacketD
   const counts = { panels: contents.panels.length, photos: contents.photos.length, shots: contents.shots.length, fabrics: contents.fabrics.length };
   return {
     ...summarize(actor, packet, change, recipients, publisher?.name ?? null, counts),
-    selection: actor.role === "vfx" ? { ...normalizedSelection(packet), recipientUserIds: [actor.user.id] } : normalizedSelection(packet),
+    selection: can(actor.role, "packet.read_all") ? normalizedSelection(packet) : { ...normalizedSelection(packet), recipientUserIds: [actor.user.id] },
     contents,
     previousVersion: prev?.version ?? null,
     diff,
@@ -165,7 +166,7 @@ function normalizedSelection(p: Packet): PacketSelection {
 // The builder's choices and the snapshot
 
 async function vfxMembers(productionId: string, transaction?: Transaction) {
-  const rows = await Membership.findAll({ where: { productionId, role: "vfx" }, include: [{ model: User, as: "user" }], transaction });
+  const rows = await Membership.findAll({ where: { productionId, role: rolesThatCan("packet.receive") }, include: [{ model: User, as: "user" }], transaction });
   return rows.map((m) => ({ userId: m.userId, name: m.user?.name ?? "", email: m.user?.email ?? "" }));
 }
 
@@ -528,7 +529,7 @@ export async function downloadPacket(actor: Actor, packetId: string): Promise<Pa
   const { packet } = await visiblePacket(actor, packetId);
   const base = `${(packet.contents?.character.name ?? "packet").replace(/[^A-Za-z0-9]+/g, "-")}`;
   if (packet.status === "published") {
-    if (actor.role === "vfx") await PacketRecipient.update({ downloadedAt: new Date() }, { where: { packetId: packet.id, userId: actor.user.id, downloadedAt: null } });
+    if (can(actor.role, "packet.receive")) await PacketRecipient.update({ downloadedAt: new Date() }, { where: { packetId: packet.id, userId: actor.user.id, downloadedAt: null } });
     const change = packet.contents!.change.number;
     return { stream: packetStore().read(packet.zipStorageKey!), fileName: `${base}-change-${change}-v${packet.version}.zip`, bytes: packet.zipBytes, sha256: packet.zipSha256 };
   }

@@ -10,6 +10,7 @@ import { clock, productionTimeZone } from "../lib/clock.js";
 import { VersionedCache } from "../lib/versioned-cache.js";
 import { zonedParts } from "../lib/zoned-time.js";
 import type { Actor } from "../middleware/require-auth.js";
+import { GARMENT_FACTS_SQL, currentMeasurementsSql, easeOverridesOf, garmentRecOf, measurementValuesOf, type GarmentFactsRow } from "./fit-facts.js";
 import { computeMultiplesPlans, computeSnags } from "@shared/domain/snags/engine.js";
 import { mergeSameCause } from "@shared/domain/snags/merge.js";
 import { scheduleLabels } from "@shared/domain/schedule-labels.js";
@@ -18,7 +19,6 @@ import type {
   CharacterRec,
   CheckoutRec,
   ContinuityEntryRec,
-  EaseOverrides,
   GarmentRec,
   PerformanceRec,
   ProductionSnapshot,
@@ -58,19 +58,10 @@ const num = (v: unknown): number | null => {
   return Number.isFinite(n) ? n : null;
 };
 
-/** Keep only finite numeric members of a JSON object (measurements in mm). */
-function numericRecord(v: unknown): Record<string, number> {
-  const out: Record<string, number> = {};
-  if (v && typeof v === "object" && !Array.isArray(v)) {
-    for (const [k, x] of Object.entries(v as Record<string, unknown>)) {
-      const n = num(x);
-      if (n !== null) out[k] = n;
-    }
-  }
-  return out;
-}
-
-/** Reads the production into the engine's plain snapshot: one query per table, all production-scoped. */
+/**
+ * Reads the production into the engine's plain snapshot: one query per table, all production-scoped.
+ * Garments, measurements and ease ranges become fit facts through ./fit-facts.ts, as in the fitting view.
+ */
 export async function loadSnapshot(productionId: string): Promise<LoadedProduction> {
   const q = <T extends Row>(sql: string) =>
     sequelize.query<T>(sql, { replacements: { pid: productionId }, type: QueryTypes.SELECT });
@@ -100,16 +91,12 @@ export async function loadSnapshot(productionId: string): Promise<LoadedProducti
     q(`SELECT character_id, performer_id FROM character_doubles WHERE production_id = :pid ORDER BY character_id, performer_id`),
     q(`SELECT id, name FROM performers WHERE production_id = :pid`),
     // The newest set per performer is the current one.
-    q(`SELECT DISTINCT ON (performer_id) performer_id, values_mm FROM measurement_sets
-         WHERE production_id = :pid ORDER BY performer_id, taken_on DESC, created_at DESC`),
+    q(currentMeasurementsSql()),
     q(`SELECT id, character_id, number FROM changes WHERE production_id = :pid`),
     q(`SELECT id, change_id, garment_id, multiples_group_id FROM change_items WHERE production_id = :pid`),
     q(`SELECT id, scene_id, character_id, change_id, distress_stage, wet, stunt, blood, vfx_shot, change_here
          FROM appearances WHERE production_id = :pid`),
-    q(`SELECT g.id, g.tag_code, g.name, g.category, g.fit_intent, g.finished_measurements, g.source,
-              to_char(g.rental_due_on, 'YYYY-MM-DD') AS rental_due_on, g.status, g.multiples_group_id, g.copy_number,
-              f.construction, f.stretch_warp_pct, f.stretch_weft_pct
-         FROM garments g LEFT JOIN fabrics f ON f.id = g.fabric_id WHERE g.production_id = :pid`),
+    q(GARMENT_FACTS_SQL),
     q(`SELECT id, name FROM multiples_groups WHERE production_id = :pid`),
     // Entries whose scene or character went while they waited on a phone are for review, not for rules.
     q(`SELECT e.id, e.shoot_day_id, e.scene_id, e.character_id, e.distress_stage,
@@ -149,34 +136,17 @@ export async function loadSnapshot(productionId: string): Promise<LoadedProducti
     doublesOf.set(c, l);
   }
   const measurementsOf = new Map<string, Record<string, number>>();
-  for (const m of measurements) measurementsOf.set(m.performer_id as string, numericRecord(m.values_mm));
+  for (const m of measurements) measurementsOf.set(m.performer_id as string, measurementValuesOf(m.values_mm));
 
   const groupGarments = new Map<string, string[]>();
-  const garmentRecs: GarmentRec[] = garments.map((g) => {
-    const knit = g.construction === "knit";
-    // Knits: crosswise (weft/course) stretch goes round the body; warp when only that was tested.
-    const pct = num(g.stretch_weft_pct) ?? num(g.stretch_warp_pct);
-    const groupId = (g.multiples_group_id as string | null) ?? null;
-    if (groupId) {
-      const l = groupGarments.get(groupId) ?? [];
-      l.push(g.id as string);
-      groupGarments.set(groupId, l);
+  const garmentRecs: GarmentRec[] = garments.map((row) => {
+    const g = garmentRecOf(row as unknown as GarmentFactsRow);
+    if (g.multiplesGroupId) {
+      const l = groupGarments.get(g.multiplesGroupId) ?? [];
+      l.push(g.id);
+      groupGarments.set(g.multiplesGroupId, l);
     }
-    return {
-      id: g.id as string,
-      tagCode: g.tag_code as string,
-      name: g.name as string,
-      category: g.category as string,
-      fitIntent: g.fit_intent as GarmentRec["fitIntent"],
-      construction: knit ? "knit" : "woven",
-      stretchRatio: knit && pct !== null && pct > 0 ? 1 + pct / 100 : null,
-      finished: numericRecord(g.finished_measurements),
-      source: g.source as GarmentRec["source"],
-      rentalDueDate: (g.rental_due_on as string | null) ?? null,
-      status: g.status as GarmentRec["status"],
-      multiplesGroupId: groupId,
-      copyNumber: num(g.copy_number),
-    };
+    return g;
   });
 
   const appearanceRecs: AppearanceRec[] = [];
@@ -219,7 +189,7 @@ export async function loadSnapshot(productionId: string): Promise<LoadedProducti
       id: productionId,
       kind: prod.kind as ProductionSnapshot["production"]["kind"],
       quickChangeThresholdMin: num(settings.quickChangeThresholdMin) ?? DEFAULT_QUICK_CHANGE_MIN,
-      easeOverrides: isEaseOverrides(settings.easeOverrides) ? settings.easeOverrides : undefined,
+      easeOverrides: easeOverridesOf(settings),
     },
     scenes: scenes.map((s, i) => ({
       id: s.id as string,
@@ -263,22 +233,6 @@ export async function loadSnapshot(productionId: string): Promise<LoadedProducti
     days: days.map((d) => ({ id: d.id as string, date: d.date as string, kind: d.kind === "performance" ? "performance" : "shoot" })),
     timeZone,
   };
-}
-
-/** Loose shape check for `settings.easeOverrides` (category → point → intent → {min, max}). */
-function isEaseOverrides(v: unknown): v is EaseOverrides {
-  if (!v || typeof v !== "object" || Array.isArray(v)) return false;
-  for (const points of Object.values(v as Record<string, unknown>)) {
-    if (!points || typeof points !== "object") return false;
-    for (const intents of Object.values(points as Record<string, unknown>)) {
-      if (!intents || typeof intents !== "object") return false;
-      for (const r of Object.values(intents as Record<string, unknown>)) {
-        const range = r as { min?: unknown; max?: unknown };
-        if (!range || typeof range.min !== "number" || !(range.max === null || typeof range.max === "number")) return false;
-      }
-    }
-  }
-  return true;
 }
 
 /** Lookups for resolving names, links and "what does this snag concern". */

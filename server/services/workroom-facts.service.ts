@@ -174,15 +174,6 @@ export async function changeItemsWithGarments(productionId: string, changeId: st
   );
 }
 
-/** The performer's newest measurement set (measurements are personal data: callers check measurement.read). */
-export async function currentMeasurements(productionId: string, performerId: string): Promise<{ takenOn: string; valuesMm: Record<string, number> } | null> {
-  const rows = await q<{ taken_on: string; values_mm: Record<string, number> }>(
-    `SELECT taken_on::text AS taken_on, values_mm FROM measurement_sets WHERE production_id = :productionId AND performer_id = :performerId ORDER BY taken_on DESC, created_at DESC LIMIT 1`,
-    { productionId, performerId },
-  );
-  return rows[0] ? { takenOn: rows[0].taken_on, valuesMm: rows[0].values_mm } : null;
-}
-
 /** The character a performer plays (first by sort order), for fit snags. */
 export async function characterOfPerformer(productionId: string, performerId: string): Promise<string | null> {
   const rows = await q<{ id: string }>(`SELECT id FROM characters WHERE production_id = :productionId AND performer_id = :performerId ORDER BY sort_order, name LIMIT 1`, { productionId, performerId });

@@ -40,7 +40,8 @@ export async function queueWorkroomEmail(
     transaction,
   });
   if (!created) return row;
-  const send = () => enqueue(EMAIL_JOB, { emailJobId: row.id }).catch((err) => logger.error({ err }, "could not queue an e-mail"));
+  // The row is the record either way: a send that fails inline has marked it failed (listed for supervisors).
+  const send = () => enqueue(EMAIL_JOB, { emailJobId: row.id }).catch((err) => logger.error({ err, emailJobId: row.id }, "e-mail not queued or its inline send failed"));
   if (transaction) transaction.afterCommit(() => void send());
   else await send();
   return row;
@@ -78,7 +79,13 @@ export async function retryEmailJob(actor: Actor, id: string): Promise<WorkroomE
   if (job.status === "sent") throw ConflictError("That e-mail was already sent.");
   await job.update({ status: "pending" });
   await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "workroom.email_retry", entityType: "workroom_email_job", entityId: job.id });
-  await enqueue(EMAIL_JOB, { emailJobId: job.id });
+  try {
+    await enqueue(EMAIL_JOB, { emailJobId: job.id });
+  } catch (err) {
+    // Without a queue the send runs now: a failed send is on the row (status "failed", lastError), which the
+    // supervisor sees in the answer; any other failure is a fault of the request.
+    if ((await job.reload()).status !== "failed") throw err;
+  }
   return (await job.reload()) ?? job;
 }
 

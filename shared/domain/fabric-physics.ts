@@ -1,5 +1,5 @@
 // Fabric test results → SI values a cloth simulator can take (for digital doubles).
-// Formulas and examples: shared/reference/check-values.md §2 (ASTM D1388), §3 (ASTM D3776), §4 (strip test, KES-F).
+// Formulas and examples: ASTM D1388-18, ASTM D3776/D3776M-20, the strip test (Hooke's law per width) and KES-F (Kawabata 1980); see docs/references.md.
 
 /** Standard gravity g_n in m/s² (exact by convention; also defines the gram-force). */
 export const STANDARD_GRAVITY = 9.80665;
@@ -44,7 +44,7 @@ export function bendingLengthFromOverhang(overhangMm: number): number {
 /**
  * Peirce's closed form c = l·(cos(θ/2) / (8·tan θ))^(1/3), for cantilever readings at other angles.
  * Documented alternative only: at 41.5° it gives 0.5093·l, ~1.9 % above D1388's l/2, which matches the
- * exact heavy-elastica solution (check-values §2); it is close to exact only at small angles.
+ * exact heavy-elastica solution (Peirce 1930); it is close to exact only at small angles.
  */
 export function peirceBendingLength(overhangMm: number, angleDeg: number): number {
   positive({ overhangMm });
@@ -115,7 +115,7 @@ export function frictionFromSlideAngle(angleDeg: number): number {
 }
 
 /**
- * Kawabata KES-F units → SI (check-values §4; factors computed from gf = 9.80665e-3 N).
+ * Kawabata KES-F units → SI (Kawabata 1980, KES-F, from memory; factors computed from gf = 9.80665e-3 N).
  * Units of B and 2HB are from memory; EMT's 500 gf/cm reference load is from memory.
  */
 export const KES_TO_SI = {
@@ -194,7 +194,7 @@ export interface FabricClassDefaults {
 }
 
 // Common practice, no source: placeholders so a simulation can start before a test is recorded.
-// Mass bands follow retailer guidance (light < 150, medium 150–350, heavy > 350 g/m²; check-values §3);
+// Mass bands follow retailer guidance (light < 150, medium 150–350, heavy > 350 g/m²; retailer guidance, common practice, no source);
 // bending lengths, stretch stiffnesses and thicknesses are hand-picked typical values. Knit "weft" = courses,
 // usually the stretchier direction.
 /** Default values per fabric class (common practice, no source). */

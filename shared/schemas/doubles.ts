@@ -169,8 +169,8 @@ export interface PanelDto {
   sortOrder: number;
   /** Sew-line area, mm² (shoelace). */
   areaMm2: number;
-  /** Cut-line area, mm². */
-  cutAreaMm2: number;
+  /** Cut-line area, mm²; null when the cut line cannot be drawn from this outline. */
+  cutAreaMm2: number | null;
   perimeterMm: number;
   updatedAt: string;
 }

@@ -28,7 +28,7 @@ describe("POST /api/auth/login", () => {
 
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe("validation_error");
-    expect(res.body.error.fields.email).toBeDefined();
+    expect(res.body.error.fields.email).toBe("E-mail must be an e-mail address");
   });
 
   it("answers 401 with a clear message for a wrong password", async () => {

@@ -52,7 +52,7 @@ describe("POST /panels", () => {
     const res = await cutter.post(`${base()}/panels`, { garmentId: foreign[0], name: "Front", outline: [[0, 0], [10, 0], [0, 10]] });
 
     expect(res.status).toBe(400);
-    expect(res.body.error.fields.garmentId).toBeDefined();
+    expect(res.body.error.fields.garmentId).toBe("Garment: no such garment in this production");
     expect(await Panel.count()).toBe(0);
   });
 
@@ -75,6 +75,20 @@ describe("POST /panels", () => {
   });
 });
 
+describe("GET /panels/:panelId", () => {
+  it("gives no cut area when the cut line cannot be drawn, rather than the sew-line area", async () => {
+    // A stored piece a few tenths of a micrometre across: clipper works in whole micrometres, so the outline
+    // collapses to one point and offsetting it yields no cut line.
+    const p = await buildPanel(productionId, garmentIds[0], { name: "Speck", outline: [[0, 0], [0.0004, 0], [0, 0.0004]], seamAllowanceMm: 10 });
+
+    const res = await cutter.get(`${base()}/panels/${p.id}`);
+
+    expect(res.status).toBe(200);
+    expect(res.body.data.areaMm2).toBeCloseTo(0.0004 * 0.0004 / 2, 12);
+    expect(res.body.data.cutAreaMm2).toBeNull();
+  });
+});
+
 describe("PATCH /panels/:panelId", () => {
   it("changes only the fields sent", async () => {
     const p = await buildPanel(productionId, garmentIds[0], { seamAllowanceMm: 15 });
@@ -93,7 +107,7 @@ describe("PATCH /panels/:panelId", () => {
     const res = await cutter.patch(`${base()}/panels/${a.id}`, { outline: [[0, 0], [100, 0], [100, 100]] });
 
     expect(res.status).toBe(422);
-    expect(res.body.error.fields.outline).toBeDefined();
+    expect(res.body.error.fields.outline).toBe("Outline: a seam uses vertex or edge 4");
     expect((await Panel.findByPk(a.id))!.outline).toHaveLength(5);
   });
 
@@ -152,11 +166,12 @@ describe("POST /panels/dxf-import", () => {
     expect(await Panel.count()).toBe(0);
   });
 
-  it("400 names the file field when the upload is not .dxf", async () => {
+  it("415 names the file field when the upload is not .dxf", async () => {
     const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).attach("file", Buffer.from("x"), "piece.txt");
 
-    expect(res.status).toBe(400);
-    expect(res.body.error.fields.file).toBeDefined();
+    expect(res.status).toBe(415);
+    expect(res.body.error.code).toBe("unsupported_media_type");
+    expect(res.body.error.fields).toEqual({ file: "Choose a .dxf file" });
     expect(await Panel.count()).toBe(0);
   });
 
@@ -296,7 +311,7 @@ describe("seams", () => {
     const res = await cutter.post(`${base()}/seams`, { name: "S", a: { panelId: a.id, from: 1, to: 9 }, b: { panelId: b.id, from: 0, to: 1 } });
 
     expect(res.status).toBe(400);
-    expect(res.body.error.fields["a.to"]).toBeDefined();
+    expect(res.body.error.fields["a.to"]).toBe("To: the panel has 4 points (0–3)");
     expect(await Seam.count()).toBe(0);
   });
 
@@ -306,36 +321,43 @@ describe("seams", () => {
     const res = await cutter.post(`${base()}/seams`, { name: "S", a: { panelId: a.id, from: 0, to: 1 }, b: { panelId: a.id, from: 2, to: 3 }, eased: { minMm: 20, maxMm: 5 } });
 
     expect(res.status).toBe(400);
-    expect(res.body.error.fields["eased.maxMm"]).toBeDefined();
+    expect(res.body.error.fields["eased.maxMm"]).toBe("Ease to: minimum must not exceed maximum");
     expect(await Seam.count()).toBe(0);
   });
 });
 
 describe("yardage and fabric physics", () => {
   it("lays a marker for the change: efficiency = piece area / marker area, never below the lower bound", async () => {
-    await buildPanel(productionId, garmentIds[0], { name: "Front", outline: [[0, 0], [300, 0], [280, 600], [0, 620]], cutCount: 2 });
-    await buildPanel(productionId, garmentIds[1], { name: "Sleeve", outline: [[0, 0], [250, 0], [300, 500], [-50, 500]], cutCount: 2 });
+    // No seam allowance, so the marker lays the sew lines and their areas are worked by hand:
+    // Front (shoelace): ½·(300·600 + 280·620) = 176 800 mm²; Sleeve (trapezoid): ½·(250 + 350)·500 = 150 000 mm².
+    await buildPanel(productionId, garmentIds[0], { name: "Front", outline: [[0, 0], [300, 0], [280, 600], [0, 620]], cutCount: 2, seamAllowanceMm: 0 });
+    await buildPanel(productionId, garmentIds[1], { name: "Sleeve", outline: [[0, 0], [250, 0], [300, 500], [-50, 500]], cutCount: 2, seamAllowanceMm: 0 });
+    // 2 cut × 2 multiples = 4 copies of each: 4 × 176 800 + 4 × 150 000 = 1 307 200 mm².
+    const pieces = 1_307_200;
 
     const res = await cutter.post(`${base()}/doubles/markers`, { scope: "change", scopeId: changeId, multiples: 2 });
 
     expect(res.status).toBe(201);
     const [f] = res.body.data.fabrics;
-    expect(f.usableWidthMm).toBe(1450); // 1500 mm cloth less 25 mm selvage each side (check-values §9 example)
+    expect(f.usableWidthMm).toBe(1450); // 1500 mm cloth less 25 mm selvage each side (common practice, no source)
     expect(f.copies).toBe(8);
-    // check-values §9: efficiency = Σ piece area / (length × width); length ≥ Σ area / width.
-    expect(f.efficiency).toBeCloseTo(f.pieceAreaMm2 / (f.markerLengthMm * f.usableWidthMm), 12);
-    expect(f.markerLengthMm).toBeGreaterThanOrEqual(f.lowerBoundMm - 1e-9);
+    // Marker efficiency = Σ piece area / (marker length × usable width); no layout is shorter than Σ area / width
+    // (area argument; common practice in marker making, no source). Area and width are the hand-worked ones above.
+    expect(f.pieceAreaMm2).toBeCloseTo(pieces, 6);
+    expect(f.lowerBoundMm).toBeCloseTo(pieces / 1450, 9);
+    expect(f.efficiency).toBeCloseTo(pieces / (f.markerLengthMm * 1450), 12);
+    expect(f.markerLengthMm).toBeGreaterThanOrEqual(pieces / 1450 - 1e-9);
     const cached = await cutter.get(`${base()}/doubles/markers?scope=change&scopeId=${changeId}&multiples=2`);
     expect(cached.body.data.current).toBe(true);
   });
 
   it("marks values measured from tests and assumed from class defaults", async () => {
     const { id } = await buildFabric(productionId, { name: "Tested wool", gsm: 180 }, [
-      // ASTM D3776: 2.00 g on 100 × 100 mm → 200 g/m² (check-values §3 formula).
+      // ASTM D3776: 2.00 g on 100 × 100 mm → 200 g/m² (ASTM D3776/D3776M-20 formula).
       { kind: "mass", readings: { massG: 2, lengthMm: 100, widthMm: 100 } },
-      // ASTM D1388: overhang 40 mm → c = 20 mm; G = 9.80665e-6 × 200 × 20³ µN·m = 15.69064 µN·m (check-values §2).
+      // ASTM D1388: overhang 40 mm → c = 20 mm; G = 9.80665e-6 × 200 × 20³ µN·m = 15.69064 µN·m (ASTM D1388-18).
       { kind: "cantilever", direction: "warp", readings: { overhangMm: 40 } },
-      // Strip: 10 N over 50 mm at 4 mm on 200 mm → 10 000 N/m (check-values §4).
+      // Strip: 10 N over 50 mm at 4 mm on 200 mm → 10 000 N/m (strip test, Hooke's law per unit width).
       { kind: "strip", direction: "warp", readings: { loadN: 10, stripWidthMm: 50, gaugeLengthMm: 200, extensionMm: 4 } },
     ]);
     const g = await buildChangeWithGarments(productionId, { fabricId: id });

@@ -41,13 +41,13 @@ describe("POST /fabrics", () => {
     const res = await agent.post(base, { ...calico, fibreContent: [{ fibre: "wool", percent: 33.3 }, { fibre: "linen", percent: 33.3 }, { fibre: "cotton", percent: 33.4 }] });
 
     expect(res.status).toBe(201);
-    // check-values §1 [C]: 1 g/m² ≈ 0.0294935246816 oz/yd², so 135 g/m² → 3.98 oz/yd² (also §3: 3.98163).
+    // NIST SP 811 App. B.8, 1959 international yard and pound: 1 g/m² ≈ 0.0294935246816 oz/yd², so 135 g/m² → 3.98 oz/yd² (ASTM D3776/D3776M-20 gives 3.98163).
     expect(res.body.data.massPerAreaOzYd2).toBe(3.98);
   });
 });
 
 describe("POST /fabrics/:id/tests", () => {
-  it("mass test: ASTM D3776 m/A — 1.35 g on 100 × 100 mm → 135 g/m² = 3.98163 oz/yd² (check-values §3)", async () => {
+  it("mass test: ASTM D3776 m/A — 1.35 g on 100 × 100 mm → 135 g/m² = 3.98163 oz/yd² (ASTM D3776/D3776M-20)", async () => {
     const f = await buildFabric({ production });
 
     const res = await agent.post(`${base}/${f.id}/tests`, { testedOn: "2026-11-20", readings: { kind: "mass", massG: 1.35, lengthMm: 100, widthMm: 100 } });
@@ -58,7 +58,7 @@ describe("POST /fabrics/:id/tests", () => {
     expect(res.body.data.derived.massPerAreaOzYd2).toBeCloseTo(3.98163, 5);
   });
 
-  it("cantilever: ASTM D1388 worked example W = 200 g/m², overhang 40 mm → c = 20 mm, G = 15.69064 µN·m (check-values §2)", async () => {
+  it("cantilever: ASTM D1388 worked example W = 200 g/m², overhang 40 mm → c = 20 mm, G = 15.69064 µN·m (ASTM D1388-18)", async () => {
     const f = await buildFabric({ production, massPerAreaGsm: null });
     await agent.post(`${base}/${f.id}/tests`, { testedOn: "2026-11-20", readings: { kind: "mass", massG: 2, lengthMm: 100, widthMm: 100 } }).expect(201);
 
@@ -71,7 +71,7 @@ describe("POST /fabrics/:id/tests", () => {
     expect(res.body.data.derived.massBasis).toBe("tested");
   });
 
-  it("strip test: b = 50 mm, L₀ = 200 mm, 10 N at 4 mm → k = 10 000 N/m (check-values §4)", async () => {
+  it("strip test: b = 50 mm, L₀ = 200 mm, 10 N at 4 mm → k = 10 000 N/m (strip test, Hooke's law per unit width)", async () => {
     const f = await buildFabric({ production });
 
     const res = await agent.post(`${base}/${f.id}/tests`, { testedOn: "2026-11-20", readings: { kind: "strip", direction: "weft", loadN: 10, stripWidthMm: 50, gaugeLengthMm: 200, extensionMm: 4 } });

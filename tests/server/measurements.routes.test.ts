@@ -26,7 +26,7 @@ describe("POST measurements", () => {
     const res = await agent.post(url, { takenOn: "2026-11-18", unit: "in", values: { chest_girth: 40, waist_girth: 33.5, height: 70, inside_leg_length: 32 } });
 
     expect(res.status).toBe(201);
-    // 1959 international yard: 1 in = 25.4 mm exactly (check-values §1).
+    // 1959 international yard: 1 in = 25.4 mm exactly (NIST SP 811 App. B.8, 1959 international yard and pound).
     expect(res.body.data.valuesMm).toEqual({ chest_girth: 1016, waist_girth: 850.9, height: 1778, inside_leg_length: 812.8 });
     expect(res.body.data.enteredUnit).toBe("in");
     expect(res.body.data.takenByName).toBe("Test cutter");

@@ -35,9 +35,9 @@ describe("POST /api/productions", () => {
     const malformed = await agent.agent.post("/api/productions").set("X-CSRF-Token", agent.csrf).set("Content-Type", "application/json").send('{"title": ');
 
     expect(missing.status).toBe(400);
-    expect(missing.body.error.fields.title).toBeDefined();
+    expect(missing.body.error.fields.title).toBe("Title is required");
     expect(tooLong.body.error.fields.title).toMatch(/200/);
-    expect(badKind.body.error.fields.kind).toBeDefined();
+    expect(badKind.body.error.fields.kind).toBe("Kind must be one of: film, series, stage");
     expect(badDates.body.error.fields.endsOn).toMatch(/after/);
     expect(malformed.status).toBe(400);
     expect(malformed.body.error).toEqual({ code: "validation_error", message: "The request body is not valid JSON." });
@@ -89,7 +89,7 @@ describe("invitations", () => {
     const res = await agent.post(`/api/productions/${production.id}/invitations`, { email: member.email, role: "cutter" });
 
     expect(res.status).toBe(409);
-    expect(res.body.error.fields.email).toBeDefined();
+    expect(res.body.error.fields.email).toBe("E-mail is already a member of this production");
     expect(await Invitation.count()).toBe(0);
   });
 

@@ -118,9 +118,9 @@ describe("preparing and publishing", () => {
     const res2 = await cutter.post(`${base()}/packets`, { changeId: ids.changeId, recipientUserIds: [randomUUID()] });
 
     expect(res.status).toBe(400);
-    expect(res.body.error.fields.appearanceIds).toBeDefined();
+    expect(res.body.error.fields.appearanceIds).toBe("Effects shots contains an id that is not an effects shot of this change");
     expect(res2.status).toBe(400);
-    expect(res2.body.error.fields.recipientUserIds).toBeDefined();
+    expect(res2.body.error.fields.recipientUserIds).toBe("Recipients contains an id that is not a vfx member of this production");
     expect(await Packet.count()).toBe(0);
   });
 
@@ -130,7 +130,7 @@ describe("preparing and publishing", () => {
     const res = await supervisor.post(`${base()}/packets/${draft.body.data.id}/publish`);
 
     expect(res.status).toBe(422);
-    expect(res.body.error.fields.recipientUserIds).toBeDefined();
+    expect(res.body.error.fields.recipientUserIds).toBe("Choose at least one recipient");
     expect((await Packet.findByPk(draft.body.data.id))!.status).toBe("draft");
   });
 

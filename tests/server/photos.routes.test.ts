@@ -175,11 +175,13 @@ describe("photo upload limits and owners", () => {
     expect(await Photo.count()).toBe(0);
   });
 
-  it("refuses an extension outside the allow-list with 400 naming the field", async () => {
+  it("refuses an extension outside the allow-list with 415 naming the field", async () => {
     const res = await agent.agent.post(`/api/productions/${pid}/photos`).set("X-CSRF-Token", agent.csrf).field("ownerType", "scene").field("ownerId", sceneId).attach("file", Buffer.from("x"), { filename: "notes.txt", contentType: "text/plain" });
 
-    expect(res.status).toBe(400);
-    expect(res.body.error.fields).toHaveProperty("file");
+    expect(res.status).toBe(415);
+    expect(res.body.error.code).toBe("unsupported_media_type");
+    expect(res.body.error.fields).toEqual({ file: "File is not an accepted image type" });
+    expect(await Photo.count()).toBe(0);
   });
 
   it("refuses an unknown owner type (400) and a missing owner (404)", async () => {

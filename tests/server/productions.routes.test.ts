@@ -33,7 +33,7 @@ describe("PATCH /api/productions/:productionId", () => {
     const res = await agent.patch(`/api/productions/${production.id}`, { units: "in", settings: { reminderHour: 24 } });
 
     expect(res.status).toBe(400);
-    expect(res.body.error.fields["settings.reminderHour"]).toBeDefined();
+    expect(res.body.error.fields["settings.reminderHour"]).toBe("Reminder hour must be at most 23");
     expect((await Production.findByPk(production.id))?.units).toBe("cm");
     expect(await AuditEvent.count({ where: { action: "production.update" } })).toBe(0);
   });

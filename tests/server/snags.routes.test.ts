@@ -40,7 +40,7 @@ describe("GET /api/productions/:pid/snags", () => {
     const res = await agent.get(`/api/productions/${pid}/snags?kind=weather`);
 
     expect(res.status).toBe(400);
-    expect(res.body.error.fields.kind).toBeDefined();
+    expect(res.body.error.fields.kind).toBe("Kind must be one of: fit, continuity, multiples, booking, rental, availability, quick_change, workroom_late, workroom_overbooked");
   });
 
   it("answers 404 for a shoot day of no production", async () => {
@@ -79,7 +79,7 @@ describe("POST /api/productions/:pid/snags/dismissals", () => {
 
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe("validation_error");
-    expect(res.body.error.fields.reason).toBeDefined();
+    expect(res.body.error.fields.reason).toBe("Reason is required");
     expect(await SnagDismissal.count()).toBe(0);
     expect(await AuditEvent.count()).toBe(0);
   });

@@ -328,6 +328,18 @@ describe("failed sends are recorded and visible to supervisors", () => {
     expect(list.body.data.map((j: { id: string }) => j.id)).toEqual([job.id]);
     expect((await (await signedInAgent(app, cutter.user.email)).get(`/api/productions/${production.id}/workroom/email-jobs`)).status).toBe(403);
   });
+
+  it("a retry that fails again (no queue, sent inline) answers with the row marked failed and its error", async () => {
+    const { production } = await setup();
+    const supervisor = await buildMember("supervisor", { production });
+    const job = (await queueWorkroomEmail({ productionId: production.id, kind: "evening_reminder", dedupeKey: "test:bad-again", mail: { to: [], subject: "x", text: "x", html: "x" } }))!;
+
+    const res = await (await signedInAgent(app, supervisor.user.email)).post(`/api/productions/${production.id}/workroom/email-jobs/${job.id}/retry`, {});
+
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.data).toMatchObject({ id: job.id, status: "failed", attempts: 2 });
+    expect(res.body.data.lastError).toMatch(/recipient/i);
+  });
 });
 
 describe("evening reminders", () => {

@@ -20,16 +20,16 @@ import {
   type FabricTest,
 } from "@shared/domain/fabric-physics";
 
-// Tolerances from check-values.md header: 1e-6 relative for derived mechanics, 1e-3 where a source rounds.
+// Tolerances: 1e-6 relative for derived mechanics, 1e-3 where a source rounds.
 function expectRel(actual: number, expected: number, rel = 1e-6) {
   expect(Math.abs(actual - expected)).toBeLessThanOrEqual(Math.abs(expected) * rel);
 }
 
 describe("ASTM D3776 mass per area", () => {
   it.each([
-    // check-values §3 [C]: 10 cm × 10 cm swatch weighing 1.35 g → 135 g/m²
+    // ASTM D3776/D3776M-20: 10 cm × 10 cm swatch weighing 1.35 g → 135 g/m²
     ["10 × 10 cm swatch, 1.35 g", 1.35, 100, 100, 135],
-    // m/A definition (check-values §3 [C]) on other specimen shapes
+    // m/A definition (ASTM D3776/D3776M-20) on other specimen shapes
     ["50 × 200 mm strip, 2.0 g", 2.0, 200, 50, 200],
     ["1 m × 1.5 m cut, 300 g", 300, 1000, 1500, 200],
   ])("%s", (_name, g, l, w, gsm) => {
@@ -39,7 +39,7 @@ describe("ASTM D3776 mass per area", () => {
     expectRel(r.kgPerM2, gsm / 1000, 1e-12);
   });
 
-  it("gives grams per linear metre at a width (check-values §3: 1.45 m of 135 g/m² → 195.75 g/m)", () => {
+  it("gives grams per linear metre at a width (ASTM D3776/D3776M-20: 1.45 m of 135 g/m² → 195.75 g/m)", () => {
     expectRel(linearDensityGPerM(135, 1450), 195.75, 1e-12);
   });
 
@@ -53,23 +53,23 @@ describe("ASTM D3776 mass per area", () => {
 });
 
 describe("ASTM D1388 option A cantilever", () => {
-  it("takes bending length as half the overhang at 41.5° (check-values §2)", () => {
+  it("takes bending length as half the overhang at 41.5° (ASTM D1388-18)", () => {
     expect(bendingLengthFromOverhang(40)).toBe(20);
   });
 
-  it("worked example W = 200 g/m², O = 40 mm → G = 15.69064 µN·m (check-values §2, [C])", () => {
+  it("worked example W = 200 g/m², O = 40 mm → G = 15.69064 µN·m (ASTM D1388-18)", () => {
     const g = flexuralRigidity(200, bendingLengthFromOverhang(40));
 
     expectRel(toMicroNewtonMetres(g), 15.69064);
   });
 
-  it("agrees with the old cgs form G [mg·cm] = W [mg/cm²] × C [cm]³ × 0.0980665 µN·m (check-values §2)", () => {
+  it("agrees with the old cgs form G [mg·cm] = W [mg/cm²] × C [cm]³ × 0.0980665 µN·m (ASTM D1388-18)", () => {
     // 200 g/m² = 20 mg/cm², C = 2.0 cm → 160 mg·cm
     expectRel(toMicroNewtonMetres(flexuralRigidity(200, 20)), 20 * 2.0 ** 3 * 0.0980665);
   });
 
   it.each([
-    // FAST-2 published results (check-values §2, [V]: student report): W = 168 g/m²; g = 9.81 in the source → 1e-3
+    // FAST-2 published results (as quoted in a student report, from memory): W = 168 g/m²; g = 9.81 in the source → 1e-3
     [15.0, 5.56],
     [14.5, 5.02],
   ])("FAST cross-check: C = %s mm → %s µN·m", (c, published) => {
@@ -90,15 +90,15 @@ describe("ASTM D1388 option A cantilever", () => {
 });
 
 describe("Peirce closed form (documented alternative)", () => {
-  it("gives c/l = 0.509321 at 41.5° (check-values §2 [C])", () => {
+  it("gives c/l = 0.509321 at 41.5° (Peirce 1930)", () => {
     expectRel(peirceBendingLength(1, 41.5), 0.509321, 1e-6);
   });
 
-  it("gives G = 16.585 µN·m for the W = 200, O = 40 mm example (+5.7 %, check-values §2)", () => {
+  it("gives G = 16.585 µN·m for the W = 200, O = 40 mm example (+5.7 %, Peirce 1930)", () => {
     expectRel(toMicroNewtonMetres(flexuralRigidity(200, peirceBendingLength(40, 41.5))), 16.585, 1e-4);
   });
 
-  it("gives c ≈ l/2 near 43° (check-values §2: cos(21.5°)/tan 43° = 0.99775)", () => {
+  it("gives c ≈ l/2 near 43° (Peirce 1930: cos(21.5°)/tan 43° = 0.99775)", () => {
     expectRel(peirceBendingLength(1, 43), Math.cbrt(0.99775 / 8), 1e-5);
   });
 
@@ -107,7 +107,7 @@ describe("Peirce closed form (documented alternative)", () => {
   });
 });
 
-describe("bending conversions (check-values §4)", () => {
+describe("bending conversions (strip test, Hooke's law per unit width)", () => {
   it("strip EI = G·b: 15.69064 µN·m over 25 mm → 3.92266e-7 N·m²", () => {
     expectRel(stripBendingStiffness(15.69064e-6, 25), 3.92266e-7);
   });
@@ -119,7 +119,7 @@ describe("bending conversions (check-values §4)", () => {
 
 describe("strip tensile stiffness per width", () => {
   it.each([
-    // check-values §4 [C]: b = 50 mm, L0 = 200 mm, F = 10 N at ΔL = 4 mm → k = 10 000 N/m
+    // strip test, Hooke's law per unit width: b = 50 mm, L0 = 200 mm, F = 10 N at ΔL = 4 mm → k = 10 000 N/m
     ["§4 worked example", { loadN: 10, stripWidthMm: 50, gaugeLengthMm: 200, extensionMm: 4 }, 10000],
     // Same definition, 100 mm gauge for an extensible knit: 2 N, 50 mm, 20 mm → (40 N/m)/0.2 = 200 N/m
     ["knit on 100 mm gauge", { loadN: 2, stripWidthMm: 50, gaugeLengthMm: 100, extensionMm: 20 }, 200],
@@ -133,7 +133,7 @@ describe("strip tensile stiffness per width", () => {
     expectRel(tensileStiffnessPerWidth({ loadN: 7.5, stripWidthMm: 25, gaugeLengthMm: 180, extensionMm: 3 }), oracle.toNumber("N/m"), 1e-12);
   });
 
-  it("Young's modulus E = k/t: 10 000 N/m over 0.3 mm → 33.33 MPa (check-values §4)", () => {
+  it("Young's modulus E = k/t: 10 000 N/m over 0.3 mm → 33.33 MPa (strip test, Hooke's law per unit width)", () => {
     expectRel(youngsModulus(10000, 0.3), 10000 / 0.0003, 1e-12);
   });
 
@@ -142,7 +142,7 @@ describe("strip tensile stiffness per width", () => {
   });
 });
 
-describe("KES-F conversion factors (check-values §4)", () => {
+describe("KES-F conversion factors (Kawabata 1980, KES-F; from memory)", () => {
   // Oracle: mathjs units with gram-force built from its gravity constant (g_n).
   const gf = multiply(unit(1, "g"), gravity) as Unit;
   it.each([
@@ -165,7 +165,7 @@ describe("KES-F conversion factors (check-values §4)", () => {
     ["B 0.08 gf·cm²/cm → 7.84532 µN·m", () => toMicroNewtonMetres(kesToSi("B", 0.08)), 7.84532],
     ["G 0.6 gf/(cm·deg) → 33.7128 N/m per rad", () => kesToSi("G", 0.6), 33.7128],
     ["500 gf/cm → 490.3325 N/m", () => kesToSi("EMT_LOAD", 500), 490.3325],
-  ])("%s (check-values §4)", (_name, fn, expected) => {
+  ])("%s (Kawabata 1980, KES-F; from memory)", (_name, fn, expected) => {
     expectRel(fn(), expected, 1e-6);
   });
 });
@@ -237,7 +237,9 @@ describe("fabricSimulationValues", () => {
       tests: [{ id: "b", kind: "bending", direction: "warp", overhangMm: 40, angleDeg: 30 }],
     });
 
-    expectRel(v.bendingStiffness.warp.value, flexuralRigidity(200, 40 * Math.cbrt(Math.cos(Math.PI / 12) / (8 * Math.tan(Math.PI / 6)))));
+    // Peirce (1930): c³ = O³·cos(θ/2) / (8·tan θ); G = W·g_n·c³ (ASTM D1388-18 §3), written out here:
+    // 0.2 kg/m² × 9.80665 m/s² × (0.040 m)³ × cos 15° / (8 · tan 30°).
+    expectRel(v.bendingStiffness.warp.value, (0.2 * 9.80665 * 0.04 ** 3 * Math.cos(Math.PI / 12)) / (8 * Math.tan(Math.PI / 6)));
   });
 
   it("falls back to the declared mass and says so on the measured bending value", () => {
@@ -267,7 +269,7 @@ describe("fabricSimulationValues", () => {
     expectRel(v.bendingStiffness.warp.value, (d.massPerAreaGsm / 1000) * 9.80665 * (d.bendingLengthMm.warp / 1000) ** 3);
   });
 
-  it("keeps class mass defaults inside the retailer weight bands (check-values §3: light < 150, medium 150–350, heavy > 350 g/m²; knits loosely)", () => {
+  it("keeps class mass defaults inside the retailer weight bands (retailer guidance, common practice, no source: light < 150, medium 150–350, heavy > 350 g/m²; knits loosely)", () => {
     expect(FABRIC_CLASS_DEFAULTS.woven_light.massPerAreaGsm).toBeLessThan(150);
     expect(FABRIC_CLASS_DEFAULTS.woven_medium.massPerAreaGsm).toBeGreaterThanOrEqual(150);
     expect(FABRIC_CLASS_DEFAULTS.woven_medium.massPerAreaGsm).toBeLessThanOrEqual(350);

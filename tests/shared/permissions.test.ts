@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { actions, can, permissionTable, roles, screens } from "../../shared/permissions.js";
+import { actions, can, permissionTable, roles, rolesThatCan, screens } from "../../shared/permissions.js";
 
 // The role rules written in the design document's "People and roles" table.
 describe("permission table", () => {
@@ -7,6 +7,11 @@ describe("permission table", () => {
     const vfx = actions.filter((a) => can("vfx", a)).sort();
 
     expect(vfx).toEqual(["packet.read", "packet.receive", "production.read"]);
+  });
+
+  it("shows every packet (drafts, all recipients) to supervisor and workroom; the vfx role only its own", () => {
+    expect(roles.filter((r) => can(r, "packet.read_all"))).toEqual(["supervisor", "cutter"]);
+    expect(rolesThatCan("packet.receive")).toEqual(["vfx"]);
   });
 
   it("lets only supervisor, designer and cutter read measurements (personal data)", () => {

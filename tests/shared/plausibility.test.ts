@@ -97,7 +97,7 @@ describe("ranges include real bodies from outside references", () => {
     expect(checkMeasurement(key, mm).ok).toBe(true);
   });
 
-  it("accepts every EN 13402-3 letter-band edge for chest and bust (band values from memory, check-values §5)", () => {
+  it("accepts every EN 13402-3 letter-band edge for chest and bust (band values from memory, EN 13402-3)", () => {
     for (const band of LETTER_BANDS.mens_chest) {
       expect(checkMeasurement("chest_girth", band.minCm * 10).ok).toBe(true);
       expect(checkMeasurement("chest_girth", band.maxCm * 10).ok).toBe(true);
@@ -108,7 +108,7 @@ describe("ranges include real bodies from outside references", () => {
     }
   });
 
-  it("accepts the fit-check worked example body (check-values §6: bust 92 cm, hip 90 cm)", () => {
+  it("accepts the fit-check worked example body (fit-check worked example, ease from CWU ch. 16 / McCunn: bust 92 cm, hip 90 cm)", () => {
     expect(checkMeasurementSet({ bust_girth: 920, hip_girth: 900 })).toEqual([]);
   });
 });

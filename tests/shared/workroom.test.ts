@@ -54,14 +54,14 @@ describe("permutations helper", () => {
 
 // Jackson, J. R. (1955), "Scheduling a production line to minimize maximum tardiness", Research Report 43,
 // Management Science Research Project, UCLA: sequencing by non-decreasing due date minimises
-// L_max = max(C_j − d_j) on one machine (exchange-argument proof; check-values.md §8).
+// L_max = max(C_j − d_j) on one machine (exchange-argument proof; Jackson 1955, EDD rule).
 /** Maximum lateness of jobs run back to back in the given order (L_max = max(C_j − d_j)), written out here. */
 function maxLatenessOf(jobs: ReadonlyArray<{ p: number; d: number }>, order: readonly number[]): number {
   const completions = order.map((_, k) => order.slice(0, k + 1).reduce((t, i) => t + jobs[i]!.p, 0));
   return Math.max(...order.map((i, k) => completions[k]! - jobs[i]!.d));
 }
 
-describe("lmaxSingleMachine and EDD — worked example (check-values.md §8)", () => {
+describe("lmaxSingleMachine and EDD — worked example (Jackson 1955, EDD rule)", () => {
   // A(p=1,d=9), B(4,4), C(3,7), D(2,10)
   const jobs = [
     { p: 1, d: 9 },
@@ -125,7 +125,7 @@ describe("lmaxSingleMachine and EDD — worked example (check-values.md §8)", (
   });
 });
 
-describe("planTickets — Jackson's theorem against brute force (check-values.md §8)", () => {
+describe("planTickets — Jackson's theorem against brute force (Jackson 1955, EDD rule)", () => {
   // Theorem (Jackson 1955, exchange argument): with one machine and all jobs available at time 0, EDD attains
   // the minimum L_max over all n! orders. Brute force over every order is the independent reference.
   // The planner reports lateness in whole days: finish day − due day = ceil((C − d) / h) with d = h·(due day + 1),

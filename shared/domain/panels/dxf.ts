@@ -63,8 +63,8 @@ export interface DxfPiece extends PanelShape {
   problems: string[];
   importable: boolean;
   areaMm2: number;
-  /** Area inside the cut line Seamscene draws (sew line offset by the allowance), mm². */
-  cutAreaMm2: number;
+  /** Area inside the cut line Seamscene draws (sew line offset by the allowance), mm²; null when it cannot draw one. */
+  cutAreaMm2: number | null;
   perimeterMm: number;
   widthMm: number;
   heightMm: number;
@@ -909,12 +909,13 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
     const check = validatePolygon(outline);
     if (!check.valid) problems.push(...check.issues.map((x) => x.message));
     const bb = boundingBox(outline);
-    let cutAreaMm2 = polygonArea(outline);
-    if (check.valid && seamAllowanceMm > 0) {
+    // No cut area for an outline that crosses itself or that clipper cannot offset (never the sew-line area).
+    let cutAreaMm2: number | null = null;
+    if (check.valid) {
       try {
         cutAreaMm2 = polygonArea(cutLineFromSewLine(outline, seamAllowanceMm));
       } catch {
-        // An outline clipper cannot offset keeps its sew-line area, as the panel list does.
+        cutAreaMm2 = null;
       }
     }
     return {

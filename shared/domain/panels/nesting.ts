@@ -104,9 +104,9 @@ export interface NestResult {
   markerLengthMm: number;
   /** Area of the placed pieces, mm². */
   pieceAreaMm2: number;
-  /** Marker efficiency = piece area / (marker length × usable width), 0..1 (check-values §9). */
+  /** Marker efficiency = piece area / (marker length × usable width), 0..1 (marker making, common practice, no source). */
   efficiency: number;
-  /** Lower bound on the marker length: total area of all copies / usable width, mm (check-values §9). */
+  /** Lower bound on the marker length: total area of all copies / usable width, mm (marker making, common practice, no source). */
   lowerBoundMm: number;
   placements: Placement[];
   unplaced: UnplacedCopy[];

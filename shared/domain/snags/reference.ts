@@ -1,15 +1,16 @@
 // A deliberately plain, quadratic implementation of the same snag rules: linear scans instead of
 // indexes, a naive copy-assignment loop instead of the Fenwick tree, O(n²) longest-decreasing.
 // It exists as a cross-check for the engine in tests and as the baseline in the benchmark.
-// It reuses only the snag wording builders and the per-point fit arithmetic.
+// It reuses the snag wording builders and the fit tables (ease ranges, point names), not the fit check:
+// plainCheckFit below works the per-point ease out on its own.
 import { availabilitySnag, doubleBookingSnag, rentalSnag } from "./bookings";
 import { changeBreakSnag, distressBreakSnag, type CopyRecord } from "./continuity";
 import { checkoutOverdueSnag } from "./checkouts";
 import { finishSnag, sortSnags } from "./engine";
-import { checkFit, fitSnagFromFacts } from "./fit";
+import { FIT_POINTS, easeRangeFor, fitSnagFromFacts, normalisePoint, type PointFit } from "./fit";
 import { multiplesSnagFromPlan, type GroupDemand, type GroupPlan } from "./multiples";
 import { quickChangeSnag } from "./quick-changes";
-import type { AppearanceRec, ProductionSnapshot, SceneRec, Snag, SnagDraft, SnagOptions } from "./types";
+import type { AppearanceRec, EaseOverrides, GarmentRec, ProductionSnapshot, SceneRec, Snag, SnagDraft, SnagOptions } from "./types";
 
 const cmp = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
 
@@ -122,9 +123,47 @@ function refFit(s: ProductionSnapshot): SnagDraft[] {
       performerName: performer.name,
       characterId: p.characterId,
       asDouble: p.asDouble,
-      points: checkFit(garment, performer.measurements ?? {}, s.production.easeOverrides),
+      points: plainCheckFit(garment, performer.measurements ?? {}, s.production.easeOverrides),
     });
     if (snag) out.push(snag);
+  }
+  return out;
+}
+
+/**
+ * Fit per point, written out plainly: ease = finished − body against the ease range; a knit girth may be
+ * cut down to body / R (it stretches back to the body), so its lowest ease is body / R − body.
+ */
+function plainCheckFit(garment: GarmentRec, measurements: Record<string, number>, overrides: EaseOverrides | undefined): PointFit[] {
+  const has = (o: object, k: string) => Object.prototype.hasOwnProperty.call(o, k);
+  const out: PointFit[] = [];
+  const done: string[] = [];
+  for (const raw of Object.keys(garment.finished).sort()) {
+    const point = normalisePoint(raw);
+    const finished = garment.finished[raw];
+    if (!has(FIT_POINTS, point) || done.includes(point) || typeof finished !== "number" || !Number.isFinite(finished)) continue;
+    const def = FIT_POINTS[point]!;
+    let bodyKey: string | null = null;
+    for (const k of def.bodyKeys) {
+      const v = has(measurements, k) ? measurements[k] : undefined;
+      if (typeof v === "number" && Number.isFinite(v) && v > 0) {
+        bodyKey = k;
+        break;
+      }
+    }
+    if (bodyKey === null) continue;
+    const lookup = easeRangeFor(garment.category, point, garment.fitIntent, overrides);
+    if (!lookup) continue;
+    done.push(point);
+    const body = measurements[bodyKey]!;
+    const ease = finished - body;
+    const r = garment.stretchRatio ?? null;
+    const stretches = garment.construction === "knit" && def.kind === "girth" && r !== null && r > 1;
+    const min = stretches ? Math.min(lookup.range.min, body / r - body) : lookup.range.min;
+    const max = lookup.range.max;
+    const tight = ease < min - 1e-3;
+    const loose = !tight && max !== null && ease > max + 1e-3;
+    out.push({ point, bodyKey, finished, body, ease, min, max, stretchRatio: stretches ? r : null, status: tight ? "tight" : loose ? "loose" : "fits", by: tight ? min - ease : loose ? ease - max! : 0, source: lookup.source });
   }
   return out;
 }

@@ -82,7 +82,7 @@ describe("panelsToObj", () => {
         expect(cross).toBeGreaterThan(0);
         sum += cross / 2;
       }
-      // Polygon area from d3-polygon (check-values §10), mm² → m².
+      // Polygon area from d3-polygon (d3-polygon library), mm² → m².
       const expected = Math.abs(d3Area(panel.outline.map(([x, y]) => [x, y] as [number, number]))) / 1e6;
       expect(sum).toBeCloseTo(expected, 12);
     });

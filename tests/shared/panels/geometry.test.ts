@@ -37,7 +37,7 @@ const starPolygon = fc
 const toD3 = (p: readonly Point[]) => p.map(([x, y]) => [x, y] as [number, number]);
 
 describe("shoelace area", () => {
-  // check-values §9, shoelace formula: trapezoid skirt panel (cm) → 3500 cm², reversed → −3500
+  // shoelace formula: trapezoid skirt panel (cm) → 3500 cm², reversed → −3500
   it("gives 3500 cm² for the trapezoid skirt panel and −3500 when reversed", () => {
     const trapezoid: Point[] = [
       [0, 0],
@@ -51,7 +51,7 @@ describe("shoelace area", () => {
     expect(polygonArea([...trapezoid].reverse())).toBe(3500);
   });
 
-  // check-values §9, shoelace formula: L-shaped yoke → 1400 cm² (= 40×20 + 15×40)
+  // shoelace formula: L-shaped yoke → 1400 cm² (= 40×20 + 15×40)
   it("gives 1400 cm² for the L-shaped yoke", () => {
     const yoke: Point[] = [
       [0, 0],
@@ -65,7 +65,7 @@ describe("shoelace area", () => {
     expect(signedArea(yoke)).toBe(1400);
   });
 
-  // check-values §10: d3-polygon polygonArea is signed positive for counter-clockwise in a y-down frame,
+  // d3-polygon library: d3-polygon polygonArea is signed positive for counter-clockwise in a y-down frame,
   // so in our y-up frame it is the negative of our signed area.
   it("agrees with d3-polygon polygonArea (opposite sign convention) on random polygons", () => {
     fc.assert(
@@ -91,7 +91,7 @@ describe("shoelace area", () => {
 });
 
 describe("lengths", () => {
-  // d3-polygon polygonLength is the perimeter of the closed polygon (independent oracle, check-values §10)
+  // d3-polygon polygonLength is the perimeter of the closed polygon (independent oracle, d3-polygon / mathjs library)
   it("perimeter matches d3-polygon polygonLength and the sum of edge lengths", () => {
     fc.assert(
       fc.property(starPolygon, (poly) => {
@@ -193,7 +193,7 @@ describe("transforms and bounding box", () => {
 });
 
 describe("pointInPolygon", () => {
-  // d3-polygon polygonContains is an independent even-odd point-in-polygon test (check-values §10).
+  // d3-polygon polygonContains is an independent even-odd point-in-polygon test (d3-polygon library).
   it("agrees with d3-polygon polygonContains away from the boundary", () => {
     fc.assert(
       fc.property(starPolygon, fc.double({ min: -500, max: 500, noNaN: true }), fc.double({ min: -500, max: 500, noNaN: true }), (poly, x, y) => {

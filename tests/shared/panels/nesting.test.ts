@@ -87,7 +87,7 @@ function checkMarker(pieces: NestPiece[], result: NestResult, W: number) {
     expect(p.mirrored).toBe(Boolean(piece.mirrored) && p.copy % 2 === 1);
   }
 
-  // check-values §9: efficiency = piece area / (marker length × width); lower bound = Σ area / width.
+  // Marker making (common practice, no source): efficiency = piece area / (marker length × width); lower bound = Σ area / width.
   const maxX = Math.max(...placements.flatMap((p) => p.polygon.map(([x]) => x)));
   const placedArea = placements.reduce((s, p) => s + area(p.polygon), 0);
   expect(result.markerLengthMm).toBeCloseTo(maxX, 9);

@@ -23,7 +23,7 @@ const starPolygon = fc
 
 describe("triangulatePanel", () => {
   // A triangulation of a simple polygon tiles it: n − 2 triangles whose areas sum to the polygon's
-  // (polygon triangulation theorem); the polygon area comes from d3-polygon (check-values §10).
+  // (polygon triangulation theorem); the polygon area comes from d3-polygon (d3-polygon library).
   it("tiles random polygons: n − 2 counter-clockwise triangles with the polygon's area", () => {
     fc.assert(
       fc.property(starPolygon, (poly) => {

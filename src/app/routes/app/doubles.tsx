@@ -69,7 +69,7 @@ function DoublesWorkspace() {
 /** One packet: builder for a draft, contents, diff and receipts for a version. */
 function PacketPage() {
   const { packetId = "" } = useParams();
-  const { productionId, can, role } = useCurrentProduction();
+  const { productionId, can } = useCurrentProduction();
   const { dateTime } = useProductionTime();
   const q = usePacket(productionId, packetId);
   const received = useMarkReceived(productionId);
@@ -78,13 +78,13 @@ function PacketPage() {
   if (q.error) return <ErrorAlert error={q.error} title="Packet not available" />;
   const p = q.data;
   // A vfx user's packet lists only their own receipt.
-  const mine = role === "vfx" ? p.recipients[0] : undefined;
+  const mine = can("packet.receive") ? p.recipients[0] : undefined;
   return (
     <div className="grid gap-4">
       <PageHeader
         title={`${p.characterName}, change ${p.changeNumber}: ${p.status === "draft" ? "draft packet" : `version ${p.version}`}`}
         subtitle={p.publishedAt ? `Published ${dateTime(p.publishedAt)} by ${p.publishedByName ?? ""}` : "Not published yet"}
-        actions={<Link className="text-sm text-ink underline" to={role === "vfx" ? `/p/${productionId}/doubles` : `/p/${productionId}/doubles?change=${p.changeId}&tab=packets`}>Back</Link>}
+        actions={<Link className="text-sm text-ink underline" to={can("packet.read_all") ? `/p/${productionId}/doubles?change=${p.changeId}&tab=packets` : `/p/${productionId}/doubles`}>Back</Link>}
       />
       {justPublished && <p role="status" className="rounded bg-ink-50 px-3 py-2 text-sm text-ink">Published as version {p.version}; the recipients were e-mailed.</p>}
       {p.status === "draft" && can("packet.prepare") && (
@@ -93,8 +93,8 @@ function PacketPage() {
         </Card>
       )}
       <Card>
-        <PacketDetail productionId={productionId} packet={p} showRecipients={role !== "vfx"} />
-        {role === "vfx" && p.status === "published" && (
+        <PacketDetail productionId={productionId} packet={p} showRecipients={can("packet.read_all")} />
+        {can("packet.receive") && p.status === "published" && (
           <div className="mt-4">
             {mine?.receivedAt ? (
               <p className="text-sm text-ink">You marked this version received on {dateTime(mine.receivedAt)}.</p>
@@ -116,8 +116,9 @@ function PacketPage() {
 
 /** The Digital doubles screen. vfx users see only the packets published to them. */
 export default function DoublesPage() {
-  const { role, production } = useCurrentProduction();
-  const vfx = role === "vfx";
+  const { can, production } = useCurrentProduction();
+  // Artists who are sent packets see only those; everyone else works on panels and prepares packets.
+  const vfx = can("packet.receive");
   return (
     <Routes>
       <Route path="packets/:packetId" element={<PacketPage />} />

@@ -68,7 +68,7 @@ export function PanelsTab({ productionId, change, canEdit }: { productionId: str
                         <td className="px-2 py-1"><button type="button" className="font-semibold text-ink underline-offset-2 hover:underline" onClick={() => setSelected(p.id)}>{p.name}</button></td>
                         <td className="px-2 py-1">{p.cutCount}{p.mirrored ? " (pairs)" : ""}{p.grainMode !== "straight" ? ` · ${p.grainMode}` : ""}</td>
                         <td className="px-2 py-1">{cm2(p.areaMm2)}</td>
-                        <td className="px-2 py-1">{cm2(p.cutAreaMm2)}</td>
+                        <td className="px-2 py-1">{p.cutAreaMm2 === null ? <span title="The cut line cannot be drawn from this outline; check it in the editor.">—<span className="sr-only">cut line cannot be drawn</span></span> : cm2(p.cutAreaMm2)}</td>
                         <td className="px-2 py-1">{p.seamAllowanceMm} mm</td>
                         <td className="px-2 py-1 text-right">
                           {canEdit && (

@@ -21,7 +21,7 @@ import { OwnerPhotos } from "@/components/photos";
 import { ApiError } from "@/lib/api-client";
 import { useAddFabricTest, useDeleteFabricTest } from "../api/fabrics";
 
-// 1 mg·cm (the older cgs unit for bending rigidity) = 0.0980665 µN·m (check-values §2).
+// 1 mg·cm (the older cgs unit for bending rigidity) = 0.0980665 µN·m (ASTM D1388-18).
 const MICRO_NM_PER_MG_CM = 0.0980665;
 const sig = formatSignificant;
 const num = (x: number) => formatNumber(x, 3);
