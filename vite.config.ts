@@ -46,7 +46,9 @@ export default defineConfig({
         globPatterns: ["**/*.{js,css,html,svg,png,woff2,webmanifest}"],
         globIgnores: ["sw.js", "**/*.map"],
         // Keep the shell and the set's screens; the office screens load from the network.
-        manifestTransforms: [async (entries) => ({ manifest: keepOfflineEntries(entries, fileURLToPath(new URL("./dist", import.meta.url))), warnings: [] })],
+        manifestTransforms: [
+          async (entries) => ({ manifest: keepOfflineEntries(entries, fileURLToPath(new URL("./dist", import.meta.url))), warnings: [] }),
+        ],
       },
       devOptions: { enabled: false },
     }),
@@ -60,11 +62,19 @@ export default defineConfig({
   // The manifest lets the precache list follow the module graph (see precacheFilter).
   build: { outDir: "dist", sourcemap: true, manifest: true },
   test: {
-    reporters: process.env.CI ? ["default", ["json", { outputFile: process.env.VITEST_REPORT_FILE ?? ".data/vitest-report.json" }]] : ["default"],
+    reporters: process.env.CI
+      ? ["default", ["json", { outputFile: process.env.VITEST_REPORT_FILE ?? ".data/vitest-report.json" }]]
+      : ["default"],
     projects: [
       {
         extends: true,
-        test: { name: "shared", include: ["tests/shared/**/*.test.ts"], environment: "node", testTimeout: 30_000, setupFiles: ["tests/setup/fast-check.ts"] },
+        test: {
+          name: "shared",
+          include: ["tests/shared/**/*.test.ts"],
+          environment: "node",
+          testTimeout: 30_000,
+          setupFiles: ["tests/setup/fast-check.ts"],
+        },
       },
       {
         extends: true,

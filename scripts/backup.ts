@@ -9,9 +9,16 @@ async function main() {
   const { config } = await import("../server/config.js");
   const { getStorage } = await import("../server/lib/storage.js");
   const stamp = new Date().toISOString().replace(/[-:]/g, "").replace(/\..*$/, "").replace("T", "-");
-  const out = path.resolve(outArg > 0 && process.argv[outArg + 1] ? process.argv[outArg + 1]! : path.join(config.DATA_DIR, "backups", `seamscene-${stamp}.tar`));
-  const manifest = await createBackup({ databaseUrl: config.DATABASE_URL, storage: getStorage(), workDir: path.resolve(config.DATA_DIR, "tmp"), log: console.log }, out);
-  console.log(`Backup written: ${out}\n  database ${manifest.database.bytes} bytes, ${manifest.files.length} stored files, schema ${manifest.schema ?? "unknown"}`);
+  const out = path.resolve(
+    outArg > 0 && process.argv[outArg + 1] ? process.argv[outArg + 1]! : path.join(config.DATA_DIR, "backups", `seamscene-${stamp}.tar`),
+  );
+  const manifest = await createBackup(
+    { databaseUrl: config.DATABASE_URL, storage: getStorage(), workDir: path.resolve(config.DATA_DIR, "tmp"), log: console.log },
+    out,
+  );
+  console.log(
+    `Backup written: ${out}\n  database ${manifest.database.bytes} bytes, ${manifest.files.length} stored files, schema ${manifest.schema ?? "unknown"}`,
+  );
   local.pg?.stop();
 }
 

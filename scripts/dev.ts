@@ -8,7 +8,11 @@ async function main() {
   const local = await prepareLocalEnv();
   // The API process starts with its thread pool sized (read by Node before any of our code runs).
   const env = { ...process.env, DEV_SKIP_BUILD: "1", UV_THREADPOOL_SIZE: process.env.UV_THREADPOOL_SIZE ?? String(START_THREADPOOL_SIZE) };
-  const api = spawn(process.execPath, [path.resolve("node_modules/tsx/dist/cli.mjs"), "watch", "--clear-screen=false", "scripts/dev-server.ts"], { stdio: "inherit", env });
+  const api = spawn(
+    process.execPath,
+    [path.resolve("node_modules/tsx/dist/cli.mjs"), "watch", "--clear-screen=false", "scripts/dev-server.ts"],
+    { stdio: "inherit", env },
+  );
   const vite = spawn(process.execPath, [path.resolve("node_modules/vite/bin/vite.js")], { stdio: "inherit", env });
   const stop = () => {
     api.kill();

@@ -9,8 +9,13 @@ async function main() {
   const local = await prepareLocalEnv();
   const { config } = await import("../server/config.js");
   const { getStorage } = await import("../server/lib/storage.js");
-  const manifest = await restoreBackup({ databaseUrl: config.DATABASE_URL, storage: getStorage(), workDir: path.resolve(config.DATA_DIR, "tmp"), log: console.log }, path.resolve(file));
-  console.log(`Restored the backup of ${manifest.createdAt}: database and ${manifest.files.length} stored files (${config.STORAGE_DRIVER}).`);
+  const manifest = await restoreBackup(
+    { databaseUrl: config.DATABASE_URL, storage: getStorage(), workDir: path.resolve(config.DATA_DIR, "tmp"), log: console.log },
+    path.resolve(file),
+  );
+  console.log(
+    `Restored the backup of ${manifest.createdAt}: database and ${manifest.files.length} stored files (${config.STORAGE_DRIVER}).`,
+  );
   local.pg?.stop();
 }
 

@@ -9,9 +9,11 @@ import { prepareLocalEnv } from "./lib/local-env.js";
 
 async function main() {
   const { values } = parseArgs({ options: { today: { type: "string" }, scale: { type: "string" } }, allowPositionals: false });
-  if (values.today !== undefined && !/^\d{4}-\d{2}-\d{2}$/.test(values.today)) throw new Error(`--today takes a date like 2027-03-01, not "${values.today}"`);
+  if (values.today !== undefined && !/^\d{4}-\d{2}-\d{2}$/.test(values.today))
+    throw new Error(`--today takes a date like 2027-03-01, not "${values.today}"`);
   const scale = values.scale === undefined ? undefined : Number(values.scale);
-  if (scale !== undefined && !(Number.isInteger(scale) && scale >= 1 && scale <= 20)) throw new Error(`--scale takes a whole number from 1 to 20, not "${values.scale}"`);
+  if (scale !== undefined && !(Number.isInteger(scale) && scale >= 1 && scale <= 20))
+    throw new Error(`--scale takes a whole number from 1 to 20, not "${values.scale}"`);
   const local = await prepareLocalEnv();
   const { sequelize } = await import("../server/db.js");
   const { migrate } = await import("../server/migrator.js");
@@ -24,7 +26,11 @@ async function main() {
     const { seedScaledProduction } = await import("../seeds/scaled.js");
     const started = performance.now();
     const { counts } = await seedScaledProduction(scale);
-    console.log(`Tidewater Reach (×${scale}) loaded in ${((performance.now() - started) / 1000).toFixed(1)} s: ${Object.entries(counts).map(([k, n]) => `${n} ${k}`).join(", ")}.`);
+    console.log(
+      `Tidewater Reach (×${scale}) loaded in ${((performance.now() - started) / 1000).toFixed(1)} s: ${Object.entries(counts)
+        .map(([k, n]) => `${n} ${k}`)
+        .join(", ")}.`,
+    );
   }
   await sequelize.close();
   local.pg?.stop();

@@ -42,9 +42,14 @@ async function main() {
   const { config } = await import("../server/config.js");
   await startServer();
   const url = `http://${config.HOST}:${config.PORT}`;
-  const mailTo = local.startSmtpFake ? `the local SMTP fake on 127.0.0.1:${process.env.SMTP_PORT}${config.DEV_OUTBOX ? " (see Team → Outbox)" : ""}` : config.SMTP_HOST;
-  const database = local.pg ? `PostgreSQL on 127.0.0.1:${local.pg.port}, data in ${local.pg.dataDir}${local.pg.startedHere ? "" : " (already running; left running on exit)"}` : undefined;
-  for (const line of startBanner({ url, seeded, production: config.NODE_ENV === "production", database, mailTo, demoAccounts })) console.log(line);
+  const mailTo = local.startSmtpFake
+    ? `the local SMTP fake on 127.0.0.1:${process.env.SMTP_PORT}${config.DEV_OUTBOX ? " (see Team → Outbox)" : ""}`
+    : config.SMTP_HOST;
+  const database = local.pg
+    ? `PostgreSQL on 127.0.0.1:${local.pg.port}, data in ${local.pg.dataDir}${local.pg.startedHere ? "" : " (already running; left running on exit)"}`
+    : undefined;
+  for (const line of startBanner({ url, seeded, production: config.NODE_ENV === "production", database, mailTo, demoAccounts }))
+    console.log(line);
   // Stops PostgreSQL only if this process started it (a second instance leaves the first one's alone).
   process.once("exit", () => local.pg?.stop());
 }

@@ -24,7 +24,10 @@ export const userId = (key: string) => demoId(`user:${key}`);
 export async function seedAccounts(transaction: Transaction): Promise<void> {
   const hash = await hashPassword(DEMO_PASSWORD);
   for (const a of demoAccounts) {
-    await User.upsert({ id: userId(a.key), email: a.email, name: a.name, passwordHash: hash, isActive: true, lastProductionId: SALTMARSH_ID }, { transaction });
+    await User.upsert(
+      { id: userId(a.key), email: a.email, name: a.name, passwordHash: hash, isActive: true, lastProductionId: SALTMARSH_ID },
+      { transaction },
+    );
   }
   await Production.upsert(
     {
@@ -47,17 +50,30 @@ export async function seedAccounts(transaction: Transaction): Promise<void> {
       startsOn: demoDaysFromToday(-2),
       endsOn: demoDaysFromToday(74),
       units: "in",
-      settings: { timeZone: DEMO_TIME_ZONE, quickChangeThresholdMin: 2, bufferWorkingDays: 1, reminderHour: 17, currency: "GBP", paperSize: "A4" },
+      settings: {
+        timeZone: DEMO_TIME_ZONE,
+        quickChangeThresholdMin: 2,
+        bufferWorkingDays: 1,
+        reminderHour: 17,
+        currency: "GBP",
+        paperSize: "A4",
+      },
       createdBy: userId("supervisor"),
     },
     { transaction },
   );
   for (const a of demoAccounts) {
-    await Membership.upsert({ id: demoId(`membership:saltmarsh:${a.key}`), productionId: SALTMARSH_ID, userId: userId(a.key), role: a.role }, { transaction });
+    await Membership.upsert(
+      { id: demoId(`membership:saltmarsh:${a.key}`), productionId: SALTMARSH_ID, userId: userId(a.key), role: a.role },
+      { transaction },
+    );
   }
   // The stage show has a smaller team: supervisor, designer and the set costumer as dresser.
   for (const key of ["supervisor", "designer", "set_costumer"]) {
     const a = demoAccounts.find((x) => x.key === key)!;
-    await Membership.upsert({ id: demoId(`membership:glass:${key}`), productionId: GLASS_ORCHARD_ID, userId: userId(key), role: a.role }, { transaction });
+    await Membership.upsert(
+      { id: demoId(`membership:glass:${key}`), productionId: GLASS_ORCHARD_ID, userId: userId(key), role: a.role },
+      { transaction },
+    );
   }
 }

@@ -66,9 +66,7 @@ export const demoChanges: Record<CharKey, Array<{ number: number; description: s
     { number: 1, description: "Guernsey and canvas smock", from: 1, to: 6 },
     { number: 2, description: "Guernsey, torn and salt-stained", from: 7, to: 12 },
   ],
-  ambrose: [
-    { number: 1, description: "Frock coat, clerical collar and bands", from: 1, to: 12 },
-  ],
+  ambrose: [{ number: 1, description: "Frock coat, clerical collar and bands", from: 1, to: 12 }],
   hester: [
     { number: 1, description: "Shop coat over print dress", from: 1, to: 6 },
     { number: 2, description: "Travelling coat and cloche", from: 7, to: 12 },
@@ -82,16 +80,12 @@ export const demoChanges: Record<CharKey, Array<{ number: number; description: s
     { number: 1, description: "School pinafore and boots", from: 1, to: 6 },
     { number: 2, description: "Borrowed coat, too large", from: 7, to: 12 },
   ],
-  obadiah: [
-    { number: 1, description: "Three-piece tweed, Gladstone bag", from: 1, to: 12 },
-  ],
+  obadiah: [{ number: 1, description: "Three-piece tweed, Gladstone bag", from: 1, to: 12 }],
   lowdy: [
     { number: 1, description: "Barmaid's blouse and skirt", from: 1, to: 6 },
     { number: 2, description: "Best blouse and cardigan", from: 7, to: 12 },
   ],
-  pascoe: [
-    { number: 1, description: "Constable's tunic and helmet", from: 1, to: 12 },
-  ],
+  pascoe: [{ number: 1, description: "Constable's tunic and helmet", from: 1, to: 12 }],
 };
 
 /** The change a character wears on a story day (first change whose span covers it). */
@@ -150,19 +144,53 @@ const PERFORMER_NOTES: Partial<Record<keyof typeof performers, string>> = {
 async function seedSaltmarsh(t: Transaction): Promise<void> {
   const pid = SALTMARSH_ID;
   for (const [key, p] of Object.entries(performers)) {
-    await Performer.upsert({ id: p.id, productionId: pid, name: p.name, email: `${key.toLowerCase()}@performers.example.invalid`, phone: null, agentContact: "Invented agency, 020 7946 0000", notes: PERFORMER_NOTES[key as keyof typeof performers] ?? null }, { transaction: t });
+    await Performer.upsert(
+      {
+        id: p.id,
+        productionId: pid,
+        name: p.name,
+        email: `${key.toLowerCase()}@performers.example.invalid`,
+        phone: null,
+        agentContact: "Invented agency, 020 7946 0000",
+        notes: PERFORMER_NOTES[key as keyof typeof performers] ?? null,
+      },
+      { transaction: t },
+    );
   }
   let order = 0;
   for (const [key, c] of Object.entries(characters) as Array<[CharKey, (typeof characters)[CharKey]]>) {
     order += 1;
     const notes = key === "elias" ? "Has a digital double: reference photos and the keeper's jacket go to the vfx team." : null;
-    await Character.upsert({ id: c.id, productionId: pid, name: c.name, performerId: performers[c.performer].id, sortOrder: order, notes }, { transaction: t });
+    await Character.upsert(
+      { id: c.id, productionId: pid, name: c.name, performerId: performers[c.performer].id, sortOrder: order, notes },
+      { transaction: t },
+    );
     if ("stuntDouble" in c) {
-      await CharacterDouble.upsert({ id: demoId(`double:${key}:stunt`), productionId: pid, characterId: c.id, performerId: performers[c.stuntDouble].id, kind: "stunt" }, { transaction: t });
+      await CharacterDouble.upsert(
+        {
+          id: demoId(`double:${key}:stunt`),
+          productionId: pid,
+          characterId: c.id,
+          performerId: performers[c.stuntDouble].id,
+          kind: "stunt",
+        },
+        { transaction: t },
+      );
     }
     for (const ch of demoChanges[key]) {
       await Change.upsert(
-        { id: demoId(`change:${key}:${ch.number}`), productionId: pid, characterId: c.id, number: ch.number, description: ch.description, storyDayFrom: ch.from, storyDayTo: ch.to, approval: ch.number === 1 ? "approved" : "proposed", approvedBy: null, approvedAt: ch.number === 1 ? demoInstant(demoDaysFromToday(-12), "10:00") : null },
+        {
+          id: demoId(`change:${key}:${ch.number}`),
+          productionId: pid,
+          characterId: c.id,
+          number: ch.number,
+          description: ch.description,
+          storyDayFrom: ch.from,
+          storyDayTo: ch.to,
+          approval: ch.number === 1 ? "approved" : "proposed",
+          approvedBy: null,
+          approvedAt: ch.number === 1 ? demoInstant(demoDaysFromToday(-12), "10:00") : null,
+        },
         { transaction: t },
       );
     }
@@ -170,12 +198,33 @@ async function seedSaltmarsh(t: Transaction): Promise<void> {
   for (let n = 1; n <= 60; n++) {
     const set = SETS[n % SETS.length]!;
     await Scene.upsert(
-      { id: demoId(`scene:saltmarsh:${n}`), productionId: pid, number: String(n), setName: set.name, intExt: set.intExt, timeOfDay: TIMES[n % TIMES.length]!, storyDay: storyDayOf(n), storyOrder: n, lengthEighths: 3 + ((n * 5) % 14), runningMinutes: null, synopsis: synopsisFor(n) },
+      {
+        id: demoId(`scene:saltmarsh:${n}`),
+        productionId: pid,
+        number: String(n),
+        setName: set.name,
+        intExt: set.intExt,
+        timeOfDay: TIMES[n % TIMES.length]!,
+        storyDay: storyDayOf(n),
+        storyOrder: n,
+        lengthEighths: 3 + ((n * 5) % 14),
+        runningMinutes: null,
+        synopsis: synopsisFor(n),
+      },
       { transaction: t },
     );
     for (const k of castOf(n)) {
       await Appearance.upsert(
-        { id: demoId(`appearance:saltmarsh:${n}:${k}`), productionId: pid, sceneId: demoId(`scene:saltmarsh:${n}`), characterId: characters[k].id, changeId: demoId(`change:${k}:${changeFor(k, n)}`), ...stateFor(k, n), changeHere: false, notes: null },
+        {
+          id: demoId(`appearance:saltmarsh:${n}:${k}`),
+          productionId: pid,
+          sceneId: demoId(`scene:saltmarsh:${n}`),
+          characterId: characters[k].id,
+          changeId: demoId(`change:${k}:${changeFor(k, n)}`),
+          ...stateFor(k, n),
+          changeHere: false,
+          notes: null,
+        },
         { transaction: t },
       );
     }
@@ -183,10 +232,22 @@ async function seedSaltmarsh(t: Transaction): Promise<void> {
   const schedule = demoSchedule();
   for (const [i, date] of shootDayDates().entries()) {
     const dayId = demoId(`shootday:saltmarsh:${i + 1}`);
-    await ShootDay.upsert({ id: dayId, productionId: pid, dayNumber: i + 1, date, kind: "shoot", startsAt: "07:00", notes: null }, { transaction: t });
+    await ShootDay.upsert(
+      { id: dayId, productionId: pid, dayNumber: i + 1, date, kind: "shoot", startsAt: "07:00", notes: null },
+      { transaction: t },
+    );
     await ShootDayScene.destroy({ where: { shootDayId: dayId }, transaction: t });
     for (const [pos, n] of schedule[i]!.entries()) {
-      await ShootDayScene.create({ id: demoId(`sds:saltmarsh:${i + 1}:${n}`), productionId: pid, shootDayId: dayId, sceneId: demoId(`scene:saltmarsh:${n}`), position: pos + 1 }, { transaction: t });
+      await ShootDayScene.create(
+        {
+          id: demoId(`sds:saltmarsh:${i + 1}:${n}`),
+          productionId: pid,
+          shootDayId: dayId,
+          sceneId: demoId(`scene:saltmarsh:${n}`),
+          position: pos + 1,
+        },
+        { transaction: t },
+      );
     }
   }
 }
@@ -220,10 +281,35 @@ export const glassOrchard = {
     { n: "12", title: "Epilogue: glass and light", minutes: 3 },
   ],
   characters: [
-    { key: "nell", name: "Nell Ashby", performer: "Saoirse Penrice", understudy: "Jenna Polglase", scenes: ["2", "4", "6", "8", "10", "12"], changes: { "2": 1, "4": 1, "6": 2, "8": 3, "10": 3, "12": 4 } },
-    { key: "hal", name: "Hal Ashby", performer: "Tomas Keverne", scenes: ["1", "3", "6", "7", "9", "11"], changes: { "1": 1, "3": 1, "6": 2, "7": 2, "9": 3, "11": 3 } },
-    { key: "agnes", name: "Aunt Agnes", performer: "Wenna Clemo", scenes: ["2", "3", "6", "9", "11"], changes: { "2": 1, "3": 1, "6": 2, "9": 1, "11": 1 } },
-    { key: "gardener", name: "The Gardener", performer: "Petroc Angwin", scenes: ["1", "5", "7", "11", "12"], changes: { "1": 1, "5": 1, "7": 2, "11": 1, "12": 1 } },
+    {
+      key: "nell",
+      name: "Nell Ashby",
+      performer: "Saoirse Penrice",
+      understudy: "Jenna Polglase",
+      scenes: ["2", "4", "6", "8", "10", "12"],
+      changes: { "2": 1, "4": 1, "6": 2, "8": 3, "10": 3, "12": 4 },
+    },
+    {
+      key: "hal",
+      name: "Hal Ashby",
+      performer: "Tomas Keverne",
+      scenes: ["1", "3", "6", "7", "9", "11"],
+      changes: { "1": 1, "3": 1, "6": 2, "7": 2, "9": 3, "11": 3 },
+    },
+    {
+      key: "agnes",
+      name: "Aunt Agnes",
+      performer: "Wenna Clemo",
+      scenes: ["2", "3", "6", "9", "11"],
+      changes: { "2": 1, "3": 1, "6": 2, "9": 1, "11": 1 },
+    },
+    {
+      key: "gardener",
+      name: "The Gardener",
+      performer: "Petroc Angwin",
+      scenes: ["1", "5", "7", "11", "12"],
+      changes: { "1": 1, "5": 1, "7": 2, "11": 1, "12": 1 },
+    },
     { key: "suitor", name: "Mr Ferris", performer: "Jory Tregenza", scenes: ["3", "6", "9"], changes: { "3": 1, "6": 2, "9": 1 } },
   ],
   changeNames: ["Work dress", "Ball gown", "Mourning", "Travelling clothes"],
@@ -233,23 +319,61 @@ async function seedGlassOrchard(t: Transaction): Promise<void> {
   const pid = GLASS_ORCHARD_ID;
   for (const [i, s] of glassOrchard.scenes.entries()) {
     await Scene.upsert(
-      { id: demoId(`scene:glass:${s.n}`), productionId: pid, number: s.n, setName: i < 6 ? "Act one: the orchard" : "Act two: the house", intExt: null, timeOfDay: null, storyDay: i < 6 ? 1 : 2, storyOrder: i + 1, lengthEighths: null, runningMinutes: s.minutes, synopsis: s.title },
+      {
+        id: demoId(`scene:glass:${s.n}`),
+        productionId: pid,
+        number: s.n,
+        setName: i < 6 ? "Act one: the orchard" : "Act two: the house",
+        intExt: null,
+        timeOfDay: null,
+        storyDay: i < 6 ? 1 : 2,
+        storyOrder: i + 1,
+        lengthEighths: null,
+        runningMinutes: s.minutes,
+        synopsis: s.title,
+      },
       { transaction: t },
     );
   }
   for (const [ci, c] of glassOrchard.characters.entries()) {
     const perfId = demoId(`performer:glass:${c.key}`);
-    await Performer.upsert({ id: perfId, productionId: pid, name: c.performer, email: null, phone: null, agentContact: null, notes: null }, { transaction: t });
+    await Performer.upsert(
+      { id: perfId, productionId: pid, name: c.performer, email: null, phone: null, agentContact: null, notes: null },
+      { transaction: t },
+    );
     const charId = demoId(`character:glass:${c.key}`);
-    await Character.upsert({ id: charId, productionId: pid, name: c.name, performerId: perfId, sortOrder: ci + 1, notes: null }, { transaction: t });
+    await Character.upsert(
+      { id: charId, productionId: pid, name: c.name, performerId: perfId, sortOrder: ci + 1, notes: null },
+      { transaction: t },
+    );
     if ("understudy" in c) {
       const uId = demoId(`performer:glass:${c.key}:understudy`);
-      await Performer.upsert({ id: uId, productionId: pid, name: c.understudy, email: null, phone: null, agentContact: null, notes: "Understudy" }, { transaction: t });
-      await CharacterDouble.upsert({ id: demoId(`double:glass:${c.key}:understudy`), productionId: pid, characterId: charId, performerId: uId, kind: "understudy" }, { transaction: t });
+      await Performer.upsert(
+        { id: uId, productionId: pid, name: c.understudy, email: null, phone: null, agentContact: null, notes: "Understudy" },
+        { transaction: t },
+      );
+      await CharacterDouble.upsert(
+        { id: demoId(`double:glass:${c.key}:understudy`), productionId: pid, characterId: charId, performerId: uId, kind: "understudy" },
+        { transaction: t },
+      );
     }
     const used = [...new Set(Object.values(c.changes) as number[])].sort();
     for (const num of used) {
-      await Change.upsert({ id: demoId(`change:glass:${c.key}:${num}`), productionId: pid, characterId: charId, number: num, description: glassOrchard.changeNames[num - 1]!, storyDayFrom: null, storyDayTo: null, approval: "approved", approvedBy: null, approvedAt: demoInstant(demoDaysFromToday(-7), "10:00") }, { transaction: t });
+      await Change.upsert(
+        {
+          id: demoId(`change:glass:${c.key}:${num}`),
+          productionId: pid,
+          characterId: charId,
+          number: num,
+          description: glassOrchard.changeNames[num - 1]!,
+          storyDayFrom: null,
+          storyDayTo: null,
+          approval: "approved",
+          approvedBy: null,
+          approvedAt: demoInstant(demoDaysFromToday(-7), "10:00"),
+        },
+        { transaction: t },
+      );
     }
     // On stage every costume change between entrances is planned: the breakdown marks it.
     let previous: number | null = null;
@@ -258,14 +382,38 @@ async function seedGlassOrchard(t: Transaction): Promise<void> {
       const changeHere = previous !== null && previous !== num;
       previous = num;
       await Appearance.upsert(
-        { id: demoId(`appearance:glass:${c.key}:${sn}`), productionId: pid, sceneId: demoId(`scene:glass:${sn}`), characterId: charId, changeId: demoId(`change:glass:${c.key}:${num}`), distressStage: 0, wet: false, stunt: false, blood: false, vfxShot: false, changeHere, notes: null },
+        {
+          id: demoId(`appearance:glass:${c.key}:${sn}`),
+          productionId: pid,
+          sceneId: demoId(`scene:glass:${sn}`),
+          characterId: charId,
+          changeId: demoId(`change:glass:${c.key}:${num}`),
+          distressStage: 0,
+          wet: false,
+          stunt: false,
+          blood: false,
+          vfxShot: false,
+          changeHere,
+          notes: null,
+        },
         { transaction: t },
       );
     }
   }
   // Performances: evenings at 19:30 and Saturday matinees at 14:30 (invented run).
   for (const [i, { date, time }] of performanceDates().entries()) {
-    await ShootDay.upsert({ id: demoId(`performance:glass:${i + 1}`), productionId: pid, dayNumber: i + 1, date, kind: "performance", startsAt: time, notes: i === 0 ? "Opening night" : null }, { transaction: t });
+    await ShootDay.upsert(
+      {
+        id: demoId(`performance:glass:${i + 1}`),
+        productionId: pid,
+        dayNumber: i + 1,
+        date,
+        kind: "performance",
+        startsAt: time,
+        notes: i === 0 ? "Opening night" : null,
+      },
+      { transaction: t },
+    );
   }
 }
 

@@ -56,7 +56,7 @@ export function demoWorkday(n: number): string {
   let d = today();
   while (!isWorkday(d)) d = addDays(d, 1);
   const step = n < 0 ? -1 : 1;
-  for (let left = Math.abs(n); left > 0; ) {
+  for (let left = Math.abs(n); left > 0;) {
     d = addDays(d, step);
     if (isWorkday(d)) left--;
   }
@@ -85,7 +85,12 @@ export function performanceDates(): Array<{ date: string; time: string }> {
   const out: Array<{ date: string; time: string }> = [];
   for (let week = 0; week < 3; week++) {
     const thu = addDays(opening, week * 7);
-    out.push({ date: iso(thu), time: "19:30" }, { date: iso(addDays(thu, 1)), time: "19:30" }, { date: iso(addDays(thu, 2)), time: "14:30" }, { date: iso(addDays(thu, 2)), time: "19:30" });
+    out.push(
+      { date: iso(thu), time: "19:30" },
+      { date: iso(addDays(thu, 1)), time: "19:30" },
+      { date: iso(addDays(thu, 2)), time: "14:30" },
+      { date: iso(addDays(thu, 2)), time: "19:30" },
+    );
   }
   return out;
 }

@@ -3,8 +3,6 @@
  * trousers, seams that match, a yardage marker, and a published handoff packet (version 1) that the
  * demo vfx user has received. Runs after every other step; idempotent (fixed ids, upserts).
  */
-import { createHash } from "node:crypto";
-import { Readable } from "node:stream";
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../server/db.js";
 import { Packet, PacketRecipient, Panel, Seam, User } from "../server/models/index.js";
@@ -15,22 +13,16 @@ import { packetStore } from "../server/services/packet-storage.js";
 import { packetSelectionSchema } from "../shared/schemas/packets.js";
 import { demoId } from "./ids.js";
 import { SALTMARSH_ID, userId } from "./accounts.js";
-import { characters, keyGarments, performers } from "./scenario.js";
+import { characters, keyGarments } from "./scenario.js";
 import { demoDaysFromToday, demoInstant } from "./calendar.js";
 import { demoPanels, demoSeams } from "./doubles-patterns.js";
 
 const P = SALTMARSH_ID;
 
-async function exec(sql: string, replacements: Record<string, unknown>, transaction: Transaction) {
-  await sequelize.query(sql, { replacements, transaction });
-}
-
 async function one<T extends object>(sql: string, replacements: Record<string, unknown>, transaction: Transaction): Promise<T | undefined> {
   const [row] = await sequelize.query<T>(sql, { replacements, transaction, type: QueryTypes.SELECT });
   return row;
 }
-
-
 
 /** Panels, seams, the change's yardage marker and the published, received packet. */
 export async function seedDoubles(t: Transaction): Promise<void> {
@@ -94,7 +86,10 @@ export async function seedDoubles(t: Transaction): Promise<void> {
     // Published versions never change; only restore the ZIP if the storage folder was emptied.
     if (!(await packetStore().exists(existing.zipStorageKey!))) {
       const supervisor = await User.findByPk(userId("supervisor"), { transaction: t });
-      await writePacketZip({ id: packetId, version: existing.version! }, existing.contents!, { publishedAt: existing.publishedAt!, publishedByName: supervisor?.name ?? "" });
+      await writePacketZip({ id: packetId, version: existing.version! }, existing.contents!, {
+        publishedAt: existing.publishedAt!,
+        publishedByName: supervisor?.name ?? "",
+      });
     }
     return;
   }

@@ -16,7 +16,18 @@ import { generateTagCode } from "../shared/domain/tag-codes.js";
 /** The scaled production's id for a scale (fixed, so re-seeding replaces it). */
 export const scaledProductionId = (scale: number) => demoId(`production:tidewater-reach:x${scale}`);
 
-const SETS = ["Harbour office", "Quay steps", "Chandlery", "Fish market", "Customs house", "Ferry deck", "Sea wall", "Boathouse", "Assembly rooms", "Lamp room"];
+const SETS = [
+  "Harbour office",
+  "Quay steps",
+  "Chandlery",
+  "Fish market",
+  "Customs house",
+  "Ferry deck",
+  "Sea wall",
+  "Boathouse",
+  "Assembly rooms",
+  "Lamp room",
+];
 const TIMES = ["DAY", "DAY", "NIGHT", "DUSK", "DAWN"];
 const CHUNK = 5000;
 
@@ -39,7 +50,10 @@ export interface ScaledSeedOptions {
 }
 
 /** Seeds (or replaces) the scaled production; returns what it wrote. */
-export async function seedScaledProduction(scale: number, options: ScaledSeedOptions = {}): Promise<{ productionId: string; counts: Record<string, number> }> {
+export async function seedScaledProduction(
+  scale: number,
+  options: ScaledSeedOptions = {},
+): Promise<{ productionId: string; counts: Record<string, number> }> {
   if (!Number.isInteger(scale) || scale < 1 || scale > 20) throw new Error(`--scale takes a whole number from 1 to 20, not "${scale}"`);
   const snap = buildSyntheticProduction(scale);
   const rnd = mulberry32(4242 + scale);
@@ -60,9 +74,24 @@ export async function seedScaledProduction(scale: number, options: ScaledSeedOpt
   };
 
   const performers = snap.performers.map((p) => ({ ...base, id: id(p.id), name: `${p.name} (Tidewater)` }));
-  const characters = snap.characters.map((c, i) => ({ ...base, id: id(c.id), name: c.name, performer_id: c.performerId ? id(c.performerId) : null, sort_order: i }));
-  const doubles = snap.characters.flatMap((c) => c.doublePerformerIds.map((d) => ({ ...base, id: id(`dbl-${c.id}-${d}`), character_id: id(c.id), performer_id: id(d), kind: "stunt" })));
-  const measurements = snap.performers.map((p) => ({ ...base, id: id(`ms-${p.id}`), performer_id: id(p.id), taken_on: demoDaysFromToday(-40), values_mm: p.measurements, entered_unit: "cm" }));
+  const characters = snap.characters.map((c, i) => ({
+    ...base,
+    id: id(c.id),
+    name: c.name,
+    performer_id: c.performerId ? id(c.performerId) : null,
+    sort_order: i,
+  }));
+  const doubles = snap.characters.flatMap((c) =>
+    c.doublePerformerIds.map((d) => ({ ...base, id: id(`dbl-${c.id}-${d}`), character_id: id(c.id), performer_id: id(d), kind: "stunt" })),
+  );
+  const measurements = snap.performers.map((p) => ({
+    ...base,
+    id: id(`ms-${p.id}`),
+    performer_id: id(p.id),
+    taken_on: demoDaysFromToday(-40),
+    values_mm: p.measurements,
+    entered_unit: "cm",
+  }));
   const scenes = snap.scenes.map((s, i) => ({
     ...base,
     id: id(s.id),
@@ -75,8 +104,23 @@ export async function seedScaledProduction(scale: number, options: ScaledSeedOpt
     length_eighths: 2 + Math.floor(rnd() * 20),
   }));
   const shootDays = snap.shootDays.map((d, i) => ({ ...base, id: id(d.id), day_number: i + 1, date: dateOf(d.date), kind: "shoot" }));
-  const dayScenes = snap.shootDays.flatMap((d) => [...new Set(d.sceneIds)].map((sid, k) => ({ ...base, id: id(`sds-${d.id}-${sid}`), shoot_day_id: id(d.id), scene_id: id(sid), position: k + 1 })));
-  const changes = snap.changes.map((c) => ({ ...base, id: id(c.id), character_id: id(c.characterId), number: Number(c.number), description: `Change ${c.number}`, approval: "approved" }));
+  const dayScenes = snap.shootDays.flatMap((d) =>
+    [...new Set(d.sceneIds)].map((sid, k) => ({
+      ...base,
+      id: id(`sds-${d.id}-${sid}`),
+      shoot_day_id: id(d.id),
+      scene_id: id(sid),
+      position: k + 1,
+    })),
+  );
+  const changes = snap.changes.map((c) => ({
+    ...base,
+    id: id(c.id),
+    character_id: id(c.characterId),
+    number: Number(c.number),
+    description: `Change ${c.number}`,
+    approval: "approved",
+  }));
   const appearances = snap.appearances.map((a) => ({
     ...base,
     id: id(a.id),
@@ -95,7 +139,14 @@ export async function seedScaledProduction(scale: number, options: ScaledSeedOpt
   const wovens = Array.from({ length: 20 * scale }, (_, i) => id(`fabric-${i}`));
   const fabrics = [
     { ...base, id: knitId, name: "Cotton jersey", construction: "knit", stretch_weft_pct: 25, fibre_content: [] },
-    ...wovens.map((fid, i) => ({ ...base, id: fid, name: `Woven ${i + 1}`, construction: "woven", stretch_weft_pct: null, fibre_content: [] })),
+    ...wovens.map((fid, i) => ({
+      ...base,
+      id: fid,
+      name: `Woven ${i + 1}`,
+      construction: "woven",
+      stretch_weft_pct: null,
+      fibre_content: [],
+    })),
   ];
   const groups = snap.multiplesGroups.map((g) => ({ ...base, id: id(g.id), name: g.name }));
   const tagCodes = new Set<string>();
@@ -135,9 +186,18 @@ export async function seedScaledProduction(scale: number, options: ScaledSeedOpt
   const appearanceById = new Map(snap.appearances.map((a) => [a.id, a]));
   const entries = snap.continuityEntries.map((e) => {
     const a = appearanceById.get(e.appearanceId!)!;
-    return { ...base, id: id(e.id), shoot_day_id: id(e.shootDayId), scene_id: id(a.sceneId), character_id: id(a.characterId), distress_stage: e.distressStage ?? null };
+    return {
+      ...base,
+      id: id(e.id),
+      shoot_day_id: id(e.shootDayId),
+      scene_id: id(a.sceneId),
+      character_id: id(a.characterId),
+      distress_stage: e.distressStage ?? null,
+    };
   });
-  const entryGarments = snap.continuityEntries.flatMap((e) => [...new Set(e.garmentIds)].map((g) => ({ ...base, id: id(`ceg-${e.id}-${g}`), continuity_entry_id: id(e.id), garment_id: id(g) })));
+  const entryGarments = snap.continuityEntries.flatMap((e) =>
+    [...new Set(e.garmentIds)].map((g) => ({ ...base, id: id(`ceg-${e.id}-${g}`), continuity_entry_id: id(e.id), garment_id: id(g) })),
+  );
 
   const tables: Array<[string, Array<Record<string, unknown>>]> = [
     ["performers", performers],
@@ -160,17 +220,46 @@ export async function seedScaledProduction(scale: number, options: ScaledSeedOpt
     await sequelize.query(`DELETE FROM productions WHERE id = $1`, { bind: [pid], transaction });
     await bulkInsert(
       "productions",
-      [{ id: pid, title: `Tidewater Reach (×${scale})`, kind: "film", starts_on: shootDays[0]!.date, ends_on: shootDays[shootDays.length - 1]!.date, units: "cm", settings: { timeZone: DEMO_TIME_ZONE }, created_by: userId("supervisor") }],
+      [
+        {
+          id: pid,
+          title: `Tidewater Reach (×${scale})`,
+          kind: "film",
+          starts_on: shootDays[0]!.date,
+          ends_on: shootDays[shootDays.length - 1]!.date,
+          units: "cm",
+          settings: { timeZone: DEMO_TIME_ZONE },
+          created_by: userId("supervisor"),
+        },
+      ],
       transaction,
     );
-    await bulkInsert("memberships", demoAccounts.map((a) => ({ id: id(`membership-${a.key}`), production_id: pid, user_id: userId(a.key), role: a.role })), transaction);
+    await bulkInsert(
+      "memberships",
+      demoAccounts.map((a) => ({ id: id(`membership-${a.key}`), production_id: pid, user_id: userId(a.key), role: a.role })),
+      transaction,
+    );
     for (const [table, rows] of tables) await bulkInsert(table, rows, transaction);
   });
   // Fresh statistics, so the planner sees the new size; and for a database people use, a fresh visibility
   // map too (counts can use index-only scans).
-  await sequelize.query(`${options.listsOnly ? "ANALYZE" : "VACUUM ANALYZE"} productions, memberships, ${tables.filter(([, rows]) => rows.length).map(([t]) => t).join(", ")}`);
+  await sequelize.query(
+    `${options.listsOnly ? "ANALYZE" : "VACUUM ANALYZE"} productions, memberships, ${tables
+      .filter(([, rows]) => rows.length)
+      .map(([t]) => t)
+      .join(", ")}`,
+  );
   return {
     productionId: pid,
-    counts: { scenes: scenes.length, shootDays: shootDays.length, characters: characters.length, garments: garments.length, multiplesGroups: groups.length, appearances: appearances.length, changeItems: items.length, continuityEntries: entries.length },
+    counts: {
+      scenes: scenes.length,
+      shootDays: shootDays.length,
+      characters: characters.length,
+      garments: garments.length,
+      multiplesGroups: groups.length,
+      appearances: appearances.length,
+      changeItems: items.length,
+      continuityEntries: entries.length,
+    },
   };
 }

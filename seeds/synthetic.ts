@@ -26,14 +26,43 @@ export function mulberry32(seed: number): () => number {
 
 const CATEGORIES = ["jacket", "shirt", "trousers", "dress", "waistcoat", "coat", "skirt", "knit_top"] as const;
 const POINTS: Record<string, [string, string][]> = {
-  jacket: [["chest", "chest_girth"], ["waist", "waist_girth"], ["sleeve", "arm_length"]],
-  coat: [["chest", "chest_girth"], ["hip", "hip_girth"], ["sleeve", "arm_length"]],
-  shirt: [["chest", "chest_girth"], ["neck", "neck_girth"], ["sleeve", "arm_length"]],
-  waistcoat: [["chest", "chest_girth"], ["waist", "waist_girth"]],
-  dress: [["bust", "chest_girth"], ["waist", "waist_girth"], ["hip", "hip_girth"]],
-  knit_top: [["bust", "chest_girth"], ["waist", "waist_girth"]],
-  trousers: [["waist", "waist_girth"], ["hip", "hip_girth"], ["inside_leg", "inside_leg_length"]],
-  skirt: [["waist", "waist_girth"], ["hip", "hip_girth"]],
+  jacket: [
+    ["chest", "chest_girth"],
+    ["waist", "waist_girth"],
+    ["sleeve", "arm_length"],
+  ],
+  coat: [
+    ["chest", "chest_girth"],
+    ["hip", "hip_girth"],
+    ["sleeve", "arm_length"],
+  ],
+  shirt: [
+    ["chest", "chest_girth"],
+    ["neck", "neck_girth"],
+    ["sleeve", "arm_length"],
+  ],
+  waistcoat: [
+    ["chest", "chest_girth"],
+    ["waist", "waist_girth"],
+  ],
+  dress: [
+    ["bust", "chest_girth"],
+    ["waist", "waist_girth"],
+    ["hip", "hip_girth"],
+  ],
+  knit_top: [
+    ["bust", "chest_girth"],
+    ["waist", "waist_girth"],
+  ],
+  trousers: [
+    ["waist", "waist_girth"],
+    ["hip", "hip_girth"],
+    ["inside_leg", "inside_leg_length"],
+  ],
+  skirt: [
+    ["waist", "waist_girth"],
+    ["hip", "hip_girth"],
+  ],
 };
 
 function addDays(iso: string, n: number): string {
@@ -227,7 +256,13 @@ export function buildSyntheticProduction(scale = 1, seed = 20270104): Production
     for (const sid of day.sceneIds) {
       for (const a of appsByScene.get(sid) ?? []) {
         const gids = (itemsByChange.get(a.changeId) ?? []).flatMap((it) => (it.garmentId ? [it.garmentId] : []));
-        continuityEntries.push({ id: `ce-${en++}`, appearanceId: a.id, shootDayId: day.id, garmentIds: gids, distressStage: a.distressStage });
+        continuityEntries.push({
+          id: `ce-${en++}`,
+          appearanceId: a.id,
+          shootDayId: day.id,
+          garmentIds: gids,
+          distressStage: a.distressStage,
+        });
       }
     }
   }
@@ -246,4 +281,3 @@ export function buildSyntheticProduction(scale = 1, seed = 20270104): Production
     continuityEntries,
   };
 }
-

@@ -31,7 +31,9 @@ const CSRF_COOKIE = "seamscene.csrf";
  */
 function createSessionPool(): pg.Pool {
   const pool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 5, connectionTimeoutMillis: 5000 });
-  pool.on("error", (err) => logger.warn({ err: { message: err.message, code: (err as { code?: string }).code } }, "session store connection lost"));
+  pool.on("error", (err) =>
+    logger.warn({ err: { message: err.message, code: (err as { code?: string }).code } }, "session store connection lost"),
+  );
   return pool;
 }
 
@@ -45,7 +47,10 @@ function lateErrorsLogged(mw: RequestHandler): RequestHandler {
   return (req, res, next) =>
     mw(req, res, (err?: unknown) => {
       if (err && res.headersSent) {
-        logger.warn({ method: req.method, path: loggablePath(req.originalUrl), reason: (err as Error)?.message }, "session store failed after the response was sent");
+        logger.warn(
+          { method: req.method, path: loggablePath(req.originalUrl), reason: (err as Error)?.message },
+          "session store failed after the response was sent",
+        );
         return;
       }
       next(err);
@@ -85,23 +90,25 @@ export function createApp(): Express {
   sessionPool ??= createSessionPool();
   const PgStore = connectPgSimple(session);
   app.use(
-    lateErrorsLogged(session({
-      name: "seamscene.sid",
-      // No touch per request: touchSessionNowAndThen moves the expiry at most every few minutes.
-      store: new PgStore({
-        pool: sessionPool,
-        tableName: "session",
-        createTableIfMissing: false,
-        pruneSessionInterval: isProduction ? 900 : false,
-        disableTouch: true,
-        errorLog: (...args: unknown[]) => logger.warn({ detail: args.map(String).join(" ") }, "session store error"),
+    lateErrorsLogged(
+      session({
+        name: "seamscene.sid",
+        // No touch per request: touchSessionNowAndThen moves the expiry at most every few minutes.
+        store: new PgStore({
+          pool: sessionPool,
+          tableName: "session",
+          createTableIfMissing: false,
+          pruneSessionInterval: isProduction ? 900 : false,
+          disableTouch: true,
+          errorLog: (...args: unknown[]) => logger.warn({ detail: args.map(String).join(" ") }, "session store error"),
+        }),
+        secret: config.SESSION_SECRET,
+        resave: false,
+        saveUninitialized: false,
+        rolling: false,
+        cookie: { httpOnly: true, sameSite: "lax", secure: config.SECURE_COOKIES, maxAge: 14 * 86_400_000 },
       }),
-      secret: config.SESSION_SECRET,
-      resave: false,
-      saveUninitialized: false,
-      rolling: false,
-      cookie: { httpOnly: true, sameSite: "lax", secure: config.SECURE_COOKIES, maxAge: 14 * 86_400_000 },
-    })),
+    ),
   );
   app.use(touchSessionNowAndThen);
   app.use(passport.initialize());

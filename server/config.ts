@@ -49,7 +49,12 @@ const envSchema = z.object({
    * Worker threads for CPU-heavy work (DXF reading, outline checks, packet ZIP and PDF building), so
    * requests keep being answered meanwhile. Default: one fewer than the machine's cores, 1 to 4.
    */
-  WORKER_THREADS: z.coerce.number().int().min(1).max(16).default(Math.max(1, Math.min(4, os.availableParallelism() - 1))),
+  WORKER_THREADS: z.coerce
+    .number()
+    .int()
+    .min(1)
+    .max(16)
+    .default(Math.max(1, Math.min(4, os.availableParallelism() - 1))),
   /** Failed sign-ins allowed per client address and account in the window before requests are refused. */
   LOGIN_MAX_FAILURES: z.coerce.number().int().positive().default(10),
   /** Failed sign-ins allowed per client address across all accounts in the window (guessing many accounts). */
@@ -91,8 +96,15 @@ export function parseConfig(env: Record<string, string | undefined>): Config {
   const https = new URL(e.APP_URL).protocol === "https:";
   const problems: string[] = [];
   if (production) {
-    if (!e.SESSION_SECRET || e.SESSION_SECRET === DEVELOPMENT_SESSION_SECRET || e.SESSION_SECRET.length < 32 || new Set(e.SESSION_SECRET).size < 8) {
-      problems.push("SESSION_SECRET: set a long random secret in production (at least 32 characters, e.g. the output of `openssl rand -base64 48`); the development default is public.");
+    if (
+      !e.SESSION_SECRET ||
+      e.SESSION_SECRET === DEVELOPMENT_SESSION_SECRET ||
+      e.SESSION_SECRET.length < 32 ||
+      new Set(e.SESSION_SECRET).size < 8
+    ) {
+      problems.push(
+        "SESSION_SECRET: set a long random secret in production (at least 32 characters, e.g. the output of `openssl rand -base64 48`); the development default is public.",
+      );
     }
     if (https && e.SECURE_COOKIES === false) problems.push("SECURE_COOKIES: cannot be false when APP_URL is https in production.");
   }

@@ -32,7 +32,10 @@ export async function migrate(sequelize: Sequelize): Promise<string[]> {
   const done = await createMigrator(sequelize).up();
   // Every production-owned table bumps its production's data version (migration 20261203190000),
   // including tables whose migrations ran after that one or never asked for it.
-  const [[tracking]] = (await sequelize.query(`SELECT to_regprocedure('track_all_production_data()') IS NOT NULL AS present`)) as [Array<{ present: boolean }>, unknown];
+  const [[tracking]] = (await sequelize.query(`SELECT to_regprocedure('track_all_production_data()') IS NOT NULL AS present`)) as [
+    Array<{ present: boolean }>,
+    unknown,
+  ];
   if (tracking?.present) await sequelize.query(`SELECT track_all_production_data()`);
   return done.map((m) => m.name);
 }

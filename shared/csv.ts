@@ -38,5 +38,8 @@ export function writeCsv(header: readonly string[], rows: ReadonlyArray<Readonly
 
 /** Writes records as CSV, columns in the given order (missing keys write as empty). */
 export function writeCsvRecords<K extends string>(columns: readonly K[], records: ReadonlyArray<Partial<Record<K, CsvCell>>>): string {
-  return writeCsv(columns, records.map((r) => columns.map((c) => r[c])));
+  return writeCsv(
+    columns,
+    records.map((r) => columns.map((c) => r[c])),
+  );
 }

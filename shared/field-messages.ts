@@ -185,7 +185,8 @@ function leafLabel(parent: string | undefined, key: string): string {
     return l[0]!.toUpperCase() + l.slice(1);
   }
   if (parent === "checkout" && key === "to") return "Checked out to";
-  if (parent === "finishedMeasurements" && key in finishedPointLabels) return `Finished ${finishedPointLabels[key as FinishedPoint].toLowerCase()}`;
+  if (parent === "finishedMeasurements" && key in finishedPointLabels)
+    return `Finished ${finishedPointLabels[key as FinishedPoint].toLowerCase()}`;
   return FIELD_LABELS[key] ?? humanize(key);
 }
 
@@ -200,7 +201,11 @@ export function fieldLabel(path: string | readonly (string | number)[]): string 
   if (parts.some((p) => /\s/.test(p))) return parts.join(".");
   // The last list index decides the "Task 2" prefix; containers such as readings or settings add nothing.
   let idx = -1;
-  for (let i = parts.length - 1; i >= 0; i--) if (/^\d+$/.test(parts[i]!)) { idx = i; break; }
+  for (let i = parts.length - 1; i >= 0; i--)
+    if (/^\d+$/.test(parts[i]!)) {
+      idx = i;
+      break;
+    }
   const leafIdx = parts.length - 1;
   if (idx === leafIdx) {
     const list = parts[idx - 1];
@@ -219,7 +224,8 @@ export function fieldLabel(path: string | readonly (string | number)[]): string 
 // Predicates that read on from a field's name ("Name is required"); an instruction ("choose a password") stands
 // as its own sentence; anything else follows a colon.
 const INSTRUCTS = /^(choose|give|enter|record|add|use|pick|select|write|type|remove|describe)\b/;
-const CONTINUES = /^(is|are|must|cannot|can|can't|has|have|needs|need|should|was|were|does|do|did|names|lists|contains|belongs|uses|will|may|already|only|doesn't|isn't)\b/;
+const CONTINUES =
+  /^(is|are|must|cannot|can|can't|has|have|needs|need|should|was|were|does|do|did|names|lists|contains|belongs|uses|will|may|already|only|doesn't|isn't)\b/;
 
 /**
  * One sentence for one field: "Name is required", "Overhang must be greater than 0",

@@ -139,7 +139,15 @@ export function wallClockOf(at: Instant, timeZone: string): Date {
 
 /** The instant meant by a wall-clock Date (local fields) read in `timeZone`; inverse of `wallClockOf`. */
 export function instantFromWallClock(wall: Date, timeZone: string): Date {
-  const t = new TZDate(wall.getFullYear(), wall.getMonth(), wall.getDate(), wall.getHours(), wall.getMinutes(), wall.getSeconds(), timeZone);
+  const t = new TZDate(
+    wall.getFullYear(),
+    wall.getMonth(),
+    wall.getDate(),
+    wall.getHours(),
+    wall.getMinutes(),
+    wall.getSeconds(),
+    timeZone,
+  );
   return new Date(t.getTime());
 }
 

@@ -1,9 +1,19 @@
 /** Test data builders: each creates any missing parent itself. */
 import { randomUUID } from "node:crypto";
-import { Appearance, Change, Character, Membership, Performer, Production, Scene, ShootDay, ShootDayScene, User } from "../server/models/index.js";
+import {
+  Appearance,
+  Change,
+  Character,
+  Membership,
+  Performer,
+  Production,
+  Scene,
+  ShootDay,
+  ShootDayScene,
+  User,
+} from "../server/models/index.js";
 import { hashPassword } from "../server/auth/passwords.js";
 import type { Role } from "../shared/permissions.js";
-import { sequelize } from "../server/db.js";
 import { Fabric, Garment, MeasurementSet } from "../server/models/index.js";
 import { generateTagCode } from "../shared/domain/tag-codes.js";
 import { randomInt } from "node:crypto";
@@ -22,7 +32,9 @@ export async function buildUser(overrides: Partial<{ email: string; name: string
   });
 }
 
-export async function buildProduction(overrides: Partial<{ title: string; kind: "film" | "series" | "stage"; units: "cm" | "in"; settings: object }> = {}) {
+export async function buildProduction(
+  overrides: Partial<{ title: string; kind: "film" | "series" | "stage"; units: "cm" | "in"; settings: object }> = {},
+) {
   return Production.create({
     title: overrides.title ?? `Production ${randomUUID().slice(0, 6)}`,
     kind: overrides.kind ?? "film",
@@ -45,19 +57,41 @@ export async function buildMember(role: Role, opts: { production?: Production; u
 /** A performer (creates a production unless given). */
 export async function buildPerformer(opts: { production?: Production; name?: string } = {}) {
   const production = opts.production ?? (await buildProduction());
-  return Performer.create({ productionId: production.id, name: opts.name ?? `Performer ${randomUUID().slice(0, 6)}`, email: null, phone: null, agentContact: null, notes: null });
+  return Performer.create({
+    productionId: production.id,
+    name: opts.name ?? `Performer ${randomUUID().slice(0, 6)}`,
+    email: null,
+    phone: null,
+    agentContact: null,
+    notes: null,
+  });
 }
 
 /** A character played by a new performer. */
 export async function buildCharacter(opts: { production?: Production; name?: string; sortOrder?: number } = {}) {
   const production = opts.production ?? (await buildProduction());
   const performer = await buildPerformer({ production });
-  return Character.create({ productionId: production.id, name: opts.name ?? `Character ${randomUUID().slice(0, 6)}`, performerId: performer.id, notes: null, sortOrder: opts.sortOrder ?? 0 });
+  return Character.create({
+    productionId: production.id,
+    name: opts.name ?? `Character ${randomUUID().slice(0, 6)}`,
+    performerId: performer.id,
+    notes: null,
+    sortOrder: opts.sortOrder ?? 0,
+  });
 }
 
 let sceneCounter = 0;
 /** A scene; number and story order default to a fresh counter. */
-export async function buildScene(opts: { production?: Production; number?: string; storyDay?: number; storyOrder?: number; runningMinutes?: number | null; setName?: string } = {}) {
+export async function buildScene(
+  opts: {
+    production?: Production;
+    number?: string;
+    storyDay?: number;
+    storyOrder?: number;
+    runningMinutes?: number | null;
+    setName?: string;
+  } = {},
+) {
   const production = opts.production ?? (await buildProduction());
   sceneCounter += 1;
   return Scene.create({
@@ -75,28 +109,61 @@ export async function buildScene(opts: { production?: Production; number?: strin
 }
 
 /** A shoot day with scenes in the given order. */
-export async function buildShootDay(opts: { production?: Production; dayNumber?: number; date?: string; scenes?: Scene[]; kind?: "shoot" | "performance" } = {}) {
+export async function buildShootDay(
+  opts: { production?: Production; dayNumber?: number; date?: string; scenes?: Scene[]; kind?: "shoot" | "performance" } = {},
+) {
   const production = opts.production ?? (await buildProduction());
-  const day = await ShootDay.create({ productionId: production.id, dayNumber: opts.dayNumber ?? 1, date: opts.date ?? "2026-12-01", kind: opts.kind ?? "shoot", startsAt: null, notes: null });
-  for (const [i, s] of (opts.scenes ?? []).entries()) await ShootDayScene.create({ productionId: production.id, shootDayId: day.id, sceneId: s.id, position: i + 1 });
+  const day = await ShootDay.create({
+    productionId: production.id,
+    dayNumber: opts.dayNumber ?? 1,
+    date: opts.date ?? "2026-12-01",
+    kind: opts.kind ?? "shoot",
+    startsAt: null,
+    notes: null,
+  });
+  for (const [i, s] of (opts.scenes ?? []).entries())
+    await ShootDayScene.create({ productionId: production.id, shootDayId: day.id, sceneId: s.id, position: i + 1 });
   return day;
 }
 
 /** A change of a character (next number). */
 export async function buildChange(character: Character, opts: { number?: number; description?: string } = {}) {
   const n = opts.number ?? ((await Change.max<number, Change>("number", { where: { characterId: character.id } })) ?? 0) + 1;
-  return Change.create({ productionId: character.productionId, characterId: character.id, number: n, description: opts.description ?? `Change ${n}`, storyDayFrom: null, storyDayTo: null, approvedBy: null, approvedAt: null });
+  return Change.create({
+    productionId: character.productionId,
+    characterId: character.id,
+    number: n,
+    description: opts.description ?? `Change ${n}`,
+    storyDayFrom: null,
+    storyDayTo: null,
+    approvedBy: null,
+    approvedAt: null,
+  });
 }
 
 /** A character in a scene wearing a change. */
-export async function buildAppearance(scene: Scene, character: Character, change: Change | null, opts: Partial<{ distressStage: number; wet: boolean; stunt: boolean; changeHere: boolean }> = {}) {
-  return Appearance.create({ productionId: scene.productionId, sceneId: scene.id, characterId: character.id, changeId: change?.id ?? null, notes: null, ...opts });
+export async function buildAppearance(
+  scene: Scene,
+  character: Character,
+  change: Change | null,
+  opts: Partial<{ distressStage: number; wet: boolean; stunt: boolean; changeHere: boolean }> = {},
+) {
+  return Appearance.create({
+    productionId: scene.productionId,
+    sceneId: scene.id,
+    characterId: character.id,
+    changeId: change?.id ?? null,
+    notes: null,
+    ...opts,
+  });
 }
 
 // ---- Wardrobe builders ----
 
 /** A fabric (woven wool by default). */
-export async function buildFabric(overrides: Partial<{ production: Production; name: string; massPerAreaGsm: number | null; construction: "woven" | "knit" }> = {}) {
+export async function buildFabric(
+  overrides: Partial<{ production: Production; name: string; massPerAreaGsm: number | null; construction: "woven" | "knit" }> = {},
+) {
   const production = overrides.production ?? (await buildProduction());
   return Fabric.create({
     productionId: production.id,
@@ -155,6 +222,19 @@ export async function buildGarment(
 }
 
 /** A measurement set in mm. */
-export async function buildMeasurementSet(performerId: string, production: Production, valuesMm: Record<string, number>, takenOn = "2026-11-01") {
-  return MeasurementSet.create({ productionId: production.id, performerId, takenOn, takenBy: null, valuesMm, enteredUnit: "cm", notes: null });
+export async function buildMeasurementSet(
+  performerId: string,
+  production: Production,
+  valuesMm: Record<string, number>,
+  takenOn = "2026-11-01",
+) {
+  return MeasurementSet.create({
+    productionId: production.id,
+    performerId,
+    takenOn,
+    takenBy: null,
+    valuesMm,
+    enteredUnit: "cm",
+    notes: null,
+  });
 }

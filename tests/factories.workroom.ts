@@ -17,11 +17,19 @@ async function insert(table: string, row: Record<string, unknown>): Promise<stri
 
 /** A performer (with an e-mail unless null is given). */
 export function buildPerformer(productionId: string, o: { name?: string; email?: string | null; agentContact?: string | null } = {}) {
-  return insert("performers", { production_id: productionId, name: o.name ?? "Test Performer", email: o.email === undefined ? `performer-${randomUUID().slice(0, 6)}@test.invalid` : o.email, agent_contact: o.agentContact ?? null });
+  return insert("performers", {
+    production_id: productionId,
+    name: o.name ?? "Test Performer",
+    email: o.email === undefined ? `performer-${randomUUID().slice(0, 6)}@test.invalid` : o.email,
+    agent_contact: o.agentContact ?? null,
+  });
 }
 
 /** A fabric (woven, untested stretch unless given). */
-export function buildFabric(productionId: string, o: { name?: string; construction?: "woven" | "knit"; stretchWarpPct?: number | null; stretchWeftPct?: number | null } = {}) {
+export function buildFabric(
+  productionId: string,
+  o: { name?: string; construction?: "woven" | "knit"; stretchWarpPct?: number | null; stretchWeftPct?: number | null } = {},
+) {
   return insert("fabrics", {
     production_id: productionId,
     name: o.name ?? "Test fabric",
@@ -34,7 +42,17 @@ export function buildFabric(productionId: string, o: { name?: string; constructi
 /** A garment (status in_stock, regular fit, no fabric unless given). */
 export function buildGarment(
   productionId: string,
-  o: { tagCode?: string; name?: string; status?: string; category?: string; finished?: Record<string, number>; groupId?: string | null; copyNumber?: number | null; fitIntent?: "fitted" | "regular" | "loose"; fabricId?: string | null } = {},
+  o: {
+    tagCode?: string;
+    name?: string;
+    status?: string;
+    category?: string;
+    finished?: Record<string, number>;
+    groupId?: string | null;
+    copyNumber?: number | null;
+    fitIntent?: "fitted" | "regular" | "loose";
+    fabricId?: string | null;
+  } = {},
 ) {
   return insert("garments", {
     fit_intent: o.fitIntent ?? "regular",
@@ -65,17 +83,46 @@ export async function buildChangeOnDays(
   o: { performerId?: string; garmentIds?: string[]; groupIds?: string[]; dates: string[]; characterName?: string },
 ): Promise<{ performerId: string; characterId: string; changeId: string; shootDayIds: string[] }> {
   const performerId = o.performerId ?? (await buildPerformer(productionId));
-  const characterId = await insert("characters", { production_id: productionId, name: o.characterName ?? `Character ${randomUUID().slice(0, 6)}`, performer_id: performerId });
-  const changeId = await insert("changes", { production_id: productionId, character_id: characterId, number: 1, description: "test change" });
+  const characterId = await insert("characters", {
+    production_id: productionId,
+    name: o.characterName ?? `Character ${randomUUID().slice(0, 6)}`,
+    performer_id: performerId,
+  });
+  const changeId = await insert("changes", {
+    production_id: productionId,
+    character_id: characterId,
+    number: 1,
+    description: "test change",
+  });
   let order = 0;
-  for (const g of o.garmentIds ?? []) await insert("change_items", { production_id: productionId, change_id: changeId, label: "item", garment_id: g, sort_order: order++ });
-  for (const g of o.groupIds ?? []) await insert("change_items", { production_id: productionId, change_id: changeId, label: "group item", multiples_group_id: g, sort_order: order++ });
+  for (const g of o.garmentIds ?? [])
+    await insert("change_items", { production_id: productionId, change_id: changeId, label: "item", garment_id: g, sort_order: order++ });
+  for (const g of o.groupIds ?? [])
+    await insert("change_items", {
+      production_id: productionId,
+      change_id: changeId,
+      label: "group item",
+      multiples_group_id: g,
+      sort_order: order++,
+    });
   const shootDayIds: string[] = [];
   for (const date of o.dates) {
-    const [existing] = (await sequelize.query(`SELECT id FROM shoot_days WHERE production_id = :productionId AND date = :date`, { replacements: { productionId, date } }))[0] as Array<{ id: string }>;
-    const [{ n }] = (await sequelize.query(`SELECT COALESCE(MAX(day_number), 0) + 1 AS n FROM shoot_days WHERE production_id = :productionId`, { replacements: { productionId } }))[0] as Array<{ n: number }>;
+    const [existing] = (
+      await sequelize.query(`SELECT id FROM shoot_days WHERE production_id = :productionId AND date = :date`, {
+        replacements: { productionId, date },
+      })
+    )[0] as Array<{ id: string }>;
+    const [{ n }] = (
+      await sequelize.query(`SELECT COALESCE(MAX(day_number), 0) + 1 AS n FROM shoot_days WHERE production_id = :productionId`, {
+        replacements: { productionId },
+      })
+    )[0] as Array<{ n: number }>;
     const shootDayId = existing?.id ?? (await insert("shoot_days", { production_id: productionId, day_number: n, date, kind: "shoot" }));
-    const [{ s }] = (await sequelize.query(`SELECT COALESCE(MAX(story_order), 0) + 1 AS s FROM scenes WHERE production_id = :productionId`, { replacements: { productionId } }))[0] as Array<{ s: number }>;
+    const [{ s }] = (
+      await sequelize.query(`SELECT COALESCE(MAX(story_order), 0) + 1 AS s FROM scenes WHERE production_id = :productionId`, {
+        replacements: { productionId },
+      })
+    )[0] as Array<{ s: number }>;
     const sceneId = await insert("scenes", { production_id: productionId, number: `S${s}-${randomUUID().slice(0, 4)}`, story_order: s });
     await insert("shoot_day_scenes", { production_id: productionId, shoot_day_id: shootDayId, scene_id: sceneId, position: 1 });
     await insert("appearances", { production_id: productionId, scene_id: sceneId, character_id: characterId, change_id: changeId });
@@ -86,7 +133,10 @@ export async function buildChangeOnDays(
 
 /** Current status of a garment and how many status events it has. */
 export async function garmentState(garmentId: string): Promise<{ status: string; events: number }> {
-  const [[row]] = (await sequelize.query(`SELECT status, (SELECT COUNT(*)::int FROM garment_status_events e WHERE e.garment_id = g.id) AS events FROM garments g WHERE id = :garmentId`, { replacements: { garmentId } })) as [Array<{ status: string; events: number }>, unknown];
+  const [[row]] = (await sequelize.query(
+    `SELECT status, (SELECT COUNT(*)::int FROM garment_status_events e WHERE e.garment_id = g.id) AS events FROM garments g WHERE id = :garmentId`,
+    { replacements: { garmentId } },
+  )) as [Array<{ status: string; events: number }>, unknown];
   return row;
 }
 

@@ -59,7 +59,12 @@ async function measureRatios(app: Running, cookie: string, endpoints: Array<{ na
   }
   const bare = await startBare(bodies, WORK_DIR);
   try {
-    const sides = new Map(endpoints.map((e) => [e.path, { bare: { cpu: [], rps: [], p50: [], p99: [], errors: 0 } as Side, app: { cpu: [], rps: [], p50: [], p99: [], errors: 0 } as Side }]));
+    const sides = new Map(
+      endpoints.map((e) => [
+        e.path,
+        { bare: { cpu: [], rps: [], p50: [], p99: [], errors: 0 } as Side, app: { cpu: [], rps: [], p50: [], p99: [], errors: 0 } as Side },
+      ]),
+    );
     const run = async (server: Running, p: string, side: Side, seconds: number, record = true) => {
       const cpuBefore = server.cpuMs();
       const r = await cannon({ url: server.url + p, connections: CONNECTIONS, duration: seconds, headers: { cookie } });
@@ -79,15 +84,47 @@ async function measureRatios(app: Running, cookie: string, endpoints: Array<{ na
       for (const e of endpoints) {
         const s = sides.get(e.path)!;
         // Alternate which side goes first so a drift in the machine's load does not favour one.
-        const order: Array<[Running, Side]> = round % 2 === 0 ? [[bare, s.bare], [app, s.app]] : [[app, s.app], [bare, s.bare]];
+        const order: Array<[Running, Side]> =
+          round % 2 === 0
+            ? [
+                [bare, s.bare],
+                [app, s.app],
+              ]
+            : [
+                [app, s.app],
+                [bare, s.bare],
+              ];
         for (const [server, side] of order) await run(server, e.path, side, SECONDS);
         process.stdout.write(".");
       }
     }
     process.stdout.write("\n");
-    console.log(`\n${CONNECTIONS} connections, ${ROUNDS} alternating rounds of ${SECONDS} s per side (median of rounds; ratio = Seamscene / bare, summed over rounds)`);
-    console.log(`CPU ratio = the bare server's CPU time per request / Seamscene's (its own process, PostgreSQL not counted): what the ratio would be if the server alone were the limit. Load average now: ${os.loadavg().map((x) => x.toFixed(1)).join(", ")} on ${os.cpus().length} cores.`);
-    console.log(["endpoint".padEnd(34), "bytes".padStart(7), "bare req/s".padStart(11), "app req/s".padStart(10), "ratio".padStart(7), "target".padStart(7), "p50 ms".padStart(7), "p99 ms".padStart(7), "p99/p50".padStart(8), "errors".padStart(7), "CPU ms/req bare".padStart(16), "app".padStart(6), "CPU ratio".padStart(10)].join(" "));
+    console.log(
+      `\n${CONNECTIONS} connections, ${ROUNDS} alternating rounds of ${SECONDS} s per side (median of rounds; ratio = Seamscene / bare, summed over rounds)`,
+    );
+    console.log(
+      `CPU ratio = the bare server's CPU time per request / Seamscene's (its own process, PostgreSQL not counted): what the ratio would be if the server alone were the limit. Load average now: ${os
+        .loadavg()
+        .map((x) => x.toFixed(1))
+        .join(", ")} on ${os.cpus().length} cores.`,
+    );
+    console.log(
+      [
+        "endpoint".padEnd(34),
+        "bytes".padStart(7),
+        "bare req/s".padStart(11),
+        "app req/s".padStart(10),
+        "ratio".padStart(7),
+        "target".padStart(7),
+        "p50 ms".padStart(7),
+        "p99 ms".padStart(7),
+        "p99/p50".padStart(8),
+        "errors".padStart(7),
+        "CPU ms/req bare".padStart(16),
+        "app".padStart(6),
+        "CPU ratio".padStart(10),
+      ].join(" "),
+    );
     const summary: Array<{ name: string; ratio: number; target: number; p99overP50: number; errors: number }> = [];
     for (const e of endpoints) {
       const s = sides.get(e.path)!;
@@ -127,7 +164,15 @@ async function soak(app: Running, cookie: string, paths: string[]) {
     headers: { cookie },
     requests: paths.map((p) => ({ method: "GET", path: p })),
   });
-  return { rps: r.requests.average, total: r.requests.total, errors: r.errors, timeouts: r.timeouts, non2xx: r.non2xx, p50: r.latency.p50, p99: r.latency.p99 };
+  return {
+    rps: r.requests.average,
+    total: r.requests.total,
+    errors: r.errors,
+    timeouts: r.timeouts,
+    non2xx: r.non2xx,
+    p50: r.latency.p50,
+    p99: r.latency.p99,
+  };
 }
 
 async function main() {
@@ -152,13 +197,22 @@ async function main() {
       console.log(`Seamscene at ${app.url} (NODE_ENV=production, log to .data/bench/server.log); measuring…`);
       const summary = await measureRatios(app, cookie, endpoints);
       console.log(`\nSoak: ${SOAK_CONNECTIONS} connections for ${SOAK_SECONDS} s over the same endpoints, round robin…`);
-      const s = await soak(app, cookie, endpoints.map((e) => e.path));
+      const s = await soak(
+        app,
+        cookie,
+        endpoints.map((e) => e.path),
+      );
       const rss = app.rssMb();
-      console.log(`  ${s.total} requests, ${fmt(s.rps)} req/s, p50 ${s.p50} ms, p99 ${s.p99} ms; errors ${s.errors}, timeouts ${s.timeouts}, non-2xx ${s.non2xx}`);
+      console.log(
+        `  ${s.total} requests, ${fmt(s.rps)} req/s, p50 ${s.p50} ms, p99 ${s.p99} ms; errors ${s.errors}, timeouts ${s.timeouts}, non-2xx ${s.non2xx}`,
+      );
       console.log(`  server RSS after the run: ${fmt(rss)} MB (target ≤ 300 MB)`);
       console.log("\nAgainst the targets:");
       for (const x of summary) {
-        if (x.target) console.log(`  ${x.name}: ${pct(x.ratio)} of bare Express (target ≥ ${pct(x.target)}) ${x.ratio >= x.target ? "met" : "NOT met"}`);
+        if (x.target)
+          console.log(
+            `  ${x.name}: ${pct(x.ratio)} of bare Express (target ≥ ${pct(x.target)}) ${x.ratio >= x.target ? "met" : "NOT met"}`,
+          );
         console.log(`  ${x.name}: p99 = ${fmt(x.p99overP50, 1)} × p50 (target ≤ 5) ${x.p99overP50 <= 5 ? "met" : "NOT met"}`);
       }
       const soakErrors = s.errors + s.timeouts + s.non2xx;

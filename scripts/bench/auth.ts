@@ -29,16 +29,37 @@ interface Reply {
   ms: number;
 }
 
-function send(agent: http.Agent, port: number, method: string, urlPath: string, headers: Record<string, string> = {}, body?: object): Promise<Reply> {
+function send(
+  agent: http.Agent,
+  port: number,
+  method: string,
+  urlPath: string,
+  headers: Record<string, string> = {},
+  body?: object,
+): Promise<Reply> {
   return new Promise((resolve, reject) => {
     const payload = body ? JSON.stringify(body) : undefined;
     const t0 = performance.now();
     const req = http.request(
-      { host: "127.0.0.1", port, method, path: urlPath, agent, headers: { ...headers, ...(payload ? { "content-type": "application/json", "content-length": Buffer.byteLength(payload) } : {}) } },
+      {
+        host: "127.0.0.1",
+        port,
+        method,
+        path: urlPath,
+        agent,
+        headers: { ...headers, ...(payload ? { "content-type": "application/json", "content-length": Buffer.byteLength(payload) } : {}) },
+      },
       (res) => {
         const chunks: Buffer[] = [];
         res.on("data", (c: Buffer) => chunks.push(c));
-        res.on("end", () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(chunks).toString("utf8"), ms: performance.now() - t0 }));
+        res.on("end", () =>
+          resolve({
+            status: res.statusCode ?? 0,
+            headers: res.headers,
+            body: Buffer.concat(chunks).toString("utf8"),
+            ms: performance.now() - t0,
+          }),
+        );
       },
     );
     req.on("error", reject);
@@ -60,7 +81,10 @@ process.once("exit", () => {
 for (const signal of ["SIGINT", "SIGTERM"] as const) process.once(signal, () => process.exit(1));
 
 async function startServer(env: Record<string, string>, port: number): Promise<ChildProcess> {
-  const child = spawn(process.execPath, [path.resolve("node_modules/tsx/dist/cli.mjs"), "server/index.ts"], { env: { ...process.env, ...env, PORT: String(port) }, stdio: ["ignore", "ignore", "pipe"] });
+  const child = spawn(process.execPath, [path.resolve("node_modules/tsx/dist/cli.mjs"), "server/index.ts"], {
+    env: { ...process.env, ...env, PORT: String(port) },
+    stdio: ["ignore", "ignore", "pipe"],
+  });
   children.add(child);
   child.once("exit", () => children.delete(child));
   let stderr = "";
@@ -68,7 +92,10 @@ async function startServer(env: Record<string, string>, port: number): Promise<C
   const agent = new http.Agent();
   for (let i = 0; i < 900; i++) {
     if (child.exitCode !== null) throw new Error(`bench server exited:\n${stderr}`);
-    const ok = await send(agent, port, "GET", "/api/health").then((r) => r.status === 200, () => false);
+    const ok = await send(agent, port, "GET", "/api/health").then(
+      (r) => r.status === 200,
+      () => false,
+    );
     if (ok) return child;
     await new Promise((r) => setTimeout(r, 100));
   }
@@ -110,7 +137,14 @@ async function photoFlood(port: number, email: string, photoUrl: string): Promis
   const csrf = await send(one, port, "GET", "/api/auth/csrf");
   const anonCookie = cookies(csrf);
   const token = (JSON.parse(csrf.body) as { token: string }).token;
-  const login = await send(one, port, "POST", "/api/auth/login", { cookie: anonCookie, "x-csrf-token": token }, { email, password: PASSWORD });
+  const login = await send(
+    one,
+    port,
+    "POST",
+    "/api/auth/login",
+    { cookie: anonCookie, "x-csrf-token": token },
+    { email, password: PASSWORD },
+  );
   if (login.status !== 200) throw new Error(`bench sign-in failed: ${login.status} ${login.body}`);
   const session = cookies(login);
   let photoFailures = 0;
@@ -136,7 +170,14 @@ async function photoFlood(port: number, email: string, photoUrl: string): Promis
   let signInFailures = 0;
   const loops = Array.from({ length: FLOOD_CONNECTIONS }, async () => {
     while (running) {
-      const r = await send(floodAgent, port, "POST", "/api/auth/login", { cookie: anonCookie, "x-csrf-token": token }, { email, password: "wrong-password-x" });
+      const r = await send(
+        floodAgent,
+        port,
+        "POST",
+        "/api/auth/login",
+        { cookie: anonCookie, "x-csrf-token": token },
+        { email, password: "wrong-password-x" },
+      );
       // A refused attempt (503 when the server is overwhelmed) is counted, not fatal: it is what the bench shows.
       if (r.status !== 401) signInFailures++;
       else signIns.push(r.ms);
@@ -157,16 +198,39 @@ async function photoFlood(port: number, email: string, photoUrl: string): Promis
   one.destroy();
   const idleP50 = pct(idle, 0.5);
   const floodP50 = pct(during, 0.5);
-  return { idleP50, floodP50, ratio: floodP50 / idleP50, signInsPerSecond: countDuring / Math.max(seconds, 0.001), signInP50: signIns.length ? pct(signIns, 0.5) : NaN, photoFailures, signInFailures };
+  return {
+    idleP50,
+    floodP50,
+    ratio: floodP50 / idleP50,
+    signInsPerSecond: countDuring / Math.max(seconds, 0.001),
+    signInP50: signIns.length ? pct(signIns, 0.5) : NaN,
+    photoFailures,
+    signInFailures,
+  };
 }
 
 /** Runs both measurements and prints them. */
-export async function runAuthBench(): Promise<{ reset: { knownP50: number; unknownP50: number }; fixed: FloodFigures; before: FloodFigures }> {
-  const pg = await ensureLocalPostgres({ dataDir: process.env.PGDATA_DIR ?? path.resolve(".data/pg"), port: Number(process.env.PGPORT ?? 5433) });
+export async function runAuthBench(): Promise<{
+  reset: { knownP50: number; unknownP50: number };
+  fixed: FloodFigures;
+  before: FloodFigures;
+}> {
+  const pg = await ensureLocalPostgres({
+    dataDir: process.env.PGDATA_DIR ?? path.resolve(".data/pg"),
+    port: Number(process.env.PGPORT ?? 5433),
+  });
   await dropDatabase(pg.adminUrl, DB);
   const databaseUrl = await ensureDatabase(pg, DB);
   const storageDir = fs.mkdtempSync(path.join(os.tmpdir(), "seamscene-bench-auth-"));
-  Object.assign(process.env, { DATABASE_URL: databaseUrl, NODE_ENV: "test", LOG_LEVEL: "silent", STORAGE_DIR: storageDir, STORAGE_DRIVER: "disk", SMTP_HOST: "127.0.0.1", SMTP_PORT: "0" });
+  Object.assign(process.env, {
+    DATABASE_URL: databaseUrl,
+    NODE_ENV: "test",
+    LOG_LEVEL: "silent",
+    STORAGE_DIR: storageDir,
+    STORAGE_DRIVER: "disk",
+    SMTP_HOST: "127.0.0.1",
+    SMTP_PORT: "0",
+  });
 
   // Data, made in this process: an account, a production and one stored photo.
   const { sequelize } = await import("../../server/db.js");
@@ -179,7 +243,13 @@ export async function runAuthBench(): Promise<{ reset: { knownP50: number; unkno
   const { hashPassword } = await import("../../server/auth/passwords.js");
   const { default: request } = await import("supertest");
   const sharp = (await import("sharp")).default;
-  const user = await User.create({ email: "bench@bench.invalid", name: "Bench", passwordHash: await hashPassword(PASSWORD), isActive: true, lastProductionId: null });
+  const user = await User.create({
+    email: "bench@bench.invalid",
+    name: "Bench",
+    passwordHash: await hashPassword(PASSWORD),
+    isActive: true,
+    lastProductionId: null,
+  });
   const p = await Production.create({ title: "Bench photos", kind: "film", startsOn: null, endsOn: null, createdBy: null });
   await Membership.create({ productionId: p.id, userId: user.id, role: "supervisor" });
   const app = createApp();
@@ -188,9 +258,21 @@ export async function runAuthBench(): Promise<{ reset: { knownP50: number; unkno
   const first = await tok();
   await agent.post("/api/auth/login").set("X-CSRF-Token", first).send({ email: user.email, password: PASSWORD }).expect(200);
   const csrf = await tok();
-  const [scene] = await sequelize.query<{ id: string }>(`INSERT INTO scenes (id, production_id, number, story_order) VALUES (gen_random_uuid(), :pid, '1', 1) RETURNING id`, { replacements: { pid: p.id }, type: (await import("sequelize")).QueryTypes.SELECT });
-  const jpeg = await sharp({ create: { width: 1600, height: 1200, channels: 3, background: { r: 180, g: 150, b: 120 } } }).jpeg({ quality: 85 }).toBuffer();
-  const uploaded = await agent.post(`/api/productions/${p.id}/photos`).set("X-CSRF-Token", csrf).field("ownerType", "scene").field("ownerId", scene!.id).field("view", "front").attach("file", jpeg, { filename: "frame.jpg", contentType: "image/jpeg" }).expect(201);
+  const [scene] = await sequelize.query<{ id: string }>(
+    `INSERT INTO scenes (id, production_id, number, story_order) VALUES (gen_random_uuid(), :pid, '1', 1) RETURNING id`,
+    { replacements: { pid: p.id }, type: (await import("sequelize")).QueryTypes.SELECT },
+  );
+  const jpeg = await sharp({ create: { width: 1600, height: 1200, channels: 3, background: { r: 180, g: 150, b: 120 } } })
+    .jpeg({ quality: 85 })
+    .toBuffer();
+  const uploaded = await agent
+    .post(`/api/productions/${p.id}/photos`)
+    .set("X-CSRF-Token", csrf)
+    .field("ownerType", "scene")
+    .field("ownerId", scene!.id)
+    .field("view", "front")
+    .attach("file", jpeg, { filename: "frame.jpg", contentType: "image/jpeg" })
+    .expect(201);
   const photoUrl = `/api/productions/${p.id}/photos/${uploaded.body.data.id as string}/file?size=display`;
 
   const serverEnv = {
@@ -205,14 +287,20 @@ export async function runAuthBench(): Promise<{ reset: { knownP50: number; unkno
 
   // 1. Password reset: the answer for an address with an account and for one without.
   const port = await freePort();
-  let child = await startServer({ ...serverEnv, APP_URL: `http://127.0.0.1:${port}`, UV_THREADPOOL_SIZE: String(START_THREADPOOL_SIZE) }, port);
+  let child = await startServer(
+    { ...serverEnv, APP_URL: `http://127.0.0.1:${port}`, UV_THREADPOOL_SIZE: String(START_THREADPOOL_SIZE) },
+    port,
+  );
   const a = new http.Agent({ keepAlive: true, maxSockets: 1 });
   const c = await send(a, port, "GET", "/api/auth/csrf");
   const resetHeaders = { cookie: cookies(c), "x-csrf-token": (JSON.parse(c.body) as { token: string }).token };
   const known: number[] = [];
   const unknown: number[] = [];
   for (let i = 0; i < 25; i++) {
-    for (const [email, into] of [[user.email, known], [`nobody${i}@bench.invalid`, unknown]] as const) {
+    for (const [email, into] of [
+      [user.email, known],
+      [`nobody${i}@bench.invalid`, unknown],
+    ] as const) {
       // The reset limiter allows 5 an hour per address; the bench clears it.
       await sequelize.query("DELETE FROM rate_limit_hits");
       const r = await send(a, port, "POST", "/api/auth/password-reset", resetHeaders, { email });
@@ -222,7 +310,9 @@ export async function runAuthBench(): Promise<{ reset: { knownP50: number; unkno
   }
   a.destroy();
   const reset = { knownP50: r1(pct(known, 0.5)), unknownP50: r1(pct(unknown, 0.5)) };
-  console.log(`Password reset answer, p50 of ${known.length}: address with an account ${reset.knownP50} ms, without ${reset.unknownP50} ms (ratio ${(reset.knownP50 / reset.unknownP50).toFixed(2)}; the e-mail goes through the job queue)`);
+  console.log(
+    `Password reset answer, p50 of ${known.length}: address with an account ${reset.knownP50} ms, without ${reset.unknownP50} ms (ratio ${(reset.knownP50 / reset.unknownP50).toFixed(2)}; the e-mail goes through the job queue)`,
+  );
 
   const line = (label: string, f: FloodFigures) =>
     `${label}: photo p50 idle ${r1(f.idleP50)} ms, during a ${FLOOD_CONNECTIONS}-connection sign-in flood ${r1(f.floodP50)} ms → ${f.ratio.toFixed(1)}× (target ≤ 3×); ` +

@@ -16,7 +16,22 @@ function csv(n: number): string {
   for (let i = 1; i <= n; i++) {
     const day = Math.ceil(i / 6);
     const date = new Date(Date.UTC(2031, 0, 1) + (day - 1) * 86_400_000).toISOString().slice(0, 10);
-    lines.push([i, `Set ${i % 25}`, i % 3 ? "EXT" : "INT", "DAY", 1 + Math.floor(((i - 1) * 40) / n), i, `${i % 3} ${1 + (i % 7)}/8`, "", `"Invented scene ${i}, for timing"`, day, date, ((i - 1) % 6) + 1].join(","));
+    lines.push(
+      [
+        i,
+        `Set ${i % 25}`,
+        i % 3 ? "EXT" : "INT",
+        "DAY",
+        1 + Math.floor(((i - 1) * 40) / n),
+        i,
+        `${i % 3} ${1 + (i % 7)}/8`,
+        "",
+        `"Invented scene ${i}, for timing"`,
+        day,
+        date,
+        ((i - 1) % 6) + 1,
+      ].join(","),
+    );
   }
   return lines.join("\n");
 }
@@ -36,7 +51,10 @@ export interface BreakdownBenchResult {
 
 /** Runs both measurements and prints them. */
 export async function runBreakdownBench(): Promise<BreakdownBenchResult> {
-  const pg = await ensureLocalPostgres({ dataDir: process.env.PGDATA_DIR ?? path.resolve(".data/pg"), port: Number(process.env.PGPORT ?? 5433) });
+  const pg = await ensureLocalPostgres({
+    dataDir: process.env.PGDATA_DIR ?? path.resolve(".data/pg"),
+    port: Number(process.env.PGPORT ?? 5433),
+  });
   await dropDatabase(pg.adminUrl, "seamscene_bench");
   process.env.DATABASE_URL = await ensureDatabase(pg, "seamscene_bench");
   process.env.NODE_ENV = "test";
@@ -56,7 +74,13 @@ export async function runBreakdownBench(): Promise<BreakdownBenchResult> {
 
   const app = createApp();
   const password = "bench-password-1234";
-  const user = await User.create({ email: "bench@bench.invalid", name: "Bench", passwordHash: await hashPassword(password), isActive: true, lastProductionId: null });
+  const user = await User.create({
+    email: "bench@bench.invalid",
+    name: "Bench",
+    passwordHash: await hashPassword(password),
+    isActive: true,
+    lastProductionId: null,
+  });
   const agent = request.agent(app);
   const token = async () => (await agent.get("/api/auth/csrf")).body.token as string;
   // The agent attaches cookies when a request is created, so fetch the token first.
@@ -92,18 +116,31 @@ export async function runBreakdownBench(): Promise<BreakdownBenchResult> {
       await sharp(noise, { raw: { width, height, channels: 3 } })
         .blur(1.2)
         .jpeg({ quality: 90 })
-        .withExif({ IFD0: { Make: "BenchCam" }, IFD3: { GPSLatitudeRef: "N", GPSLatitude: "50/1 9/1 0/1", GPSLongitudeRef: "W", GPSLongitude: "5/1 4/1 0/1" } })
+        .withExif({
+          IFD0: { Make: "BenchCam" },
+          IFD3: { GPSLatitudeRef: "N", GPSLatitude: "50/1 9/1 0/1", GPSLongitudeRef: "W", GPSLongitude: "5/1 4/1 0/1" },
+        })
         .withMetadata({ orientation: 6 })
         .toBuffer(),
     );
   }
   const p = await Production.create({ title: "Bench photos", kind: "film", startsOn: null, endsOn: null, createdBy: null });
   await Membership.create({ productionId: p.id, userId: user.id, role: "supervisor" });
-  const [scene] = await sequelize.query<{ id: string }>(`INSERT INTO scenes (id, production_id, number, story_order) VALUES (gen_random_uuid(), :pid, '1', 1) RETURNING id`, { replacements: { pid: p.id }, type: (await import("sequelize")).QueryTypes.SELECT });
+  const [scene] = await sequelize.query<{ id: string }>(
+    `INSERT INTO scenes (id, production_id, number, story_order) VALUES (gen_random_uuid(), :pid, '1', 1) RETURNING id`,
+    { replacements: { pid: p.id }, type: (await import("sequelize")).QueryTypes.SELECT },
+  );
   const uploadMs: number[] = [];
   for (const jpeg of jpegs) {
     const t0 = performance.now();
-    await agent.post(`/api/productions/${p.id}/photos`).set("X-CSRF-Token", csrf).field("ownerType", "scene").field("ownerId", scene!.id).field("view", "front").attach("file", jpeg, { filename: "frame.jpg", contentType: "image/jpeg" }).expect(201);
+    await agent
+      .post(`/api/productions/${p.id}/photos`)
+      .set("X-CSRF-Token", csrf)
+      .field("ownerType", "scene")
+      .field("ownerId", scene!.id)
+      .field("view", "front")
+      .attach("file", jpeg, { filename: "frame.jpg", contentType: "image/jpeg" })
+      .expect(201);
     uploadMs.push(performance.now() - t0);
   }
 
@@ -116,8 +153,12 @@ export async function runBreakdownBench(): Promise<BreakdownBenchResult> {
     uploadMsMedian: Math.round(median(uploadMs)),
     uploadMsAll: uploadMs.map(Math.round),
   };
-  console.log(`CSV import, ${rows} rows (scenes + ${Math.ceil(rows / 6)} shoot days), one request: median ${result.importMsMedian} ms (runs: ${result.importMsAll.join(", ")} ms)`);
-  console.log(`Photo upload, ${result.uploadMegapixels} MP JPEG (${(result.uploadBytes / 1e6).toFixed(1)} MB) → full JPEG + display/thumb WebP, stored: median ${result.uploadMsMedian} ms (runs: ${result.uploadMsAll.join(", ")} ms)`);
+  console.log(
+    `CSV import, ${rows} rows (scenes + ${Math.ceil(rows / 6)} shoot days), one request: median ${result.importMsMedian} ms (runs: ${result.importMsAll.join(", ")} ms)`,
+  );
+  console.log(
+    `Photo upload, ${result.uploadMegapixels} MP JPEG (${(result.uploadBytes / 1e6).toFixed(1)} MB) → full JPEG + display/thumb WebP, stored: median ${result.uploadMsMedian} ms (runs: ${result.uploadMsAll.join(", ")} ms)`,
+  );
   console.log(`Machine: ${os.cpus().length} × ${os.cpus()[0]?.model ?? "cpu"}, Node ${process.version}`);
 
   await closeAppResources();

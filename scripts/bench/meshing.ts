@@ -5,7 +5,13 @@ import { demoPanels, demoSeams } from "../../seeds/doubles-patterns.js";
 import { DEFAULT_MESH_EDGE_MM, meshPanelsForSimulation } from "../../shared/domain/panels/mesh.js";
 
 /** Runs the meshing benchmark and prints its figures; returns them too. */
-export function runMeshingBench(targetEdgeMm = DEFAULT_MESH_EDGE_MM): { ms: number; triangles: number; vertices: number; minAngleDeg: number; stitchPairs: number } {
+export function runMeshingBench(targetEdgeMm = DEFAULT_MESH_EDGE_MM): {
+  ms: number;
+  triangles: number;
+  vertices: number;
+  minAngleDeg: number;
+  stitchPairs: number;
+} {
   const panels = demoPanels.map((p) => ({ id: p.key, outline: p.outline }));
   const seams = demoSeams.map((s) => ({
     id: s.key,

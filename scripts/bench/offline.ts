@@ -30,7 +30,9 @@ export function runOfflineBench(): void {
   execFileSync(process.execPath, [path.resolve("node_modules/vite/bin/vite.js"), "build", "--logLevel", "error"], { stdio: "inherit" });
   const pre = precacheOf(distDir);
   const total = pre.reduce((s, f) => s + f.bytes, 0);
-  console.log(`precache: ${pre.length} files, ${kb(total)} (${total} B); budget ${kb(PRECACHE_BUDGET_BYTES)}; ratio ${(total / PRECACHE_BUDGET_BYTES).toFixed(2)} ${total <= PRECACHE_BUDGET_BYTES ? "(within budget)" : "(OVER BUDGET)"}`);
+  console.log(
+    `precache: ${pre.length} files, ${kb(total)} (${total} B); budget ${kb(PRECACHE_BUDGET_BYTES)}; ratio ${(total / PRECACHE_BUDGET_BYTES).toFixed(2)} ${total <= PRECACHE_BUDGET_BYTES ? "(within budget)" : "(OVER BUDGET)"}`,
+  );
   for (const f of [...pre].sort((a, b) => b.bytes - a.bytes).slice(0, 5)) console.log(`  ${f.url.padEnd(48)} ${kb(f.bytes)}`);
   const js = initialJs(distDir);
   const raw = js.reduce((s, f) => s + fs.statSync(path.join(distDir, f)).size, 0);

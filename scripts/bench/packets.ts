@@ -15,7 +15,13 @@ const PHOTO_BYTES = 350_000;
 /** Synthetic contents: the nesting bench's pieces repeated to 40 panels over 4 garments. */
 function benchContents(): { contents: PacketContents; photos: Map<string, Buffer> } {
   const pieces = benchPieces();
-  const garments = Array.from({ length: 4 }, (_, i) => ({ id: randomUUID(), name: `Garment ${i + 1}`, category: "jacket", tagCode: `B-${i + 1}`, fabricId: "fabric-1" }));
+  const garments = Array.from({ length: 4 }, (_, i) => ({
+    id: randomUUID(),
+    name: `Garment ${i + 1}`,
+    category: "jacket",
+    tagCode: `B-${i + 1}`,
+    fabricId: "fabric-1",
+  }));
   const panels = Array.from({ length: PANELS }, (_, i) => {
     const p = pieces[i % pieces.length]!;
     const g = garments[i % garments.length]!;
@@ -40,7 +46,16 @@ function benchContents(): { contents: PacketContents; photos: Map<string, Buffer
     const id = randomUUID();
     const key = `photos/${id}/display.jpg`;
     photos.set(key, randomBytes(PHOTO_BYTES));
-    return { id, fileName: `photos/${String(i + 1).padStart(2, "0")}-front-${id.slice(0, 8)}.jpg`, view: "front", caption: null, ownerType: "continuity_entry", ownerId: id, contentHash: "0".repeat(64), storageKey: key };
+    return {
+      id,
+      fileName: `photos/${String(i + 1).padStart(2, "0")}-front-${id.slice(0, 8)}.jpg`,
+      view: "front",
+      caption: null,
+      ownerType: "continuity_entry",
+      ownerId: id,
+      contentHash: "0".repeat(64),
+      storageKey: key,
+    };
   });
   const contents: PacketContents = {
     schemaVersion: 1,
@@ -50,7 +65,18 @@ function benchContents(): { contents: PacketContents; photos: Map<string, Buffer
     garments,
     panels,
     seams: [],
-    fabrics: [{ id: "fabric-1", name: "Wool", construction: "woven", fabricClass: "woven_medium", fibreContent: [], widthMm: 1500, simulation: fabricSimulationValues({ fabricClass: "woven_medium", tests: [] }), tests: [] }],
+    fabrics: [
+      {
+        id: "fabric-1",
+        name: "Wool",
+        construction: "woven",
+        fabricClass: "woven_medium",
+        fibreContent: [],
+        widthMm: 1500,
+        simulation: fabricSimulationValues({ fabricClass: "woven_medium", tests: [] }),
+        tests: [],
+      },
+    ],
     photos: photoRows,
     shots: [],
     measurements: null,
@@ -64,7 +90,9 @@ export async function runPacketBench(): Promise<{ buildMs: number; zipMs: number
   const { contents, photos } = benchContents();
   const publishedAt = new Date("2026-12-01T12:00:00Z");
   const t0 = performance.now();
-  const files = await buildPacketFiles(contents, { packetId: randomUUID(), version: 1, publishedAt, publishedByName: "Bench" }, async (k) => photos.get(k)!);
+  const files = await buildPacketFiles(contents, { packetId: randomUUID(), version: 1, publishedAt, publishedByName: "Bench" }, async (k) =>
+    photos.get(k)!,
+  );
   const t1 = performance.now();
   let bytes = 0;
   let last: ZipProgress | null = null;
@@ -76,7 +104,9 @@ export async function runPacketBench(): Promise<{ buildMs: number; zipMs: number
   console.log(`  ZIP streamed    ${(t2 - t1).toFixed(0)} ms`);
   console.log(`  total           ${(t2 - t0).toFixed(0)} ms`);
   console.log(`  size            ${(bytes / 1e6).toFixed(2)} MB (files ${(input / 1e6).toFixed(2)} MB)`);
-  console.log(`  progress events last at ${last ? `${(last as ZipProgress).entriesDone}/${(last as ZipProgress).entriesTotal} entries` : "none"}`);
+  console.log(
+    `  progress events last at ${last ? `${(last as ZipProgress).entriesDone}/${(last as ZipProgress).entriesTotal} entries` : "none"}`,
+  );
   return { buildMs: t1 - t0, zipMs: t2 - t1, bytes };
 }
 

@@ -8,8 +8,17 @@ import { freshDatabase, seedDatabase, signIn, startSeamscene } from "./lib/proce
 const [which = "garments", secondsArg = "10"] = process.argv.slice(2);
 const dir = path.resolve(".data/bench/profile");
 
-interface Node { id: number; callFrame: { url: string; functionName: string }; children?: number[] }
-interface Profile { nodes: Node[]; samples: number[]; timeDeltas: number[]; startTime: number }
+interface Node {
+  id: number;
+  callFrame: { url: string; functionName: string };
+  children?: number[];
+}
+interface Profile {
+  nodes: Node[];
+  samples: number[];
+  timeDeltas: number[];
+  startTime: number;
+}
 
 let topFunctions: Array<[string, number]> = [];
 
@@ -33,7 +42,17 @@ function summarise(profile: Profile, fromUs: number, toUs: number): Array<[strin
     const url = byId.get(id)?.callFrame.url ?? "";
     const fn = byId.get(id)?.callFrame.functionName ?? "";
     const m = /node_modules\/((?:@[^/]+\/)?[^/]+)/.exec(url);
-    const key = m ? m[1]! : url.includes("/server/") ? `server/${url.split("/server/")[1]!.split("/")[0]}` : url.includes("/shared/") ? "shared" : url.startsWith("node:") ? `${url.split("/").slice(0, 3).join("/")}` : fn ? `(${fn})` : "(other)";
+    const key = m
+      ? m[1]!
+      : url.includes("/server/")
+        ? `server/${url.split("/server/")[1]!.split("/")[0]}`
+        : url.includes("/shared/")
+          ? "shared"
+          : url.startsWith("node:")
+            ? `${url.split("/").slice(0, 3).join("/")}`
+            : fn
+              ? `(${fn})`
+              : "(other)";
     out.set(key, (out.get(key) ?? 0) + t);
     total += t;
   }
@@ -45,7 +64,11 @@ async function main() {
   fs.rmSync(dir, { recursive: true, force: true });
   const databaseUrl = await freshDatabase("seamscene_bench");
   seedDatabase(databaseUrl);
-  const app = await startSeamscene({ databaseUrl, logFile: path.join(dir, "server.log"), nodeArgs: ["--cpu-prof", `--cpu-prof-dir=${dir}`] });
+  const app = await startSeamscene({
+    databaseUrl,
+    logFile: path.join(dir, "server.log"),
+    nodeArgs: ["--cpu-prof", `--cpu-prof-dir=${dir}`],
+  });
   const { cookie, me } = await signIn(app.url, "supervisor@seamscene.test", "seamscene-demo");
   const pid = me.memberships.find((m) => m.title === "Saltmarsh Hollow")!.productionId;
   const paths: Record<string, string> = {
@@ -61,9 +84,16 @@ async function main() {
   await app.stop();
   const file = fs.readdirSync(dir).find((f) => f.endsWith(".cpuprofile"));
   if (!file) throw new Error("no profile written");
-  for (const [k, share] of summarise(JSON.parse(fs.readFileSync(path.join(dir, file), "utf8")) as Profile, from, to).slice(0, 25)) console.log(`${(share * 100).toFixed(1).padStart(5)} %  ${k}`);
+  for (const [k, share] of summarise(JSON.parse(fs.readFileSync(path.join(dir, file), "utf8")) as Profile, from, to).slice(0, 25))
+    console.log(`${(share * 100).toFixed(1).padStart(5)} %  ${k}`);
   console.log("\nTop functions (self time):");
   for (const [k, share] of topFunctions.slice(0, 30)) console.log(`${(share * 100).toFixed(1).padStart(5)} %  ${k}`);
 }
 
-main().then(() => process.exit(0), (err) => { console.error(err); process.exit(1); });
+main().then(
+  () => process.exit(0),
+  (err) => {
+    console.error(err);
+    process.exit(1);
+  },
+);

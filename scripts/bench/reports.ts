@@ -19,7 +19,13 @@ async function benchPhotos(): Promise<Map<string, Buffer>> {
   const store = new Map<string, Buffer>();
   const hues = ["#2B3A67", "#B5452E", "#C98B2B", "#5B6770", "#3D6B4F", "#6B3D5E"];
   for (let i = 0; i < SCENES * PHOTOS_PER_SCENE; i++) {
-    const img = await renderSwatch({ width: 900, height: 1200, background: hues[i % hues.length]!, label: `Scene ${Math.floor(i / PHOTOS_PER_SCENE) + 1}`, sublabel: `${VIEWS[i % PHOTOS_PER_SCENE]} · photo ${i + 1}` });
+    const img = await renderSwatch({
+      width: 900,
+      height: 1200,
+      background: hues[i % hues.length]!,
+      label: `Scene ${Math.floor(i / PHOTOS_PER_SCENE) + 1}`,
+      sublabel: `${VIEWS[i % PHOTOS_PER_SCENE]} · photo ${i + 1}`,
+    });
     const v = await makeVariants(img);
     store.set(`bench/${i}/thumb.webp`, v.files.thumb.body);
     store.set(`bench/${i}/display.webp`, v.files.display.body);
@@ -48,7 +54,15 @@ function benchModel(size: BookPhotoSize): BookModel {
     notes: ["Logged 2030-09-02: Collar open, left cuff rolled twice."],
     photos: VIEWS.map((view, v) => ({ id: `${s}-${v}`, view, caption: null, key: `bench/${s * PHOTOS_PER_SCENE + v}/${size}.webp` })),
   }));
-  return { productionTitle: "Benchmark production", stage: false, characterName: "Bench Character", changeLabel: null, printedOn: "2030-09-01", paperSize: "A4", scenes };
+  return {
+    productionTitle: "Benchmark production",
+    stage: false,
+    characterName: "Bench Character",
+    changeLabel: null,
+    printedOn: "2030-09-01",
+    paperSize: "A4",
+    scenes,
+  };
 }
 
 async function renderOnce(store: Map<string, Buffer>, size: BookPhotoSize) {
@@ -81,7 +95,9 @@ async function renderOnce(store: Map<string, Buffer>, size: BookPhotoSize) {
 export async function runReportsBench(): Promise<void> {
   const store = await benchPhotos();
   const storeBytes = [...store.values()].reduce((s, b) => s + b.length, 0);
-  console.log(`photos prepared: ${store.size / 2} × (thumbnail + display), ${(storeBytes / 1048576).toFixed(1)} MB held as "storage" (not counted below)`);
+  console.log(
+    `photos prepared: ${store.size / 2} × (thumbnail + display), ${(storeBytes / 1048576).toFixed(1)} MB held as "storage" (not counted below)`,
+  );
   await renderOnce(store, "thumb"); // warm-up: fonts, sharp, JIT
   for (const size of ["thumb", "display"] as const) {
     const r = await renderOnce(store, size);

@@ -35,7 +35,9 @@ export async function runScaleBench(dir: string): Promise<void> {
     const first = await timed(`${base}/snags`, cookie);
     const cached: number[] = [];
     for (let i = 0; i < 5; i++) cached.push((await timed(`${base}/snags`, cookie)).ms);
-    console.log(`  snags, first read after start (computed): ${first.ms.toFixed(0)} ms for ${(first.bytes / 1e6).toFixed(1)} MB (target ≤ 2000 ms) ${first.ms <= 2000 ? "met" : "NOT met"}`);
+    console.log(
+      `  snags, first read after start (computed): ${first.ms.toFixed(0)} ms for ${(first.bytes / 1e6).toFixed(1)} MB (target ≤ 2000 ms) ${first.ms <= 2000 ? "met" : "NOT met"}`,
+    );
     console.log(`  snags, from the cache: median ${median(cached).toFixed(0)} ms of 5 reads`);
 
     const pages: Array<[string, string]> = [

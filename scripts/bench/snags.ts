@@ -58,15 +58,21 @@ export function runSnagBench(options: { referenceAt10x?: boolean; log?: (line: s
     `${s.scenes.length} scenes, ${s.shootDays.length} shoot days, ${s.characters.length} characters, ` +
     `${s.garments.length} garments, ${s.multiplesGroups.length} groups, ${s.appearances.length} appearances`;
   log(`snags 1x : ${describe(s1)}`);
-  log(`  engine ${e1.ms.toFixed(1)} ms wall (${e1.cpuMs.toFixed(1)} ms CPU), reference ${r1.ms.toFixed(1)} ms, ` +
-    `ratio ${(r1.ms / e1.ms).toFixed(1)}x, ${e1.result.length} snags, reference agrees: ${same1}`);
+  log(
+    `  engine ${e1.ms.toFixed(1)} ms wall (${e1.cpuMs.toFixed(1)} ms CPU), reference ${r1.ms.toFixed(1)} ms, ` +
+      `ratio ${(r1.ms / e1.ms).toFixed(1)}x, ${e1.result.length} snags, reference agrees: ${same1}`,
+  );
   log(`snags 10x: ${describe(s10)}`);
-  log(`  engine ${e10.ms.toFixed(1)} ms wall (${e10.cpuMs.toFixed(1)} ms CPU), ${e10.result.length} snags` +
-    (r10
-      ? `, reference ${r10.ms.toFixed(0)} ms, ratio ${(r10.ms / e10.ms).toFixed(1)}x`
-      : ", reference not run at 10x (about 100x its 1x time; pass --reference-10x)"));
-  log(`  growth 1x -> 10x: ${growth.toFixed(1)}x wall, ${growthCpu.toFixed(1)}x CPU (target <= ~12x); ` +
-    `medians of 21 (1x) and 7 (10x) runs`);
+  log(
+    `  engine ${e10.ms.toFixed(1)} ms wall (${e10.cpuMs.toFixed(1)} ms CPU), ${e10.result.length} snags` +
+      (r10
+        ? `, reference ${r10.ms.toFixed(0)} ms, ratio ${(r10.ms / e10.ms).toFixed(1)}x`
+        : ", reference not run at 10x (about 100x its 1x time; pass --reference-10x)"),
+  );
+  log(
+    `  growth 1x -> 10x: ${growth.toFixed(1)}x wall, ${growthCpu.toFixed(1)}x CPU (target <= ~12x); ` +
+      `medians of 21 (1x) and 7 (10x) runs`,
+  );
   return {
     scale1: {
       appearances: s1.appearances.length,

@@ -25,7 +25,8 @@ function ellipseLwpolyline(n: number, a: number, b: number, cx = 0, cy = 0): str
   }
   return `0\nLWPOLYLINE\n8\n0\n90\n${n}\n70\n1\n${pts.join("\n")}`;
 }
-const dxfFile = (...entities: string[]) => `0\nSECTION\n2\nHEADER\n9\n$INSUNITS\n70\n4\n0\nENDSEC\n0\nSECTION\n2\nENTITIES\n${entities.join("\n")}\n0\nENDSEC\n0\nEOF\n`;
+const dxfFile = (...entities: string[]) =>
+  `0\nSECTION\n2\nHEADER\n9\n$INSUNITS\n70\n4\n0\nENDSEC\n0\nSECTION\n2\nENTITIES\n${entities.join("\n")}\n0\nENDSEC\n0\nEOF\n`;
 
 function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -105,13 +106,20 @@ interface Phase {
 function printPhase(p: Phase) {
   const h = p.health;
   console.log(
-    `  ${p.name.padEnd(44)} ${p.outcome.padEnd(30)} ${p.workMs.toFixed(0).padStart(6)} ms | health n=${String(h.length).padStart(4)} p50 ${pct(h, 50).toFixed(1).padStart(6)} ms  p99 ${pct(h, 99).toFixed(1).padStart(6)} ms  max ${Math.max(...h).toFixed(1).padStart(6)} ms`,
+    `  ${p.name.padEnd(44)} ${p.outcome.padEnd(30)} ${p.workMs.toFixed(0).padStart(6)} ms | health n=${String(h.length).padStart(4)} p50 ${pct(h, 50).toFixed(1).padStart(6)} ms  p99 ${pct(h, 99).toFixed(1).padStart(6)} ms  max ${Math.max(
+      ...h,
+    )
+      .toFixed(1)
+      .padStart(6)} ms`,
   );
 }
 
 /** Runs the phases against a server process and prints the figures. */
 export async function runUploadsBench(): Promise<Phase[]> {
-  const pg = await ensureLocalPostgres({ dataDir: process.env.PGDATA_DIR ?? path.resolve(".data/pg"), port: Number(process.env.PGPORT ?? 5433) });
+  const pg = await ensureLocalPostgres({
+    dataDir: process.env.PGDATA_DIR ?? path.resolve(".data/pg"),
+    port: Number(process.env.PGPORT ?? 5433),
+  });
   await dropDatabase(pg.adminUrl, DB);
   const databaseUrl = await ensureDatabase(pg, DB);
   process.env.DATABASE_URL = databaseUrl;
@@ -129,15 +137,29 @@ export async function runUploadsBench(): Promise<Phase[]> {
 
   // Data: a supervisor, a vfx recipient, one change with 4 garments and 100 panels of 1,000 points.
   const password = "bench-password-1234";
-  const sup = await User.create({ email: "bench-sup@bench.invalid", name: "Bench Supervisor", passwordHash: await hashPassword(password), isActive: true, lastProductionId: null });
-  const vfx = await User.create({ email: "bench-vfx@bench.invalid", name: "Bench Artist", passwordHash: await hashPassword(password), isActive: true, lastProductionId: null });
+  const sup = await User.create({
+    email: "bench-sup@bench.invalid",
+    name: "Bench Supervisor",
+    passwordHash: await hashPassword(password),
+    isActive: true,
+    lastProductionId: null,
+  });
+  const vfx = await User.create({
+    email: "bench-vfx@bench.invalid",
+    name: "Bench Artist",
+    passwordHash: await hashPassword(password),
+    isActive: true,
+    lastProductionId: null,
+  });
   const prod = await Production.create({ title: "Bench production", kind: "film", startsOn: null, endsOn: null, createdBy: null });
   await Membership.create({ productionId: prod.id, userId: sup.id, role: "supervisor" });
   await Membership.create({ productionId: prod.id, userId: vfx.id, role: "vfx" });
   const insert = async (table: string, row: Record<string, unknown>) => {
     const id = randomUUID();
     const cols = Object.keys(row);
-    await sequelize.query(`INSERT INTO ${table} (id, ${cols.join(", ")}) VALUES (:id, ${cols.map((c) => `:${c}`).join(", ")})`, { replacements: { id, ...row } });
+    await sequelize.query(`INSERT INTO ${table} (id, ${cols.join(", ")}) VALUES (:id, ${cols.map((c) => `:${c}`).join(", ")})`, {
+      replacements: { id, ...row },
+    });
     return id;
   };
   const performerId = await insert("performers", { production_id: prod.id, name: "Bench Performer" });
@@ -145,7 +167,13 @@ export async function runUploadsBench(): Promise<Phase[]> {
   const changeId = await insert("changes", { production_id: prod.id, character_id: characterId, number: 1, description: "Bench change" });
   const garmentIds: string[] = [];
   for (let g = 0; g < 4; g++) {
-    const gid = await insert("garments", { production_id: prod.id, tag_code: `BN${g}${randomUUID().slice(0, 4)}`, name: `Garment ${g + 1}`, category: "coat", source: "built" });
+    const gid = await insert("garments", {
+      production_id: prod.id,
+      tag_code: `BN${g}${randomUUID().slice(0, 4)}`,
+      name: `Garment ${g + 1}`,
+      category: "coat",
+      source: "built",
+    });
     await insert("change_items", { production_id: prod.id, change_id: changeId, label: `Item ${g + 1}`, garment_id: gid, sort_order: g });
     garmentIds.push(gid);
   }
@@ -159,7 +187,10 @@ export async function runUploadsBench(): Promise<Phase[]> {
         const t = (2 * Math.PI * k) / panelPoints;
         return [Math.round(300 * Math.cos(t) * 1000) / 1000, Math.round(450 * Math.sin(t) * 1000) / 1000] as [number, number];
       }),
-      grainline: [[0, -300], [0, 300]] as [[number, number], [number, number]],
+      grainline: [
+        [0, -300],
+        [0, 300],
+      ] as [[number, number], [number, number]],
       notches: [],
       seamAllowanceMm: 15,
       cutCount: 2,
@@ -174,10 +205,31 @@ export async function runUploadsBench(): Promise<Phase[]> {
 
   // The server, as its own process.
   const port = await freePort();
-  const server: ChildProcess = spawn(process.execPath, [...(process.env.BENCH_CPU_PROF ? ["--cpu-prof", `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`] : []), "--import", "tsx", "server/index.ts"], {
-    env: { ...process.env, PORT: String(port), HOST: "127.0.0.1", DATABASE_URL: databaseUrl, NODE_ENV: "test", LOG_LEVEL: "silent", JOBS_ENABLED: "false", STORAGE_DRIVER: "disk", STORAGE_DIR: storageDir, SMTP_HOST: "127.0.0.1", SMTP_PORT: String(smtp.port) },
-    stdio: ["ignore", "inherit", "inherit"],
-  });
+  const server: ChildProcess = spawn(
+    process.execPath,
+    [
+      ...(process.env.BENCH_CPU_PROF ? ["--cpu-prof", `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`] : []),
+      "--import",
+      "tsx",
+      "server/index.ts",
+    ],
+    {
+      env: {
+        ...process.env,
+        PORT: String(port),
+        HOST: "127.0.0.1",
+        DATABASE_URL: databaseUrl,
+        NODE_ENV: "test",
+        LOG_LEVEL: "silent",
+        JOBS_ENABLED: "false",
+        STORAGE_DRIVER: "disk",
+        STORAGE_DIR: storageDir,
+        SMTP_HOST: "127.0.0.1",
+        SMTP_PORT: String(smtp.port),
+      },
+      stdio: ["ignore", "inherit", "inherit"],
+    },
+  );
   const base = `http://127.0.0.1:${port}`;
   const phases: Phase[] = [];
   try {
@@ -211,7 +263,9 @@ export async function runUploadsBench(): Promise<Phase[]> {
       return form;
     };
 
-    console.log(`server process on :${port}; worker threads ${process.env.WORKER_THREADS ?? "default"}; target: health p99 under ${TARGET_P99_MS} ms while heavy work runs`);
+    console.log(
+      `server process on :${port}; worker threads ${process.env.WORKER_THREADS ?? "default"}; target: health p99 under ${TARGET_P99_MS} ms while heavy work runs`,
+    );
     await measure("idle", async () => {
       await new Promise((r) => setTimeout(r, 1500));
       return "—";
@@ -236,7 +290,9 @@ export async function runUploadsBench(): Promise<Phase[]> {
     });
     const heavy = phases.slice(1).flatMap((x) => x.health);
     const p99 = pct(heavy, 99);
-    console.log(`  health p99 over all heavy phases: ${p99.toFixed(1)} ms (target < ${TARGET_P99_MS} ms: ${p99 < TARGET_P99_MS ? "met" : "NOT met"}); ratio to idle p99 ${(p99 / pct(phases[0]!.health, 99)).toFixed(2)}`);
+    console.log(
+      `  health p99 over all heavy phases: ${p99.toFixed(1)} ms (target < ${TARGET_P99_MS} ms: ${p99 < TARGET_P99_MS ? "met" : "NOT met"}); ratio to idle p99 ${(p99 / pct(phases[0]!.health, 99)).toFixed(2)}`,
+    );
   } finally {
     server.kill("SIGTERM");
     await new Promise((r) => server.once("exit", r));

@@ -87,7 +87,9 @@ function median(values: number[]): number {
 }
 
 /** Runs the benchmark, prints its figures and returns them. */
-export function runWorkroomBench(options: { tickets?: number; people?: number; shootDays?: number; repeats?: number } = {}): WorkroomBenchResult {
+export function runWorkroomBench(
+  options: { tickets?: number; people?: number; shootDays?: number; repeats?: number } = {},
+): WorkroomBenchResult {
   const ticketCount = options.tickets ?? 600;
   const peopleCount = options.people ?? 8;
   const shootDayCount = options.shootDays ?? 90;

@@ -80,7 +80,9 @@ export async function createBackup(ctx: BackupContext, outFile: string): Promise
     ctx.log("Dumping the database…");
     run("pg_dump", ["--format=custom", "--no-owner", "--no-privileges", "--file", dumpFile], pgEnv(ctx.databaseUrl));
     const dump = fs.readFileSync(dumpFile);
-    const [latest] = await query<{ name: string }>(ctx.databaseUrl, `SELECT name FROM schema_migrations ORDER BY name DESC LIMIT 1`).catch(() => []);
+    const [latest] = await query<{ name: string }>(ctx.databaseUrl, `SELECT name FROM schema_migrations ORDER BY name DESC LIMIT 1`).catch(
+      () => [],
+    );
 
     const manifest: BackupManifest = {
       format: BACKUP_FORMAT,
@@ -94,10 +96,15 @@ export async function createBackup(ctx: BackupContext, outFile: string): Promise
     const pack = tar.pack();
     const written = pipeline(pack, fs.createWriteStream(outFile, { mode: 0o600 }));
     const add = (name: string, body: Buffer) =>
-      new Promise<void>((resolve, reject) => pack.entry({ name, size: body.length, mode: 0o600 }, body, (err) => (err ? reject(err) : resolve())));
+      new Promise<void>((resolve, reject) =>
+        pack.entry({ name, size: body.length, mode: 0o600 }, body, (err) => (err ? reject(err) : resolve())),
+      );
     await add("database.dump", dump);
 
-    const keys = (await ctx.storage.list()).map((f) => f.key).filter((k) => !k.endsWith(".tmp")).sort();
+    const keys = (await ctx.storage.list())
+      .map((f) => f.key)
+      .filter((k) => !k.endsWith(".tmp"))
+      .sort();
     ctx.log(`Adding ${keys.length} stored files…`);
     for (const key of keys) {
       const body = await ctx.storage.get(key);
@@ -135,7 +142,8 @@ async function unpackVerified(file: string, work: string): Promise<BackupManifes
 
   if (!seen.has("manifest.json")) throw new Error(`${file} is not a Seamscene backup (no manifest.json).`);
   const manifest = JSON.parse(fs.readFileSync(path.join(work, "manifest.json"), "utf8")) as BackupManifest;
-  if (manifest.format !== BACKUP_FORMAT || manifest.version !== BACKUP_VERSION) throw new Error(`${file}: unknown backup format ${manifest.format} ${manifest.version}.`);
+  if (manifest.format !== BACKUP_FORMAT || manifest.version !== BACKUP_VERSION)
+    throw new Error(`${file}: unknown backup format ${manifest.format} ${manifest.version}.`);
   const problems: string[] = [];
   const check = (p: string, bytes: number, sum: string) => {
     const full = path.join(work, ...p.split("/"));
@@ -151,14 +159,24 @@ async function unpackVerified(file: string, work: string): Promise<BackupManifes
   return manifest;
 }
 
-const contentTypes: Record<string, string> = { ".jpg": "image/jpeg", ".jpeg": "image/jpeg", ".webp": "image/webp", ".png": "image/png", ".zip": "application/zip", ".pdf": "application/pdf" };
+const contentTypes: Record<string, string> = {
+  ".jpg": "image/jpeg",
+  ".jpeg": "image/jpeg",
+  ".webp": "image/webp",
+  ".png": "image/png",
+  ".zip": "application/zip",
+  ".pdf": "application/pdf",
+};
 
 /**
  * Restores an archive into an empty database and an empty storage. Everything is checked first;
  * the database is restored in one transaction, then the files are written.
  */
 export async function restoreBackup(ctx: BackupContext, file: string): Promise<BackupManifest> {
-  const [{ n }] = await query<{ n: string }>(ctx.databaseUrl, `SELECT count(*) AS n FROM pg_tables WHERE schemaname NOT IN ('pg_catalog', 'information_schema')`);
+  const [{ n }] = await query<{ n: string }>(
+    ctx.databaseUrl,
+    `SELECT count(*) AS n FROM pg_tables WHERE schemaname NOT IN ('pg_catalog', 'information_schema')`,
+  );
   if (Number(n) > 0) {
     throw new Error(
       `The database ${new URL(ctx.databaseUrl).pathname.slice(1)} is not empty (${n} tables); restore only goes into an empty one.\n` +
@@ -166,7 +184,10 @@ export async function restoreBackup(ctx: BackupContext, file: string): Promise<B
     );
   }
   const existing = (await ctx.storage.list()).length;
-  if (existing > 0) throw new Error(`The storage already holds ${existing} files; restore only goes into an empty storage (set STORAGE_DIR or S3_BUCKET to an empty one).`);
+  if (existing > 0)
+    throw new Error(
+      `The storage already holds ${existing} files; restore only goes into an empty storage (set STORAGE_DIR or S3_BUCKET to an empty one).`,
+    );
 
   const work = privateDir(ctx.workDir, "restore-");
   try {
@@ -182,7 +203,21 @@ export async function restoreBackup(ctx: BackupContext, file: string): Promise<B
       .join("\n");
     const listFile = path.join(work, "restore.list");
     fs.writeFileSync(listFile, list, { mode: 0o600 });
-    run("pg_restore", ["--no-owner", "--no-privileges", "--exit-on-error", "--single-transaction", "--use-list", listFile, "--dbname", env.PGDATABASE!, dump], env);
+    run(
+      "pg_restore",
+      [
+        "--no-owner",
+        "--no-privileges",
+        "--exit-on-error",
+        "--single-transaction",
+        "--use-list",
+        listFile,
+        "--dbname",
+        env.PGDATABASE!,
+        dump,
+      ],
+      env,
+    );
     ctx.log(`Restoring ${manifest.files.length} stored files…`);
     for (const f of manifest.files) {
       const body = fs.readFileSync(path.join(work, ...f.path.split("/")));

@@ -11,7 +11,11 @@ export function startBanner(p: {
   mailTo: string;
   demoAccounts: ReadonlyArray<{ role: string; email: string; password: string }>;
 }): string[] {
-  const lines = [`\nSeamscene is running at ${p.url}${p.seeded ? " (demo data loaded)" : ""}`, ...(p.database ? [p.database] : []), `Mail goes to ${p.mailTo}`];
+  const lines = [
+    `\nSeamscene is running at ${p.url}${p.seeded ? " (demo data loaded)" : ""}`,
+    ...(p.database ? [p.database] : []),
+    `Mail goes to ${p.mailTo}`,
+  ];
   if (!p.production && p.demoAccounts.length) {
     lines.push(`\nDemo accounts (password for all: ${p.demoAccounts[0]!.password}):`);
     for (const a of p.demoAccounts) lines.push(`  ${a.role.padEnd(13)} ${a.email}`);

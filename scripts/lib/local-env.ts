@@ -12,7 +12,9 @@ export async function prepareLocalEnv(): Promise<{ pg?: LocalPostgres; startSmtp
     const port = Number(process.env.PGPORT ?? 5433);
     pg = await ensureLocalPostgres({ dataDir, port });
     if (pg.relocatedFrom) {
-      console.log(`PostgreSQL keeps its data in ${pg.dataDir}: the postgres user cannot enter ${pg.relocatedFrom} (a parent folder is private).`);
+      console.log(
+        `PostgreSQL keeps its data in ${pg.dataDir}: the postgres user cannot enter ${pg.relocatedFrom} (a parent folder is private).`,
+      );
     }
     process.env.DATABASE_URL = await ensureDatabase(pg, process.env.PGDATABASE ?? "seamscene");
   }

@@ -58,7 +58,10 @@ function findBinDir(): string {
   if (isRoot()) {
     console.log("PostgreSQL server binaries are missing; installing Debian's postgresql package…");
     execFileSync("apt-get", ["update", "-qq"], { stdio: "inherit" });
-    execFileSync("apt-get", ["install", "-y", "-qq", "postgresql"], { stdio: "inherit", env: { ...process.env, DEBIAN_FRONTEND: "noninteractive" } });
+    execFileSync("apt-get", ["install", "-y", "-qq", "postgresql"], {
+      stdio: "inherit",
+      env: { ...process.env, DEBIAN_FRONTEND: "noninteractive" },
+    });
     return findBinDir();
   }
   throw new Error(
@@ -184,7 +187,8 @@ function readCredentials(dataDir: string): Credentials | null {
       const [, , , user, password] = l.split(":");
       return { user: user ?? "", password: password ?? "" };
     });
-  if (logins.length < 2 || !logins[0]!.user || !logins[1]!.user) throw new Error(`${file} is damaged: expected two logins (superuser, app).`);
+  if (logins.length < 2 || !logins[0]!.user || !logins[1]!.user)
+    throw new Error(`${file} is damaged: expected two logins (superuser, app).`);
   return { admin: logins[0]!, app: logins[1]! };
 }
 
@@ -262,7 +266,18 @@ function initCluster(binDir: string, dataDir: string): void {
     const pwFile = path.join(pwDir, "pw");
     fs.writeFileSync(pwFile, creds.admin.password, { mode: 0o600 });
     if (isRoot()) execFileSync("chown", ["-R", "postgres:postgres", staging, pwDir]);
-    runPg(path.join(binDir, "initdb"), ["-D", staging, "-U", ADMIN_ROLE, `--pwfile=${pwFile}`, "-A", "scram-sha-256", "-E", "UTF8", "--no-locale"]);
+    runPg(path.join(binDir, "initdb"), [
+      "-D",
+      staging,
+      "-U",
+      ADMIN_ROLE,
+      `--pwfile=${pwFile}`,
+      "-A",
+      "scram-sha-256",
+      "-E",
+      "UTF8",
+      "--no-locale",
+    ]);
     writeClusterFile(staging, "pg_hba.conf", HBA);
     const createApp = `CREATE ROLE ${quoteIdent(APP_ROLE)} LOGIN NOSUPERUSER NOCREATEDB NOCREATEROLE NOREPLICATION PASSWORD ${quoteLiteral(scramVerifier(creds.app.password))};\n`;
     runPg(path.join(binDir, "postgres"), ["--single", "-j", "-D", staging, "postgres"], { input: createApp });
@@ -293,7 +308,8 @@ type PgClient = Awaited<ReturnType<typeof connect>>;
  */
 async function reassignDatabaseObjects(db: PgClient, from: string, to: string): Promise<void> {
   const notSystem = `n.nspname NOT IN ('pg_catalog', 'information_schema') AND n.nspname NOT LIKE 'pg\\_%'`;
-  const notDependent = (oidExpr: string, kinds: string) => `NOT EXISTS (SELECT 1 FROM pg_depend d WHERE d.objid = ${oidExpr} AND d.deptype IN (${kinds}))`;
+  const notDependent = (oidExpr: string, kinds: string) =>
+    `NOT EXISTS (SELECT 1 FROM pg_depend d WHERE d.objid = ${oidExpr} AND d.deptype IN (${kinds}))`;
   const owner = `(SELECT oid FROM pg_roles WHERE rolname = $1)`;
   const schemas = await db.query<{ name: string }>(
     `SELECT quote_ident(n.nspname) AS name FROM pg_namespace n WHERE n.nspowner = ${owner} AND ${notSystem} AND ${notDependent("n.oid", "'e'")}`,
@@ -329,14 +345,19 @@ async function reassignDatabaseObjects(db: PgClient, from: string, to: string): 
  * app's role, gives it every database and its objects, then switches pg_hba.conf to SCRAM and reloads.
  */
 async function secureOldCluster(dataDir: string, port: number, known: Credentials | null): Promise<Credentials> {
-  const creds: Credentials = known ?? { admin: { user: LEGACY_SUPERUSER, password: newPassword() }, app: { user: APP_ROLE, password: newPassword() } };
+  const creds: Credentials = known ?? {
+    admin: { user: LEGACY_SUPERUSER, password: newPassword() },
+    app: { user: APP_ROLE, password: newPassword() },
+  };
   writeCredentials(dataDir, creds);
   const admin = await connect(port, creds.admin, "postgres");
   let databases: string[];
   try {
     await admin.query(`ALTER ROLE ${quoteIdent(creds.admin.user)} PASSWORD ${quoteLiteral(scramVerifier(creds.admin.password))}`);
     await ensureAppRole(admin, creds.app);
-    const { rows } = await admin.query<{ datname: string }>(`SELECT datname FROM pg_database WHERE datallowconn AND datname NOT IN ('postgres', 'template0', 'template1')`);
+    const { rows } = await admin.query<{ datname: string }>(
+      `SELECT datname FROM pg_database WHERE datallowconn AND datname NOT IN ('postgres', 'template0', 'template1')`,
+    );
     databases = rows.map((r) => r.datname);
     for (const name of databases) await admin.query(`ALTER DATABASE ${quoteIdent(name)} OWNER TO ${quoteIdent(creds.app.user)}`);
   } finally {
@@ -362,7 +383,9 @@ async function secureOldCluster(dataDir: string, port: number, known: Credential
 async function ensureAppRole(admin: PgClient, app: RoleLogin): Promise<void> {
   const exists = await admin.query("SELECT 1 FROM pg_roles WHERE rolname = $1", [app.user]);
   const verb = exists.rowCount ? "ALTER" : "CREATE";
-  await admin.query(`${verb} ROLE ${quoteIdent(app.user)} LOGIN NOSUPERUSER NOCREATEDB NOCREATEROLE NOREPLICATION NOBYPASSRLS PASSWORD ${quoteLiteral(scramVerifier(app.password))}`);
+  await admin.query(
+    `${verb} ROLE ${quoteIdent(app.user)} LOGIN NOSUPERUSER NOCREATEDB NOCREATEROLE NOREPLICATION NOBYPASSRLS PASSWORD ${quoteLiteral(scramVerifier(app.password))}`,
+  );
 }
 
 function urlFor(login: RoleLogin, port: number, database: string): string {
@@ -385,7 +408,16 @@ export async function ensureLocalPostgres(options: { dataDir: string; port: numb
     if (!(await portIsFree(port))) throw new Error(`Port ${port} on 127.0.0.1 is taken; set PGPORT to another port.`);
     const started = pgCtl(
       dataDir,
-      ["-w", "-t", "60", "-l", path.join(dataDir, "server.log"), "-o", `-h 127.0.0.1 -p ${port} -k '' -c fsync=${durable ? "on" : "off"} -c max_connections=200`, "start"],
+      [
+        "-w",
+        "-t",
+        "60",
+        "-l",
+        path.join(dataDir, "server.log"),
+        "-o",
+        `-h 127.0.0.1 -p ${port} -k '' -c fsync=${durable ? "on" : "off"} -c max_connections=200`,
+        "start",
+      ],
       { allowFail: true },
     );
     // Another instance may have started it a moment ago; then it is theirs to stop.
@@ -410,7 +442,10 @@ export async function ensureLocalPostgres(options: { dataDir: string; port: numb
     const admin = await connect(port, creds.admin, "postgres");
     const { rows } = await admin.query<{ fsync: string }>("SHOW fsync");
     await admin.end();
-    if (rows[0]?.fsync !== "on") console.warn(`Warning: the PostgreSQL cluster in ${dataDir} was started by another process with fsync off; stop it so that it restarts safely.`);
+    if (rows[0]?.fsync !== "on")
+      console.warn(
+        `Warning: the PostgreSQL cluster in ${dataDir} was started by another process with fsync off; stop it so that it restarts safely.`,
+      );
   }
 
   const found = creds;
@@ -439,7 +474,9 @@ export async function ensureDatabase(pgc: DatabaseAdmin, name: string, template?
   try {
     const exists = await client.query("SELECT 1 FROM pg_database WHERE datname = $1", [name]);
     if (exists.rowCount === 0) {
-      await client.query(`CREATE DATABASE ${quoteIdent(name)} OWNER ${quoteIdent(pgc.app.user)}${template ? ` TEMPLATE ${quoteIdent(template)}` : ""}`);
+      await client.query(
+        `CREATE DATABASE ${quoteIdent(name)} OWNER ${quoteIdent(pgc.app.user)}${template ? ` TEMPLATE ${quoteIdent(template)}` : ""}`,
+      );
     }
   } finally {
     await client.end();

@@ -9,28 +9,29 @@ import { verifyPassword } from "./passwords.js";
 const DUMMY_HASH = "scrypt$32768$8$1$AAAAAAAAAAAAAAAAAAAAAA==$" + Buffer.alloc(64).toString("base64");
 
 passport.use(
-  new LocalStrategy({ usernameField: "email", passwordField: "password" }, async (email, password, done) => {
-    try {
+  new LocalStrategy({ usernameField: "email", passwordField: "password" }, (email, password, done) => {
+    // Passport's callback style: the promise settles into done(), errors included.
+    void (async () => {
       // The route already normalised the address (emailSchema); one normalisation for limiter and sign-in.
       const user = await User.findOne({ where: { email } });
       const ok = await verifyPassword(password, user?.passwordHash ?? DUMMY_HASH);
-      if (!user || !ok || !user.isActive) return done(null, false);
-      return done(null, user);
-    } catch (err) {
-      return done(err);
-    }
+      return !user || !ok || !user.isActive ? false : user;
+    })().then(
+      (user) => done(null, user),
+      (err: unknown) => done(err),
+    );
   }),
 );
 
 passport.serializeUser((user, done) => done(null, (user as User).id));
-passport.deserializeUser(async (id: string, done) => {
-  try {
-    // Every signed-in request: plain SQL mapped onto the model (findByPk's query building cost more than the query).
-    const [user] = await sequelize.query<User>(`SELECT * FROM users WHERE id = :id`, { replacements: { id }, type: QueryTypes.SELECT, model: User, mapToModel: true });
-    done(null, user && user.isActive ? user : false);
-  } catch (err) {
-    done(err);
-  }
+passport.deserializeUser((id: string, done) => {
+  // Every signed-in request: plain SQL mapped onto the model (findByPk's query building cost more than the query).
+  sequelize
+    .query<User>(`SELECT * FROM users WHERE id = :id`, { replacements: { id }, type: QueryTypes.SELECT, model: User, mapToModel: true })
+    .then(
+      ([user]) => done(null, user && user.isActive ? user : false),
+      (err: unknown) => done(err),
+    );
 });
 
 export { passport };

@@ -9,7 +9,10 @@ import { config } from "../config.js";
  * share; a flood of sign-ins would otherwise fill every thread and photos would queue behind the
  * hashes. Hashes wait in this queue instead, leaving threads (and a CPU core) free for everything else.
  */
-export function hashConcurrency(c: Pick<typeof config, "HASH_CONCURRENCY" | "UV_THREADPOOL_SIZE"> = config, cores = availableParallelism()): number {
+export function hashConcurrency(
+  c: Pick<typeof config, "HASH_CONCURRENCY" | "UV_THREADPOOL_SIZE"> = config,
+  cores = availableParallelism(),
+): number {
   if (c.HASH_CONCURRENCY) return c.HASH_CONCURRENCY;
   return Math.max(1, Math.min(cores - 1, Math.floor(c.UV_THREADPOOL_SIZE / 2)));
 }
@@ -40,7 +43,10 @@ export async function verifyPassword(password: string, stored: string | null): P
   if (scheme !== "scrypt" || !saltB64 || !hashB64) return false;
   const expected = Buffer.from(hashB64, "base64");
   const actual = await scrypt(password.normalize("NFKC"), Buffer.from(saltB64, "base64"), expected.length, {
-    N: Number(n), r: Number(r), p: Number(p), maxmem: 64 * 1024 * 1024,
+    N: Number(n),
+    r: Number(r),
+    p: Number(p),
+    maxmem: 64 * 1024 * 1024,
   });
   return actual.length === expected.length && timingSafeEqual(actual, expected);
 }

@@ -59,7 +59,10 @@ export function fittingEmail(p: FittingMailInput): OutgoingMail {
         : `Fitting cancelled — ${p.productionTitle}`;
   const lines =
     p.kind === "cancel"
-      ? [`Dear ${p.performer.name},`, `your costume fitting${what} on ${when} is cancelled. The costume department will be in touch about a new time.`]
+      ? [
+          `Dear ${p.performer.name},`,
+          `your costume fitting${what} on ${when} is cancelled. The costume department will be in touch about a new time.`,
+        ]
       : [
           `Dear ${p.performer.name},`,
           p.kind === "invite"

@@ -1,7 +1,15 @@
 import { emailHtml } from "./layout.js";
 
 /** The e-mail telling a vfx recipient that a packet version is ready to download. */
-export function packetPublishedEmail(p: { productionTitle: string; characterName: string; changeNumber: number; version: number; publisherName: string; url: string; changed: string | null }) {
+export function packetPublishedEmail(p: {
+  productionTitle: string;
+  characterName: string;
+  changeNumber: number;
+  version: number;
+  publisherName: string;
+  url: string;
+  changed: string | null;
+}) {
   const subject = `Handoff packet ready: ${p.characterName}, change ${p.changeNumber}, version ${p.version}`;
   const lines = [
     `${p.publisherName} published version ${p.version} of the handoff packet for ${p.characterName}, change ${p.changeNumber}, on "${p.productionTitle}".`,

@@ -17,10 +17,19 @@ export function workroomReminderEmail(p: {
   const subject = `Tomorrow in the workroom (${p.dateLabel}) — ${p.productionTitle}`;
   const lines = [`Hello ${p.name}, here is ${p.dateLabel} for "${p.productionTitle}".`];
   if (p.fittings.length) {
-    lines.push(`Fittings (${p.timeZone} time): ${p.fittings.map((f) => `${f.time} ${f.performer}${f.change ? ` (${f.change})` : ""}${f.room ? `, ${f.room}` : ""}`).join("; ")}.`);
+    lines.push(
+      `Fittings (${p.timeZone} time): ${p.fittings.map((f) => `${f.time} ${f.performer}${f.change ? ` (${f.change})` : ""}${f.room ? `, ${f.room}` : ""}`).join("; ")}.`,
+    );
   }
   if (p.tickets.length) {
-    lines.push(`Alterations due: ${p.tickets.map((t) => `${t.tag} ${t.garment} — ${t.tasks}, ${formatNumber(t.remainingHours)} h left${t.late ? " (planned to finish late)" : ""}`).join("; ")}.`);
+    lines.push(
+      `Alterations due: ${p.tickets.map((t) => `${t.tag} ${t.garment} — ${t.tasks}, ${formatNumber(t.remainingHours)} h left${t.late ? " (planned to finish late)" : ""}`).join("; ")}.`,
+    );
   }
-  return { to: p.to, subject, text: `${lines.join("\n\n")}\n\nOpen the workroom: ${p.url}\n`, html: emailHtml(lines, { label: "Open the workroom", url: p.url }) };
+  return {
+    to: p.to,
+    subject,
+    text: `${lines.join("\n\n")}\n\nOpen the workroom: ${p.url}\n`,
+    html: emailHtml(lines, { label: "Open the workroom", url: p.url }),
+  };
 }

@@ -11,7 +11,8 @@ const UNAVAILABLE_SQLSTATES = new Set(["57P01", "57P02", "57P03", "53300"]);
 /** Socket errors that count only when they concern the database's own address. */
 const SOCKET_CODES = new Set(["ECONNREFUSED", "ECONNRESET", "EPIPE", "ETIMEDOUT", "EHOSTUNREACH", "ENETUNREACH", "ENOTFOUND", "EAI_AGAIN"]);
 /** What node-postgres says when a connection dies or cannot be made. */
-const PG_MESSAGES = /^(Connection terminated|Client has encountered a connection error|Client was closed and is not queryable|timeout exceeded when trying to connect|Connection terminated due to connection timeout)/;
+const PG_MESSAGES =
+  /^(Connection terminated|Client has encountered a connection error|Client was closed and is not queryable|timeout exceeded when trying to connect|Connection terminated due to connection timeout)/;
 
 const dbPort = (() => {
   try {

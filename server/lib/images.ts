@@ -43,13 +43,19 @@ export async function makeVariants(input: string | Buffer): Promise<ImageVariant
   try {
     meta = await open(input).metadata();
   } catch (err) {
-    if ((err as Error).message?.includes("pixel limit")) throw new ImageRejectedError("too_many_pixels", `The image exceeds the ${Limits.photoMaxPixels / 1e6}-megapixel limit.`);
+    if ((err as Error).message?.includes("pixel limit"))
+      throw new ImageRejectedError("too_many_pixels", `The image exceeds the ${Limits.photoMaxPixels / 1e6}-megapixel limit.`);
     throw new ImageRejectedError("not_image", `The file is not an image we can read (${(err as Error).message}).`);
   }
-  if (!meta.format || !ACCEPTED_FORMATS.has(meta.format)) throw new ImageRejectedError("not_image", "The file is not a JPEG, PNG, WebP, AVIF, HEIF or TIFF image.");
+  if (!meta.format || !ACCEPTED_FORMATS.has(meta.format))
+    throw new ImageRejectedError("not_image", "The file is not a JPEG, PNG, WebP, AVIF, HEIF or TIFF image.");
   const w = meta.width ?? 0;
   const h = meta.height ?? 0;
-  if (w * h > Limits.photoMaxPixels) throw new ImageRejectedError("too_many_pixels", `The image is ${w} × ${h} pixels; the limit is ${Limits.photoMaxPixels / 1e6} megapixels.`);
+  if (w * h > Limits.photoMaxPixels)
+    throw new ImageRejectedError(
+      "too_many_pixels",
+      `The image is ${w} × ${h} pixels; the limit is ${Limits.photoMaxPixels / 1e6} megapixels.`,
+    );
   // EXIF orientations 5–8 are rotated a quarter turn, so width and height swap.
   const swap = (meta.orientation ?? 1) >= 5;
   const width = swap ? h : w;
@@ -59,8 +65,16 @@ export async function makeVariants(input: string | Buffer): Promise<ImageVariant
     const [original, display, thumb] = await Promise.all([
       // mozjpeg off: it is several times slower on 12-megapixel frames for a small size gain.
       base.clone().jpeg({ quality: 88, chromaSubsampling: "4:2:0" }).toBuffer(),
-      base.clone().resize({ width: Limits.photoDisplayPx, height: Limits.photoDisplayPx, fit: "inside", withoutEnlargement: true }).webp({ quality: 80 }).toBuffer(),
-      base.clone().resize({ width: Limits.photoThumbPx, height: Limits.photoThumbPx, fit: "inside", withoutEnlargement: true }).webp({ quality: 72 }).toBuffer(),
+      base
+        .clone()
+        .resize({ width: Limits.photoDisplayPx, height: Limits.photoDisplayPx, fit: "inside", withoutEnlargement: true })
+        .webp({ quality: 80 })
+        .toBuffer(),
+      base
+        .clone()
+        .resize({ width: Limits.photoThumbPx, height: Limits.photoThumbPx, fit: "inside", withoutEnlargement: true })
+        .webp({ quality: 72 })
+        .toBuffer(),
     ]);
     return {
       width,
@@ -72,19 +86,45 @@ export async function makeVariants(input: string | Buffer): Promise<ImageVariant
       },
     };
   } catch (err) {
-    if ((err as Error).message?.includes("pixel limit")) throw new ImageRejectedError("too_many_pixels", "The image exceeds the pixel limit.");
+    if ((err as Error).message?.includes("pixel limit"))
+      throw new ImageRejectedError("too_many_pixels", "The image exceeds the pixel limit.");
     throw new ImageRejectedError("not_image", `The image could not be decoded (${(err as Error).message}).`);
   }
 }
 
 /** Reads width, height, format and whether any metadata block is present (for checks and tests). */
-export async function describeImage(input: Buffer): Promise<{ width: number; height: number; format: string; hasExif: boolean; hasXmp: boolean; hasIptc: boolean; orientation: number | null }> {
+export async function describeImage(
+  input: Buffer,
+): Promise<{
+  width: number;
+  height: number;
+  format: string;
+  hasExif: boolean;
+  hasXmp: boolean;
+  hasIptc: boolean;
+  orientation: number | null;
+}> {
   const m = await sharp(input).metadata();
-  return { width: m.width ?? 0, height: m.height ?? 0, format: m.format ?? "", hasExif: Boolean(m.exif), hasXmp: Boolean(m.xmp), hasIptc: Boolean(m.iptc), orientation: m.orientation ?? null };
+  return {
+    width: m.width ?? 0,
+    height: m.height ?? 0,
+    format: m.format ?? "",
+    hasExif: Boolean(m.exif),
+    hasXmp: Boolean(m.xmp),
+    hasIptc: Boolean(m.iptc),
+    orientation: m.orientation ?? null,
+  };
 }
 
 /** Draws a plain swatch image with a label (demo data and benchmarks; never photos of people). */
-export async function renderSwatch(opts: { width: number; height: number; background: string; label: string; sublabel?: string; format?: "jpeg" | "png" }): Promise<Buffer> {
+export async function renderSwatch(opts: {
+  width: number;
+  height: number;
+  background: string;
+  label: string;
+  sublabel?: string;
+  format?: "jpeg" | "png";
+}): Promise<Buffer> {
   const esc = (s: string) => s.replace(/[&<>"]/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;" })[c]!);
   const fs = Math.round(opts.width / 14);
   const w = (f: number) => Math.round(opts.width * f);

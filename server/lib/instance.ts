@@ -26,7 +26,10 @@ function processAlive(pid: number): boolean {
  * on this host is; a dead one, or an earlier life of our own pid (containers reuse pid 1), is not.
  * Another host's is trusted for `remoteGraceMs` after it started writing.
  */
-export function writerMayBeAlive(w: { host?: string; pid: number; instance: string; startedAt?: Date }, remoteGraceMs = 3_600_000): boolean {
+export function writerMayBeAlive(
+  w: { host?: string; pid: number; instance: string; startedAt?: Date },
+  remoteGraceMs = 3_600_000,
+): boolean {
   if (w.instance === instance.id && w.pid === instance.pid) return true;
   if (w.host && w.host !== instance.host) return !!w.startedAt && Date.now() - w.startedAt.getTime() < remoteGraceMs;
   return w.pid !== instance.pid && processAlive(w.pid);

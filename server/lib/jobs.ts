@@ -69,7 +69,11 @@ export async function enqueue(name: string, data: Record<string, unknown>, optio
 }
 
 /** Runs a job's handler directly (tests), with the given attempt information; errors propagate. */
-export async function runJobNow(name: string, data: Record<string, unknown>, meta: JobMeta = { retryCount: 0, retryLimit: 0 }): Promise<void> {
+export async function runJobNow(
+  name: string,
+  data: Record<string, unknown>,
+  meta: JobMeta = { retryCount: 0, retryLimit: 0 },
+): Promise<void> {
   const def = defs.get(name);
   if (!def) throw new Error(`unknown job "${name}"`);
   await def.handler(data, meta);

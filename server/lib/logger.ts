@@ -14,7 +14,14 @@ interface LogSink {
 function defaultSink(): LogSink {
   if (logFormat(config) === "pretty") {
     // A request line's message already says method, path, status and time; the fields stay in JSON only.
-    return pretty({ destination: 1, sync: true, colorize: process.stdout.isTTY, singleLine: true, translateTime: "SYS:HH:MM:ss", ignore: "pid,hostname,method,path,status,ms" });
+    return pretty({
+      destination: 1,
+      sync: true,
+      colorize: process.stdout.isTTY,
+      singleLine: true,
+      translateTime: "SYS:HH:MM:ss",
+      ignore: "pid,hostname,method,path,status,ms",
+    });
   }
   return pino.destination({ dest: 1, sync: true });
 }

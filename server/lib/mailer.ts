@@ -34,7 +34,8 @@ export interface OutgoingMail {
 }
 
 /** Why a message is sent. Account mail (password reset) belongs to no production. */
-export type MailKind = "password_reset" | "invitation" | "packet_published" | "fitting_invite" | "fitting_update" | "fitting_cancel" | "evening_reminder";
+export type MailKind =
+  "password_reset" | "invitation" | "packet_published" | "fitting_invite" | "fitting_update" | "fitting_cancel" | "evening_reminder";
 
 /** What a message is about: its kind and the production it was sent for (null for account mail). */
 export interface MailAbout {
@@ -47,7 +48,9 @@ export const OUTBOX_HEADERS = { production: "x-seamscene-production", kind: "x-s
 
 function message(mail: OutgoingMail, about: MailAbout) {
   // Only the local outbox needs to know the production; real recipients' mail carries no extra headers.
-  const headers = outboxEnabled() ? { [OUTBOX_HEADERS.kind]: about.kind, ...(about.productionId ? { [OUTBOX_HEADERS.production]: about.productionId } : {}) } : undefined;
+  const headers = outboxEnabled()
+    ? { [OUTBOX_HEADERS.kind]: about.kind, ...(about.productionId ? { [OUTBOX_HEADERS.production]: about.productionId } : {}) }
+    : undefined;
   return { from: config.MAIL_FROM, ...mail, headers };
 }
 

@@ -35,26 +35,34 @@ export class PostgresRateLimitStore implements Store {
   }
 
   async get(key: string): Promise<ClientRateLimitInfo | undefined> {
-    const [rows] = await run(() => sequelize.query(`SELECT hits, reset_at FROM rate_limit_hits WHERE key = :key AND reset_at > now()`, { replacements: { key: this.k(key) } }));
+    const [rows] = await run(() =>
+      sequelize.query(`SELECT hits, reset_at FROM rate_limit_hits WHERE key = :key AND reset_at > now()`, {
+        replacements: { key: this.k(key) },
+      }),
+    );
     const row = (rows as Array<{ hits: number; reset_at: Date }>)[0];
     return row ? { totalHits: row.hits, resetTime: new Date(row.reset_at) } : undefined;
   }
 
   async increment(key: string): Promise<ClientRateLimitInfo> {
-    const [rows] = await run(() => sequelize.query(
-      `INSERT INTO rate_limit_hits (key, hits, reset_at) VALUES (:key, 1, now() + (:ms || ' milliseconds')::interval)
+    const [rows] = await run(() =>
+      sequelize.query(
+        `INSERT INTO rate_limit_hits (key, hits, reset_at) VALUES (:key, 1, now() + (:ms || ' milliseconds')::interval)
        ON CONFLICT (key) DO UPDATE SET
          hits = CASE WHEN rate_limit_hits.reset_at <= now() THEN 1 ELSE rate_limit_hits.hits + 1 END,
          reset_at = CASE WHEN rate_limit_hits.reset_at <= now() THEN EXCLUDED.reset_at ELSE rate_limit_hits.reset_at END
        RETURNING hits, reset_at`,
-      { replacements: { key: this.k(key), ms: String(this.windowMs) } },
-    ));
+        { replacements: { key: this.k(key), ms: String(this.windowMs) } },
+      ),
+    );
     const row = (rows as Array<{ hits: number; reset_at: Date }>)[0]!;
     return { totalHits: row.hits, resetTime: new Date(row.reset_at) };
   }
 
   async decrement(key: string): Promise<void> {
-    await run(() => sequelize.query(`UPDATE rate_limit_hits SET hits = GREATEST(hits - 1, 0) WHERE key = :key`, { replacements: { key: this.k(key) } }));
+    await run(() =>
+      sequelize.query(`UPDATE rate_limit_hits SET hits = GREATEST(hits - 1, 0) WHERE key = :key`, { replacements: { key: this.k(key) } }),
+    );
   }
 
   async resetKey(key: string): Promise<void> {

@@ -5,7 +5,16 @@ import fsp from "node:fs/promises";
 import path from "node:path";
 import { Readable } from "node:stream";
 import { randomUUID } from "node:crypto";
-import { DeleteObjectCommand, GetObjectCommand, HeadObjectCommand, ListObjectsV2Command, PutObjectCommand, S3Client, CreateBucketCommand, HeadBucketCommand } from "@aws-sdk/client-s3";
+import {
+  DeleteObjectCommand,
+  GetObjectCommand,
+  HeadObjectCommand,
+  ListObjectsV2Command,
+  PutObjectCommand,
+  S3Client,
+  CreateBucketCommand,
+  HeadBucketCommand,
+} from "@aws-sdk/client-s3";
 import { config } from "../config.js";
 import { instanceTag } from "./instance.js";
 
@@ -168,7 +177,9 @@ export function createS3Storage(o: S3StorageOptions): Storage {
     driver: "s3",
     async put(key, body, contentType) {
       await ensureBucket();
-      await client.send(new PutObjectCommand({ Bucket: o.bucket, Key: safeKey(key), Body: body, ContentType: contentType, ContentLength: body.length }));
+      await client.send(
+        new PutObjectCommand({ Bucket: o.bucket, Key: safeKey(key), Body: body, ContentType: contentType, ContentLength: body.length }),
+      );
     },
     read,
     async get(key) {
@@ -196,7 +207,9 @@ export function createS3Storage(o: S3StorageOptions): Storage {
       const out: StoredFileInfo[] = [];
       let token: string | undefined;
       do {
-        const page = await client.send(new ListObjectsV2Command({ Bucket: o.bucket, Prefix: prefix || undefined, ContinuationToken: token }));
+        const page = await client.send(
+          new ListObjectsV2Command({ Bucket: o.bucket, Prefix: prefix || undefined, ContinuationToken: token }),
+        );
         for (const obj of page.Contents ?? []) {
           if (obj.Key) out.push({ key: obj.Key, bytes: obj.Size ?? 0, modifiedAt: obj.LastModified ?? new Date(0) });
         }
@@ -214,7 +227,13 @@ export function getStorage(): Storage {
   if (current) return current;
   current =
     config.STORAGE_DRIVER === "s3"
-      ? createS3Storage({ endpoint: config.S3_ENDPOINT, region: config.S3_REGION, bucket: config.S3_BUCKET, accessKeyId: config.S3_ACCESS_KEY_ID, secretAccessKey: config.S3_SECRET_ACCESS_KEY })
+      ? createS3Storage({
+          endpoint: config.S3_ENDPOINT,
+          region: config.S3_REGION,
+          bucket: config.S3_BUCKET,
+          accessKeyId: config.S3_ACCESS_KEY_ID,
+          secretAccessKey: config.S3_SECRET_ACCESS_KEY,
+        })
       : createDiskStorage(config.STORAGE_DIR);
   return current;
 }

@@ -29,7 +29,10 @@ export interface Sheet {
 export function toCsv(sheet: Sheet): string {
   const data = sheet.rows.map((r) => sheet.columns.map((c) => c.value(r)));
   if (sheet.totals && sheet.columns.some((c) => c.sum)) data.push(totalRow(sheet));
-  return writeCsv(sheet.columns.map((c) => c.header), data);
+  return writeCsv(
+    sheet.columns.map((c) => c.header),
+    data,
+  );
 }
 
 function totalRow(sheet: Sheet): CellValue[] {
@@ -49,7 +52,12 @@ export async function writeXlsx(sheets: Sheet[], out: Writable, meta: { title: s
   wb.title = meta.title;
   for (const sheet of sheets) {
     const ws = wb.addWorksheet(sheet.name.slice(0, 31), { views: [{ state: "frozen", ySplit: 1 }] });
-    ws.columns = sheet.columns.map((c) => ({ header: c.header, key: c.header, width: Math.min(48, Math.max(10, c.header.length + 2)), style: c.numFmt ? { numFmt: c.numFmt } : {} }));
+    ws.columns = sheet.columns.map((c) => ({
+      header: c.header,
+      key: c.header,
+      width: Math.min(48, Math.max(10, c.header.length + 2)),
+      style: c.numFmt ? { numFmt: c.numFmt } : {},
+    }));
     ws.getRow(1).font = { bold: true };
     ws.getRow(1).commit();
     for (const r of sheet.rows) ws.addRow(sheet.columns.map((c) => c.value(r))).commit();

@@ -67,7 +67,10 @@ export function renderTagLabelsPdf(labels: TagLabel[], productionTitle: string, 
     doc.on("error", reject);
   });
   if (labels.length === 0) {
-    doc.font("Helvetica").fontSize(12).text("No garments matched the chosen filters.", 20 * MM, 20 * MM);
+    doc
+      .font("Helvetica")
+      .fontSize(12)
+      .text("No garments matched the chosen filters.", 20 * MM, 20 * MM);
   }
   labels.forEach((label, n) => {
     // Used positions on the first sheet are skipped; later sheets start at the top left.
@@ -79,10 +82,23 @@ export function renderTagLabelsPdf(labels: TagLabel[], productionTitle: string, 
     drawQr(doc, label.tagCode, x + 3 * MM, y + 3 * MM, qrSize);
     const tx = x + 3 * MM + qrSize + 2 * MM;
     const tw = LABEL.w - (tx - x) - 3 * MM;
-    doc.fillColor("black").font("Courier-Bold").fontSize(15).text(label.tagCode, tx, y + 6 * MM, { width: tw, lineBreak: false });
-    doc.font("Helvetica-Bold").fontSize(8).text(label.name, tx, y + 14 * MM, { width: tw, height: 9 * MM, ellipsis: true });
-    doc.font("Helvetica").fontSize(7).text(label.detail, tx, y + 24 * MM, { width: tw, height: 5 * MM, ellipsis: true });
-    doc.fillColor("#5B6770").fontSize(6).text(productionTitle, tx, y + 30 * MM, { width: tw, lineBreak: false, ellipsis: true });
+    doc
+      .fillColor("black")
+      .font("Courier-Bold")
+      .fontSize(15)
+      .text(label.tagCode, tx, y + 6 * MM, { width: tw, lineBreak: false });
+    doc
+      .font("Helvetica-Bold")
+      .fontSize(8)
+      .text(label.name, tx, y + 14 * MM, { width: tw, height: 9 * MM, ellipsis: true });
+    doc
+      .font("Helvetica")
+      .fontSize(7)
+      .text(label.detail, tx, y + 24 * MM, { width: tw, height: 5 * MM, ellipsis: true });
+    doc
+      .fillColor("#5B6770")
+      .fontSize(6)
+      .text(productionTitle, tx, y + 30 * MM, { width: tw, lineBreak: false, ellipsis: true });
   });
   doc.end();
   return done;

@@ -1,6 +1,13 @@
 import type { ErrorRequestHandler, RequestHandler } from "express";
 import { ZodError } from "zod";
-import { BaseError, UniqueConstraintError, ValidationError as SequelizeValidationError, ForeignKeyConstraintError, EmptyResultError, DatabaseError } from "sequelize";
+import {
+  BaseError,
+  UniqueConstraintError,
+  ValidationError as SequelizeValidationError,
+  ForeignKeyConstraintError,
+  EmptyResultError,
+  DatabaseError,
+} from "sequelize";
 import multer from "multer";
 import { DatabaseUnavailableError, HttpError } from "../errors.js";
 import { isDatabaseUnavailable } from "../lib/db-errors.js";
@@ -50,7 +57,10 @@ export function toHttpError(err: unknown): HttpError {
     return new HttpError(400, "validation_error", "A value has the wrong form.");
   }
   if (err instanceof multer.MulterError) {
-    if (err.code === "LIMIT_FILE_SIZE") return new HttpError(413, "payload_too_large", "The file is larger than the upload limit.", { [err.field ?? "file"]: "larger than the upload limit" });
+    if (err.code === "LIMIT_FILE_SIZE")
+      return new HttpError(413, "payload_too_large", "The file is larger than the upload limit.", {
+        [err.field ?? "file"]: "larger than the upload limit",
+      });
     if (err.code === "LIMIT_FILE_COUNT" || err.code === "LIMIT_UNEXPECTED_FILE")
       return new HttpError(400, "validation_error", "Too many files or an unexpected file field.", { [err.field ?? "file"]: err.message });
     return new HttpError(400, "validation_error", err.message);
@@ -58,8 +68,10 @@ export function toHttpError(err: unknown): HttpError {
   const e = err as { type?: string; status?: number; expose?: boolean; message?: string };
   if (e?.type === "entity.parse.failed") return new HttpError(400, "validation_error", "The request body is not valid JSON.");
   if (e?.type === "entity.too.large") return new HttpError(413, "payload_too_large", "The request body is too large.");
-  if (e?.status === 403 && e?.message?.toLowerCase().includes("csrf")) return new HttpError(403, "csrf_invalid", "The form expired; reload the page and try again.");
-  if (typeof e?.status === "number" && e.status >= 400 && e.status < 500 && e.expose) return new HttpError(e.status, "bad_request", e.message ?? "Bad request.");
+  if (e?.status === 403 && e?.message?.toLowerCase().includes("csrf"))
+    return new HttpError(403, "csrf_invalid", "The form expired; reload the page and try again.");
+  if (typeof e?.status === "number" && e.status >= 400 && e.status < 500 && e.expose)
+    return new HttpError(e.status, "bad_request", e.message ?? "Bad request.");
   void BaseError;
   return new HttpError(500, "internal_error", "Something went wrong on the server. The error was logged.");
 }
@@ -71,11 +83,15 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     // Too late for an error response: e.g. the session store failed to save after the answer went out
     // (express-session saves while the body is written). Log it; cut the connection only if the
     // body is still unfinished, so the client does not wait for ever.
-    logger.warn({ method: req.method, path: loggablePath(req.originalUrl), reason: (err as Error)?.message, code: httpError.code }, "error after the response was sent");
+    logger.warn(
+      { method: req.method, path: loggablePath(req.originalUrl), reason: (err as Error)?.message, code: httpError.code },
+      "error after the response was sent",
+    );
     if (!res.writableEnded) req.socket?.destroy();
     return;
   }
-  if (httpError.code === "database_unavailable") logger.warn({ method: req.method, path: loggablePath(req.originalUrl), reason: (err as Error)?.message }, "database unavailable");
+  if (httpError.code === "database_unavailable")
+    logger.warn({ method: req.method, path: loggablePath(req.originalUrl), reason: (err as Error)?.message }, "database unavailable");
   else if (httpError.status >= 500) logger.error({ err, method: req.method, path: loggablePath(req.originalUrl) }, "request failed");
   if (httpError.status === 503) res.set("Retry-After", "5");
   res.status(httpError.status).json({

@@ -31,7 +31,10 @@ export const requestLog: RequestHandler = (req, res, next) => {
   res.once("finish", () => {
     const ms = Math.round(performance.now() - start);
     const path = loggablePath(req.originalUrl);
-    logger[res.statusCode >= 500 ? "error" : "info"]({ method: req.method, path, status: res.statusCode, ms }, `${req.method} ${path} ${res.statusCode} ${ms}ms`);
+    logger[res.statusCode >= 500 ? "error" : "info"](
+      { method: req.method, path, status: res.statusCode, ms },
+      `${req.method} ${path} ${res.statusCode} ${ms}ms`,
+    );
   });
   next();
 };

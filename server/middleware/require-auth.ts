@@ -26,8 +26,18 @@ export const loadProduction: RequestHandler = async (req, _res, next) => {
     // building the query through findOne + include cost more than the query itself.
     const replacements = { pid: parsed.data.productionId, uid: req.user.id };
     const [[membership], [production]] = await Promise.all([
-      sequelize.query<Membership>(`SELECT * FROM memberships WHERE production_id = :pid AND user_id = :uid`, { replacements, type: QueryTypes.SELECT, model: Membership, mapToModel: true }),
-      sequelize.query<Production>(`SELECT * FROM productions WHERE id = :pid`, { replacements, type: QueryTypes.SELECT, model: Production, mapToModel: true }),
+      sequelize.query<Membership>(`SELECT * FROM memberships WHERE production_id = :pid AND user_id = :uid`, {
+        replacements,
+        type: QueryTypes.SELECT,
+        model: Membership,
+        mapToModel: true,
+      }),
+      sequelize.query<Production>(`SELECT * FROM productions WHERE id = :pid`, {
+        replacements,
+        type: QueryTypes.SELECT,
+        model: Production,
+        mapToModel: true,
+      }),
     ]);
     if (!membership || !production) return next(NotFoundError("Production not found."));
     membership.production = production;

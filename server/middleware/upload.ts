@@ -37,12 +37,20 @@ function fileFilter(_req: unknown, file: Express.Multer.File, cb: multer.FileFil
   const ext = path.extname(file.originalname).slice(1).toLowerCase();
   const types = photoUploadTypes[ext];
   if (!types || !types.includes(file.mimetype.toLowerCase())) {
-    return cb(UnsupportedMediaTypeError(`${file.fieldname}: only JPEG, PNG, WebP, AVIF or TIFF photos are accepted`, { [file.fieldname]: "is not an accepted image type" }));
+    return cb(
+      UnsupportedMediaTypeError(`${file.fieldname}: only JPEG, PNG, WebP, AVIF or TIFF photos are accepted`, {
+        [file.fieldname]: "is not an accepted image type",
+      }),
+    );
   }
   cb(null, true);
 }
 
-const photoUpload = multer({ storage, fileFilter, limits: { fileSize: Limits.photoMaxBytes, files: Limits.photoMaxFiles, fields: 40, fieldSize: 64 * 1024 } });
+const photoUpload = multer({
+  storage,
+  fileFilter,
+  limits: { fileSize: Limits.photoMaxBytes, files: Limits.photoMaxFiles, fields: 40, fieldSize: 64 * 1024 },
+});
 
 /** Removes the request's temp files when the response is over, whatever the outcome (error, abort). */
 function removedWhenDone(mw: RequestHandler): RequestHandler {

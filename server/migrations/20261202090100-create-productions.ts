@@ -66,5 +66,7 @@ export const up: Migration = async ({ context: qi }) => {
 };
 
 export const down: Migration = async ({ context: qi }) => {
-  await qi.sequelize.query(`DROP TABLE outbox_messages; DROP TABLE audit_events; DROP TABLE invitations; DROP TABLE memberships; DROP TABLE productions;`);
+  await qi.sequelize.query(
+    `DROP TABLE outbox_messages; DROP TABLE audit_events; DROP TABLE invitations; DROP TABLE memberships; DROP TABLE productions;`,
+  );
 };

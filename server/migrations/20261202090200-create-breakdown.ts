@@ -115,5 +115,7 @@ export const up: Migration = async ({ context: qi }) => {
 };
 
 export const down: Migration = async ({ context: qi }) => {
-  await qi.sequelize.query(`DROP TABLE appearances; DROP TABLE changes; DROP TABLE shoot_day_scenes; DROP TABLE shoot_days; DROP TABLE scenes; DROP TABLE character_doubles; DROP TABLE characters; DROP TABLE performers;`);
+  await qi.sequelize.query(
+    `DROP TABLE appearances; DROP TABLE changes; DROP TABLE shoot_day_scenes; DROP TABLE shoot_days; DROP TABLE scenes; DROP TABLE character_doubles; DROP TABLE characters; DROP TABLE performers;`,
+  );
 };

@@ -115,5 +115,7 @@ export const up: Migration = async ({ context: qi }) => {
 };
 
 export const down: Migration = async ({ context: qi }) => {
-  await qi.sequelize.query(`DROP TABLE measurement_sets; DROP TABLE change_items; DROP TABLE garment_status_events; DROP TABLE garments; DROP TABLE multiples_groups; DROP TABLE fabric_tests; DROP TABLE fabrics;`);
+  await qi.sequelize.query(
+    `DROP TABLE measurement_sets; DROP TABLE change_items; DROP TABLE garment_status_events; DROP TABLE garments; DROP TABLE multiples_groups; DROP TABLE fabric_tests; DROP TABLE fabrics;`,
+  );
 };

@@ -60,5 +60,7 @@ export const up: Migration = async ({ context: qi }) => {
 };
 
 export const down: Migration = async ({ context: qi }) => {
-  await qi.sequelize.query(`DROP TABLE snag_dismissals; DROP TABLE continuity_entry_garments; DROP TABLE continuity_entries; DROP TABLE photos;`);
+  await qi.sequelize.query(
+    `DROP TABLE snag_dismissals; DROP TABLE continuity_entry_garments; DROP TABLE continuity_entries; DROP TABLE photos;`,
+  );
 };

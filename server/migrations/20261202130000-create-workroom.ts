@@ -76,5 +76,7 @@ export const up: Migration = async ({ context: qi }) => {
 };
 
 export const down: Migration = async ({ context: qi }) => {
-  await qi.sequelize.query(`DROP TABLE workroom_email_jobs; DROP TABLE workroom_capacity; DROP TABLE alteration_tickets; DROP TABLE fittings;`);
+  await qi.sequelize.query(
+    `DROP TABLE workroom_email_jobs; DROP TABLE workroom_capacity; DROP TABLE alteration_tickets; DROP TABLE fittings;`,
+  );
 };

@@ -45,7 +45,12 @@ AlterationTicket.init(
     estimateHours: { ...numeric("estimateHours"), allowNull: false },
     remainingHours: { ...numeric("remainingHours"), allowNull: true },
     assigneeId: { type: DataTypes.UUID, allowNull: true },
-    status: { type: DataTypes.STRING(12), allowNull: false, defaultValue: "waiting", validate: { isIn: [["waiting", "in_progress", "done", "checked"]] } },
+    status: {
+      type: DataTypes.STRING(12),
+      allowNull: false,
+      defaultValue: "waiting",
+      validate: { isIn: [["waiting", "in_progress", "done", "checked"]] },
+    },
     raisedOn: { type: DataTypes.DATEONLY, allowNull: false },
     raisedBy: { type: DataTypes.UUID, allowNull: true },
     garmentStatusBefore: { type: DataTypes.STRING(10), allowNull: true },

@@ -30,7 +30,12 @@ Change.init(
     description: { type: DataTypes.TEXT, allowNull: true },
     storyDayFrom: { type: DataTypes.INTEGER, allowNull: true },
     storyDayTo: { type: DataTypes.INTEGER, allowNull: true },
-    approval: { type: DataTypes.STRING(10), allowNull: false, defaultValue: "draft", validate: { isIn: [["draft", "proposed", "approved"]] } },
+    approval: {
+      type: DataTypes.STRING(10),
+      allowNull: false,
+      defaultValue: "draft",
+      validate: { isIn: [["draft", "proposed", "approved"]] },
+    },
     approvedBy: { type: DataTypes.UUID, allowNull: true },
     approvedAt: { type: DataTypes.DATE, allowNull: true },
     createdAt: DataTypes.DATE,

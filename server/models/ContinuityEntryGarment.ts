@@ -2,7 +2,10 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 import { sequelize } from "../db.js";
 
 /** A garment copy worn in a continuity entry. */
-export class ContinuityEntryGarment extends Model<InferAttributes<ContinuityEntryGarment>, InferCreationAttributes<ContinuityEntryGarment>> {
+export class ContinuityEntryGarment extends Model<
+  InferAttributes<ContinuityEntryGarment>,
+  InferCreationAttributes<ContinuityEntryGarment>
+> {
   declare id: CreationOptional<string>;
   declare productionId: string;
   declare continuityEntryId: string;

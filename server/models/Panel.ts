@@ -43,7 +43,12 @@ Panel.init(
     },
     cutCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1, validate: { min: 1, max: 99 } },
     mirrored: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
-    grainMode: { type: DataTypes.STRING(8), allowNull: false, defaultValue: "straight", validate: { isIn: [["straight", "bias", "free"]] } },
+    grainMode: {
+      type: DataTypes.STRING(8),
+      allowNull: false,
+      defaultValue: "straight",
+      validate: { isIn: [["straight", "bias", "free"]] },
+    },
     fabricId: { type: DataTypes.UUID, allowNull: true },
     source: { type: DataTypes.STRING(6), allowNull: false, defaultValue: "drawn" },
     sortOrder: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },

@@ -32,7 +32,14 @@ ReportRun.init(
     options: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
     storageKey: { type: DataTypes.STRING(300), allowNull: true },
     // bigint comes back from pg as a string; files here stay far below 2^53 bytes.
-    bytes: { type: DataTypes.BIGINT, allowNull: true, get() { const v = this.getDataValue("bytes"); return v === null || v === undefined ? null : Number(v); } },
+    bytes: {
+      type: DataTypes.BIGINT,
+      allowNull: true,
+      get() {
+        const v = this.getDataValue("bytes");
+        return v === null || v === undefined ? null : Number(v);
+      },
+    },
     error: { type: DataTypes.TEXT, allowNull: true },
     requestedBy: { type: DataTypes.UUID, allowNull: true },
     finishedAt: { type: DataTypes.DATE, allowNull: true },

@@ -79,7 +79,20 @@ MeasurementSet.belongsTo(User, { as: "taker", foreignKey: "takenBy" });
 
 export { Fabric, FabricTest, MultiplesGroup, Garment, GarmentStatusEvent, GarmentCheckout, MeasurementSet };
 export { User, Production, Membership, Invitation, PasswordReset, AuditEvent, OutboxMessage };
-export { Performer, Character, CharacterDouble, Scene, ShootDay, ShootDayScene, Change, ChangeItem, Appearance, Photo, ContinuityEntry, ContinuityEntryGarment };
+export {
+  Performer,
+  Character,
+  CharacterDouble,
+  Scene,
+  ShootDay,
+  ShootDayScene,
+  Change,
+  ChangeItem,
+  Appearance,
+  Photo,
+  ContinuityEntry,
+  ContinuityEntryGarment,
+};
 export { Fitting, AlterationTicket, WorkroomCapacity, WorkroomEmailJob };
 
 // Snags

@@ -26,7 +26,15 @@ export function presentScene(s: Scene): SceneDto {
 
 /** A shoot day with its scenes (already ordered by the service). */
 export function presentShootDay(d: ShootDay, scenes: ShootDayDto["scenes"]): ShootDayDto {
-  return { id: d.id, dayNumber: d.dayNumber, date: d.date, kind: d.kind, startsAt: d.startsAt ? d.startsAt.slice(0, 5) : null, notes: d.notes, scenes };
+  return {
+    id: d.id,
+    dayNumber: d.dayNumber,
+    date: d.date,
+    kind: d.kind,
+    startsAt: d.startsAt ? d.startsAt.slice(0, 5) : null,
+    notes: d.notes,
+    scenes,
+  };
 }
 
 /** An appearance's fields. */

@@ -24,7 +24,10 @@ export function presentCheckout(c: GarmentCheckout, today: string): GarmentCheck
 /** Open check-out with its garment → wire shape. */
 export function presentOpenCheckout(c: GarmentCheckout, today: string): OpenCheckoutDto {
   const g = c.garment;
-  return { ...presentCheckout(c, today), garment: { id: c.garmentId, tagCode: g?.tagCode ?? "", name: g?.name ?? "", status: g?.status ?? "on_set" } };
+  return {
+    ...presentCheckout(c, today),
+    garment: { id: c.garmentId, tagCode: g?.tagCode ?? "", name: g?.name ?? "", status: g?.status ?? "on_set" },
+  };
 }
 
 /** What the presenter reads: a model instance, or a list's plain row with the same fields. */

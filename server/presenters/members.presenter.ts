@@ -2,7 +2,14 @@ import type { InvitationDto, MemberDto, OutboxMessageDto } from "@shared/schemas
 import type { Invitation, Membership, OutboxMessage } from "../models/index.js";
 
 export function presentMember(m: Membership): MemberDto {
-  return { id: m.id, userId: m.userId, name: m.user?.name ?? "", email: m.user?.email ?? "", role: m.role, joinedAt: m.createdAt.toISOString() };
+  return {
+    id: m.id,
+    userId: m.userId,
+    name: m.user?.name ?? "",
+    email: m.user?.email ?? "",
+    role: m.role,
+    joinedAt: m.createdAt.toISOString(),
+  };
 }
 
 export function invitationStatus(i: Invitation, now = new Date()): InvitationDto["status"] {
@@ -13,7 +20,14 @@ export function invitationStatus(i: Invitation, now = new Date()): InvitationDto
 }
 
 export function presentInvitation(i: Invitation): InvitationDto {
-  return { id: i.id, email: i.email, role: i.role, expiresAt: i.expiresAt.toISOString(), createdAt: i.createdAt.toISOString(), status: invitationStatus(i) };
+  return {
+    id: i.id,
+    email: i.email,
+    role: i.role,
+    expiresAt: i.expiresAt.toISOString(),
+    createdAt: i.createdAt.toISOString(),
+    status: invitationStatus(i),
+  };
 }
 
 export function presentOutboxMessage(m: OutboxMessage): OutboxMessageDto {

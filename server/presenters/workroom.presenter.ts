@@ -2,7 +2,10 @@ import type { AlterationTicket, Fitting, WorkroomEmailJob } from "../models/inde
 import type { AlterationTicketDto, EmailJobDto, FittingDto } from "@shared/schemas/workroom.js";
 
 /** A ticket for the wire (garment tag and name come from the caller's lookup). */
-export function presentTicket(t: AlterationTicket & { assignee?: { name: string } | null }, garment?: { tagCode: string; name: string }): AlterationTicketDto {
+export function presentTicket(
+  t: AlterationTicket & { assignee?: { name: string } | null },
+  garment?: { tagCode: string; name: string },
+): AlterationTicketDto {
   return {
     id: t.id,
     garmentId: t.garmentId,

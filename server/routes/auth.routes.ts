@@ -2,7 +2,12 @@ import { Router } from "express";
 import { rateLimit, ipKeyGenerator } from "express-rate-limit";
 import { passport } from "../auth/passport.js";
 import { config } from "../config.js";
-import { loginInputSchema, requestPasswordResetInputSchema, resetPasswordInputSchema, acceptInvitationInputSchema } from "@shared/schemas/auth.js";
+import {
+  loginInputSchema,
+  requestPasswordResetInputSchema,
+  resetPasswordInputSchema,
+  acceptInvitationInputSchema,
+} from "@shared/schemas/auth.js";
 import { AuthenticationError, HttpError } from "../errors.js";
 import { listProductionsForUser } from "../services/productions.service.js";
 import { requestPasswordReset, resetPassword } from "../services/auth.service.js";
@@ -15,7 +20,8 @@ import type { LoginInput } from "@shared/schemas/auth.js";
 
 export const authRouter = Router();
 
-const tooMany = (message: string) => (_req: Request, _res: unknown, next: (err: unknown) => void) => next(new HttpError(429, "too_many_requests", message));
+const tooMany = (message: string) => (_req: Request, _res: unknown, next: (err: unknown) => void) =>
+  next(new HttpError(429, "too_many_requests", message));
 
 // The e-mail is normalised once (trim, lower case: emailSchema) before both limiters and the sign-in
 // read it, so " Designer@…" counts against the same account as "designer@…".

@@ -17,7 +17,14 @@ import {
 import { authorize, actorOf } from "../middleware/require-auth.js";
 import { sendList } from "../lib/http.js";
 import { createScene, deleteScene, getSceneDetail, listScenes, updateScene } from "../services/scenes.service.js";
-import { createShootDay, deleteShootDay, getShootDay, listShootDays, moveSceneToDay, updateShootDay } from "../services/shoot-days.service.js";
+import {
+  createShootDay,
+  deleteShootDay,
+  getShootDay,
+  listShootDays,
+  moveSceneToDay,
+  updateShootDay,
+} from "../services/shoot-days.service.js";
 import { createAppearance, deleteAppearance, listAppearances, updateAppearance } from "../services/appearances.service.js";
 import { breakdownTemplate, exportBreakdown, importBreakdown, previewBreakdownImport } from "../services/imports.service.js";
 import { presentAppearance, presentScene } from "../presenters/breakdown.presenter.js";
@@ -36,7 +43,10 @@ scenesRouter.get("/", authorize("breakdown.read"), async (req, res) => {
 scenesRouter.get("/export", authorize("breakdown.read"), async (req, res) => {
   const csv = await exportBreakdown(actorOf(req));
   res.setHeader("Content-Type", "text/csv; charset=utf-8");
-  res.setHeader("Content-Disposition", `attachment; filename="breakdown-${req.production?.title.replace(/[^A-Za-z0-9]+/g, "-").toLowerCase() ?? "export"}.csv"`);
+  res.setHeader(
+    "Content-Disposition",
+    `attachment; filename="breakdown-${req.production?.title.replace(/[^A-Za-z0-9]+/g, "-").toLowerCase() ?? "export"}.csv"`,
+  );
   res.send(csv);
 });
 

@@ -1,7 +1,12 @@
 import { Router } from "express";
 import { z } from "zod";
 import { idSchema } from "@shared/schemas/common.js";
-import { characterInputSchema, performerInputSchema, updateCharacterInputSchema, updatePerformerInputSchema } from "@shared/schemas/cast.js";
+import {
+  characterInputSchema,
+  performerInputSchema,
+  updateCharacterInputSchema,
+  updatePerformerInputSchema,
+} from "@shared/schemas/cast.js";
 import { authorize, actorOf } from "../middleware/require-auth.js";
 import {
   characterSchedule,

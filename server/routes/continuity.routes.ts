@@ -4,7 +4,14 @@ import { idSchema } from "@shared/schemas/common.js";
 import { continuityEntryInputSchema, listContinuityQuerySchema, updateContinuityEntryInputSchema } from "@shared/schemas/continuity.js";
 import { authorize, actorOf } from "../middleware/require-auth.js";
 import { cleanupUploads, uploadPhotos } from "../middleware/upload.js";
-import { continuityTimeline, createContinuityEntry, deleteContinuityEntry, getContinuityEntry, listContinuity, updateContinuityEntry } from "../services/continuity.service.js";
+import {
+  continuityTimeline,
+  createContinuityEntry,
+  deleteContinuityEntry,
+  getContinuityEntry,
+  listContinuity,
+  updateContinuityEntry,
+} from "../services/continuity.service.js";
 
 const idParams = z.object({ id: idSchema });
 const characterParams = z.object({ characterId: idSchema });

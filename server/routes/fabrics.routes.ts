@@ -3,7 +3,15 @@ import { z } from "zod";
 import { idSchema } from "@shared/schemas/common.js";
 import { createFabricInputSchema, createFabricTestInputSchema, updateFabricInputSchema } from "@shared/schemas/fabrics.js";
 import { authorize, actorOf } from "../middleware/require-auth.js";
-import { addFabricTest, createFabric, deleteFabric, deleteFabricTest, getFabricDetail, listFabrics, updateFabric } from "../services/fabrics.service.js";
+import {
+  addFabricTest,
+  createFabric,
+  deleteFabric,
+  deleteFabricTest,
+  getFabricDetail,
+  listFabrics,
+  updateFabric,
+} from "../services/fabrics.service.js";
 import { presentFabric, presentFabricTest } from "../presenters/fabrics.presenter.js";
 
 const params = z.object({ fabricId: idSchema });

@@ -44,7 +44,12 @@ garmentsRouter.get("/", authorize("garment.read"), async (req, res) => {
   const q = listGarmentsQuerySchema.parse(req.query);
   const { rows, count } = await listGarments(actorOf(req), q);
   const today = todayOf(req);
-  sendList(res, rows.map((g) => presentGarment(g, today)), count, q);
+  sendList(
+    res,
+    rows.map((g) => presentGarment(g, today)),
+    count,
+    q,
+  );
 });
 
 garmentsRouter.get("/filter-options", authorize("garment.read"), async (req, res) => {
@@ -95,7 +100,9 @@ garmentsRouter.post("/moves", authorize("garment.move"), async (req, res) => {
   const input = moveGarmentsInputSchema.parse(req.body);
   const results = await moveGarments(actorOf(req), input);
   const today = todayOf(req);
-  res.json({ data: results.map((r) => ({ garment: presentGarment(r.garment, today), event: r.event ? presentGarmentEvent(r.event) : null })) });
+  res.json({
+    data: results.map((r) => ({ garment: presentGarment(r.garment, today), event: r.event ? presentGarmentEvent(r.event) : null })),
+  });
 });
 
 garmentsRouter.post("/scan", authorize("garment.move"), async (req, res) => {
@@ -114,7 +121,13 @@ garmentsRouter.get("/:garmentId", authorize("garment.read"), async (req, res) =>
       history: d.history.map(presentGarmentEvent),
       checkouts: d.checkouts.map((c) => presentCheckout(c, today)),
       changes: d.changes,
-      groupCopies: d.groupCopies.map((g) => ({ id: g.id, tagCode: g.tagCode, copyNumber: g.copyNumber, status: g.status, distressStage: g.distressStage })),
+      groupCopies: d.groupCopies.map((g) => ({
+        id: g.id,
+        tagCode: g.tagCode,
+        copyNumber: g.copyNumber,
+        status: g.status,
+        distressStage: g.distressStage,
+      })),
     },
   });
 });

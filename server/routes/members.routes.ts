@@ -3,7 +3,14 @@ import { z } from "zod";
 import { inviteMemberInputSchema, updateMemberInputSchema } from "@shared/schemas/members.js";
 import { idSchema, paginationQuerySchema } from "@shared/schemas/common.js";
 import { authorize, actorOf } from "../middleware/require-auth.js";
-import { inviteMember, listInvitations, listMembers, removeMember, revokeInvitation, updateMemberRole } from "../services/members.service.js";
+import {
+  inviteMember,
+  listInvitations,
+  listMembers,
+  removeMember,
+  revokeInvitation,
+  updateMemberRole,
+} from "../services/members.service.js";
 import { presentInvitation, presentMember, presentOutboxMessage } from "../presenters/members.presenter.js";
 import { listOutbox } from "../services/outbox.service.js";
 import { sendList } from "../lib/http.js";

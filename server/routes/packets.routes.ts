@@ -2,7 +2,12 @@ import { Router } from "express";
 import { pipeline } from "node:stream/promises";
 import { z } from "zod";
 import { idSchema } from "@shared/schemas/common.js";
-import { createPacketInputSchema, listPacketsQuerySchema, packetOptionsQuerySchema, updatePacketInputSchema } from "@shared/schemas/packets.js";
+import {
+  createPacketInputSchema,
+  listPacketsQuerySchema,
+  packetOptionsQuerySchema,
+  updatePacketInputSchema,
+} from "@shared/schemas/packets.js";
 import { authorize, actorOf } from "../middleware/require-auth.js";
 import { logger } from "../lib/logger.js";
 import {

@@ -12,8 +12,20 @@ import {
   returnsCsvQuerySchema,
   type ReturnsSection,
 } from "@shared/schemas/reports.js";
-import { continuityBookCharacters, bookFileName, paperSizeOf, prepareContinuityBook, writeContinuityBook } from "../services/reports-continuity.service.js";
-import { latestReportRun, openReportRunFile, getReportRun, presentReportRun, startContinuityBooksRun } from "../services/report-runs.service.js";
+import {
+  continuityBookCharacters,
+  bookFileName,
+  paperSizeOf,
+  prepareContinuityBook,
+  writeContinuityBook,
+} from "../services/reports-continuity.service.js";
+import {
+  latestReportRun,
+  openReportRunFile,
+  getReportRun,
+  presentReportRun,
+  startContinuityBooksRun,
+} from "../services/report-runs.service.js";
 import { checkOutUrl, rackList } from "../services/reports-rack.service.js";
 import { budgetReport, budgetSheets, returnsReport, returnsSheets } from "../services/reports-money.service.js";
 import { renderRackListPdf } from "../lib/pdf/rack-list-pdf.js";
@@ -99,7 +111,9 @@ reportsRouter.get("/rack-list", authorize("report.rack"), async (req, res) => {
 reportsRouter.get("/rack-list.pdf", authorize("report.rack"), async (req, res) => {
   const list = await rackList(actorOf(req), rackListQuerySchema.parse(req.query));
   pdfHeaders(res, `rack-list-${list.day?.date ?? "none"}.pdf`);
-  await streamed(res, () => renderRackListPdf(list, res, { paperSize: paperSizeOf(req.production!), productionTitle: req.production!.title, qrUrl: checkOutUrl }));
+  await streamed(res, () =>
+    renderRackListPdf(list, res, { paperSize: paperSizeOf(req.production!), productionTitle: req.production!.title, qrUrl: checkOutUrl }),
+  );
 });
 
 // ---- Returns and wrap ----
@@ -125,7 +139,14 @@ reportsRouter.get("/budget", authorize("report.budget"), async (req, res) => {
   res.json({ data: await budgetReport(actorOf(req)) });
 });
 
-const budgetSheetNames = { garment: "Garments", category: "By category", character: "By character", change: "By change", source: "By source", week: "Rental per week" } as const;
+const budgetSheetNames = {
+  garment: "Garments",
+  category: "By category",
+  character: "By character",
+  change: "By change",
+  source: "By source",
+  week: "Rental per week",
+} as const;
 
 reportsRouter.get("/budget.csv", authorize("report.budget"), async (req, res) => {
   const { by } = budgetCsvQuerySchema.parse(req.query);

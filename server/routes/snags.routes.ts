@@ -1,5 +1,10 @@
 import { Router } from "express";
-import { dismissSnagInputSchema, listSnagsQuerySchema, multiplesPlanParamsSchema, snagDismissalParamsSchema } from "@shared/schemas/snags.js";
+import {
+  dismissSnagInputSchema,
+  listSnagsQuerySchema,
+  multiplesPlanParamsSchema,
+  snagDismissalParamsSchema,
+} from "@shared/schemas/snags.js";
 import { authorize, actorOf } from "../middleware/require-auth.js";
 import { dismissSnag, listSnags, multiplesPlan, undoDismissal } from "../services/snags.service.js";
 

@@ -131,5 +131,3 @@ workroomRouter.post("/email-jobs/:id/retry", authorize("workroom.mail"), async (
   const { id } = idParams.parse(req.params);
   res.json({ data: presentEmailJob(await retryEmailJob(actorOf(req), id)) });
 });
-
-

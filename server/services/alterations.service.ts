@@ -5,7 +5,13 @@
 import { Op, type Transaction } from "sequelize";
 import { sequelize } from "../db.js";
 import { AlterationTicket, Fitting, Membership, User } from "../models/index.js";
-import type { AlterationTicketDto, CreateTicketInput, ListTicketsQuery, TicketStatus, UpdateTicketInput } from "@shared/schemas/workroom.js";
+import type {
+  AlterationTicketDto,
+  CreateTicketInput,
+  ListTicketsQuery,
+  TicketStatus,
+  UpdateTicketInput,
+} from "@shared/schemas/workroom.js";
 import { can } from "@shared/permissions.js";
 import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
@@ -30,13 +36,20 @@ const TRANSITIONS: Record<TicketStatus, TicketStatus[]> = {
 async function assertWorkroomMember(productionId: string, userId: string, transaction: Transaction): Promise<void> {
   const m = await Membership.findOne({ where: { productionId, userId }, transaction });
   if (!m || !(WORKROOM_ROLES as readonly string[]).includes(m.role)) {
-    throw ValidationError("assigneeId: must be a workroom member of this production", { assigneeId: "must be a workroom member of this production" });
+    throw ValidationError("assigneeId: must be a workroom member of this production", {
+      assigneeId: "must be a workroom member of this production",
+    });
   }
 }
 
 /** Tickets with their garments' tag and name, for the wire. */
 export async function presentTickets(productionId: string, tickets: AlterationTicket[]): Promise<AlterationTicketDto[]> {
-  const garments = new Map((await findGarments(productionId, [...new Set(tickets.map((t) => t.garmentId))])).map((g) => [g.id, { tagCode: g.tag_code, name: g.name }]));
+  const garments = new Map(
+    (await findGarments(productionId, [...new Set(tickets.map((t) => t.garmentId))])).map((g) => [
+      g.id,
+      { tagCode: g.tag_code, name: g.name },
+    ]),
+  );
   return tickets.map((t) => presentTicket(t, garments.get(t.garmentId)));
 }
 
@@ -59,7 +72,11 @@ export async function listTickets(actor: Actor, q: ListTicketsQuery): Promise<Al
 }
 
 async function loadTicket(actor: Actor, id: string, transaction?: Transaction): Promise<AlterationTicket> {
-  const t = await AlterationTicket.findOne({ where: { id, productionId: actor.productionId }, transaction, lock: transaction ? transaction.LOCK.UPDATE : undefined });
+  const t = await AlterationTicket.findOne({
+    where: { id, productionId: actor.productionId },
+    transaction,
+    lock: transaction ? transaction.LOCK.UPDATE : undefined,
+  });
   if (!t) throw NotFoundError("Alteration ticket not found.");
   return t;
 }
@@ -76,15 +93,28 @@ export async function raiseTicket(actor: Actor, input: CreateTicketInput): Promi
   const id = await sequelize.transaction(async (transaction) => {
     const today = await todayForProduction(actor.productionId, transaction);
     const garment = await findGarment(actor.productionId, input.garmentId, transaction, true);
-    if (!garment) throw ValidationError("garmentId: no such garment in this production", { garmentId: "no such garment in this production" });
-    if (UNAVAILABLE.includes(garment.status)) throw ConflictError(`${garment.tag_code} is ${garment.status}; it cannot go to the workroom.`, { garmentId: `is ${garment.status}` });
+    if (!garment)
+      throw ValidationError("garmentId: no such garment in this production", { garmentId: "no such garment in this production" });
+    if (UNAVAILABLE.includes(garment.status))
+      throw ConflictError(`${garment.tag_code} is ${garment.status}; it cannot go to the workroom.`, { garmentId: `is ${garment.status}` });
     if (input.fittingId) {
       const fitting = await Fitting.findOne({ where: { id: input.fittingId, productionId: actor.productionId }, transaction });
-      if (!fitting) throw ValidationError("fittingId: no such fitting in this production", { fittingId: "no such fitting in this production" });
+      if (!fitting)
+        throw ValidationError("fittingId: no such fitting in this production", { fittingId: "no such fitting in this production" });
     }
     if (input.assigneeId) await assertWorkroomMember(actor.productionId, input.assigneeId, transaction);
     if (garment.status !== "workroom") {
-      await moveGarmentStatus({ productionId: actor.productionId, garmentId: garment.id, from: garment.status, to: "workroom", note: "alteration ticket raised", actorId: actor.user.id }, transaction);
+      await moveGarmentStatus(
+        {
+          productionId: actor.productionId,
+          garmentId: garment.id,
+          from: garment.status,
+          to: "workroom",
+          note: "alteration ticket raised",
+          actorId: actor.user.id,
+        },
+        transaction,
+      );
     }
     const t = await AlterationTicket.create(
       {
@@ -102,7 +132,22 @@ export async function raiseTicket(actor: Actor, input: CreateTicketInput): Promi
       },
       { transaction },
     );
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "alteration.raise", entityType: "alteration_ticket", entityId: t.id, after: { garmentId: garment.id, tasks: input.tasks, estimateHours: input.estimateHours, garmentStatus: { from: garment.status, to: "workroom" } } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "alteration.raise",
+        entityType: "alteration_ticket",
+        entityId: t.id,
+        after: {
+          garmentId: garment.id,
+          tasks: input.tasks,
+          estimateHours: input.estimateHours,
+          garmentStatus: { from: garment.status, to: "workroom" },
+        },
+      },
+      transaction,
+    );
     return t.id;
   });
   return getTicket(actor, id);
@@ -110,7 +155,8 @@ export async function raiseTicket(actor: Actor, input: CreateTicketInput): Promi
 
 /** Edits tasks, estimate, remaining hours, assignee or notes (estimates need alteration.estimate). */
 export async function updateTicket(actor: Actor, id: string, input: UpdateTicketInput): Promise<AlterationTicket> {
-  if ((input.estimateHours !== undefined || input.remainingHours !== undefined) && !can(actor.role, "alteration.estimate")) throw ForbiddenError("Your role may not change estimates.");
+  if ((input.estimateHours !== undefined || input.remainingHours !== undefined) && !can(actor.role, "alteration.estimate"))
+    throw ForbiddenError("Your role may not change estimates.");
   await sequelize.transaction(async (transaction) => {
     const t = await loadTicket(actor, id, transaction);
     if (t.status === "checked") throw ConflictError("A checked ticket is closed; raise a new one for more work.");
@@ -123,7 +169,18 @@ export async function updateTicket(actor: Actor, id: string, input: UpdateTicket
     if (input.notes !== undefined) patch.notes = input.notes;
     const before = Object.fromEntries(Object.keys(patch).map((k) => [k, t.get(k as keyof AlterationTicket)]));
     await t.update(patch, { transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "alteration.update", entityType: "alteration_ticket", entityId: t.id, before, after: patch }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "alteration.update",
+        entityType: "alteration_ticket",
+        entityId: t.id,
+        before,
+        after: patch,
+      },
+      transaction,
+    );
   });
   return getTicket(actor, id);
 }
@@ -137,7 +194,10 @@ export async function setTicketStatus(actor: Actor, id: string, status: TicketSt
     const t = await loadTicket(actor, id, transaction);
     if (t.status === status) return;
     const fromStatus: TicketStatus = t.status;
-    if (!TRANSITIONS[fromStatus].includes(status)) throw ConflictError(`A ${t.status.replace("_", " ")} ticket cannot become ${status.replace("_", " ")}.`, { status: `cannot go from ${t.status} to ${status}` });
+    if (!TRANSITIONS[fromStatus].includes(status))
+      throw ConflictError(`A ${t.status.replace("_", " ")} ticket cannot become ${status.replace("_", " ")}.`, {
+        status: `cannot go from ${t.status} to ${status}`,
+      });
     const garment = await findGarment(actor.productionId, t.garmentId, transaction, true);
     if (!garment) throw NotFoundError("The ticket's garment no longer exists.");
     const patch: Partial<AlterationTicket> = { status };
@@ -152,19 +212,41 @@ export async function setTicketStatus(actor: Actor, id: string, status: TicketSt
     if (status === "checked") {
       patch.checkedAt = clock.now();
       patch.checkedBy = actor.user.id;
-      const others = await AlterationTicket.findAll({ where: { garmentId: t.garmentId, productionId: actor.productionId, id: { [Op.ne]: t.id } }, order: [["createdAt", "ASC"]], transaction });
+      const others = await AlterationTicket.findAll({
+        where: { garmentId: t.garmentId, productionId: actor.productionId, id: { [Op.ne]: t.id } },
+        order: [["createdAt", "ASC"]],
+        transaction,
+      });
       const stillOpen = others.some((o) => o.status !== "checked");
       if (!stillOpen && garment.status === "workroom") {
         // Back to where it was before the first ticket sent it to the workroom.
-        const back = [t, ...others].sort((a, b) => a.createdAt.getTime() - b.createdAt.getTime()).map((x) => x.garmentStatusBefore).find((s) => s && s !== "workroom") ?? "in_stock";
+        const back =
+          [t, ...others]
+            .sort((a, b) => a.createdAt.getTime() - b.createdAt.getTime())
+            .map((x) => x.garmentStatusBefore)
+            .find((s) => s && s !== "workroom") ?? "in_stock";
         garmentMove = { from: garment.status, to: back };
       }
     }
     await t.update(patch, { transaction });
     if (garmentMove) {
-      await moveGarmentStatus({ productionId: actor.productionId, garmentId: garment.id, ...garmentMove, note: "alterations checked", actorId: actor.user.id }, transaction);
+      await moveGarmentStatus(
+        { productionId: actor.productionId, garmentId: garment.id, ...garmentMove, note: "alterations checked", actorId: actor.user.id },
+        transaction,
+      );
     }
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "alteration.status", entityType: "alteration_ticket", entityId: t.id, before: { status: fromStatus }, after: { status, garmentStatus: garmentMove } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "alteration.status",
+        entityType: "alteration_ticket",
+        entityId: t.id,
+        before: { status: fromStatus },
+        after: { status, garmentStatus: garmentMove },
+      },
+      transaction,
+    );
   });
   return getTicket(actor, id);
 }

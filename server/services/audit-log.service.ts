@@ -14,15 +14,27 @@ type Row = { id: string; label: string; [k: string]: unknown };
  * array, production-scoped), a label, and the client path of the screen that shows it.
  */
 const RECORDS: Record<string, { sql: string; href: (r: Row) => string }> = {
-  garment: { sql: `SELECT id, tag_code || ' ' || name AS label FROM garments WHERE production_id = :pid AND id IN (:ids)`, href: (r) => `wardrobe/garments/${r.id}` },
+  garment: {
+    sql: `SELECT id, tag_code || ' ' || name AS label FROM garments WHERE production_id = :pid AND id IN (:ids)`,
+    href: (r) => `wardrobe/garments/${r.id}`,
+  },
   fabric: { sql: `SELECT id, name AS label FROM fabrics WHERE production_id = :pid AND id IN (:ids)`, href: (r) => `fabrics/${r.id}` },
   fabric_test: {
     sql: `SELECT t.id, t.kind || ' test of ' || f.name AS label, f.id AS fabric_id FROM fabric_tests t JOIN fabrics f ON f.id = t.fabric_id WHERE t.production_id = :pid AND t.id IN (:ids)`,
     href: (r) => `fabrics/${r.fabric_id}`,
   },
-  scene: { sql: `SELECT id, 'Scene ' || number AS label FROM scenes WHERE production_id = :pid AND id IN (:ids)`, href: (r) => `breakdown/scenes/${r.id}` },
-  character: { sql: `SELECT id, name AS label FROM characters WHERE production_id = :pid AND id IN (:ids)`, href: (r) => `cast/characters/${r.id}` },
-  performer: { sql: `SELECT id, name AS label FROM performers WHERE production_id = :pid AND id IN (:ids)`, href: (r) => `cast/performers/${r.id}` },
+  scene: {
+    sql: `SELECT id, 'Scene ' || number AS label FROM scenes WHERE production_id = :pid AND id IN (:ids)`,
+    href: (r) => `breakdown/scenes/${r.id}`,
+  },
+  character: {
+    sql: `SELECT id, name AS label FROM characters WHERE production_id = :pid AND id IN (:ids)`,
+    href: (r) => `cast/characters/${r.id}`,
+  },
+  performer: {
+    sql: `SELECT id, name AS label FROM performers WHERE production_id = :pid AND id IN (:ids)`,
+    href: (r) => `cast/performers/${r.id}`,
+  },
   measurement_set: {
     sql: `SELECT m.id, 'Measurements of ' || p.name || ' (' || to_char(m.taken_on, 'YYYY-MM-DD') || ')' AS label, p.id AS performer_id
             FROM measurement_sets m JOIN performers p ON p.id = m.performer_id WHERE m.production_id = :pid AND m.id IN (:ids)`,
@@ -37,7 +49,10 @@ const RECORDS: Record<string, { sql: string; href: (r: Row) => string }> = {
            WHERE a.production_id = :pid AND a.id IN (:ids)`,
     href: (r) => `breakdown/scenes/${r.scene_id}`,
   },
-  shoot_day: { sql: `SELECT id, kind, day_number, to_char(date, 'YYYY-MM-DD') AS date, '' AS label FROM shoot_days WHERE production_id = :pid AND id IN (:ids)`, href: () => `breakdown` },
+  shoot_day: {
+    sql: `SELECT id, kind, day_number, to_char(date, 'YYYY-MM-DD') AS date, '' AS label FROM shoot_days WHERE production_id = :pid AND id IN (:ids)`,
+    href: () => `breakdown`,
+  },
   continuity_entry: {
     sql: `SELECT e.id, 'Continuity of ' || ch.name || ' in scene ' || s.number AS label, ch.id AS character_id FROM continuity_entries e
             JOIN characters ch ON ch.id = e.character_id JOIN scenes s ON s.id = e.scene_id WHERE e.production_id = :pid AND e.id IN (:ids)`,
@@ -51,8 +66,14 @@ const RECORDS: Record<string, { sql: string; href: (r: Row) => string }> = {
     sql: `SELECT t.id, 'Alteration of ' || g.tag_code || ' ' || g.name AS label FROM alteration_tickets t JOIN garments g ON g.id = t.garment_id WHERE t.production_id = :pid AND t.id IN (:ids)`,
     href: (r) => `workroom?tab=tickets&ticket=${r.id}`,
   },
-  membership: { sql: `SELECT m.id, u.name AS label FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.production_id = :pid AND m.id IN (:ids)`, href: () => `team` },
-  invitation: { sql: `SELECT id, 'Invitation to ' || email AS label FROM invitations WHERE production_id = :pid AND id IN (:ids)`, href: () => `team` },
+  membership: {
+    sql: `SELECT m.id, u.name AS label FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.production_id = :pid AND m.id IN (:ids)`,
+    href: () => `team`,
+  },
+  invitation: {
+    sql: `SELECT id, 'Invitation to ' || email AS label FROM invitations WHERE production_id = :pid AND id IN (:ids)`,
+    href: () => `team`,
+  },
   packet: {
     sql: `SELECT k.id, ch.name || ', change ' || c.number || COALESCE(', version ' || k.version, ', draft') AS label FROM packets k JOIN characters ch ON ch.id = k.character_id JOIN changes c ON c.id = k.change_id
            WHERE k.production_id = :pid AND k.id IN (:ids)`,
@@ -62,11 +83,23 @@ const RECORDS: Record<string, { sql: string; href: (r: Row) => string }> = {
     sql: `SELECT p.id, p.name || ' of ' || g.tag_code || ' ' || g.name AS label FROM panels p JOIN garments g ON g.id = p.garment_id WHERE p.production_id = :pid AND p.id IN (:ids)`,
     href: () => `doubles`,
   },
-  seam: { sql: `SELECT id, 'Seam ' || name AS label FROM seams WHERE production_id = :pid AND id IN (:ids)`, href: () => `doubles?tab=seams` },
-  marker: { sql: `SELECT id, 'Yardage marker' AS label FROM markers WHERE production_id = :pid AND id IN (:ids)`, href: () => `doubles?tab=yardage` },
+  seam: {
+    sql: `SELECT id, 'Seam ' || name AS label FROM seams WHERE production_id = :pid AND id IN (:ids)`,
+    href: () => `doubles?tab=seams`,
+  },
+  marker: {
+    sql: `SELECT id, 'Yardage marker' AS label FROM markers WHERE production_id = :pid AND id IN (:ids)`,
+    href: () => `doubles?tab=yardage`,
+  },
   production: { sql: `SELECT id, title AS label FROM productions WHERE id = :pid AND id IN (:ids)`, href: () => `team` },
-  snag_dismissal: { sql: `SELECT id, 'Dismissed snag' AS label FROM snag_dismissals WHERE production_id = :pid AND id IN (:ids)`, href: () => `snags?includeDismissed=true` },
-  workroom_email_job: { sql: `SELECT id, 'Workroom e-mail' AS label FROM workroom_email_jobs WHERE production_id = :pid AND id IN (:ids)`, href: () => `workroom?tab=capacity` },
+  snag_dismissal: {
+    sql: `SELECT id, 'Dismissed snag' AS label FROM snag_dismissals WHERE production_id = :pid AND id IN (:ids)`,
+    href: () => `snags?includeDismissed=true`,
+  },
+  workroom_email_job: {
+    sql: `SELECT id, 'Workroom e-mail' AS label FROM workroom_email_jobs WHERE production_id = :pid AND id IN (:ids)`,
+    href: () => `workroom?tab=capacity`,
+  },
   // Capacity rows are audited by the person they belong to.
   user_capacity: {
     sql: `SELECT u.id, 'Hours of ' || u.name AS label FROM users u JOIN memberships m ON m.user_id = u.id AND m.production_id = :pid WHERE u.id IN (:ids)`,
@@ -125,7 +158,10 @@ export async function resolveAuditRecords(productionId: string, events: AuditEve
       const rows = await sequelize.query<Row>(def.sql, { replacements: { pid: productionId, ids: [...ids] }, type: QueryTypes.SELECT });
       for (const r of rows) {
         // A day names itself by its kind: "Day 4 · 2026-12-03" or "Performance 2 · 2026-12-03".
-        const label = type === "shoot_day" ? `${scheduleLabels(r.kind === "performance" ? "stage" : "film").numbered(Number(r.day_number))} · ${r.date}` : r.label;
+        const label =
+          type === "shoot_day"
+            ? `${scheduleLabels(r.kind === "performance" ? "stage" : "film").numbered(Number(r.day_number))} · ${r.date}`
+            : r.label;
         found.set(`${type}:${r.id}`, { label, href: `/p/${productionId}/${def.href(r)}` });
       }
     }),
@@ -134,10 +170,14 @@ export async function resolveAuditRecords(productionId: string, events: AuditEve
   for (const e of events) {
     const t = targets.get(e.id);
     const hit = t ? found.get(`${t.type}:${t.id}`) : undefined;
-    if (hit) out.set(e.id, { type: t!.type, label: e.entityType === "photo" ? `Photo of ${hit.label}` : hit.label, href: hit.href, gone: false });
+    if (hit)
+      out.set(e.id, { type: t!.type, label: e.entityType === "photo" ? `Photo of ${hit.label}` : hit.label, href: hit.href, gone: false });
     else {
       const name = nameFromEvent(e);
-      out.set(e.id, name || t ? { type: t?.type ?? e.entityType, label: name ?? e.entityType.replace(/_/g, " "), href: null, gone: Boolean(t) } : null);
+      out.set(
+        e.id,
+        name || t ? { type: t?.type ?? e.entityType, label: name ?? e.entityType.replace(/_/g, " "), href: null, gone: Boolean(t) } : null,
+      );
     }
   }
   return out;
@@ -145,12 +185,19 @@ export async function resolveAuditRecords(productionId: string, events: AuditEve
 
 /** The production's audit trail, newest first, with the actor's name and the record each event is about. */
 export async function listAuditEvents(actor: Actor, q: PaginationQuery) {
-  const { rows, count } = await AuditEvent.findAndCountAll({ where: { productionId: actor.productionId }, order: [["createdAt", "DESC"]], ...pageWindow(q) });
+  const { rows, count } = await AuditEvent.findAndCountAll({
+    where: { productionId: actor.productionId },
+    order: [["createdAt", "DESC"]],
+    ...pageWindow(q),
+  });
   const actorIds = [...new Set(rows.map((r) => r.actorId).filter((x): x is string => Boolean(x)))];
   const [users, records] = await Promise.all([
     actorIds.length ? User.findAll({ where: { id: actorIds }, attributes: ["id", "name"] }) : Promise.resolve([] as User[]),
     resolveAuditRecords(actor.productionId, rows),
   ]);
   const names = new Map(users.map((u) => [u.id, u.name]));
-  return { count, rows: rows.map((r) => ({ event: r, actorName: r.actorId ? (names.get(r.actorId) ?? null) : null, record: records.get(r.id) ?? null })) };
+  return {
+    count,
+    rows: rows.map((r) => ({ event: r, actorName: r.actorId ? (names.get(r.actorId) ?? null) : null, record: records.get(r.id) ?? null })),
+  };
 }

@@ -25,8 +25,17 @@ export async function sendPasswordReset(data: { email: string }): Promise<void> 
   const user = await User.findOne({ where: { email: data.email } });
   if (!user || !user.isActive) return;
   const { token, tokenHash } = newToken();
-  await PasswordReset.create({ userId: user.id, tokenHash, expiresAt: new Date(Date.now() + Limits.passwordResetMinutes * 60_000), usedAt: null });
-  const mail = passwordResetEmail({ name: user.name, url: `${config.APP_URL}/reset-password/${token}`, minutes: Limits.passwordResetMinutes });
+  await PasswordReset.create({
+    userId: user.id,
+    tokenHash,
+    expiresAt: new Date(Date.now() + Limits.passwordResetMinutes * 60_000),
+    usedAt: null,
+  });
+  const mail = passwordResetEmail({
+    name: user.name,
+    url: `${config.APP_URL}/reset-password/${token}`,
+    minutes: Limits.passwordResetMinutes,
+  });
   // Account mail: no production, so it never shows in any outbox.
   await sendMailOrThrow({ to: user.email, ...mail }, { kind: "password_reset", productionId: null });
 }
@@ -46,7 +55,10 @@ export async function resetPassword(input: ResetPasswordInput): Promise<User> {
     // Every other outstanding link for this account stops working too.
     await PasswordReset.update({ usedAt: new Date() }, { where: { userId: user.id, usedAt: null }, transaction });
     // Sign the account out everywhere else.
-    await sequelize.query(`DELETE FROM session WHERE sess->'passport'->>'user' = :userId`, { replacements: { userId: user.id }, transaction });
+    await sequelize.query(`DELETE FROM session WHERE sess->'passport'->>'user' = :userId`, {
+      replacements: { userId: user.id },
+      transaction,
+    });
     return user;
   });
 }

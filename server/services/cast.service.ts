@@ -1,5 +1,14 @@
 import { Op, type Transaction } from "sequelize";
-import type { CharacterDto, CharacterInput, CharacterScheduleDto, CharacterSceneDto, PerformerDto, PerformerInput, UpdateCharacterInput, UpdatePerformerInput } from "@shared/schemas/cast.js";
+import type {
+  CharacterDto,
+  CharacterInput,
+  CharacterScheduleDto,
+  CharacterSceneDto,
+  PerformerDto,
+  PerformerInput,
+  UpdateCharacterInput,
+  UpdatePerformerInput,
+} from "@shared/schemas/cast.js";
 import { sequelize } from "../db.js";
 import { Appearance, Change, Character, CharacterDouble, Performer, Scene, ShootDay, ShootDayScene } from "../models/index.js";
 import { NotFoundError, ValidationError } from "../errors.js";
@@ -42,7 +51,17 @@ export async function getPerformer(actor: Actor, id: string): Promise<PerformerD
 export async function createPerformer(actor: Actor, input: PerformerInput): Promise<PerformerDto> {
   const p = await sequelize.transaction(async (transaction) => {
     const p = await Performer.create({ ...input, productionId: actor.productionId }, { transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "performer.create", entityType: "performer", entityId: p.id, after: { name: p.name } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "performer.create",
+        entityType: "performer",
+        entityId: p.id,
+        after: { name: p.name },
+      },
+      transaction,
+    );
     return p;
   });
   return presentPerformer(p, []);
@@ -55,7 +74,17 @@ export async function updatePerformer(actor: Actor, id: string, input: UpdatePer
     if (!p) throw NotFoundError("Performer not found.");
     await p.update(input, { transaction });
     // Contact details are personal data: the audit records which fields changed, not their values.
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "performer.update", entityType: "performer", entityId: id, after: { fields: Object.keys(input) } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "performer.update",
+        entityType: "performer",
+        entityId: id,
+        after: { fields: Object.keys(input) },
+      },
+      transaction,
+    );
   });
   return getPerformer(actor, id);
 }
@@ -67,7 +96,17 @@ export async function deletePerformer(actor: Actor, id: string): Promise<void> {
     if (!p) throw NotFoundError("Performer not found.");
     const h = await deletePhotosOfOwners(actor.productionId, "performer", [id], transaction);
     await p.destroy({ transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "performer.delete", entityType: "performer", entityId: id, before: { name: p.name } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "performer.delete",
+        entityType: "performer",
+        entityId: id,
+        before: { name: p.name },
+      },
+      transaction,
+    );
     return h;
   });
   await removeUnreferencedFiles(hashes);
@@ -75,7 +114,14 @@ export async function deletePerformer(actor: Actor, id: string): Promise<void> {
 
 /** Characters in cast order. */
 export async function listCharacters(actor: Actor): Promise<CharacterDto[]> {
-  const rows = await Character.findAll({ where: { productionId: actor.productionId }, include: characterInclude, order: [["sortOrder", "ASC"], ["name", "ASC"]] });
+  const rows = await Character.findAll({
+    where: { productionId: actor.productionId },
+    include: characterInclude,
+    order: [
+      ["sortOrder", "ASC"],
+      ["name", "ASC"],
+    ],
+  });
   return rows.map(presentCharacter);
 }
 
@@ -89,23 +135,52 @@ async function checkPerformers(actor: Actor, ids: string[], field: string, trans
   const unique = [...new Set(ids)];
   if (!unique.length) return;
   const n = await Performer.count({ where: { productionId: actor.productionId, id: { [Op.in]: unique } }, transaction });
-  if (n !== unique.length) throw ValidationError(`${field}: no such performer in this production`, { [field]: "names a performer that does not exist" });
+  if (n !== unique.length)
+    throw ValidationError(`${field}: no such performer in this production`, { [field]: "names a performer that does not exist" });
 }
 
-async function setDoubles(actor: Actor, characterId: string, doubles: NonNullable<CharacterInput["doubles"]>, transaction: Transaction): Promise<void> {
-  await checkPerformers(actor, doubles.map((d) => d.performerId), "doubles", transaction);
+async function setDoubles(
+  actor: Actor,
+  characterId: string,
+  doubles: NonNullable<CharacterInput["doubles"]>,
+  transaction: Transaction,
+): Promise<void> {
+  await checkPerformers(
+    actor,
+    doubles.map((d) => d.performerId),
+    "doubles",
+    transaction,
+  );
   await CharacterDouble.destroy({ where: { characterId }, transaction });
-  await CharacterDouble.bulkCreate(doubles.map((d) => ({ productionId: actor.productionId, characterId, performerId: d.performerId, kind: d.kind })), { transaction });
+  await CharacterDouble.bulkCreate(
+    doubles.map((d) => ({ productionId: actor.productionId, characterId, performerId: d.performerId, kind: d.kind })),
+    { transaction },
+  );
 }
 
 /** Adds a character with performer and doubles. */
 export async function createCharacter(actor: Actor, input: CharacterInput): Promise<CharacterDto> {
   const id = await sequelize.transaction(async (transaction) => {
     if (input.performerId) await checkPerformers(actor, [input.performerId], "performerId", transaction);
-    const sortOrder = input.sortOrder ?? (((await Character.max("sortOrder", { where: { productionId: actor.productionId }, transaction })) as number | null) ?? 0) + 1;
-    const c = await Character.create({ productionId: actor.productionId, name: input.name, performerId: input.performerId, notes: input.notes, sortOrder }, { transaction });
+    const sortOrder =
+      input.sortOrder ??
+      (((await Character.max("sortOrder", { where: { productionId: actor.productionId }, transaction })) as number | null) ?? 0) + 1;
+    const c = await Character.create(
+      { productionId: actor.productionId, name: input.name, performerId: input.performerId, notes: input.notes, sortOrder },
+      { transaction },
+    );
     if (input.doubles) await setDoubles(actor, c.id, input.doubles, transaction);
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "character.create", entityType: "character", entityId: c.id, after: input }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "character.create",
+        entityType: "character",
+        entityId: c.id,
+        after: input,
+      },
+      transaction,
+    );
     return c.id;
   });
   return presentCharacter(await loadCharacter(actor, id));
@@ -120,7 +195,17 @@ export async function updateCharacter(actor: Actor, id: string, input: UpdateCha
     const { doubles, ...fields } = input;
     await c.update(fields, { transaction });
     if (doubles) await setDoubles(actor, id, doubles, transaction);
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "character.update", entityType: "character", entityId: id, after: input }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "character.update",
+        entityType: "character",
+        entityId: id,
+        after: input,
+      },
+      transaction,
+    );
   });
   return presentCharacter(await loadCharacter(actor, id));
 }
@@ -129,15 +214,38 @@ export async function updateCharacter(actor: Actor, id: string, input: UpdateCha
 export async function deleteCharacter(actor: Actor, id: string): Promise<void> {
   const hashes = await sequelize.transaction(async (transaction) => {
     const c = await loadCharacter(actor, id, transaction);
-    const [entries] = await sequelize.query(`SELECT id FROM continuity_entries WHERE character_id = :id`, { replacements: { id }, transaction });
+    const [entries] = await sequelize.query(`SELECT id FROM continuity_entries WHERE character_id = :id`, {
+      replacements: { id },
+      transaction,
+    });
     const changes = await Change.findAll({ where: { characterId: id }, attributes: ["id"], transaction });
     const h = [
-      ...(await deletePhotosOfOwners(actor.productionId, "continuity_entry", (entries as Array<{ id: string }>).map((e) => e.id), transaction)),
+      ...(await deletePhotosOfOwners(
+        actor.productionId,
+        "continuity_entry",
+        (entries as Array<{ id: string }>).map((e) => e.id),
+        transaction,
+      )),
       ...(await deletePhotosOfOwners(actor.productionId, "character", [id], transaction)),
-      ...(await deletePhotosOfOwners(actor.productionId, "change", changes.map((x) => x.id), transaction)),
+      ...(await deletePhotosOfOwners(
+        actor.productionId,
+        "change",
+        changes.map((x) => x.id),
+        transaction,
+      )),
     ];
     await c.destroy({ transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "character.delete", entityType: "character", entityId: id, before: { name: c.name } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "character.delete",
+        entityType: "character",
+        entityId: id,
+        before: { name: c.name },
+      },
+      transaction,
+    );
     return h;
   });
   await removeUnreferencedFiles(hashes);
@@ -182,7 +290,9 @@ export async function characterSchedule(actor: Actor, id: string): Promise<Chara
   const byScene = new Map(rows.map((r) => [r.sceneId, r]));
   const shootOrder = slots
     .map((sl) => ({ ...byScene.get(sl.sceneId)!, shootDay: dayById.get(sl.shootDayId)!, position: sl.position }))
-    .sort((a, b) => a.shootDay.date.localeCompare(b.shootDay.date) || a.shootDay.dayNumber - b.shootDay.dayNumber || a.position - b.position)
+    .sort(
+      (a, b) => a.shootDay.date.localeCompare(b.shootDay.date) || a.shootDay.dayNumber - b.shootDay.dayNumber || a.position - b.position,
+    )
     .map((r) => ({ ...r, shootDay: { id: r.shootDay.id, dayNumber: r.shootDay.dayNumber, date: r.shootDay.date } }));
   return { character: presentCharacter(c), storyOrder, shootOrder };
 }

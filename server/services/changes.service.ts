@@ -13,10 +13,15 @@ async function checkItemTargets(actor: Actor, items: ChangeItemInput[], transact
   const check = async (table: string, column: "garmentId" | "multiplesGroupId") => {
     const ids = [...new Set(items.map((i) => i[column]).filter((x): x is string => Boolean(x)))];
     if (!ids.length) return;
-    const rows = await sequelize.query<{ id: string }>(`SELECT id FROM ${table} WHERE production_id = :pid AND id IN (:ids)`, { replacements: { pid: actor.productionId, ids }, type: QueryTypes.SELECT, transaction });
+    const rows = await sequelize.query<{ id: string }>(`SELECT id FROM ${table} WHERE production_id = :pid AND id IN (:ids)`, {
+      replacements: { pid: actor.productionId, ids },
+      type: QueryTypes.SELECT,
+      transaction,
+    });
     const found = new Set(rows.map((r) => r.id));
     const idx = items.findIndex((i) => i[column] && !found.has(i[column]!));
-    if (idx >= 0) throw ValidationError(`items.${idx}.${column}: no such record in this production`, { [`items.${idx}.${column}`]: "does not exist" });
+    if (idx >= 0)
+      throw ValidationError(`items.${idx}.${column}: no such record in this production`, { [`items.${idx}.${column}`]: "does not exist" });
   };
   await check("garments", "garmentId");
   await check("multiples_groups", "multiplesGroupId");
@@ -25,7 +30,17 @@ async function checkItemTargets(actor: Actor, items: ChangeItemInput[], transact
 async function replaceItems(actor: Actor, changeId: string, items: ChangeItemInput[], transaction: Transaction): Promise<void> {
   await checkItemTargets(actor, items, transaction);
   await ChangeItem.destroy({ where: { changeId }, transaction });
-  await ChangeItem.bulkCreate(items.map((i, n) => ({ productionId: actor.productionId, changeId, label: i.label, garmentId: i.garmentId, multiplesGroupId: i.multiplesGroupId, sortOrder: n + 1 })), { transaction });
+  await ChangeItem.bulkCreate(
+    items.map((i, n) => ({
+      productionId: actor.productionId,
+      changeId,
+      label: i.label,
+      garmentId: i.garmentId,
+      multiplesGroupId: i.multiplesGroupId,
+      sortOrder: n + 1,
+    })),
+    { transaction },
+  );
 }
 
 /** Changes with items and the scenes they are worn in, by character then number. */
@@ -36,18 +51,42 @@ export async function listChanges(actor: Actor, q: { characterId?: string; ids?:
   const changes = await Change.findAll({ where, include: [{ model: ChangeItem, as: "items" }], order: [["number", "ASC"]] });
   const chars = await Character.findAll({ where: { productionId: actor.productionId }, attributes: ["id", "name", "sortOrder"] });
   const charById = new Map(chars.map((c) => [c.id, c]));
-  const apps = changes.length ? await Appearance.findAll({ where: { changeId: { [Op.in]: changes.map((c) => c.id) } }, attributes: ["changeId", "sceneId", "distressStage"] }) : [];
-  const scenes = apps.length ? await Scene.findAll({ where: { id: { [Op.in]: [...new Set(apps.map((a) => a.sceneId))] } }, attributes: ["id", "number", "storyDay", "storyOrder"] }) : [];
+  const apps = changes.length
+    ? await Appearance.findAll({
+        where: { changeId: { [Op.in]: changes.map((c) => c.id) } },
+        attributes: ["changeId", "sceneId", "distressStage"],
+      })
+    : [];
+  const scenes = apps.length
+    ? await Scene.findAll({
+        where: { id: { [Op.in]: [...new Set(apps.map((a) => a.sceneId))] } },
+        attributes: ["id", "number", "storyDay", "storyOrder"],
+      })
+    : [];
   const sceneById = new Map(scenes.map((s) => [s.id, s]));
   const byChange = new Map<string, Array<ChangeDto["scenes"][number] & { order: number }>>();
   for (const a of apps) {
     const s = sceneById.get(a.sceneId);
     if (!s || !a.changeId) continue;
-    byChange.set(a.changeId, [...(byChange.get(a.changeId) ?? []), { sceneId: s.id, number: s.number, storyDay: s.storyDay, distressStage: a.distressStage, order: s.storyOrder }]);
+    byChange.set(a.changeId, [
+      ...(byChange.get(a.changeId) ?? []),
+      { sceneId: s.id, number: s.number, storyDay: s.storyDay, distressStage: a.distressStage, order: s.storyOrder },
+    ]);
   }
   return changes
-    .map((c) => presentChange(c, charById.get(c.characterId)?.name ?? "", (byChange.get(c.id) ?? []).sort((a, b) => a.order - b.order).map(({ order: _o, ...r }) => r)))
-    .sort((a, b) => (charById.get(a.characterId)?.sortOrder ?? 0) - (charById.get(b.characterId)?.sortOrder ?? 0) || a.characterName.localeCompare(b.characterName) || a.number - b.number);
+    .map((c) =>
+      presentChange(
+        c,
+        charById.get(c.characterId)?.name ?? "",
+        (byChange.get(c.id) ?? []).sort((a, b) => a.order - b.order).map(({ order: _o, ...r }) => r),
+      ),
+    )
+    .sort(
+      (a, b) =>
+        (charById.get(a.characterId)?.sortOrder ?? 0) - (charById.get(b.characterId)?.sortOrder ?? 0) ||
+        a.characterName.localeCompare(b.characterName) ||
+        a.number - b.number,
+    );
 }
 
 /** One change. */
@@ -60,12 +99,39 @@ export async function getChange(actor: Actor, id: string): Promise<ChangeDto> {
 /** Adds a change (next number for the character when not given) with its items. */
 export async function createChange(actor: Actor, input: ChangeInput): Promise<ChangeDto> {
   const id = await sequelize.transaction(async (transaction) => {
-    const ch = await Character.findOne({ where: { id: input.characterId, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
+    const ch = await Character.findOne({
+      where: { id: input.characterId, productionId: actor.productionId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!ch) throw ValidationError("characterId: no such character in this production", { characterId: "does not exist" });
-    const number = input.number ?? (((await Change.max("number", { where: { characterId: ch.id }, transaction })) as number | null) ?? 0) + 1;
-    const c = await Change.create({ productionId: actor.productionId, characterId: ch.id, number, description: input.description, storyDayFrom: input.storyDayFrom, storyDayTo: input.storyDayTo, approvedBy: null, approvedAt: null }, { transaction });
+    const number =
+      input.number ?? (((await Change.max("number", { where: { characterId: ch.id }, transaction })) as number | null) ?? 0) + 1;
+    const c = await Change.create(
+      {
+        productionId: actor.productionId,
+        characterId: ch.id,
+        number,
+        description: input.description,
+        storyDayFrom: input.storyDayFrom,
+        storyDayTo: input.storyDayTo,
+        approvedBy: null,
+        approvedAt: null,
+      },
+      { transaction },
+    );
     if (input.items) await replaceItems(actor, c.id, input.items, transaction);
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "change.create", entityType: "change", entityId: c.id, after: input }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "change.create",
+        entityType: "change",
+        entityId: c.id,
+        after: input,
+      },
+      transaction,
+    );
     return c.id;
   });
   return getChange(actor, id);
@@ -79,13 +145,34 @@ export async function updateChange(actor: Actor, id: string, input: UpdateChange
     const { items, ...fields } = input;
     const from = fields.storyDayFrom !== undefined ? fields.storyDayFrom : c.storyDayFrom;
     const to = fields.storyDayTo !== undefined ? fields.storyDayTo : c.storyDayTo;
-    if (from != null && to != null && to < from) throw ValidationError("storyDayTo: must not be before the first story day", { storyDayTo: "must not be before the first story day" });
-    const before = { number: c.number, description: c.description, storyDayFrom: c.storyDayFrom, storyDayTo: c.storyDayTo, approval: c.approval };
+    if (from != null && to != null && to < from)
+      throw ValidationError("storyDayTo: must not be before the first story day", { storyDayTo: "must not be before the first story day" });
+    const before = {
+      number: c.number,
+      description: c.description,
+      storyDayFrom: c.storyDayFrom,
+      storyDayTo: c.storyDayTo,
+      approval: c.approval,
+    };
     // An approval covers what was approved; a later edit needs a new look.
     const reset = c.approval === "approved" ? { approval: "draft" as const, approvedBy: null, approvedAt: null } : {};
-    await c.update({ ...fields, description: fields.description === undefined ? c.description : (fields.description ?? null), ...reset }, { transaction });
+    await c.update(
+      { ...fields, description: fields.description === undefined ? c.description : (fields.description ?? null), ...reset },
+      { transaction },
+    );
     if (items) await replaceItems(actor, id, items, transaction);
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "change.update", entityType: "change", entityId: id, before, after: input }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "change.update",
+        entityType: "change",
+        entityId: id,
+        before,
+        after: input,
+      },
+      transaction,
+    );
   });
   return getChange(actor, id);
 }
@@ -96,8 +183,24 @@ export async function setChangeApproval(actor: Actor, id: string, approval: Chan
     const c = await Change.findOne({ where: { id, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
     if (!c) throw NotFoundError("Change not found.");
     const before = c.approval;
-    await c.update(approval === "approved" ? { approval, approvedBy: actor.user.id, approvedAt: new Date() } : { approval, approvedBy: null, approvedAt: null }, { transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "change.approval", entityType: "change", entityId: id, before: { approval: before }, after: { approval } }, transaction);
+    await c.update(
+      approval === "approved"
+        ? { approval, approvedBy: actor.user.id, approvedAt: new Date() }
+        : { approval, approvedBy: null, approvedAt: null },
+      { transaction },
+    );
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "change.approval",
+        entityType: "change",
+        entityId: id,
+        before: { approval: before },
+        after: { approval },
+      },
+      transaction,
+    );
   });
   return getChange(actor, id);
 }
@@ -109,7 +212,17 @@ export async function deleteChange(actor: Actor, id: string): Promise<void> {
     if (!c) throw NotFoundError("Change not found.");
     const h = await deletePhotosOfOwners(actor.productionId, "change", [id], transaction);
     await c.destroy({ transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "change.delete", entityType: "change", entityId: id, before: { number: c.number, characterId: c.characterId } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "change.delete",
+        entityType: "change",
+        entityId: id,
+        before: { number: c.number, characterId: c.characterId },
+      },
+      transaction,
+    );
     return h;
   });
   await removeUnreferencedFiles(hashes);

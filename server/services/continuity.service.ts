@@ -9,22 +9,51 @@
 import { createHash } from "node:crypto";
 import fs from "node:fs/promises";
 import { Op, QueryTypes, UniqueConstraintError, type Transaction } from "sequelize";
-import type { ContinuityEntryDto, ContinuityEntryInput, ContinuityTimelineDto, UpdateContinuityEntryInput } from "@shared/schemas/continuity.js";
+import type {
+  ContinuityEntryDto,
+  ContinuityEntryInput,
+  ContinuityTimelineDto,
+  UpdateContinuityEntryInput,
+} from "@shared/schemas/continuity.js";
 import { reviewReasons, type ArrivalFacts } from "@shared/domain/offline-review.js";
 import { sequelize } from "../db.js";
 import { clock } from "../lib/clock.js";
-import { Appearance, Change, Character, ContinuityEntry, ContinuityEntryGarment, Scene, ShootDay, ShootDayScene, User } from "../models/index.js";
+import {
+  Appearance,
+  Change,
+  Character,
+  ContinuityEntry,
+  ContinuityEntryGarment,
+  Scene,
+  ShootDay,
+  ShootDayScene,
+  User,
+} from "../models/index.js";
 import { HttpError, NotFoundError, ValidationError } from "../errors.js";
 import { presentPhoto } from "../presenters/photos.presenter.js";
 import { recordAudit } from "./audit.service.js";
-import { deletePhotosOfOwners, linkPhoto, photosForOwners, releaseStoredImages, removeUnreferencedFiles, storeImage, type StoredImage, type UploadedFile } from "./photos.service.js";
+import {
+  deletePhotosOfOwners,
+  linkPhoto,
+  photosForOwners,
+  releaseStoredImages,
+  removeUnreferencedFiles,
+  storeImage,
+  type StoredImage,
+  type UploadedFile,
+} from "./photos.service.js";
 import type { Actor } from "../middleware/require-auth.js";
 
 async function checkGarments(productionId: string, ids: string[], transaction: Transaction): Promise<void> {
   const unique = [...new Set(ids)];
   if (!unique.length) return;
-  const rows = await sequelize.query<{ id: string }>(`SELECT id FROM garments WHERE production_id = :pid AND id IN (:ids)`, { replacements: { pid: productionId, ids: unique }, type: QueryTypes.SELECT, transaction });
-  if (rows.length !== unique.length) throw ValidationError("garmentIds: a garment does not exist in this production", { garmentIds: "names a garment that does not exist" });
+  const rows = await sequelize.query<{ id: string }>(`SELECT id FROM garments WHERE production_id = :pid AND id IN (:ids)`, {
+    replacements: { pid: productionId, ids: unique },
+    type: QueryTypes.SELECT,
+    transaction,
+  });
+  if (rows.length !== unique.length)
+    throw ValidationError("garmentIds: a garment does not exist in this production", { garmentIds: "names a garment that does not exist" });
 }
 
 const present = <T>(xs: Array<T | null>): T[] => [...new Set(xs.filter((x): x is T => x !== null))];
@@ -33,9 +62,16 @@ async function presentEntries(productionId: string, entries: ContinuityEntry[]):
   if (!entries.length) return [];
   const resolverIds = present(entries.map((e) => e.reviewResolvedBy));
   const [scenes, chars, photos, garments, resolvers] = await Promise.all([
-    Scene.findAll({ where: { id: { [Op.in]: present(entries.map((e) => e.sceneId)) } }, attributes: ["id", "number", "storyDay", "storyOrder"] }),
+    Scene.findAll({
+      where: { id: { [Op.in]: present(entries.map((e) => e.sceneId)) } },
+      attributes: ["id", "number", "storyDay", "storyOrder"],
+    }),
     Character.findAll({ where: { id: { [Op.in]: present(entries.map((e) => e.characterId)) } }, attributes: ["id", "name"] }),
-    photosForOwners(productionId, "continuity_entry", entries.map((e) => e.id)),
+    photosForOwners(
+      productionId,
+      "continuity_entry",
+      entries.map((e) => e.id),
+    ),
     ContinuityEntryGarment.findAll({ where: { continuityEntryId: { [Op.in]: entries.map((e) => e.id) } } }),
     resolverIds.length ? User.findAll({ where: { id: { [Op.in]: resolverIds } }, attributes: ["id", "name"] }) : Promise.resolve([]),
   ]);
@@ -74,10 +110,14 @@ async function presentEntries(productionId: string, entries: ContinuityEntry[]):
 }
 
 /** Entries filtered by character, scene or shoot day (or open review marks), in story order then time logged. */
-export async function listContinuity(actor: Actor, q: { characterId?: string; sceneId?: string; shootDayId?: string; review?: "open" }): Promise<ContinuityEntryDto[]> {
+export async function listContinuity(
+  actor: Actor,
+  q: { characterId?: string; sceneId?: string; shootDayId?: string; review?: "open" },
+): Promise<ContinuityEntryDto[]> {
   const where: Record<string | symbol, unknown> = { productionId: actor.productionId };
   for (const k of ["characterId", "sceneId", "shootDayId"] as const) if (q[k]) where[k] = q[k];
-  if (q.review === "open") where[Op.and] = [sequelize.literal(`"ContinuityEntry"."review_reasons" <> '[]'::jsonb`), { reviewResolvedAt: null }];
+  if (q.review === "open")
+    where[Op.and] = [sequelize.literal(`"ContinuityEntry"."review_reasons" <> '[]'::jsonb`), { reviewResolvedAt: null }];
   const entries = await ContinuityEntry.findAll({ where, order: [["createdAt", "ASC"]] });
   const out = await presentEntries(actor.productionId, entries);
   return out.sort((a, b) => a.storyOrder - b.storyOrder || a.createdAt.localeCompare(b.createdAt));
@@ -92,19 +132,37 @@ export async function getContinuityEntry(actor: Actor, id: string): Promise<Cont
 
 /** SHA-256 of each uploaded file, in order (the same hash the photo store files them under). */
 async function fileHashes(files: UploadedFile[]): Promise<string[]> {
-  return Promise.all(files.map(async (f) => createHash("sha256").update(await fs.readFile(f.path)).digest("hex")));
+  return Promise.all(
+    files.map(async (f) =>
+      createHash("sha256")
+        .update(await fs.readFile(f.path))
+        .digest("hex"),
+    ),
+  );
 }
 
 /** The fingerprint of a sent entry: its fields and its photos' content, in order. */
 function requestHash(input: ContinuityEntryInput, photoHashes: string[]): string {
-  const canonical = JSON.stringify([input.shootDayId, input.sceneId, input.characterId, input.distressStage, input.notes, [...new Set(input.garmentIds)].sort(), input.views, photoHashes, input.capturedAs ?? null]);
+  const canonical = JSON.stringify([
+    input.shootDayId,
+    input.sceneId,
+    input.characterId,
+    input.distressStage,
+    input.notes,
+    [...new Set(input.garmentIds)].sort(),
+    input.views,
+    photoHashes,
+    input.capturedAs ?? null,
+  ]);
   return createHash("sha256").update(canonical).digest("hex");
 }
 
 /** The answer to a repeat: the stored entry, if the repeat sent the same entry. */
 async function replay(actor: Actor, prior: ContinuityEntry, hash: string): Promise<{ entry: ContinuityEntryDto; replayed: true }> {
   if (prior.requestHash && prior.requestHash !== hash) {
-    throw new HttpError(422, "client_id_reused", "clientId: this id was already used for a different entry; nothing was stored.", { clientId: "was already used for a different entry" });
+    throw new HttpError(422, "client_id_reused", "clientId: this id was already used for a different entry; nothing was stored.", {
+      clientId: "was already used for a different entry",
+    });
   }
   return { entry: (await presentEntries(actor.productionId, [prior]))[0]!, replayed: true };
 }
@@ -134,20 +192,40 @@ async function arrivalFacts(pid: string, input: ContinuityEntryInput, transactio
     const d = await ShootDay.findOne({ where: { id: input.shootDayId, productionId: pid }, transaction, lock });
     if (d) {
       // A performance plays the whole show; a shoot day its listed scenes.
-      const sceneIds = d.kind === "performance" ? (scene ? [scene.id] : []) : (await ShootDayScene.findAll({ where: { shootDayId: d.id }, attributes: ["sceneId"], transaction })).map((x) => x.sceneId);
+      const sceneIds =
+        d.kind === "performance"
+          ? scene
+            ? [scene.id]
+            : []
+          : (await ShootDayScene.findAll({ where: { shootDayId: d.id }, attributes: ["sceneId"], transaction })).map((x) => x.sceneId);
       shootDay = { dayNumber: d.dayNumber, kind: d.kind, sceneIds };
     }
   }
   const unique = [...new Set(input.garmentIds)];
   const garmentIdsFound = unique.length
-    ? (await sequelize.query<{ id: string }>(`SELECT id FROM garments WHERE production_id = :pid AND id IN (:ids) FOR SHARE`, { replacements: { pid, ids: unique }, type: QueryTypes.SELECT, transaction })).map((r) => r.id)
+    ? (
+        await sequelize.query<{ id: string }>(`SELECT id FROM garments WHERE production_id = :pid AND id IN (:ids) FOR SHARE`, {
+          replacements: { pid, ids: unique },
+          type: QueryTypes.SELECT,
+          transaction,
+        })
+      ).map((r) => r.id)
     : [];
-  return { scene: scene ? { number: scene.number } : null, character: character ? { name: character.name } : null, appearance, shootDay, garmentIdsFound };
+  return {
+    scene: scene ? { number: scene.number } : null,
+    character: character ? { name: character.name } : null,
+    appearance,
+    shootDay,
+    garmentIdsFound,
+  };
 }
 
 /** True when the error is the production's unique key on the device's entry id. */
 function isClientIdClash(err: unknown): boolean {
-  return err instanceof UniqueConstraintError && (err.parent as { constraint?: string } | undefined)?.constraint === "continuity_entries_client_id_key";
+  return (
+    err instanceof UniqueConstraintError &&
+    (err.parent as { constraint?: string } | undefined)?.constraint === "continuity_entries_client_id_key"
+  );
 }
 
 /**
@@ -155,7 +233,11 @@ function isClientIdClash(err: unknown): boolean {
  * entry is stored once per production: a repeat (or a second copy sent at the same moment) gets the
  * stored entry with `replayed: true`; records that went or changed meanwhile mark it for review.
  */
-export async function createContinuityEntry(actor: Actor, input: ContinuityEntryInput, files: UploadedFile[]): Promise<{ entry: ContinuityEntryDto; replayed: boolean }> {
+export async function createContinuityEntry(
+  actor: Actor,
+  input: ContinuityEntryInput,
+  files: UploadedFile[],
+): Promise<{ entry: ContinuityEntryDto; replayed: boolean }> {
   if (input.views.length > files.length) throw ValidationError("views: more views than photos", { views: "has more entries than photos" });
   const pid = actor.productionId;
   const queued = Boolean(input.clientId);
@@ -166,34 +248,92 @@ export async function createContinuityEntry(actor: Actor, input: ContinuityEntry
     if (prior) return replay(actor, prior, hash);
   } else {
     // Cheap checks before spending time on images.
-    if (!(await Scene.count({ where: { id: input.sceneId, productionId: pid } }))) throw ValidationError("sceneId: no such scene in this production", { sceneId: "does not exist" });
-    if (!(await Character.count({ where: { id: input.characterId, productionId: pid } }))) throw ValidationError("characterId: no such character in this production", { characterId: "does not exist" });
-    if (input.shootDayId && !(await ShootDay.count({ where: { id: input.shootDayId, productionId: pid } }))) throw ValidationError("shootDayId: no such shoot day in this production", { shootDayId: "does not exist" });
+    if (!(await Scene.count({ where: { id: input.sceneId, productionId: pid } })))
+      throw ValidationError("sceneId: no such scene in this production", { sceneId: "does not exist" });
+    if (!(await Character.count({ where: { id: input.characterId, productionId: pid } })))
+      throw ValidationError("characterId: no such character in this production", { characterId: "does not exist" });
+    if (input.shootDayId && !(await ShootDay.count({ where: { id: input.shootDayId, productionId: pid } })))
+      throw ValidationError("shootDayId: no such shoot day in this production", { shootDayId: "does not exist" });
   }
 
   const stored: StoredImage[] = [];
   try {
     for (const f of files) stored.push(await storeImage(f));
     const id = await sequelize.transaction(async (transaction) => {
-      let refs = { sceneId: input.sceneId as string | null, characterId: input.characterId as string | null, shootDayId: input.shootDayId, garmentIds: [...new Set(input.garmentIds)] };
+      let refs = {
+        sceneId: input.sceneId as string | null,
+        characterId: input.characterId as string | null,
+        shootDayId: input.shootDayId,
+        garmentIds: [...new Set(input.garmentIds)],
+      };
       let reasons: ReturnType<typeof reviewReasons> = [];
       if (queued) {
         const facts = await arrivalFacts(pid, input, transaction);
-        reasons = reviewReasons({ sceneId: input.sceneId, characterId: input.characterId, shootDayId: input.shootDayId, garmentIds: input.garmentIds }, input.capturedAs, facts);
-        refs = { sceneId: facts.scene ? input.sceneId : null, characterId: facts.character ? input.characterId : null, shootDayId: facts.shootDay ? input.shootDayId : null, garmentIds: refs.garmentIds.filter((g) => facts.garmentIdsFound.includes(g)) };
+        reasons = reviewReasons(
+          { sceneId: input.sceneId, characterId: input.characterId, shootDayId: input.shootDayId, garmentIds: input.garmentIds },
+          input.capturedAs,
+          facts,
+        );
+        refs = {
+          sceneId: facts.scene ? input.sceneId : null,
+          characterId: facts.character ? input.characterId : null,
+          shootDayId: facts.shootDay ? input.shootDayId : null,
+          garmentIds: refs.garmentIds.filter((g) => facts.garmentIdsFound.includes(g)),
+        };
       } else {
         await checkGarments(pid, input.garmentIds, transaction);
       }
       const e = await ContinuityEntry.create(
-        { productionId: pid, shootDayId: refs.shootDayId, sceneId: refs.sceneId, characterId: refs.characterId, distressStage: input.distressStage, notes: input.notes, loggedBy: actor.user.id, clientId: input.clientId ?? null, requestHash: input.clientId ? hash : null, capturedAs: input.capturedAs ?? null, reviewReasons: reasons, reviewResolvedAt: null, reviewResolvedBy: null },
+        {
+          productionId: pid,
+          shootDayId: refs.shootDayId,
+          sceneId: refs.sceneId,
+          characterId: refs.characterId,
+          distressStage: input.distressStage,
+          notes: input.notes,
+          loggedBy: actor.user.id,
+          clientId: input.clientId ?? null,
+          requestHash: input.clientId ? hash : null,
+          capturedAs: input.capturedAs ?? null,
+          reviewReasons: reasons,
+          reviewResolvedAt: null,
+          reviewResolvedBy: null,
+        },
         { transaction },
       );
-      await ContinuityEntryGarment.bulkCreate(refs.garmentIds.map((garmentId) => ({ productionId: pid, continuityEntryId: e.id, garmentId })), { transaction });
+      await ContinuityEntryGarment.bulkCreate(
+        refs.garmentIds.map((garmentId) => ({ productionId: pid, continuityEntryId: e.id, garmentId })),
+        { transaction },
+      );
       for (let i = 0; i < stored.length; i++) {
-        await linkPhoto(actor, stored[i]!, { ownerType: "continuity_entry", ownerId: e.id, view: input.views[i] ?? "other", caption: null, originalName: files[i]!.originalname }, transaction);
+        await linkPhoto(
+          actor,
+          stored[i]!,
+          {
+            ownerType: "continuity_entry",
+            ownerId: e.id,
+            view: input.views[i] ?? "other",
+            caption: null,
+            originalName: files[i]!.originalname,
+          },
+          transaction,
+        );
       }
       await recordAudit(
-        { productionId: pid, actorId: actor.user.id, action: "continuity.log", entityType: "continuity_entry", entityId: e.id, after: { sceneId: refs.sceneId, characterId: refs.characterId, photos: stored.length, ...(input.clientId ? { clientId: input.clientId } : {}), ...(reasons.length ? { review: reasons.map((r) => r.code) } : {}) } },
+        {
+          productionId: pid,
+          actorId: actor.user.id,
+          action: "continuity.log",
+          entityType: "continuity_entry",
+          entityId: e.id,
+          after: {
+            sceneId: refs.sceneId,
+            characterId: refs.characterId,
+            photos: stored.length,
+            ...(input.clientId ? { clientId: input.clientId } : {}),
+            ...(reasons.length ? { review: reasons.map((r) => r.code) } : {}),
+          },
+        },
         transaction,
       );
       return e.id;
@@ -218,11 +358,17 @@ export async function createContinuityEntry(actor: Actor, input: ContinuityEntry
  */
 export async function updateContinuityEntry(actor: Actor, id: string, input: UpdateContinuityEntryInput): Promise<ContinuityEntryDto> {
   await sequelize.transaction(async (transaction) => {
-    const e = await ContinuityEntry.findOne({ where: { id, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
+    const e = await ContinuityEntry.findOne({
+      where: { id, productionId: actor.productionId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!e) throw NotFoundError("Continuity entry not found.");
     const before = { distressStage: e.distressStage, notes: e.notes, sceneId: e.sceneId, characterId: e.characterId };
-    if (input.sceneId && !(await Scene.count({ where: { id: input.sceneId, productionId: actor.productionId }, transaction }))) throw ValidationError("sceneId: no such scene in this production", { sceneId: "does not exist" });
-    if (input.characterId && !(await Character.count({ where: { id: input.characterId, productionId: actor.productionId }, transaction }))) throw ValidationError("characterId: no such character in this production", { characterId: "does not exist" });
+    if (input.sceneId && !(await Scene.count({ where: { id: input.sceneId, productionId: actor.productionId }, transaction })))
+      throw ValidationError("sceneId: no such scene in this production", { sceneId: "does not exist" });
+    if (input.characterId && !(await Character.count({ where: { id: input.characterId, productionId: actor.productionId }, transaction })))
+      throw ValidationError("characterId: no such character in this production", { characterId: "does not exist" });
     await e.update(
       {
         ...(input.distressStage !== undefined ? { distressStage: input.distressStage } : {}),
@@ -236,9 +382,23 @@ export async function updateContinuityEntry(actor: Actor, id: string, input: Upd
     if (input.garmentIds) {
       await checkGarments(actor.productionId, input.garmentIds, transaction);
       await ContinuityEntryGarment.destroy({ where: { continuityEntryId: id }, transaction });
-      await ContinuityEntryGarment.bulkCreate([...new Set(input.garmentIds)].map((garmentId) => ({ productionId: actor.productionId, continuityEntryId: id, garmentId })), { transaction });
+      await ContinuityEntryGarment.bulkCreate(
+        [...new Set(input.garmentIds)].map((garmentId) => ({ productionId: actor.productionId, continuityEntryId: id, garmentId })),
+        { transaction },
+      );
     }
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "continuity.update", entityType: "continuity_entry", entityId: id, before, after: input }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "continuity.update",
+        entityType: "continuity_entry",
+        entityId: id,
+        before,
+        after: input,
+      },
+      transaction,
+    );
   });
   return getContinuityEntry(actor, id);
 }
@@ -250,7 +410,17 @@ export async function deleteContinuityEntry(actor: Actor, id: string): Promise<v
     if (!e) throw NotFoundError("Continuity entry not found.");
     const h = await deletePhotosOfOwners(actor.productionId, "continuity_entry", [id], transaction);
     await e.destroy({ transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "continuity.delete", entityType: "continuity_entry", entityId: id, before: { sceneId: e.sceneId, characterId: e.characterId, notes: e.notes } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "continuity.delete",
+        entityType: "continuity_entry",
+        entityId: id,
+        before: { sceneId: e.sceneId, characterId: e.characterId, notes: e.notes },
+      },
+      transaction,
+    );
     return h;
   });
   await removeUnreferencedFiles(hashes);

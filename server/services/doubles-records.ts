@@ -68,7 +68,12 @@ export async function garmentsOfChange(productionId: string, changeId: string, t
       ORDER BY g.id`,
     { productionId, changeId },
     transaction,
-  ).then((rows) => rows.sort((a, b) => ((a as { sort_order?: number }).sort_order ?? 0) - ((b as { sort_order?: number }).sort_order ?? 0) || a.name.localeCompare(b.name)));
+  ).then((rows) =>
+    rows.sort(
+      (a, b) =>
+        ((a as { sort_order?: number }).sort_order ?? 0) - ((b as { sort_order?: number }).sort_order ?? 0) || a.name.localeCompare(b.name),
+    ),
+  );
 }
 
 /** Every change of the production (by character, then number). */
@@ -163,7 +168,8 @@ export function fabricTestsFromRow(row: FabricTestRow): FabricTest[] {
         const overhangs = Array.isArray(r.overhangsMm) ? (r.overhangsMm as unknown[]).map(Number) : [numIn(r, "overhangMm")];
         const angleDeg = numIn(r, "angleDeg");
         for (const overhangMm of overhangs) {
-          if (dir && overhangMm && overhangMm > 0) out.push({ id: row.id, kind: "bending", direction: dir, overhangMm, ...(angleDeg ? { angleDeg } : {}) });
+          if (dir && overhangMm && overhangMm > 0)
+            out.push({ id: row.id, kind: "bending", direction: dir, overhangMm, ...(angleDeg ? { angleDeg } : {}) });
         }
         break;
       }
@@ -250,7 +256,12 @@ export interface PhotoRow {
  * Reference photos for a change: photos of its garments, of the character's continuity entries,
  * of the character, performer and change, and of fittings for the change when that table exists.
  */
-export async function listPhotoCandidates(productionId: string, change: ChangeRow, garmentIds: string[], transaction?: Transaction): Promise<PhotoRow[]> {
+export async function listPhotoCandidates(
+  productionId: string,
+  change: ChangeRow,
+  garmentIds: string[],
+  transaction?: Transaction,
+): Promise<PhotoRow[]> {
   const owners = [change.id, change.characterId, ...(change.performerId ? [change.performerId] : []), ...garmentIds];
   // Fittings belong to the workroom feature; link their photos only when that table has a change_id.
   const [fit] = await q<{ ok: boolean }>(
@@ -259,7 +270,9 @@ export async function listPhotoCandidates(productionId: string, change: ChangeRo
     transaction,
   );
   const fittingOwners = fit?.ok
-    ? (await q<{ id: string }>(`SELECT id FROM fittings WHERE change_id = :changeId`, { changeId: change.id }, transaction)).map((r) => r.id)
+    ? (await q<{ id: string }>(`SELECT id FROM fittings WHERE change_id = :changeId`, { changeId: change.id }, transaction)).map(
+        (r) => r.id,
+      )
     : [];
   return q<PhotoRow>(
     `SELECT p.id, p.owner_type AS "ownerType", p.owner_id AS "ownerId", p.view, p.caption, p.content_hash AS "contentHash",

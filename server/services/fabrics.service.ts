@@ -4,7 +4,14 @@ import { Fabric, FabricTest, User } from "../models/index.js";
 import { NotFoundError, ValidationError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
 import type { Actor } from "../middleware/require-auth.js";
-import type { CreateFabricInput, CreateFabricTestInput, FabricDetailDto, FabricTestDerived, FabricTestReadings, UpdateFabricInput } from "@shared/schemas/fabrics.js";
+import type {
+  CreateFabricInput,
+  CreateFabricTestInput,
+  FabricDetailDto,
+  FabricTestDerived,
+  FabricTestReadings,
+  UpdateFabricInput,
+} from "@shared/schemas/fabrics.js";
 import {
   D1388_CANTILEVER_ANGLE_DEG,
   bendingLengthFromOverhang,
@@ -56,10 +63,17 @@ function derive(r: FabricTestReadings, massGsm: { value: number; basis: "tested"
       return { massPerAreaGsm: m.gPerM2, massPerAreaKgM2: m.kgPerM2, massPerAreaOzYd2: gsmToOzPerSqYd(m.gPerM2) };
     }
     case "cantilever": {
-      const c = r.angleDeg === D1388_CANTILEVER_ANGLE_DEG ? bendingLengthFromOverhang(r.overhangMm) : peirceBendingLength(r.overhangMm, r.angleDeg);
+      const c =
+        r.angleDeg === D1388_CANTILEVER_ANGLE_DEG ? bendingLengthFromOverhang(r.overhangMm) : peirceBendingLength(r.overhangMm, r.angleDeg);
       if (!massGsm) return { bendingLengthMm: c };
       const g = flexuralRigidity(massGsm.value, c);
-      return { bendingLengthMm: c, flexuralRigidityNm: g, flexuralRigidityMicroNm: g * 1e6, massBasis: massGsm.basis, massPerAreaUsedGsm: massGsm.value };
+      return {
+        bendingLengthMm: c,
+        flexuralRigidityNm: g,
+        flexuralRigidityMicroNm: g * 1e6,
+        massBasis: massGsm.basis,
+        massPerAreaUsedGsm: massGsm.value,
+      };
     }
     case "strip": {
       const k = tensileStiffnessPerWidth(r);
@@ -69,11 +83,21 @@ function derive(r: FabricTestReadings, massGsm: { value: number; basis: "tested"
       return { thicknessM: r.thicknessMm / 1000 };
     case "shrinkage": {
       const x = shrinkageResult(r.length, r.width);
-      return { lengthChangePct: x.lengthChangePct, widthChangePct: x.widthChangePct, lengthCutFactor: x.lengthCutFactor, widthCutFactor: x.widthCutFactor };
+      return {
+        lengthChangePct: x.lengthChangePct,
+        widthChangePct: x.widthChangePct,
+        lengthCutFactor: x.lengthCutFactor,
+        widthCutFactor: x.widthCutFactor,
+      };
     }
     case "colourfastness": {
       const cielab = greyScaleChangeCielab[r.changeGrade as GreyScaleGrade];
-      return { changeLabel: greyScaleLabel(r.changeGrade as GreyScaleGrade), changeDeltaE: cielab.deltaE, changeDeltaETolerance: cielab.tolerance, stainingLabel: r.stainingGrade === null ? null : greyScaleLabel(r.stainingGrade as GreyScaleGrade) };
+      return {
+        changeLabel: greyScaleLabel(r.changeGrade as GreyScaleGrade),
+        changeDeltaE: cielab.deltaE,
+        changeDeltaETolerance: cielab.tolerance,
+        stainingLabel: r.stainingGrade === null ? null : greyScaleLabel(r.stainingGrade as GreyScaleGrade),
+      };
     }
     case "flame_retardancy":
       // A record of a treatment and its certificate: nothing to compute.
@@ -102,7 +126,17 @@ async function recomputeDerived(fabric: Fabric, transaction: Transaction): Promi
 export async function createFabric(actor: Actor, input: CreateFabricInput): Promise<Fabric> {
   const id = await sequelize.transaction(async (transaction) => {
     const f = await Fabric.create({ ...input, productionId: actor.productionId }, { transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "fabric.create", entityType: "fabric", entityId: f.id, after: input }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "fabric.create",
+        entityType: "fabric",
+        entityId: f.id,
+        after: input,
+      },
+      transaction,
+    );
     return f.id;
   });
   return loadFabric(actor, id);
@@ -116,7 +150,18 @@ export async function updateFabric(actor: Actor, id: string, input: UpdateFabric
     const before = f.toJSON();
     await f.update(input, { transaction });
     if (input.massPerAreaGsm !== undefined) await recomputeDerived(f, transaction);
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "fabric.update", entityType: "fabric", entityId: f.id, before, after: input }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "fabric.update",
+        entityType: "fabric",
+        entityId: f.id,
+        before,
+        after: input,
+      },
+      transaction,
+    );
   });
   return loadFabric(actor, id);
 }
@@ -129,11 +174,26 @@ export async function deleteFabric(actor: Actor, id: string): Promise<void> {
     if (!f) throw NotFoundError("Fabric not found.");
     const tests = await FabricTest.findAll({ where: { fabricId: id }, attributes: ["id"], transaction });
     hashes = [
-      ...(await deletePhotosOfOwners(actor.productionId, "fabric_test", tests.map((t) => t.id), transaction)),
+      ...(await deletePhotosOfOwners(
+        actor.productionId,
+        "fabric_test",
+        tests.map((t) => t.id),
+        transaction,
+      )),
       ...(await deletePhotosOfOwners(actor.productionId, "fabric", [id], transaction)),
     ];
     await f.destroy({ transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "fabric.delete", entityType: "fabric", entityId: id, before: f.toJSON() }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "fabric.delete",
+        entityType: "fabric",
+        entityId: id,
+        before: f.toJSON(),
+      },
+      transaction,
+    );
   });
   await removeUnreferencedFiles(hashes);
 }
@@ -153,7 +213,15 @@ function toPhysics(t: FabricTest): PhysicsTest | null {
     case "cantilever":
       return { id: t.id, kind: "bending", direction: r.direction, overhangMm: r.overhangMm, angleDeg: r.angleDeg };
     case "strip":
-      return { id: t.id, kind: "stretch", direction: r.direction, loadN: r.loadN, stripWidthMm: r.stripWidthMm, gaugeLengthMm: r.gaugeLengthMm, extensionMm: r.extensionMm };
+      return {
+        id: t.id,
+        kind: "stretch",
+        direction: r.direction,
+        loadN: r.loadN,
+        stripWidthMm: r.stripWidthMm,
+        gaugeLengthMm: r.gaugeLengthMm,
+        extensionMm: r.extensionMm,
+      };
     case "thickness":
       return { id: t.id, kind: "thickness", thicknessMm: r.thicknessMm };
     default:
@@ -161,18 +229,33 @@ function toPhysics(t: FabricTest): PhysicsTest | null {
   }
 }
 
-const sim = <U extends string>(v: TaggedValue<U>) => ({ value: v.value, unit: v.unit, basis: v.basis, ...(v.note ? { note: v.note } : {}) });
+const sim = <U extends string>(v: TaggedValue<U>) => ({
+  value: v.value,
+  unit: v.unit,
+  basis: v.basis,
+  ...(v.note ? { note: v.note } : {}),
+});
 
 /** A fabric with its tests and the SI simulation values they give. */
-export async function getFabricDetail(actor: Actor, id: string): Promise<{ fabric: Fabric; tests: FabricTest[]; simulation: FabricDetailDto["simulation"] }> {
+export async function getFabricDetail(
+  actor: Actor,
+  id: string,
+): Promise<{ fabric: Fabric; tests: FabricTest[]; simulation: FabricDetailDto["simulation"] }> {
   const fabric = await loadFabric(actor, id);
   const tests = await FabricTest.findAll({
     where: { fabricId: id, productionId: actor.productionId },
     include: [{ model: User, as: "tester", attributes: ["id", "name"] }],
-    order: [["testedOn", "DESC"], ["createdAt", "DESC"]],
+    order: [
+      ["testedOn", "DESC"],
+      ["createdAt", "DESC"],
+    ],
   });
   const fabricClass = classOf(fabric.construction, pooledMassGsm(tests) ?? fabric.massPerAreaGsm);
-  const s = fabricSimulationValues({ fabricClass, declaredMassPerAreaGsm: fabric.massPerAreaGsm ?? undefined, tests: tests.map(toPhysics).filter((x): x is PhysicsTest => x !== null) });
+  const s = fabricSimulationValues({
+    fabricClass,
+    declaredMassPerAreaGsm: fabric.massPerAreaGsm ?? undefined,
+    tests: tests.map(toPhysics).filter((x): x is PhysicsTest => x !== null),
+  });
   return {
     fabric,
     tests,
@@ -189,7 +272,11 @@ export async function getFabricDetail(actor: Actor, id: string): Promise<{ fabri
 /** Records a test with its raw readings and derived values (ASTM D3776, D1388, strip stiffness). */
 export async function addFabricTest(actor: Actor, fabricId: string, input: CreateFabricTestInput): Promise<FabricTest> {
   const id = await sequelize.transaction(async (transaction) => {
-    const fabric = await Fabric.findOne({ where: { id: fabricId, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
+    const fabric = await Fabric.findOne({
+      where: { id: fabricId, productionId: actor.productionId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!fabric) throw NotFoundError("Fabric not found.");
     const existing = await FabricTest.findAll({ where: { fabricId }, transaction });
     if (input.readings.kind === "cantilever" && !massBasisFor(fabric, existing)) {
@@ -214,7 +301,17 @@ export async function addFabricTest(actor: Actor, fabricId: string, input: Creat
       { transaction },
     );
     await recomputeDerived(fabric, transaction);
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "fabric.test_add", entityType: "fabric_test", entityId: t.id, after: input }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "fabric.test_add",
+        entityType: "fabric_test",
+        entityId: t.id,
+        after: input,
+      },
+      transaction,
+    );
     return t.id;
   });
   return (await FabricTest.findByPk(id, { include: [{ model: User, as: "tester", attributes: ["id", "name"] }] }))!;
@@ -224,7 +321,11 @@ export async function addFabricTest(actor: Actor, fabricId: string, input: Creat
 export async function deleteFabricTest(actor: Actor, fabricId: string, testId: string): Promise<void> {
   let hashes: string[] = [];
   await sequelize.transaction(async (transaction) => {
-    const fabric = await Fabric.findOne({ where: { id: fabricId, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
+    const fabric = await Fabric.findOne({
+      where: { id: fabricId, productionId: actor.productionId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!fabric) throw NotFoundError("Fabric not found.");
     const t = await FabricTest.findOne({ where: { id: testId, fabricId }, transaction });
     if (!t) throw NotFoundError("Test not found.");
@@ -232,7 +333,17 @@ export async function deleteFabricTest(actor: Actor, fabricId: string, testId: s
     hashes = await deletePhotosOfOwners(actor.productionId, "fabric_test", [t.id], transaction);
     await t.destroy({ transaction });
     await recomputeDerived(fabric, transaction);
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "fabric.test_delete", entityType: "fabric_test", entityId: testId, before: t.toJSON() }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "fabric.test_delete",
+        entityType: "fabric_test",
+        entityId: testId,
+        before: t.toJSON(),
+      },
+      transaction,
+    );
   });
   await removeUnreferencedFiles(hashes);
 }

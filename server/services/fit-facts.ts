@@ -126,7 +126,12 @@ export interface FittingFacts {
 }
 
 /** Loads the fit facts for one performer and some garments, through the same statements as the snag snapshot. */
-export async function loadFittingFacts(productionId: string, performerId: string, garmentIds: string[], transaction?: Transaction): Promise<FittingFacts> {
+export async function loadFittingFacts(
+  productionId: string,
+  performerId: string,
+  garmentIds: string[],
+  transaction?: Transaction,
+): Promise<FittingFacts> {
   const q = <T extends object>(sql: string, replacements: Record<string, unknown>) =>
     sequelize.query<T>(sql, { replacements: { pid: productionId, ...replacements }, type: QueryTypes.SELECT, transaction });
   const [productions, sets, garments] = await Promise.all([

@@ -8,7 +8,14 @@ import { sequelize } from "../db.js";
 import { config } from "../config.js";
 import { productionTimeZone } from "../lib/clock.js";
 import { AlterationTicket, ChangeItem, Fitting, Garment, Membership, Production, User } from "../models/index.js";
-import type { CreateFittingInput, FittingDetailDto, FittingDto, LinkFittingItemInput, ListFittingsQuery, UpdateFittingInput } from "@shared/schemas/workroom.js";
+import type {
+  CreateFittingInput,
+  FittingDetailDto,
+  FittingDto,
+  LinkFittingItemInput,
+  ListFittingsQuery,
+  UpdateFittingInput,
+} from "@shared/schemas/workroom.js";
 import { createGarmentInputSchema } from "@shared/schemas/garments.js";
 import { createGarmentsIn, mapTagRace } from "./garments.service.js";
 import { can } from "@shared/permissions.js";
@@ -17,13 +24,7 @@ import { finishSnag } from "@shared/domain/snags/engine.js";
 import type { Snag } from "@shared/domain/snags/types.js";
 import { ConflictError, NotFoundError, ValidationError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
-import {
-  changeItemsWithGarments,
-  changeLabel,
-  characterOfPerformer,
-  findChange,
-  findPerformer,
-} from "./workroom-facts.service.js";
+import { changeItemsWithGarments, changeLabel, characterOfPerformer, findChange, findPerformer } from "./workroom-facts.service.js";
 import { loadFittingFacts } from "./fit-facts.js";
 import { fittingEmail, type FittingMailKind } from "../emails/fitting.email.js";
 import { invitationAddress, queueWorkroomEmail } from "./workroom-mail.service.js";
@@ -46,7 +47,10 @@ async function organizerOf(actor: Actor, f: Fitting, transaction: Transaction): 
 async function assertAttendees(productionId: string, ids: string[], transaction: Transaction): Promise<void> {
   if (ids.length === 0) return;
   const n = await Membership.count({ where: { productionId, userId: { [Op.in]: ids } }, transaction });
-  if (n !== new Set(ids).size) throw ValidationError("attendeeIds: every attendee must be a member of this production", { attendeeIds: "every attendee must be a member of this production" });
+  if (n !== new Set(ids).size)
+    throw ValidationError("attendeeIds: every attendee must be a member of this production", {
+      attendeeIds: "every attendee must be a member of this production",
+    });
 }
 
 /** Fittings (not cancelled unless asked), by start. */
@@ -66,7 +70,10 @@ async function presentFittings(productionId: string, rows: Fitting[]): Promise<F
   const users = new Map((await User.findAll({ where: { id: userIds } })).map((u) => [u.id, u.name]));
   const counts = new Map<string, number>();
   if (rows.length) {
-    const tickets = await AlterationTicket.findAll({ where: { productionId, fittingId: rows.map((r) => r.id) }, attributes: ["fittingId"] });
+    const tickets = await AlterationTicket.findAll({
+      where: { productionId, fittingId: rows.map((r) => r.id) },
+      attributes: ["fittingId"],
+    });
     for (const t of tickets) counts.set(t.fittingId!, (counts.get(t.fittingId!) ?? 0) + 1);
   }
   const out: FittingDto[] = [];
@@ -87,7 +94,11 @@ async function presentFittings(productionId: string, rows: Fitting[]): Promise<F
 }
 
 async function loadFitting(actor: Actor, id: string, transaction?: Transaction): Promise<Fitting> {
-  const f = await Fitting.findOne({ where: { id, productionId: actor.productionId }, transaction, lock: transaction ? transaction.LOCK.UPDATE : undefined });
+  const f = await Fitting.findOne({
+    where: { id, productionId: actor.productionId },
+    transaction,
+    lock: transaction ? transaction.LOCK.UPDATE : undefined,
+  });
   if (!f) throw NotFoundError("Fitting not found.");
   return f;
 }
@@ -107,11 +118,21 @@ export async function getFittingDetail(actor: Actor, id: string): Promise<Fittin
   const mayMeasure = can(actor.role, "measurement.read");
   const items = f.changeId ? await changeItemsWithGarments(actor.productionId, f.changeId) : [];
   // The same fit facts as the Snags screen (production ease ranges, knit stretch), so both give one verdict.
-  const facts = await loadFittingFacts(actor.productionId, f.performerId, items.flatMap((i) => (i.garment_id ? [i.garment_id] : [])));
+  const facts = await loadFittingFacts(
+    actor.productionId,
+    f.performerId,
+    items.flatMap((i) => (i.garment_id ? [i.garment_id] : [])),
+  );
   const measurements = mayMeasure ? facts.measurements : null;
   const garments = facts.garments;
-  const openTickets = await AlterationTicket.findAll({ where: { productionId: actor.productionId, garmentId: [...garments.keys()], status: { [Op.ne]: "checked" } } });
-  const fromFitting = await AlterationTicket.findAll({ where: { productionId: actor.productionId, fittingId: f.id }, include: [{ model: User, as: "assignee" }], order: [["createdAt", "ASC"]] });
+  const openTickets = await AlterationTicket.findAll({
+    where: { productionId: actor.productionId, garmentId: [...garments.keys()], status: { [Op.ne]: "checked" } },
+  });
+  const fromFitting = await AlterationTicket.findAll({
+    where: { productionId: actor.productionId, fittingId: f.id },
+    include: [{ model: User, as: "assignee" }],
+    order: [["createdAt", "ASC"]],
+  });
   const performer = await findPerformer(actor.productionId, f.performerId);
   const characterId = (await characterOfPerformer(actor.productionId, f.performerId)) ?? "";
   const fitSnags: Snag[] = [];
@@ -120,8 +141,20 @@ export async function getFittingDetail(actor: Actor, id: string): Promise<Fittin
     let fit: FittingDetailDto["items"][number]["fit"] = [];
     if (g && measurements) {
       const points = checkFit(g, measurements.valuesMm, facts.easeOverrides);
-      fit = points.map((p) => ({ point: p.point, status: p.status, by: Math.round(p.by), sentence: describePointFit(p, g.fitIntent, g.category) }));
-      const draft = fitSnagFromFacts({ garment: g, performerId: f.performerId, performerName: performer?.name ?? "", characterId, asDouble: false, points });
+      fit = points.map((p) => ({
+        point: p.point,
+        status: p.status,
+        by: Math.round(p.by),
+        sentence: describePointFit(p, g.fitIntent, g.category),
+      }));
+      const draft = fitSnagFromFacts({
+        garment: g,
+        performerId: f.performerId,
+        performerName: performer?.name ?? "",
+        characterId,
+        asDouble: false,
+        points,
+      });
       if (draft) fitSnags.push(finishSnag(draft));
     }
     return {
@@ -158,14 +191,23 @@ async function queueFittingMail(actor: Actor, f: Fitting, kind: FittingMailKind,
     organizer: await organizerOf(actor, f, transaction),
     timeZone: production ? productionTimeZone(production) : config.TIME_ZONE,
   });
-  await queueWorkroomEmail({ productionId: actor.productionId, kind: kind === "invite" ? "fitting_invite" : kind === "update" ? "fitting_update" : "fitting_cancel", dedupeKey: `fitting:${f.id}:${f.icsSequence}:${kind}`, mail }, transaction);
+  await queueWorkroomEmail(
+    {
+      productionId: actor.productionId,
+      kind: kind === "invite" ? "fitting_invite" : kind === "update" ? "fitting_update" : "fitting_cancel",
+      dedupeKey: `fitting:${f.id}:${f.icsSequence}:${kind}`,
+      mail,
+    },
+    transaction,
+  );
 }
 
 /** Books a fitting and invites the performer. */
 export async function createFitting(actor: Actor, input: CreateFittingInput): Promise<FittingDto> {
   const id = await sequelize.transaction(async (transaction) => {
     const performer = await findPerformer(actor.productionId, input.performerId, transaction);
-    if (!performer) throw ValidationError("performerId: no such performer in this production", { performerId: "no such performer in this production" });
+    if (!performer)
+      throw ValidationError("performerId: no such performer in this production", { performerId: "no such performer in this production" });
     if (input.changeId && !(await findChange(actor.productionId, input.changeId, transaction))) {
       throw ValidationError("changeId: no such change in this production", { changeId: "no such change in this production" });
     }
@@ -187,7 +229,17 @@ export async function createFitting(actor: Actor, input: CreateFittingInput): Pr
       },
       { transaction },
     );
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "fitting.book", entityType: "fitting", entityId: f.id, after: input }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "fitting.book",
+        entityType: "fitting",
+        entityId: f.id,
+        after: input,
+      },
+      transaction,
+    );
     await queueFittingMail(actor, f, "invite", transaction);
     return f.id;
   });
@@ -224,7 +276,18 @@ export async function updateFitting(actor: Actor, id: string, input: UpdateFitti
       },
       { transaction },
     );
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: cancelling ? "fitting.cancel" : "fitting.update", entityType: "fitting", entityId: f.id, before, after: input }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: cancelling ? "fitting.cancel" : "fitting.update",
+        entityType: "fitting",
+        entityId: f.id,
+        before,
+        after: input,
+      },
+      transaction,
+    );
     if (cancelling) await queueFittingMail(actor, f, "cancel", transaction);
     else if (moved && wasBooked && f.status === "booked") await queueFittingMail(actor, f, "update", transaction);
   });
@@ -237,17 +300,35 @@ export async function updateFitting(actor: Actor, id: string, input: UpdateFitti
  * physical piece an item is does not change the design.
  * @returns the fitting as the tablet shows it now
  */
-export async function linkFittingItem(actor: Actor, fittingId: string, changeItemId: string, input: LinkFittingItemInput): Promise<FittingDetailDto> {
+export async function linkFittingItem(
+  actor: Actor,
+  fittingId: string,
+  changeItemId: string,
+  input: LinkFittingItemInput,
+): Promise<FittingDetailDto> {
   await sequelize
     .transaction(async (transaction) => {
       const f = await loadFitting(actor, fittingId, transaction);
       if (f.status === "cancelled") throw ConflictError("This fitting is cancelled; book a new one.");
-      const item = f.changeId ? await ChangeItem.findOne({ where: { id: changeItemId, productionId: actor.productionId, changeId: f.changeId }, transaction, lock: transaction.LOCK.UPDATE }) : null;
+      const item = f.changeId
+        ? await ChangeItem.findOne({
+            where: { id: changeItemId, productionId: actor.productionId, changeId: f.changeId },
+            transaction,
+            lock: transaction.LOCK.UPDATE,
+          })
+        : null;
       if (!item) throw NotFoundError("That item is not part of this fitting's change.");
-      if (item.garmentId || item.multiplesGroupId) throw ConflictError(`"${item.label}" already has a garment; change it on the Changes screen.`, { changeItemId: "already has a garment" });
+      if (item.garmentId || item.multiplesGroupId)
+        throw ConflictError(`"${item.label}" already has a garment; change it on the Changes screen.`, {
+          changeItemId: "already has a garment",
+        });
       let garmentId: string;
       if (input.garmentId) {
-        const g = await Garment.findOne({ where: { id: input.garmentId, productionId: actor.productionId }, attributes: ["id"], transaction });
+        const g = await Garment.findOne({
+          where: { id: input.garmentId, productionId: actor.productionId },
+          attributes: ["id"],
+          transaction,
+        });
         if (!g) throw ValidationError("garmentId: no such garment in this production", { garmentId: "no such garment in this production" });
         garmentId = g.id;
       } else {
@@ -256,7 +337,15 @@ export async function linkFittingItem(actor: Actor, fittingId: string, changeIte
       }
       await item.update({ garmentId }, { transaction });
       await recordAudit(
-        { productionId: actor.productionId, actorId: actor.user.id, action: "change_item.link_garment", entityType: "change_item", entityId: item.id, before: { garmentId: null }, after: { garmentId, fittingId: f.id, created: Boolean(input.newGarment) } },
+        {
+          productionId: actor.productionId,
+          actorId: actor.user.id,
+          action: "change_item.link_garment",
+          entityType: "change_item",
+          entityId: item.id,
+          before: { garmentId: null },
+          after: { garmentId, fittingId: f.id, created: Boolean(input.newGarment) },
+        },
         transaction,
       );
     })

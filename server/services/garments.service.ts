@@ -3,7 +3,20 @@ import { Op, QueryTypes, UniqueConstraintError, type Transaction, type WhereOpti
 import { writeCsvRecords, type CsvCell } from "@shared/csv.js";
 import { sequelize } from "../db.js";
 import { escapeLike } from "../lib/like.js";
-import { Fabric, Garment, GarmentCheckout, GarmentStatusEvent, Membership, MultiplesGroup, Performer, Production, Scene, ShootDay, ShootDayScene, User } from "../models/index.js";
+import {
+  Fabric,
+  Garment,
+  GarmentCheckout,
+  GarmentStatusEvent,
+  Membership,
+  MultiplesGroup,
+  Performer,
+  Production,
+  Scene,
+  ShootDay,
+  ShootDayScene,
+  User,
+} from "../models/index.js";
 import { NotFoundError, ValidationError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
 import { todayForProduction } from "./productions.service.js";
@@ -42,7 +55,10 @@ const listIncludes = [
   { model: MultiplesGroup, as: "multiplesGroup", attributes: ["id", "name"] },
 ];
 
-const includeNames = [...listIncludes, { model: GarmentCheckout, as: "openCheckout", required: false, where: { returnedAt: null }, include: checkoutIncludes }];
+const includeNames = [
+  ...listIncludes,
+  { model: GarmentCheckout, as: "openCheckout", required: false, where: { returnedAt: null }, include: checkoutIncludes },
+];
 
 function addDays(isoDay: string, days: number): string {
   const d = new Date(`${isoDay}T00:00:00Z`);
@@ -71,7 +87,14 @@ function whereFor(actor: Actor, f: GarmentFilters, dueFromDay: string | null, to
   const and: WhereOptions[] = [{ productionId: actor.productionId }];
   if (f.q) {
     const like = `%${escapeLike(f.q)}%`;
-    and.push({ [Op.or]: [{ name: { [Op.iLike]: like } }, { tagCode: { [Op.iLike]: like } }, { colour: { [Op.iLike]: like } }, { vendor: { [Op.iLike]: like } }] });
+    and.push({
+      [Op.or]: [
+        { name: { [Op.iLike]: like } },
+        { tagCode: { [Op.iLike]: like } },
+        { colour: { [Op.iLike]: like } },
+        { vendor: { [Op.iLike]: like } },
+      ],
+    });
   }
   if (f.category) and.push({ category: f.category });
   if (f.status.length) and.push({ status: { [Op.in]: f.status } });
@@ -85,7 +108,11 @@ function whereFor(actor: Actor, f: GarmentFilters, dueFromDay: string | null, to
     // Garments with an open check-out; past due when it was due back before today.
     const pastDue = f.out === "past_due" ? ` AND co.due_back_on < ${sequelize.escape(today ?? "9999-12-31")}` : "";
     and.push({
-      id: { [Op.in]: sequelize.literal(`(SELECT co.garment_id FROM garment_checkouts co WHERE co.production_id = ${sequelize.escape(actor.productionId)} AND co.returned_at IS NULL${pastDue})`) },
+      id: {
+        [Op.in]: sequelize.literal(
+          `(SELECT co.garment_id FROM garment_checkouts co WHERE co.production_id = ${sequelize.escape(actor.productionId)} AND co.returned_at IS NULL${pastDue})`,
+        ),
+      },
     });
   }
   if (f.dueWithinDays !== undefined) {
@@ -97,8 +124,20 @@ function whereFor(actor: Actor, f: GarmentFilters, dueFromDay: string | null, to
     const cid = sequelize.escape(f.characterId);
     and.push({
       [Op.or]: [
-        { id: { [Op.in]: sequelize.literal(`(SELECT ci.garment_id FROM change_items ci JOIN changes c ON c.id = ci.change_id WHERE c.character_id = ${cid} AND ci.garment_id IS NOT NULL)`) } },
-        { multiplesGroupId: { [Op.in]: sequelize.literal(`(SELECT ci.multiples_group_id FROM change_items ci JOIN changes c ON c.id = ci.change_id WHERE c.character_id = ${cid} AND ci.multiples_group_id IS NOT NULL)`) } },
+        {
+          id: {
+            [Op.in]: sequelize.literal(
+              `(SELECT ci.garment_id FROM change_items ci JOIN changes c ON c.id = ci.change_id WHERE c.character_id = ${cid} AND ci.garment_id IS NOT NULL)`,
+            ),
+          },
+        },
+        {
+          multiplesGroupId: {
+            [Op.in]: sequelize.literal(
+              `(SELECT ci.multiples_group_id FROM change_items ci JOIN changes c ON c.id = ci.change_id WHERE c.character_id = ${cid} AND ci.multiples_group_id IS NOT NULL)`,
+            ),
+          },
+        },
       ],
     });
   }
@@ -124,7 +163,10 @@ export async function listGarments(actor: Actor, q: ListGarmentsQuery): Promise<
       where,
       include: listIncludes,
       // Ties by tag code in the same direction, so one index serves the page either way round.
-      order: [[q.sort, dir], ["tagCode", dir]],
+      order: [
+        [q.sort, dir],
+        ["tagCode", dir],
+      ],
       limit: q.pageSize,
       offset: (q.page - 1) * q.pageSize,
       raw: true,
@@ -143,11 +185,20 @@ export async function listGarments(actor: Actor, q: ListGarmentsQuery): Promise<
 
 /** Every garment matching the filters, by tag code (exports and label sheets). */
 export async function findGarments(actor: Actor, f: GarmentFilters, limit = 5000): Promise<Garment[]> {
-  return Garment.findAll({ where: whereFor(actor, f, await dueFrom(actor, f), await pastDueDay(actor, f)), include: includeNames, order: [["tagCode", "ASC"]], limit });
+  return Garment.findAll({
+    where: whereFor(actor, f, await dueFrom(actor, f), await pastDueDay(actor, f)),
+    include: includeNames,
+    order: [["tagCode", "ASC"]],
+    limit,
+  });
 }
 
 async function loadGarment(actor: Actor, id: string, transaction?: Transaction, lock = false): Promise<Garment> {
-  const g = await Garment.findOne({ where: { id, productionId: actor.productionId }, transaction, ...(lock && transaction ? { lock: transaction.LOCK.UPDATE } : {}) });
+  const g = await Garment.findOne({
+    where: { id, productionId: actor.productionId },
+    transaction,
+    ...(lock && transaction ? { lock: transaction.LOCK.UPDATE } : {}),
+  });
   if (!g) throw NotFoundError("Garment not found.");
   return g;
 }
@@ -159,10 +210,20 @@ export async function getGarmentDetail(actor: Actor, id: string) {
   const history = await GarmentStatusEvent.findAll({
     where: { garmentId: id, productionId: actor.productionId },
     include: [{ model: User, as: "actor", attributes: ["id", "name"] }],
-    order: [["createdAt", "DESC"], ["id", "ASC"]],
+    order: [
+      ["createdAt", "DESC"],
+      ["id", "ASC"],
+    ],
   });
   // Changes belong to the breakdown; read them directly rather than through its models.
-  const changes = await sequelize.query<{ change_id: string; number: number; character_id: string; character_name: string; label: string; via_group: boolean }>(
+  const changes = await sequelize.query<{
+    change_id: string;
+    number: number;
+    character_id: string;
+    character_name: string;
+    label: string;
+    via_group: boolean;
+  }>(
     `SELECT c.id AS change_id, c.number, ch.id AS character_id, ch.name AS character_name, ci.label, (ci.garment_id IS NULL) AS via_group
        FROM change_items ci
        JOIN changes c ON c.id = ci.change_id
@@ -174,7 +235,10 @@ export async function getGarmentDetail(actor: Actor, id: string) {
   const checkouts = await GarmentCheckout.findAll({
     where: { garmentId: id, productionId: actor.productionId },
     include: checkoutIncludes,
-    order: [["checkedOutAt", "DESC"], ["id", "ASC"]],
+    order: [
+      ["checkedOutAt", "DESC"],
+      ["id", "ASC"],
+    ],
     limit: 100,
   });
   const groupCopies = garment.multiplesGroupId
@@ -210,7 +274,11 @@ async function freshTagCodes(productionId: string, n: number, transaction: Trans
 }
 
 async function assertTagCodeFree(productionId: string, tagCode: string, exceptId: string | null, transaction: Transaction) {
-  const clash = await Garment.findOne({ where: { productionId, tagCode, ...(exceptId ? { id: { [Op.ne]: exceptId } } : {}) }, attributes: ["id", "name"], transaction });
+  const clash = await Garment.findOne({
+    where: { productionId, tagCode, ...(exceptId ? { id: { [Op.ne]: exceptId } } : {}) },
+    attributes: ["id", "name"],
+    transaction,
+  });
   if (clash) throw ValidationError(`tagCode: ${tagCode} is already on "${clash.name}"`, { tagCode: `is already used by "${clash.name}"` });
 }
 
@@ -222,7 +290,10 @@ async function assertFabricInProduction(productionId: string, fabricId: string |
 
 // A duplicate that slipped past the check (two requests at once) is still a bad tag code for the user.
 export function mapTagRace(err: unknown): never {
-  if (err instanceof UniqueConstraintError && err.errors.some((e) => e.path === "tag_code" || e.path === "tagCode" || /tag_code/.test(e.message))) {
+  if (
+    err instanceof UniqueConstraintError &&
+    err.errors.some((e) => e.path === "tag_code" || e.path === "tagCode" || /tag_code/.test(e.message))
+  ) {
     throw ValidationError("tagCode: is already used by another garment", { tagCode: "is already used by another garment" });
   }
   throw err;
@@ -246,23 +317,49 @@ export async function createGarmentsIn(actor: Actor, input: CreateGarmentInput, 
   const codes = tagCode ? [tagCode] : await freshTagCodes(actor.productionId, copies, transaction);
   let groupId: string | null = null;
   if (copies > 1) {
-    const group = await MultiplesGroup.create({ productionId: actor.productionId, name: groupName || fields.name, notes: null }, { transaction });
+    const group = await MultiplesGroup.create(
+      { productionId: actor.productionId, name: groupName || fields.name, notes: null },
+      { transaction },
+    );
     groupId = group.id;
   }
   const created: Garment[] = [];
   for (let i = 0; i < copies; i++) {
     const g = await Garment.create(
-      { ...fields, productionId: actor.productionId, tagCode: codes[i]!, status, multiplesGroupId: groupId, copyNumber: groupId ? i + 1 : null },
+      {
+        ...fields,
+        productionId: actor.productionId,
+        tagCode: codes[i]!,
+        status,
+        multiplesGroupId: groupId,
+        copyNumber: groupId ? i + 1 : null,
+      },
       { transaction },
     );
     await GarmentStatusEvent.create(
-      { productionId: actor.productionId, garmentId: g.id, fromStatus: null, toStatus: status, fromLocation: null, toLocation: locationLabel(g.locationRack, g.locationBin), note: "Added to stock", actorId: actor.user.id },
+      {
+        productionId: actor.productionId,
+        garmentId: g.id,
+        fromStatus: null,
+        toStatus: status,
+        fromLocation: null,
+        toLocation: locationLabel(g.locationRack, g.locationBin),
+        note: "Added to stock",
+        actorId: actor.user.id,
+      },
       { transaction },
     );
     created.push(g);
   }
   await recordAudit(
-    { productionId: actor.productionId, actorId: actor.user.id, action: "garment.create", entityType: "garment", entityId: created[0]!.id, after: { tagCodes: codes, name: fields.name, copies, multiplesGroupId: groupId } },
+    {
+      productionId: actor.productionId,
+      actorId: actor.user.id,
+      action: "garment.create",
+      entityType: "garment",
+      entityId: created[0]!.id,
+      after: { tagCodes: codes, name: fields.name, copies, multiplesGroupId: groupId },
+    },
     transaction,
   );
   return created.map((g) => g.id);
@@ -278,7 +375,18 @@ export async function updateGarment(actor: Actor, id: string, input: UpdateGarme
       const before = g.toJSON();
       await g.update(input, { transaction });
       const changed = Object.fromEntries(Object.keys(input).map((k) => [k, (before as Record<string, unknown>)[k]]));
-      await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "garment.update", entityType: "garment", entityId: g.id, before: changed, after: input }, transaction);
+      await recordAudit(
+        {
+          productionId: actor.productionId,
+          actorId: actor.user.id,
+          action: "garment.update",
+          entityType: "garment",
+          entityId: g.id,
+          before: changed,
+          after: input,
+        },
+        transaction,
+      );
     })
     .catch(mapTagRace);
   return (await Garment.findByPk(id, { include: includeNames }))!;
@@ -290,7 +398,10 @@ export async function addCopies(actor: Actor, id: string, input: AddCopiesInput)
     const g = await loadGarment(actor, id, transaction, true);
     let groupId = g.multiplesGroupId;
     if (!groupId) {
-      const group = await MultiplesGroup.create({ productionId: actor.productionId, name: input.groupName || g.name, notes: null }, { transaction });
+      const group = await MultiplesGroup.create(
+        { productionId: actor.productionId, name: input.groupName || g.name, notes: null },
+        { transaction },
+      );
       groupId = group.id;
       await g.update({ multiplesGroupId: groupId, copyNumber: 1 }, { transaction });
     } else {
@@ -303,26 +414,72 @@ export async function addCopies(actor: Actor, id: string, input: AddCopiesInput)
     for (let i = 0; i < input.count; i++) {
       const copy = await Garment.create(
         {
-          productionId: actor.productionId, tagCode: codes[i]!, name: g.name, category: g.category, sizeLabel: g.sizeLabel, fitIntent: g.fitIntent,
-          finishedMeasurements: g.finishedMeasurements, fabricId: g.fabricId, colour: g.colour, source: g.source, vendor: g.vendor, costCents: g.costCents,
-          rentalDueOn: g.rentalDueOn, rentalCostPerWeekCents: g.rentalCostPerWeekCents, wrapDisposition: g.wrapDisposition, locationRack: g.locationRack, locationBin: g.locationBin, status: "in_stock", distressStage: 0,
-          multiplesGroupId: groupId, copyNumber: maxCopy + i + 1, notes: null,
+          productionId: actor.productionId,
+          tagCode: codes[i]!,
+          name: g.name,
+          category: g.category,
+          sizeLabel: g.sizeLabel,
+          fitIntent: g.fitIntent,
+          finishedMeasurements: g.finishedMeasurements,
+          fabricId: g.fabricId,
+          colour: g.colour,
+          source: g.source,
+          vendor: g.vendor,
+          costCents: g.costCents,
+          rentalDueOn: g.rentalDueOn,
+          rentalCostPerWeekCents: g.rentalCostPerWeekCents,
+          wrapDisposition: g.wrapDisposition,
+          locationRack: g.locationRack,
+          locationBin: g.locationBin,
+          status: "in_stock",
+          distressStage: 0,
+          multiplesGroupId: groupId,
+          copyNumber: maxCopy + i + 1,
+          notes: null,
         },
         { transaction },
       );
       await GarmentStatusEvent.create(
-        { productionId: actor.productionId, garmentId: copy.id, fromStatus: null, toStatus: "in_stock", fromLocation: null, toLocation: locationLabel(copy.locationRack, copy.locationBin), note: `Copy of ${g.tagCode}`, actorId: actor.user.id },
+        {
+          productionId: actor.productionId,
+          garmentId: copy.id,
+          fromStatus: null,
+          toStatus: "in_stock",
+          fromLocation: null,
+          toLocation: locationLabel(copy.locationRack, copy.locationBin),
+          note: `Copy of ${g.tagCode}`,
+          actorId: actor.user.id,
+        },
         { transaction },
       );
       // The original's history says what was made from it, one row per copy, so its page shows the copies' story too.
       const here = locationLabel(g.locationRack, g.locationBin);
       await GarmentStatusEvent.create(
-        { productionId: actor.productionId, garmentId: g.id, fromStatus: g.status, toStatus: g.status, fromLocation: here, toLocation: here, note: `Copy #${copy.copyNumber} made: ${copy.tagCode}`, actorId: actor.user.id },
+        {
+          productionId: actor.productionId,
+          garmentId: g.id,
+          fromStatus: g.status,
+          toStatus: g.status,
+          fromLocation: here,
+          toLocation: here,
+          note: `Copy #${copy.copyNumber} made: ${copy.tagCode}`,
+          actorId: actor.user.id,
+        },
         { transaction },
       );
       made.push(copy.id);
     }
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "garment.copies", entityType: "garment", entityId: g.id, after: { multiplesGroupId: groupId, tagCodes: codes } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "garment.copies",
+        entityType: "garment",
+        entityId: g.id,
+        after: { multiplesGroupId: groupId, tagCodes: codes },
+      },
+      transaction,
+    );
     return [g.id, ...made];
   });
   return Garment.findAll({ where: { id: ids }, include: includeNames, order: [["copyNumber", "ASC"]] });
@@ -353,43 +510,77 @@ const isCheckedOutStatus = (s: GarmentStatus) => (checkedOutStatuses as readonly
  * Checks a check-out request against the production: the member or performer, the day, the scene
  * (on that day), and a due date not before today. Throws 400 naming the field.
  */
-export async function resolveCheckout(actor: Actor, status: GarmentStatus, c: CheckoutInput, transaction?: Transaction): Promise<ResolvedCheckout> {
+export async function resolveCheckout(
+  actor: Actor,
+  status: GarmentStatus,
+  c: CheckoutInput,
+  transaction?: Transaction,
+): Promise<ResolvedCheckout> {
   const pid = actor.productionId;
   if (!isCheckedOutStatus(status)) {
-    throw ValidationError(`checkout: a garment is checked out only when it goes ${checkedOutStatuses.map((s) => garmentStatusLabels[s]).join(" or ")}`, {
-      status: `must be ${checkedOutStatuses.map((s) => garmentStatusLabels[s]).join(" or ")} to check out to someone`,
-    });
+    throw ValidationError(
+      `checkout: a garment is checked out only when it goes ${checkedOutStatuses.map((s) => garmentStatusLabels[s]).join(" or ")}`,
+      {
+        status: `must be ${checkedOutStatuses.map((s) => garmentStatusLabels[s]).join(" or ")} to check out to someone`,
+      },
+    );
   }
   let toName: string;
   if (c.toUserId) {
-    const m = await Membership.findOne({ where: { productionId: pid, userId: c.toUserId }, include: [{ model: User, as: "user", attributes: ["id", "name"] }], transaction });
-    if (!m?.user || !can(m.role, "garment.read")) throw ValidationError("checkout.toUserId: is not a member of this production", { "checkout.toUserId": "is not a member of this production" });
+    const m = await Membership.findOne({
+      where: { productionId: pid, userId: c.toUserId },
+      include: [{ model: User, as: "user", attributes: ["id", "name"] }],
+      transaction,
+    });
+    if (!m?.user || !can(m.role, "garment.read"))
+      throw ValidationError("checkout.toUserId: is not a member of this production", {
+        "checkout.toUserId": "is not a member of this production",
+      });
     toName = m.user.name;
   } else {
     const p = await Performer.findOne({ where: { id: c.toPerformerId!, productionId: pid }, attributes: ["id", "name"], transaction });
-    if (!p) throw ValidationError("checkout.toPerformerId: is not a performer of this production", { "checkout.toPerformerId": "is not a performer of this production" });
+    if (!p)
+      throw ValidationError("checkout.toPerformerId: is not a performer of this production", {
+        "checkout.toPerformerId": "is not a performer of this production",
+      });
     toName = p.name;
   }
   const production = await Production.findByPk(pid, { attributes: ["id", "kind"], transaction });
   const words = scheduleLabels(production?.kind ?? "film");
   let day: ShootDay | null = null;
   if (c.shootDayId) {
-    day = await ShootDay.findOne({ where: { id: c.shootDayId, productionId: pid }, attributes: ["id", "date", "kind", "dayNumber"], transaction });
-    if (!day) throw ValidationError(`checkout.shootDayId: no such ${words.day} in this production`, { "checkout.shootDayId": `no such ${words.day} in this production` });
+    day = await ShootDay.findOne({
+      where: { id: c.shootDayId, productionId: pid },
+      attributes: ["id", "date", "kind", "dayNumber"],
+      transaction,
+    });
+    if (!day)
+      throw ValidationError(`checkout.shootDayId: no such ${words.day} in this production`, {
+        "checkout.shootDayId": `no such ${words.day} in this production`,
+      });
   }
   let scene: Scene | null = null;
   if (c.sceneId) {
     scene = await Scene.findOne({ where: { id: c.sceneId, productionId: pid }, attributes: ["id", "number"], transaction });
-    if (!scene) throw ValidationError("checkout.sceneId: no such scene in this production", { "checkout.sceneId": "no such scene in this production" });
+    if (!scene)
+      throw ValidationError("checkout.sceneId: no such scene in this production", {
+        "checkout.sceneId": "no such scene in this production",
+      });
     // A stage performance plays the whole running order, so any scene belongs to it.
     if (day && day.kind !== "performance") {
       const onDay = await ShootDayScene.findOne({ where: { shootDayId: day.id, sceneId: scene.id }, attributes: ["id"], transaction });
-      if (!onDay) throw ValidationError(`checkout.sceneId: scene ${scene.number} is not on ${words.on(day.date)}`, { "checkout.sceneId": `scene ${scene.number} is not on ${words.on(day.date)}` });
+      if (!onDay)
+        throw ValidationError(`checkout.sceneId: scene ${scene.number} is not on ${words.on(day.date)}`, {
+          "checkout.sceneId": `scene ${scene.number} is not on ${words.on(day.date)}`,
+        });
     }
   }
   const today = await todayForProduction(pid, transaction);
   const dueBackOn = c.dueBackOn ?? (day && day.date >= today ? day.date : today);
-  if (dueBackOn < today) throw ValidationError(`checkout.dueBackOn: cannot be before today (${today})`, { "checkout.dueBackOn": `cannot be before today (${today})` });
+  if (dueBackOn < today)
+    throw ValidationError(`checkout.dueBackOn: cannot be before today (${today})`, {
+      "checkout.dueBackOn": `cannot be before today (${today})`,
+    });
   const forParts = [day ? words.on(day.date) : null, scene ? `scene ${scene.number}` : null].filter(Boolean);
   return {
     toKind: c.toUserId ? "member" : "performer",
@@ -422,8 +613,20 @@ async function moveOne(actor: Actor, g: Garment, input: MoveInput, transaction: 
     const c = input.checkout;
     await GarmentCheckout.create(
       {
-        productionId: actor.productionId, garmentId: g.id, toKind: c.toKind, toUserId: c.toUserId, toPerformerId: c.toPerformerId, toName: c.toName,
-        shootDayId: c.shootDayId, sceneId: c.sceneId, dueBackOn: c.dueBackOn, note: input.note || null, checkedOutAt: now, checkedOutBy: actor.user.id, returnedAt: null, returnedBy: null,
+        productionId: actor.productionId,
+        garmentId: g.id,
+        toKind: c.toKind,
+        toUserId: c.toUserId,
+        toPerformerId: c.toPerformerId,
+        toName: c.toName,
+        shootDayId: c.shootDayId,
+        sceneId: c.sceneId,
+        dueBackOn: c.dueBackOn,
+        note: input.note || null,
+        checkedOutAt: now,
+        checkedOutBy: actor.user.id,
+        returnedAt: null,
+        returnedBy: null,
       },
       { transaction },
     );
@@ -432,7 +635,16 @@ async function moveOne(actor: Actor, g: Garment, input: MoveInput, transaction: 
   if (g.status === input.status && fromLocation === toLocation && notes.length === 0) return { garment: g, event: null };
   if (input.note) notes.push(input.note);
   const event = await GarmentStatusEvent.create(
-    { productionId: actor.productionId, garmentId: g.id, fromStatus: g.status, toStatus: input.status, fromLocation, toLocation, note: notes.join(" · ") || null, actorId: actor.user.id },
+    {
+      productionId: actor.productionId,
+      garmentId: g.id,
+      fromStatus: g.status,
+      toStatus: input.status,
+      fromLocation,
+      toLocation,
+      note: notes.join(" · ") || null,
+      actorId: actor.user.id,
+    },
     { transaction },
   );
   await g.update({ status: input.status, locationRack: rack, locationBin: bin }, { transaction });
@@ -446,8 +658,14 @@ async function moveOne(actor: Actor, g: Garment, input: MoveInput, transaction: 
 export async function moveGarments(actor: Actor, input: MoveGarmentsInput): Promise<MoveResult[]> {
   const unique = [...new Set(input.garmentIds)];
   const results = await sequelize.transaction(async (transaction) => {
-    const rows = await Garment.findAll({ where: { id: unique, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE, order: [["id", "ASC"]] });
-    if (rows.length !== unique.length) throw NotFoundError(`${unique.length - rows.length} of the chosen garments were not found; nothing was moved.`);
+    const rows = await Garment.findAll({
+      where: { id: unique, productionId: actor.productionId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+      order: [["id", "ASC"]],
+    });
+    if (rows.length !== unique.length)
+      throw NotFoundError(`${unique.length - rows.length} of the chosen garments were not found; nothing was moved.`);
     const checkout = input.checkout ? await resolveCheckout(actor, input.status, input.checkout, transaction) : null;
     const out: MoveResult[] = [];
     for (const g of rows) out.push(await moveOne(actor, g, { ...input, checkout }, transaction));
@@ -458,7 +676,12 @@ export async function moveGarments(actor: Actor, input: MoveGarmentsInput): Prom
         action: checkout ? "garment.checkout" : "garment.move",
         entityType: "garment",
         entityId: unique.length === 1 ? unique[0] : null,
-        after: { garmentIds: unique, status: input.status, moved: out.filter((r) => r.event).length, ...(checkout ? { to: checkout.toName, dueBackOn: checkout.dueBackOn } : {}) },
+        after: {
+          garmentIds: unique,
+          status: input.status,
+          moved: out.filter((r) => r.event).length,
+          ...(checkout ? { to: checkout.toName, dueBackOn: checkout.dueBackOn } : {}),
+        },
       },
       transaction,
     );
@@ -471,7 +694,10 @@ async function reloadResults(results: MoveResult[]): Promise<MoveResult[]> {
   const fresh = await Garment.findAll({ where: { id: results.map((r) => r.garment.id) }, include: includeNames });
   const byId = new Map(fresh.map((g) => [g.id, g]));
   const eventIds = results.map((r) => r.event?.id).filter((x): x is string => Boolean(x));
-  const events = await GarmentStatusEvent.findAll({ where: { id: eventIds }, include: [{ model: User, as: "actor", attributes: ["id", "name"] }] });
+  const events = await GarmentStatusEvent.findAll({
+    where: { id: eventIds },
+    include: [{ model: User, as: "actor", attributes: ["id", "name"] }],
+  });
   const evById = new Map(events.map((e) => [e.id, e]));
   return results.map((r) => ({ garment: byId.get(r.garment.id)!, event: r.event ? evById.get(r.event.id)! : null }));
 }
@@ -490,7 +716,25 @@ export async function garmentsCsv(actor: Actor, f: GarmentFilters, unit: LengthU
   const rows = await findGarments(actor, f);
   const points = ["chest", "bust", "waist", "hip", "back_length", "sleeve", "inside_leg", "neck", "shoulder"] as const;
   const columns = [
-    ...(["tag_code", "name", "category", "size_label", "fit_intent", "status", "rack", "bin", "source", "vendor", "cost", "rental_due_on", "fabric", "colour", "distress_stage", "multiples_group", "copy_number"] as const),
+    ...([
+      "tag_code",
+      "name",
+      "category",
+      "size_label",
+      "fit_intent",
+      "status",
+      "rack",
+      "bin",
+      "source",
+      "vendor",
+      "cost",
+      "rental_due_on",
+      "fabric",
+      "colour",
+      "distress_stage",
+      "multiples_group",
+      "copy_number",
+    ] as const),
     ...points.flatMap((p) => [`${p}_mm`, `${p}_${unit}`]),
   ];
   const data = rows.map((g) => {
@@ -530,12 +774,23 @@ export function statusLabel(s: GarmentStatus): string {
 }
 
 /** Values the wardrobe filters offer: categories and racks in use, and the production's characters. */
-export async function garmentFilterOptions(actor: Actor): Promise<{ categories: string[]; racks: string[]; characters: Array<{ id: string; name: string }> }> {
+export async function garmentFilterOptions(
+  actor: Actor,
+): Promise<{ categories: string[]; racks: string[]; characters: Array<{ id: string; name: string }> }> {
   const rep = { replacements: { pid: actor.productionId }, type: QueryTypes.SELECT } as const;
-  const cats = await sequelize.query<{ v: string }>(`SELECT DISTINCT category AS v FROM garments WHERE production_id = :pid ORDER BY 1`, rep);
-  const racks = await sequelize.query<{ v: string }>(`SELECT DISTINCT location_rack AS v FROM garments WHERE production_id = :pid AND location_rack IS NOT NULL ORDER BY 1`, rep);
+  const cats = await sequelize.query<{ v: string }>(
+    `SELECT DISTINCT category AS v FROM garments WHERE production_id = :pid ORDER BY 1`,
+    rep,
+  );
+  const racks = await sequelize.query<{ v: string }>(
+    `SELECT DISTINCT location_rack AS v FROM garments WHERE production_id = :pid AND location_rack IS NOT NULL ORDER BY 1`,
+    rep,
+  );
   // Characters belong to the breakdown; read id and name only.
-  const characters = await sequelize.query<{ id: string; name: string }>(`SELECT id, name FROM characters WHERE production_id = :pid ORDER BY sort_order, name`, rep);
+  const characters = await sequelize.query<{ id: string; name: string }>(
+    `SELECT id, name FROM characters WHERE production_id = :pid ORDER BY sort_order, name`,
+    rep,
+  );
   return { categories: cats.map((r) => r.v), racks: racks.map((r) => r.v), characters };
 }
 
@@ -544,7 +799,11 @@ export async function listOpenCheckouts(actor: Actor): Promise<GarmentCheckout[]
   return GarmentCheckout.findAll({
     where: { productionId: actor.productionId, returnedAt: null },
     include: [...checkoutIncludes, { model: Garment, as: "garment", attributes: ["id", "tagCode", "name", "status"] }],
-    order: [["dueBackOn", "ASC"], ["checkedOutAt", "ASC"], ["id", "ASC"]],
+    order: [
+      ["dueBackOn", "ASC"],
+      ["checkedOutAt", "ASC"],
+      ["id", "ASC"],
+    ],
   });
 }
 
@@ -579,15 +838,27 @@ export async function checkoutOptions(actor: Actor): Promise<CheckoutOptionsDto>
   // A performance plays the whole running order: offer every scene, in story order.
   const needsRunningOrder = days.some((d) => d.kind === "performance");
   const runningOrder = needsRunningOrder
-    ? await sequelize.query<{ id: string; number: string }>(`SELECT id, number FROM scenes WHERE production_id = :pid ORDER BY story_order, id`, rep)
+    ? await sequelize.query<{ id: string; number: string }>(
+        `SELECT id, number FROM scenes WHERE production_id = :pid ORDER BY story_order, id`,
+        rep,
+      )
     : [];
   const scenesOf = new Map<string, Array<{ id: string; number: string }>>();
-  for (const r of dayScenes) (scenesOf.get(r.shoot_day_id) ?? scenesOf.set(r.shoot_day_id, []).get(r.shoot_day_id)!).push({ id: r.id, number: r.number });
+  for (const r of dayScenes)
+    (scenesOf.get(r.shoot_day_id) ?? scenesOf.set(r.shoot_day_id, []).get(r.shoot_day_id)!).push({ id: r.id, number: r.number });
   return {
     today,
     // Only people who handle garments (the permission table decides who that is) can take one out.
-    members: members.filter((m) => can(m.role as Role, "garment.read")).map((m) => ({ userId: m.user_id, name: m.name, role: roleLabels[m.role as Role] ?? m.role })),
+    members: members
+      .filter((m) => can(m.role as Role, "garment.read"))
+      .map((m) => ({ userId: m.user_id, name: m.name, role: roleLabels[m.role as Role] ?? m.role })),
     performers: performers.map((p) => ({ id: p.id, name: p.name, characters: p.characters ?? [] })),
-    days: days.map((d) => ({ id: d.id, date: d.date, kind: d.kind, dayNumber: d.day_number, scenes: d.kind === "performance" ? runningOrder : (scenesOf.get(d.id) ?? []) })),
+    days: days.map((d) => ({
+      id: d.id,
+      date: d.date,
+      kind: d.kind,
+      dayNumber: d.day_number,
+      scenes: d.kind === "performance" ? runningOrder : (scenesOf.get(d.id) ?? []),
+    })),
   };
 }

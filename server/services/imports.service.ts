@@ -3,7 +3,16 @@
 // transaction, or nothing.
 import { Op, type Transaction } from "sequelize";
 import type { ImportPreviewDto, ImportResultDto } from "@shared/schemas/breakdown.js";
-import { breakdownTemplateCsv, breakdownToCsv, parseBreakdownCsv, planBreakdownImport, type BreakdownImportPlan, type ParsedBreakdownCsv, type SceneValues, type StoredBreakdown } from "@shared/domain/breakdown-csv.js";
+import {
+  breakdownTemplateCsv,
+  breakdownToCsv,
+  parseBreakdownCsv,
+  planBreakdownImport,
+  type BreakdownImportPlan,
+  type ParsedBreakdownCsv,
+  type SceneValues,
+  type StoredBreakdown,
+} from "@shared/domain/breakdown-csv.js";
 import { sequelize } from "../db.js";
 import { Production, Scene, ShootDay, ShootDayScene } from "../models/index.js";
 import { ValidationError } from "../errors.js";
@@ -23,19 +32,35 @@ const sceneValues = (s: Scene): SceneValues => ({
 });
 
 /** The stored scenes and days the file names (locked for update inside the import's transaction). */
-async function loadStored(actor: Actor, parsed: ParsedBreakdownCsv, transaction?: Transaction): Promise<StoredBreakdown & { sceneIds: Map<string, string>; dayIds: Map<number, string> }> {
+async function loadStored(
+  actor: Actor,
+  parsed: ParsedBreakdownCsv,
+  transaction?: Transaction,
+): Promise<StoredBreakdown & { sceneIds: Map<string, string>; dayIds: Map<number, string> }> {
   const pid = actor.productionId;
   const numbers = [...new Set([...parsed.scenes.map((s) => s.number), ...parsed.shootDays.flatMap((d) => d.scenes.map((x) => x.number))])];
   const lock = transaction ? { transaction, lock: transaction.LOCK.UPDATE } : {};
   const scenes = numbers.length ? await Scene.findAll({ where: { productionId: pid, number: { [Op.in]: numbers } }, ...lock }) : [];
-  const days = parsed.shootDays.length ? await ShootDay.findAll({ where: { productionId: pid, dayNumber: { [Op.in]: parsed.shootDays.map((d) => d.dayNumber) } }, ...lock }) : [];
+  const days = parsed.shootDays.length
+    ? await ShootDay.findAll({ where: { productionId: pid, dayNumber: { [Op.in]: parsed.shootDays.map((d) => d.dayNumber) } }, ...lock })
+    : [];
   const slots = days.length
-    ? await ShootDayScene.findAll({ where: { productionId: pid, shootDayId: { [Op.in]: days.map((d) => d.id) } }, include: [{ model: Scene, as: "scene", attributes: ["id", "number"] }], order: [["position", "ASC"]], transaction })
+    ? await ShootDayScene.findAll({
+        where: { productionId: pid, shootDayId: { [Op.in]: days.map((d) => d.id) } },
+        include: [{ model: Scene, as: "scene", attributes: ["id", "number"] }],
+        order: [["position", "ASC"]],
+        transaction,
+      })
     : [];
   const maxOrder = (await Scene.max("storyOrder", { where: { productionId: pid }, transaction })) as number | null;
   return {
     scenes: new Map(scenes.map((s) => [s.number, sceneValues(s)])),
-    days: new Map(days.map((d) => [d.dayNumber, { date: d.date, sceneNumbers: slots.filter((x) => x.shootDayId === d.id).map((x) => x.scene?.number ?? "") }])),
+    days: new Map(
+      days.map((d) => [
+        d.dayNumber,
+        { date: d.date, sceneNumbers: slots.filter((x) => x.shootDayId === d.id).map((x) => x.scene?.number ?? "") },
+      ]),
+    ),
     nextStoryOrder: (maxOrder ?? 0) + 1,
     // A day's other scenes stay on it, so their ids are needed too.
     sceneIds: new Map([...slots.map((x) => [x.scene?.number ?? "", x.sceneId] as const), ...scenes.map((s) => [s.number, s.id] as const)]),
@@ -70,7 +95,10 @@ function refuse(errors: ReturnType<typeof allErrors>): never {
     const key = `line ${e.line}, ${e.column}`;
     fields[key] = fields[key] ? `${fields[key]}; ${e.message}` : e.message;
   }
-  throw ValidationError(`The file has ${errors.length} problem${errors.length > 1 ? "s" : ""}; nothing was imported. First: line ${errors[0]!.line}, ${errors[0]!.column}: ${errors[0]!.message}`, fields);
+  throw ValidationError(
+    `The file has ${errors.length} problem${errors.length > 1 ? "s" : ""}; nothing was imported. First: line ${errors[0]!.line}, ${errors[0]!.column}: ${errors[0]!.message}`,
+    fields,
+  );
 }
 
 /**
@@ -93,7 +121,17 @@ export async function importBreakdown(actor: Actor, csv: string, fileName?: stri
         {
           transaction,
           conflictAttributes: ["productionId", "number"],
-          updateOnDuplicate: ["setName", "intExt", "timeOfDay", "storyDay", "storyOrder", "lengthEighths", "runningMinutes", "synopsis", "updatedAt"],
+          updateOnDuplicate: [
+            "setName",
+            "intExt",
+            "timeOfDay",
+            "storyDay",
+            "storyOrder",
+            "lengthEighths",
+            "runningMinutes",
+            "synopsis",
+            "updatedAt",
+          ],
           returning: ["id", "number"],
         },
       );
@@ -101,21 +139,50 @@ export async function importBreakdown(actor: Actor, csv: string, fileName?: stri
     }
     if (plan.dayWrites.length) {
       const days = await ShootDay.bulkCreate(
-        plan.dayWrites.map((d) => ({ productionId: pid, dayNumber: d.dayNumber, date: d.date, kind: "shoot" as const, startsAt: null, notes: null })),
-        { transaction, conflictAttributes: ["productionId", "dayNumber"], updateOnDuplicate: ["date", "updatedAt"], returning: ["id", "dayNumber"] },
+        plan.dayWrites.map((d) => ({
+          productionId: pid,
+          dayNumber: d.dayNumber,
+          date: d.date,
+          kind: "shoot" as const,
+          startsAt: null,
+          notes: null,
+        })),
+        {
+          transaction,
+          conflictAttributes: ["productionId", "dayNumber"],
+          updateOnDuplicate: ["date", "updatedAt"],
+          returning: ["id", "dayNumber"],
+        },
       );
       const dayId = new Map(days.map((d) => [d.dayNumber, d.id]));
       const reorder = plan.dayWrites.filter((d) => d.scenesChanged);
       if (reorder.length) {
         await ShootDayScene.destroy({ where: { shootDayId: { [Op.in]: reorder.map((d) => dayId.get(d.dayNumber)!) } }, transaction });
         await ShootDayScene.bulkCreate(
-          reorder.flatMap((d) => d.sceneNumbers.map((n, i) => ({ productionId: pid, shootDayId: dayId.get(d.dayNumber)!, sceneId: sceneId.get(n)!, position: i + 1 }))),
+          reorder.flatMap((d) =>
+            d.sceneNumbers.map((n, i) => ({
+              productionId: pid,
+              shootDayId: dayId.get(d.dayNumber)!,
+              sceneId: sceneId.get(n)!,
+              position: i + 1,
+            })),
+          ),
           { transaction },
         );
       }
     }
     const result = { rows: parsed.rows, scenes: plan.counts.scenes, shootDays: plan.counts.shootDays };
-    await recordAudit({ productionId: pid, actorId: actor.user.id, action: "breakdown.import", entityType: "production", entityId: pid, after: { fileName: fileName ?? null, ...result } }, transaction);
+    await recordAudit(
+      {
+        productionId: pid,
+        actorId: actor.user.id,
+        action: "breakdown.import",
+        entityType: "production",
+        entityId: pid,
+        after: { fileName: fileName ?? null, ...result },
+      },
+      transaction,
+    );
     return result;
   });
 }
@@ -131,10 +198,29 @@ export async function exportBreakdown(actor: Actor): Promise<string> {
   const pid = actor.productionId;
   const [scenes, days] = await Promise.all([
     Scene.findAll({ where: { productionId: pid } }),
-    ShootDay.findAll({ where: { productionId: pid, kind: "shoot" }, include: [{ model: ShootDayScene, as: "dayScenes", include: [{ model: Scene, as: "scene", attributes: ["number"] }] }] }),
+    ShootDay.findAll({
+      where: { productionId: pid, kind: "shoot" },
+      include: [{ model: ShootDayScene, as: "dayScenes", include: [{ model: Scene, as: "scene", attributes: ["number"] }] }],
+    }),
   ]);
   return breakdownToCsv(
-    scenes.map((s) => ({ number: s.number, setName: s.setName, intExt: s.intExt, timeOfDay: s.timeOfDay, storyDay: s.storyDay, storyOrder: s.storyOrder, lengthEighths: s.lengthEighths, runningMinutes: num(s.runningMinutes), synopsis: s.synopsis })),
-    days.map((d) => ({ dayNumber: d.dayNumber, date: d.date, scenes: (d.dayScenes ?? []).sort((a, b) => a.position - b.position).map((x) => ({ number: x.scene?.number ?? "", position: x.position })) })),
+    scenes.map((s) => ({
+      number: s.number,
+      setName: s.setName,
+      intExt: s.intExt,
+      timeOfDay: s.timeOfDay,
+      storyDay: s.storyDay,
+      storyOrder: s.storyOrder,
+      lengthEighths: s.lengthEighths,
+      runningMinutes: num(s.runningMinutes),
+      synopsis: s.synopsis,
+    })),
+    days.map((d) => ({
+      dayNumber: d.dayNumber,
+      date: d.date,
+      scenes: (d.dayScenes ?? [])
+        .sort((a, b) => a.position - b.position)
+        .map((x) => ({ number: x.scene?.number ?? "", position: x.position })),
+    })),
   );
 }

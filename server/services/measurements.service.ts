@@ -12,10 +12,13 @@ import { presentMeasurementSet } from "../presenters/measurements.presenter.js";
 
 /** The performer (a Breakdown record, read directly) or 404. */
 async function performerOrThrow(actor: Actor, performerId: string): Promise<{ id: string; name: string }> {
-  const rows = await sequelize.query<{ id: string; name: string }>(`SELECT id, name FROM performers WHERE id = :id AND production_id = :pid`, {
-    replacements: { id: performerId, pid: actor.productionId },
-    type: QueryTypes.SELECT,
-  });
+  const rows = await sequelize.query<{ id: string; name: string }>(
+    `SELECT id, name FROM performers WHERE id = :id AND production_id = :pid`,
+    {
+      replacements: { id: performerId, pid: actor.productionId },
+      type: QueryTypes.SELECT,
+    },
+  );
   if (!rows[0]) throw NotFoundError("Performer not found.");
   return rows[0];
 }
@@ -26,7 +29,10 @@ export async function getPerformerMeasurements(actor: Actor, performerId: string
   const sets = await MeasurementSet.findAll({
     where: { performerId, productionId: actor.productionId },
     include: [{ model: User, as: "taker", attributes: ["id", "name"] }],
-    order: [["takenOn", "DESC"], ["createdAt", "DESC"]],
+    order: [
+      ["takenOn", "DESC"],
+      ["createdAt", "DESC"],
+    ],
   });
   const current = sets[0]?.valuesMm ?? {};
   const shoe = shoeSize(current);
@@ -34,7 +40,9 @@ export async function getPerformerMeasurements(actor: Actor, performerId: string
     performer,
     sets: sets.map(presentMeasurementSet),
     sizes: sizeLines(current),
-    mondopoint: shoe ? { label: shoe.label, lengthMm: shoe.lengthMm, ...(shoe.widthMm !== undefined ? { widthMm: shoe.widthMm } : {}) } : null,
+    mondopoint: shoe
+      ? { label: shoe.label, lengthMm: shoe.lengthMm, ...(shoe.widthMm !== undefined ? { widthMm: shoe.widthMm } : {}) }
+      : null,
   };
 }
 
@@ -57,10 +65,28 @@ export async function createMeasurementSet(actor: Actor, performerId: string, in
   }
   const id = await sequelize.transaction(async (transaction) => {
     const m = await MeasurementSet.create(
-      { productionId: actor.productionId, performerId, takenOn: input.takenOn, takenBy: actor.user.id, valuesMm, enteredUnit: input.unit, notes: input.notes },
+      {
+        productionId: actor.productionId,
+        performerId,
+        takenOn: input.takenOn,
+        takenBy: actor.user.id,
+        valuesMm,
+        enteredUnit: input.unit,
+        notes: input.notes,
+      },
       { transaction },
     );
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "measurement.create", entityType: "measurement_set", entityId: m.id, after: { performerId, takenOn: input.takenOn, unit: input.unit } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "measurement.create",
+        entityType: "measurement_set",
+        entityId: m.id,
+        after: { performerId, takenOn: input.takenOn, unit: input.unit },
+      },
+      transaction,
+    );
     return m.id;
   });
   return (await MeasurementSet.findByPk(id, { include: [{ model: User, as: "taker", attributes: ["id", "name"] }] }))!;
@@ -73,6 +99,16 @@ export async function deleteMeasurementSet(actor: Actor, performerId: string, se
     if (!m) throw NotFoundError("Measurement set not found.");
     await m.destroy({ transaction });
     // The audit keeps the date and who took it, not the body values (personal data).
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "measurement.delete", entityType: "measurement_set", entityId: setId, before: { performerId, takenOn: m.takenOn } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "measurement.delete",
+        entityType: "measurement_set",
+        entityId: setId,
+        before: { performerId, takenOn: m.takenOn },
+      },
+      transaction,
+    );
   });
 }

@@ -55,7 +55,17 @@ export async function inviteMember(actor: Actor, input: InviteMemberInput): Prom
       },
       { transaction },
     );
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "member.invite", entityType: "invitation", entityId: created.id, after: { email: input.email, role: input.role } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "member.invite",
+        entityType: "invitation",
+        entityId: created.id,
+        after: { email: input.email, role: input.role },
+      },
+      transaction,
+    );
     return created;
   });
   const production = await Production.findByPk(actor.productionId);
@@ -73,29 +83,58 @@ export async function inviteMember(actor: Actor, input: InviteMemberInput): Prom
 /** Withdraws a pending invitation. */
 export async function revokeInvitation(actor: Actor, invitationId: string): Promise<void> {
   await sequelize.transaction(async (transaction) => {
-    const inv = await Invitation.findOne({ where: { id: invitationId, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
+    const inv = await Invitation.findOne({
+      where: { id: invitationId, productionId: actor.productionId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!inv) throw NotFoundError("Invitation not found.");
     if (inv.acceptedAt) throw ConflictError("That invitation was already accepted.");
     await inv.update({ revokedAt: new Date() }, { transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "member.invitation_revoke", entityType: "invitation", entityId: inv.id }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "member.invitation_revoke",
+        entityType: "invitation",
+        entityId: inv.id,
+      },
+      transaction,
+    );
   });
 }
 
 async function assertNotLastSupervisor(productionId: string, membership: Membership, transaction: import("sequelize").Transaction) {
   if (membership.role !== "supervisor") return;
   const supervisors = await Membership.count({ where: { productionId, role: "supervisor", id: { [Op.ne]: membership.id } }, transaction });
-  if (supervisors === 0) throw ConflictError("A production needs at least one supervisor; make someone else supervisor first.", { role: "last supervisor" });
+  if (supervisors === 0)
+    throw ConflictError("A production needs at least one supervisor; make someone else supervisor first.", { role: "last supervisor" });
 }
 
 /** Changes a member's role (never leaving the production without a supervisor). */
 export async function updateMemberRole(actor: Actor, membershipId: string, input: UpdateMemberInput): Promise<Membership> {
   return sequelize.transaction(async (transaction) => {
-    const m = await Membership.findOne({ where: { id: membershipId, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
+    const m = await Membership.findOne({
+      where: { id: membershipId, productionId: actor.productionId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!m) throw NotFoundError("Member not found.");
     if (input.role !== "supervisor") await assertNotLastSupervisor(actor.productionId, m, transaction);
     const before = { role: m.role };
     await m.update({ role: input.role }, { transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "member.role_change", entityType: "membership", entityId: m.id, before, after: { role: input.role } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "member.role_change",
+        entityType: "membership",
+        entityId: m.id,
+        before,
+        after: { role: input.role },
+      },
+      transaction,
+    );
     await m.reload({ include: [{ model: User, as: "user" }], transaction });
     return m;
   });
@@ -104,17 +143,35 @@ export async function updateMemberRole(actor: Actor, membershipId: string, input
 /** Removes a member from the production (their account stays). */
 export async function removeMember(actor: Actor, membershipId: string): Promise<void> {
   await sequelize.transaction(async (transaction) => {
-    const m = await Membership.findOne({ where: { id: membershipId, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
+    const m = await Membership.findOne({
+      where: { id: membershipId, productionId: actor.productionId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!m) throw NotFoundError("Member not found.");
     await assertNotLastSupervisor(actor.productionId, m, transaction);
     await m.destroy({ transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "member.remove", entityType: "membership", entityId: m.id, before: { userId: m.userId, role: m.role } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "member.remove",
+        entityType: "membership",
+        entityId: m.id,
+        before: { userId: m.userId, role: m.role },
+      },
+      transaction,
+    );
   });
 }
 
 async function findUsableInvitation(token: string, transaction?: import("sequelize").Transaction) {
   // Row lock without the join: PostgreSQL refuses FOR UPDATE on the nullable side of an outer join.
-  const inv = await Invitation.findOne({ where: { tokenHash: hashToken(token) }, transaction, lock: transaction ? transaction.LOCK.UPDATE : undefined });
+  const inv = await Invitation.findOne({
+    where: { tokenHash: hashToken(token) },
+    transaction,
+    lock: transaction ? transaction.LOCK.UPDATE : undefined,
+  });
   if (!inv || inv.revokedAt || inv.acceptedAt || inv.expiresAt < new Date()) {
     throw NotFoundError("This invitation link is not valid any more. Ask the supervisor for a new one.");
   }
@@ -133,13 +190,18 @@ export async function previewInvitation(token: string): Promise<InvitationPrevie
  * Accepts an invitation once. A new invitee chooses a name and password; an existing user must be
  * signed in as the invited address. Returns the user to sign in and the production joined.
  */
-export async function acceptInvitation(input: AcceptInvitationInput, signedIn: User | undefined): Promise<{ user: User; productionId: string }> {
+export async function acceptInvitation(
+  input: AcceptInvitationInput,
+  signedIn: User | undefined,
+): Promise<{ user: User; productionId: string }> {
   return sequelize.transaction(async (transaction) => {
     const inv = await findUsableInvitation(input.token, transaction);
     let user = await User.findOne({ where: { email: inv.email }, transaction });
     if (user?.passwordHash) {
       if (!signedIn || signedIn.id !== user.id) {
-        throw ConflictError("An account with this e-mail exists: sign in as that account, then open the link again.", { email: "sign in first" });
+        throw ConflictError("An account with this e-mail exists: sign in as that account, then open the link again.", {
+          email: "sign in first",
+        });
       }
     } else {
       if (!input.password) throw ValidationError("password: choose a password", { password: "choose a password" });
@@ -152,7 +214,17 @@ export async function acceptInvitation(input: AcceptInvitationInput, signedIn: U
     if (!existing) await Membership.create({ productionId: inv.productionId, userId: user.id, role: inv.role }, { transaction });
     await inv.update({ acceptedAt: new Date() }, { transaction });
     await user.update({ lastProductionId: inv.productionId }, { transaction });
-    await recordAudit({ productionId: inv.productionId, actorId: user.id, action: "member.join", entityType: "invitation", entityId: inv.id, after: { role: inv.role } }, transaction);
+    await recordAudit(
+      {
+        productionId: inv.productionId,
+        actorId: user.id,
+        action: "member.join",
+        entityType: "invitation",
+        entityId: inv.id,
+        after: { role: inv.role },
+      },
+      transaction,
+    );
     return { user, productionId: inv.productionId };
   });
 }

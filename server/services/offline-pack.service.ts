@@ -25,14 +25,26 @@ export async function offlinePack(actor: Actor, production: Production): Promise
   const pid = actor.productionId;
   const today = await todayForProduction(pid);
   const kind = production.kind === "stage" ? "performance" : "shoot";
-  const next = await ShootDay.findAll({ where: { productionId: pid, kind, date: { [Op.gte]: today } }, order: [["date", "ASC"], ["startsAt", "ASC"], ["dayNumber", "ASC"]], limit: OFFLINE_DAYS, attributes: ["id"] });
+  const next = await ShootDay.findAll({
+    where: { productionId: pid, kind, date: { [Op.gte]: today } },
+    order: [
+      ["date", "ASC"],
+      ["startsAt", "ASC"],
+      ["dayNumber", "ASC"],
+    ],
+    limit: OFFLINE_DAYS,
+    attributes: ["id"],
+  });
   const shootDays = await Promise.all(next.map((d) => getShootDay(actor, d.id)));
   const sceneIds = [...new Set(shootDays.flatMap((d) => d.scenes.map((s) => s.id)))];
   const scenes = await Promise.all(sceneIds.map((id) => getSceneDetail(actor, id)));
 
   const characterIds = new Set(scenes.flatMap((s) => s.appearances.map((a) => a.characterId)));
   const changeIds = [...new Set(scenes.flatMap((s) => s.appearances.map((a) => a.changeId)).filter((x): x is string => Boolean(x)))];
-  const [characters, changes] = await Promise.all([listCharacters(actor), changeIds.length ? listChanges(actor, { ids: changeIds }) : Promise.resolve([])]);
+  const [characters, changes] = await Promise.all([
+    listCharacters(actor),
+    changeIds.length ? listChanges(actor, { ids: changeIds }) : Promise.resolve([]),
+  ]);
 
   // The garments the set will handle: those the changes name, and every copy of a named group.
   const garmentIds = changes.flatMap((c) => c.items.map((i) => i.garmentId)).filter((x): x is string => Boolean(x));

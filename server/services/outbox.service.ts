@@ -14,7 +14,10 @@ const ACCOUNT_MAIL_KINDS = ["password_reset", "invitation"];
  * otherwise read links that sign in as someone else.
  */
 export async function listOutbox(actor: Actor, q: PaginationQuery) {
-  const members = await Membership.findAll({ where: { productionId: actor.productionId }, include: [{ model: User, as: "user", attributes: ["email"] }] });
+  const members = await Membership.findAll({
+    where: { productionId: actor.productionId },
+    include: [{ model: User, as: "user", attributes: ["email"] }],
+  });
   const addresses = members.map((m) => m.user?.email.toLowerCase()).filter((a): a is string => !!a);
   return OutboxMessage.findAndCountAll({
     where: {

@@ -6,7 +6,12 @@ import { createRequire } from "node:module";
 import type { Archiver, ArchiverOptions, ProgressData } from "archiver";
 import type { Readable } from "node:stream";
 import type { PacketContents, PacketFabricSnapshot } from "@shared/schemas/packets.js";
-import { packetManifestJsonSchema, PACKET_MANIFEST_SCHEMA_ID, type PacketManifest, type StitchesFile } from "@shared/schemas/packet-manifest.js";
+import {
+  packetManifestJsonSchema,
+  PACKET_MANIFEST_SCHEMA_ID,
+  type PacketManifest,
+  type StitchesFile,
+} from "@shared/schemas/packet-manifest.js";
 import { meshPanelsForSimulation, meshToObj } from "@shared/domain/panels/mesh.js";
 import { panelsToJson, panelsToObj, panelsToSvg, type SeamRef } from "@shared/domain/panels/export.js";
 import { panelsToDxf, panelToDxf } from "@shared/domain/panels/dxf-writer.js";
@@ -67,7 +72,10 @@ export function photoZipPath(index: number, view: string, photoId: string, stora
 }
 
 /** Simulation meshes (one OBJ per panel) and stitches.json; none for versions snapshotted before meshes existed. */
-export function simulationFiles(contents: PacketContents, shapes: PanelShape[]): { files: PacketFile[]; manifest: NonNullable<PacketManifest["simulation"]> } | null {
+export function simulationFiles(
+  contents: PacketContents,
+  shapes: PanelShape[],
+): { files: PacketFile[]; manifest: NonNullable<PacketManifest["simulation"]> } | null {
   if (contents.meshTargetEdgeMm === undefined || contents.panels.length === 0) return null;
   const sim = meshPanelsForSimulation(
     contents.panels.map((p) => ({ id: p.id, outline: p.outline })),
@@ -75,7 +83,9 @@ export function simulationFiles(contents: PacketContents, shapes: PanelShape[]):
     { targetEdgeMm: contents.meshTargetEdgeMm },
   );
   const shapeOf = new Map(shapes.map((sh) => [sh.id, sh]));
-  const pathOf = new Map(contents.panels.map((p, i) => [p.id, `meshes/${String(i + 1).padStart(2, "0")}-${slug(shapeOf.get(p.id)!.name)}.obj`]));
+  const pathOf = new Map(
+    contents.panels.map((p, i) => [p.id, `meshes/${String(i + 1).padStart(2, "0")}-${slug(shapeOf.get(p.id)!.name)}.obj`]),
+  );
   const files: PacketFile[] = sim.meshes.map((m) => ({
     path: pathOf.get(m.panelId)!,
     data: Buffer.from(meshToObj(m, shapeOf.get(m.panelId)!.name), "utf8"),
@@ -98,7 +108,12 @@ export function simulationFiles(contents: PacketContents, shapes: PanelShape[]):
     })),
     skipped: sim.skipped.map((x) => ({ ...x, name: seamName.get(x.seamId) ?? x.seamId })),
   };
-  files.push({ path: "stitches.json", data: json(stitches), mediaType: "application/json", description: "Mesh vertex pairs a simulator joins along each seam (0-based indices into meshes/*.obj)" });
+  files.push({
+    path: "stitches.json",
+    data: json(stitches),
+    mediaType: "application/json",
+    description: "Mesh vertex pairs a simulator joins along each seam (0-based indices into meshes/*.obj)",
+  });
   const panelOf = new Map(contents.panels.map((p) => [p.id, p]));
   return {
     files,
@@ -118,7 +133,11 @@ export function simulationFiles(contents: PacketContents, shapes: PanelShape[]):
         cutCount: panelOf.get(m.panelId)!.cutCount,
         mirrored: panelOf.get(m.panelId)!.mirrored,
       })),
-      stitches: { path: "stitches.json", seamCount: stitches.seams.length, pairCount: stitches.seams.reduce((n, x) => n + x.pairs.length, 0) },
+      stitches: {
+        path: "stitches.json",
+        seamCount: stitches.seams.length,
+        pairCount: stitches.seams.reduce((n, x) => n + x.pairs.length, 0),
+      },
     },
   };
 }
@@ -178,7 +197,17 @@ const panelsJson: PacketFileBuilder = ({ contents, shapes }) => {
     {
       path: "panels.json",
       // The shared writer, plus the garment, fabric and area of each piece.
-      data: Buffer.from(panelsToJson(shapes.map((s) => ({ ...s, garmentId: extra.get(s.id)!.garmentId, fabricId: extra.get(s.id)!.fabricId, areaMm2: extra.get(s.id)!.areaMm2 }))) + "\n", "utf8"),
+      data: Buffer.from(
+        panelsToJson(
+          shapes.map((s) => ({
+            ...s,
+            garmentId: extra.get(s.id)!.garmentId,
+            fabricId: extra.get(s.id)!.fabricId,
+            areaMm2: extra.get(s.id)!.areaMm2,
+          })),
+        ) + "\n",
+        "utf8",
+      ),
       mediaType: "application/json",
       description: "Flat pattern pieces: sew-line outline, grainline, notches, seam allowance, cut count (millimetres, y up)",
     },
@@ -186,12 +215,22 @@ const panelsJson: PacketFileBuilder = ({ contents, shapes }) => {
 };
 
 const panelsSvg: PacketFileBuilder = ({ shapes }) => [
-  { path: "panels.svg", data: Buffer.from(panelsToSvg(shapes), "utf8"), mediaType: "image/svg+xml", description: "Pieces drawn 1:1 in millimetres: sew line, cut line, grainline, notches" },
+  {
+    path: "panels.svg",
+    data: Buffer.from(panelsToSvg(shapes), "utf8"),
+    mediaType: "image/svg+xml",
+    description: "Pieces drawn 1:1 in millimetres: sew line, cut line, grainline, notches",
+  },
 ];
 
 const dxfDescription = "ASTM D6673 layers: cut line 1, sew line 14, grain line 7, notches 4; piece name and quantity as text (millimetres)";
 const panelsDxf: PacketFileBuilder = ({ shapes }) => [
-  { path: "panels.dxf", data: Buffer.from(panelsToDxf(shapes), "utf8"), mediaType: "image/vnd.dxf", description: `Every piece in one ASCII DXF, one block each; ${dxfDescription}` },
+  {
+    path: "panels.dxf",
+    data: Buffer.from(panelsToDxf(shapes), "utf8"),
+    mediaType: "image/vnd.dxf",
+    description: `Every piece in one ASCII DXF, one block each; ${dxfDescription}`,
+  },
   ...shapes.map((s, i) => ({
     path: `dxf/${String(i + 1).padStart(2, "0")}-${slug(s.name)}.dxf`,
     data: Buffer.from(panelToDxf(s), "utf8"),
@@ -201,10 +240,18 @@ const panelsDxf: PacketFileBuilder = ({ shapes }) => [
 ];
 
 const panelsObj: PacketFileBuilder = ({ obj, contents }) => [
-  { path: "panels.obj", data: Buffer.from(obj.obj, "utf8"), mediaType: "model/obj", description: "Each piece flat and triangulated (metres, z = 0), one group per piece, UV = flat position" },
+  {
+    path: "panels.obj",
+    data: Buffer.from(obj.obj, "utf8"),
+    mediaType: "model/obj",
+    description: "Each piece flat and triangulated (metres, z = 0), one group per piece, UV = flat position",
+  },
   {
     path: "seams.json",
-    data: json({ ...obj.seams, seams: obj.seams.seams.map((s) => ({ ...s, name: contents.seams.find((x) => x.id === s.id)?.name ?? s.id })) }),
+    data: json({
+      ...obj.seams,
+      seams: obj.seams.seams.map((s) => ({ ...s, name: contents.seams.find((x) => x.id === s.id)?.name ?? s.id })),
+    }),
     mediaType: "application/json",
     description: "Which panels.obj vertex runs are sewn together (1-based OBJ indices)",
   },
@@ -217,11 +264,22 @@ const fabricsJson: PacketFileBuilder = ({ contents }) => [
     path: "fabrics.json",
     data: json({
       units: "SI",
-      fabrics: contents.fabrics.map((f) => ({ id: f.id, name: f.name, construction: f.construction, fabricClass: f.fabricClass, fibreContent: f.fibreContent, widthM: f.widthMm === null ? null : f.widthMm / 1000, simulation: f.simulation, tests: f.tests, ...retestField(f) })),
+      fabrics: contents.fabrics.map((f) => ({
+        id: f.id,
+        name: f.name,
+        construction: f.construction,
+        fabricClass: f.fabricClass,
+        fibreContent: f.fibreContent,
+        widthM: f.widthMm === null ? null : f.widthMm / 1000,
+        simulation: f.simulation,
+        tests: f.tests,
+        ...retestField(f),
+      })),
       panels: contents.panels.map((p) => ({ panelId: p.id, fabricId: p.fabricId })),
     }),
     mediaType: "application/json",
-    description: "Simulation values per fabric, each measured (with its tests) or assumed (class default), and the cantilever re-test of the bending values (overhangs in mm)",
+    description:
+      "Simulation values per fabric, each measured (with its tests) or assumed (class default), and the cantilever re-test of the bending values (overhangs in mm)",
   },
 ];
 
@@ -247,28 +305,60 @@ const photos: PacketFileBuilder = async ({ contents, readPhoto }) => {
   const out: PacketFile[] = [];
   for (const p of contents.photos) {
     if (!p.storageKey) continue;
-    out.push({ path: p.fileName, data: await readPhoto(p.storageKey), mediaType: mediaTypeOf(p.fileName), description: `${p.ownerType} photo, ${p.view}${p.caption ? `: ${p.caption}` : ""}` });
+    out.push({
+      path: p.fileName,
+      data: await readPhoto(p.storageKey),
+      mediaType: mediaTypeOf(p.fileName),
+      description: `${p.ownerType} photo, ${p.view}${p.caption ? `: ${p.caption}` : ""}`,
+    });
   }
   return out;
 };
 
 const shotsJson: PacketFileBuilder = ({ contents }) => [
-  { path: "shots.json", data: json({ shots: contents.shots }), mediaType: "application/json", description: "Effects shots with the distress stage worn and continuity photos" },
+  {
+    path: "shots.json",
+    data: json({ shots: contents.shots }),
+    mediaType: "application/json",
+    description: "Effects shots with the distress stage worn and continuity photos",
+  },
 ];
 
 const summary: PacketFileBuilder = async ({ contents, meta }) => [
-  { path: "summary.pdf", data: await summaryPdf(contents, meta, contents.production.title), mediaType: "application/pdf", description: "Summary: panels, fabrics, shots" },
+  {
+    path: "summary.pdf",
+    data: await summaryPdf(contents, meta, contents.production.title),
+    mediaType: "application/pdf",
+    description: "Summary: panels, fabrics, shots",
+  },
 ];
 
 const manifestSchema: PacketFileBuilder = () => [
-  { path: "manifest.schema.json", data: json(packetManifestJsonSchema()), mediaType: "application/schema+json", description: "JSON Schema of manifest.json" },
+  {
+    path: "manifest.schema.json",
+    data: json(packetManifestJsonSchema()),
+    mediaType: "application/schema+json",
+    description: "JSON Schema of manifest.json",
+  },
 ];
 
 /**
  * The files of a packet, in ZIP order: the one place a file is added. manifest.json (listing them all)
  * goes first and SHA256SUMS (covering all the others) last.
  */
-export const PACKET_FILE_BUILDERS: readonly PacketFileBuilder[] = [panelsJson, panelsSvg, panelsDxf, panelsObj, simulationMeshes, fabricsJson, measurementsJson, photos, shotsJson, summary, manifestSchema];
+export const PACKET_FILE_BUILDERS: readonly PacketFileBuilder[] = [
+  panelsJson,
+  panelsSvg,
+  panelsDxf,
+  panelsObj,
+  simulationMeshes,
+  fabricsJson,
+  measurementsJson,
+  photos,
+  shotsJson,
+  summary,
+  manifestSchema,
+];
 
 /**
  * Every file of the packet, SHA256SUMS last (covering all the others).
@@ -284,7 +374,15 @@ export async function buildPacketFiles(
   const contents = canonical(snapshot);
   const shapes = exportShapes(contents);
   const seamRefs: SeamRef[] = contents.seams.map((s) => ({ id: s.id, a: s.a, b: s.b }));
-  const ctx: PacketBuildContext = { contents, meta, shapes, seamRefs, obj: panelsToObj(shapes, seamRefs), readPhoto, simulation: simulationFiles(contents, shapes) };
+  const ctx: PacketBuildContext = {
+    contents,
+    meta,
+    shapes,
+    seamRefs,
+    obj: panelsToObj(shapes, seamRefs),
+    readPhoto,
+    simulation: simulationFiles(contents, shapes),
+  };
   const files: PacketFile[] = [];
   for (const [i, build] of PACKET_FILE_BUILDERS.entries()) {
     files.push(...(await build(ctx)));
@@ -295,7 +393,15 @@ export async function buildPacketFiles(
     $schema: PACKET_MANIFEST_SCHEMA_ID,
     format: "seamscene-handoff-packet",
     formatVersion: 1,
-    units: { length: "m", mass: "kg", massPerArea: "kg/m²", bendingStiffness: "N·m", stretchStiffness: "N/m", shearStiffness: "N/m/rad", patternFiles: "mm" },
+    units: {
+      length: "m",
+      mass: "kg",
+      massPerArea: "kg/m²",
+      bendingStiffness: "N·m",
+      stretchStiffness: "N/m",
+      shearStiffness: "N/m/rad",
+      patternFiles: "mm",
+    },
     production: contents.production,
     character: contents.character,
     change: contents.change,
@@ -311,7 +417,13 @@ export async function buildPacketFiles(
       photoCount: contents.photos.length,
       shotCount: contents.shots.length,
       measurementsIncluded: Boolean(contents.measurements),
-      files: files.map((f) => ({ path: f.path, mediaType: f.mediaType, bytes: f.data.length, sha256: sha256(f.data), description: f.description })),
+      files: files.map((f) => ({
+        path: f.path,
+        mediaType: f.mediaType,
+        bytes: f.data.length,
+        sha256: sha256(f.data),
+        description: f.description,
+      })),
     },
     notes: contents.notes,
     ...(ctx.simulation ? { simulation: ctx.simulation.manifest } : {}),
@@ -325,7 +437,10 @@ export async function buildPacketFiles(
 
 function mediaTypeOf(name: string): string {
   const ext = path.extname(name).toLowerCase();
-  return { ".webp": "image/webp", ".jpg": "image/jpeg", ".jpeg": "image/jpeg", ".png": "image/png", ".heic": "image/heic" }[ext] ?? "application/octet-stream";
+  return (
+    { ".webp": "image/webp", ".jpg": "image/jpeg", ".jpeg": "image/jpeg", ".png": "image/png", ".heic": "image/heic" }[ext] ??
+    "application/octet-stream"
+  );
 }
 
 /**
@@ -335,7 +450,9 @@ function mediaTypeOf(name: string): string {
 export function zipPacketFiles(files: PacketFile[], options: { date: Date; onProgress?: (p: ZipProgress) => void }): Readable {
   const archive = archiver("zip", { zlib: { level: 6 } });
   const bytesTotal = files.reduce((s, f) => s + f.data.length, 0);
-  archive.on("progress", (p: ProgressData) => options.onProgress?.({ entriesDone: p.entries.processed, entriesTotal: files.length, bytesIn: p.fs.processedBytes, bytesTotal }));
+  archive.on("progress", (p: ProgressData) =>
+    options.onProgress?.({ entriesDone: p.entries.processed, entriesTotal: files.length, bytesIn: p.fs.processedBytes, bytesTotal }),
+  );
   for (const f of files) {
     // Photos are already compressed; storing them saves time without growing the file.
     const store = f.path.startsWith("photos/");

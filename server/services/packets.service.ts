@@ -9,7 +9,15 @@ import { ConflictError, NotFoundError, UnprocessableError, ValidationError } fro
 import { recordAudit } from "./audit.service.js";
 import { canReceivePacket, canSeePacket } from "../policies/packets.policy.js";
 import { can, rolesThatCan } from "@shared/permissions.js";
-import { findChange, garmentsOfChange, latestMeasurementSet, listChanges, listPhotoCandidates, listVfxShots, type ChangeRow } from "./doubles-records.js";
+import {
+  findChange,
+  garmentsOfChange,
+  latestMeasurementSet,
+  listChanges,
+  listPhotoCandidates,
+  listVfxShots,
+  type ChangeRow,
+} from "./doubles-records.js";
 import { physicsForFabrics } from "./yardage.service.js";
 import { productionSeamTolerance, presentSeam } from "./seams.service.js";
 import { photoZipPath } from "./packet-zip.js";
@@ -39,15 +47,31 @@ import { polygonArea } from "@shared/domain/panels/geometry.js";
 
 async function recipientsOf(packetIds: string[], transaction?: Transaction): Promise<PacketRecipient[]> {
   if (packetIds.length === 0) return [];
-  return PacketRecipient.findAll({ where: { packetId: { [Op.in]: packetIds } }, include: [{ model: User, as: "user" }], order: [["createdAt", "ASC"]], transaction });
+  return PacketRecipient.findAll({
+    where: { packetId: { [Op.in]: packetIds } },
+    include: [{ model: User, as: "user" }],
+    order: [["createdAt", "ASC"]],
+    transaction,
+  });
 }
 
 /** A packet the actor may see, or 404 (drafts and other people's packets look absent to vfx users). */
-async function visiblePacket(actor: Actor, packetId: string, transaction?: Transaction): Promise<{ packet: Packet; recipients: PacketRecipient[] }> {
+async function visiblePacket(
+  actor: Actor,
+  packetId: string,
+  transaction?: Transaction,
+): Promise<{ packet: Packet; recipients: PacketRecipient[] }> {
   const packet = await Packet.findOne({ where: { id: packetId, productionId: actor.productionId }, transaction });
   if (!packet) throw NotFoundError("Packet not found.");
   const recipients = await recipientsOf([packet.id], transaction);
-  if (!canSeePacket(actor, packet, recipients.map((r) => r.userId))) throw NotFoundError("Packet not found.");
+  if (
+    !canSeePacket(
+      actor,
+      packet,
+      recipients.map((r) => r.userId),
+    )
+  )
+    throw NotFoundError("Packet not found.");
   return { packet, recipients };
 }
 
@@ -62,7 +86,14 @@ function presentRecipient(r: PacketRecipient): PacketRecipientDto {
   };
 }
 
-function summarize(actor: Actor, p: Packet, change: ChangeRow | undefined, recipients: PacketRecipient[], publisherName: string | null, counts: PacketSummaryDto["counts"]): PacketSummaryDto {
+function summarize(
+  actor: Actor,
+  p: Packet,
+  change: ChangeRow | undefined,
+  recipients: PacketRecipient[],
+  publisherName: string | null,
+  counts: PacketSummaryDto["counts"],
+): PacketSummaryDto {
   // A vfx user sees only their own receipt, not who else the packet went to.
   const visible = can(actor.role, "packet.read_all") ? recipients : recipients.filter((r) => r.userId === actor.user.id);
   return {
@@ -85,7 +116,13 @@ function summarize(actor: Actor, p: Packet, change: ChangeRow | undefined, recip
 }
 
 function countsOf(p: Packet): PacketSummaryDto["counts"] {
-  if (p.contents) return { panels: p.contents.panels.length, photos: p.contents.photos.length, shots: p.contents.shots.length, fabrics: p.contents.fabrics.length };
+  if (p.contents)
+    return {
+      panels: p.contents.panels.length,
+      photos: p.contents.photos.length,
+      shots: p.contents.shots.length,
+      fabrics: p.contents.fabrics.length,
+    };
   const s = p.selection;
   return { panels: s.panelIds?.length ?? 0, photos: s.photoIds?.length ?? 0, shots: s.appearanceIds?.length ?? 0, fabrics: 0 };
 }
@@ -96,14 +133,34 @@ export async function listPackets(actor: Actor, query: { changeId?: string }): P
   if (query.changeId) where.changeId = query.changeId;
   if (!can(actor.role, "packet.read_all")) {
     where.status = "published";
-    where.id = { [Op.in]: sequelize.literal(`(SELECT packet_id FROM packet_recipients WHERE user_id = ${sequelize.escape(actor.user.id)})`) };
+    where.id = {
+      [Op.in]: sequelize.literal(`(SELECT packet_id FROM packet_recipients WHERE user_id = ${sequelize.escape(actor.user.id)})`),
+    };
   }
-  const packets = await Packet.findAll({ where, order: [["changeId", "ASC"], [sequelize.literal("version IS NULL"), "DESC"], ["version", "DESC"]] });
+  const packets = await Packet.findAll({
+    where,
+    order: [
+      ["changeId", "ASC"],
+      [sequelize.literal("version IS NULL"), "DESC"],
+      ["version", "DESC"],
+    ],
+  });
   const recipients = await recipientsOf(packets.map((p) => p.id));
   const changes = new Map((await listChanges(actor.productionId)).map((c) => [c.id, c]));
-  const publishers = new Map((await User.findAll({ where: { id: { [Op.in]: packets.map((p) => p.publishedBy).filter((x): x is string => Boolean(x)) } } })).map((u) => [u.id, u.name]));
+  const publishers = new Map(
+    (await User.findAll({ where: { id: { [Op.in]: packets.map((p) => p.publishedBy).filter((x): x is string => Boolean(x)) } } })).map(
+      (u) => [u.id, u.name],
+    ),
+  );
   return packets.map((p) =>
-    summarize(actor, p, changes.get(p.changeId), recipients.filter((r) => r.packetId === p.id), p.publishedBy ? (publishers.get(p.publishedBy) ?? null) : null, countsOf(p)),
+    summarize(
+      actor,
+      p,
+      changes.get(p.changeId),
+      recipients.filter((r) => r.packetId === p.id),
+      p.publishedBy ? (publishers.get(p.publishedBy) ?? null) : null,
+      countsOf(p),
+    ),
   );
 }
 
@@ -129,10 +186,17 @@ export async function getPacket(actor: Actor, packetId: string): Promise<PacketD
   const diff: PacketDiff | null = prev?.contents ? diffPacketContents(prev.contents, contents) : null;
   const sinceReceived = await lastReceivedBefore(actor, packet, contents);
   const publisher = packet.publishedBy ? await User.findByPk(packet.publishedBy) : null;
-  const counts = { panels: contents.panels.length, photos: contents.photos.length, shots: contents.shots.length, fabrics: contents.fabrics.length };
+  const counts = {
+    panels: contents.panels.length,
+    photos: contents.photos.length,
+    shots: contents.shots.length,
+    fabrics: contents.fabrics.length,
+  };
   return {
     ...summarize(actor, packet, change, recipients, publisher?.name ?? null, counts),
-    selection: can(actor.role, "packet.read_all") ? normalizedSelection(packet) : { ...normalizedSelection(packet), recipientUserIds: [actor.user.id] },
+    selection: can(actor.role, "packet.read_all")
+      ? normalizedSelection(packet)
+      : { ...normalizedSelection(packet), recipientUserIds: [actor.user.id] },
     contents,
     previousVersion: prev?.version ?? null,
     diff,
@@ -142,7 +206,9 @@ export async function getPacket(actor: Actor, packetId: string): Promise<PacketD
 
 /** The actor's own newest receipt of an earlier version of the same change, and the diff from it to these contents. */
 async function lastReceivedBefore(actor: Actor, packet: Packet, contents: PacketContents): Promise<PacketDetailDto["sinceReceived"]> {
-  const receipts = await PacketRecipient.findAll({ where: { userId: actor.user.id, productionId: actor.productionId, receivedAt: { [Op.ne]: null } } });
+  const receipts = await PacketRecipient.findAll({
+    where: { userId: actor.user.id, productionId: actor.productionId, receivedAt: { [Op.ne]: null } },
+  });
   if (receipts.length === 0) return null;
   const earlier = await Packet.findOne({
     where: {
@@ -166,7 +232,11 @@ function normalizedSelection(p: Packet): PacketSelection {
 // The builder's choices and the snapshot
 
 async function vfxMembers(productionId: string, transaction?: Transaction) {
-  const rows = await Membership.findAll({ where: { productionId, role: rolesThatCan("packet.receive") }, include: [{ model: User, as: "user" }], transaction });
+  const rows = await Membership.findAll({
+    where: { productionId, role: rolesThatCan("packet.receive") },
+    include: [{ model: User, as: "user" }],
+    transaction,
+  });
   return rows.map((m) => ({ userId: m.userId, name: m.user?.name ?? "", email: m.user?.email ?? "" }));
 }
 
@@ -176,22 +246,48 @@ export async function packetOptions(actor: Actor, changeId: string): Promise<Pac
   if (!change) throw NotFoundError("Change not found.");
   const garments = await garmentsOfChange(actor.productionId, change.id);
   const panels = await Panel.findAll({ where: { garmentId: { [Op.in]: garments.map((g) => g.id) } }, order: [["sortOrder", "ASC"]] });
-  const photos = await listPhotoCandidates(actor.productionId, change, garments.map((g) => g.id));
+  const photos = await listPhotoCandidates(
+    actor.productionId,
+    change,
+    garments.map((g) => g.id),
+  );
   const shots = await listVfxShots(actor.productionId, change.id);
   const hasMeasurements = Boolean(change.performerId && (await latestMeasurementSet(actor.productionId, change.performerId)));
   const garmentName = new Map(garments.map((g) => [g.id, g.name]));
   return {
-    change: { id: change.id, number: change.number, description: change.description, characterId: change.characterId, characterName: change.characterName },
-    garments: garments.map((g) => ({ id: g.id, name: g.name, category: g.category, panels: panels.filter((p) => p.garmentId === g.id).map((p) => ({ id: p.id, name: p.name, cutCount: p.cutCount })) })),
+    change: {
+      id: change.id,
+      number: change.number,
+      description: change.description,
+      characterId: change.characterId,
+      characterName: change.characterName,
+    },
+    garments: garments.map((g) => ({
+      id: g.id,
+      name: g.name,
+      category: g.category,
+      panels: panels.filter((p) => p.garmentId === g.id).map((p) => ({ id: p.id, name: p.name, cutCount: p.cutCount })),
+    })),
     photos: photos.map((p) => ({
       id: p.id,
       ownerType: p.ownerType,
       ownerId: p.ownerId,
       view: p.view,
       caption: p.caption,
-      label: p.sceneNumber ? `Continuity, scene ${p.sceneNumber} (${p.view})` : garmentName.has(p.ownerId) ? `${garmentName.get(p.ownerId)} (${p.view})` : `${p.ownerType.replace(/_/g, " ")} (${p.view})`,
+      label: p.sceneNumber
+        ? `Continuity, scene ${p.sceneNumber} (${p.view})`
+        : garmentName.has(p.ownerId)
+          ? `${garmentName.get(p.ownerId)} (${p.view})`
+          : `${p.ownerType.replace(/_/g, " ")} (${p.view})`,
     })),
-    shots: shots.map((s) => ({ appearanceId: s.appearanceId, sceneNumber: s.sceneNumber, distressStage: s.distressStage, wet: s.wet, blood: s.blood, stunt: s.stunt })),
+    shots: shots.map((s) => ({
+      appearanceId: s.appearanceId,
+      sceneNumber: s.sceneNumber,
+      distressStage: s.distressStage,
+      wet: s.wet,
+      blood: s.blood,
+      stunt: s.stunt,
+    })),
     vfxMembers: await vfxMembers(actor.productionId),
     hasMeasurements,
   };
@@ -214,7 +310,12 @@ async function validateSelection(productionId: string, change: ChangeRow, s: Pac
     const msg = `a packet holds at most ${Limits.packetMaxPanels} panels; this choice has ${panelCount} — choose fewer garments or panels`;
     throw ValidationError(`panelIds: ${msg}`, { panelIds: msg });
   }
-  const photos = await listPhotoCandidates(productionId, change, garments.map((g) => g.id), transaction);
+  const photos = await listPhotoCandidates(
+    productionId,
+    change,
+    garments.map((g) => g.id),
+    transaction,
+  );
   subsetOrThrow("photoIds", s.photoIds, new Set(photos.map((p) => p.id)), "a reference photo of this change");
   const shots = await listVfxShots(productionId, change.id, transaction);
   subsetOrThrow("appearanceIds", s.appearanceIds, new Set(shots.map((x) => x.appearanceId)), "an effects shot of this change");
@@ -223,27 +324,64 @@ async function validateSelection(productionId: string, change: ChangeRow, s: Pac
 }
 
 /** Builds the contents snapshot for a selection from the records as they are now. */
-export async function snapshotContents(productionId: string, changeId: string, s: PacketSelection, transaction?: Transaction): Promise<PacketContents> {
+export async function snapshotContents(
+  productionId: string,
+  changeId: string,
+  s: PacketSelection,
+  transaction?: Transaction,
+): Promise<PacketContents> {
   const change = await findChange(productionId, changeId, transaction);
   if (!change) throw NotFoundError("Change not found.");
   const production = await Production.findByPk(productionId, { transaction });
   const garments = (await garmentsOfChange(productionId, change.id, transaction)).filter((g) => s.garmentIds.includes(g.id));
   const garmentById = new Map(garments.map((g) => [g.id, g]));
-  let panels = await Panel.findAll({ where: { productionId, garmentId: { [Op.in]: garments.map((g) => g.id) } }, order: [["sortOrder", "ASC"], ["createdAt", "ASC"]], transaction });
+  let panels = await Panel.findAll({
+    where: { productionId, garmentId: { [Op.in]: garments.map((g) => g.id) } },
+    order: [
+      ["sortOrder", "ASC"],
+      ["createdAt", "ASC"],
+    ],
+    transaction,
+  });
   if (s.panelIds.length) panels = panels.filter((p) => s.panelIds.includes(p.id));
   panels.sort((a, b) => garments.findIndex((g) => g.id === a.garmentId) - garments.findIndex((g) => g.id === b.garmentId));
   const panelIds = panels.map((p) => p.id);
   const seams = panelIds.length
-    ? await Seam.findAll({ where: { panelAId: { [Op.in]: panelIds }, panelBId: { [Op.in]: panelIds } }, include: [{ model: Panel, as: "panelA" }, { model: Panel, as: "panelB" }], order: [["createdAt", "ASC"]], transaction })
+    ? await Seam.findAll({
+        where: { panelAId: { [Op.in]: panelIds }, panelBId: { [Op.in]: panelIds } },
+        include: [
+          { model: Panel, as: "panelA" },
+          { model: Panel, as: "panelB" },
+        ],
+        order: [["createdAt", "ASC"]],
+        transaction,
+      })
     : [];
   const tolerance = await productionSeamTolerance(productionId, transaction);
   const fabricIdOf = (p: Panel) => p.fabricId ?? garmentById.get(p.garmentId)?.fabricId ?? null;
   const fabricIds = [...panels.map(fabricIdOf), ...garments.map((g) => g.fabricId)].filter((x): x is string => Boolean(x));
   const fabrics = await physicsForFabrics(productionId, fabricIds, transaction);
-  const photoRows = (await listPhotoCandidates(productionId, change, garments.map((g) => g.id), transaction)).filter((p) => s.photoIds.includes(p.id));
+  const photoRows = (
+    await listPhotoCandidates(
+      productionId,
+      change,
+      garments.map((g) => g.id),
+      transaction,
+    )
+  ).filter((p) => s.photoIds.includes(p.id));
   const photos = photoRows.map((p, i) => {
     const key = photoStorageKey(p.variants);
-    return { id: p.id, fileName: photoZipPath(i, p.view, p.id, key), view: p.view, caption: p.caption, ownerType: p.ownerType, ownerId: p.ownerId, contentHash: p.contentHash, storageKey: key, sceneId: p.sceneId };
+    return {
+      id: p.id,
+      fileName: photoZipPath(i, p.view, p.id, key),
+      view: p.view,
+      caption: p.caption,
+      ownerType: p.ownerType,
+      ownerId: p.ownerId,
+      contentHash: p.contentHash,
+      storageKey: key,
+      sceneId: p.sceneId,
+    };
   });
   const shots = (await listVfxShots(productionId, change.id, transaction))
     .filter((x) => s.appearanceIds.includes(x.appearanceId))
@@ -300,7 +438,17 @@ export async function snapshotContents(productionId: string, changeId: string, s
         toleranceMm: d.effectiveToleranceMm,
       };
     }),
-    fabrics: fabrics.map((f) => ({ id: f.fabricId, name: f.name, construction: f.construction, fabricClass: f.fabricClass, fibreContent: f.fibreContent, widthMm: f.widthMm, simulation: f.values, tests: f.tests, retest: f.retest })),
+    fabrics: fabrics.map((f) => ({
+      id: f.fabricId,
+      name: f.name,
+      construction: f.construction,
+      fabricClass: f.fabricClass,
+      fibreContent: f.fibreContent,
+      widthMm: f.widthMm,
+      simulation: f.values,
+      tests: f.tests,
+      retest: f.retest,
+    })),
     photos: photos.map(({ sceneId: _sceneId, ...p }) => p),
     shots,
     measurements,
@@ -318,7 +466,10 @@ export async function createPacketDraft(actor: Actor, input: CreatePacketInput):
     const change = await findChange(actor.productionId, input.changeId, transaction);
     if (!change) throw ValidationError("changeId: no such change in this production", { changeId: "no such change in this production" });
     const open = await Packet.findOne({ where: { changeId: change.id, status: "draft" }, transaction });
-    if (open) throw ConflictError("changeId: this change already has an open draft; edit or delete it first", { changeId: "already has an open draft" });
+    if (open)
+      throw ConflictError("changeId: this change already has an open draft; edit or delete it first", {
+        changeId: "already has an open draft",
+      });
     const latest = await Packet.findOne({ where: { changeId: change.id, status: "published" }, order: [["version", "DESC"]], transaction });
     let base: PacketSelection;
     if (latest) base = normalizedSelection(latest);
@@ -333,7 +484,10 @@ export async function createPacketDraft(actor: Actor, input: CreatePacketInput):
       });
     }
     const { changeId: _c, ...rest } = input;
-    const selection = packetSelectionSchema.parse({ ...base, ...Object.fromEntries(Object.entries(rest).filter(([, v]) => v !== undefined)) });
+    const selection = packetSelectionSchema.parse({
+      ...base,
+      ...Object.fromEntries(Object.entries(rest).filter(([, v]) => v !== undefined)),
+    });
     await validateSelection(actor.productionId, change, selection, transaction);
     const packet = await Packet.create(
       {
@@ -355,19 +509,34 @@ export async function createPacketDraft(actor: Actor, input: CreatePacketInput):
       },
       { transaction },
     );
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "packet.create", entityType: "packet", entityId: packet.id, after: selection }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "packet.create",
+        entityType: "packet",
+        entityId: packet.id,
+        after: selection,
+      },
+      transaction,
+    );
     return packet.id;
   });
   return getPacket(actor, id);
 }
 
 async function lockedPacket(actor: Actor, packetId: string, transaction: Transaction): Promise<Packet> {
-  const packet = await Packet.findOne({ where: { id: packetId, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
+  const packet = await Packet.findOne({
+    where: { id: packetId, productionId: actor.productionId },
+    transaction,
+    lock: transaction.LOCK.UPDATE,
+  });
   if (!packet) throw NotFoundError("Packet not found.");
   return packet;
 }
 
-const immutable = () => ConflictError("A published version cannot change. Start a new draft to make the next version.", { status: "published" });
+const immutable = () =>
+  ConflictError("A published version cannot change. Start a new draft to make the next version.", { status: "published" });
 
 /** Edits a draft's choices; published versions answer 409. */
 export async function updatePacketDraft(actor: Actor, packetId: string, input: UpdatePacketInput): Promise<PacketDetailDto> {
@@ -376,10 +545,31 @@ export async function updatePacketDraft(actor: Actor, packetId: string, input: U
     if (packet.status !== "draft") throw immutable();
     const change = await findChange(actor.productionId, packet.changeId, transaction);
     if (!change) throw NotFoundError("Change not found.");
-    const selection = packetSelectionSchema.parse({ ...normalizedSelection(packet), ...Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined)) });
+    const selection = packetSelectionSchema.parse({
+      ...normalizedSelection(packet),
+      ...Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined)),
+    });
     await validateSelection(actor.productionId, change, selection, transaction);
-    await packet.update({ selection: { ...selection, includeMeasurements: false, notes: null }, includeMeasurements: selection.includeMeasurements, notes: selection.notes, preparedBy: actor.user.id }, { transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "packet.update", entityType: "packet", entityId: packet.id, after: input }, transaction);
+    await packet.update(
+      {
+        selection: { ...selection, includeMeasurements: false, notes: null },
+        includeMeasurements: selection.includeMeasurements,
+        notes: selection.notes,
+        preparedBy: actor.user.id,
+      },
+      { transaction },
+    );
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "packet.update",
+        entityType: "packet",
+        entityId: packet.id,
+        after: input,
+      },
+      transaction,
+    );
   });
   return getPacket(actor, packetId);
 }
@@ -390,7 +580,10 @@ export async function deletePacketDraft(actor: Actor, packetId: string): Promise
     const packet = await lockedPacket(actor, packetId, transaction);
     if (packet.status !== "draft") throw immutable();
     await packet.destroy({ transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "packet.delete", entityType: "packet", entityId: packet.id }, transaction);
+    await recordAudit(
+      { productionId: actor.productionId, actorId: actor.user.id, action: "packet.delete", entityType: "packet", entityId: packet.id },
+      transaction,
+    );
   });
 }
 
@@ -402,7 +595,11 @@ function describeDiff(d: PacketDiff | null): string | null {
   if (d.empty) return "nothing (re-issued)";
   const parts: string[] = [];
   const g = (label: string, x: { added: unknown[]; removed: unknown[]; changed: unknown[] }) => {
-    const bits = [x.added.length && `${x.added.length} added`, x.removed.length && `${x.removed.length} removed`, x.changed.length && `${x.changed.length} changed`].filter(Boolean);
+    const bits = [
+      x.added.length && `${x.added.length} added`,
+      x.removed.length && `${x.removed.length} removed`,
+      x.changed.length && `${x.changed.length} changed`,
+    ].filter(Boolean);
     if (bits.length) parts.push(`${label} ${bits.join(", ")}`);
   };
   g("panels", d.panels);
@@ -422,7 +619,11 @@ async function packetPhotos(contents: PacketContents, store: PacketFileStore): P
 }
 
 /** Builds a packet's files and ZIP in the worker pool; returns the ZIP bytes and checksum. */
-async function buildZipOffThread(contents: PacketContents, meta: { packetId: string; version: number; publishedAt: Date; publishedByName: string }, onProgress?: (p: HeavyProgress) => void) {
+async function buildZipOffThread(
+  contents: PacketContents,
+  meta: { packetId: string; version: number; publishedAt: Date; publishedByName: string },
+  onProgress?: (p: HeavyProgress) => void,
+) {
   const photos = await packetPhotos(contents, packetStore());
   const built = await runHeavy("buildPacketZip", { contents, meta, photos }, { onProgress });
   return { zip: Buffer.from(built.zip.buffer, built.zip.byteOffset, built.zip.byteLength), sha256: built.sha256 };
@@ -464,25 +665,57 @@ export async function publishPacket(actor: Actor, packetId: string): Promise<Pac
       if (!change) throw NotFoundError("Change not found.");
       const selection = normalizedSelection(packet);
       await validateSelection(actor.productionId, change, selection, transaction);
-      if (selection.recipientUserIds.length === 0) throw UnprocessableError("recipientUserIds: choose at least one vfx member to publish to", { recipientUserIds: "choose at least one recipient" });
-      if (selection.garmentIds.length === 0) throw UnprocessableError("garmentIds: choose at least one garment", { garmentIds: "choose at least one garment" });
+      if (selection.recipientUserIds.length === 0)
+        throw UnprocessableError("recipientUserIds: choose at least one vfx member to publish to", {
+          recipientUserIds: "choose at least one recipient",
+        });
+      if (selection.garmentIds.length === 0)
+        throw UnprocessableError("garmentIds: choose at least one garment", { garmentIds: "choose at least one garment" });
       const contents = await snapshotContents(actor.productionId, change.id, selection, transaction);
-      if (contents.panels.length === 0) throw UnprocessableError("panelIds: the chosen garments have no panels yet", { panelIds: "no panels to hand off" });
+      if (contents.panels.length === 0)
+        throw UnprocessableError("panelIds: the chosen garments have no panels yet", { panelIds: "no panels to hand off" });
       const max = (await Packet.max("version", { where: { changeId: change.id }, transaction })) as number | null;
       const version = (max ?? 0) + 1;
       const publishedAt = new Date(Math.floor(Date.now() / 1000) * 1000);
       progress.report({ stage: "snapshot", done: 1, total: 1 });
-      const zip = await writePacketZip({ id: packet.id, version }, contents, { publishedAt, publishedByName: actor.user.name }, progress.report);
+      const zip = await writePacketZip(
+        { id: packet.id, version },
+        contents,
+        { publishedAt, publishedByName: actor.user.name },
+        progress.report,
+      );
       writtenKey = zip.key;
       const prev = await previousPublished(packet, transaction);
       await packet.update(
-        { status: "published", version, contents, publishedBy: actor.user.id, publishedAt, zipSha256: zip.sha256, zipBytes: zip.bytes, zipStorageKey: zip.key },
+        {
+          status: "published",
+          version,
+          contents,
+          publishedBy: actor.user.id,
+          publishedAt,
+          zipSha256: zip.sha256,
+          zipBytes: zip.bytes,
+          zipStorageKey: zip.key,
+        },
         { transaction },
       );
       for (const userId of selection.recipientUserIds) {
-        await PacketRecipient.create({ productionId: actor.productionId, packetId: packet.id, userId, notifiedAt: null, downloadedAt: null, receivedAt: null }, { transaction });
+        await PacketRecipient.create(
+          { productionId: actor.productionId, packetId: packet.id, userId, notifiedAt: null, downloadedAt: null, receivedAt: null },
+          { transaction },
+        );
       }
-      await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "packet.publish", entityType: "packet", entityId: packet.id, after: { version, sha256: zip.sha256, bytes: zip.bytes, recipients: selection.recipientUserIds } }, transaction);
+      await recordAudit(
+        {
+          productionId: actor.productionId,
+          actorId: actor.user.id,
+          action: "packet.publish",
+          entityType: "packet",
+          entityId: packet.id,
+          after: { version, sha256: zip.sha256, bytes: zip.bytes, recipients: selection.recipientUserIds },
+        },
+        transaction,
+      );
       const production = await Production.findByPk(actor.productionId, { transaction });
       return {
         version,
@@ -501,7 +734,10 @@ export async function publishPacket(actor: Actor, packetId: string): Promise<Pac
   } catch (err) {
     // The transaction rolled back: the ZIP it wrote belongs to no version.
     const orphan: string | null = writtenKey;
-    if (orphan) await packetStore().remove(orphan).catch((e: unknown) => logger.warn({ err: e }, "could not remove an orphan packet zip"));
+    if (orphan)
+      await packetStore()
+        .remove(orphan)
+        .catch((e: unknown) => logger.warn({ err: e }, "could not remove an orphan packet zip"));
     throw err;
   } finally {
     await progress.finish();
@@ -529,15 +765,34 @@ export async function downloadPacket(actor: Actor, packetId: string): Promise<Pa
   const { packet } = await visiblePacket(actor, packetId);
   const base = `${(packet.contents?.character.name ?? "packet").replace(/[^A-Za-z0-9]+/g, "-")}`;
   if (packet.status === "published") {
-    if (can(actor.role, "packet.receive")) await PacketRecipient.update({ downloadedAt: new Date() }, { where: { packetId: packet.id, userId: actor.user.id, downloadedAt: null } });
+    if (can(actor.role, "packet.receive"))
+      await PacketRecipient.update(
+        { downloadedAt: new Date() },
+        { where: { packetId: packet.id, userId: actor.user.id, downloadedAt: null } },
+      );
     const change = packet.contents!.change.number;
-    return { stream: packetStore().read(packet.zipStorageKey!), fileName: `${base}-change-${change}-v${packet.version}.zip`, bytes: packet.zipBytes, sha256: packet.zipSha256 };
+    return {
+      stream: packetStore().read(packet.zipStorageKey!),
+      fileName: `${base}-change-${change}-v${packet.version}.zip`,
+      bytes: packet.zipBytes,
+      sha256: packet.zipSha256,
+    };
   }
   // A draft preview: streamed straight from archiver, nothing stored.
   const contents = await snapshotContents(actor.productionId, packet.changeId, normalizedSelection(packet));
   const now = new Date(Math.floor(Date.now() / 1000) * 1000);
-  const { zip, sha256 } = await buildZipOffThread(contents, { packetId: packet.id, version: 0, publishedAt: now, publishedByName: `${actor.user.name} (draft preview)` });
-  return { stream: Readable.from([zip]), fileName: `${contents.character.name.replace(/[^A-Za-z0-9]+/g, "-")}-change-${contents.change.number}-draft.zip`, bytes: zip.length, sha256 };
+  const { zip, sha256 } = await buildZipOffThread(contents, {
+    packetId: packet.id,
+    version: 0,
+    publishedAt: now,
+    publishedByName: `${actor.user.name} (draft preview)`,
+  });
+  return {
+    stream: Readable.from([zip]),
+    fileName: `${contents.character.name.replace(/[^A-Za-z0-9]+/g, "-")}-change-${contents.change.number}-draft.zip`,
+    bytes: zip.length,
+    sha256,
+  };
 }
 
 /** Marks a published version received by the signed-in vfx recipient (idempotent). */
@@ -546,11 +801,28 @@ export async function markPacketReceived(actor: Actor, packetId: string): Promis
     const packet = await Packet.findOne({ where: { id: packetId, productionId: actor.productionId }, transaction });
     if (!packet) throw NotFoundError("Packet not found.");
     const recipients = await recipientsOf([packet.id], transaction);
-    if (!canReceivePacket(actor, packet, recipients.map((r) => r.userId))) throw NotFoundError("Packet not found.");
+    if (
+      !canReceivePacket(
+        actor,
+        packet,
+        recipients.map((r) => r.userId),
+      )
+    )
+      throw NotFoundError("Packet not found.");
     const mine = recipients.find((r) => r.userId === actor.user.id)!;
     if (!mine.receivedAt) {
       await PacketRecipient.update({ receivedAt: new Date() }, { where: { id: mine.id }, transaction });
-      await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "packet.receive", entityType: "packet", entityId: packet.id, after: { version: packet.version } }, transaction);
+      await recordAudit(
+        {
+          productionId: actor.productionId,
+          actorId: actor.user.id,
+          action: "packet.receive",
+          entityType: "packet",
+          entityId: packet.id,
+          after: { version: packet.version },
+        },
+        transaction,
+      );
     }
   });
   return getPacket(actor, packetId);

@@ -5,7 +5,14 @@ import { NotFoundError, PayloadTooLargeError, UnprocessableError, ValidationErro
 import { recordAudit } from "./audit.service.js";
 import { findChange, findGarment, garmentsOfChange, listChanges, listFabrics, type GarmentRow } from "./doubles-records.js";
 import type { Actor } from "../middleware/require-auth.js";
-import type { CreatePanelInput, DoublesChangeDto, DoublesFabricOptionDto, DxfImportFields, DxfPreviewFields, UpdatePanelInput } from "@shared/schemas/doubles.js";
+import type {
+  CreatePanelInput,
+  DoublesChangeDto,
+  DoublesFabricOptionDto,
+  DxfImportFields,
+  DxfPreviewFields,
+  UpdatePanelInput,
+} from "@shared/schemas/doubles.js";
 import { noPieceReason, type DxfImport, type DxfPiece } from "@shared/domain/panels/dxf.js";
 import { Limits } from "@shared/constants.js";
 import { nameFromFile } from "@shared/schemas/common.js";
@@ -17,10 +24,13 @@ import { rememberCutArea } from "./panel-cut-area.js";
 export async function listDoublesChanges(actor: Actor): Promise<DoublesChangeDto[]> {
   const changes = await listChanges(actor.productionId);
   const counts = new Map<string, number>();
-  const rows = (await sequelize.query(`SELECT garment_id AS "garmentId", count(*)::int AS n FROM panels WHERE production_id = :pid GROUP BY garment_id`, {
-    replacements: { pid: actor.productionId },
-    type: "SELECT",
-  })) as Array<{ garmentId: string; n: number }>;
+  const rows = (await sequelize.query(
+    `SELECT garment_id AS "garmentId", count(*)::int AS n FROM panels WHERE production_id = :pid GROUP BY garment_id`,
+    {
+      replacements: { pid: actor.productionId },
+      type: "SELECT",
+    },
+  )) as Array<{ garmentId: string; n: number }>;
   for (const r of rows) counts.set(r.garmentId, r.n);
   const out: DoublesChangeDto[] = [];
   for (const c of changes) {
@@ -31,7 +41,15 @@ export async function listDoublesChanges(actor: Actor): Promise<DoublesChangeDto
       description: c.description,
       characterId: c.characterId,
       characterName: c.characterName,
-      garments: garments.map((g) => ({ id: g.id, name: g.name, category: g.category, tagCode: g.tagCode, fabricId: g.fabricId, fabricName: g.fabricName, panelCount: counts.get(g.id) ?? 0 })),
+      garments: garments.map((g) => ({
+        id: g.id,
+        name: g.name,
+        category: g.category,
+        tagCode: g.tagCode,
+        fabricId: g.fabricId,
+        fabricName: g.fabricName,
+        panelCount: counts.get(g.id) ?? 0,
+      })),
     });
   }
   return out;
@@ -44,7 +62,11 @@ export async function listFabricOptions(actor: Actor): Promise<DoublesFabricOpti
 }
 
 /** The garments in scope: one garment, or every garment of a change. 404 when it is not in this production. */
-export async function garmentsInScope(actor: Pick<Actor, "productionId">, scope: { garmentId?: string; changeId?: string }, transaction?: Transaction): Promise<GarmentRow[]> {
+export async function garmentsInScope(
+  actor: Pick<Actor, "productionId">,
+  scope: { garmentId?: string; changeId?: string },
+  transaction?: Transaction,
+): Promise<GarmentRow[]> {
   if (scope.garmentId) {
     const g = await findGarment(actor.productionId, scope.garmentId, transaction);
     if (!g) throw NotFoundError("Garment not found.");
@@ -59,11 +81,17 @@ export async function garmentsInScope(actor: Pick<Actor, "productionId">, scope:
 }
 
 /** Panels of a garment or a change, in garment then sort order; with each garment's fabric for the effective fabric. */
-export async function listPanels(actor: Actor, scope: { garmentId?: string; changeId?: string }): Promise<{ panels: Panel[]; garmentFabric: Map<string, string | null> }> {
+export async function listPanels(
+  actor: Actor,
+  scope: { garmentId?: string; changeId?: string },
+): Promise<{ panels: Panel[]; garmentFabric: Map<string, string | null> }> {
   const garments = await garmentsInScope(actor, scope);
   const panels = await Panel.findAll({
     where: { productionId: actor.productionId, garmentId: { [Op.in]: garments.map((g) => g.id) } },
-    order: [["sortOrder", "ASC"], ["createdAt", "ASC"]],
+    order: [
+      ["sortOrder", "ASC"],
+      ["createdAt", "ASC"],
+    ],
   });
   const order = new Map(garments.map((g, i) => [g.id, i]));
   panels.sort((a, b) => order.get(a.garmentId)! - order.get(b.garmentId)!);
@@ -97,7 +125,8 @@ async function nextSortOrder(garmentId: string, transaction: Transaction): Promi
 export async function createPanel(actor: Actor, input: CreatePanelInput): Promise<Panel> {
   return sequelize.transaction(async (transaction) => {
     const garment = await findGarment(actor.productionId, input.garmentId, transaction);
-    if (!garment) throw ValidationError("garmentId: no such garment in this production", { garmentId: "no such garment in this production" });
+    if (!garment)
+      throw ValidationError("garmentId: no such garment in this production", { garmentId: "no such garment in this production" });
     await assertFabric(actor, input.fabricId, transaction);
     const panel = await Panel.create(
       {
@@ -116,7 +145,17 @@ export async function createPanel(actor: Actor, input: CreatePanelInput): Promis
       },
       { transaction },
     );
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "panel.create", entityType: "panel", entityId: panel.id, after: { name: panel.name, garmentId: garment.id } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "panel.create",
+        entityType: "panel",
+        entityId: panel.id,
+        after: { name: panel.name, garmentId: garment.id },
+      },
+      transaction,
+    );
     return panel;
   });
 }
@@ -127,13 +166,19 @@ export async function createPanel(actor: Actor, input: CreatePanelInput): Promis
  */
 export async function updatePanel(actor: Actor, panelId: string, input: UpdatePanelInput): Promise<Panel> {
   return sequelize.transaction(async (transaction) => {
-    const panel = await Panel.findOne({ where: { id: panelId, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
+    const panel = await Panel.findOne({
+      where: { id: panelId, productionId: actor.productionId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!panel) throw NotFoundError("Panel not found.");
     await assertFabric(actor, input.fabricId, transaction);
     if (input.outline) {
       const n = input.outline.length;
       if (input.notches === undefined && panel.notches.some((x) => x.edge >= n)) {
-        throw ValidationError("notches: a notch sits on an edge the new outline no longer has", { notches: "a notch sits on an edge the new outline no longer has" });
+        throw ValidationError("notches: a notch sits on an edge the new outline no longer has", {
+          notches: "a notch sits on an edge the new outline no longer has",
+        });
       }
       const seams = await Seam.findAll({ where: { [Op.or]: [{ panelAId: panel.id }, { panelBId: panel.id }] }, transaction });
       const maxRef = Math.max(
@@ -145,7 +190,9 @@ export async function updatePanel(actor: Actor, panelId: string, input: UpdatePa
         }),
       );
       if (maxRef >= n) {
-        throw UnprocessableError(`outline: a seam uses vertex or edge ${maxRef}; the new outline has only ${n} points`, { outline: `a seam uses vertex or edge ${maxRef}` });
+        throw UnprocessableError(`outline: a seam uses vertex or edge ${maxRef}; the new outline has only ${n} points`, {
+          outline: `a seam uses vertex or edge ${maxRef}`,
+        });
       }
     }
     const before = { name: panel.name, outline: panel.outline, cutCount: panel.cutCount, seamAllowanceMm: panel.seamAllowanceMm };
@@ -160,7 +207,18 @@ export async function updatePanel(actor: Actor, panelId: string, input: UpdatePa
     if (input.grainMode !== undefined) patch.grainMode = input.grainMode;
     if (input.fabricId !== undefined) patch.fabricId = input.fabricId;
     await panel.update(patch, { transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "panel.update", entityType: "panel", entityId: panel.id, before, after: patch }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "panel.update",
+        entityType: "panel",
+        entityId: panel.id,
+        before,
+        after: patch,
+      },
+      transaction,
+    );
     return panel;
   });
 }
@@ -168,10 +226,24 @@ export async function updatePanel(actor: Actor, panelId: string, input: UpdatePa
 /** Deletes a panel (its seams go with it). */
 export async function deletePanel(actor: Actor, panelId: string): Promise<void> {
   await sequelize.transaction(async (transaction) => {
-    const panel = await Panel.findOne({ where: { id: panelId, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
+    const panel = await Panel.findOne({
+      where: { id: panelId, productionId: actor.productionId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!panel) throw NotFoundError("Panel not found.");
     await panel.destroy({ transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "panel.delete", entityType: "panel", entityId: panel.id, before: { name: panel.name, garmentId: panel.garmentId } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "panel.delete",
+        entityType: "panel",
+        entityId: panel.id,
+        before: { name: panel.name, garmentId: panel.garmentId },
+      },
+      transaction,
+    );
   });
 }
 
@@ -187,7 +259,11 @@ export async function readDxfUpload(buffer: Buffer, fields: DxfPreviewFields): P
   // A copy the worker can own: multer's buffer may share a pooled ArrayBuffer with other data.
   const bytes = new Uint8Array(buffer.byteLength);
   bytes.set(buffer);
-  const result = await runHeavy("readDxf", { bytes, options: { units: fields.units, seamAllowanceMm: fields.seamAllowanceMm } }, { transfer: [bytes.buffer] });
+  const result = await runHeavy(
+    "readDxf",
+    { bytes, options: { units: fields.units, seamAllowanceMm: fields.seamAllowanceMm } },
+    { transfer: [bytes.buffer] },
+  );
   if (!result.ok && result.kind === "limit") throw PayloadTooLargeError(`file: ${result.message}`, { file: result.message });
   if (!result.ok) throw UnprocessableError(`file: is not a readable DXF file (${result.message})`, { file: "is not a readable DXF file" });
   return result.value;
@@ -209,41 +285,58 @@ function importablePieces(read: DxfImport): DxfPiece[] {
 }
 
 /** Imports every importable piece of a DXF file onto a garment, in one transaction. */
-export async function importDxfPanels(actor: Actor, input: DxfImportFields, buffer: Buffer): Promise<{ panels: Panel[]; warnings: string[]; skipped: string[] }> {
+export async function importDxfPanels(
+  actor: Actor,
+  input: DxfImportFields,
+  buffer: Buffer,
+): Promise<{ panels: Panel[]; warnings: string[]; skipped: string[] }> {
   const read = await readDxfUpload(buffer, input);
   const pieces = importablePieces(read);
   const skipped = read.pieces.filter((p) => !p.importable).map((p) => `${p.name}: ${p.problems.slice(0, 3).join("; ")}`);
   return sequelize.transaction(async (transaction) => {
     const garment = await findGarment(actor.productionId, input.garmentId, transaction);
-    if (!garment) throw ValidationError("garmentId: no such garment in this production", { garmentId: "no such garment in this production" });
+    if (!garment)
+      throw ValidationError("garmentId: no such garment in this production", { garmentId: "no such garment in this production" });
     await assertFabric(actor, input.fabricId, transaction);
     let order = await nextSortOrder(garment.id, transaction);
     const created: Panel[] = [];
     for (const p of pieces) {
       const panel = await Panel.create(
-          {
-            productionId: actor.productionId,
-            garmentId: garment.id,
-            name: nameFromFile(p.name, 120, "Piece"),
-            outline: p.outline.map(([x, y]) => [x, y] as [number, number]),
-            grainline: p.grainline ? [[p.grainline[0][0], p.grainline[0][1]], [p.grainline[1][0], p.grainline[1][1]]] : null,
-            notches: (p.notches ?? []).map((n) => ({ point: [n.point[0], n.point[1]] as [number, number], edge: n.edge })),
-            seamAllowanceMm: Math.min(100, Math.max(0, p.seamAllowanceMm)),
-            cutCount: Math.min(99, Math.max(1, p.cutCount)),
-            mirrored: Boolean(p.mirrored),
-            grainMode: "straight",
-            fabricId: input.fabricId,
-            source: "dxf",
-            sortOrder: order++,
-          },
-          { transaction },
-        );
+        {
+          productionId: actor.productionId,
+          garmentId: garment.id,
+          name: nameFromFile(p.name, 120, "Piece"),
+          outline: p.outline.map(([x, y]) => [x, y] as [number, number]),
+          grainline: p.grainline
+            ? [
+                [p.grainline[0][0], p.grainline[0][1]],
+                [p.grainline[1][0], p.grainline[1][1]],
+              ]
+            : null,
+          notches: (p.notches ?? []).map((n) => ({ point: [n.point[0], n.point[1]] as [number, number], edge: n.edge })),
+          seamAllowanceMm: Math.min(100, Math.max(0, p.seamAllowanceMm)),
+          cutCount: Math.min(99, Math.max(1, p.cutCount)),
+          mirrored: Boolean(p.mirrored),
+          grainMode: "straight",
+          fabricId: input.fabricId,
+          source: "dxf",
+          sortOrder: order++,
+        },
+        { transaction },
+      );
       // The worker already offset the outline; the response then needs no clipper work on this thread.
       if (panel.seamAllowanceMm === p.seamAllowanceMm) rememberCutArea(panel, p.cutAreaMm2);
       created.push(panel);
     }
     await recordAudit(
-      { productionId: actor.productionId, actorId: actor.user.id, action: "panel.import_dxf", entityType: "garment", entityId: garment.id, after: { pieces: created.map((c) => c.name), units: read.units.unit, convention: read.convention } },
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "panel.import_dxf",
+        entityType: "garment",
+        entityId: garment.id,
+        after: { pieces: created.map((c) => c.name), units: read.units.unit, convention: read.convention },
+      },
       transaction,
     );
     return { panels: created, warnings: read.warnings, skipped };
@@ -251,7 +344,9 @@ export async function importDxfPanels(actor: Actor, input: DxfImportFields, buff
 }
 
 /** A panel as the shared geometry code takes it. */
-export function panelShape(p: Pick<Panel, "id" | "name" | "outline" | "grainline" | "notches" | "seamAllowanceMm" | "cutCount" | "mirrored" | "grainMode">): PanelShape {
+export function panelShape(
+  p: Pick<Panel, "id" | "name" | "outline" | "grainline" | "notches" | "seamAllowanceMm" | "cutCount" | "mirrored" | "grainMode">,
+): PanelShape {
   return {
     id: p.id,
     name: p.name,

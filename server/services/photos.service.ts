@@ -78,9 +78,12 @@ export async function storeImage(file: UploadedFile | Buffer): Promise<StoredIma
   // Recorded before any file is written: until released, the start-up sweep of any server leaves
   // these files alone while this process lives, and removes them if it dies before the row exists.
   const pendingId = randomUUID();
-  await sequelize.query(`INSERT INTO pending_photo_files (id, content_hash, host, pid, instance) VALUES (:id, :hash, :host, :pid, :instance)`, {
-    replacements: { id: pendingId, hash: contentHash, host: instance.host, pid: instance.pid, instance: instance.id },
-  });
+  await sequelize.query(
+    `INSERT INTO pending_photo_files (id, content_hash, host, pid, instance) VALUES (:id, :hash, :host, :pid, :instance)`,
+    {
+      replacements: { id: pendingId, hash: contentHash, host: instance.host, pid: instance.pid, instance: instance.id },
+    },
+  );
   try {
     for (const size of ["original", "display", "thumb"] as const) {
       if (await storage.exists(keys[size])) continue;
@@ -121,7 +124,9 @@ async function removeKeys(keys: string[]): Promise<void> {
 export async function removeUnreferencedFiles(hashes: string[]): Promise<void> {
   for (const hash of new Set(hashes)) {
     const still = await Photo.count({ where: { contentHash: hash } });
-    const [pending] = await sequelize.query(`SELECT 1 FROM pending_photo_files WHERE content_hash = :hash LIMIT 1`, { replacements: { hash } });
+    const [pending] = await sequelize.query(`SELECT 1 FROM pending_photo_files WHERE content_hash = :hash LIMIT 1`, {
+      replacements: { hash },
+    });
     if (still === 0 && pending.length === 0) await removeKeys(Object.values(keysFor(hash)));
   }
 }
@@ -136,7 +141,10 @@ export async function linkPhoto(
   owner: { ownerType: string; ownerId: string; view: PhotoView; caption: string | null; originalName: string | null },
   transaction: Transaction,
 ): Promise<{ photo: Photo; created: boolean }> {
-  const existing = await Photo.findOne({ where: { productionId: actor.productionId, ownerType: owner.ownerType, ownerId: owner.ownerId, contentHash: stored.contentHash }, transaction });
+  const existing = await Photo.findOne({
+    where: { productionId: actor.productionId, ownerType: owner.ownerType, ownerId: owner.ownerId, contentHash: stored.contentHash },
+    transaction,
+  });
   if (existing) return { photo: existing, created: false };
   const photo = await Photo.create(
     {
@@ -155,7 +163,17 @@ export async function linkPhoto(
     },
     { transaction },
   );
-  await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "photo.create", entityType: "photo", entityId: photo.id, after: { ownerType: owner.ownerType, ownerId: owner.ownerId, contentHash: stored.contentHash } }, transaction);
+  await recordAudit(
+    {
+      productionId: actor.productionId,
+      actorId: actor.user.id,
+      action: "photo.create",
+      entityType: "photo",
+      entityId: photo.id,
+      after: { ownerType: owner.ownerType, ownerId: owner.ownerId, contentHash: stored.contentHash },
+    },
+    transaction,
+  );
   return { photo, created: true };
 }
 
@@ -171,7 +189,8 @@ export async function uploadPhoto(
   const stored = await storeImage(file);
   try {
     return await sequelize.transaction(async (transaction) => {
-      if (!(await def.exists(actor.productionId, input.ownerId, transaction))) throw NotFoundError("The record for this photo does not exist.");
+      if (!(await def.exists(actor.productionId, input.ownerId, transaction)))
+        throw NotFoundError("The record for this photo does not exist.");
       return linkPhoto(actor, stored, { ...input, originalName: file.originalname }, transaction);
     });
   } catch (err) {
@@ -186,17 +205,39 @@ export async function uploadPhoto(
 /** Photos of one owner, oldest first. */
 export async function listPhotos(actor: Actor, ownerType: string, ownerId: string): Promise<Photo[]> {
   assertPhotoAccess(actor, ownerType, "read");
-  return Photo.findAll({ where: { productionId: actor.productionId, ownerType, ownerId }, order: [["createdAt", "ASC"], ["id", "ASC"]] });
+  return Photo.findAll({
+    where: { productionId: actor.productionId, ownerType, ownerId },
+    order: [
+      ["createdAt", "ASC"],
+      ["id", "ASC"],
+    ],
+  });
 }
 
 /** Photos of many owners of one type (timelines), oldest first. */
-export async function photosForOwners(productionId: string, ownerType: string, ownerIds: string[], transaction?: Transaction): Promise<Photo[]> {
+export async function photosForOwners(
+  productionId: string,
+  ownerType: string,
+  ownerIds: string[],
+  transaction?: Transaction,
+): Promise<Photo[]> {
   if (!ownerIds.length) return [];
-  return Photo.findAll({ where: { productionId, ownerType, ownerId: { [Op.in]: ownerIds } }, order: [["createdAt", "ASC"], ["id", "ASC"]], transaction });
+  return Photo.findAll({
+    where: { productionId, ownerType, ownerId: { [Op.in]: ownerIds } },
+    order: [
+      ["createdAt", "ASC"],
+      ["id", "ASC"],
+    ],
+    transaction,
+  });
 }
 
 /** Opens one stored size of a photo the actor may see. */
-export async function openPhotoFile(actor: Actor, photoId: string, size: PhotoSize): Promise<{ stream: Readable; contentType: string; photo: Photo }> {
+export async function openPhotoFile(
+  actor: Actor,
+  photoId: string,
+  size: PhotoSize,
+): Promise<{ stream: Readable; contentType: string; photo: Photo }> {
   const photo = await Photo.findOne({ where: { id: photoId, productionId: actor.productionId } });
   if (!photo) throw NotFoundError("Photo not found.");
   assertPhotoAccess(actor, photo.ownerType, "read");
@@ -216,13 +257,28 @@ export async function deletePhoto(actor: Actor, photoId: string): Promise<void> 
   assertPhotoAccess(actor, photo.ownerType, "write");
   await sequelize.transaction(async (transaction) => {
     await photo.destroy({ transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "photo.delete", entityType: "photo", entityId: photo.id, before: { ownerType: photo.ownerType, ownerId: photo.ownerId, contentHash: photo.contentHash } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "photo.delete",
+        entityType: "photo",
+        entityId: photo.id,
+        before: { ownerType: photo.ownerType, ownerId: photo.ownerId, contentHash: photo.contentHash },
+      },
+      transaction,
+    );
   });
   await removeUnreferencedFiles([photo.contentHash]);
 }
 
 /** Deletes every photo of some owners (inside a transaction) and returns the hashes to tidy after commit. */
-export async function deletePhotosOfOwners(productionId: string, ownerType: string, ownerIds: string[], transaction: Transaction): Promise<string[]> {
+export async function deletePhotosOfOwners(
+  productionId: string,
+  ownerType: string,
+  ownerIds: string[],
+  transaction: Transaction,
+): Promise<string[]> {
   if (!ownerIds.length) return [];
   const photos = await Photo.findAll({ where: { productionId, ownerType, ownerId: { [Op.in]: ownerIds } }, transaction });
   if (photos.length) await Photo.destroy({ where: { id: { [Op.in]: photos.map((p) => p.id) } }, transaction });

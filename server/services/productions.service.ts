@@ -21,12 +21,29 @@ export async function listProductionsForUser(user: User): Promise<Membership[]> 
 export async function createProduction(user: User, input: CreateProductionInput): Promise<Membership> {
   return sequelize.transaction(async (transaction) => {
     const production = await Production.create(
-      { title: input.title, kind: input.kind, startsOn: input.startsOn ?? null, endsOn: input.endsOn ?? null, units: input.units, createdBy: user.id },
+      {
+        title: input.title,
+        kind: input.kind,
+        startsOn: input.startsOn ?? null,
+        endsOn: input.endsOn ?? null,
+        units: input.units,
+        createdBy: user.id,
+      },
       { transaction },
     );
     const membership = await Membership.create({ productionId: production.id, userId: user.id, role: "supervisor" }, { transaction });
     await user.update({ lastProductionId: production.id }, { transaction });
-    await recordAudit({ productionId: production.id, actorId: user.id, action: "production.create", entityType: "production", entityId: production.id, after: production.toJSON() }, transaction);
+    await recordAudit(
+      {
+        productionId: production.id,
+        actorId: user.id,
+        action: "production.create",
+        entityType: "production",
+        entityId: production.id,
+        after: production.toJSON(),
+      },
+      transaction,
+    );
     membership.production = production;
     return membership;
   });
@@ -41,7 +58,18 @@ export async function updateProduction(actor: Actor, input: UpdateProductionInpu
     production.set(rest);
     if (settings) production.settings = { ...production.settings, ...settings };
     await production.save({ transaction });
-    await recordAudit({ productionId: production.id, actorId: actor.user.id, action: "production.update", entityType: "production", entityId: production.id, before, after: production.toJSON() }, transaction);
+    await recordAudit(
+      {
+        productionId: production.id,
+        actorId: actor.user.id,
+        action: "production.update",
+        entityType: "production",
+        entityId: production.id,
+        before,
+        after: production.toJSON(),
+      },
+      transaction,
+    );
     return production;
   });
 }

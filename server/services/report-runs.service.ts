@@ -57,9 +57,16 @@ async function bookCharacters(productionId: string): Promise<Array<{ id: string;
 
 /** Removes all but the newest finished runs of a production (rows and files). */
 async function pruneRuns(productionId: string): Promise<void> {
-  const old = await ReportRun.findAll({ where: { productionId, status: { [Op.in]: ["done", "failed"] } }, order: [["createdAt", "DESC"]], offset: KEEP_RUNS });
+  const old = await ReportRun.findAll({
+    where: { productionId, status: { [Op.in]: ["done", "failed"] } },
+    order: [["createdAt", "DESC"]],
+    offset: KEEP_RUNS,
+  });
   for (const r of old) {
-    if (r.storageKey) await packetStore().remove(r.storageKey).catch((err) => logger.warn({ err }, "could not remove an old report file"));
+    if (r.storageKey)
+      await packetStore()
+        .remove(r.storageKey)
+        .catch((err) => logger.warn({ err }, "could not remove an old report file"));
     await r.destroy();
   }
 }
@@ -68,13 +75,39 @@ async function pruneRuns(productionId: string): Promise<void> {
  * Starts the "every continuity book" export, or returns the one already under way for this production.
  */
 export async function startContinuityBooksRun(actor: Actor, input: { photos: BookPhotoSize }): Promise<ReportRun> {
-  const running = await ReportRun.findOne({ where: { productionId: actor.productionId, kind: "continuity_books", status: { [Op.in]: ["queued", "running"] } }, order: [["createdAt", "DESC"]] });
+  const running = await ReportRun.findOne({
+    where: { productionId: actor.productionId, kind: "continuity_books", status: { [Op.in]: ["queued", "running"] } },
+    order: [["createdAt", "DESC"]],
+  });
   if (running && Date.now() - running.updatedAt.getTime() <= STALE_MS) return running;
   await pruneRuns(actor.productionId);
   const total = (await bookCharacters(actor.productionId)).length;
   const run = await sequelize.transaction(async (transaction) => {
-    const r = await ReportRun.create({ productionId: actor.productionId, kind: "continuity_books", total, options: { photos: input.photos }, storageKey: null, bytes: null, error: null, requestedBy: actor.user.id, finishedAt: null }, { transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "report.continuity_books", entityType: "report_run", entityId: r.id, after: { total, photos: input.photos } }, transaction);
+    const r = await ReportRun.create(
+      {
+        productionId: actor.productionId,
+        kind: "continuity_books",
+        total,
+        options: { photos: input.photos },
+        storageKey: null,
+        bytes: null,
+        error: null,
+        requestedBy: actor.user.id,
+        finishedAt: null,
+      },
+      { transaction },
+    );
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "report.continuity_books",
+        entityType: "report_run",
+        entityId: r.id,
+        after: { total, photos: input.photos },
+      },
+      transaction,
+    );
     return r;
   });
   await enqueue(BOOKS_JOB, { runId: run.id });
@@ -110,7 +143,9 @@ export async function buildContinuityBooks(runId: string): Promise<void> {
   } catch (err) {
     archive.abort();
     await written.catch(() => undefined);
-    await packetStore().remove(key).catch(() => undefined);
+    await packetStore()
+      .remove(key)
+      .catch(() => undefined);
     logger.error({ err, runId }, "continuity books export failed");
     await run.update({ status: "failed", error: "The export failed; try again, or download the books one by one." });
   }

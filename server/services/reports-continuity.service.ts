@@ -8,7 +8,14 @@ import { Production } from "../models/index.js";
 import { NotFoundError } from "../errors.js";
 import { getStorage } from "../lib/storage.js";
 import { productionToday } from "../lib/clock.js";
-import { renderContinuityBook, type BookGarment, type BookModel, type BookPhoto, type BookRenderResult, type BookScene } from "../lib/pdf/continuity-book-pdf.js";
+import {
+  renderContinuityBook,
+  type BookGarment,
+  type BookModel,
+  type BookPhoto,
+  type BookRenderResult,
+  type BookScene,
+} from "../lib/pdf/continuity-book-pdf.js";
 import { loadSnapshot } from "./snags.service.js";
 import type { Actor } from "../middleware/require-auth.js";
 import { buildIndex } from "@shared/domain/snags/engine.js";
@@ -55,13 +62,27 @@ export async function loadBookContext(productionId: string): Promise<BookContext
     q(`SELECT id, set_name, int_ext, time_of_day FROM scenes WHERE production_id = :pid`),
     q(`SELECT id, notes FROM appearances WHERE production_id = :pid`),
     q(`SELECT id, number, description FROM changes WHERE production_id = :pid`),
-    q(`SELECT id, to_char(date, 'YYYY-MM-DD') AS date, day_number, kind FROM shoot_days WHERE production_id = :pid ORDER BY date, day_number`),
+    q(
+      `SELECT id, to_char(date, 'YYYY-MM-DD') AS date, day_number, kind FROM shoot_days WHERE production_id = :pid ORDER BY date, day_number`,
+    ),
     q(`SELECT shoot_day_id, scene_id FROM shoot_day_scenes WHERE production_id = :pid`),
   ]);
   const ix = buildIndex(loaded.snapshot);
-  const dayMap = new Map(days.map((d) => [d.id as string, { date: d.date as string, dayNumber: Number(d.day_number), kind: d.kind === "performance" ? ("performance" as const) : ("shoot" as const) }]));
+  const dayMap = new Map(
+    days.map((d) => [
+      d.id as string,
+      {
+        date: d.date as string,
+        dayNumber: Number(d.day_number),
+        kind: d.kind === "performance" ? ("performance" as const) : ("shoot" as const),
+      },
+    ]),
+  );
   const daysOfScene = new Map<string, string[]>();
-  for (const r of dayScenes) (daysOfScene.get(r.scene_id as string) ?? daysOfScene.set(r.scene_id as string, []).get(r.scene_id as string)!).push(r.shoot_day_id as string);
+  for (const r of dayScenes)
+    (daysOfScene.get(r.scene_id as string) ?? daysOfScene.set(r.scene_id as string, []).get(r.scene_id as string)!).push(
+      r.shoot_day_id as string,
+    );
   for (const l of daysOfScene.values()) l.sort((a, b) => (dayMap.get(a)?.date ?? "").localeCompare(dayMap.get(b)?.date ?? ""));
   return {
     productionId,
@@ -71,9 +92,20 @@ export async function loadBookContext(productionId: string): Promise<BookContext
     today: productionToday(production),
     ix,
     plans: planMultiples(ix),
-    scenes: new Map(scenes.map((s) => [s.id as string, { setName: (s.set_name as string | null) ?? null, intExt: (s.int_ext as string | null) ?? null, timeOfDay: (s.time_of_day as string | null) ?? null }])),
+    scenes: new Map(
+      scenes.map((s) => [
+        s.id as string,
+        {
+          setName: (s.set_name as string | null) ?? null,
+          intExt: (s.int_ext as string | null) ?? null,
+          timeOfDay: (s.time_of_day as string | null) ?? null,
+        },
+      ]),
+    ),
     appearanceNotes: new Map(apps.map((a) => [a.id as string, (a.notes as string | null) ?? null])),
-    changes: new Map(changes.map((c) => [c.id as string, { number: Number(c.number), description: (c.description as string | null) ?? null }])),
+    changes: new Map(
+      changes.map((c) => [c.id as string, { number: Number(c.number), description: (c.description as string | null) ?? null }]),
+    ),
     days: dayMap,
     daysOfScene,
   };
@@ -92,7 +124,11 @@ function plannedCopy(plans: GroupPlan[], appearanceId: string, itemId: string): 
  * One character's book (or one change's scenes), in story order.
  * @throws NotFoundError when the character or change is not in the production
  */
-export async function continuityBookModel(ctx: BookContext, characterId: string, opts: { changeId?: string; photoSize: BookPhotoSize }): Promise<BookModel> {
+export async function continuityBookModel(
+  ctx: BookContext,
+  characterId: string,
+  opts: { changeId?: string; photoSize: BookPhotoSize },
+): Promise<BookModel> {
   const ix = ctx.ix;
   const character = ix.charactersById.get(characterId);
   if (!character) throw NotFoundError("Character not found.");
@@ -104,11 +140,26 @@ export async function continuityBookModel(ctx: BookContext, characterId: string,
   // Appearances without a change are not in the snapshot; read them so every scene the character plays appears.
   const extra = opts.changeId
     ? []
-    : await sequelize.query<{ id: string; scene_id: string; distress_stage: number; wet: boolean; stunt: boolean; blood: boolean; vfx_shot: boolean }>(
+    : await sequelize.query<{
+        id: string;
+        scene_id: string;
+        distress_stage: number;
+        wet: boolean;
+        stunt: boolean;
+        blood: boolean;
+        vfx_shot: boolean;
+      }>(
         `SELECT id, scene_id, distress_stage, wet, stunt, blood, vfx_shot FROM appearances WHERE production_id = :pid AND character_id = :cid AND change_id IS NULL`,
         { replacements: { pid: ctx.productionId, cid: characterId }, type: QueryTypes.SELECT },
       );
-  const entries = await sequelize.query<{ id: string; scene_id: string; shoot_day_id: string | null; distress_stage: number | null; notes: string | null; logged_on: string }>(
+  const entries = await sequelize.query<{
+    id: string;
+    scene_id: string;
+    shoot_day_id: string | null;
+    distress_stage: number | null;
+    notes: string | null;
+    logged_on: string;
+  }>(
     `SELECT id, scene_id, shoot_day_id, distress_stage, notes, to_char(created_at, 'YYYY-MM-DD') AS logged_on
        FROM continuity_entries WHERE production_id = :pid AND character_id = :cid ORDER BY created_at, id`,
     { replacements: { pid: ctx.productionId, cid: characterId }, type: QueryTypes.SELECT },
@@ -136,8 +187,20 @@ export async function continuityBookModel(ctx: BookContext, characterId: string,
 
   const scenes: BookScene[] = [];
   const rows = [
-    ...apps.map((a) => ({ id: a.id, sceneId: a.sceneId, changeId: a.changeId as string | null, distressStage: a.distressStage, flags: { wet: a.wet, stunt: a.stunt, blood: a.blood, vfxShot: a.vfxShot } })),
-    ...extra.map((a) => ({ id: a.id, sceneId: a.scene_id, changeId: null, distressStage: Number(a.distress_stage), flags: { wet: a.wet, stunt: a.stunt, blood: a.blood, vfxShot: a.vfx_shot } })),
+    ...apps.map((a) => ({
+      id: a.id,
+      sceneId: a.sceneId,
+      changeId: a.changeId as string | null,
+      distressStage: a.distressStage,
+      flags: { wet: a.wet, stunt: a.stunt, blood: a.blood, vfxShot: a.vfxShot },
+    })),
+    ...extra.map((a) => ({
+      id: a.id,
+      sceneId: a.scene_id,
+      changeId: null,
+      distressStage: Number(a.distress_stage),
+      flags: { wet: a.wet, stunt: a.stunt, blood: a.blood, vfxShot: a.vfx_shot },
+    })),
   ];
   rows.sort((a, b) => (ix.scenesById.get(a.sceneId)?.storyOrder ?? 0) - (ix.scenesById.get(b.sceneId)?.storyOrder ?? 0));
   for (const a of rows) {
@@ -175,7 +238,7 @@ export async function continuityBookModel(ctx: BookContext, characterId: string,
         const key = opts.photoSize === "display" ? (p.variants.display ?? p.variants.thumb) : (p.variants.thumb ?? p.variants.display);
         return key ? [{ id: p.id, view: p.view, caption: p.caption, key }] : [];
       });
-    const change = a.changeId ? ctx.changes.get(a.changeId) ?? null : null;
+    const change = a.changeId ? (ctx.changes.get(a.changeId) ?? null) : null;
     scenes.push({
       number: scene.number,
       storyDay: scene.storyDay >= 0 ? scene.storyDay : null,
@@ -212,14 +275,25 @@ export function writeContinuityBook(model: BookModel, out: Writable, photoSize: 
 }
 
 /** Reads one character's book (optionally one change) for the actor's production. */
-export async function prepareContinuityBook(actor: Actor, characterId: string, opts: { changeId?: string; photoSize: BookPhotoSize }): Promise<BookModel> {
+export async function prepareContinuityBook(
+  actor: Actor,
+  characterId: string,
+  opts: { changeId?: string; photoSize: BookPhotoSize },
+): Promise<BookModel> {
   const ctx = await loadBookContext(actor.productionId);
   return continuityBookModel(ctx, characterId, opts);
 }
 
 /** "continuity-maud-penhallow.pdf" (ASCII only, for any file system). */
 export function bookFileName(model: BookModel): string {
-  const slug = (s: string) => s.normalize("NFKD").replace(/[^\w\s-]/g, "").trim().toLowerCase().replace(/[\s_]+/g, "-").slice(0, 60) || "book";
+  const slug = (s: string) =>
+    s
+      .normalize("NFKD")
+      .replace(/[^\w\s-]/g, "")
+      .trim()
+      .toLowerCase()
+      .replace(/[\s_]+/g, "-")
+      .slice(0, 60) || "book";
   return `continuity-${slug(model.characterName)}${model.changeLabel ? `-${slug(model.changeLabel.split(" – ")[0]!)}` : ""}.pdf`;
 }
 
@@ -249,6 +323,8 @@ export async function continuityBookCharacters(actor: Actor): Promise<Continuity
     name: c.name,
     scenes: Number(c.scenes),
     photos: photoCount.get(c.id) ?? 0,
-    changes: changes.filter((x) => x.character_id === c.id).map((x) => ({ id: x.id, number: Number(x.number), description: x.description, scenes: Number(x.scenes) })),
+    changes: changes
+      .filter((x) => x.character_id === c.id)
+      .map((x) => ({ id: x.id, number: Number(x.number), description: x.description, scenes: Number(x.scenes) })),
   }));
 }

@@ -10,7 +10,16 @@ import { centsToUnits, garmentCost, groupCosts, rentalWeeks, type CostShare, typ
 import { daysOverdue, groupRentalsByVendor, wrapAction, wrapActionLabels } from "@shared/domain/reports/returns.js";
 import { DEFAULT_CURRENCY } from "@shared/schemas/productions.js";
 import { garmentStatusLabels, type GarmentSource, type GarmentStatus, type WrapDisposition } from "@shared/schemas/garments.js";
-import type { BudgetDto, BudgetGarmentDto, LostLineDto, OutLineDto, RentalLineDto, ReturnsDto, WrapAction, WrapLineDto } from "@shared/schemas/reports.js";
+import type {
+  BudgetDto,
+  BudgetGarmentDto,
+  LostLineDto,
+  OutLineDto,
+  RentalLineDto,
+  ReturnsDto,
+  WrapAction,
+  WrapLineDto,
+} from "@shared/schemas/reports.js";
 import type { Column, Sheet } from "../lib/tabular.js";
 
 interface GarmentRow {
@@ -66,7 +75,13 @@ async function moneyContext(productionId: string): Promise<{ currency: string; t
 }
 
 const location = (g: GarmentRow) => [g.location_rack, g.location_bin].filter(Boolean).join(" / ") || null;
-const toFacts = (g: GarmentRow) => ({ source: g.source, costCents: g.cost_cents, rentalCostPerWeekCents: g.rental_cost_per_week_cents, rentalDueOn: g.rental_due_on, returnedOn: g.returned_on });
+const toFacts = (g: GarmentRow) => ({
+  source: g.source,
+  costCents: g.cost_cents,
+  rentalCostPerWeekCents: g.rental_cost_per_week_cents,
+  rentalDueOn: g.rental_due_on,
+  returnedOn: g.returned_on,
+});
 
 /** Statuses that mean "out of the store with someone" (not on a rack, not gone for good). */
 const OUT_STATUSES: ReadonlySet<GarmentStatus> = new Set(["on_set", "fitting", "cleaning", "workroom"]);
@@ -79,7 +94,16 @@ const OUT_STATUSES: ReadonlySet<GarmentStatus> = new Set(["on_set", "fitting", "
 export function garmentsOut(rows: GarmentRow[]): OutLineDto[] {
   return rows
     .filter((g) => OUT_STATUSES.has(g.status))
-    .map((g) => ({ garmentId: g.id, tagCode: g.tag_code, name: g.name, status: g.status, since: g.status_since, movedBy: g.status_by, holder: null, dueBack: null }))
+    .map((g) => ({
+      garmentId: g.id,
+      tagCode: g.tag_code,
+      name: g.name,
+      status: g.status,
+      since: g.status_since,
+      movedBy: g.status_by,
+      holder: null,
+      dueBack: null,
+    }))
     .sort((a, b) => (a.since ?? "").localeCompare(b.since ?? "") || a.tagCode.localeCompare(b.tagCode));
 }
 
@@ -109,7 +133,15 @@ export async function returnsReport(actor: Actor): Promise<ReturnsDto> {
     });
   const lost: LostLineDto[] = rows
     .filter((g) => g.status === "lost")
-    .map((g) => ({ garmentId: g.id, tagCode: g.tag_code, name: g.name, source: g.source, vendor: g.vendor, lostOn: g.status_since, costCents: g.cost_cents }));
+    .map((g) => ({
+      garmentId: g.id,
+      tagCode: g.tag_code,
+      name: g.name,
+      source: g.source,
+      vendor: g.vendor,
+      lostOn: g.status_since,
+      costCents: g.cost_cents,
+    }));
   const wrap: WrapLineDto[] = rows
     .filter((g) => g.status !== "returned" && g.status !== "lost")
     .map((g) => ({
@@ -125,9 +157,22 @@ export async function returnsReport(actor: Actor): Promise<ReturnsDto> {
       costCents: g.cost_cents,
     }));
   const order: WrapAction[] = ["return", "sell", "keep", "undecided"];
-  wrap.sort((a, b) => order.indexOf(a.action) - order.indexOf(b.action) || (a.dueOn ?? "").localeCompare(b.dueOn ?? "") || a.tagCode.localeCompare(b.tagCode));
+  wrap.sort(
+    (a, b) =>
+      order.indexOf(a.action) - order.indexOf(b.action) ||
+      (a.dueOn ?? "").localeCompare(b.dueOn ?? "") ||
+      a.tagCode.localeCompare(b.tagCode),
+  );
   const wrapCounts = Object.fromEntries(order.map((a) => [a, wrap.filter((w) => w.action === a).length])) as Record<WrapAction, number>;
-  return { today: ctx.today, currency: ctx.currency, rentals: groupRentalsByVendor(rentals), lost, out: garmentsOut(rows), wrap, wrapCounts };
+  return {
+    today: ctx.today,
+    currency: ctx.currency,
+    rentals: groupRentalsByVendor(rentals),
+    lost,
+    out: garmentsOut(rows),
+    wrap,
+    wrapCounts,
+  };
 }
 
 /** Costs by category, character, change and source, rental cost per week, and every garment's line. */
@@ -137,7 +182,14 @@ export async function budgetReport(actor: Actor): Promise<BudgetDto> {
     moneyContext(actor.productionId),
     loadGarments(actor.productionId),
     // Which characters' changes use a garment: directly, or as any copy of a group the change names.
-    sequelize.query<{ garment_id: string; change_id: string; change_number: number; change_description: string | null; character_id: string; character_name: string }>(
+    sequelize.query<{
+      garment_id: string;
+      change_id: string;
+      change_number: number;
+      change_description: string | null;
+      character_id: string;
+      character_name: string;
+    }>(
       `SELECT DISTINCT g.id AS garment_id, c.id AS change_id, c.number AS change_number, c.description AS change_description, ch.id AS character_id, ch.name AS character_name
          FROM change_items ci
          JOIN changes c ON c.id = ci.change_id
@@ -149,7 +201,19 @@ export async function budgetReport(actor: Actor): Promise<BudgetDto> {
   ]);
   const garments: BudgetGarmentDto[] = rows.map((g) => {
     const c = garmentCost(toFacts(g), ctx.period);
-    return { garmentId: g.id, tagCode: g.tag_code, name: g.name, category: g.category, source: g.source, vendor: g.vendor, status: g.status, costCents: c.costCents, weeklyCents: c.weeklyCents, weeks: c.weeks, totalCents: c.totalCents };
+    return {
+      garmentId: g.id,
+      tagCode: g.tag_code,
+      name: g.name,
+      category: g.category,
+      source: g.source,
+      vendor: g.vendor,
+      status: g.status,
+      costCents: c.costCents,
+      weeklyCents: c.weeklyCents,
+      weeks: c.weeks,
+      totalCents: c.totalCents,
+    };
   });
   const usesOf = new Map<string, typeof uses>();
   for (const u of uses) (usesOf.get(u.garment_id) ?? usesOf.set(u.garment_id, []).get(u.garment_id)!).push(u);
@@ -163,10 +227,20 @@ export async function budgetReport(actor: Actor): Promise<BudgetDto> {
     groupings: {
       category: groupCosts(garments, (g) => [{ key: g.category, label: g.category }], { key: "", label: "" }),
       source: groupCosts(garments, (g) => [{ key: g.source, label: sourceLabels[g.source] }], { key: "", label: "" }),
-      character: groupCosts(garments, (g) => uniq((usesOf.get(g.garmentId) ?? []).map((u) => ({ key: u.character_id, label: u.character_name }))), { key: "none", label: "Not in any change" }),
+      character: groupCosts(
+        garments,
+        (g) => uniq((usesOf.get(g.garmentId) ?? []).map((u) => ({ key: u.character_id, label: u.character_name }))),
+        { key: "none", label: "Not in any change" },
+      ),
       change: groupCosts(
         garments,
-        (g) => uniq((usesOf.get(g.garmentId) ?? []).map((u) => ({ key: u.change_id, label: `${u.character_name} · change ${u.change_number}${u.change_description ? ` (${u.change_description})` : ""}` }))),
+        (g) =>
+          uniq(
+            (usesOf.get(g.garmentId) ?? []).map((u) => ({
+              key: u.change_id,
+              label: `${u.character_name} · change ${u.change_number}${u.change_description ? ` (${u.change_description})` : ""}`,
+            })),
+          ),
         { key: "none", label: "Not in any change" },
       ),
     },
@@ -192,7 +266,12 @@ export function returnsSheets(r: ReturnsDto): Sheet[] {
     { header: "Where", value: (l) => l.location ?? "" },
     { header: "Due back", value: (l) => l.dueOn ?? "" },
     { header: "Days overdue", value: (l) => (l.overdue ? l.daysOverdue! : 0), numFmt: "0" },
-    { header: m.header("Weekly rate"), value: (l) => (l.weeklyCents === null ? null : centsToUnits(l.weeklyCents)), numFmt: m.numFmt, sum: true },
+    {
+      header: m.header("Weekly rate"),
+      value: (l) => (l.weeklyCents === null ? null : centsToUnits(l.weeklyCents)),
+      numFmt: m.numFmt,
+      sum: true,
+    },
     { header: "Weeks", value: (l) => l.weeks, numFmt: "0" },
     { header: m.header("Hire cost"), value: (l) => centsToUnits(l.hireCents), numFmt: m.numFmt, sum: true },
   ];
@@ -225,7 +304,12 @@ export function returnsSheets(r: ReturnsDto): Sheet[] {
     { header: m.header("Cost"), value: (l) => (l.costCents === null ? null : centsToUnits(l.costCents)), numFmt: m.numFmt, sum: true },
   ];
   return [
-    { name: "Rentals", columns: rentals as Column<unknown>[], rows: r.rentals.flatMap((v) => v.lines.map((l) => ({ ...l, vendorName: v.vendor }))), totals: true },
+    {
+      name: "Rentals",
+      columns: rentals as Column<unknown>[],
+      rows: r.rentals.flatMap((v) => v.lines.map((l) => ({ ...l, vendorName: v.vendor }))),
+      totals: true,
+    },
     { name: "Lost", columns: lost as Column<unknown>[], rows: r.lost, totals: true },
     { name: "Out", columns: out as Column<unknown>[], rows: r.out },
     { name: "Wrap", columns: wrap as Column<unknown>[], rows: r.wrap, totals: true },

@@ -29,14 +29,27 @@ export async function rackList(actor: Actor, query: RackListQuery): Promise<Rack
   const rep = { replacements: { pid: actor.productionId }, type: QueryTypes.SELECT } as const;
   const stage = production.kind === "stage";
   const [days, locations, changes, items, characters] = await Promise.all([
-    sequelize.query<{ id: string; date: string; kind: "shoot" | "performance"; day_number: number; starts_at: string | null; notes: string | null }>(
+    sequelize.query<{
+      id: string;
+      date: string;
+      kind: "shoot" | "performance";
+      day_number: number;
+      starts_at: string | null;
+      notes: string | null;
+    }>(
       `SELECT id, to_char(date, 'YYYY-MM-DD') AS date, kind, day_number, to_char(starts_at, 'HH24:MI') AS starts_at, notes
          FROM shoot_days WHERE production_id = :pid ORDER BY date, day_number`,
       rep,
     ),
-    sequelize.query<{ id: string; location_rack: string | null; location_bin: string | null }>(`SELECT id, location_rack, location_bin FROM garments WHERE production_id = :pid`, rep),
+    sequelize.query<{ id: string; location_rack: string | null; location_bin: string | null }>(
+      `SELECT id, location_rack, location_bin FROM garments WHERE production_id = :pid`,
+      rep,
+    ),
     sequelize.query<{ id: string; description: string | null }>(`SELECT id, description FROM changes WHERE production_id = :pid`, rep),
-    sequelize.query<{ id: string; label: string; sort_order: number }>(`SELECT id, label, sort_order FROM change_items WHERE production_id = :pid`, rep),
+    sequelize.query<{ id: string; label: string; sort_order: number }>(
+      `SELECT id, label, sort_order FROM change_items WHERE production_id = :pid`,
+      rep,
+    ),
     sequelize.query<{ id: string; sort_order: number }>(`SELECT id, sort_order FROM characters WHERE production_id = :pid`, rep),
   ]);
   // A stage production's list is for the next performance; a film's for the next shoot day.
@@ -48,7 +61,14 @@ export async function rackList(actor: Actor, query: RackListQuery): Promise<Rack
     if (!chosen) throw NotFoundError("Shoot day not found.");
   }
   const day: RackDayDto | null = chosen
-    ? { id: chosen.id, date: chosen.date, kind: chosen.kind, dayNumber: Number(chosen.day_number), startsAt: chosen.starts_at, notes: chosen.notes }
+    ? {
+        id: chosen.id,
+        date: chosen.date,
+        kind: chosen.kind,
+        dayNumber: Number(chosen.day_number),
+        startsAt: chosen.starts_at,
+        notes: chosen.notes,
+      }
     : null;
   const characterList = day
     ? buildRackList({

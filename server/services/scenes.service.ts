@@ -41,7 +41,15 @@ export async function listScenes(actor: Actor, q: ListScenesQuery): Promise<{ ro
        ) p ON true
       ORDER BY p.story_order, p.number`,
     {
-      replacements: { pid: actor.productionId, storyDay: q.storyDay, setName: q.setName, shootDayId: q.shootDayId, characterId: q.characterId, limit: q.pageSize, offset: (q.page - 1) * q.pageSize },
+      replacements: {
+        pid: actor.productionId,
+        storyDay: q.storyDay,
+        setName: q.setName,
+        shootDayId: q.shootDayId,
+        characterId: q.characterId,
+        limit: q.pageSize,
+        offset: (q.page - 1) * q.pageSize,
+      },
       type: QueryTypes.SELECT,
     },
   );
@@ -88,7 +96,11 @@ interface SceneListRow {
 export async function stageGaps(productionId: string, transaction?: Transaction): Promise<Map<string, number | null>> {
   const production = await Production.findByPk(productionId, { transaction });
   if (production?.kind !== "stage") return new Map();
-  const scenes = await Scene.findAll({ where: { productionId }, attributes: ["id", "number", "storyOrder", "runningMinutes"], transaction });
+  const scenes = await Scene.findAll({
+    where: { productionId },
+    attributes: ["id", "number", "storyOrder", "runningMinutes"],
+    transaction,
+  });
   scenes.sort((a, b) => a.storyOrder - b.storyOrder || compareSceneNumbers(a.number, b.number));
   const apps = await Appearance.findAll({ where: { productionId }, attributes: ["id", "sceneId", "characterId"], transaction });
   return minutesSincePreviousExit(
@@ -101,7 +113,9 @@ export async function stageGaps(productionId: string, transaction?: Transaction)
 export async function getSceneDetail(actor: Actor, id: string): Promise<SceneDetailDto> {
   const scene = await findScene(actor, id);
   const slots = await ShootDayScene.findAll({ where: { sceneId: id, productionId: actor.productionId } });
-  const days = slots.length ? await ShootDay.findAll({ where: { id: { [Op.in]: slots.map((s) => s.shootDayId) } }, order: [["dayNumber", "ASC"]] }) : [];
+  const days = slots.length
+    ? await ShootDay.findAll({ where: { id: { [Op.in]: slots.map((s) => s.shootDayId) } }, order: [["dayNumber", "ASC"]] })
+    : [];
   const apps = await Appearance.findAll({ where: { sceneId: id, productionId: actor.productionId } });
   const chars = await Character.findAll({ where: { productionId: actor.productionId, id: { [Op.in]: apps.map((a) => a.characterId) } } });
   const changeIds = apps.map((a) => a.changeId).filter((x): x is string => Boolean(x));
@@ -122,15 +136,31 @@ export async function getSceneDetail(actor: Actor, id: string): Promise<SceneDet
     })
     .sort((a, b) => a.sortOrder - b.sortOrder || a.characterName.localeCompare(b.characterName))
     .map(({ sortOrder: _s, ...rest }) => rest);
-  return { ...presentScene(scene), shootDays: days.map((d) => ({ id: d.id, dayNumber: d.dayNumber, date: d.date, kind: d.kind })), appearances };
+  return {
+    ...presentScene(scene),
+    shootDays: days.map((d) => ({ id: d.id, dayNumber: d.dayNumber, date: d.date, kind: d.kind })),
+    appearances,
+  };
 }
 
 /** Adds a scene; without a story order it goes after the last one. */
 export async function createScene(actor: Actor, input: SceneInput): Promise<Scene> {
   return sequelize.transaction(async (transaction) => {
-    const storyOrder = input.storyOrder ?? (((await Scene.max("storyOrder", { where: { productionId: actor.productionId }, transaction })) as number | null) ?? 0) + 1;
+    const storyOrder =
+      input.storyOrder ??
+      (((await Scene.max("storyOrder", { where: { productionId: actor.productionId }, transaction })) as number | null) ?? 0) + 1;
     const scene = await Scene.create({ ...input, storyOrder, productionId: actor.productionId }, { transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "scene.create", entityType: "scene", entityId: scene.id, after: presentScene(scene) }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "scene.create",
+        entityType: "scene",
+        entityId: scene.id,
+        after: presentScene(scene),
+      },
+      transaction,
+    );
     return scene;
   });
 }
@@ -142,7 +172,18 @@ export async function updateScene(actor: Actor, id: string, input: UpdateSceneIn
     if (!scene) throw NotFoundError("Scene not found.");
     const before = presentScene(scene);
     await scene.update(input, { transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "scene.update", entityType: "scene", entityId: id, before, after: presentScene(scene) }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "scene.update",
+        entityType: "scene",
+        entityId: id,
+        before,
+        after: presentScene(scene),
+      },
+      transaction,
+    );
     return scene;
   });
 }
@@ -151,11 +192,30 @@ export async function updateScene(actor: Actor, id: string, input: UpdateSceneIn
 export async function deleteScene(actor: Actor, id: string): Promise<void> {
   const hashes = await sequelize.transaction(async (transaction) => {
     const scene = await findScene(actor, id, transaction);
-    const entries = await ContinuityEntry.findAll({ where: { sceneId: id, productionId: actor.productionId }, attributes: ["id"], transaction });
-    const h1 = await deletePhotosOfOwners(actor.productionId, "continuity_entry", entries.map((e) => e.id), transaction);
+    const entries = await ContinuityEntry.findAll({
+      where: { sceneId: id, productionId: actor.productionId },
+      attributes: ["id"],
+      transaction,
+    });
+    const h1 = await deletePhotosOfOwners(
+      actor.productionId,
+      "continuity_entry",
+      entries.map((e) => e.id),
+      transaction,
+    );
     const h2 = await deletePhotosOfOwners(actor.productionId, "scene", [id], transaction);
     await scene.destroy({ transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "scene.delete", entityType: "scene", entityId: id, before: presentScene(scene) }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "scene.delete",
+        entityType: "scene",
+        entityId: id,
+        before: presentScene(scene),
+      },
+      transaction,
+    );
     return [...h1, ...h2];
   });
   await removeUnreferencedFiles(hashes);

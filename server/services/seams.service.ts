@@ -58,7 +58,8 @@ export async function listSeams(actor: Actor, scope: { garmentId?: string; chang
 
 function checkEnd(end: RunEnd, n: number, field: string): void {
   const idx = typeof end === "number" ? end : end.edge;
-  if (idx >= n) throw ValidationError(`${field}: the panel has ${n} points (0–${n - 1})`, { [field]: `the panel has ${n} points (0–${n - 1})` });
+  if (idx >= n)
+    throw ValidationError(`${field}: the panel has ${n} points (0–${n - 1})`, { [field]: `the panel has ${n} points (0–${n - 1})` });
 }
 
 async function panelFor(actor: Actor, panelId: string, field: string, transaction: Transaction): Promise<Panel> {
@@ -100,7 +101,17 @@ export async function createSeam(actor: Actor, input: CreateSeamInput): Promise<
   return sequelize.transaction(async (transaction) => {
     const [a, b] = await validateSides(actor, input, transaction);
     const seam = await Seam.create({ productionId: actor.productionId, ...fieldsFrom(input) }, { transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "seam.create", entityType: "seam", entityId: seam.id, after: { name: seam.name } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "seam.create",
+        entityType: "seam",
+        entityId: seam.id,
+        after: { name: seam.name },
+      },
+      transaction,
+    );
     return presentSeam(seam, a, b, await productionSeamTolerance(actor.productionId, transaction));
   });
 }
@@ -108,18 +119,37 @@ export async function createSeam(actor: Actor, input: CreateSeamInput): Promise<
 /** Updates a seam (any fields) and returns it checked. */
 export async function updateSeam(actor: Actor, seamId: string, input: UpdateSeamInput): Promise<SeamDto> {
   return sequelize.transaction(async (transaction) => {
-    const seam = await Seam.findOne({ where: { id: seamId, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
+    const seam = await Seam.findOne({
+      where: { id: seamId, productionId: actor.productionId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!seam) throw NotFoundError("Seam not found.");
     const merged: CreateSeamInput = {
       name: input.name ?? seam.name,
       a: input.a ?? { panelId: seam.panelAId, from: seam.aFrom, to: seam.aTo, direction: seam.aDirection },
       b: input.b ?? { panelId: seam.panelBId, from: seam.bFrom, to: seam.bTo, direction: seam.bDirection },
       toleranceMm: input.toleranceMm !== undefined ? input.toleranceMm : seam.toleranceMm,
-      eased: input.eased !== undefined ? input.eased : seam.eased && seam.easeMinMm !== null && seam.easeMaxMm !== null ? { minMm: seam.easeMinMm, maxMm: seam.easeMaxMm } : null,
+      eased:
+        input.eased !== undefined
+          ? input.eased
+          : seam.eased && seam.easeMinMm !== null && seam.easeMaxMm !== null
+            ? { minMm: seam.easeMinMm, maxMm: seam.easeMaxMm }
+            : null,
     };
     const [a, b] = await validateSides(actor, merged, transaction);
     await seam.update(fieldsFrom(merged), { transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "seam.update", entityType: "seam", entityId: seam.id, after: input }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "seam.update",
+        entityType: "seam",
+        entityId: seam.id,
+        after: input,
+      },
+      transaction,
+    );
     return presentSeam(seam, a, b, await productionSeamTolerance(actor.productionId, transaction));
   });
 }
@@ -127,9 +157,23 @@ export async function updateSeam(actor: Actor, seamId: string, input: UpdateSeam
 /** Deletes a seam. */
 export async function deleteSeam(actor: Actor, seamId: string): Promise<void> {
   await sequelize.transaction(async (transaction) => {
-    const seam = await Seam.findOne({ where: { id: seamId, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
+    const seam = await Seam.findOne({
+      where: { id: seamId, productionId: actor.productionId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!seam) throw NotFoundError("Seam not found.");
     await seam.destroy({ transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "seam.delete", entityType: "seam", entityId: seam.id, before: { name: seam.name } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "seam.delete",
+        entityType: "seam",
+        entityId: seam.id,
+        before: { name: seam.name },
+      },
+      transaction,
+    );
   });
 }

@@ -19,12 +19,22 @@ async function scenesFor(productionId: string, days: ShootDay[], transaction?: T
   });
   for (const s of slots) {
     const list = out.get(s.shootDayId) ?? [];
-    list.push({ id: s.sceneId, number: s.scene?.number ?? "", position: s.position, setName: s.scene?.setName ?? null, storyDay: s.scene?.storyDay ?? null });
+    list.push({
+      id: s.sceneId,
+      number: s.scene?.number ?? "",
+      position: s.position,
+      setName: s.scene?.setName ?? null,
+      storyDay: s.scene?.storyDay ?? null,
+    });
     out.set(s.shootDayId, list);
   }
   // A performance plays the whole show in running order (= story order).
   if (days.some((d) => d.kind === "performance")) {
-    const all = await Scene.findAll({ where: { productionId }, attributes: ["id", "number", "setName", "storyDay", "storyOrder"], transaction });
+    const all = await Scene.findAll({
+      where: { productionId },
+      attributes: ["id", "number", "setName", "storyDay", "storyOrder"],
+      transaction,
+    });
     all.sort((a, b) => a.storyOrder - b.storyOrder || compareSceneNumbers(a.number, b.number));
     const running = all.map((s, i) => ({ id: s.id, number: s.number, position: i + 1, setName: s.setName, storyDay: s.storyDay }));
     for (const d of days) if (d.kind === "performance") out.set(d.id, running);
@@ -33,11 +43,23 @@ async function scenesFor(productionId: string, days: ShootDay[], transaction?: T
 }
 
 /** Shoot days and performances in date order, each with its scenes. */
-export async function listShootDays(actor: Actor, q: { page: number; pageSize: number; kind?: "shoot" | "performance"; from?: string }): Promise<{ rows: ShootDayDto[]; total: number }> {
+export async function listShootDays(
+  actor: Actor,
+  q: { page: number; pageSize: number; kind?: "shoot" | "performance"; from?: string },
+): Promise<{ rows: ShootDayDto[]; total: number }> {
   const where: Record<string, unknown> = { productionId: actor.productionId };
   if (q.kind) where.kind = q.kind;
   if (q.from) where.date = { [Op.gte]: q.from };
-  const { rows, count } = await ShootDay.findAndCountAll({ where, order: [["date", "ASC"], ["startsAt", "ASC"], ["dayNumber", "ASC"]], limit: q.pageSize, offset: (q.page - 1) * q.pageSize });
+  const { rows, count } = await ShootDay.findAndCountAll({
+    where,
+    order: [
+      ["date", "ASC"],
+      ["startsAt", "ASC"],
+      ["dayNumber", "ASC"],
+    ],
+    limit: q.pageSize,
+    offset: (q.page - 1) * q.pageSize,
+  });
   const scenes = await scenesFor(actor.productionId, rows);
   return { rows: rows.map((d) => presentShootDay(d, scenes.get(d.id) ?? [])), total: count };
 }
@@ -50,21 +72,32 @@ export async function getShootDay(actor: Actor, id: string): Promise<ShootDayDto
 }
 
 async function setDayScenes(actor: Actor, day: ShootDay, sceneIds: string[], transaction: Transaction): Promise<void> {
-  if (new Set(sceneIds).size !== sceneIds.length) throw ValidationError("sceneIds: a scene is listed twice", { sceneIds: "lists a scene twice" });
+  if (new Set(sceneIds).size !== sceneIds.length)
+    throw ValidationError("sceneIds: a scene is listed twice", { sceneIds: "lists a scene twice" });
   if (sceneIds.length) {
     const found = await Scene.count({ where: { productionId: actor.productionId, id: { [Op.in]: sceneIds } }, transaction });
-    if (found !== sceneIds.length) throw ValidationError("sceneIds: a scene does not exist in this production", { sceneIds: "names a scene that does not exist" });
+    if (found !== sceneIds.length)
+      throw ValidationError("sceneIds: a scene does not exist in this production", { sceneIds: "names a scene that does not exist" });
   }
   await ShootDayScene.destroy({ where: { shootDayId: day.id }, transaction });
-  await ShootDayScene.bulkCreate(sceneIds.map((sceneId, i) => ({ productionId: actor.productionId, shootDayId: day.id, sceneId, position: i + 1 })), { transaction });
+  await ShootDayScene.bulkCreate(
+    sceneIds.map((sceneId, i) => ({ productionId: actor.productionId, shootDayId: day.id, sceneId, position: i + 1 })),
+    { transaction },
+  );
 }
 
 /** A day number is the department's name for the day ("Day 12"): two days never share one. */
 async function assertDayNumberFree(actor: Actor, dayNumber: number, exceptId: string | null, transaction: Transaction): Promise<void> {
-  const other = await ShootDay.findOne({ where: { productionId: actor.productionId, dayNumber }, attributes: ["id", "date", "kind"], transaction });
+  const other = await ShootDay.findOne({
+    where: { productionId: actor.productionId, dayNumber },
+    attributes: ["id", "date", "kind"],
+    transaction,
+  });
   if (other && other.id !== exceptId) {
     const what = other.kind === "performance" ? "Performance" : "Day";
-    throw ConflictError(`dayNumber: ${what} ${dayNumber} already exists (${other.date}); choose another number.`, { dayNumber: `${what} ${dayNumber} already exists (${other.date})` });
+    throw ConflictError(`dayNumber: ${what} ${dayNumber} already exists (${other.date}); choose another number.`, {
+      dayNumber: `${what} ${dayNumber} already exists (${other.date})`,
+    });
   }
 }
 
@@ -75,7 +108,17 @@ export async function createShootDay(actor: Actor, input: ShootDayInput): Promis
     await assertDayNumberFree(actor, fields.dayNumber, null, transaction);
     const d = await ShootDay.create({ ...fields, productionId: actor.productionId }, { transaction });
     if (sceneIds && d.kind === "shoot") await setDayScenes(actor, d, sceneIds, transaction);
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "shoot_day.create", entityType: "shoot_day", entityId: d.id, after: { ...fields, sceneIds } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "shoot_day.create",
+        entityType: "shoot_day",
+        entityId: d.id,
+        after: { ...fields, sceneIds },
+      },
+      transaction,
+    );
     return d;
   });
   return getShootDay(actor, day.id);
@@ -88,10 +131,22 @@ export async function updateShootDay(actor: Actor, id: string, input: UpdateShoo
     if (!d) throw NotFoundError("Shoot day not found.");
     const { sceneIds, ...fields } = input;
     const before = { dayNumber: d.dayNumber, date: d.date, kind: d.kind, startsAt: d.startsAt };
-    if (fields.dayNumber !== undefined && fields.dayNumber !== d.dayNumber) await assertDayNumberFree(actor, fields.dayNumber, d.id, transaction);
+    if (fields.dayNumber !== undefined && fields.dayNumber !== d.dayNumber)
+      await assertDayNumberFree(actor, fields.dayNumber, d.id, transaction);
     await d.update(fields, { transaction });
     if (sceneIds && d.kind === "shoot") await setDayScenes(actor, d, sceneIds, transaction);
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "shoot_day.update", entityType: "shoot_day", entityId: id, before, after: input }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "shoot_day.update",
+        entityType: "shoot_day",
+        entityId: id,
+        before,
+        after: input,
+      },
+      transaction,
+    );
   });
   return getShootDay(actor, id);
 }
@@ -102,7 +157,17 @@ export async function deleteShootDay(actor: Actor, id: string): Promise<void> {
     const d = await ShootDay.findOne({ where: { id, productionId: actor.productionId }, transaction });
     if (!d) throw NotFoundError("Shoot day not found.");
     await d.destroy({ transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "shoot_day.delete", entityType: "shoot_day", entityId: id, before: { dayNumber: d.dayNumber, date: d.date } }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "shoot_day.delete",
+        entityType: "shoot_day",
+        entityId: id,
+        before: { dayNumber: d.dayNumber, date: d.date },
+      },
+      transaction,
+    );
   });
 }
 
@@ -112,25 +177,52 @@ export async function deleteShootDay(actor: Actor, id: string): Promise<void> {
  * @returns both days as they are now
  */
 export async function moveSceneToDay(actor: Actor, fromId: string, input: MoveSceneInput): Promise<{ from: ShootDayDto; to: ShootDayDto }> {
-  if (fromId === input.toShootDayId) throw ValidationError("toShootDayId: the scene is already on this day; drag it to reorder instead", { toShootDayId: "is the day the scene is on" });
+  if (fromId === input.toShootDayId)
+    throw ValidationError("toShootDayId: the scene is already on this day; drag it to reorder instead", {
+      toShootDayId: "is the day the scene is on",
+    });
   await sequelize.transaction(async (transaction) => {
-    const days = await ShootDay.findAll({ where: { productionId: actor.productionId, id: { [Op.in]: [fromId, input.toShootDayId] } }, order: [["id", "ASC"]], transaction, lock: transaction.LOCK.UPDATE });
+    const days = await ShootDay.findAll({
+      where: { productionId: actor.productionId, id: { [Op.in]: [fromId, input.toShootDayId] } },
+      order: [["id", "ASC"]],
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     const from = days.find((d) => d.id === fromId);
     const to = days.find((d) => d.id === input.toShootDayId);
     if (!from) throw NotFoundError("Shoot day not found.");
     if (!to) throw ValidationError("toShootDayId: no such shoot day in this production", { toShootDayId: "does not exist" });
-    if (to.kind !== "shoot" || from.kind !== "shoot") throw ValidationError("toShootDayId: a performance plays the whole show; scenes move only between shoot days", { toShootDayId: "is a performance" });
-    const order = async (d: ShootDay) => (await ShootDayScene.findAll({ where: { shootDayId: d.id }, order: [["position", "ASC"]], transaction })).map((x) => x.sceneId);
+    if (to.kind !== "shoot" || from.kind !== "shoot")
+      throw ValidationError("toShootDayId: a performance plays the whole show; scenes move only between shoot days", {
+        toShootDayId: "is a performance",
+      });
+    const order = async (d: ShootDay) =>
+      (await ShootDayScene.findAll({ where: { shootDayId: d.id }, order: [["position", "ASC"]], transaction })).map((x) => x.sceneId);
     const fromScenes = await order(from);
     const toScenes = await order(to);
-    if (!fromScenes.includes(input.sceneId)) throw ValidationError(`sceneId: the scene is not on day ${from.dayNumber}`, { sceneId: `is not on day ${from.dayNumber}` });
-    if (toScenes.includes(input.sceneId)) throw ConflictError(`sceneId: the scene is already on day ${to.dayNumber}`, { sceneId: `is already on day ${to.dayNumber}` });
+    if (!fromScenes.includes(input.sceneId))
+      throw ValidationError(`sceneId: the scene is not on day ${from.dayNumber}`, { sceneId: `is not on day ${from.dayNumber}` });
+    if (toScenes.includes(input.sceneId))
+      throw ConflictError(`sceneId: the scene is already on day ${to.dayNumber}`, { sceneId: `is already on day ${to.dayNumber}` });
     const at = Math.min((input.position ?? toScenes.length + 1) - 1, toScenes.length);
     toScenes.splice(at, 0, input.sceneId);
-    await setDayScenes(actor, from, fromScenes.filter((id) => id !== input.sceneId), transaction);
+    await setDayScenes(
+      actor,
+      from,
+      fromScenes.filter((id) => id !== input.sceneId),
+      transaction,
+    );
     await setDayScenes(actor, to, toScenes, transaction);
     await recordAudit(
-      { productionId: actor.productionId, actorId: actor.user.id, action: "shoot_day.move_scene", entityType: "shoot_day", entityId: to.id, before: { shootDayId: from.id, dayNumber: from.dayNumber }, after: { shootDayId: to.id, dayNumber: to.dayNumber, sceneId: input.sceneId, position: at + 1 } },
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "shoot_day.move_scene",
+        entityType: "shoot_day",
+        entityId: to.id,
+        before: { shootDayId: from.id, dayNumber: from.dayNumber },
+        after: { shootDayId: to.id, dayNumber: to.dayNumber, sceneId: input.sceneId, position: at + 1 },
+      },
       transaction,
     );
   });

@@ -10,7 +10,14 @@ import { clock, productionTimeZone } from "../lib/clock.js";
 import { VersionedCache } from "../lib/versioned-cache.js";
 import { zonedParts } from "../lib/zoned-time.js";
 import type { Actor } from "../middleware/require-auth.js";
-import { GARMENT_FACTS_SQL, currentMeasurementsSql, easeOverridesOf, garmentRecOf, measurementValuesOf, type GarmentFactsRow } from "./fit-facts.js";
+import {
+  GARMENT_FACTS_SQL,
+  currentMeasurementsSql,
+  easeOverridesOf,
+  garmentRecOf,
+  measurementValuesOf,
+  type GarmentFactsRow,
+} from "./fit-facts.js";
 import { computeMultiplesPlans, computeSnags } from "@shared/domain/snags/engine.js";
 import { mergeSameCause } from "@shared/domain/snags/merge.js";
 import { scheduleLabels } from "@shared/domain/schedule-labels.js";
@@ -63,8 +70,7 @@ const num = (v: unknown): number | null => {
  * Garments, measurements and ease ranges become fit facts through ./fit-facts.ts, as in the fitting view.
  */
 export async function loadSnapshot(productionId: string): Promise<LoadedProduction> {
-  const q = <T extends Row>(sql: string) =>
-    sequelize.query<T>(sql, { replacements: { pid: productionId }, type: QueryTypes.SELECT });
+  const q = <T extends Row>(sql: string) => sequelize.query<T>(sql, { replacements: { pid: productionId }, type: QueryTypes.SELECT });
   const [
     productions,
     scenes,
@@ -124,7 +130,8 @@ export async function loadSnapshot(productionId: string): Promise<LoadedProducti
   const shootDays: ShootDayRec[] = [];
   const performances: PerformanceRec[] = [];
   for (const d of days) {
-    if (d.kind === "performance") performances.push({ id: d.id as string, date: d.date as string, startsAt: (d.starts_at as string | null) ?? "19:30" });
+    if (d.kind === "performance")
+      performances.push({ id: d.id as string, date: d.date as string, startsAt: (d.starts_at as string | null) ?? "19:30" });
     else shootDays.push({ id: d.id as string, date: d.date as string, sceneIds: sceneIdsOfDay.get(d.id as string) ?? [] });
   }
 
@@ -203,7 +210,11 @@ export async function loadSnapshot(productionId: string): Promise<LoadedProducti
     shootDays,
     performances,
     characters: characterRecs,
-    performers: performers.map((p) => ({ id: p.id as string, name: p.name as string, measurements: measurementsOf.get(p.id as string) ?? {} })),
+    performers: performers.map((p) => ({
+      id: p.id as string,
+      name: p.name as string,
+      measurements: measurementsOf.get(p.id as string) ?? {},
+    })),
     changes: changes.map((c) => ({ id: c.id as string, characterId: c.character_id as string, number: num(c.number) ?? String(c.number) })),
     changeItems: items.map((i) => ({
       id: i.id as string,
@@ -213,20 +224,22 @@ export async function loadSnapshot(productionId: string): Promise<LoadedProducti
     })),
     appearances: appearanceRecs,
     garments: garmentRecs,
-    multiplesGroups: groups.map((g) => ({ id: g.id as string, name: g.name as string, garmentIds: groupGarments.get(g.id as string) ?? [] })),
+    multiplesGroups: groups.map((g) => ({
+      id: g.id as string,
+      name: g.name as string,
+      garmentIds: groupGarments.get(g.id as string) ?? [],
+    })),
     continuityEntries: entryRecs,
-    checkouts: checkouts.map(
-      (c): CheckoutRec => ({
-        id: c.id as string,
-        garmentId: c.garment_id as string,
-        toName: c.to_name as string,
-        toPerformerId: (c.to_performer_id as string | null) ?? null,
-        dueBackOn: c.due_back_on as string,
-        checkedOutOn: zonedParts(new Date(c.checked_out_at as string | Date), timeZone).date,
-        shootDayId: (c.shoot_day_id as string | null) ?? null,
-        sceneId: (c.scene_id as string | null) ?? null,
-      }),
-    ),
+    checkouts: checkouts.map((c): CheckoutRec => ({
+      id: c.id as string,
+      garmentId: c.garment_id as string,
+      toName: c.to_name as string,
+      toPerformerId: (c.to_performer_id as string | null) ?? null,
+      dueBackOn: c.due_back_on as string,
+      checkedOutOn: zonedParts(new Date(c.checked_out_at as string | Date), timeZone).date,
+      shootDayId: (c.shoot_day_id as string | null) ?? null,
+      sceneId: (c.scene_id as string | null) ?? null,
+    })),
   };
   return {
     snapshot,
@@ -261,7 +274,8 @@ class Resolver {
     for (const a of s.appearances) this.appearanceCharacter.set(a.id, a.characterId);
     const charOfChange = new Map(s.changes.map((c) => [c.id, c.characterId]));
     const copies = new Map<string, string[]>();
-    for (const g of s.garments) if (g.multiplesGroupId) (copies.get(g.multiplesGroupId) ?? copies.set(g.multiplesGroupId, []).get(g.multiplesGroupId)!).push(g.id);
+    for (const g of s.garments)
+      if (g.multiplesGroupId) (copies.get(g.multiplesGroupId) ?? copies.set(g.multiplesGroupId, []).get(g.multiplesGroupId)!).push(g.id);
     const add = (m: Map<string, Set<string>>, k: string, c: string) => (m.get(k) ?? m.set(k, new Set()).get(k)!).add(c);
     for (const it of s.changeItems) {
       const c = charOfChange.get(it.changeId);
@@ -296,7 +310,8 @@ class Resolver {
     const links: SnagLinkDto[] = [];
     const sub = s.subject;
     const garment = sub.garmentId ? this.garments.get(sub.garmentId) : undefined;
-    const garmentLink = () => garment && links.push({ label: `Garment ${garment.tagCode}`, href: this.path(`wardrobe/garments/${garment.id}`) });
+    const garmentLink = () =>
+      garment && links.push({ label: `Garment ${garment.tagCode}`, href: this.path(`wardrobe/garments/${garment.id}`) });
     const sceneLinks = (ids: string[]) => {
       for (const id of ids) links.push({ label: `Scene ${this.scenes.get(id) ?? "?"}`, href: this.path(`breakdown/scenes/${id}`) });
     };
@@ -311,7 +326,10 @@ class Resolver {
         break;
       case "multiples":
         if (sub.groupId) {
-          links.push({ label: `Copy plan for \u201c${this.groups.get(sub.groupId) ?? "?"}\u201d`, href: this.path(`snags/multiples/${sub.groupId}`) });
+          links.push({
+            label: `Copy plan for \u201c${this.groups.get(sub.groupId) ?? "?"}\u201d`,
+            href: this.path(`snags/multiples/${sub.groupId}`),
+          });
         }
         break;
       case "continuity":
@@ -502,7 +520,9 @@ export async function listSnags(actor: Actor, query: ListSnagsQuery): Promise<Sn
 
 function buildSnagList(state: SnagState, query: ListSnagsQuery): SnagListDto {
   const { loaded, snags, today, resolver: r, dismissalByKey } = state;
-  const upcoming = loaded.days.filter((d) => d.date >= today && (loaded.snapshot.production.kind === "stage" ? d.kind === "performance" : d.kind === "shoot"));
+  const upcoming = loaded.days.filter(
+    (d) => d.date >= today && (loaded.snapshot.production.kind === "stage" ? d.kind === "performance" : d.kind === "shoot"),
+  );
   const next = upcoming[0] ?? null;
 
   let dayFilter: ((s: Snag) => boolean) | null = null;
@@ -568,7 +588,13 @@ export async function dismissSnag(actor: Actor, input: DismissSnagInput): Promis
     const row = existing
       ? await existing.update({ reason: input.reason, evidenceHash: snag.evidenceHash, dismissedBy: actor.user.id }, { transaction })
       : await SnagDismissal.create(
-          { productionId: actor.productionId, snagKey: snag.key, evidenceHash: snag.evidenceHash, reason: input.reason, dismissedBy: actor.user.id },
+          {
+            productionId: actor.productionId,
+            snagKey: snag.key,
+            evidenceHash: snag.evidenceHash,
+            reason: input.reason,
+            dismissedBy: actor.user.id,
+          },
           { transaction },
         );
     await recordAudit(
@@ -592,7 +618,11 @@ export async function dismissSnag(actor: Actor, input: DismissSnagInput): Promis
 /** Undoes a dismissal (the snag shows again). */
 export async function undoDismissal(actor: Actor, dismissalId: string): Promise<void> {
   await sequelize.transaction(async (transaction) => {
-    const row = await SnagDismissal.findOne({ where: { id: dismissalId, productionId: actor.productionId }, transaction, lock: transaction.LOCK.UPDATE });
+    const row = await SnagDismissal.findOne({
+      where: { id: dismissalId, productionId: actor.productionId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!row) throw NotFoundError("Dismissal not found.");
     await row.destroy({ transaction });
     await recordAudit(
@@ -621,7 +651,11 @@ export async function multiplesPlan(actor: Actor, groupId: string): Promise<Mult
   };
   const plan = computeMultiplesPlans(s).find((p) => p.groupId === groupId);
   // A group the schedule does not use yet needs no copies.
-  const copyIds = plan?.copyIds ?? [...group.garmentIds].sort((a, b) => (r.garments.get(a)?.copyNumber ?? 1e9) - (r.garments.get(b)?.copyNumber ?? 1e9) || (a < b ? -1 : 1));
+  const copyIds =
+    plan?.copyIds ??
+    [...group.garmentIds].sort(
+      (a, b) => (r.garments.get(a)?.copyNumber ?? 1e9) - (r.garments.get(b)?.copyNumber ?? 1e9) || (a < b ? -1 : 1),
+    );
   const needed = plan?.copiesNeeded ?? 0;
   const falling = new Set(plan?.longestFalling ?? []);
   const uses = (plan?.demands ?? []).map((d, i) => {
@@ -643,7 +677,12 @@ export async function multiplesPlan(actor: Actor, groupId: string): Promise<Mult
   });
   const copies = Array.from({ length: Math.max(needed, copyIds.length) }, (_, c) => {
     const mine = uses.filter((u) => u.copy === c + 1);
-    return { copy: c + 1, garment: garmentRef(copyIds[c]), sceneNumbers: Array.from(new Set(mine.map((u) => u.sceneNumber))), uses: mine.length };
+    return {
+      copy: c + 1,
+      garment: garmentRef(copyIds[c]),
+      sceneNumbers: Array.from(new Set(mine.map((u) => u.sceneNumber))),
+      uses: mine.length,
+    };
   });
   return { groupId, groupName: group.name, copiesHeld: copyIds.length, copiesNeeded: needed, copies, uses };
 }

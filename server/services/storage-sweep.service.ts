@@ -72,17 +72,28 @@ async function removeUnreferencedPacketZip(key: string): Promise<boolean> {
   return sequelize.transaction(async (transaction) => {
     const isUuid = /^[0-9a-f-]{36}$/.test(packetId);
     if (isUuid) {
-      const rows = await sequelize.query<{ id: string; zip_storage_key: string | null }>(`SELECT id, zip_storage_key FROM packets WHERE id = :id FOR UPDATE SKIP LOCKED`, {
-        replacements: { id: packetId },
-        type: QueryTypes.SELECT,
-        transaction,
-      });
+      const rows = await sequelize.query<{ id: string; zip_storage_key: string | null }>(
+        `SELECT id, zip_storage_key FROM packets WHERE id = :id FOR UPDATE SKIP LOCKED`,
+        {
+          replacements: { id: packetId },
+          type: QueryTypes.SELECT,
+          transaction,
+        },
+      );
       if (!rows.length) {
-        const exists = await sequelize.query(`SELECT 1 FROM packets WHERE id = :id`, { replacements: { id: packetId }, type: QueryTypes.SELECT, transaction });
+        const exists = await sequelize.query(`SELECT 1 FROM packets WHERE id = :id`, {
+          replacements: { id: packetId },
+          type: QueryTypes.SELECT,
+          transaction,
+        });
         if (exists.length) return false; // locked: being published right now
       }
     }
-    const referenced = await sequelize.query(`SELECT 1 FROM packets WHERE zip_storage_key = :key LIMIT 1`, { replacements: { key }, type: QueryTypes.SELECT, transaction });
+    const referenced = await sequelize.query(`SELECT 1 FROM packets WHERE zip_storage_key = :key LIMIT 1`, {
+      replacements: { key },
+      type: QueryTypes.SELECT,
+      transaction,
+    });
     if (referenced.length) return false;
     await getStorage().delete(key);
     return true;
@@ -91,20 +102,39 @@ async function removeUnreferencedPacketZip(key: string): Promise<boolean> {
 
 /** Runs the sweep once; logs what it removed and which rows lack their files. */
 export async function sweepStorage(): Promise<SweepReport> {
-  const report: SweepReport = { uploadTempFiles: 0, partialFiles: 0, unreferencedPhotoFiles: 0, unreferencedPacketFiles: 0, missingPhotoFiles: 0, missingPacketFiles: 0, stalePendingRows: 0 };
+  const report: SweepReport = {
+    uploadTempFiles: 0,
+    partialFiles: 0,
+    unreferencedPhotoFiles: 0,
+    unreferencedPacketFiles: 0,
+    missingPhotoFiles: 0,
+    missingPacketFiles: 0,
+    stalePendingRows: 0,
+  };
   report.uploadTempFiles = await sweepUploadTemp();
 
   const storage = getStorage();
   // List first, then read the rows: a file listed here was written after its pending row (or its
   // packet lock) was taken, so the rows read afterwards show every file that is still wanted.
   const files = await storage.list();
-  const photoRows = await sequelize.query<{ id: string; variants: Record<string, string> }>(`SELECT id, variants FROM photos`, { type: QueryTypes.SELECT });
-  const packetRows = await sequelize.query<{ id: string; zip_storage_key: string }>(`SELECT id, zip_storage_key FROM packets WHERE zip_storage_key IS NOT NULL`, { type: QueryTypes.SELECT });
-  const pending = await sequelize.query<{ id: string; content_hash: string; host: string; pid: number; instance: string; created_at: Date }>(
-    `SELECT id, content_hash, host, pid, instance, created_at FROM pending_photo_files`,
+  const photoRows = await sequelize.query<{ id: string; variants: Record<string, string> }>(`SELECT id, variants FROM photos`, {
+    type: QueryTypes.SELECT,
+  });
+  const packetRows = await sequelize.query<{ id: string; zip_storage_key: string }>(
+    `SELECT id, zip_storage_key FROM packets WHERE zip_storage_key IS NOT NULL`,
     { type: QueryTypes.SELECT },
   );
-  const livePending = pending.filter((p) => writerMayBeAlive({ host: p.host, pid: p.pid, instance: p.instance, startedAt: new Date(p.created_at) }));
+  const pending = await sequelize.query<{
+    id: string;
+    content_hash: string;
+    host: string;
+    pid: number;
+    instance: string;
+    created_at: Date;
+  }>(`SELECT id, content_hash, host, pid, instance, created_at FROM pending_photo_files`, { type: QueryTypes.SELECT });
+  const livePending = pending.filter((p) =>
+    writerMayBeAlive({ host: p.host, pid: p.pid, instance: p.instance, startedAt: new Date(p.created_at) }),
+  );
   const inProgress = new Set(livePending.map((p) => p.content_hash));
   const referenced = new Set<string>();
   for (const r of photoRows) for (const k of Object.values(r.variants ?? {})) if (typeof k === "string") referenced.add(k);

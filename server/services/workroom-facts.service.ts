@@ -30,9 +30,18 @@ const GARMENT_COLUMNS = `g.id, g.tag_code, g.name, g.category, g.fit_intent, g.f
   g.status, g.multiples_group_id, g.copy_number, f.construction, f.stretch_weft_pct`;
 
 /** One garment of the production, optionally locked FOR UPDATE (garments row only). */
-export async function findGarment(productionId: string, garmentId: string, transaction?: Transaction, lock = false): Promise<GarmentRow | null> {
+export async function findGarment(
+  productionId: string,
+  garmentId: string,
+  transaction?: Transaction,
+  lock = false,
+): Promise<GarmentRow | null> {
   if (lock && transaction) {
-    await q(`SELECT id FROM garments WHERE id = :garmentId AND production_id = :productionId FOR UPDATE`, { garmentId, productionId }, transaction);
+    await q(
+      `SELECT id FROM garments WHERE id = :garmentId AND production_id = :productionId FOR UPDATE`,
+      { garmentId, productionId },
+      transaction,
+    );
   }
   const rows = await q<GarmentRow>(
     `SELECT ${GARMENT_COLUMNS} FROM garments g LEFT JOIN fabrics f ON f.id = g.fabric_id WHERE g.id = :garmentId AND g.production_id = :productionId`,
@@ -73,7 +82,11 @@ export async function moveGarmentStatus(
  * in a change with the garment (directly, or through the garment's multiples group), and on stage every
  * performance once the garment is in any appearance.
  */
-export async function neededDatesByGarment(productionId: string, garmentIds: string[], transaction?: Transaction): Promise<Map<string, Array<{ date: string; shootDayId: string }>>> {
+export async function neededDatesByGarment(
+  productionId: string,
+  garmentIds: string[],
+  transaction?: Transaction,
+): Promise<Map<string, Array<{ date: string; shootDayId: string }>>> {
   const out = new Map<string, Array<{ date: string; shootDayId: string }>>();
   if (garmentIds.length === 0) return out;
   const rows = await q<{ garment_id: string; shoot_day_id: string; date: string }>(
@@ -103,7 +116,9 @@ export async function neededDatesByGarment(productionId: string, garmentIds: str
 }
 
 /** Shoot days and performances of the production, by date. */
-export async function listShootDays(productionId: string): Promise<Array<{ id: string; date: string; dayNumber: number; kind: "shoot" | "performance" }>> {
+export async function listShootDays(
+  productionId: string,
+): Promise<Array<{ id: string; date: string; dayNumber: number; kind: "shoot" | "performance" }>> {
   const rows = await q<{ id: string; date: string; day_number: number; kind: "shoot" | "performance" }>(
     `SELECT id, date::text AS date, day_number, kind FROM shoot_days WHERE production_id = :productionId ORDER BY date, day_number`,
     { productionId },
@@ -120,13 +135,20 @@ export interface PerformerRow {
 
 /** A performer of the production. */
 export async function findPerformer(productionId: string, performerId: string, transaction?: Transaction): Promise<PerformerRow | null> {
-  const rows = await q<PerformerRow>(`SELECT id, name, email::text AS email, agent_contact FROM performers WHERE id = :performerId AND production_id = :productionId`, { performerId, productionId }, transaction);
+  const rows = await q<PerformerRow>(
+    `SELECT id, name, email::text AS email, agent_contact FROM performers WHERE id = :performerId AND production_id = :productionId`,
+    { performerId, productionId },
+    transaction,
+  );
   return rows[0] ?? null;
 }
 
 /** Performers of the production, by name. */
 export async function listPerformers(productionId: string): Promise<PerformerRow[]> {
-  return q<PerformerRow>(`SELECT id, name, email::text AS email, agent_contact FROM performers WHERE production_id = :productionId ORDER BY name`, { productionId });
+  return q<PerformerRow>(
+    `SELECT id, name, email::text AS email, agent_contact FROM performers WHERE production_id = :productionId ORDER BY name`,
+    { productionId },
+  );
 }
 
 export interface ChangeRow {
@@ -162,7 +184,10 @@ export async function listGarments(productionId: string): Promise<Array<{ id: st
 }
 
 /** The change's items with their garments (a multiples group item lists each copy). */
-export async function changeItemsWithGarments(productionId: string, changeId: string): Promise<Array<{ change_item_id: string; label: string; garment_id: string | null }>> {
+export async function changeItemsWithGarments(
+  productionId: string,
+  changeId: string,
+): Promise<Array<{ change_item_id: string; label: string; garment_id: string | null }>> {
   return q(
     `SELECT ci.id AS change_item_id, ci.label || CASE WHEN g2.id IS NOT NULL THEN ' (copy #' || COALESCE(g2.copy_number::text, '?') || ')' ELSE '' END AS label,
             COALESCE(ci.garment_id, g2.id) AS garment_id
@@ -176,6 +201,9 @@ export async function changeItemsWithGarments(productionId: string, changeId: st
 
 /** The character a performer plays (first by sort order), for fit snags. */
 export async function characterOfPerformer(productionId: string, performerId: string): Promise<string | null> {
-  const rows = await q<{ id: string }>(`SELECT id FROM characters WHERE production_id = :productionId AND performer_id = :performerId ORDER BY sort_order, name LIMIT 1`, { productionId, performerId });
+  const rows = await q<{ id: string }>(
+    `SELECT id FROM characters WHERE production_id = :productionId AND performer_id = :performerId ORDER BY sort_order, name LIMIT 1`,
+    { productionId, performerId },
+  );
   return rows[0]?.id ?? null;
 }

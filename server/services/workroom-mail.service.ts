@@ -36,12 +36,22 @@ export async function queueWorkroomEmail(
   const to = Array.isArray(p.mail.to) ? p.mail.to.join(", ") : p.mail.to;
   const [row, created] = await WorkroomEmailJob.findOrCreate({
     where: { productionId: p.productionId, dedupeKey: p.dedupeKey },
-    defaults: { productionId: p.productionId, kind: p.kind, dedupeKey: p.dedupeKey, recipient: to, subject: p.mail.subject, payload: p.mail },
+    defaults: {
+      productionId: p.productionId,
+      kind: p.kind,
+      dedupeKey: p.dedupeKey,
+      recipient: to,
+      subject: p.mail.subject,
+      payload: p.mail,
+    },
     transaction,
   });
   if (!created) return row;
   // The row is the record either way: a send that fails inline has marked it failed (listed for supervisors).
-  const send = () => enqueue(EMAIL_JOB, { emailJobId: row.id }).catch((err) => logger.error({ err, emailJobId: row.id }, "e-mail not queued or its inline send failed"));
+  const send = () =>
+    enqueue(EMAIL_JOB, { emailJobId: row.id }).catch((err) =>
+      logger.error({ err, emailJobId: row.id }, "e-mail not queued or its inline send failed"),
+    );
   if (transaction) transaction.afterCommit(() => void send());
   else await send();
   return row;
@@ -56,7 +66,11 @@ export async function sendWorkroomEmail(data: { emailJobId: string }, meta: { re
     await job.update({ status: "sent", attempts: job.attempts + 1, sentAt: new Date(), lastError: null });
   } catch (err) {
     const final = meta.retryCount >= meta.retryLimit;
-    await job.update({ status: final ? "failed" : "retrying", attempts: job.attempts + 1, lastError: err instanceof Error ? err.message.slice(0, 1000) : String(err) });
+    await job.update({
+      status: final ? "failed" : "retrying",
+      attempts: job.attempts + 1,
+      lastError: err instanceof Error ? err.message.slice(0, 1000) : String(err),
+    });
     throw err;
   }
 }
@@ -78,7 +92,13 @@ export async function retryEmailJob(actor: Actor, id: string): Promise<WorkroomE
   if (!job) throw NotFoundError("E-mail not found.");
   if (job.status === "sent") throw ConflictError("That e-mail was already sent.");
   await job.update({ status: "pending" });
-  await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "workroom.email_retry", entityType: "workroom_email_job", entityId: job.id });
+  await recordAudit({
+    productionId: actor.productionId,
+    actorId: actor.user.id,
+    action: "workroom.email_retry",
+    entityType: "workroom_email_job",
+    entityId: job.id,
+  });
   try {
     await enqueue(EMAIL_JOB, { emailJobId: job.id });
   } catch (err) {
@@ -111,7 +131,10 @@ export async function sendEveningReminders(opts: { now?: Date; productionId?: st
     const { hour, date: today } = zonedParts(now, zone);
     const tomorrow = nextDay(today);
     if (!opts.force && (production.settings.reminderHour ?? 18) !== hour) continue;
-    const perUser = new Map<string, { fittings: Parameters<typeof workroomReminderEmail>[0]["fittings"]; tickets: Parameters<typeof workroomReminderEmail>[0]["tickets"] }>();
+    const perUser = new Map<
+      string,
+      { fittings: Parameters<typeof workroomReminderEmail>[0]["fittings"]; tickets: Parameters<typeof workroomReminderEmail>[0]["tickets"] }
+    >();
     const entry = (userId: string) => {
       let e = perUser.get(userId);
       if (!e) perUser.set(userId, (e = { fittings: [], tickets: [] }));
@@ -119,20 +142,35 @@ export async function sendEveningReminders(opts: { now?: Date; productionId?: st
     };
     // A window a day wider on each side, then exact dates in the department's zone.
     const fittings = await Fitting.findAll({
-      where: { productionId: production.id, status: "booked", startsAt: { [Op.between]: [new Date(`${today}T00:00:00Z`), new Date(`${nextDay(tomorrow)}T23:59:59Z`)] } },
+      where: {
+        productionId: production.id,
+        status: "booked",
+        startsAt: { [Op.between]: [new Date(`${today}T00:00:00Z`), new Date(`${nextDay(tomorrow)}T23:59:59Z`)] },
+      },
       order: [["startsAt", "ASC"]],
     });
     for (const f of fittings) {
       if (zonedParts(f.startsAt, zone).date !== tomorrow) continue;
       const performer = await findPerformer(production.id, f.performerId);
       const change = f.changeId ? await findChange(production.id, f.changeId) : null;
-      const item = { time: formatTime(f.startsAt, zone), performer: performer?.name ?? "performer", change: change ? changeLabel(change) : null, room: f.room };
+      const item = {
+        time: formatTime(f.startsAt, zone),
+        performer: performer?.name ?? "performer",
+        change: change ? changeLabel(change) : null,
+        room: f.room,
+      };
       for (const uid of f.attendeeIds) entry(uid).fittings.push(item);
     }
     const plan = await buildPlan(production.id, today);
     for (const t of plan.tickets) {
       if (t.dueDate !== tomorrow || t.planStatus === "done" || !t.plannedAssigneeId) continue;
-      entry(t.plannedAssigneeId).tickets.push({ tag: t.tagCode, garment: t.garmentName, tasks: taskSummary(t.tasks, production.units), remainingHours: t.remainingHours ?? t.estimateHours, late: t.late });
+      entry(t.plannedAssigneeId).tickets.push({
+        tag: t.tagCode,
+        garment: t.garmentName,
+        tasks: taskSummary(t.tasks, production.units),
+        remainingHours: t.remainingHours ?? t.estimateHours,
+        late: t.late,
+      });
     }
     if (perUser.size === 0) continue;
     const users = await User.findAll({ where: { id: [...perUser.keys()], isActive: true } });
@@ -148,7 +186,12 @@ export async function sendEveningReminders(opts: { now?: Date; productionId?: st
         tickets: e.tickets,
         url: `${config.APP_URL}/p/${production.id}/workroom`,
       });
-      const row = await queueWorkroomEmail({ productionId: production.id, kind: "evening_reminder", dedupeKey: `reminder:${tomorrow}:${user.id}`, mail });
+      const row = await queueWorkroomEmail({
+        productionId: production.id,
+        kind: "evening_reminder",
+        dedupeKey: `reminder:${tomorrow}:${user.id}`,
+        mail,
+      });
       if (row) queued++;
     }
   }
@@ -159,4 +202,3 @@ export async function sendEveningReminders(opts: { now?: Date; productionId?: st
 defineJob(REMINDER_JOB, { retryLimit: 2, retryDelay: 60, cron: "0 * * * *" }, async () => {
   await sendEveningReminders();
 });
-

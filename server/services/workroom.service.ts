@@ -9,10 +9,25 @@ import { sequelize } from "../db.js";
 import { AlterationTicket, Membership, Production, User, WorkroomCapacity } from "../models/index.js";
 import { dueDateFor, MONDAY_TO_FRIDAY, planTickets, WEEKDAYS, type Weekday, type WorkroomPersonInput } from "@shared/domain/workroom.js";
 import { taskSummary, workroomSnags } from "@shared/domain/workroom-snags.js";
-import type { CapacityDto, PlannedTicketDto, UpsertCapacityInput, WorkroomOptionsDto, WorkroomPlanDto, WorkroomSettingsInput } from "@shared/schemas/workroom.js";
+import type {
+  CapacityDto,
+  PlannedTicketDto,
+  UpsertCapacityInput,
+  WorkroomOptionsDto,
+  WorkroomPlanDto,
+  WorkroomSettingsInput,
+} from "@shared/schemas/workroom.js";
 import { NotFoundError, ValidationError } from "../errors.js";
 import { recordAudit } from "./audit.service.js";
-import { changeLabel, findGarments, listChanges, listGarments, listPerformers, listShootDays, neededDatesByGarment } from "./workroom-facts.service.js";
+import {
+  changeLabel,
+  findGarments,
+  listChanges,
+  listGarments,
+  listPerformers,
+  listShootDays,
+  neededDatesByGarment,
+} from "./workroom-facts.service.js";
 import { todayForProduction } from "./productions.service.js";
 import { presentTicket } from "../presenters/workroom.presenter.js";
 import type { Actor } from "../middleware/require-auth.js";
@@ -21,10 +36,18 @@ import type { Actor } from "../middleware/require-auth.js";
 export const WORKROOM_ROLES = ["supervisor", "designer", "cutter"] as const;
 
 /** The production's workroom settings with defaults (1 working day buffer, reminders at 18:00). */
-export async function workroomSettings(productionId: string): Promise<{ bufferWorkingDays: number; reminderHour: number; title: string; units: "cm" | "in"; kind: "film" | "series" | "stage" }> {
+export async function workroomSettings(
+  productionId: string,
+): Promise<{ bufferWorkingDays: number; reminderHour: number; title: string; units: "cm" | "in"; kind: "film" | "series" | "stage" }> {
   const p = await Production.findByPk(productionId);
   if (!p) throw NotFoundError("Production not found.");
-  return { bufferWorkingDays: p.settings.bufferWorkingDays ?? 1, reminderHour: p.settings.reminderHour ?? 18, title: p.title, units: p.units, kind: p.kind };
+  return {
+    bufferWorkingDays: p.settings.bufferWorkingDays ?? 1,
+    reminderHour: p.settings.reminderHour ?? 18,
+    title: p.title,
+    units: p.units,
+    kind: p.kind,
+  };
 }
 
 /** Updates the buffer and reminder hour (the rest of the settings stay). */
@@ -35,7 +58,18 @@ export async function updateWorkroomSettings(actor: Actor, input: WorkroomSettin
     const before = { bufferWorkingDays: p.settings.bufferWorkingDays, reminderHour: p.settings.reminderHour };
     const settings = { ...p.settings, ...Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined)) };
     await p.update({ settings }, { transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "workroom.settings", entityType: "production", entityId: p.id, before, after: input }, transaction);
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "workroom.settings",
+        entityType: "production",
+        entityId: p.id,
+        before,
+        after: input,
+      },
+      transaction,
+    );
     return { bufferWorkingDays: settings.bufferWorkingDays ?? 1, reminderHour: settings.reminderHour ?? 18 };
   });
 }
@@ -70,13 +104,33 @@ export async function upsertCapacity(actor: Actor, userId: string, input: Upsert
   await sequelize.transaction(async (transaction) => {
     const m = await Membership.findOne({ where: { productionId: actor.productionId, userId }, transaction });
     if (!m) throw NotFoundError("That person is not a member of this production.");
-    if (!(WORKROOM_ROLES as readonly string[]).includes(m.role)) throw ValidationError("userId: only supervisors, designers and cutters work in the workroom", { userId: "is not a workroom role" });
-    const existing = await WorkroomCapacity.findOne({ where: { productionId: actor.productionId, userId }, transaction, lock: transaction.LOCK.UPDATE });
+    if (!(WORKROOM_ROLES as readonly string[]).includes(m.role))
+      throw ValidationError("userId: only supervisors, designers and cutters work in the workroom", { userId: "is not a workroom role" });
+    const existing = await WorkroomCapacity.findOne({
+      where: { productionId: actor.productionId, userId },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     const daysOff = Array.from(new Set(input.daysOff)).sort();
     const before = existing ? { hoursPerWeekday: existing.hoursPerWeekday, daysOff: existing.daysOff.map(toDateString) } : null;
     if (existing) await existing.update({ hoursPerWeekday: input.hoursPerWeekday, daysOff }, { transaction });
-    else await WorkroomCapacity.create({ productionId: actor.productionId, userId, hoursPerWeekday: input.hoursPerWeekday, daysOff }, { transaction });
-    await recordAudit({ productionId: actor.productionId, actorId: actor.user.id, action: "workroom.capacity", entityType: "workroom_capacity", entityId: null, before, after: { userId, ...input, daysOff } }, transaction);
+    else
+      await WorkroomCapacity.create(
+        { productionId: actor.productionId, userId, hoursPerWeekday: input.hoursPerWeekday, daysOff },
+        { transaction },
+      );
+    await recordAudit(
+      {
+        productionId: actor.productionId,
+        actorId: actor.user.id,
+        action: "workroom.capacity",
+        entityType: "workroom_capacity",
+        entityId: null,
+        before,
+        after: { userId, ...input, daysOff },
+      },
+      transaction,
+    );
   });
   const all = await listCapacity(actor);
   return all.find((c) => c.userId === userId)!;
@@ -88,7 +142,10 @@ export async function workroomOptions(actor: Actor): Promise<WorkroomOptionsDto>
     listPerformers(actor.productionId),
     listChanges(actor.productionId),
     listGarments(actor.productionId),
-    Membership.findAll({ where: { productionId: actor.productionId, role: { [Op.in]: [...WORKROOM_ROLES] } }, include: [{ model: User, as: "user" }] }),
+    Membership.findAll({
+      where: { productionId: actor.productionId, role: { [Op.in]: [...WORKROOM_ROLES] } },
+      include: [{ model: User, as: "user" }],
+    }),
     workroomSettings(actor.productionId),
   ]);
   return {
@@ -111,7 +168,12 @@ export function ticketDue(needed: Array<{ date: string; shootDayId: string }>, r
   return {
     neededOn,
     neededShootDayIds: upcoming.filter((n) => n.date === neededOn).map((n) => n.shootDayId),
-    dueDate: dueDateFor(needed.map((n) => n.date), bufferWorkingDays, MONDAY_TO_FRIDAY, raisedOn),
+    dueDate: dueDateFor(
+      needed.map((n) => n.date),
+      bufferWorkingDays,
+      MONDAY_TO_FRIDAY,
+      raisedOn,
+    ),
   };
 }
 
@@ -120,10 +182,24 @@ export async function buildPlan(productionId: string, fromDay?: string): Promise
   const from = fromDay ?? (await todayForProduction(productionId));
   const settings = await workroomSettings(productionId);
   const [tickets, capacity, shootDays] = await Promise.all([
-    AlterationTicket.findAll({ where: { productionId, status: { [Op.ne]: "checked" } }, include: [{ model: User, as: "assignee" }], order: [["raisedOn", "ASC"], ["id", "ASC"]] }),
+    AlterationTicket.findAll({
+      where: { productionId, status: { [Op.ne]: "checked" } },
+      include: [{ model: User, as: "assignee" }],
+      order: [
+        ["raisedOn", "ASC"],
+        ["id", "ASC"],
+      ],
+    }),
     WorkroomCapacity.findAll({
       where: { productionId },
-      include: [{ model: User, as: "user", required: true, include: [{ model: Membership, as: "memberships", where: { productionId }, required: true }] }],
+      include: [
+        {
+          model: User,
+          as: "user",
+          required: true,
+          include: [{ model: Membership, as: "memberships", where: { productionId }, required: true }],
+        },
+      ],
     }),
     listShootDays(productionId),
   ]);
@@ -139,14 +215,24 @@ export async function buildPlan(productionId: string, fromDay?: string): Promise
   // Someone assigned a ticket without capacity still appears, with no hours, so the ticket shows as unschedulable.
   for (const t of tickets) {
     if (t.assigneeId && !people.some((p) => p.id === t.assigneeId)) {
-      people.push({ id: t.assigneeId, name: t.assignee?.name ?? "", hoursPerWeekday: Object.fromEntries(WEEKDAYS.map((d) => [d, 0])) as Record<Weekday, number>, daysOff: [] });
+      people.push({
+        id: t.assigneeId,
+        name: t.assignee?.name ?? "",
+        hoursPerWeekday: Object.fromEntries(WEEKDAYS.map((d) => [d, 0])) as Record<Weekday, number>,
+        daysOff: [],
+      });
     }
   }
   people.sort((a, b) => a.name.localeCompare(b.name) || (a.id < b.id ? -1 : 1));
 
   // Shoot days before the plan's date have happened: what matters now is the next day the garment is needed.
-  const dues = new Map(tickets.map((t) => [t.id, ticketDue(needed.get(t.garmentId) ?? [], t.raisedOn > from ? t.raisedOn : from, settings.bufferWorkingDays)]));
-  const lastDate = [...shootDays.map((s) => s.date), ...[...dues.values()].map((d) => d.dueDate ?? from)].reduce((a, b) => (b > a ? b : a), from);
+  const dues = new Map(
+    tickets.map((t) => [t.id, ticketDue(needed.get(t.garmentId) ?? [], t.raisedOn > from ? t.raisedOn : from, settings.bufferWorkingDays)]),
+  );
+  const lastDate = [...shootDays.map((s) => s.date), ...[...dues.values()].map((d) => d.dueDate ?? from)].reduce(
+    (a, b) => (b > a ? b : a),
+    from,
+  );
   const horizonDays = Math.min(366, Math.max(42, differenceInCalendarDays(parseISO(lastDate), parseISO(from)) + 21));
 
   const plan = planTickets({
@@ -166,9 +252,23 @@ export async function buildPlan(productionId: string, fromDay?: string): Promise
   const snagTickets = tickets.map((t) => {
     const g = garments.get(t.garmentId);
     const d = dues.get(t.id)!;
-    return { id: t.id, garmentId: t.garmentId, tagCode: g?.tag_code ?? "?", garmentName: g?.name ?? "garment", taskSummary: taskSummary(t.tasks, settings.units), neededOn: d.neededOn, neededShootDayIds: d.neededShootDayIds };
+    return {
+      id: t.id,
+      garmentId: t.garmentId,
+      tagCode: g?.tag_code ?? "?",
+      garmentName: g?.name ?? "garment",
+      taskSummary: taskSummary(t.tasks, settings.units),
+      neededOn: d.neededOn,
+      neededShootDayIds: d.neededShootDayIds,
+    };
   });
-  const snags = workroomSnags({ plan, tickets: snagTickets, people, bufferWorkingDays: settings.bufferWorkingDays, scheduleKind: settings.kind });
+  const snags = workroomSnags({
+    plan,
+    tickets: snagTickets,
+    people,
+    bufferWorkingDays: settings.bufferWorkingDays,
+    scheduleKind: settings.kind,
+  });
 
   const planned: PlannedTicketDto[] = tickets.map((t, i) => {
     const p = plan.tickets[i];
@@ -194,9 +294,20 @@ export async function buildPlan(productionId: string, fromDay?: string): Promise
     people: people.map((p) => ({ id: p.id, name: p.name })),
     shootDays,
     tickets: planned,
-    overbookedDays: plan.overbookedDays.map((d) => ({ personId: d.personId, date: d.date, capacityHours: d.capacityHours, plannedHours: d.plannedHours, lateTicketIds: d.lateTicketIds })),
+    overbookedDays: plan.overbookedDays.map((d) => ({
+      personId: d.personId,
+      date: d.date,
+      capacityHours: d.capacityHours,
+      plannedHours: d.plannedHours,
+      lateTicketIds: d.lateTicketIds,
+    })),
     snags,
-    summary: { lateCount: plan.summary.lateCount, unscheduledCount: plan.summary.unscheduledCount, maxLateness: plan.summary.maxLateness, openCount: tickets.filter((t) => t.status !== "done").length },
+    summary: {
+      lateCount: plan.summary.lateCount,
+      unscheduledCount: plan.summary.unscheduledCount,
+      maxLateness: plan.summary.maxLateness,
+      openCount: tickets.filter((t) => t.status !== "done").length,
+    },
   };
 }
 

@@ -45,7 +45,8 @@ export const breakdownCsvFormats: Record<BreakdownCsvColumn, string> = {
 };
 
 /** Scene fields a file can set; each maps to one CSV column. */
-export type SceneFieldKey = "setName" | "intExt" | "timeOfDay" | "storyDay" | "storyOrder" | "lengthEighths" | "runningMinutes" | "synopsis";
+export type SceneFieldKey =
+  "setName" | "intExt" | "timeOfDay" | "storyDay" | "storyOrder" | "lengthEighths" | "runningMinutes" | "synopsis";
 const sceneFieldColumn: Record<SceneFieldKey, BreakdownCsvColumn> = {
   setName: "set",
   intExt: "int_ext",
@@ -145,7 +146,8 @@ export function parseBreakdownCsv(text: string): ParsedBreakdownCsv {
   const lead = source.split(/\r?\n/).findIndex((l) => l.trim() !== "" && !l.startsWith("#"));
   const headerLine = lead < 0 ? 1 : lead + 1;
   for (const f of fields) {
-    if (!(breakdownCsvColumns as readonly string[]).includes(f)) errors.push({ line: headerLine, column: f, message: `unknown column; expected ${breakdownCsvColumns.join(", ")}` });
+    if (!(breakdownCsvColumns as readonly string[]).includes(f))
+      errors.push({ line: headerLine, column: f, message: `unknown column; expected ${breakdownCsvColumns.join(", ")}` });
   }
   for (const e of parsed.errors) {
     // papaparse counts data rows from 0; the header is the line before the first.
@@ -192,7 +194,10 @@ export function parseBreakdownCsv(text: string): ParsedBreakdownCsv {
         const r = intOrError(v, min, max);
         return typeof r === "string" ? { error: r } : r;
       };
-      const text = (max: number, upper = false) => (v: string) => (v.length > max ? { error: `is longer than ${max} characters` } : upper ? v.toUpperCase() : v);
+      const text =
+        (max: number, upper = false) =>
+        (v: string) =>
+          v.length > max ? { error: `is longer than ${max} characters` } : upper ? v.toUpperCase() : v;
       read("setName", text(200));
       read("intExt", (v) => {
         const raw = v.toUpperCase().replace(/\s+/g, "");
@@ -203,7 +208,9 @@ export function parseBreakdownCsv(text: string): ParsedBreakdownCsv {
       read("storyDay", whole(1, 999));
       read("storyOrder", whole(0, 1_000_000), false);
       read("lengthEighths", (v) => parseEighths(v) ?? { error: "must be a page length in eighths, like 3/8, 1 or 1 3/8" });
-      read("runningMinutes", (v) => (/^\d+(\.\d{1,2})?$/.test(v) && Number(v) <= 600 ? Number(v) : { error: "must be minutes between 0 and 600, at most two decimals" }));
+      read("runningMinutes", (v) =>
+        /^\d+(\.\d{1,2})?$/.test(v) && Number(v) <= 600 ? Number(v) : { error: "must be minutes between 0 and 600, at most two decimals" },
+      );
       read("synopsis", text(5000));
       scenes.set(number, { line, number, fields: f });
     }
@@ -216,7 +223,8 @@ export function parseBreakdownCsv(text: string): ParsedBreakdownCsv {
       return;
     }
     if (!dayRaw) return err("shoot_day", "is required when shoot_date or shoot_position is given");
-    if (isClear(dayRaw)) return err("shoot_day", `cannot be cleared; to take a scene off a day, name the day and put ${CLEAR_TOKEN} in shoot_position`);
+    if (isClear(dayRaw))
+      return err("shoot_day", `cannot be cleared; to take a scene off a day, name the day and put ${CLEAR_TOKEN} in shoot_position`);
     const day = intOrError(dayRaw, 1, 10_000);
     if (typeof day === "string") return err("shoot_day", day);
     let position: number | null = null;
@@ -237,7 +245,8 @@ export function parseBreakdownCsv(text: string): ParsedBreakdownCsv {
       if (dateRaw) dateToDay.set(dateRaw, day);
       days.set(day, { dayNumber: day, date: dateRaw || null, line, scenes: [{ number, position, remove, line }] });
     } else {
-      if (dateRaw && known.date && dateRaw !== known.date) return err("shoot_date", `shoot day ${day} is ${known.date} on line ${known.line}`);
+      if (dateRaw && known.date && dateRaw !== known.date)
+        return err("shoot_date", `shoot day ${day} is ${known.date} on line ${known.line}`);
       if (dateRaw && !known.date) {
         known.date = dateRaw;
         dateToDay.set(dateRaw, day);
@@ -253,7 +262,12 @@ export function parseBreakdownCsv(text: string): ParsedBreakdownCsv {
     for (const s of d.scenes) {
       if (s.position === null) continue;
       const at = seen.get(s.position);
-      if (at !== undefined) errors.push({ line: s.line, column: "shoot_position", message: `position ${s.position} of shoot day ${d.dayNumber} is already used on line ${at}` });
+      if (at !== undefined)
+        errors.push({
+          line: s.line,
+          column: "shoot_position",
+          message: `position ${s.position} of shoot day ${d.dayNumber} is already used on line ${at}`,
+        });
       else seen.set(s.position, s.line);
     }
   }
@@ -294,7 +308,10 @@ export interface BreakdownImportPlan {
   dayWrites: Array<{ dayNumber: number; isNew: boolean; date: string; sceneNumbers: string[]; scenesChanged: boolean }>;
   changes: ImportRowChange[];
   days: ImportDayChange[];
-  counts: { scenes: { created: number; updated: number; unchanged: number }; shootDays: { created: number; updated: number; unchanged: number } };
+  counts: {
+    scenes: { created: number; updated: number; unchanged: number };
+    shootDays: { created: number; updated: number; unchanged: number };
+  };
   errors: ImportRowError[];
 }
 
@@ -320,7 +337,16 @@ export function planBreakdownImport(parsed: ParsedBreakdownCsv, stored: StoredBr
   const rowStatus = new Map<number, ImportRowChange["status"]>();
   const counts = { scenes: { created: 0, updated: 0, unchanged: 0 }, shootDays: { created: 0, updated: 0, unchanged: 0 } };
 
-  const blank: SceneValues = { setName: null, intExt: null, timeOfDay: null, storyDay: null, storyOrder: 0, lengthEighths: null, runningMinutes: null, synopsis: null };
+  const blank: SceneValues = {
+    setName: null,
+    intExt: null,
+    timeOfDay: null,
+    storyDay: null,
+    storyOrder: 0,
+    lengthEighths: null,
+    runningMinutes: null,
+    synopsis: null,
+  };
   for (const s of parsed.scenes) {
     const old = stored.scenes.get(s.number);
     const values: SceneValues = { ...(old ?? blank) };
@@ -360,7 +386,11 @@ export function planBreakdownImport(parsed: ParsedBreakdownCsv, stored: StoredBr
     const old = stored.days.get(d.dayNumber);
     const date = d.date ?? old?.date ?? null;
     if (!date) {
-      errors.push({ line: d.line, column: "shoot_date", message: `is required for a new shoot day (day ${d.dayNumber} does not exist yet)` });
+      errors.push({
+        line: d.line,
+        column: "shoot_date",
+        message: `is required for a new shoot day (day ${d.dayNumber} does not exist yet)`,
+      });
       continue;
     }
     const before = old ? [...old.sceneNumbers] : [];
@@ -381,7 +411,12 @@ export function planBreakdownImport(parsed: ParsedBreakdownCsv, stored: StoredBr
     }
   }
 
-  const changes: ImportRowChange[] = parsed.lines.map(({ line, number }) => ({ line, scene: number, status: rowStatus.get(line) ?? "unchanged", fields: fieldChanges.get(line) ?? [] }));
+  const changes: ImportRowChange[] = parsed.lines.map(({ line, number }) => ({
+    line,
+    scene: number,
+    status: rowStatus.get(line) ?? "unchanged",
+    fields: fieldChanges.get(line) ?? [],
+  }));
   return { sceneWrites, dayWrites, changes, days, counts, errors };
 }
 
@@ -397,8 +432,34 @@ export function breakdownTemplateCsv(kind: "film" | "series" | "stage"): string 
   ];
   const example =
     kind === "stage"
-      ? ["1", "Orchard, moonlight", "EXT", "NIGHT", "1", "", "", "6.5", "Invented example: the sisters meet under the glass trees", "", "", ""]
-      : ["1", "Harbour wall", "EXT", "DAY", "1", "", "1 3/8", "", "Invented example: the boats come in, nets on the wall", "1", "2030-01-07", "1"];
+      ? [
+          "1",
+          "Orchard, moonlight",
+          "EXT",
+          "NIGHT",
+          "1",
+          "",
+          "",
+          "6.5",
+          "Invented example: the sisters meet under the glass trees",
+          "",
+          "",
+          "",
+        ]
+      : [
+          "1",
+          "Harbour wall",
+          "EXT",
+          "DAY",
+          "1",
+          "",
+          "1 3/8",
+          "",
+          "Invented example: the boats come in, nets on the wall",
+          "1",
+          "2030-01-07",
+          "1",
+        ];
   return notes.join("\r\n") + "\r\n" + writeCsv(breakdownCsvColumns, [example]);
 }
 
@@ -425,11 +486,12 @@ export interface ExportShootDay {
 /** Writes the breakdown CSV: scenes in story order, extra rows for a scene's further shoot days. */
 export function breakdownToCsv(scenes: readonly ExportScene[], shootDays: readonly ExportShootDay[]): string {
   const slots = new Map<string, Array<{ dayNumber: number; date: string; position: number }>>();
-  for (const d of shootDays) for (const s of d.scenes) {
-    const list = slots.get(s.number) ?? [];
-    list.push({ dayNumber: d.dayNumber, date: d.date, position: s.position });
-    slots.set(s.number, list);
-  }
+  for (const d of shootDays)
+    for (const s of d.scenes) {
+      const list = slots.get(s.number) ?? [];
+      list.push({ dayNumber: d.dayNumber, date: d.date, position: s.position });
+      slots.set(s.number, list);
+    }
   const ordered = [...scenes].sort((a, b) => a.storyOrder - b.storyOrder || compareSceneNumbers(a.number, b.number));
   const rows: string[][] = [];
   for (const s of ordered) {
@@ -449,7 +511,8 @@ export function breakdownToCsv(scenes: readonly ExportScene[], shootDays: readon
       first ? first.date : "",
       first ? String(first.position) : "",
     ]);
-    for (const more of list.slice(1)) rows.push([s.number, "", "", "", "", "", "", "", "", String(more.dayNumber), more.date, String(more.position)]);
+    for (const more of list.slice(1))
+      rows.push([s.number, "", "", "", "", "", "", "", "", String(more.dayNumber), more.date, String(more.position)]);
   }
   return writeCsv(breakdownCsvColumns, rows);
 }

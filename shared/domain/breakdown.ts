@@ -63,7 +63,10 @@ export interface RunningAppearance {
  * times count as 0, as the quick-change check does). null for a character's first entrance.
  * @param scenes scenes in running order
  */
-export function minutesSincePreviousExit(scenes: readonly RunningScene[], appearances: readonly RunningAppearance[]): Map<string, number | null> {
+export function minutesSincePreviousExit(
+  scenes: readonly RunningScene[],
+  appearances: readonly RunningAppearance[],
+): Map<string, number | null> {
   const pos = new Map<string, number>();
   const prefix: number[] = [0];
   scenes.forEach((s, i) => {

@@ -10,7 +10,13 @@
 // with w = m·g the weight per area. In u = s/l this is θ''(u) = −λ·(1 − u)·cos θ(u), λ = (l/c)³,
 // c³ = G / w (c is the bending length). The boundary-value problem is shot from the tip: guess the
 // tip slope, integrate towards the platform with RK4 and bisect until θ(0) = 0.
-import { D1388_CANTILEVER_ANGLE_DEG, STANDARD_GRAVITY, type FabricDirection, type FabricSimulationValues, type FabricTest } from "./fabric-physics";
+import {
+  D1388_CANTILEVER_ANGLE_DEG,
+  STANDARD_GRAVITY,
+  type FabricDirection,
+  type FabricSimulationValues,
+  type FabricTest,
+} from "./fabric-physics";
 
 /** Integration steps along the strip; RK4 with 400 steps keeps the chord angle within ~1e-9 rad. */
 const STEPS = 400;
@@ -37,7 +43,12 @@ function integrateFromTip(lambda: number, tipSlope: number): { rootSlope: number
   let x = 0;
   let y = 0;
   // d²θ/dv² = −λ·v·cos θ (from θ''(u) with v = 1 − u).
-  const f = (v: number, t: number, dt: number): [number, number, number, number] => [dt, -lambda * v * Math.cos(t), Math.cos(t), Math.sin(t)];
+  const f = (v: number, t: number, dt: number): [number, number, number, number] => [
+    dt,
+    -lambda * v * Math.cos(t),
+    Math.cos(t),
+    Math.sin(t),
+  ];
   for (let i = 0; i < STEPS; i++) {
     const v = i * h;
     const k1 = f(v, th, dth);

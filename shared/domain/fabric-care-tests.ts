@@ -48,7 +48,12 @@ export interface ShrinkageResult {
 export function shrinkageResult(length: readonly MarkPair[], width: readonly MarkPair[]): ShrinkageResult {
   const lengthChangePct = meanDimensionalChangePct(length);
   const widthChangePct = meanDimensionalChangePct(width);
-  return { lengthChangePct, widthChangePct, lengthCutFactor: cutAllowanceFactor(lengthChangePct), widthCutFactor: cutAllowanceFactor(widthChangePct) };
+  return {
+    lengthChangePct,
+    widthChangePct,
+    lengthCutFactor: cutAllowanceFactor(lengthChangePct),
+    widthCutFactor: cutAllowanceFactor(widthChangePct),
+  };
 }
 
 /**

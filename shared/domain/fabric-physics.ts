@@ -199,12 +199,42 @@ export interface FabricClassDefaults {
 // usually the stretchier direction.
 /** Default values per fabric class (common practice, no source). */
 export const FABRIC_CLASS_DEFAULTS: Record<FabricClass, FabricClassDefaults> = {
-  woven_light: { massPerAreaGsm: 90, bendingLengthMm: { warp: 15, weft: 14 }, stretchStiffnessNPerM: { warp: 8000, weft: 6000 }, thicknessMm: 0.15 },
-  woven_medium: { massPerAreaGsm: 200, bendingLengthMm: { warp: 22, weft: 20 }, stretchStiffnessNPerM: { warp: 15000, weft: 12000 }, thicknessMm: 0.35 },
-  woven_heavy: { massPerAreaGsm: 400, bendingLengthMm: { warp: 32, weft: 30 }, stretchStiffnessNPerM: { warp: 40000, weft: 30000 }, thicknessMm: 0.8 },
-  knit_light: { massPerAreaGsm: 130, bendingLengthMm: { warp: 12, weft: 10 }, stretchStiffnessNPerM: { warp: 300, weft: 150 }, thicknessMm: 0.45 },
-  knit_medium: { massPerAreaGsm: 220, bendingLengthMm: { warp: 16, weft: 13 }, stretchStiffnessNPerM: { warp: 600, weft: 300 }, thicknessMm: 0.8 },
-  knit_heavy: { massPerAreaGsm: 320, bendingLengthMm: { warp: 20, weft: 17 }, stretchStiffnessNPerM: { warp: 1200, weft: 600 }, thicknessMm: 1.4 },
+  woven_light: {
+    massPerAreaGsm: 90,
+    bendingLengthMm: { warp: 15, weft: 14 },
+    stretchStiffnessNPerM: { warp: 8000, weft: 6000 },
+    thicknessMm: 0.15,
+  },
+  woven_medium: {
+    massPerAreaGsm: 200,
+    bendingLengthMm: { warp: 22, weft: 20 },
+    stretchStiffnessNPerM: { warp: 15000, weft: 12000 },
+    thicknessMm: 0.35,
+  },
+  woven_heavy: {
+    massPerAreaGsm: 400,
+    bendingLengthMm: { warp: 32, weft: 30 },
+    stretchStiffnessNPerM: { warp: 40000, weft: 30000 },
+    thicknessMm: 0.8,
+  },
+  knit_light: {
+    massPerAreaGsm: 130,
+    bendingLengthMm: { warp: 12, weft: 10 },
+    stretchStiffnessNPerM: { warp: 300, weft: 150 },
+    thicknessMm: 0.45,
+  },
+  knit_medium: {
+    massPerAreaGsm: 220,
+    bendingLengthMm: { warp: 16, weft: 13 },
+    stretchStiffnessNPerM: { warp: 600, weft: 300 },
+    thicknessMm: 0.8,
+  },
+  knit_heavy: {
+    massPerAreaGsm: 320,
+    bendingLengthMm: { warp: 20, weft: 17 },
+    stretchStiffnessNPerM: { warp: 1200, weft: 600 },
+    thicknessMm: 1.4,
+  },
 };
 
 /** What is known about a fabric. */
@@ -227,8 +257,7 @@ const NO_SOURCE = "common practice, no source";
  */
 export function fabricSimulationValues(input: FabricPhysicsInput): FabricSimulationValues {
   const d = FABRIC_CLASS_DEFAULTS[input.fabricClass];
-  const of = <K extends FabricTest["kind"]>(kind: K) =>
-    input.tests.filter((t): t is Extract<FabricTest, { kind: K }> => t.kind === kind);
+  const of = <K extends FabricTest["kind"]>(kind: K) => input.tests.filter((t): t is Extract<FabricTest, { kind: K }> => t.kind === kind);
   const ids = (ts: readonly { id: string }[]) => ts.map((t) => t.id);
   const measured = <U extends string>(value: number, unit: U, ts: readonly { id: string }[], note?: string): TaggedValue<U> => ({
     value,

@@ -28,7 +28,13 @@ export const FABRIC_READING_RANGES = {
   gaugeLengthMm: { min: 20, max: 500, unit: "mm", label: "gauge length", why: "the jaws are usually 100 or 200 mm apart" },
   extensionMm: { min: 0.01, max: 2500, unit: "mm", label: "extension", why: "extensions are read to 0.01 mm" },
   // ISO 5084: thickness under a presser foot; organza ~0.05 mm, thick felt ~20 mm.
-  thicknessMm: { min: 0.02, max: 30, unit: "mm", label: "thickness", why: "the thinnest organza is about 0.05 mm and thick felt about 20 mm" },
+  thicknessMm: {
+    min: 0.02,
+    max: 30,
+    unit: "mm",
+    label: "thickness",
+    why: "the thinnest organza is about 0.05 mm and thick felt about 20 mm",
+  },
 } satisfies Record<string, ReadingRange>;
 
 /** Mass per area a cloth can have, g/m²: the lightest nets about 10, heavy felts and canvases about 1,500. */
@@ -55,19 +61,33 @@ export function checkFabricReadings(r: FabricTestReadings): ReadingProblem[] {
   for (const [field, value] of Object.entries(r)) {
     const range = (FABRIC_READING_RANGES as Record<string, ReadingRange>)[field];
     if (!range || typeof value !== "number") continue;
-    if (value < range.min) problems.push({ field, reason: `${range.label} ${fmt(value)} ${range.unit} is below the plausible minimum of ${range.min} ${range.unit}: ${range.why}` });
-    else if (value > range.max) problems.push({ field, reason: `${range.label} ${fmt(value)} ${range.unit} is above the plausible maximum of ${range.max} ${range.unit}: ${range.why}` });
+    if (value < range.min)
+      problems.push({
+        field,
+        reason: `${range.label} ${fmt(value)} ${range.unit} is below the plausible minimum of ${range.min} ${range.unit}: ${range.why}`,
+      });
+    else if (value > range.max)
+      problems.push({
+        field,
+        reason: `${range.label} ${fmt(value)} ${range.unit} is above the plausible maximum of ${range.max} ${range.unit}: ${range.why}`,
+      });
   }
   if (problems.length) return problems;
   if (r.kind === "mass") {
     const gsm = r.massG / ((r.lengthMm / 1000) * (r.widthMm / 1000));
     const { min, max } = PLAUSIBLE_MASS_PER_AREA_GSM;
     if (gsm < min || gsm > max) {
-      problems.push({ field: "massG", reason: `${fmt(r.massG)} g on ${fmt(r.lengthMm)} × ${fmt(r.widthMm)} mm is ${fmt(gsm)} g/m², outside the ${min}–${max} g/m² any cloth weighs; check the grams and the specimen size` });
+      problems.push({
+        field: "massG",
+        reason: `${fmt(r.massG)} g on ${fmt(r.lengthMm)} × ${fmt(r.widthMm)} mm is ${fmt(gsm)} g/m², outside the ${min}–${max} g/m² any cloth weighs; check the grams and the specimen size`,
+      });
     }
   }
   if (r.kind === "strip" && r.extensionMm / r.gaugeLengthMm > PLAUSIBLE_MAX_STRAIN) {
-    problems.push({ field: "extensionMm", reason: `extension ${fmt(r.extensionMm)} mm on a ${fmt(r.gaugeLengthMm)} mm gauge is a strain above ${PLAUSIBLE_MAX_STRAIN * 100} %` });
+    problems.push({
+      field: "extensionMm",
+      reason: `extension ${fmt(r.extensionMm)} mm on a ${fmt(r.gaugeLengthMm)} mm gauge is a strain above ${PLAUSIBLE_MAX_STRAIN * 100} %`,
+    });
   }
   return problems;
 }

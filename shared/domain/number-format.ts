@@ -14,7 +14,11 @@ function formatterFor(p: Precision): Intl.NumberFormat {
     f =
       "decimals" in p
         ? new Intl.NumberFormat("en-GB", { useGrouping: true, minimumFractionDigits: p.decimals, maximumFractionDigits: p.decimals })
-        : new Intl.NumberFormat("en-GB", { useGrouping: true, minimumSignificantDigits: p.significant, maximumSignificantDigits: p.significant });
+        : new Intl.NumberFormat("en-GB", {
+            useGrouping: true,
+            minimumSignificantDigits: p.significant,
+            maximumSignificantDigits: p.significant,
+          });
     formatters.set(key, f);
   }
   return f;

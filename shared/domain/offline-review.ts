@@ -24,7 +24,8 @@ export interface EntryRefs {
 }
 
 const sceneName = (n: string | null | undefined) => (n ? `Scene ${n}` : "The scene");
-const dayName = (kind: "shoot" | "performance" | undefined, n: number | null | undefined) => (kind === "performance" ? "the performance" : n ? `day ${n}` : "the shoot day");
+const dayName = (kind: "shoot" | "performance" | undefined, n: number | null | undefined) =>
+  kind === "performance" ? "the performance" : n ? `day ${n}` : "the shoot day";
 
 /**
  * Review reasons for an arriving entry: what was deleted, and where the records now differ from
@@ -38,21 +39,30 @@ export function reviewReasons(refs: EntryRefs, captured: CapturedAs | null | und
   const who = facts.character?.name ?? seen.characterName ?? "The character";
 
   if (!facts.scene) {
-    out.push({ code: "scene_deleted", message: `${sceneName(seen.sceneNumber)} was deleted before this entry arrived; file it under the right scene.` });
+    out.push({
+      code: "scene_deleted",
+      message: `${sceneName(seen.sceneNumber)} was deleted before this entry arrived; file it under the right scene.`,
+    });
   } else if (seen.sceneNumber && seen.sceneNumber !== facts.scene.number) {
     out.push({ code: "scene_renumbered", message: `Scene ${seen.sceneNumber} is now scene ${facts.scene.number}.` });
   }
 
   if (refs.shootDayId) {
     if (!facts.shootDay) {
-      out.push({ code: "shoot_day_deleted", message: `${capitalise(dayName(undefined, seen.shootDayNumber))} was deleted before this entry arrived.` });
+      out.push({
+        code: "shoot_day_deleted",
+        message: `${capitalise(dayName(undefined, seen.shootDayNumber))} was deleted before this entry arrived.`,
+      });
     } else if (facts.scene && !facts.shootDay.sceneIds.includes(refs.sceneId)) {
       out.push({ code: "scene_left_day", message: `${scene} is no longer on ${dayName(facts.shootDay.kind, facts.shootDay.dayNumber)}.` });
     }
   }
 
   if (!facts.character) {
-    out.push({ code: "character_deleted", message: `${seen.characterName ?? "The character"} was deleted before this entry arrived; file it under the right character.` });
+    out.push({
+      code: "character_deleted",
+      message: `${seen.characterName ?? "The character"} was deleted before this entry arrived; file it under the right character.`,
+    });
   } else if (facts.scene) {
     if (!facts.appearance) {
       out.push({ code: "character_left_scene", message: `${who} is no longer in scene ${facts.scene.number}.` });
@@ -63,7 +73,10 @@ export function reviewReasons(refs: EntryRefs, captured: CapturedAs | null | und
         out.push({ code: "change_differs", message: `${scene} now has ${who} in ${now} (the phone showed ${was}).` });
       }
       if (seen.requiredDistress != null && seen.requiredDistress !== facts.appearance.distressStage) {
-        out.push({ code: "state_differs", message: `${scene} now asks for distress stage ${facts.appearance.distressStage} (the phone showed ${seen.requiredDistress}).` });
+        out.push({
+          code: "state_differs",
+          message: `${scene} now asks for distress stage ${facts.appearance.distressStage} (the phone showed ${seen.requiredDistress}).`,
+        });
       }
     }
   }
@@ -73,7 +86,10 @@ export function reviewReasons(refs: EntryRefs, captured: CapturedAs | null | und
   for (const id of new Set(refs.garmentIds)) {
     if (found.has(id)) continue;
     const tag = tagOf.get(id);
-    out.push({ code: "garment_deleted", message: `${tag ? `Garment ${tag}` : "A garment"} was deleted before this entry arrived; it is not linked.` });
+    out.push({
+      code: "garment_deleted",
+      message: `${tag ? `Garment ${tag}` : "A garment"} was deleted before this entry arrived; it is not linked.`,
+    });
   }
   return out;
 }

@@ -42,7 +42,13 @@ function stable(v: unknown): string {
   return JSON.stringify(v ?? null);
 }
 
-function diffBy<T>(before: readonly T[], after: readonly T[], key: (t: T) => string, name: (t: T) => string, fields: (keyof T)[]): DiffGroup {
+function diffBy<T>(
+  before: readonly T[],
+  after: readonly T[],
+  key: (t: T) => string,
+  name: (t: T) => string,
+  fields: (keyof T)[],
+): DiffGroup {
   const old = new Map(before.map((t) => [key(t), t]));
   const now = new Map(after.map((t) => [key(t), t]));
   const group: DiffGroup = { added: [], removed: [], changed: [] };
@@ -63,28 +69,41 @@ const groupEmpty = (g: DiffGroup) => g.added.length + g.removed.length + g.chang
 
 /** Compares two packet versions' contents (previous → current). */
 export function diffPacketContents(previous: PacketContents, current: PacketContents): PacketDiff {
-  const panels = diffBy(previous.panels, current.panels, (p) => p.id, (p) => `${p.garmentName}: ${p.name}`, [
-    "name",
-    "outline",
-    "grainline",
-    "notches",
-    "seamAllowanceMm",
-    "cutCount",
-    "mirrored",
-    "grainMode",
-    "fabricId",
-  ]);
-  const seams = diffBy(previous.seams, current.seams, (s) => s.id, (s) => s.name, ["name", "a", "b", "eased", "toleranceMm", "lengthAMm", "lengthBMm"]);
-  const fabrics = diffBy(previous.fabrics, current.fabrics, (f) => f.id, (f) => f.name, ["name", "construction", "widthMm", "simulation"]);
-  const shots = diffBy(previous.shots, current.shots, (s) => s.appearanceId, (s) => `Scene ${s.sceneNumber}`, [
-    "distressStage",
-    "wet",
-    "blood",
-    "stunt",
-    "notes",
-    "photoFiles",
-  ]);
-  const photos = diffBy(previous.photos, current.photos, (p) => p.id, (p) => p.caption || p.fileName, ["caption", "view", "contentHash"]);
+  const panels = diffBy(
+    previous.panels,
+    current.panels,
+    (p) => p.id,
+    (p) => `${p.garmentName}: ${p.name}`,
+    ["name", "outline", "grainline", "notches", "seamAllowanceMm", "cutCount", "mirrored", "grainMode", "fabricId"],
+  );
+  const seams = diffBy(
+    previous.seams,
+    current.seams,
+    (s) => s.id,
+    (s) => s.name,
+    ["name", "a", "b", "eased", "toleranceMm", "lengthAMm", "lengthBMm"],
+  );
+  const fabrics = diffBy(
+    previous.fabrics,
+    current.fabrics,
+    (f) => f.id,
+    (f) => f.name,
+    ["name", "construction", "widthMm", "simulation"],
+  );
+  const shots = diffBy(
+    previous.shots,
+    current.shots,
+    (s) => s.appearanceId,
+    (s) => `Scene ${s.sceneNumber}`,
+    ["distressStage", "wet", "blood", "stunt", "notes", "photoFiles"],
+  );
+  const photos = diffBy(
+    previous.photos,
+    current.photos,
+    (p) => p.id,
+    (p) => p.caption || p.fileName,
+    ["caption", "view", "contentHash"],
+  );
   let measurements: PacketDiff["measurements"] = "unchanged";
   if (!previous.measurements && current.measurements) measurements = "added";
   else if (previous.measurements && !current.measurements) measurements = "removed";

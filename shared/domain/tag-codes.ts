@@ -54,6 +54,7 @@ export function parseTagCode(input: string): ParseTagResult {
     }
   }
   const body = s.slice(0, TAG_BODY_LENGTH);
-  if (tagCheckChar(body) !== s[TAG_BODY_LENGTH]) return { ok: false, reason: "the last character does not match; check the code for a typing slip" };
+  if (tagCheckChar(body) !== s[TAG_BODY_LENGTH])
+    return { ok: false, reason: "the last character does not match; check the code for a typing slip" };
   return { ok: true, code: formatTagCode(s) };
 }

@@ -159,13 +159,35 @@ export type ParseLengthResult = { ok: true; mm: number } | { ok: false; reason: 
 
 // Unicode vulgar fractions people paste or type on phones.
 const VULGAR_FRACTIONS: Record<string, [number, number]> = {
-  "½": [1, 2], "⅓": [1, 3], "⅔": [2, 3], "¼": [1, 4], "¾": [3, 4], "⅕": [1, 5], "⅖": [2, 5], "⅗": [3, 5],
-  "⅘": [4, 5], "⅙": [1, 6], "⅚": [5, 6], "⅐": [1, 7], "⅛": [1, 8], "⅜": [3, 8], "⅝": [5, 8], "⅞": [7, 8],
-  "⅑": [1, 9], "⅒": [1, 10],
+  "½": [1, 2],
+  "⅓": [1, 3],
+  "⅔": [2, 3],
+  "¼": [1, 4],
+  "¾": [3, 4],
+  "⅕": [1, 5],
+  "⅖": [2, 5],
+  "⅗": [3, 5],
+  "⅘": [4, 5],
+  "⅙": [1, 6],
+  "⅚": [5, 6],
+  "⅐": [1, 7],
+  "⅛": [1, 8],
+  "⅜": [3, 8],
+  "⅝": [5, 8],
+  "⅞": [7, 8],
+  "⅑": [1, 9],
+  "⅒": [1, 10],
 };
 
 const UNIT_SUFFIXES: Record<string, LengthUnit | "mm"> = {
-  cm: "cm", mm: "mm", in: "in", inch: "in", inches: "in", '"': "in", "″": "in", "''": "in",
+  cm: "cm",
+  mm: "mm",
+  in: "in",
+  inch: "in",
+  inches: "in",
+  '"': "in",
+  "″": "in",
+  "''": "in",
 };
 
 /**
@@ -173,7 +195,11 @@ const UNIT_SUFFIXES: Record<string, LengthUnit | "mm"> = {
  * "37½", "½", an optional sign, and an optional unit suffix (cm, mm, in, ") that overrides `unit`.
  */
 export function parseLength(input: string, unit: LengthUnit): ParseLengthResult {
-  let s = input.trim().toLowerCase().replace(/\u2212/g, "-").replace(/\u2044/g, "/");
+  let s = input
+    .trim()
+    .toLowerCase()
+    .replace(/\u2212/g, "-")
+    .replace(/\u2044/g, "/");
   if (s === "") return { ok: false, reason: "enter a length" };
 
   let effective: LengthUnit | "mm" = unit;

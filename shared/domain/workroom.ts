@@ -169,7 +169,7 @@ export function dueDateFor(
   if (first === null) return null;
   const closed = new Set(workingCalendar.closedDates ?? []);
   let due = first;
-  for (let left = bufferWorkingDays; left > 0; ) {
+  for (let left = bufferWorkingDays; left > 0;) {
     due = subDays(due, 1);
     if (isWorkingDate(due, workingCalendar, closed)) left--;
   }

@@ -3,7 +3,11 @@ import { nameSchema } from "./common.js";
 import { Limits } from "../constants.js";
 import type { Role } from "../permissions.js";
 
-export const emailSchema = z.string().trim().toLowerCase().pipe(z.email({ message: "must be an e-mail address" }));
+export const emailSchema = z
+  .string()
+  .trim()
+  .toLowerCase()
+  .pipe(z.email({ message: "must be an e-mail address" }));
 export const passwordSchema = z
   .string()
   .min(Limits.passwordMin, `must be at least ${Limits.passwordMin} characters`)

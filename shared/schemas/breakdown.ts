@@ -12,24 +12,50 @@ export const sceneNumberSchema = z
   .toUpperCase()
   .regex(/^[0-9]{1,4}[A-Z]{0,3}$/, "must be digits with an optional letter suffix, like 42 or 42A");
 
-const optText = (max: number) => z.string().trim().max(max).nullish().transform((v) => (v ? v : null));
+const optText = (max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max)
+    .nullish()
+    .transform((v) => (v ? v : null));
 
 /** Fields of a scene; length is in eighths of a page (film) or running minutes (stage). */
 export const sceneInputSchema = z.object({
   number: sceneNumberSchema,
   /** Set or location name. */
   setName: optionalNameSchema(200),
-  intExt: z.enum(intExtValues).nullish().transform((v) => v ?? null),
+  intExt: z
+    .enum(intExtValues)
+    .nullish()
+    .transform((v) => v ?? null),
   /** DAY, NIGHT, DAWN, DUSK, CONTINUOUS… */
   timeOfDay: optText(20),
   /** Story day (1-based) the scene plays in. */
-  storyDay: z.number().int().min(1).max(999).nullish().transform((v) => v ?? null),
+  storyDay: z
+    .number()
+    .int()
+    .min(1)
+    .max(999)
+    .nullish()
+    .transform((v) => v ?? null),
   /** Position in the story; on stage this is the running order. Appended at the end when omitted. */
   storyOrder: z.number().int().min(0).max(1_000_000).optional(),
   /** Film: page length in eighths (1 3/8 pages = 11). */
-  lengthEighths: z.number().int().min(0).max(8 * 200).nullish().transform((v) => v ?? null),
+  lengthEighths: z
+    .number()
+    .int()
+    .min(0)
+    .max(8 * 200)
+    .nullish()
+    .transform((v) => v ?? null),
   /** Stage: running time in minutes. */
-  runningMinutes: z.number().min(0).max(600).nullish().transform((v) => v ?? null),
+  runningMinutes: z
+    .number()
+    .min(0)
+    .max(600)
+    .nullish()
+    .transform((v) => v ?? null),
   synopsis: optText(Limits.notesMax),
 });
 export type SceneInput = z.infer<typeof sceneInputSchema>;

@@ -2,12 +2,22 @@ import { z } from "zod";
 import { Limits } from "../constants.js";
 import { idSchema, nameSchema } from "./common.js";
 
-const optText = (max: number) => z.string().trim().max(max).nullish().transform((v) => (v ? v : null));
+const optText = (max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max)
+    .nullish()
+    .transform((v) => (v ? v : null));
 
 /** A performer: a real person (name, contact, notes). Measurements live with the Wardrobe feature. */
 export const performerInputSchema = z.object({
   name: nameSchema(Limits.nameMax),
-  email: z.email({ message: "must be an e-mail address" }).nullish().or(z.literal("")).transform((v) => (v ? v : null)),
+  email: z
+    .email({ message: "must be an e-mail address" })
+    .nullish()
+    .or(z.literal(""))
+    .transform((v) => (v ? v : null)),
   phone: optText(40),
   /** Agent or other contact, free text. */
   agentContact: optText(300),
@@ -37,7 +47,10 @@ export const characterInputSchema = z.object({
   sortOrder: z.number().int().min(0).max(100_000).optional(),
   notes: optText(Limits.notesMax),
   /** Doubles (stunt, photo) and, on stage, understudies; replaces the list when given. */
-  doubles: z.array(z.object({ performerId: idSchema, kind: z.enum(doubleKinds) })).max(20).optional(),
+  doubles: z
+    .array(z.object({ performerId: idSchema, kind: z.enum(doubleKinds) }))
+    .max(20)
+    .optional(),
 });
 export type CharacterInput = z.infer<typeof characterInputSchema>;
 export const updateCharacterInputSchema = characterInputSchema.partial();

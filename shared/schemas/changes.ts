@@ -12,23 +12,40 @@ export const changeItemInputSchema = z
     garmentId: idSchema.nullish().transform((v) => v ?? null),
     multiplesGroupId: idSchema.nullish().transform((v) => v ?? null),
   })
-  .refine((v) => !(v.garmentId && v.multiplesGroupId), { message: "point at a garment or a multiples group, not both", path: ["multiplesGroupId"] });
+  .refine((v) => !(v.garmentId && v.multiplesGroupId), {
+    message: "point at a garment or a multiples group, not both",
+    path: ["multiplesGroupId"],
+  });
 export type ChangeItemInput = z.infer<typeof changeItemInputSchema>;
 
-const storyDay = z.number().int().min(1).max(999).nullish().transform((v) => v ?? null);
+const storyDay = z
+  .number()
+  .int()
+  .min(1)
+  .max(999)
+  .nullish()
+  .transform((v) => v ?? null);
 
 export const changeInputSchema = z
   .object({
     characterId: idSchema,
     /** Numbered per character; the next free number when omitted. */
     number: z.number().int().min(1).max(999).optional(),
-    description: z.string().trim().max(Limits.notesMax).nullish().transform((v) => (v ? v : null)),
+    description: z
+      .string()
+      .trim()
+      .max(Limits.notesMax)
+      .nullish()
+      .transform((v) => (v ? v : null)),
     storyDayFrom: storyDay,
     storyDayTo: storyDay,
     /** Replaces the item list when given, in this order. */
     items: z.array(changeItemInputSchema).max(40).optional(),
   })
-  .refine((v) => v.storyDayFrom == null || v.storyDayTo == null || v.storyDayTo >= v.storyDayFrom, { message: "must not be before the first story day", path: ["storyDayTo"] });
+  .refine((v) => v.storyDayFrom == null || v.storyDayTo == null || v.storyDayTo >= v.storyDayFrom, {
+    message: "must not be before the first story day",
+    path: ["storyDayTo"],
+  });
 export type ChangeInput = z.infer<typeof changeInputSchema>;
 
 export const updateChangeInputSchema = z
@@ -39,7 +56,10 @@ export const updateChangeInputSchema = z
     storyDayTo: storyDay.optional(),
     items: z.array(changeItemInputSchema).max(40).optional(),
   })
-  .refine((v) => v.storyDayFrom == null || v.storyDayTo == null || v.storyDayTo >= v.storyDayFrom, { message: "must not be before the first story day", path: ["storyDayTo"] });
+  .refine((v) => v.storyDayFrom == null || v.storyDayTo == null || v.storyDayTo >= v.storyDayFrom, {
+    message: "must not be before the first story day",
+    path: ["storyDayTo"],
+  });
 export type UpdateChangeInput = z.infer<typeof updateChangeInputSchema>;
 
 export const changeApprovalInputSchema = z.object({ approval: z.enum(changeApprovals) });

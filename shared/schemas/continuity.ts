@@ -17,7 +17,10 @@ export const capturedAsSchema = z.object({
   /** The distress stage the scene asked for. */
   requiredDistress: z.number().int().min(0).max(10).nullish(),
   /** The garment copies ticked, with their tag codes (kept to name a copy deleted meanwhile). */
-  garments: z.array(z.object({ id: idSchema, tagCode: z.string().trim().max(40) })).max(40).optional(),
+  garments: z
+    .array(z.object({ id: idSchema, tagCode: z.string().trim().max(40) }))
+    .max(40)
+    .optional(),
 });
 export type CapturedAs = z.infer<typeof capturedAsSchema>;
 
@@ -43,12 +46,23 @@ export const continuityEntryInputSchema = z.object({
    */
   clientId: idSchema.optional(),
   capturedAs: jsonField(capturedAsSchema),
-  shootDayId: idSchema.nullish().or(z.literal("")).transform((v) => (v ? v : null)),
+  shootDayId: idSchema
+    .nullish()
+    .or(z.literal(""))
+    .transform((v) => (v ? v : null)),
   sceneId: idSchema,
   characterId: idSchema,
-  distressStage: z.preprocess((v) => (v === "" || v == null ? null : typeof v === "string" ? Number(v) : v), z.number().int().min(0).max(10).nullable()),
+  distressStage: z.preprocess(
+    (v) => (v === "" || v == null ? null : typeof v === "string" ? Number(v) : v),
+    z.number().int().min(0).max(10).nullable(),
+  ),
   /** What is not obvious from the photos ("collar open, left cuff rolled twice"). */
-  notes: z.string().trim().max(Limits.notesMax).nullish().transform((v) => (v ? v : null)),
+  notes: z
+    .string()
+    .trim()
+    .max(Limits.notesMax)
+    .nullish()
+    .transform((v) => (v ? v : null)),
   /** Garment copies worn. */
   garmentIds: z.preprocess((v) => (v == null || v === "" ? [] : Array.isArray(v) ? v : [v]), z.array(idSchema).max(40)),
   /** The view of each attached photo, in file order. */
@@ -78,7 +92,17 @@ export const listContinuityQuerySchema = z.object({
 });
 
 /** Why an entry that waited on a phone needs a look (see shared/domain/offline-review.ts). */
-export const reviewCodes = ["scene_deleted", "scene_renumbered", "shoot_day_deleted", "scene_left_day", "character_deleted", "character_left_scene", "change_differs", "state_differs", "garment_deleted"] as const;
+export const reviewCodes = [
+  "scene_deleted",
+  "scene_renumbered",
+  "shoot_day_deleted",
+  "scene_left_day",
+  "character_deleted",
+  "character_left_scene",
+  "change_differs",
+  "state_differs",
+  "garment_deleted",
+] as const;
 export type ReviewCode = (typeof reviewCodes)[number];
 export interface ReviewReason {
   code: ReviewCode;

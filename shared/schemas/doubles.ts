@@ -12,13 +12,18 @@ import { DXF_UNITS, type DxfUnit } from "../domain/panels/dxf-units.js";
 const COORD_MAX = 10_000;
 
 /** A point [x, y] in millimetres, y up. */
-export const pointSchema = z.tuple([z.number().finite().min(-COORD_MAX).max(COORD_MAX), z.number().finite().min(-COORD_MAX).max(COORD_MAX)]);
+export const pointSchema = z.tuple([
+  z.number().finite().min(-COORD_MAX).max(COORD_MAX),
+  z.number().finite().min(-COORD_MAX).max(COORD_MAX),
+]);
 
 /** A closed outline: at least 3 points, no self-intersection, not repeated at the end. */
 export const outlineSchema = z
   .array(pointSchema)
   .min(3, { message: "needs at least 3 points" })
-  .max(Limits.panelMaxVertices, { message: `has more than ${Limits.panelMaxVertices.toLocaleString("en-GB")} points (the most a piece may have)` })
+  .max(Limits.panelMaxVertices, {
+    message: `has more than ${Limits.panelMaxVertices.toLocaleString("en-GB")} points (the most a piece may have)`,
+  })
   .superRefine((pts, ctx) => {
     const check = validatePolygon(pts as Point[]);
     if (!check.valid) ctx.addIssue({ code: "custom", message: check.issues.map((i) => i.message).join("; ") });
@@ -71,7 +76,8 @@ function notchesOnOutline<T extends { outline?: unknown; notches?: Array<{ edge:
   const n = Array.isArray(v.outline) ? v.outline.length : undefined;
   if (n === undefined || !v.notches) return;
   v.notches.forEach((notch, i) => {
-    if (notch.edge >= n) ctx.addIssue({ code: "custom", path: ["notches", i, "edge"], message: `edge ${notch.edge} does not exist (outline has ${n} edges)` });
+    if (notch.edge >= n)
+      ctx.addIssue({ code: "custom", path: ["notches", i, "edge"], message: `edge ${notch.edge} does not exist (outline has ${n} edges)` });
   });
 }
 
@@ -100,15 +106,15 @@ export type DxfPreviewFields = z.infer<typeof dxfPreviewFieldsSchema>;
 /** Multipart fields sent with a DXF file to import it. */
 export const dxfImportFieldsSchema = dxfPreviewFieldsSchema.extend({
   garmentId: idSchema,
-  fabricId: z.union([idSchema, z.literal("")]).optional().transform((v) => v || null),
+  fabricId: z
+    .union([idSchema, z.literal("")])
+    .optional()
+    .transform((v) => v || null),
 });
 export type DxfImportFields = z.infer<typeof dxfImportFieldsSchema>;
 
 /** A run end: a vertex index or a position along an edge (0 ≤ t ≤ 1). */
-export const runEndSchema = z.union([
-  z.number().int().min(0),
-  z.object({ edge: z.number().int().min(0), t: z.number().min(0).max(1) }),
-]);
+export const runEndSchema = z.union([z.number().int().min(0), z.object({ edge: z.number().int().min(0), t: z.number().min(0).max(1) })]);
 
 /** One side of a seam: a run along a panel's sew line. */
 export const seamSideSchema = z.object({
@@ -132,7 +138,11 @@ const seamFields = {
   /** Set for eased seams (e.g. a sleeve cap): A − B must fall in the range. */
   eased: easeRangeSchema.nullable(),
 };
-export const createSeamInputSchema = z.object({ ...seamFields, toleranceMm: seamFields.toleranceMm.default(null), eased: seamFields.eased.default(null) });
+export const createSeamInputSchema = z.object({
+  ...seamFields,
+  toleranceMm: seamFields.toleranceMm.default(null),
+  eased: seamFields.eased.default(null),
+});
 export type CreateSeamInput = z.infer<typeof createSeamInputSchema>;
 export const updateSeamInputSchema = z.object(seamFields).partial();
 export type UpdateSeamInput = z.infer<typeof updateSeamInputSchema>;
@@ -144,7 +154,11 @@ export const markerInputSchema = z.object({
   multiples: z.number().int().min(1).max(20).default(1),
 });
 export type MarkerInput = z.infer<typeof markerInputSchema>;
-export const markerQuerySchema = z.object({ scope: z.enum(["garment", "change"]), scopeId: idSchema, multiples: z.coerce.number().int().min(1).max(20).default(1) });
+export const markerQuerySchema = z.object({
+  scope: z.enum(["garment", "change"]),
+  scopeId: idSchema,
+  multiples: z.coerce.number().int().min(1).max(20).default(1),
+});
 
 export const physicsQuerySchema = z.object({ changeId: idSchema.optional(), garmentId: idSchema.optional() });
 

@@ -50,12 +50,16 @@ export function issuePredicate(issue: Issue): string | undefined {
       if (issue.origin === "string" && Number(issue.minimum) === 1) return "is required";
       if (issue.origin === "array" && Number(issue.minimum) === 1) return "needs at least one item";
       if (issue.exact) return `must be exactly ${bound(issue.minimum)}${unit}`;
-      return issue.inclusive === false ? `must be greater than ${bound(issue.minimum)}${unit}` : `must be at least ${bound(issue.minimum)}${unit}`;
+      return issue.inclusive === false
+        ? `must be greater than ${bound(issue.minimum)}${unit}`
+        : `must be at least ${bound(issue.minimum)}${unit}`;
     }
     case "too_big": {
       const unit = unitFor(issue.origin, issue.maximum);
       if (issue.exact) return `must be exactly ${bound(issue.maximum)}${unit}`;
-      return issue.inclusive === false ? `must be less than ${bound(issue.maximum)}${unit}` : `must be at most ${bound(issue.maximum)}${unit}`;
+      return issue.inclusive === false
+        ? `must be less than ${bound(issue.maximum)}${unit}`
+        : `must be at most ${bound(issue.maximum)}${unit}`;
     }
     case "invalid_format":
       return `must be ${formatNames[issue.format] ?? "in the expected form"}`;

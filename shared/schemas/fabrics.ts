@@ -22,10 +22,26 @@ export const fibreContentSchema = z
     message: "fibre percentages must add up to 100",
   });
 
-const text = (max: number) => z.string().trim().max(max).nullish().transform((v) => (v ? v : null));
+const text = (max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max)
+    .nullish()
+    .transform((v) => (v ? v : null));
 const positiveOrNull = (what: string, max: number) =>
-  z.number({ message: `must be a number of ${what}` }).positive("must be greater than 0").max(max).nullish().transform((v) => v ?? null);
-const pctOrNull = z.number().min(0, "cannot be negative").max(1000).nullish().transform((v) => v ?? null);
+  z
+    .number({ message: `must be a number of ${what}` })
+    .positive("must be greater than 0")
+    .max(max)
+    .nullish()
+    .transform((v) => v ?? null);
+const pctOrNull = z
+  .number()
+  .min(0, "cannot be negative")
+  .max(1000)
+  .nullish()
+  .transform((v) => v ?? null);
 
 const fabricFields = {
   name: nameSchema(Limits.nameMax),
@@ -77,7 +93,11 @@ const markPair = z.object({
 });
 const markPairs = z.array(markPair).min(1, "give at least one pair of marks").max(3, "give at most three pairs of marks");
 
-const pos = (unit: string, max: number) => z.number({ message: `must be a number of ${unit}` }).positive("must be greater than 0").max(max);
+const pos = (unit: string, max: number) =>
+  z
+    .number({ message: `must be a number of ${unit}` })
+    .positive("must be greater than 0")
+    .max(max);
 const direction = z.enum(["warp", "weft"]);
 
 /** The shape of each test kind's readings (hard limits; plausibility is checked below). */
@@ -85,7 +105,12 @@ const readingsByKind = z.discriminatedUnion("kind", [
   /** ASTM D3776 option C: a cut specimen weighed. */
   z.object({ kind: z.literal("mass"), massG: pos("grams", 5000), lengthMm: pos("millimetres", 5000), widthMm: pos("millimetres", 5000) }),
   /** ASTM D1388 option A: overhang at which the strip touches the 41.5° incline. */
-  z.object({ kind: z.literal("cantilever"), direction, overhangMm: pos("millimetres", 1000), angleDeg: z.number().gt(0).lt(90).default(41.5) }),
+  z.object({
+    kind: z.literal("cantilever"),
+    direction,
+    overhangMm: pos("millimetres", 1000),
+    angleDeg: z.number().gt(0).lt(90).default(41.5),
+  }),
   /** Strip tensile (ISO 13934-1 / ASTM D5035 style): load at an extension. */
   z.object({
     kind: z.literal("strip"),
@@ -105,7 +130,12 @@ const readingsByKind = z.discriminatedUnion("kind", [
     kind: z.literal("shrinkage"),
     treatment: z.enum(fabricCareTreatments, { message: "must be washing or dry-cleaning" }),
     /** The procedure as run, e.g. "ISO 6330 4N, line dry" or "ISO 3175-2 normal". */
-    procedure: z.string().trim().max(120).nullish().transform((v) => v || null),
+    procedure: z
+      .string()
+      .trim()
+      .max(120)
+      .nullish()
+      .transform((v) => v || null),
     /** How many wash or clean cycles before measuring (1 unless the department repeats it). */
     cycles: z.number().int("must be a whole number of cycles").min(1, "must be at least 1").max(50).default(1),
     length: markPairs,
@@ -115,13 +145,23 @@ const readingsByKind = z.discriminatedUnion("kind", [
   z.object({
     kind: z.literal("colourfastness"),
     agent: z.enum(colourfastnessAgents, { message: "is not a colour-fastness test we record" }),
-    procedure: z.string().trim().max(120).nullish().transform((v) => v || null),
+    procedure: z
+      .string()
+      .trim()
+      .max(120)
+      .nullish()
+      .transform((v) => v || null),
     /** Change in colour of the specimen, grey-scale grade 1–5 in half steps. */
     changeGrade: grade,
     /** Staining of the adjacent fabric; none for rubbing dry tests of change only. */
     stainingGrade: grade.nullish().transform((v) => v ?? null),
     /** The adjacent fabric whose staining was read (e.g. "multifibre, wool strip"). */
-    adjacent: z.string().trim().max(120).nullish().transform((v) => v || null),
+    adjacent: z
+      .string()
+      .trim()
+      .max(120)
+      .nullish()
+      .transform((v) => v || null),
   }),
   /** Flame-retardancy treatment of the cloth (stage and set work); the certificate is a photo on the test. */
   z.object({
@@ -130,8 +170,18 @@ const readingsByKind = z.discriminatedUnion("kind", [
     treatment: z.string().trim().min(1, "is required").max(160),
     treatedOn: isoDateSchema,
     /** The standard or code the certificate names (e.g. a venue's or a national test). */
-    standard: z.string().trim().max(120).nullish().transform((v) => v || null),
-    certificateRef: z.string().trim().max(120).nullish().transform((v) => v || null),
+    standard: z
+      .string()
+      .trim()
+      .max(120)
+      .nullish()
+      .transform((v) => v || null),
+    certificateRef: z
+      .string()
+      .trim()
+      .max(120)
+      .nullish()
+      .transform((v) => v || null),
     /** When the treatment must be checked or renewed (many wash out). */
     renewBy: isoDateSchema.nullish().transform((v) => v ?? null),
   }),
@@ -154,7 +204,15 @@ export const createFabricTestInputSchema = z.object({
 });
 
 /** Kinds of fabric test, in the order the form offers them. */
-export const fabricTestKinds = ["mass", "cantilever", "strip", "thickness", "shrinkage", "colourfastness", "flame_retardancy"] as const satisfies readonly FabricTestKind[];
+export const fabricTestKinds = [
+  "mass",
+  "cantilever",
+  "strip",
+  "thickness",
+  "shrinkage",
+  "colourfastness",
+  "flame_retardancy",
+] as const satisfies readonly FabricTestKind[];
 export type CreateFabricTestInput = z.infer<typeof createFabricTestInputSchema>;
 /** What a client sends (defaults and blank-to-null transforms still to apply). */
 export type CreateFabricTestRequest = z.input<typeof createFabricTestInputSchema>;

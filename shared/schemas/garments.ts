@@ -28,25 +28,74 @@ export type FitIntentValue = (typeof fitIntents)[number];
 
 /** Categories offered in forms; the column takes any short word so a department can add its own. */
 export const garmentCategories = [
-  "jacket", "coat", "shirt", "blouse", "dress", "skirt", "trousers", "waistcoat", "knitwear", "boots", "shoes", "hat", "shawl", "apron", "underwear", "accessory",
+  "jacket",
+  "coat",
+  "shirt",
+  "blouse",
+  "dress",
+  "skirt",
+  "trousers",
+  "waistcoat",
+  "knitwear",
+  "boots",
+  "shoes",
+  "hat",
+  "shawl",
+  "apron",
+  "underwear",
+  "accessory",
 ] as const;
 
 /** Finished-measurement points (mm); names match the fit check's points. */
 export const finishedPoints = [
-  "chest", "bust", "waist", "hip", "back_length", "sleeve", "inside_leg", "neck", "shoulder", "across_back", "upper_arm", "thigh", "wrist", "head", "length", "foot_length",
+  "chest",
+  "bust",
+  "waist",
+  "hip",
+  "back_length",
+  "sleeve",
+  "inside_leg",
+  "neck",
+  "shoulder",
+  "across_back",
+  "upper_arm",
+  "thigh",
+  "wrist",
+  "head",
+  "length",
+  "foot_length",
 ] as const;
 export type FinishedPoint = (typeof finishedPoints)[number];
 export const finishedPointLabels: Record<FinishedPoint, string> = {
-  chest: "Chest", bust: "Bust", waist: "Waist", hip: "Hip", back_length: "Back length", sleeve: "Sleeve length", inside_leg: "Inside leg",
-  neck: "Neck", shoulder: "Shoulder", across_back: "Across back", upper_arm: "Upper arm", thigh: "Thigh", wrist: "Wrist", head: "Head",
-  length: "Garment length", foot_length: "Inside foot length",
+  chest: "Chest",
+  bust: "Bust",
+  waist: "Waist",
+  hip: "Hip",
+  back_length: "Back length",
+  sleeve: "Sleeve length",
+  inside_leg: "Inside leg",
+  neck: "Neck",
+  shoulder: "Shoulder",
+  across_back: "Across back",
+  upper_arm: "Upper arm",
+  thigh: "Thigh",
+  wrist: "Wrist",
+  head: "Head",
+  length: "Garment length",
+  foot_length: "Inside foot length",
 };
 
 /** A finished length in mm: positive and below 3 m (no garment point is longer). */
-const lengthMm = z.number({ message: "must be a number of millimetres" }).positive("must be greater than 0").max(3000, "must be under 3000 mm");
+const lengthMm = z
+  .number({ message: "must be a number of millimetres" })
+  .positive("must be greater than 0")
+  .max(3000, "must be under 3000 mm");
 
 /** Finished measurements keyed by point, in mm. */
-export const finishedMeasurementsSchema = z.partialRecord(z.enum(finishedPoints, { message: "is not a known measurement point" }), lengthMm);
+export const finishedMeasurementsSchema = z.partialRecord(
+  z.enum(finishedPoints, { message: "is not a known measurement point" }),
+  lengthMm,
+);
 
 /** A tag code typed by hand (re-using an old label): normalised and check-verified. */
 export const tagCodeSchema = z.string().transform((v, ctx) => {
@@ -58,7 +107,13 @@ export const tagCodeSchema = z.string().transform((v, ctx) => {
   return r.code;
 });
 
-const text = (max: number) => z.string().trim().max(max).nullish().transform((v) => (v ? v : null));
+const text = (max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max)
+    .nullish()
+    .transform((v) => (v ? v : null));
 
 const garmentFields = {
   /** Short name people use ("keeper's jacket"). */
@@ -72,13 +127,28 @@ const garmentFields = {
   source: z.enum(garmentSources),
   vendor: text(160),
   /** Cost in cents (whole currency units × 100). */
-  costCents: z.number().int("must be whole cents").min(0, "cannot be negative").max(100_000_000).nullish().transform((v) => v ?? null),
+  costCents: z
+    .number()
+    .int("must be whole cents")
+    .min(0, "cannot be negative")
+    .max(100_000_000)
+    .nullish()
+    .transform((v) => v ?? null),
   /** Only meaningful for rented garments. */
   rentalDueOn: isoDateSchema.nullish().transform((v) => v ?? null),
   /** Rented: the weekly hire rate in cents of the production's currency. */
-  rentalCostPerWeekCents: z.number().int("must be whole cents").min(0, "cannot be negative").max(10_000_000).nullish().transform((v) => v ?? null),
+  rentalCostPerWeekCents: z
+    .number()
+    .int("must be whole cents")
+    .min(0, "cannot be negative")
+    .max(10_000_000)
+    .nullish()
+    .transform((v) => v ?? null),
   /** Owned garments at wrap: keep in stock or sell; null = not decided. */
-  wrapDisposition: z.enum(wrapDispositions).nullish().transform((v) => v ?? null),
+  wrapDisposition: z
+    .enum(wrapDispositions)
+    .nullish()
+    .transform((v) => v ?? null),
   locationRack: text(40),
   locationBin: text(40),
   distressStage: z.number().int().min(0, "cannot be negative").max(10).default(0),
@@ -124,7 +194,10 @@ export const updateGarmentInputSchema = z
 export type UpdateGarmentInput = z.infer<typeof updateGarmentInputSchema>;
 
 /** Make more copies of a garment; it becomes #1 of a new group if it is not in one yet. */
-export const addCopiesInputSchema = z.object({ count: z.number().int().min(1).max(20), groupName: optionalNameSchema(Limits.nameMax).optional() });
+export const addCopiesInputSchema = z.object({
+  count: z.number().int().min(1).max(20),
+  groupName: optionalNameSchema(Limits.nameMax).optional(),
+});
 export type AddCopiesInput = z.infer<typeof addCopiesInputSchema>;
 
 /** Statuses in which a garment is out with a person; a move to any other status checks it back in. */
@@ -151,7 +224,10 @@ export const checkoutInputSchema = z
     /** The date it must be back; defaults to the day's date, else today. */
     dueBackOn: isoDateSchema.nullish(),
   })
-  .refine((v) => Boolean(v.toUserId) !== Boolean(v.toPerformerId), { message: "choose who takes it: one member or one performer", path: ["toUserId"] });
+  .refine((v) => Boolean(v.toUserId) !== Boolean(v.toPerformerId), {
+    message: "choose who takes it: one member or one performer",
+    path: ["toUserId"],
+  });
 export type CheckoutInput = z.infer<typeof checkoutInputSchema>;
 
 const moveFields = {
@@ -211,7 +287,12 @@ export type GarmentFilters = z.infer<typeof garmentFiltersSchema>;
 
 /** Label sheets: the filters plus the first free position on a partly used sheet (1 = top left, row by row). */
 export const labelSheetQuerySchema = garmentFiltersSchema.extend({
-  start: z.coerce.number({ message: "must be a label position" }).int("must be a whole label position").min(1, "must be 1 or more").max(24, "must be 24 or less (3 × 8 labels)").default(1),
+  start: z.coerce
+    .number({ message: "must be a label position" })
+    .int("must be a whole label position")
+    .min(1, "must be 1 or more")
+    .max(24, "must be 24 or less (3 × 8 labels)")
+    .default(1),
 });
 export type LabelSheetQuery = z.infer<typeof labelSheetQuerySchema>;
 
@@ -277,7 +358,13 @@ export interface CheckoutOptionsDto {
   today: string;
   members: Array<{ userId: string; name: string; role: string }>;
   performers: Array<{ id: string; name: string; characters: string[] }>;
-  days: Array<{ id: string; date: string; kind: "shoot" | "performance"; dayNumber: number; scenes: Array<{ id: string; number: string }> }>;
+  days: Array<{
+    id: string;
+    date: string;
+    kind: "shoot" | "performance";
+    dayNumber: number;
+    scenes: Array<{ id: string; number: string }>;
+  }>;
 }
 
 export interface GarmentStatusEventDto {

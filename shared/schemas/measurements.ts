@@ -11,7 +11,12 @@ export const createMeasurementSetInputSchema = z.object({
   values: z
     .partialRecord(z.enum(MEASUREMENT_KEYS, { message: "is not a known measurement" }), z.number({ message: "must be a number" }))
     .refine((v) => Object.keys(v).length > 0, { message: "enter at least one measurement" }),
-  notes: z.string().trim().max(Limits.notesMax).nullish().transform((v) => (v ? v : null)),
+  notes: z
+    .string()
+    .trim()
+    .max(Limits.notesMax)
+    .nullish()
+    .transform((v) => (v ? v : null)),
 });
 export type CreateMeasurementSetInput = z.infer<typeof createMeasurementSetInputSchema>;
 

@@ -68,7 +68,10 @@ export const stitchesFileSchema = z
     /** Seams that got no stitches, with the reason. */
     skipped: z.array(z.object({ seamId: z.string(), name: z.string(), reason: z.string() })),
   })
-  .meta({ title: "Seamscene seam stitches", description: "Vertex pairs of the simulation meshes that a cloth solver joins along each seam." });
+  .meta({
+    title: "Seamscene seam stitches",
+    description: "Vertex pairs of the simulation meshes that a cloth solver joins along each seam.",
+  });
 
 export type StitchesFile = z.infer<typeof stitchesFileSchema>;
 

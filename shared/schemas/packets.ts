@@ -75,8 +75,18 @@ export interface PacketPanelSnapshot {
 export interface PacketSeamSnapshot {
   id: string;
   name: string;
-  a: { panelId: string; from: number | { edge: number; t: number }; to: number | { edge: number; t: number }; direction: "forward" | "backward" };
-  b: { panelId: string; from: number | { edge: number; t: number }; to: number | { edge: number; t: number }; direction: "forward" | "backward" };
+  a: {
+    panelId: string;
+    from: number | { edge: number; t: number };
+    to: number | { edge: number; t: number };
+    direction: "forward" | "backward";
+  };
+  b: {
+    panelId: string;
+    from: number | { edge: number; t: number };
+    to: number | { edge: number; t: number };
+    direction: "forward" | "backward";
+  };
   lengthAMm: number;
   lengthBMm: number;
   differenceMm: number;

@@ -11,7 +11,12 @@ export const uploadPhotoFieldsSchema = z.object({
   ownerType: z.string().trim().min(1).max(30),
   ownerId: idSchema,
   view: z.enum(photoViews).default("other"),
-  caption: z.string().trim().max(300).nullish().transform((v) => (v ? v : null)),
+  caption: z
+    .string()
+    .trim()
+    .max(300)
+    .nullish()
+    .transform((v) => (v ? v : null)),
 });
 
 export const listPhotosQuerySchema = z.object({ ownerType: z.string().trim().min(1).max(30), ownerId: idSchema });

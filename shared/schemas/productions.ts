@@ -68,7 +68,10 @@ export const productionSettingsSchema = z.object({
   easeOverrides: z
     .record(
       z.string().trim().min(1).max(40),
-      z.record(z.string().trim().min(1).max(40), z.object({ fitted: easeRangeSchema, regular: easeRangeSchema, loose: easeRangeSchema }).partial()),
+      z.record(
+        z.string().trim().min(1).max(40),
+        z.object({ fitted: easeRangeSchema, regular: easeRangeSchema, loose: easeRangeSchema }).partial(),
+      ),
     )
     .optional(),
 });

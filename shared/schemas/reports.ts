@@ -243,7 +243,12 @@ export const returnsCsvQuerySchema = z.object({ section: z.enum(returnsSections)
 
 export const budgetGroupings = ["category", "character", "change", "source"] as const;
 export type BudgetGrouping = (typeof budgetGroupings)[number];
-export const budgetGroupingLabels: Record<BudgetGrouping, string> = { category: "Category", character: "Character", change: "Change", source: "Source" };
+export const budgetGroupingLabels: Record<BudgetGrouping, string> = {
+  category: "Category",
+  character: "Character",
+  change: "Change",
+  source: "Source",
+};
 
 export interface BudgetRowDto {
   key: string;

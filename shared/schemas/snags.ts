@@ -2,7 +2,18 @@ import { z } from "zod";
 import { idSchema } from "./common.js";
 import type { CopyAssignment, JsonValue, SnagFact, SnagKind, SnagSeverity, SnagSubject } from "../domain/snags/types.js";
 
-export const snagKinds = ["fit", "continuity", "multiples", "booking", "rental", "availability", "quick_change", "checkout_overdue", "workroom_late", "workroom_overbooked"] as const satisfies readonly SnagKind[];
+export const snagKinds = [
+  "fit",
+  "continuity",
+  "multiples",
+  "booking",
+  "rental",
+  "availability",
+  "quick_change",
+  "checkout_overdue",
+  "workroom_late",
+  "workroom_overbooked",
+] as const satisfies readonly SnagKind[];
 export const snagSeverities = ["blocking", "warning", "note"] as const satisfies readonly SnagSeverity[];
 
 /** Plain labels for the kinds, shown in filters and group headings. */

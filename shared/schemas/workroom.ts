@@ -43,7 +43,13 @@ export const updateFittingInputSchema = z.object({
 });
 export type UpdateFittingInput = z.infer<typeof updateFittingInputSchema>;
 
-const optText = (max: number) => z.string().trim().max(max).nullish().transform((v) => (v ? v : null));
+const optText = (max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max)
+    .nullish()
+    .transform((v) => (v ? v : null));
 
 /** A garment added to stock at a fitting: the few facts known at the rail; the rest is filled in on Wardrobe. */
 export const fittingNewGarmentSchema = z.object({
@@ -63,7 +69,10 @@ export const linkFittingItemInputSchema = z
     garmentId: idSchema.optional(),
     newGarment: fittingNewGarmentSchema.optional(),
   })
-  .refine((v) => Boolean(v.garmentId) !== Boolean(v.newGarment), { message: "choose a garment from stock or describe a new one", path: ["garmentId"] });
+  .refine((v) => Boolean(v.garmentId) !== Boolean(v.newGarment), {
+    message: "choose a garment from stock or describe a new one",
+    path: ["garmentId"],
+  });
 export type LinkFittingItemInput = z.infer<typeof linkFittingItemInputSchema>;
 
 export const listFittingsQuerySchema = z.object({
@@ -171,7 +180,9 @@ export const updateTicketInputSchema = z.object({
 });
 export type UpdateTicketInput = z.infer<typeof updateTicketInputSchema>;
 
-export const ticketStatusInputSchema = z.object({ status: z.enum(ticketStatuses, { message: "must be one of: " + ticketStatuses.join(", ") }) });
+export const ticketStatusInputSchema = z.object({
+  status: z.enum(ticketStatuses, { message: "must be one of: " + ticketStatuses.join(", ") }),
+});
 export type TicketStatusInput = z.infer<typeof ticketStatusInputSchema>;
 
 export const listTicketsQuerySchema = z.object({

@@ -26,11 +26,16 @@ function RequireSignedIn() {
       qc.setQueryData(["me"], null);
       const here = window.location.pathname + window.location.search;
       // Already on a sign-in page (e.g. while signing out): go there plainly, never "back to /login".
-      navigate(paths.auth.login.getHref(isAuthPath(window.location.pathname) ? null : here));
+      void navigate(paths.auth.login.getHref(isAuthPath(window.location.pathname) ? null : here));
     });
   }, [navigate, qc]);
   if (me.isPending) return <Spinner className="p-8" />;
-  if (me.error) return <div className="p-8"><ErrorAlert error={me.error} title="Cannot reach the server" /></div>;
+  if (me.error)
+    return (
+      <div className="p-8">
+        <ErrorAlert error={me.error} title="Cannot reach the server" />
+      </div>
+    );
   if (!me.data) return <Navigate to={paths.auth.login.getHref(location.pathname + location.search)} replace />;
   return <Outlet />;
 }

@@ -2,7 +2,10 @@
 export const paths = {
   home: { path: "/", getHref: () => "/" },
   auth: {
-    login: { path: "/login", getHref: (redirectTo?: string | null) => `/login${redirectTo ? `?redirectTo=${encodeURIComponent(redirectTo)}` : ""}` },
+    login: {
+      path: "/login",
+      getHref: (redirectTo?: string | null) => `/login${redirectTo ? `?redirectTo=${encodeURIComponent(redirectTo)}` : ""}`,
+    },
     forgot: { path: "/forgot-password", getHref: () => "/forgot-password" },
     reset: { path: "/reset-password/:token", getHref: (token: string) => `/reset-password/${token}` },
     invitation: { path: "/invitations/:token", getHref: (token: string) => `/invitations/${token}` },

@@ -37,7 +37,12 @@ async function getCsrfToken(): Promise<string> {
 
 type Method = "GET" | "POST" | "PATCH" | "PUT" | "DELETE";
 
-async function request<T>(method: Method, url: string, body?: unknown, opts: { raw?: boolean; retried?: boolean; signal?: AbortSignal } = {}): Promise<T> {
+async function request<T>(
+  method: Method,
+  url: string,
+  body?: unknown,
+  opts: { raw?: boolean; retried?: boolean; signal?: AbortSignal } = {},
+): Promise<T> {
   const headers: Record<string, string> = { Accept: "application/json" };
   const isForm = typeof FormData !== "undefined" && body instanceof FormData;
   if (body !== undefined && !isForm) headers["Content-Type"] = "application/json";

@@ -4,7 +4,10 @@ import type { FieldErrors, Resolver } from "react-hook-form";
 import { fieldSentence, issuesToFieldSentences } from "@shared/field-messages";
 
 /** One sentence per field path from a failed `safeParse` (first issue per field wins). */
-export function fieldErrorsOf(error: { issues: readonly { path: readonly PropertyKey[]; message: string }[] }, prefix = ""): Record<string, string> {
+export function fieldErrorsOf(
+  error: { issues: readonly { path: readonly PropertyKey[]; message: string }[] },
+  prefix = "",
+): Record<string, string> {
   if (!prefix) return issuesToFieldSentences(error.issues);
   return issuesToFieldSentences(error.issues.map((i) => ({ ...i, path: [...prefix.split("."), ...i.path] })));
 }

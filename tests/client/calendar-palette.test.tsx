@@ -4,7 +4,9 @@ import { describe, expect, it } from "vitest";
 
 // WCAG 2.1, definitions of "relative luminance" and "contrast ratio" (sRGB, (L1 + 0.05) / (L2 + 0.05)).
 function luminance(hex: string): number {
-  const [r, g, b] = [0, 2, 4].map((i) => parseInt(hex.slice(1 + i, 3 + i), 16) / 255).map((c) => (c <= 0.04045 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4));
+  const [r, g, b] = [0, 2, 4]
+    .map((i) => parseInt(hex.slice(1 + i, 3 + i), 16) / 255)
+    .map((c) => (c <= 0.04045 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4));
   return 0.2126 * r! + 0.7152 * g! + 0.0722 * b!;
 }
 function contrast(a: string, b: string): number {

@@ -30,7 +30,8 @@ function stubApi(gets: Record<string, unknown> = {}) {
     vi.fn(async (input: string, init?: RequestInit) => {
       const url = String(input);
       const method = (init?.method ?? "GET").toUpperCase();
-      const json = (data: unknown, status = 200) => new Response(status === 204 ? null : JSON.stringify(data), { status, headers: { "Content-Type": "application/json" } });
+      const json = (data: unknown, status = 200) =>
+        new Response(status === 204 ? null : JSON.stringify(data), { status, headers: { "Content-Type": "application/json" } });
       if (url.endsWith("/api/auth/csrf")) return json({ token: "t" });
       if (method === "GET") {
         const key = Object.keys(gets).find((k) => url.replace(/^\/api/, "").startsWith(k));
@@ -73,15 +74,48 @@ afterEach(() => {
 });
 
 const scene: SceneDetailDto = {
-  id: "s1", number: "12", setName: "Harbour wall", intExt: "EXT", timeOfDay: "DAY", storyDay: 3, storyOrder: 12, lengthEighths: 11, runningMinutes: null, synopsis: "Nets",
+  id: "s1",
+  number: "12",
+  setName: "Harbour wall",
+  intExt: "EXT",
+  timeOfDay: "DAY",
+  storyDay: 3,
+  storyOrder: 12,
+  lengthEighths: 11,
+  runningMinutes: null,
+  synopsis: "Nets",
   shootDays: [{ id: "d1", dayNumber: 1, date: "2030-09-02", kind: "shoot" }],
-  appearances: [{ id: "a1", sceneId: "s1", characterId: "c1", changeId: null, distressStage: 0, wet: false, stunt: false, blood: false, vfxShot: false, changeHere: false, notes: null, characterName: "Wren", change: null, minutesSincePreviousExit: null }],
+  appearances: [
+    {
+      id: "a1",
+      sceneId: "s1",
+      characterId: "c1",
+      changeId: null,
+      distressStage: 0,
+      wet: false,
+      stunt: false,
+      blood: false,
+      vfxShot: false,
+      changeHere: false,
+      notes: null,
+      characterName: "Wren",
+      change: null,
+      minutesSincePreviousExit: null,
+    },
+  ],
 };
 
 describe("asks before destroying work or e-mailing", () => {
   it("Team: withdrawing an invitation", async () => {
     const api = stubApi();
-    wrap(<InvitationsList productionId="p1" invitations={[{ id: "i1", email: "new@example.test", role: "designer", expiresAt: "2030-09-09", createdAt: "2030-09-02", status: "pending" }]} />);
+    wrap(
+      <InvitationsList
+        productionId="p1"
+        invitations={[
+          { id: "i1", email: "new@example.test", role: "designer", expiresAt: "2030-09-09", createdAt: "2030-09-02", status: "pending" },
+        ]}
+      />,
+    );
 
     const writes = await confirmFlow(api, () => fireEvent.click(screen.getByRole("button", { name: "Withdraw" })), "Withdraw invitation");
 
@@ -90,7 +124,17 @@ describe("asks before destroying work or e-mailing", () => {
 
   it("Team: removing a member", async () => {
     const api = stubApi();
-    wrap(<MembersTable productionId="p1" currentUserId="u0" members={[{ id: "m1", userId: "u1", name: "Tobias", email: "t@example.test", role: "set_costumer", joinedAt: "2030-09-02T00:00:00Z" }] as never} />);
+    wrap(
+      <MembersTable
+        productionId="p1"
+        currentUserId="u0"
+        members={
+          [
+            { id: "m1", userId: "u1", name: "Tobias", email: "t@example.test", role: "set_costumer", joinedAt: "2030-09-02T00:00:00Z" },
+          ] as never
+        }
+      />,
+    );
 
     const writes = await confirmFlow(api, () => fireEvent.click(screen.getByRole("button", { name: "Remove" })), "Remove from production");
 
@@ -99,7 +143,24 @@ describe("asks before destroying work or e-mailing", () => {
 
   it("Workroom: sending a failed e-mail again", async () => {
     const api = stubApi();
-    wrap(<EmailFailures productionId="p1" jobs={[{ id: "j1", kind: "fitting_invite", recipient: "performer@example.test", subject: "Fitting", status: "failed", attempts: 3, lastError: "timeout", sentAt: null, createdAt: "2030-09-02T10:00:00Z" }]} />);
+    wrap(
+      <EmailFailures
+        productionId="p1"
+        jobs={[
+          {
+            id: "j1",
+            kind: "fitting_invite",
+            recipient: "performer@example.test",
+            subject: "Fitting",
+            status: "failed",
+            attempts: 3,
+            lastError: "timeout",
+            sentAt: null,
+            createdAt: "2030-09-02T10:00:00Z",
+          },
+        ]}
+      />,
+    );
 
     fireEvent.click(screen.getByRole("button", { name: "Send again" }));
     expect(screen.getByText(/goes to performer@example.test/)).toBeTruthy();
@@ -110,7 +171,20 @@ describe("asks before destroying work or e-mailing", () => {
   });
 
   it("Photos: deleting a photo", async () => {
-    const api = stubApi({ "/productions/p1/photos": [{ id: "ph1", view: "front", caption: null, width: 10, height: 10, takenAt: null, createdAt: "2030-09-02T10:00:00Z", urls: { thumb: "", medium: "", large: "" } }] });
+    const api = stubApi({
+      "/productions/p1/photos": [
+        {
+          id: "ph1",
+          view: "front",
+          caption: null,
+          width: 10,
+          height: 10,
+          takenAt: null,
+          createdAt: "2030-09-02T10:00:00Z",
+          urls: { thumb: "", medium: "", large: "" },
+        },
+      ],
+    });
     wrap(<OwnerPhotos productionId="p1" ownerType="scene" ownerId="s1" canEdit />);
 
     const button = await screen.findByRole("button", { name: "Delete front photo" });
@@ -142,7 +216,13 @@ describe("asks before destroying work or e-mailing", () => {
 
   it("Cast: deleting a measurement set (the page's dialog is opened by this button)", () => {
     const onDelete = vi.fn();
-    wrap(<MeasurementHistory sets={[{ id: "m1", takenOn: "2030-09-01", valuesMm: { chest_girth: 980 }, notes: null, takenByName: null } as never]} unit="cm" onDelete={onDelete} />);
+    wrap(
+      <MeasurementHistory
+        sets={[{ id: "m1", takenOn: "2030-09-01", valuesMm: { chest_girth: 980 }, notes: null, takenByName: null } as never]}
+        unit="cm"
+        onDelete={onDelete}
+      />,
+    );
 
     fireEvent.click(screen.getByRole("button", { name: "Delete the set of Sun 1 Sep 2030" }));
 
@@ -151,7 +231,20 @@ describe("asks before destroying work or e-mailing", () => {
   });
 
   it("Digital doubles: deleting a seam", async () => {
-    const seam = { id: "se1", name: "Side seam", a: { panelId: "pa", panelName: "Front", from: 0, to: 1, direction: "forward" }, b: { panelId: "pb", panelName: "Back", from: 0, to: 1, direction: "forward" }, toleranceMm: null, effectiveToleranceMm: 3, eased: null, lengthA: 500, lengthB: 500, differenceMm: 0, status: "ok", message: "" };
+    const seam = {
+      id: "se1",
+      name: "Side seam",
+      a: { panelId: "pa", panelName: "Front", from: 0, to: 1, direction: "forward" },
+      b: { panelId: "pb", panelName: "Back", from: 0, to: 1, direction: "forward" },
+      toleranceMm: null,
+      effectiveToleranceMm: 3,
+      eased: null,
+      lengthA: 500,
+      lengthB: 500,
+      differenceMm: 0,
+      status: "ok",
+      message: "",
+    };
     const api = stubApi({ "/productions/p1/seams": [seam], "/productions/p1/panels": [] });
     wrap(<SeamsTab productionId="p1" change={{ id: "ch1", garments: [] } as unknown as DoublesChangeDto} canEdit />);
 
@@ -164,10 +257,37 @@ describe("asks before destroying work or e-mailing", () => {
 
 describe("the fitting: cancelling e-mails the performer, so it asks first", () => {
   const fitting: FittingDetailDto = {
-    id: "f1", performerId: "pf1", performerName: "Corwen Blakely", performerEmail: "corwen@example.test", changeId: "ch1", changeLabel: "Elias Marr · change 2",
-    startsAt: "2030-09-03T09:30:00Z", endsAt: "2030-09-03T10:00:00Z", durationMinutes: 30, room: null, attendeeIds: [], attendeeNames: [], notes: null, outcome: null, status: "booked", ticketCount: 0,
-    items: [{ changeItemId: "ci1", label: "Knitted muffler", garmentId: null, tagCode: null, garmentName: null, garmentStatus: null, fit: [], openTicketIds: [] }],
-    measurements: null, fitSnags: [], tickets: [],
+    id: "f1",
+    performerId: "pf1",
+    performerName: "Corwen Blakely",
+    performerEmail: "corwen@example.test",
+    changeId: "ch1",
+    changeLabel: "Elias Marr · change 2",
+    startsAt: "2030-09-03T09:30:00Z",
+    endsAt: "2030-09-03T10:00:00Z",
+    durationMinutes: 30,
+    room: null,
+    attendeeIds: [],
+    attendeeNames: [],
+    notes: null,
+    outcome: null,
+    status: "booked",
+    ticketCount: 0,
+    items: [
+      {
+        changeItemId: "ci1",
+        label: "Knitted muffler",
+        garmentId: null,
+        tagCode: null,
+        garmentName: null,
+        garmentStatus: null,
+        fit: [],
+        openTicketIds: [],
+      },
+    ],
+    measurements: null,
+    fitSnags: [],
+    tickets: [],
   } as unknown as FittingDetailDto;
   const options = { performers: [], changes: [], members: [] } as unknown as WorkroomOptionsDto;
 
@@ -175,7 +295,11 @@ describe("the fitting: cancelling e-mails the performer, so it asks first", () =
     const api = stubApi();
     wrap(<FittingView productionId="p1" fitting={fitting} options={options} units="cm" canEdit canLink />);
 
-    const writes = await confirmFlow(api, () => fireEvent.click(screen.getByRole("button", { name: "Cancel fitting…" })), "Cancel fitting and e-mail");
+    const writes = await confirmFlow(
+      api,
+      () => fireEvent.click(screen.getByRole("button", { name: "Cancel fitting…" })),
+      "Cancel fitting and e-mail",
+    );
 
     expect(screen.getByText(/e-mailed a cancellation at corwen@example.test/)).toBeTruthy();
     expect(writes).toEqual([{ method: "PATCH", url: "/api/productions/p1/fittings/f1", body: { status: "cancelled" } }]);
@@ -192,13 +316,61 @@ describe("the fitting: cancelling e-mails the performer, so it asks first", () =
 
 describe("the shoot-day editor", () => {
   const scenes = [
-    { id: "s1", number: "1", setName: "Quay", intExt: "EXT", timeOfDay: "DAY", storyDay: 1, storyOrder: 1, lengthEighths: 8, runningMinutes: null, synopsis: null, shootDays: [{ id: "d1", dayNumber: 1, date: "2030-09-02" }], characters: [] },
-    { id: "s2", number: "2", setName: "Chapel", intExt: "INT", timeOfDay: "NIGHT", storyDay: 1, storyOrder: 2, lengthEighths: 4, runningMinutes: null, synopsis: null, shootDays: [{ id: "d1", dayNumber: 1, date: "2030-09-02" }], characters: [] },
+    {
+      id: "s1",
+      number: "1",
+      setName: "Quay",
+      intExt: "EXT",
+      timeOfDay: "DAY",
+      storyDay: 1,
+      storyOrder: 1,
+      lengthEighths: 8,
+      runningMinutes: null,
+      synopsis: null,
+      shootDays: [{ id: "d1", dayNumber: 1, date: "2030-09-02" }],
+      characters: [],
+    },
+    {
+      id: "s2",
+      number: "2",
+      setName: "Chapel",
+      intExt: "INT",
+      timeOfDay: "NIGHT",
+      storyDay: 1,
+      storyOrder: 2,
+      lengthEighths: 4,
+      runningMinutes: null,
+      synopsis: null,
+      shootDays: [{ id: "d1", dayNumber: 1, date: "2030-09-02" }],
+      characters: [],
+    },
   ] as SceneRowDto[];
   const days: ShootDayDto[] = [
-    { id: "d1", dayNumber: 1, date: "2030-09-02", kind: "shoot", startsAt: "07:00", notes: null, scenes: [{ id: "s1", number: "1", position: 1, setName: "Quay", storyDay: 1 }, { id: "s2", number: "2", position: 2, setName: "Chapel", storyDay: 1 }] },
+    {
+      id: "d1",
+      dayNumber: 1,
+      date: "2030-09-02",
+      kind: "shoot",
+      startsAt: "07:00",
+      notes: null,
+      scenes: [
+        { id: "s1", number: "1", position: 1, setName: "Quay", storyDay: 1 },
+        { id: "s2", number: "2", position: 2, setName: "Chapel", storyDay: 1 },
+      ],
+    },
   ];
-  const editor = () => wrap(<ShootDayEditor productionId="p1" days={days} scenes={scenes} stage={false} canEdit today="2030-09-01" sceneHref={(id) => `/s/${id}`} />);
+  const editor = () =>
+    wrap(
+      <ShootDayEditor
+        productionId="p1"
+        days={days}
+        scenes={scenes}
+        stage={false}
+        canEdit
+        today="2030-09-01"
+        sceneHref={(id) => `/s/${id}`}
+      />,
+    );
 
   it("deleting a day asks first and says what happens to its scenes", async () => {
     const api = stubApi();
@@ -216,7 +388,12 @@ describe("the shoot-day editor", () => {
 
     fireEvent.click(screen.getByRole("button", { name: "Take off scene 1 from this day" }));
     const undo = await screen.findByRole("button", { name: "Undo" });
-    expect(screen.getAllByRole("status").map((x) => x.textContent).join(" ")).toContain("Scene 1 taken off Day 1.");
+    expect(
+      screen
+        .getAllByRole("status")
+        .map((x) => x.textContent)
+        .join(" "),
+    ).toContain("Scene 1 taken off Day 1.");
     fireEvent.click(undo);
 
     await waitFor(() => expect(api.writes()).toHaveLength(2));

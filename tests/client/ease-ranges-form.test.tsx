@@ -4,7 +4,18 @@ import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { EaseRangesForm } from "@/features/productions/components/ease-ranges-form";
 import type { ProductionDto } from "@shared/schemas/productions";
 
-const production: ProductionDto = { id: "p1", title: "Test", kind: "film", startsOn: null, endsOn: null, units: "cm", settings: {}, role: "supervisor", timeZone: "Europe/London", today: "2030-09-02" };
+const production: ProductionDto = {
+  id: "p1",
+  title: "Test",
+  kind: "film",
+  startsOn: null,
+  endsOn: null,
+  units: "cm",
+  settings: {},
+  role: "supervisor",
+  timeZone: "Europe/London",
+  today: "2030-09-02",
+};
 
 function json(status: number, body: unknown) {
   return new Response(JSON.stringify(body), { status, headers: { "Content-Type": "application/json" } });
@@ -17,7 +28,9 @@ afterEach(() => {
 
 describe("EaseRangesForm", () => {
   it("takes a range in the production's unit and saves it in millimetres", async () => {
-    const fetchMock = vi.fn(async (url: string, _init?: RequestInit) => (url === "/api/auth/csrf" ? json(200, { token: "t" }) : json(200, { data: production })));
+    const fetchMock = vi.fn(async (url: string, _init?: RequestInit) =>
+      url === "/api/auth/csrf" ? json(200, { token: "t" }) : json(200, { data: production }),
+    );
     vi.stubGlobal("fetch", fetchMock);
     render(
       <QueryClientProvider client={new QueryClient()}>
@@ -35,7 +48,9 @@ describe("EaseRangesForm", () => {
     await waitFor(() => expect(fetchMock.mock.calls.some(([u]) => u === "/api/productions/p1")).toBe(true));
     const call = fetchMock.mock.calls.find(([u]) => u === "/api/productions/p1")!;
     // 1 cm = 10 mm and 3.5 cm = 35 mm exactly (SI prefixes).
-    expect(JSON.parse(call[1]!.body as string)).toEqual({ settings: { easeOverrides: { jacket: { chest: { fitted: { min: 10, max: 35 } } } } } });
+    expect(JSON.parse(call[1]!.body as string)).toEqual({
+      settings: { easeOverrides: { jacket: { chest: { fitted: { min: 10, max: 35 } } } } },
+    });
   });
 
   it("refuses a maximum below the minimum and keeps the list unchanged", () => {

@@ -37,7 +37,13 @@ describe("InviteForm", () => {
   it("shows the server's field message (409 already a member) under the field", async () => {
     const fetchMock = vi.fn(async (url: string, _init?: RequestInit) => {
       if (url === "/api/auth/csrf") return jsonResponse(200, { token: "t" });
-      return jsonResponse(409, { error: { code: "conflict", message: "E-mail is already a member of this production", fields: { email: "E-mail is already a member of this production" } } });
+      return jsonResponse(409, {
+        error: {
+          code: "conflict",
+          message: "E-mail is already a member of this production",
+          fields: { email: "E-mail is already a member of this production" },
+        },
+      });
     });
     vi.stubGlobal("fetch", fetchMock);
     renderForm();

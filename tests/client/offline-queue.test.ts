@@ -15,7 +15,17 @@ const U = "user-a";
 let n = 0;
 function item(over: Partial<NewQueuedItem> = {}): NewQueuedItem {
   n += 1;
-  return { clientId: `c-${n}`, userId: U, productionId: "p1", kind: "continuity", summary: `Scene ${n}`, queuedAt: new Date(0).toISOString(), payload: { notes: `n${n}` }, photos: [], ...over };
+  return {
+    clientId: `c-${n}`,
+    userId: U,
+    productionId: "p1",
+    kind: "continuity",
+    summary: `Scene ${n}`,
+    queuedAt: new Date(0).toISOString(),
+    payload: { notes: `n${n}` },
+    photos: [],
+    ...over,
+  };
 }
 
 beforeEach(async () => {

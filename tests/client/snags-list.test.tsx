@@ -29,17 +29,50 @@ function snag(over: Partial<SnagDto>): SnagDto {
 
 const snags = [
   snag({ key: "a", severity: "note", title: "Loose coat", characters: [{ id: "c2", name: "Moss" }] }),
-  snag({ key: "b", severity: "blocking", kind: "multiples", title: "Oilskin short", shootDays: [{ id: "d1", date: "2027-01-11" }], characters: [{ id: "c1", name: "Wren" }] }),
-  snag({ key: "c", severity: "warning", title: "Tight jacket", evidence: { points: [{ point: "chest", ease: 10, min: 38.1, status: "tight", by: 28.1 }] }, characters: [{ id: "c1", name: "Wren" }] }),
+  snag({
+    key: "b",
+    severity: "blocking",
+    kind: "multiples",
+    title: "Oilskin short",
+    shootDays: [{ id: "d1", date: "2027-01-11" }],
+    characters: [{ id: "c1", name: "Wren" }],
+  }),
+  snag({
+    key: "c",
+    severity: "warning",
+    title: "Tight jacket",
+    evidence: { points: [{ point: "chest", ease: 10, min: 38.1, status: "tight", by: 28.1 }] },
+    characters: [{ id: "c1", name: "Wren" }],
+  }),
 ];
 
 const data: SnagListDto = {
   today: "2027-01-10",
   nextShootDay: { id: "d1", date: "2027-01-11", kind: "shoot" },
   snags,
-  counts: { total: 3, dismissed: 0, lapsed: 0, bySeverity: { blocking: 1, warning: 1, note: 1 }, byKind: { fit: 2, continuity: 0, multiples: 1, booking: 0, rental: 0, availability: 0, quick_change: 0, checkout_overdue: 0, workroom_late: 0, workroom_overbooked: 0 } },
+  counts: {
+    total: 3,
+    dismissed: 0,
+    lapsed: 0,
+    bySeverity: { blocking: 1, warning: 1, note: 1 },
+    byKind: {
+      fit: 2,
+      continuity: 0,
+      multiples: 1,
+      booking: 0,
+      rental: 0,
+      availability: 0,
+      quick_change: 0,
+      checkout_overdue: 0,
+      workroom_late: 0,
+      workroom_overbooked: 0,
+    },
+  },
   lapsedDismissals: [],
-  characters: [{ id: "c1", name: "Wren" }, { id: "c2", name: "Moss" }],
+  characters: [
+    { id: "c1", name: "Wren" },
+    { id: "c2", name: "Moss" },
+  ],
   shootDays: [{ id: "d1", date: "2027-01-11" }],
 };
 const filters: SnagFilters = { kind: "", characterId: "", shootDayId: "", includeDismissed: false };

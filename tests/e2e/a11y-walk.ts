@@ -15,9 +15,15 @@ export interface PageResult {
 /** Waits until the page's requests are done and no spinner is showing. */
 export async function settle(page: Page): Promise<void> {
   await page.waitForLoadState("networkidle").catch(() => undefined);
-  await page.locator('[role="status"][aria-busy="true"], .animate-spin').first().waitFor({ state: "detached", timeout: 10_000 }).catch(() => undefined);
+  await page
+    .locator('[role="status"][aria-busy="true"], .animate-spin')
+    .first()
+    .waitFor({ state: "detached", timeout: 10_000 })
+    .catch(() => undefined);
   // Colour transitions (a button turning primary) must end before contrast is measured.
-  await page.waitForFunction(() => document.getAnimations().every((a) => a.playState !== "running"), undefined, { timeout: 5_000 }).catch(() => undefined);
+  await page
+    .waitForFunction(() => document.getAnimations().every((a) => a.playState !== "running"), undefined, { timeout: 5_000 })
+    .catch(() => undefined);
   await page.waitForTimeout(100);
 }
 
@@ -96,7 +102,9 @@ export async function walkRole(page: Page, baseUrl: string, who: string): Promis
   const out: PageResult[] = [];
   await settle(page);
   const nav = page.getByRole("navigation", { name: "Screens" });
-  const links = await nav.locator("a[href]").evaluateAll((as) => as.map((a) => ({ href: a.getAttribute("href") ?? "", label: (a.textContent ?? "").trim() })));
+  const links = await nav
+    .locator("a[href]")
+    .evaluateAll((as) => as.map((a) => ({ href: a.getAttribute("href") ?? "", label: (a.textContent ?? "").trim() })));
   for (const l of links) {
     const url = new URL(l.href, baseUrl).toString();
     await page.goto(url);

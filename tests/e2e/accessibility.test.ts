@@ -35,17 +35,21 @@ describe("axe-core over every page and tab (no serious or critical violations)",
     ["set costumer", "setcostumer@seamscene.test"],
     ["cutter", "cutter@seamscene.test"],
     ["digital-double artist", "vfx@seamscene.test"],
-  ])("every screen, tab and record page of the %s", async (who, email) => {
-    const page = await browser().newPage({ viewport: { width: 1280, height: 900 } });
-    await signIn(page, baseUrl, email);
-    await page.waitForURL(/\/p\//);
+  ])(
+    "every screen, tab and record page of the %s",
+    async (who, email) => {
+      const page = await browser().newPage({ viewport: { width: 1280, height: 900 } });
+      await signIn(page, baseUrl, email);
+      await page.waitForURL(/\/p\//);
 
-    const results = await walkRole(page, baseUrl, who);
+      const results = await walkRole(page, baseUrl, who);
 
-    expect(results.length).toBeGreaterThan(0);
-    expect(failures(results)).toBe("");
-    await page.close();
-  }, 300_000);
+      expect(results.length).toBeGreaterThan(0);
+      expect(failures(results)).toBe("");
+      await page.close();
+    },
+    300_000,
+  );
 
   it("the stage production's screens as its supervisor", async () => {
     const page = await browser().newPage({ viewport: { width: 1280, height: 900 } });
@@ -88,7 +92,10 @@ describe("keyboard", () => {
     await page.keyboard.press("Tab");
     await page.keyboard.press("Tab");
     if (!(await switcher.evaluate((el) => el === document.activeElement))) await switcher.focus();
-    const outline = await switcher.evaluate((el) => ({ style: getComputedStyle(el).outlineStyle, width: parseFloat(getComputedStyle(el).outlineWidth) }));
+    const outline = await switcher.evaluate((el) => ({
+      style: getComputedStyle(el).outlineStyle,
+      width: parseFloat(getComputedStyle(el).outlineWidth),
+    }));
     expect(outline.style).not.toBe("none");
     expect(outline.width).toBeGreaterThanOrEqual(2);
 

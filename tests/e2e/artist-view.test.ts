@@ -44,7 +44,10 @@ describe("the artist's view of a packet", () => {
     // Every panel drawn, with its seams numbered; three garments.
     const panels = vfx.locator("section", { has: vfx.getByRole("heading", { name: "Panels" }) });
     expect(await panels.getByRole("img").count()).toBe(16);
-    await panels.getByRole("img", { name: /Keeper's jacket|jacket/i }).first().waitFor();
+    await panels
+      .getByRole("img", { name: /Keeper's jacket|jacket/i })
+      .first()
+      .waitFor();
     expect(await panels.getByRole("list", { name: "Seams" }).getByRole("listitem").count()).toBe(11);
 
     // Fabrics with measured / assumed marks and the cantilever re-test within 1 %.

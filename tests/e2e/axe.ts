@@ -19,9 +19,33 @@ export async function runAxe(page: Page): Promise<AxeViolation[]> {
   // Evaluated through the DevTools protocol, so the app's Content-Security-Policy (script-src 'self') stays as it is.
   if (!(await page.evaluate(() => "axe" in window))) await page.evaluate(axeSource);
   return page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: Array<{ id: string; impact: string | null; help: string; nodes: Array<{ target: string[]; failureSummary?: string }> }> }> } }).axe;
-    const r = await axe.run(document, { resultTypes: ["violations"], runOnly: { type: "tag", values: ["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "best-practice"] } });
-    return r.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, nodes: v.nodes.slice(0, 5).map((n) => ({ target: n.target.map(String), summary: (n.failureSummary ?? "").slice(0, 300) })) }));
+    const axe = (
+      window as unknown as {
+        axe: {
+          run: (
+            ctx: Document,
+            opts: object,
+          ) => Promise<{
+            violations: Array<{
+              id: string;
+              impact: string | null;
+              help: string;
+              nodes: Array<{ target: string[]; failureSummary?: string }>;
+            }>;
+          }>;
+        };
+      }
+    ).axe;
+    const r = await axe.run(document, {
+      resultTypes: ["violations"],
+      runOnly: { type: "tag", values: ["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "best-practice"] },
+    });
+    return r.violations.map((v) => ({
+      id: v.id,
+      impact: v.impact,
+      help: v.help,
+      nodes: v.nodes.slice(0, 5).map((n) => ({ target: n.target.map(String), summary: (n.failureSummary ?? "").slice(0, 300) })),
+    }));
   });
 }
 
@@ -36,5 +60,10 @@ export async function seriousViolations(page: Page): Promise<AxeViolation[]> {
 
 /** A short, readable list for a failing expectation. */
 export function describeViolations(vs: AxeViolation[]): string {
-  return vs.map((v) => `${v.impact} ${v.id}: ${v.help}\n${v.nodes.map((n) => `  ${n.target.join(" ")} — ${n.summary.replace(/\s+/g, " ")}`).join("\n")}`).join("\n");
+  return vs
+    .map(
+      (v) =>
+        `${v.impact} ${v.id}: ${v.help}\n${v.nodes.map((n) => `  ${n.target.join(" ")} — ${n.summary.replace(/\s+/g, " ")}`).join("\n")}`,
+    )
+    .join("\n");
 }

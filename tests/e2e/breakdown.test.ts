@@ -15,7 +15,9 @@ describe("continuity on a phone", () => {
   it("the set costumer logs a photo for a scene of a shoot day and sees it on the timeline", async () => {
     const page = await browser().newPage({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
     const note = `Cap pushed back, scarf knotted left (e2e ${Date.now()})`;
-    const photo = await sharp({ create: { width: 300, height: 400, channels: 3, background: "#3E5C4A" } }).jpeg().toBuffer();
+    const photo = await sharp({ create: { width: 300, height: 400, channels: 3, background: "#3E5C4A" } })
+      .jpeg()
+      .toBuffer();
 
     await signIn(page, baseUrl, "setcostumer@seamscene.test");
     await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
@@ -41,7 +43,9 @@ describe("continuity on a phone", () => {
     const thumbs = card.getByRole("img", { name: /Front view/ });
     expect(await thumbs.count()).toBeGreaterThanOrEqual(1);
     // The thumbnail is served through the authenticated route and decodes in the browser.
-    await expect.poll(async () => thumbs.first().evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0), { timeout: 10_000 }).toBe(true);
+    await expect
+      .poll(async () => thumbs.first().evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0), { timeout: 10_000 })
+      .toBe(true);
     await page.screenshot({ path: ".data/e2e-continuity.png" });
     await page.close();
   });

@@ -17,7 +17,10 @@ describe("the workroom calendar in Seamscene's words", () => {
     await signIn(page, baseUrl, "cutter@seamscene.test");
     await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
     // "Today" is the production's, from the server's clock: read it as the client does, never from this machine.
-    const production = (await (await page.request.get(`${baseUrl}/api/productions/${SALTMARSH_ID}`)).json()).data as { today: string; timeZone: string };
+    const production = (await (await page.request.get(`${baseUrl}/api/productions/${SALTMARSH_ID}`)).json()).data as {
+      today: string;
+      timeZone: string;
+    };
     const today = parseISO(production.today);
 
     await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/workroom`);
@@ -33,7 +36,10 @@ describe("the workroom calendar in Seamscene's words", () => {
     await expect.poll(async () => describeViolations(await seriousViolations(page))).toBe("");
 
     // Our palette: the production's today column in chalk-ochre, Merriweather Sans throughout.
-    const todayBg = await region.locator(".rbc-day-slot.rbc-today, .rbc-day-bg.rbc-today").first().evaluate((el) => getComputedStyle(el).backgroundColor);
+    const todayBg = await region
+      .locator(".rbc-day-slot.rbc-today, .rbc-day-bg.rbc-today")
+      .first()
+      .evaluate((el) => getComputedStyle(el).backgroundColor);
     expect(todayBg).toBe("rgb(249, 240, 224)");
     expect(await region.locator(".rbc-calendar").evaluate((el) => getComputedStyle(el).fontFamily)).toContain("Merriweather Sans");
 
@@ -57,7 +63,12 @@ describe("the workroom calendar in Seamscene's words", () => {
     await settle(page);
     expect(describeViolations(await seriousViolations(page))).toBe("");
     // The current-time line is madder (drawn only when the day shown is today).
-    expect(await region.locator(".rbc-current-time-indicator").first().evaluate((el) => getComputedStyle(el).backgroundColor)).toBe("rgb(181, 69, 46)");
+    expect(
+      await region
+        .locator(".rbc-current-time-indicator")
+        .first()
+        .evaluate((el) => getComputedStyle(el).backgroundColor),
+    ).toBe("rgb(181, 69, 46)");
     await page.screenshot({ path: ".data/e2e-calendar-day.png" });
     await page.close();
   });
@@ -72,7 +83,8 @@ describe("the workroom calendar in Seamscene's words", () => {
     await toolbar.waitFor();
     await settle(page);
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(768);
-    for (const name of ["Earlier", "This week", "Later", "Month", "Week", "One day"]) expect(await toolbar.getByRole("button", { name, exact: true }).isVisible()).toBe(true);
+    for (const name of ["Earlier", "This week", "Later", "Month", "Week", "One day"])
+      expect(await toolbar.getByRole("button", { name, exact: true }).isVisible()).toBe(true);
     expect(describeViolations(await seriousViolations(page))).toBe("");
     await page.screenshot({ path: ".data/e2e-calendar-week-768.png" });
 

@@ -36,7 +36,12 @@ describe("digital-double handoff", () => {
     const files = new Map(await Promise.all(zip.files.map(async (f) => [f.path, await f.buffer()] as const)));
     // sha256sum -c: every listed file matches.
     const sums = files.get("SHA256SUMS")!.toString("utf8").trim().split("\n");
-    for (const line of sums) expect(createHash("sha256").update(files.get(line.slice(66))!).digest("hex")).toBe(line.slice(0, 64));
+    for (const line of sums)
+      expect(
+        createHash("sha256")
+          .update(files.get(line.slice(66))!)
+          .digest("hex"),
+      ).toBe(line.slice(0, 64));
     expect(JSON.parse(files.get("manifest.json")!.toString("utf8")).version).toBe(2);
 
     await vfx.getByRole("button", { name: "Mark received" }).click();

@@ -49,12 +49,32 @@ describe("continuity without a signal", () => {
     const stamp = Date.now();
     const notes = [1, 2, 3].map((i) => `offline e2e ${stamp} #${i}`);
     // A scene on the first shoot day from today, deleted while its entry waits on the phone.
-    const day = (await db.query<{ id: string }>("SELECT id FROM shoot_days WHERE production_id = $1 AND date >= $2 ORDER BY date LIMIT 1", [SALTMARSH_ID, today])).rows[0]!;
-    const firstScene = (await db.query<{ number: string }>("SELECT s.number FROM shoot_day_scenes x JOIN scenes s ON s.id = x.scene_id WHERE x.shoot_day_id = $1 ORDER BY x.position LIMIT 1", [day.id])).rows[0]!.number;
+    const day = (
+      await db.query<{ id: string }>("SELECT id FROM shoot_days WHERE production_id = $1 AND date >= $2 ORDER BY date LIMIT 1", [
+        SALTMARSH_ID,
+        today,
+      ])
+    ).rows[0]!;
+    const firstScene = (
+      await db.query<{ number: string }>(
+        "SELECT s.number FROM shoot_day_scenes x JOIN scenes s ON s.id = x.scene_id WHERE x.shoot_day_id = $1 ORDER BY x.position LIMIT 1",
+        [day.id],
+      )
+    ).rows[0]!.number;
     const doomed = randomUUID();
     await db.query("INSERT INTO scenes (id, production_id, number, story_order) VALUES ($1, $2, 'E2E9', 9999)", [doomed, SALTMARSH_ID]);
-    await db.query("INSERT INTO appearances (id, production_id, scene_id, character_id) VALUES ($1, $2, $3, $4)", [randomUUID(), SALTMARSH_ID, doomed, characters.elias.id]);
-    await db.query("INSERT INTO shoot_day_scenes (id, production_id, shoot_day_id, scene_id, position) VALUES ($1, $2, $3, $4, 999)", [randomUUID(), SALTMARSH_ID, day.id, doomed]);
+    await db.query("INSERT INTO appearances (id, production_id, scene_id, character_id) VALUES ($1, $2, $3, $4)", [
+      randomUUID(),
+      SALTMARSH_ID,
+      doomed,
+      characters.elias.id,
+    ]);
+    await db.query("INSERT INTO shoot_day_scenes (id, production_id, shoot_day_id, scene_id, position) VALUES ($1, $2, $3, $4, 999)", [
+      randomUUID(),
+      SALTMARSH_ID,
+      day.id,
+      doomed,
+    ]);
 
     const context = await browser().newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
     const page = await context.newPage();
@@ -67,7 +87,9 @@ describe("continuity without a signal", () => {
       await page.waitForFunction(() => navigator.serviceWorker?.controller !== null, undefined, { timeout: 30_000 });
 
       await context.setOffline(true);
-      const photo = await sharp({ create: { width: 3000, height: 4000, channels: 3, background: "#5A4A3E" } }).jpeg().toBuffer();
+      const photo = await sharp({ create: { width: 3000, height: 4000, channels: 3, background: "#5A4A3E" } })
+        .jpeg()
+        .toBuffer();
       await capture(page, firstScene, notes[0]!, photo);
       await capture(page, firstScene, notes[1]!, photo);
       await capture(page, "E2E9", notes[2]!, photo, characters.elias.name);
@@ -80,7 +102,10 @@ describe("continuity without a signal", () => {
       const queue = page.getByRole("region", { name: "Waiting to be sent" });
       await queue.getByRole("listitem").nth(3).waitFor();
       await page.screenshot({ path: ".data/e2e-offline-queue.png" });
-      await queue.getByRole("button", { name: /^Cancel: / }).last().click();
+      await queue
+        .getByRole("button", { name: /^Cancel: / })
+        .last()
+        .click();
       await page.getByRole("dialog", { name: "Cancel this record?" }).getByRole("button", { name: "Cancel it" }).click();
       await expect.poll(() => page.getByTestId("queue-count").textContent()).toBe("3");
       expect((await db.query("SELECT 1 FROM continuity_entries WHERE notes = ANY($1)", [[...notes, cancelled]])).rowCount).toBe(0);
@@ -114,7 +139,14 @@ describe("continuity without a signal", () => {
       await expect.poll(() => queuedIds(page), { timeout: 60_000 }).toEqual([]);
       expect((await db.query("SELECT 1 FROM continuity_entries WHERE notes = $1", [cancelled])).rowCount).toBe(0);
       const rows = (
-        await db.query<{ id: string; notes: string; scene_id: string | null; client_id: string; review_reasons: Array<{ code: string }>; photos: number }>(
+        await db.query<{
+          id: string;
+          notes: string;
+          scene_id: string | null;
+          client_id: string;
+          review_reasons: Array<{ code: string }>;
+          photos: number;
+        }>(
           `SELECT e.id, e.notes, e.scene_id, e.client_id, e.review_reasons,
                   (SELECT count(*)::int FROM photos p WHERE p.owner_type = 'continuity_entry' AND p.owner_id = e.id) AS photos
              FROM continuity_entries e WHERE e.notes = ANY($1) ORDER BY e.notes`,
@@ -129,7 +161,12 @@ describe("continuity without a signal", () => {
       expect(JSON.stringify(rows[2]!.review_reasons)).toContain("scene_deleted");
       expect(rows[0]!.review_reasons).toEqual([]);
       // The photo was reduced on the phone: long edge 2,400 px (the server records the size it received).
-      const dims = (await db.query<{ width: number; height: number }>("SELECT width, height FROM photos WHERE owner_type = 'continuity_entry' AND owner_id = $1", [rows[0]!.id])).rows;
+      const dims = (
+        await db.query<{ width: number; height: number }>(
+          "SELECT width, height FROM photos WHERE owner_type = 'continuity_entry' AND owner_id = $1",
+          [rows[0]!.id],
+        )
+      ).rows;
       expect(dims).toEqual([{ width: 1800, height: 2400 }]);
 
       // The same queued record sent a second time: the server answers the stored entry, one row.

@@ -18,7 +18,10 @@ describe("tomorrow's rack list on a phone, as the demo set costumer", () => {
 
     await page.getByRole("link", { name: "Tomorrow's rack list" }).click();
     await page.getByRole("heading", { name: "Tomorrow's rack list" }).waitFor();
-    await page.getByRole("img", { name: /^QR code: check out / }).first().waitFor();
+    await page
+      .getByRole("img", { name: /^QR code: check out / })
+      .first()
+      .waitFor();
     await page.screenshot({ path: ".data/e2e-rack-list-phone.png", fullPage: true });
 
     // Read each code as another phone's camera would (a screenshot of the code, decoded by ZXing) and
@@ -28,7 +31,10 @@ describe("tomorrow's rack list on a phone, as the demo set costumer", () => {
     for (let i = 0; i < (await codes.count()) && !chosen; i++) {
       const code = codes.nth(i);
       const tag = (await code.getAttribute("data-qr-for"))!;
-      const status = await db.query<{ status: string }>("SELECT status FROM garments WHERE production_id = $1 AND tag_code = $2", [SALTMARSH_ID, tag]);
+      const status = await db.query<{ status: string }>("SELECT status FROM garments WHERE production_id = $1 AND tag_code = $2", [
+        SALTMARSH_ID,
+        tag,
+      ]);
       if (status.rows[0]?.status !== "in_stock") continue;
       await code.scrollIntoViewIfNeeded();
       const url = await decodeQr(await code.screenshot());
@@ -43,7 +49,10 @@ describe("tomorrow's rack list on a phone, as the demo set costumer", () => {
     expect(await page.getByLabel("Tag code").inputValue()).toBe(tag);
     expect(await page.getByRole("button", { name: "On set", exact: true }).getAttribute("aria-pressed")).toBe("true");
     await page.getByRole("button", { name: "Move to On set" }).click();
-    await page.getByRole("list", { name: "Scanned garments" }).getByText(/→ On set/).waitFor();
+    await page
+      .getByRole("list", { name: "Scanned garments" })
+      .getByText(/→ On set/)
+      .waitFor();
     await page.screenshot({ path: ".data/e2e-rack-list-checkout.png", fullPage: true });
 
     const after = await db.query<{ status: string; n: string }>(

@@ -136,7 +136,10 @@ describe("phone layout at 390 px", () => {
     }
     const today = await box(page, nav.getByRole("link", { name: "Today" }));
     // What is really on top at Today's centre is Today itself, not the header.
-    const onTop = await page.evaluate(([x, y]) => document.elementFromPoint(x!, y!)?.closest("a")?.textContent ?? null, [today.x + today.width / 2, today.y + today.height / 2]);
+    const onTop = await page.evaluate(
+      ([x, y]) => document.elementFromPoint(x!, y!)?.closest("a")?.textContent ?? null,
+      [today.x + today.width / 2, today.y + today.height / 2],
+    );
     expect(onTop).toBe("Today");
     await nav.getByRole("link", { name: "Today" }).click();
     await page.waitForURL(/\/today$/);
@@ -271,7 +274,10 @@ describe("Team's recent changes", () => {
     await page.getByRole("table", { name: "Status history" }).getByText("Cleaning").first().waitFor();
 
     await page.goto(`${P}/team`);
-    const link = page.getByRole("list", { name: "Recent changes" }).getByRole("link", { name: `${g.tagCode} ${g.name}` }).first();
+    const link = page
+      .getByRole("list", { name: "Recent changes" })
+      .getByRole("link", { name: `${g.tagCode} ${g.name}` })
+      .first();
     await link.waitFor();
     await link.click();
 
@@ -303,11 +309,14 @@ describe("fabric tests before cutting", () => {
     const page = await browser().newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, baseUrl, "cutter@seamscene.test");
     await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
-    const fabrics = (await (await page.request.get(`${baseUrl}/api/productions/${SALTMARSH_ID}/fabrics`)).json()) as { data: Array<{ id: string; name: string }> };
+    const fabrics = (await (await page.request.get(`${baseUrl}/api/productions/${SALTMARSH_ID}/fabrics`)).json()) as {
+      data: Array<{ id: string; name: string }>;
+    };
     const fabric = fabrics.data[0]!;
     const made: string[] = [];
     page.on("response", async (r) => {
-      if (r.request().method() === "POST" && /\/fabrics\/[^/]+\/tests$/.test(r.url()) && r.status() === 201) made.push(((await r.json()) as { data: { id: string } }).data.id);
+      if (r.request().method() === "POST" && /\/fabrics\/[^/]+\/tests$/.test(r.url()) && r.status() === 201)
+        made.push(((await r.json()) as { data: { id: string } }).data.id);
     });
     try {
       await page.goto(`${P}/fabrics/${fabric.id}`);
@@ -351,7 +360,10 @@ describe("fabric tests before cutting", () => {
       await page.screenshot({ path: ".data/e2e-care-tests.png", fullPage: true });
     } finally {
       const csrf = ((await (await page.request.get(`${baseUrl}/api/auth/csrf`)).json()) as { token: string }).token;
-      for (const id of made) await page.request.delete(`${baseUrl}/api/productions/${SALTMARSH_ID}/fabrics/${fabric.id}/tests/${id}`, { headers: { "X-CSRF-Token": csrf } });
+      for (const id of made)
+        await page.request.delete(`${baseUrl}/api/productions/${SALTMARSH_ID}/fabrics/${fabric.id}/tests/${id}`, {
+          headers: { "X-CSRF-Token": csrf },
+        });
       await page.close();
     }
   });

@@ -17,11 +17,21 @@ async function call<T>(page: Page, method: "GET" | "POST" | "PATCH" | "DELETE", 
   if (method !== "GET") headers["X-CSRF-Token"] = ((await (await req.get(`${baseUrl}/api/auth/csrf`)).json()) as { token: string }).token;
   const res = await req.fetch(url, { method, headers, data: body });
   expect(res.ok(), `${method} ${url}: ${res.status()} ${await res.text()}`).toBe(true);
-  return res.status() === 204 ? (undefined as T) : (((await res.json()) as { data: T }).data);
+  return res.status() === 204 ? (undefined as T) : ((await res.json()) as { data: T }).data;
 }
 
-interface Day { id: string; dayNumber: number; date: string; kind: string; scenes: Array<{ id: string; number: string }> }
-interface Snag { kind: string; title: string; shootDays: Array<{ id: string; date: string }> }
+interface Day {
+  id: string;
+  dayNumber: number;
+  date: string;
+  kind: string;
+  scenes: Array<{ id: string; number: string }>;
+}
+interface Snag {
+  kind: string;
+  title: string;
+  shootDays: Array<{ id: string; date: string }>;
+}
 
 async function signedIn(email: string, width = 1280) {
   const page = await browser().newPage({ viewport: { width, height: 900 } });
@@ -41,40 +51,43 @@ describe("the shoot-day editor", () => {
     const original = day.scenes.map((s) => s.number);
     const last = original.at(-1)!;
     try {
-    await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/breakdown`);
-    await page.getByRole("tab", { name: "Shoot days" }).click();
-    await page.getByRole("navigation", { name: "Shoot days" }).getByRole("button", { name: new RegExp(`^Day ${day.dayNumber} · ${day.date}`) }).click();
-    const list = page.getByRole("list", { name: `Scenes of Day ${day.dayNumber}` });
-    await list.waitFor();
-    const panel = page.getByRole("region", { name: `Snags for ${day.date}` });
-    await panel.getByText(snag.title).waitFor();
-    const order = async () => (await list.getByRole("link").allTextContents()).map((t) => t.replace("Scene ", ""));
+      await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/breakdown`);
+      await page.getByRole("tab", { name: "Shoot days" }).click();
+      await page
+        .getByRole("navigation", { name: "Shoot days" })
+        .getByRole("button", { name: new RegExp(`^Day ${day.dayNumber} · ${day.date}`) })
+        .click();
+      const list = page.getByRole("list", { name: `Scenes of Day ${day.dayNumber}` });
+      await list.waitFor();
+      const panel = page.getByRole("region", { name: `Snags for ${day.date}` });
+      await panel.getByText(snag.title).waitFor();
+      const order = async () => (await list.getByRole("link").allTextContents()).map((t) => t.replace("Scene ", ""));
 
-    // Keyboard: lift the last scene, move it up to the top, drop it.
-    const handle = list.getByRole("button", { name: new RegExp(`^Reorder scene ${last} `) });
-    await handle.focus();
-    await page.keyboard.press("Space");
-    await page.waitForTimeout(300);
-    for (let i = 1; i < original.length; i++) {
-      await page.keyboard.press("ArrowUp");
-      await page.waitForTimeout(500);
-    }
-    await page.keyboard.press("Space");
-    await expect.poll(order).toEqual([last, ...original.slice(0, -1)]);
-    await expect.poll(async () => panel.getByText(snag.title).count(), { timeout: 10_000 }).toBe(0);
-    await page.screenshot({ path: ".data/e2e-shoot-day-reordered.png", fullPage: true });
+      // Keyboard: lift the last scene, move it up to the top, drop it.
+      const handle = list.getByRole("button", { name: new RegExp(`^Reorder scene ${last} `) });
+      await handle.focus();
+      await page.keyboard.press("Space");
+      await page.waitForTimeout(300);
+      for (let i = 1; i < original.length; i++) {
+        await page.keyboard.press("ArrowUp");
+        await page.waitForTimeout(500);
+      }
+      await page.keyboard.press("Space");
+      await expect.poll(order).toEqual([last, ...original.slice(0, -1)]);
+      await expect.poll(async () => panel.getByText(snag.title).count(), { timeout: 10_000 }).toBe(0);
+      await page.screenshot({ path: ".data/e2e-shoot-day-reordered.png", fullPage: true });
 
-    // Mouse: drag that scene from the top back to the bottom; the snag is back.
-    const from = await list.getByRole("button", { name: new RegExp(`^Reorder scene ${last} `) }).boundingBox();
-    const to = await list.getByRole("button", { name: new RegExp(`^Reorder scene ${original.at(-2)} `) }).boundingBox();
-    await page.mouse.move(from!.x + from!.width / 2, from!.y + from!.height / 2);
-    await page.mouse.down();
-    await page.mouse.move(from!.x + from!.width / 2, from!.y + from!.height / 2 + 10, { steps: 3 });
-    await page.mouse.move(to!.x + to!.width / 2, to!.y + to!.height / 2 + 12, { steps: 12 });
-    await page.mouse.up();
-    await expect.poll(order).toEqual(original);
-    await panel.getByText(snag.title).waitFor({ timeout: 10_000 });
-    expect((await call<Day>(page, "GET", `${api}/shoot-days/${day.id}`)).scenes.map((s) => s.number)).toEqual(original);
+      // Mouse: drag that scene from the top back to the bottom; the snag is back.
+      const from = await list.getByRole("button", { name: new RegExp(`^Reorder scene ${last} `) }).boundingBox();
+      const to = await list.getByRole("button", { name: new RegExp(`^Reorder scene ${original.at(-2)} `) }).boundingBox();
+      await page.mouse.move(from!.x + from!.width / 2, from!.y + from!.height / 2);
+      await page.mouse.down();
+      await page.mouse.move(from!.x + from!.width / 2, from!.y + from!.height / 2 + 10, { steps: 3 });
+      await page.mouse.move(to!.x + to!.width / 2, to!.y + to!.height / 2 + 12, { steps: 12 });
+      await page.mouse.up();
+      await expect.poll(order).toEqual(original);
+      await panel.getByText(snag.title).waitFor({ timeout: 10_000 });
+      expect((await call<Day>(page, "GET", `${api}/shoot-days/${day.id}`)).scenes.map((s) => s.number)).toEqual(original);
     } finally {
       // Whatever happened, the demo day gets its order back for the other tests.
       await call(page, "PATCH", `${api}/shoot-days/${day.id}`, { sceneIds: day.scenes.map((s) => s.id) });
@@ -103,7 +116,10 @@ describe("the shoot-day editor", () => {
 
     for (const n of candidates) {
       const select = section.getByLabel("Put a scene on this day");
-      const value = await select.locator("option", { hasText: new RegExp(`^${n} `) }).first().getAttribute("value");
+      const value = await select
+        .locator("option", { hasText: new RegExp(`^${n} `) })
+        .first()
+        .getAttribute("value");
       await select.selectOption(value!);
       await section.getByRole("button", { name: "Add to day" }).click();
       await section.getByRole("link", { name: `Scene ${n}` }).waitFor();
@@ -120,7 +136,10 @@ describe("the shoot-day editor", () => {
     await section.getByRole("button", { name: "Move", exact: true }).first().click();
     await section.getByRole("alert").getByText(`is already on day ${lastDay.dayNumber}`).waitFor();
     // A day that does not have it: the day before the last.
-    const other = [...days].sort((a, b) => a.date.localeCompare(b.date)).reverse().find((d) => d.kind === "shoot" && !d.scenes.some((s) => s.number === candidates[0]))!;
+    const other = [...days]
+      .sort((a, b) => a.date.localeCompare(b.date))
+      .reverse()
+      .find((d) => d.kind === "shoot" && !d.scenes.some((s) => s.number === candidates[0]))!;
     const otherValue = await moveSelect.locator("option", { hasText: `Day ${other.dayNumber} · ${other.date}` }).getAttribute("value");
     await moveSelect.selectOption(otherValue!);
     await section.getByRole("button", { name: "Move", exact: true }).first().click();
@@ -150,13 +169,19 @@ describe("the shoot-day editor", () => {
     expect((await call<Day[]>(page, "GET", `${api}/shoot-days?pageSize=500`)).some((d) => d.dayNumber === number)).toBe(true);
     await redated.getByRole("button", { name: "Delete shoot day" }).click();
     await dialog.getByRole("button", { name: `Delete day ${number}` }).click();
-    await expect.poll(async () => (await call<Day[]>(page, "GET", `${api}/shoot-days?pageSize=500`)).some((d) => d.dayNumber === number)).toBe(false);
+    await expect
+      .poll(async () => (await call<Day[]>(page, "GET", `${api}/shoot-days?pageSize=500`)).some((d) => d.dayNumber === number))
+      .toBe(false);
     await page.close();
   });
 
   it("edits a scene in the form and refuses a page length that is not in eighths", async () => {
     const page = await signedIn("designer@seamscene.test");
-    const scenes = await call<Array<{ id: string; number: string; synopsis: string | null; setName: string | null }>>(page, "GET", `${api}/scenes?pageSize=5000`);
+    const scenes = await call<Array<{ id: string; number: string; synopsis: string | null; setName: string | null }>>(
+      page,
+      "GET",
+      `${api}/scenes?pageSize=5000`,
+    );
     const scene = scenes[0]!;
 
     await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/breakdown/scenes/${scene.id}`);
@@ -180,7 +205,17 @@ describe("the shoot-day editor", () => {
 describe("the breakdown import merges and shows old → new first", () => {
   it("a file with only scene and synopsis shows the change per field, imports it and keeps every other field", async () => {
     const page = await signedIn("designer@seamscene.test");
-    const scenes = await call<Array<{ id: string; number: string; synopsis: string | null; setName: string | null; intExt: string | null; storyDay: number | null; lengthEighths: number | null }>>(page, "GET", `${api}/scenes?pageSize=5000`);
+    const scenes = await call<
+      Array<{
+        id: string;
+        number: string;
+        synopsis: string | null;
+        setName: string | null;
+        intExt: string | null;
+        storyDay: number | null;
+        lengthEighths: number | null;
+      }>
+    >(page, "GET", `${api}/scenes?pageSize=5000`);
     const scene = scenes.find((s) => s.synopsis && s.setName)!;
     const csv = `scene,synopsis\r\n${scene.number},"Merged by the end-to-end test"\r\n`;
 
@@ -192,7 +227,10 @@ describe("the breakdown import merges and shows old → new first", () => {
     expect(await template.text()).toContain("# shoot_position:");
     await page.getByLabel("Import a CSV file").setInputFiles({ name: "synopsis.csv", mimeType: "text/csv", buffer: Buffer.from(csv) });
     const preview = page.getByRole("region", { name: "Import preview" });
-    const row = preview.getByRole("table", { name: "Changes per row" }).getByRole("row").filter({ hasText: "Merged by the end-to-end test" });
+    const row = preview
+      .getByRole("table", { name: "Changes per row" })
+      .getByRole("row")
+      .filter({ hasText: "Merged by the end-to-end test" });
     await row.waitFor();
     const cells = (await row.getByRole("cell").allTextContents()).map((t) => t.replace(/\s+/g, " ").trim());
     expect(cells.slice(0, 3)).toEqual(["2", scene.number, "changed"]);
@@ -204,7 +242,13 @@ describe("the breakdown import merges and shows old → new first", () => {
     await preview.getByRole("button", { name: "Import 1 row" }).click();
     await preview.getByText(/Imported: 0 new and 1 changed scenes/).waitFor();
     const after = await call<typeof scene>(page, "GET", `${api}/scenes/${scene.id}`);
-    expect(after).toMatchObject({ synopsis: "Merged by the end-to-end test", setName: scene.setName, intExt: scene.intExt, storyDay: scene.storyDay, lengthEighths: scene.lengthEighths });
+    expect(after).toMatchObject({
+      synopsis: "Merged by the end-to-end test",
+      setName: scene.setName,
+      intExt: scene.intExt,
+      storyDay: scene.storyDay,
+      lengthEighths: scene.lengthEighths,
+    });
     await call(page, "PATCH", `${api}/scenes/${scene.id}`, { synopsis: scene.synopsis });
     await page.close();
   });
@@ -213,7 +257,9 @@ describe("the breakdown import merges and shows old → new first", () => {
 describe("a fitting with a change item that has no garment", () => {
   it("the cutter adds the garment at the fitting, raises the ticket, and cancelling the fitting asks first", async () => {
     const supervisor = await signedIn("supervisor@seamscene.test");
-    const changes = await call<Array<{ id: string; characterId: string; items: Array<{ label: string; garmentId: string | null; multiplesGroupId: string | null }> }>>(supervisor, "GET", `${api}/changes`);
+    const changes = await call<
+      Array<{ id: string; characterId: string; items: Array<{ label: string; garmentId: string | null; multiplesGroupId: string | null }> }>
+    >(supervisor, "GET", `${api}/changes`);
     const characters = await call<Array<{ id: string; performer: { id: string } | null }>>(supervisor, "GET", `${api}/characters`);
     const performerOf = (c: { characterId: string }) => characters.find((x) => x.id === c.characterId)?.performer?.id;
     const change = changes.filter((c) => c.items.some((i) => !i.garmentId && !i.multiplesGroupId) && performerOf(c)).at(-1)!;
@@ -221,7 +267,13 @@ describe("a fitting with a change item that has no garment", () => {
     const item = change.items.find((i) => !i.garmentId && !i.multiplesGroupId)!;
     const performerId = performerOf(change)!;
     const today = (await call<{ today: string }>(supervisor, "GET", `${baseUrl}/api/productions/${SALTMARSH_ID}`)).today;
-    const fitting = await call<{ id: string; performerName: string }>(supervisor, "POST", `${api}/fittings`, { performerId, changeId: change.id, startsAt: `${today}T15:00:00Z`, durationMinutes: 30, room: "E2E room" });
+    const fitting = await call<{ id: string; performerName: string }>(supervisor, "POST", `${api}/fittings`, {
+      performerId,
+      changeId: change.id,
+      startsAt: `${today}T15:00:00Z`,
+      durationMinutes: 30,
+      room: "E2E room",
+    });
     await supervisor.close();
 
     const page = await signedIn("cutter@seamscene.test", 820);
@@ -246,7 +298,11 @@ describe("a fitting with a change item that has no garment", () => {
     await ticket.getByLabel("Estimated hours").fill("1");
     await ticket.getByRole("button", { name: "Raise ticket" }).click();
     await page.getByRole("list", { name: "Tickets from this fitting" }).getByText(item.label).waitFor();
-    const detail = await call<{ tickets: Array<{ id: string }>; items: Array<{ label: string; garmentId: string | null }> }>(page, "GET", `${api}/fittings/${fitting.id}`);
+    const detail = await call<{ tickets: Array<{ id: string }>; items: Array<{ label: string; garmentId: string | null }> }>(
+      page,
+      "GET",
+      `${api}/fittings/${fitting.id}`,
+    );
     expect(detail.items.find((i) => i.label === item.label)?.garmentId).toBeTruthy();
     await page.screenshot({ path: ".data/e2e-fitting-linked.png", fullPage: true });
 
@@ -260,7 +316,8 @@ describe("a fitting with a change item that has no garment", () => {
     await dialog.getByRole("button", { name: "Cancel fitting and e-mail" }).click();
     await expect.poll(async () => (await call<{ status: string }>(page, "GET", `${api}/fittings/${fitting.id}`)).status).toBe("cancelled");
     // Put the workroom's hours back for the other tests: the ticket is finished.
-    for (const t of detail.tickets) for (const status of ["in_progress", "done"]) await call(page, "POST", `${api}/alterations/${t.id}/status`, { status });
+    for (const t of detail.tickets)
+      for (const status of ["in_progress", "done"]) await call(page, "POST", `${api}/alterations/${t.id}/status`, { status });
     await page.close();
   });
 });

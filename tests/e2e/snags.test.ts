@@ -33,7 +33,9 @@ describe("Snags screen for the demo supervisor", () => {
     await signIn(page, baseUrl, "designer@seamscene.test");
     await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
     await page.goto(`${baseUrl}/p/${SALTMARSH_ID}/snags`);
-    const maud = page.getByRole("region", { name: "All snags" }).getByRole("article", { name: /Maud Penhallow: change 2 → 3 within story day 4/ });
+    const maud = page
+      .getByRole("region", { name: "All snags" })
+      .getByRole("article", { name: /Maud Penhallow: change 2 → 3 within story day 4/ });
     await maud.waitFor();
 
     await maud.getByRole("button", { name: "Dismiss…" }).click();

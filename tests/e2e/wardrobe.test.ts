@@ -36,7 +36,13 @@ describe("measurements as the demo cutter", () => {
     // 40 in × 25.4 = 1016 mm exactly → 101.6 cm in the production's unit.
     expect(await chestRow.locator("td").first().textContent()).toContain("101.6 cm");
     // 32 1/2 in = 825.5 mm → 82.6 cm (rounded half away from zero).
-    expect(await history.getByRole("row", { name: /Waist girth/ }).locator("td").first().textContent()).toContain("82.6 cm");
+    expect(
+      await history
+        .getByRole("row", { name: /Waist girth/ })
+        .locator("td")
+        .first()
+        .textContent(),
+    ).toContain("82.6 cm");
     const sizes = page.getByLabel("Sizes");
     // Men's chest 101.6 cm: grid point 102, whose letter is L ([102, 110) cm, edge → larger; the letter follows
     // the designated value so the two agree); height 177.8 cm → 176 on the 6 cm grid.

@@ -17,7 +17,11 @@ describe("the workroom as the demo cutter", () => {
     await signIn(page, baseUrl, "cutter@seamscene.test");
     await page.getByRole("heading", { name: "Today", exact: true }).waitFor();
     await page.goto(workroom);
-    await page.getByRole("list", { name: "Fittings" }).getByRole("link", { name: /Corwen Blakely/ }).first().click();
+    await page
+      .getByRole("list", { name: "Fittings" })
+      .getByRole("link", { name: /Corwen Blakely/ })
+      .first()
+      .click();
     await page.getByRole("heading", { name: "Fitting: Corwen Blakely" }).waitFor();
 
     // One tap on the garment, then the ticket form.
@@ -37,7 +41,11 @@ describe("the workroom as the demo cutter", () => {
     const finish = await row.locator("[data-planned-finish]").getAttribute("data-planned-finish");
     expect(finish).toMatch(/^\d{4}-\d{2}-\d{2}$/);
     await page.goto(`${workroom}?tab=calendar&view=day&date=${finish}`);
-    await page.getByRole("region", { name: "Workroom calendar" }).getByText(/25M-K4G Hobnail boots · 2 h/).first().waitFor();
+    await page
+      .getByRole("region", { name: "Workroom calendar" })
+      .getByText(/25M-K4G Hobnail boots · 2 h/)
+      .first()
+      .waitFor();
     await page.screenshot({ path: ".data/e2e-workroom-calendar.png" });
 
     await page.goto(`${workroom}?tab=tickets`);
@@ -57,7 +65,9 @@ describe("the workroom as the demo cutter", () => {
     const snags = page.getByRole("region", { name: "Workroom snags" });
     await snags.getByText("97Y-JUG Keeper's jacket: alteration late by 1 working day").waitFor();
 
-    expect(await snags.textContent()).toContain(`It would not be ready for the shoot on ${format(parseISO(shootDay(4)), "EEE d MMM yyyy")}`);
+    expect(await snags.textContent()).toContain(
+      `It would not be ready for the shoot on ${format(parseISO(shootDay(4)), "EEE d MMM yyyy")}`,
+    );
     await page.close();
   });
 });

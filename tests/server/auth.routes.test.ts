@@ -57,7 +57,8 @@ describe("POST /api/auth/login", () => {
     const anon = await anonymousAgent(app);
     const statuses: number[] = [];
 
-    for (let i = 0; i < 6; i++) statuses.push((await anon.post("/api/auth/login", { email: "a@test.invalid", password: "nope-nope" })).status);
+    for (let i = 0; i < 6; i++)
+      statuses.push((await anon.post("/api/auth/login", { email: "a@test.invalid", password: "nope-nope" })).status);
 
     // LOGIN_MAX_FAILURES is 5 in tests: five 401s, then refused even before the password is checked.
     expect(statuses).toEqual([401, 401, 401, 401, 401, 429]);

@@ -21,7 +21,14 @@ describe("POST /api/auth/login throttle", () => {
     config.LOGIN_MAX_FAILURES = 5;
     await buildUser({ email: "designer@test.invalid" });
     const anon = await anonymousAgent(app);
-    const variants = ["designer@test.invalid", " designer@test.invalid", "Designer@test.invalid", "designer@test.invalid ", "\tDESIGNER@test.invalid", " Designer@Test.Invalid "];
+    const variants = [
+      "designer@test.invalid",
+      " designer@test.invalid",
+      "Designer@test.invalid",
+      "designer@test.invalid ",
+      "\tDESIGNER@test.invalid",
+      " Designer@Test.Invalid ",
+    ];
     const statuses: number[] = [];
 
     for (const email of variants) statuses.push((await anon.post("/api/auth/login", { email, password: "wrong-password" })).status);
@@ -33,7 +40,8 @@ describe("POST /api/auth/login throttle", () => {
     config.LOGIN_MAX_FAILURES = 3;
     await buildUser({ email: "designer@test.invalid" });
     const anon = await anonymousAgent(app);
-    for (let i = 0; i < 3; i++) await anon.post("/api/auth/login", { email: "designer@test.invalid", password: "wrong-password" }).expect(401);
+    for (let i = 0; i < 3; i++)
+      await anon.post("/api/auth/login", { email: "designer@test.invalid", password: "wrong-password" }).expect(401);
 
     const spaced = await anon.post("/api/auth/login", { email: " designer@test.invalid", password: TEST_PASSWORD });
     const upper = await anon.post("/api/auth/login", { email: "DESIGNER@TEST.INVALID", password: TEST_PASSWORD });
@@ -61,7 +69,9 @@ describe("POST /api/auth/login throttle", () => {
     const statuses: number[] = [];
 
     // Two wrong guesses per account: no single account reaches its limit of 5.
-    for (const u of users) for (let i = 0; i < 2; i++) statuses.push((await anon.post("/api/auth/login", { email: u.email, password: "wrong-password" })).status);
+    for (const u of users)
+      for (let i = 0; i < 2; i++)
+        statuses.push((await anon.post("/api/auth/login", { email: u.email, password: "wrong-password" })).status);
     const rightPassword = await anon.post("/api/auth/login", { email: users[0]!.email, password: TEST_PASSWORD });
 
     expect(statuses).toEqual([401, 401, 401, 401, 401, 401, 429, 429]);
@@ -74,7 +84,8 @@ describe("POST /api/auth/login throttle", () => {
     const user = await buildUser({ email: "often@test.invalid" });
     const statuses: number[] = [];
 
-    for (let i = 0; i < 4; i++) statuses.push((await (await anonymousAgent(app)).post("/api/auth/login", { email: user.email, password: TEST_PASSWORD })).status);
+    for (let i = 0; i < 4; i++)
+      statuses.push((await (await anonymousAgent(app)).post("/api/auth/login", { email: user.email, password: TEST_PASSWORD })).status);
 
     expect(statuses).toEqual([200, 200, 200, 200]);
   });

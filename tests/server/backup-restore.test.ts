@@ -39,7 +39,9 @@ async function rowCounts(url: string): Promise<Record<string, number>> {
   const c = new pg.Client({ connectionString: url });
   await c.connect();
   try {
-    const { rows } = await c.query<{ t: string }>(`SELECT format('%I.%I', schemaname, tablename) AS t FROM pg_tables WHERE schemaname NOT IN ('pg_catalog', 'information_schema') ORDER BY 1`);
+    const { rows } = await c.query<{ t: string }>(
+      `SELECT format('%I.%I', schemaname, tablename) AS t FROM pg_tables WHERE schemaname NOT IN ('pg_catalog', 'information_schema') ORDER BY 1`,
+    );
     const out: Record<string, number> = {};
     for (const r of rows) out[r.t] = Number((await c.query<{ n: string }>(`SELECT count(*) AS n FROM ${r.t}`)).rows[0]!.n);
     return out;
@@ -50,7 +52,10 @@ async function rowCounts(url: string): Promise<Record<string, number>> {
 
 async function fileHashes(storage: Storage): Promise<Record<string, string>> {
   const out: Record<string, string> = {};
-  for (const f of await storage.list()) out[f.key] = createHash("sha256").update(await storage.get(f.key)).digest("hex");
+  for (const f of await storage.list())
+    out[f.key] = createHash("sha256")
+      .update(await storage.get(f.key))
+      .digest("hex");
   return out;
 }
 
@@ -64,14 +69,29 @@ describe("backup and restore", () => {
     await seedDemo();
 
     const archive = path.join(root, "out", "demo.tar");
-    const backup = spawnTsx(["scripts/backup.ts", "--out", archive], childEnv({ DATABASE_URL: process.env.DATABASE_URL, STORAGE_DRIVER: "disk", STORAGE_DIR: sourceDir, DATA_DIR: path.join(root, "data") }));
+    const backup = spawnTsx(
+      ["scripts/backup.ts", "--out", archive],
+      childEnv({
+        DATABASE_URL: process.env.DATABASE_URL,
+        STORAGE_DRIVER: "disk",
+        STORAGE_DIR: sourceDir,
+        DATA_DIR: path.join(root, "data"),
+      }),
+    );
     expect(await backup.exited, backup.output()).toBe(0);
     expect(fs.statSync(archive).mode & 0o777).toBe(0o600);
 
     await dropDatabase(inject("testPg").adminUrl, restoredDb);
     const restoredUrl = await ensureDatabase(databaseAdmin(inject("testPg")), restoredDb);
     const bucket = "restored-demo";
-    const s3env = { STORAGE_DRIVER: "s3", S3_ENDPOINT: `http://127.0.0.1:${s3port}`, S3_BUCKET: bucket, S3_ACCESS_KEY_ID: "S3RVER", S3_SECRET_ACCESS_KEY: "S3RVER", DATA_DIR: path.join(root, "data") };
+    const s3env = {
+      STORAGE_DRIVER: "s3",
+      S3_ENDPOINT: `http://127.0.0.1:${s3port}`,
+      S3_BUCKET: bucket,
+      S3_ACCESS_KEY_ID: "S3RVER",
+      S3_SECRET_ACCESS_KEY: "S3RVER",
+      DATA_DIR: path.join(root, "data"),
+    };
     const restore = spawnTsx(["scripts/restore.ts", archive], childEnv({ DATABASE_URL: restoredUrl, ...s3env }));
     expect(await restore.exited, restore.output()).toBe(0);
 
@@ -82,7 +102,13 @@ describe("backup and restore", () => {
     expect(before["public.packets"]).toBeGreaterThan(0);
     expect(after).toEqual(before);
 
-    const restoredStorage = createS3Storage({ endpoint: s3env.S3_ENDPOINT, region: "us-east-1", bucket, accessKeyId: "S3RVER", secretAccessKey: "S3RVER" });
+    const restoredStorage = createS3Storage({
+      endpoint: s3env.S3_ENDPOINT,
+      region: "us-east-1",
+      bucket,
+      accessKeyId: "S3RVER",
+      secretAccessKey: "S3RVER",
+    });
     const sourceFiles = await fileHashes(source);
     expect(Object.keys(sourceFiles).some((k) => k.startsWith("packets/"))).toBe(true);
     expect(Object.keys(sourceFiles).some((k) => k.startsWith("photos/"))).toBe(true);
@@ -102,7 +128,15 @@ describe("backup and restore", () => {
     fs.writeFileSync(damaged, bytes);
     await dropDatabase(inject("testPg").adminUrl, restoredDb);
     const emptyUrl = await ensureDatabase(databaseAdmin(inject("testPg")), restoredDb);
-    const refused = spawnTsx(["scripts/restore.ts", damaged], childEnv({ DATABASE_URL: emptyUrl, STORAGE_DRIVER: "disk", STORAGE_DIR: path.join(root, "empty-storage"), DATA_DIR: path.join(root, "data") }));
+    const refused = spawnTsx(
+      ["scripts/restore.ts", damaged],
+      childEnv({
+        DATABASE_URL: emptyUrl,
+        STORAGE_DRIVER: "disk",
+        STORAGE_DIR: path.join(root, "empty-storage"),
+        DATA_DIR: path.join(root, "data"),
+      }),
+    );
     expect(await refused.exited).not.toBe(0);
     expect(refused.output()).toMatch(/checksum does not match/);
     expect(await rowCounts(emptyUrl)).toEqual({});

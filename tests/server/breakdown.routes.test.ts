@@ -5,7 +5,16 @@ import { beforeEach, describe, expect, it } from "vitest";
 import { createApp } from "../../server/app.js";
 import { Appearance, Change, ContinuityEntry, Photo, Scene } from "../../server/models/index.js";
 import { createDiskStorage, setStorage } from "../../server/lib/storage.js";
-import { buildAppearance, buildChange, buildCharacter, buildMember, buildPerformer, buildProduction, buildScene, buildShootDay } from "../factories.js";
+import {
+  buildAppearance,
+  buildChange,
+  buildCharacter,
+  buildMember,
+  buildPerformer,
+  buildProduction,
+  buildScene,
+  buildShootDay,
+} from "../factories.js";
 import { anonymousAgent, resetDb, signedInAgent, type TestAgent } from "../setup/http.js";
 
 const app = createApp();
@@ -76,9 +85,23 @@ describe("breakdown routes", () => {
       const s2 = await buildScene({ production, number: "2", storyOrder: 2 });
       await buildShootDay({ production, dayNumber: 1, date: "2026-12-01", scenes: [s2, s1] });
 
-      const wrong = await agent.post(`/api/productions/${pid}/appearances`, { sceneId: s1.id, characterId: maud.id, changeId: joryChange.id });
-      await agent.post(`/api/productions/${pid}/appearances`, { sceneId: s1.id, characterId: maud.id, changeId: maud1.id, distressStage: 0 }).expect(201);
-      await agent.post(`/api/productions/${pid}/appearances`, { sceneId: s2.id, characterId: maud.id, changeId: maud1.id, distressStage: 1, wet: true }).expect(201);
+      const wrong = await agent.post(`/api/productions/${pid}/appearances`, {
+        sceneId: s1.id,
+        characterId: maud.id,
+        changeId: joryChange.id,
+      });
+      await agent
+        .post(`/api/productions/${pid}/appearances`, { sceneId: s1.id, characterId: maud.id, changeId: maud1.id, distressStage: 0 })
+        .expect(201);
+      await agent
+        .post(`/api/productions/${pid}/appearances`, {
+          sceneId: s2.id,
+          characterId: maud.id,
+          changeId: maud1.id,
+          distressStage: 1,
+          wet: true,
+        })
+        .expect(201);
       const schedule = await agent.get(`/api/productions/${pid}/characters/${maud.id}/schedule`);
       const scene = await agent.get(`/api/productions/${pid}/scenes/${s2.id}`);
 
@@ -109,14 +132,18 @@ describe("breakdown routes", () => {
       const c2 = await buildChange(nell);
       const minutes = [6, 1, 0.5, 4];
       const scenes = [];
-      for (const [i, m] of minutes.entries()) scenes.push(await buildScene({ production: stage, number: String(i + 1), storyOrder: i + 1, runningMinutes: m }));
+      for (const [i, m] of minutes.entries())
+        scenes.push(await buildScene({ production: stage, number: String(i + 1), storyOrder: i + 1, runningMinutes: m }));
       await buildAppearance(scenes[0]!, nell, c1);
       await buildAppearance(scenes[3]!, nell, c2);
 
       const res = await a2.get(`/api/productions/${stage.id}/characters/${nell.id}/schedule`);
 
       // By hand: scenes 2 and 3 play between the exit and the entrance: 1 + 0.5 = 1.5 minutes.
-      expect(res.body.data.storyOrder.map((r: { minutesSincePreviousExit: number | null }) => r.minutesSincePreviousExit)).toEqual([null, 1.5]);
+      expect(res.body.data.storyOrder.map((r: { minutesSincePreviousExit: number | null }) => r.minutesSincePreviousExit)).toEqual([
+        null,
+        1.5,
+      ]);
     });
   });
 
@@ -124,14 +151,30 @@ describe("breakdown routes", () => {
     it("numbers changes per character, validates item targets and approves", async () => {
       const c = await buildCharacter({ production });
 
-      const first = await agent.post(`/api/productions/${pid}/changes`, { characterId: c.id, description: "Work clothes", storyDayFrom: 1, storyDayTo: 3, items: [{ label: "Jacket" }, { label: "Boots" }] });
-      const missingGarment = await agent.post(`/api/productions/${pid}/changes`, { characterId: c.id, items: [{ label: "Coat", garmentId: "00000000-0000-4000-8000-000000000001" }] });
+      const first = await agent.post(`/api/productions/${pid}/changes`, {
+        characterId: c.id,
+        description: "Work clothes",
+        storyDayFrom: 1,
+        storyDayTo: 3,
+        items: [{ label: "Jacket" }, { label: "Boots" }],
+      });
+      const missingGarment = await agent.post(`/api/productions/${pid}/changes`, {
+        characterId: c.id,
+        items: [{ label: "Coat", garmentId: "00000000-0000-4000-8000-000000000001" }],
+      });
       const badSpan = await agent.post(`/api/productions/${pid}/changes`, { characterId: c.id, storyDayFrom: 4, storyDayTo: 2 });
       const approved = await agent.put(`/api/productions/${pid}/changes/${first.body.data.id}/approval`, { approval: "approved" });
       const edited = await agent.patch(`/api/productions/${pid}/changes/${first.body.data.id}`, { description: "Work clothes, patched" });
 
       expect(first.status).toBe(201);
-      expect(first.body.data).toMatchObject({ number: 1, approval: "draft", items: [{ label: "Jacket", sortOrder: 1 }, { label: "Boots", sortOrder: 2 }] });
+      expect(first.body.data).toMatchObject({
+        number: 1,
+        approval: "draft",
+        items: [
+          { label: "Jacket", sortOrder: 1 },
+          { label: "Boots", sortOrder: 2 },
+        ],
+      });
       expect(missingGarment.status).toBe(400);
       expect(missingGarment.body.error.fields).toHaveProperty("items.0.garmentId");
       expect(badSpan.status).toBe(400);
@@ -185,14 +228,23 @@ describe("breakdown routes", () => {
       expect(res.status).toBe(400);
       expect(await ContinuityEntry.count()).toBe(0);
       expect(await Photo.count()).toBe(0);
-      const files = fs.existsSync(path.join(storageDir, "photos")) ? (fs.readdirSync(path.join(storageDir, "photos"), { recursive: true }) as string[]).filter((f) => f.endsWith(".jpg") || f.endsWith(".webp")) : [];
+      const files = fs.existsSync(path.join(storageDir, "photos"))
+        ? (fs.readdirSync(path.join(storageDir, "photos"), { recursive: true }) as string[]).filter(
+            (f) => f.endsWith(".jpg") || f.endsWith(".webp"),
+          )
+        : [];
       expect(files).toEqual([]);
     });
 
     it("deleting an entry removes its photos and files", async () => {
       const c = await buildCharacter({ production });
       const s = await buildScene({ production });
-      const res = await agent.agent.post(`/api/productions/${pid}/continuity`).set("X-CSRF-Token", agent.csrf).field("sceneId", s.id).field("characterId", c.id).attach("photos", fixture, { filename: "x.jpg", contentType: "image/jpeg" });
+      const res = await agent.agent
+        .post(`/api/productions/${pid}/continuity`)
+        .set("X-CSRF-Token", agent.csrf)
+        .field("sceneId", s.id)
+        .field("characterId", c.id)
+        .attach("photos", fixture, { filename: "x.jpg", contentType: "image/jpeg" });
 
       await agent.delete(`/api/productions/${pid}/continuity/${res.body.data.id}`).expect(204);
 
@@ -205,15 +257,25 @@ describe("breakdown routes", () => {
   describe("performers", () => {
     it("keeps name, contact and notes; refuses a bad e-mail naming the field", async () => {
       const bad = await agent.post(`/api/productions/${pid}/performers`, { name: "Ada Trenoweth", email: "not-an-email" });
-      const ok = await agent.post(`/api/productions/${pid}/performers`, { name: "Ada Trenoweth", email: "ada@example.invalid", phone: "01632 960000" });
+      const ok = await agent.post(`/api/productions/${pid}/performers`, {
+        name: "Ada Trenoweth",
+        email: "ada@example.invalid",
+        phone: "01632 960000",
+      });
       const p2 = await buildPerformer({ production, name: "Stunt Person" });
-      const ch = await agent.post(`/api/productions/${pid}/characters`, { name: "Ada's role", performerId: ok.body.data.id, doubles: [{ performerId: p2.id, kind: "stunt" }] });
+      const ch = await agent.post(`/api/productions/${pid}/characters`, {
+        name: "Ada's role",
+        performerId: ok.body.data.id,
+        doubles: [{ performerId: p2.id, kind: "stunt" }],
+      });
       const list = await agent.get(`/api/productions/${pid}/performers`);
 
       expect(bad.status).toBe(400);
       expect(bad.body.error.fields).toHaveProperty("email");
       expect(ch.body.data.doubles).toEqual([{ id: expect.any(String), kind: "stunt", performer: { id: p2.id, name: "Stunt Person" } }]);
-      expect(list.body.data.find((p: { id: string }) => p.id === p2.id).roles).toEqual([{ characterId: ch.body.data.id, characterName: "Ada's role", as: "stunt" }]);
+      expect(list.body.data.find((p: { id: string }) => p.id === p2.id).roles).toEqual([
+        { characterId: ch.body.data.id, characterName: "Ada's role", as: "stunt" },
+      ]);
     });
   });
 });

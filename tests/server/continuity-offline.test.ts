@@ -14,7 +14,9 @@ import { resetDb, signedInAgent, type TestAgent } from "../setup/http.js";
 const app = createApp();
 
 async function jpeg(colour: string): Promise<Buffer> {
-  return sharp({ create: { width: 120, height: 90, channels: 3, background: colour } }).jpeg().toBuffer();
+  return sharp({ create: { width: 120, height: 90, channels: 3, background: colour } })
+    .jpeg()
+    .toBuffer();
 }
 
 let agent: TestAgent;
@@ -43,13 +45,18 @@ interface Sent {
 
 /** Sends an entry the way the phone's queue does: multipart with the fields and photos. */
 function send(e: Sent) {
-  let r = agent.agent.post(`/api/productions/${pid}/continuity`).set("X-CSRF-Token", agent.csrf).field("sceneId", e.sceneId).field("characterId", e.characterId);
+  let r = agent.agent
+    .post(`/api/productions/${pid}/continuity`)
+    .set("X-CSRF-Token", agent.csrf)
+    .field("sceneId", e.sceneId)
+    .field("characterId", e.characterId);
   if (e.clientId) r = r.field("clientId", e.clientId);
   if (e.shootDayId) r = r.field("shootDayId", e.shootDayId);
   if (e.notes) r = r.field("notes", e.notes);
   for (const g of e.garmentIds ?? []) r = r.field("garmentIds", g);
   if (e.capturedAs) r = r.field("capturedAs", JSON.stringify(e.capturedAs));
-  for (const [i, p] of (e.photos ?? []).entries()) r = r.field("views", "front").attach("photos", p, { filename: `p${i}.jpg`, contentType: "image/jpeg" });
+  for (const [i, p] of (e.photos ?? []).entries())
+    r = r.field("views", "front").attach("photos", p, { filename: `p${i}.jpg`, contentType: "image/jpeg" });
   return r;
 }
 
@@ -65,7 +72,13 @@ async function sceneWithCharacter() {
 describe("POST /continuity with a client id", () => {
   it("answers a repeat with the stored entry (200) and stores it once, photos included", async () => {
     const { character, scene } = await sceneWithCharacter();
-    const entry: Sent = { clientId: randomUUID(), sceneId: scene.id, characterId: character.id, notes: "collar open", photos: [await jpeg("#3E5C4A")] };
+    const entry: Sent = {
+      clientId: randomUUID(),
+      sceneId: scene.id,
+      characterId: character.id,
+      notes: "collar open",
+      photos: [await jpeg("#3E5C4A")],
+    };
 
     const first = await send(entry);
     const again = await send(entry);
@@ -81,7 +94,13 @@ describe("POST /continuity with a client id", () => {
 
   it("stores one entry when two copies arrive at the same moment, and keeps the photo files", async () => {
     const { character, scene } = await sceneWithCharacter();
-    const entry: Sent = { clientId: randomUUID(), sceneId: scene.id, characterId: character.id, notes: "sleeves rolled", photos: [await jpeg("#8A5A2B"), await jpeg("#2B3A67")] };
+    const entry: Sent = {
+      clientId: randomUUID(),
+      sceneId: scene.id,
+      characterId: character.id,
+      notes: "sleeves rolled",
+      photos: [await jpeg("#8A5A2B"), await jpeg("#2B3A67")],
+    };
 
     const [a, b] = await Promise.all([send(entry), send(entry)]);
 
@@ -91,7 +110,8 @@ describe("POST /continuity with a client id", () => {
     expect(await Photo.count()).toBe(2);
     // The copy that lost removed only files no row refers to: the stored entry's files are all there.
     for (const p of a.body.data.photos as Array<{ contentHash: string }>) {
-      for (const f of ["full.jpg", "display.webp", "thumb.webp"]) expect(await getStorage().exists(`photos/${p.contentHash.slice(0, 2)}/${p.contentHash}/${f}`), f).toBe(true);
+      for (const f of ["full.jpg", "display.webp", "thumb.webp"])
+        expect(await getStorage().exists(`photos/${p.contentHash.slice(0, 2)}/${p.contentHash}/${f}`), f).toBe(true);
     }
   });
 
@@ -114,11 +134,27 @@ describe("POST /continuity with a client id", () => {
     const otherCharacter = await buildCharacter({ production: other.production });
     const otherScene = await buildScene({ production: other.production });
     const clientId = randomUUID();
-    const row = (p: string, s: string, c: string) => ({ productionId: p, sceneId: s, characterId: c, shootDayId: null, distressStage: null, notes: null, loggedBy: null, clientId, requestHash: null, capturedAs: null, reviewResolvedAt: null, reviewResolvedBy: null });
+    const row = (p: string, s: string, c: string) => ({
+      productionId: p,
+      sceneId: s,
+      characterId: c,
+      shootDayId: null,
+      distressStage: null,
+      notes: null,
+      loggedBy: null,
+      clientId,
+      requestHash: null,
+      capturedAs: null,
+      reviewResolvedAt: null,
+      reviewResolvedBy: null,
+    });
 
     await ContinuityEntry.create(row(pid, scene.id, character.id));
 
-    await expect(ContinuityEntry.create(row(pid, scene.id, character.id))).rejects.toMatchObject({ name: "SequelizeUniqueConstraintError", parent: { constraint: "continuity_entries_client_id_key" } });
+    await expect(ContinuityEntry.create(row(pid, scene.id, character.id))).rejects.toMatchObject({
+      name: "SequelizeUniqueConstraintError",
+      parent: { constraint: "continuity_entries_client_id_key" },
+    });
     await expect(ContinuityEntry.create(row(other.production.id, otherScene.id, otherCharacter.id))).resolves.toBeTruthy();
   });
 
@@ -135,7 +171,13 @@ describe("POST /continuity with a client id", () => {
   it("refuses capturedAs that is not JSON with 400 naming the field", async () => {
     const { character, scene } = await sceneWithCharacter();
 
-    const res = await agent.agent.post(`/api/productions/${pid}/continuity`).set("X-CSRF-Token", agent.csrf).field("sceneId", scene.id).field("characterId", character.id).field("clientId", randomUUID()).field("capturedAs", "{not json");
+    const res = await agent.agent
+      .post(`/api/productions/${pid}/continuity`)
+      .set("X-CSRF-Token", agent.csrf)
+      .field("sceneId", scene.id)
+      .field("characterId", character.id)
+      .field("clientId", randomUUID())
+      .field("capturedAs", "{not json");
 
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toHaveProperty("capturedAs");
@@ -149,10 +191,24 @@ describe("entries that arrive after the records changed", () => {
     const captured = { sceneNumber: "12", characterName: "Maud Penhallow", shootDayNumber: 4, changeNumber: 2 };
     await Scene.destroy({ where: { id: scene.id } });
 
-    const res = await send({ clientId, sceneId: scene.id, characterId: character.id, shootDayId: day.id, notes: "shawl pinned", capturedAs: captured, photos: [await jpeg("#B5452E")] });
+    const res = await send({
+      clientId,
+      sceneId: scene.id,
+      characterId: character.id,
+      shootDayId: day.id,
+      notes: "shawl pinned",
+      capturedAs: captured,
+      photos: [await jpeg("#B5452E")],
+    });
 
     expect(res.status, JSON.stringify(res.body)).toBe(201);
-    expect(res.body.data).toMatchObject({ sceneId: null, sceneNumber: "12", characterId: character.id, shootDayId: day.id, notes: "shawl pinned" });
+    expect(res.body.data).toMatchObject({
+      sceneId: null,
+      sceneNumber: "12",
+      characterId: character.id,
+      shootDayId: day.id,
+      notes: "shawl pinned",
+    });
     expect(res.body.data.photos).toHaveLength(1);
     expect(res.body.data.review.open).toBe(true);
     expect(res.body.data.review.reasons).toEqual([{ code: "scene_deleted", message: expect.stringContaining("Scene 12 was deleted") }]);
@@ -169,12 +225,33 @@ describe("entries that arrive after the records changed", () => {
     const kept = await buildGarment({ production, name: "Shawl" });
     const gone = await buildGarment({ production, name: "Apron" });
     const newChange = await buildChange(character, { number: 3 });
-    const captured = { sceneNumber: "12", characterName: "Maud Penhallow", shootDayNumber: 4, changeId: change.id, changeNumber: 2, requiredDistress: 1, garments: [{ id: kept.id, tagCode: kept.tagCode }, { id: gone.id, tagCode: gone.tagCode }] };
+    const captured = {
+      sceneNumber: "12",
+      characterName: "Maud Penhallow",
+      shootDayNumber: 4,
+      changeId: change.id,
+      changeNumber: 2,
+      requiredDistress: 1,
+      garments: [
+        { id: kept.id, tagCode: kept.tagCode },
+        { id: gone.id, tagCode: gone.tagCode },
+      ],
+    };
     await scene.update({ number: "12A" });
-    await sequelize.query(`UPDATE appearances SET change_id = :c, distress_stage = 2 WHERE scene_id = :s`, { replacements: { c: newChange.id, s: scene.id } });
+    await sequelize.query(`UPDATE appearances SET change_id = :c, distress_stage = 2 WHERE scene_id = :s`, {
+      replacements: { c: newChange.id, s: scene.id },
+    });
     await Garment.destroy({ where: { id: gone.id } });
 
-    const res = await send({ clientId: randomUUID(), sceneId: scene.id, characterId: character.id, shootDayId: day.id, garmentIds: [kept.id, gone.id], capturedAs: captured, notes: "as shot" });
+    const res = await send({
+      clientId: randomUUID(),
+      sceneId: scene.id,
+      characterId: character.id,
+      shootDayId: day.id,
+      garmentIds: [kept.id, gone.id],
+      capturedAs: captured,
+      notes: "as shot",
+    });
 
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body.data.sceneId).toBe(scene.id);
@@ -182,7 +259,9 @@ describe("entries that arrive after the records changed", () => {
     const reasons = res.body.data.review.reasons as Array<{ code: string; message: string }>;
     expect(reasons.map((r) => r.code).sort()).toEqual(["change_differs", "garment_deleted", "scene_renumbered", "state_differs"]);
     expect(reasons.find((r) => r.code === "scene_renumbered")!.message).toBe("Scene 12 is now scene 12A.");
-    expect(reasons.find((r) => r.code === "change_differs")!.message).toBe("Scene 12A now has Maud Penhallow in change 3 (the phone showed change 2).");
+    expect(reasons.find((r) => r.code === "change_differs")!.message).toBe(
+      "Scene 12A now has Maud Penhallow in change 3 (the phone showed change 2).",
+    );
     expect(reasons.find((r) => r.code === "garment_deleted")!.message).toContain(gone.tagCode);
   });
 
@@ -190,7 +269,13 @@ describe("entries that arrive after the records changed", () => {
     const { character, scene } = await sceneWithCharacter();
     const other = await buildScene({ production, number: "13" });
     await Scene.destroy({ where: { id: scene.id } });
-    const sent = await send({ clientId: randomUUID(), sceneId: scene.id, characterId: character.id, notes: "x", capturedAs: { sceneNumber: "12" } }).expect(201);
+    const sent = await send({
+      clientId: randomUUID(),
+      sceneId: scene.id,
+      characterId: character.id,
+      notes: "x",
+      capturedAs: { sceneNumber: "12" },
+    }).expect(201);
 
     const res = await agent.patch(`/api/productions/${pid}/continuity/${sent.body.data.id}`, { sceneId: other.id, reviewed: true });
 
@@ -223,8 +308,17 @@ describe("GET /offline-pack", () => {
     for (const [i, g] of copies.entries()) await g.update({ multiplesGroupId: group.id, copyNumber: i + 1 });
     const boots = await buildGarment({ production, name: "Boots" });
     await buildGarment({ production, name: "Not in these changes" });
-    await sequelize.query(`INSERT INTO change_items (id, production_id, change_id, label, garment_id, multiples_group_id, sort_order, created_at, updated_at) VALUES (gen_random_uuid(), :p, :c, 'boots', :g, NULL, 1, now(), now()), (gen_random_uuid(), :p, :c, 'shawl', NULL, :m, 2, now(), now())`, { replacements: { p: pid, c: change.id, g: boots.id, m: group.id } });
-    const withPhoto = await send({ clientId: randomUUID(), sceneId: past!.id, characterId: maud.id, notes: "reference", photos: [await jpeg("#C98B2B")] }).expect(201);
+    await sequelize.query(
+      `INSERT INTO change_items (id, production_id, change_id, label, garment_id, multiples_group_id, sort_order, created_at, updated_at) VALUES (gen_random_uuid(), :p, :c, 'boots', :g, NULL, 1, now(), now()), (gen_random_uuid(), :p, :c, 'shawl', NULL, :m, 2, now(), now())`,
+      { replacements: { p: pid, c: change.id, g: boots.id, m: group.id } },
+    );
+    const withPhoto = await send({
+      clientId: randomUUID(),
+      sceneId: past!.id,
+      characterId: maud.id,
+      notes: "reference",
+      photos: [await jpeg("#C98B2B")],
+    }).expect(201);
     await send({ clientId: randomUUID(), sceneId: past!.id, characterId: maud.id, notes: "no photo" }).expect(201);
 
     const res = await agent.get(`/api/productions/${pid}/offline-pack`);

@@ -25,9 +25,18 @@ describe("GET /api/productions/:productionId/scenes/export (breakdown CSV)", () 
     const { user, production } = await buildMember("supervisor");
     const agent = await signedInAgent(app, user.email);
     for (const [i, f] of formulas.entries()) {
-      await agent.post(`/api/productions/${production.id}/scenes`, { number: String(i + 1), storyOrder: i + 1, setName: f, synopsis: f }).expect(201);
+      await agent
+        .post(`/api/productions/${production.id}/scenes`, { number: String(i + 1), storyOrder: i + 1, setName: f, synopsis: f })
+        .expect(201);
     }
-    await agent.post(`/api/productions/${production.id}/scenes`, { number: "9", storyOrder: 9, setName: "Harbour wall", synopsis: "Rain, then wind" }).expect(201);
+    await agent
+      .post(`/api/productions/${production.id}/scenes`, {
+        number: "9",
+        storyOrder: 9,
+        setName: "Harbour wall",
+        synopsis: "Rain, then wind",
+      })
+      .expect(201);
 
     const res = await agent.get(`/api/productions/${production.id}/scenes/export`);
 
@@ -50,14 +59,27 @@ describe("GET /api/productions/:productionId/garments/export.csv", () => {
     const { user, production } = await buildMember("supervisor");
     const agent = await signedInAgent(app, user.email);
     for (const f of formulas.slice(0, 4)) {
-      await agent.post(`/api/productions/${production.id}/garments`, { name: f, category: "jacket", source: "built", fitIntent: "fitted", vendor: f }).expect(201);
+      await agent
+        .post(`/api/productions/${production.id}/garments`, {
+          name: f,
+          category: "jacket",
+          source: "built",
+          fitIntent: "fitted",
+          vendor: f,
+        })
+        .expect(201);
     }
 
     const res = await agent.get(`/api/productions/${production.id}/garments/export.csv`);
 
     const rows = cells(res.text);
     const names = rows.slice(1).map((r) => r[rows[0]!.indexOf("name")]);
-    expect(names.sort()).toEqual(formulas.slice(0, 4).map((f) => `'${f}`).sort());
+    expect(names.sort()).toEqual(
+      formulas
+        .slice(0, 4)
+        .map((f) => `'${f}`)
+        .sort(),
+    );
     for (const row of rows) for (const cell of row) expect(cell).not.toMatch(/^[=+\-@\t\r]/);
     expect(res.text.endsWith("\r\n")).toBe(true);
   });

@@ -13,7 +13,10 @@ import { buildFilmScenario, snagFixtures } from "../setup/snag-fixtures.js";
 import type { SnagListDto } from "../../shared/schemas/snags.js";
 
 async function versionOf(productionId: string): Promise<string> {
-  const [row] = await sequelize.query<{ v: string }>(`SELECT data_version::text AS v FROM productions WHERE id = :id`, { replacements: { id: productionId }, type: QueryTypes.SELECT });
+  const [row] = await sequelize.query<{ v: string }>(`SELECT data_version::text AS v FROM productions WHERE id = :id`, {
+    replacements: { id: productionId },
+    type: QueryTypes.SELECT,
+  });
   return row!.v;
 }
 
@@ -158,7 +161,8 @@ describe("snags kept per data version", () => {
     const sc = await buildFilmScenario(snagFixtures(production.id));
     const agent = await signedInAgent(createApp(), user.email);
     clock.set("2027-01-10", { frozen: true });
-    const list = async () => ((await agent.get(`/api/productions/${production.id}/snags`).expect(200)).body.data as SnagListDto).snags.map((s) => s.key);
+    const list = async () =>
+      ((await agent.get(`/api/productions/${production.id}/snags`).expect(200)).body.data as SnagListDto).snags.map((s) => s.key);
     const first = await list();
     const fitKey = `fit:${sc.garments.jacket}:${sc.performers.pWren}`;
     expect(first).toContain(fitKey);
@@ -166,7 +170,9 @@ describe("snags kept per data version", () => {
     // The jacket's measurements are cleared behind the triggers' back: the list must still be the remembered one.
     await sequelize.query(`ALTER TABLE garments DISABLE TRIGGER USER`);
     try {
-      await sequelize.query(`UPDATE garments SET finished_measurements = '{}'::jsonb WHERE id = :id`, { replacements: { id: sc.garments.jacket } });
+      await sequelize.query(`UPDATE garments SET finished_measurements = '{}'::jsonb WHERE id = :id`, {
+        replacements: { id: sc.garments.jacket },
+      });
     } finally {
       await sequelize.query(`ALTER TABLE garments ENABLE TRIGGER USER`);
     }

@@ -32,7 +32,11 @@ async function call(pathname: string, init: { method?: string; session?: Session
     headers.cookie = init.session.cookie;
     headers["x-csrf-token"] = init.session.csrf;
   }
-  const res = await fetch(`${base}${pathname}`, { method: init.method ?? "GET", headers, body: init.body ? JSON.stringify(init.body) : undefined });
+  const res = await fetch(`${base}${pathname}`, {
+    method: init.method ?? "GET",
+    headers,
+    body: init.body ? JSON.stringify(init.body) : undefined,
+  });
   const text = await res.text();
   let body: unknown = text;
   try {
@@ -40,13 +44,21 @@ async function call(pathname: string, init: { method?: string; session?: Session
   } catch {
     /* not JSON */
   }
-  return { status: res.status, body: body as { error?: { code?: string; message?: string }; ok?: boolean; db?: string; token?: string }, setCookie: res.headers.getSetCookie() };
+  return {
+    status: res.status,
+    body: body as { error?: { code?: string; message?: string }; ok?: boolean; db?: string; token?: string },
+    setCookie: res.headers.getSetCookie(),
+  };
 }
 
 async function signIn(): Promise<Session> {
   const csrf = await call("/api/auth/csrf");
   const cookie = csrf.setCookie.map((c) => c.split(";")[0]).join("; ");
-  const login = await call("/api/auth/login", { method: "POST", session: { cookie, csrf: csrf.body.token! }, body: { email: EMAIL, password: PASSWORD } });
+  const login = await call("/api/auth/login", {
+    method: "POST",
+    session: { cookie, csrf: csrf.body.token! },
+    body: { email: EMAIL, password: PASSWORD },
+  });
   expect(login.status).toBe(200);
   const signedCookie = login.setCookie.map((c) => c.split(";")[0]).join("; ") || cookie;
   const fresh = await call("/api/auth/csrf", { session: { cookie: signedCookie, csrf: "" } });
@@ -75,12 +87,17 @@ beforeAll(async () => {
       JOBS_ENABLED: "true",
     }),
   );
-  await waitFor("the server to answer", async () => server.alive() && (await call("/api/health")).status === 200, 90_000).catch((err: Error) => {
-    throw new Error(`${err.message}\n${server.output()}`);
-  });
+  await waitFor("the server to answer", async () => server.alive() && (await call("/api/health")).status === 200, 90_000).catch(
+    (err: Error) => {
+      throw new Error(`${err.message}\n${server.output()}`);
+    },
+  );
   const db = new pg.Client({ connectionString: databaseUrl });
   await db.connect();
-  await db.query("INSERT INTO users (id, email, name, password_hash) VALUES (gen_random_uuid(), $1, 'Restart Check', $2)", [EMAIL, await hashPassword(PASSWORD)]);
+  await db.query("INSERT INTO users (id, email, name, password_hash) VALUES (gen_random_uuid(), $1, 'Restart Check', $2)", [
+    EMAIL,
+    await hashPassword(PASSWORD),
+  ]);
   await db.end();
 }, 120_000);
 
@@ -111,8 +128,19 @@ describe("PostgreSQL restarting under load", () => {
       ["me", () => call("/api/auth/me", { session })],
       ["productions", () => call("/api/productions", { session })],
       ["csrf", () => call("/api/auth/csrf")],
-      ["failed sign-in", () => call("/api/auth/login", { method: "POST", session, body: { email: `nobody-${n++}@test.invalid`, password: "wrong" } })],
-      ["create", () => call("/api/productions", { method: "POST", session, body: { title: `Restart ${n++}`, kind: "film", units: "cm", startsOn: "2030-09-01", endsOn: "2030-12-01" } })],
+      [
+        "failed sign-in",
+        () => call("/api/auth/login", { method: "POST", session, body: { email: `nobody-${n++}@test.invalid`, password: "wrong" } }),
+      ],
+      [
+        "create",
+        () =>
+          call("/api/productions", {
+            method: "POST",
+            session,
+            body: { title: `Restart ${n++}`, kind: "film", units: "cm", startsOn: "2030-09-01", endsOn: "2030-12-01" },
+          }),
+      ],
     ];
     const worker = async (offset: number) => {
       for (let i = offset; !stop; i++) {
@@ -146,13 +174,21 @@ describe("PostgreSQL restarting under load", () => {
     expect(again.startedHere).toBe(true);
     phase = "back";
     // Back: the same session works again without a restart of the app.
-    await waitFor("the app to recover", async () => (await call("/api/health")).status === 200 && (await call("/api/auth/me", { session })).status === 200, 60_000);
+    await waitFor(
+      "the app to recover",
+      async () => (await call("/api/health")).status === 200 && (await call("/api/auth/me", { session })).status === 200,
+      60_000,
+    );
     await new Promise((r) => setTimeout(r, 1500));
     stop = true;
     await load;
 
     expect(server.alive(), server.output()).toBe(true);
-    const created = await call("/api/productions", { method: "POST", session, body: { title: "After the restart", kind: "film", units: "cm", startsOn: "2030-09-01", endsOn: "2030-12-01" } });
+    const created = await call("/api/productions", {
+      method: "POST",
+      session,
+      body: { title: "After the restart", kind: "film", units: "cm", startsOn: "2030-09-01", endsOn: "2030-12-01" },
+    });
     expect(created.status).toBe(201);
 
     const down = seen.filter((s) => s.phase === "down");
@@ -160,7 +196,9 @@ describe("PostgreSQL restarting under load", () => {
     // While down, every answer that needs the database is the 503 (the error shape, or health's own).
     // An anonymous CSRF token needs no database to be answered (its session, if any, is written after
     // the answer), so it may be a 200.
-    const unexpected = down.filter((s) => !(s.status === 503 && (s.code === "database_unavailable" || s.what === "health")) && !(s.what === "csrf" && s.status === 200));
+    const unexpected = down.filter(
+      (s) => !(s.status === 503 && (s.code === "database_unavailable" || s.what === "health")) && !(s.what === "csrf" && s.status === 200),
+    );
     expect(unexpected).toEqual([]);
     // No request anywhere in the run failed with a 500 or a dropped connection.
     expect(seen.filter((s) => s.status >= 500 && s.status !== 503)).toEqual([]);

@@ -93,7 +93,17 @@ describe.each(anchors)("demo seeded on %s (%s)", (today) => {
     // Two fittings on each of the two working days before today are done; the rest are booked from today on.
     expect(fittings.filter((f) => f.status === "done")).toHaveLength(4);
     expect(local.every((p) => p.date >= today || workingDaysFrom(p.date, today) <= 2)).toBe(true);
-    expect(local.map((p) => `${String(p.hour).padStart(2, "0")}:${String(p.minute).padStart(2, "0")}`)).toEqual(["10:00", "14:00", "11:00", "15:30", "10:00", "09:30", "11:00", "10:00", "14:00"]);
+    expect(local.map((p) => `${String(p.hour).padStart(2, "0")}:${String(p.minute).padStart(2, "0")}`)).toEqual([
+      "10:00",
+      "14:00",
+      "11:00",
+      "15:30",
+      "10:00",
+      "09:30",
+      "11:00",
+      "10:00",
+      "14:00",
+    ]);
   });
 
   it("the stage show's quick change is flagged and its first night is within the last week", async () => {

@@ -29,7 +29,16 @@ const base = () => `/api/productions/${productionId}`;
 
 describe("POST /panels", () => {
   it("400 names the outline field for a self-crossing outline and writes nothing", async () => {
-    const res = await cutter.post(`${base()}/panels`, { garmentId: garmentIds[0], name: "Bow tie", outline: [[0, 0], [100, 100], [100, 0], [0, 100]] });
+    const res = await cutter.post(`${base()}/panels`, {
+      garmentId: garmentIds[0],
+      name: "Bow tie",
+      outline: [
+        [0, 0],
+        [100, 100],
+        [100, 0],
+        [0, 100],
+      ],
+    });
 
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe("validation_error");
@@ -38,7 +47,17 @@ describe("POST /panels", () => {
   });
 
   it("400 for a notch on an edge the outline does not have", async () => {
-    const res = await cutter.post(`${base()}/panels`, { garmentId: garmentIds[0], name: "Cuff", outline: [[0, 0], [260, 0], [260, 70], [0, 70]], notches: [{ point: [0, 35], edge: 7 }] });
+    const res = await cutter.post(`${base()}/panels`, {
+      garmentId: garmentIds[0],
+      name: "Cuff",
+      outline: [
+        [0, 0],
+        [260, 0],
+        [260, 70],
+        [0, 70],
+      ],
+      notches: [{ point: [0, 35], edge: 7 }],
+    });
 
     expect(res.status).toBe(400);
     expect(Object.keys(res.body.error.fields)).toContain("notches.0.edge");
@@ -49,7 +68,15 @@ describe("POST /panels", () => {
     const other = await buildMember("cutter");
     const { garmentIds: foreign } = await buildChangeWithGarments(other.production.id);
 
-    const res = await cutter.post(`${base()}/panels`, { garmentId: foreign[0], name: "Front", outline: [[0, 0], [10, 0], [0, 10]] });
+    const res = await cutter.post(`${base()}/panels`, {
+      garmentId: foreign[0],
+      name: "Front",
+      outline: [
+        [0, 0],
+        [10, 0],
+        [0, 10],
+      ],
+    });
 
     expect(res.status).toBe(400);
     expect(res.body.error.fields.garmentId).toBe("Garment: no such garment in this production");
@@ -61,7 +88,12 @@ describe("POST /panels", () => {
     const res = await cutter.post(`${base()}/panels`, {
       garmentId: garmentIds[0],
       name: "Skirt front",
-      outline: [[0, 0], [600, 0], [500, 700], [100, 700]],
+      outline: [
+        [0, 0],
+        [600, 0],
+        [500, 700],
+        [100, 700],
+      ],
       seamAllowanceMm: 15,
       cutCount: 2,
       mirrored: true,
@@ -79,12 +111,20 @@ describe("GET /panels/:panelId", () => {
   it("gives no cut area when the cut line cannot be drawn, rather than the sew-line area", async () => {
     // A stored piece a few tenths of a micrometre across: clipper works in whole micrometres, so the outline
     // collapses to one point and offsetting it yields no cut line.
-    const p = await buildPanel(productionId, garmentIds[0], { name: "Speck", outline: [[0, 0], [0.0004, 0], [0, 0.0004]], seamAllowanceMm: 10 });
+    const p = await buildPanel(productionId, garmentIds[0], {
+      name: "Speck",
+      outline: [
+        [0, 0],
+        [0.0004, 0],
+        [0, 0.0004],
+      ],
+      seamAllowanceMm: 10,
+    });
 
     const res = await cutter.get(`${base()}/panels/${p.id}`);
 
     expect(res.status).toBe(200);
-    expect(res.body.data.areaMm2).toBeCloseTo(0.0004 * 0.0004 / 2, 12);
+    expect(res.body.data.areaMm2).toBeCloseTo((0.0004 * 0.0004) / 2, 12);
     expect(res.body.data.cutAreaMm2).toBeNull();
   });
 });
@@ -96,15 +136,52 @@ describe("PATCH /panels/:panelId", () => {
     const res = await cutter.patch(`${base()}/panels/${p.id}`, { cutCount: 3 });
 
     expect(res.status).toBe(200);
-    expect(res.body.data).toMatchObject({ cutCount: 3, seamAllowanceMm: 15, grainline: [[100, 50], [100, 250]], name: "Piece" });
+    expect(res.body.data).toMatchObject({
+      cutCount: 3,
+      seamAllowanceMm: 15,
+      grainline: [
+        [100, 50],
+        [100, 250],
+      ],
+      name: "Piece",
+    });
   });
 
   it("refuses an outline that drops a vertex a seam uses", async () => {
-    const a = await buildPanel(productionId, garmentIds[0], { outline: [[0, 0], [100, 0], [100, 100], [50, 150], [0, 100]] });
+    const a = await buildPanel(productionId, garmentIds[0], {
+      outline: [
+        [0, 0],
+        [100, 0],
+        [100, 100],
+        [50, 150],
+        [0, 100],
+      ],
+    });
     const b = await buildPanel(productionId, garmentIds[1]);
-    await Seam.create({ productionId, name: "S", panelAId: a.id, aFrom: 3, aTo: 4, aDirection: "forward", panelBId: b.id, bFrom: 0, bTo: 1, bDirection: "forward", toleranceMm: null, eased: false, easeMinMm: null, easeMaxMm: null });
+    await Seam.create({
+      productionId,
+      name: "S",
+      panelAId: a.id,
+      aFrom: 3,
+      aTo: 4,
+      aDirection: "forward",
+      panelBId: b.id,
+      bFrom: 0,
+      bTo: 1,
+      bDirection: "forward",
+      toleranceMm: null,
+      eased: false,
+      easeMinMm: null,
+      easeMaxMm: null,
+    });
 
-    const res = await cutter.patch(`${base()}/panels/${a.id}`, { outline: [[0, 0], [100, 0], [100, 100]] });
+    const res = await cutter.patch(`${base()}/panels/${a.id}`, {
+      outline: [
+        [0, 0],
+        [100, 0],
+        [100, 100],
+      ],
+    });
 
     expect(res.status).toBe(422);
     expect(res.body.error.fields.outline).toBe("Outline: a seam uses vertex or edge 4");
@@ -138,7 +215,10 @@ describe("POST /panels/dxf-import", () => {
     expect(back.cutCount).toBe(2);
     expect(back.mirrored).toBe(true);
     expect(back.areaMm2).toBeCloseTo(250 * 400, 6);
-    expect(back.grainline).toEqual([[125, 50], [125, 350]]);
+    expect(back.grainline).toEqual([
+      [125, 50],
+      [125, 350],
+    ]);
     expect(back.notches).toEqual([{ point: [0, 200], edge: 3 }]);
     expect(back.seamAllowanceMm).toBe(12);
     // Right triangle with legs 300 and 400 (hypotenuse 500): area ½·300·400, perimeter 1200.
@@ -148,7 +228,11 @@ describe("POST /panels/dxf-import", () => {
   });
 
   it("converts drawing units: the worked-example skirt drawn in centimetres", async () => {
-    const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).attach("file", fixture("skirt-cm.dxf"));
+    const res = await cutter.agent
+      .post(`${base()}/panels/dxf-import`)
+      .set("X-CSRF-Token", cutter.csrf)
+      .field("garmentId", garmentIds[0])
+      .attach("file", fixture("skirt-cm.dxf"));
 
     expect(res.status).toBe(201);
     // Trapezoid area by hand: 3500 cm²; an independent polygon library (d3-polygon) agrees on the imported outline.
@@ -159,7 +243,11 @@ describe("POST /panels/dxf-import", () => {
   });
 
   it("422 for a file that is not a drawing, nothing written", async () => {
-    const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).attach("file", fixture("not-a-drawing.dxf"));
+    const res = await cutter.agent
+      .post(`${base()}/panels/dxf-import`)
+      .set("X-CSRF-Token", cutter.csrf)
+      .field("garmentId", garmentIds[0])
+      .attach("file", fixture("not-a-drawing.dxf"));
 
     expect(res.status).toBe(422);
     expect(res.body.error.fields.file).toBe("File is not a readable DXF file");
@@ -167,7 +255,11 @@ describe("POST /panels/dxf-import", () => {
   });
 
   it("415 names the file field when the upload is not .dxf", async () => {
-    const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).attach("file", Buffer.from("x"), "piece.txt");
+    const res = await cutter.agent
+      .post(`${base()}/panels/dxf-import`)
+      .set("X-CSRF-Token", cutter.csrf)
+      .field("garmentId", garmentIds[0])
+      .attach("file", Buffer.from("x"), "piece.txt");
 
     expect(res.status).toBe(415);
     expect(res.body.error.code).toBe("unsupported_media_type");
@@ -176,7 +268,10 @@ describe("POST /panels/dxf-import", () => {
   });
 
   it("preview parses without writing and says what it recognised", async () => {
-    const res = await cutter.agent.post(`${base()}/panels/dxf-preview`).set("X-CSRF-Token", cutter.csrf).attach("file", fixture("two-pieces-mm.dxf"));
+    const res = await cutter.agent
+      .post(`${base()}/panels/dxf-preview`)
+      .set("X-CSRF-Token", cutter.csrf)
+      .attach("file", fixture("two-pieces-mm.dxf"));
 
     expect(res.status).toBe(200);
     expect(res.body.data.pieces.map((p: { name: string }) => p.name)).toEqual(["Back", "Yoke"]);
@@ -187,7 +282,12 @@ describe("POST /panels/dxf-import", () => {
 
   it("imports an ezdxf-written file of ASTM D6673 blocks: sew lines, measured seam allowances, rotated and mirrored INSERT", async () => {
     // Written by ezdxf through tests/fixtures/doubles/make-dxf-fixtures.py; figures from its expected.json.
-    const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).field("seamAllowanceMm", "5").attach("file", fixture("ezdxf/astm-pieces.dxf"));
+    const res = await cutter.agent
+      .post(`${base()}/panels/dxf-import`)
+      .set("X-CSRF-Token", cutter.csrf)
+      .field("garmentId", garmentIds[0])
+      .field("seamAllowanceMm", "5")
+      .attach("file", fixture("ezdxf/astm-pieces.dxf"));
 
     expect(res.status).toBe(201);
     const [back, facing] = res.body.data.panels;
@@ -198,14 +298,23 @@ describe("POST /panels/dxf-import", () => {
   });
 
   it("closed SPLINE outlines import (defect: 'no closed piece outline found')", async () => {
-    const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).attach("file", fixture("ezdxf/curves.dxf"));
+    const res = await cutter.agent
+      .post(`${base()}/panels/dxf-import`)
+      .set("X-CSRF-Token", cutter.csrf)
+      .field("garmentId", garmentIds[0])
+      .attach("file", fixture("ezdxf/curves.dxf"));
 
     expect(res.status).toBe(201);
     expect(res.body.data.panels).toHaveLength(5);
   });
 
   it("a file that does not say its units imports in the units chosen in the preview", async () => {
-    const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).field("units", "in").attach("file", fixture("ezdxf/unitless-inches.dxf"));
+    const res = await cutter.agent
+      .post(`${base()}/panels/dxf-import`)
+      .set("X-CSRF-Token", cutter.csrf)
+      .field("garmentId", garmentIds[0])
+      .field("units", "in")
+      .attach("file", fixture("ezdxf/unitless-inches.dxf"));
 
     expect(res.status).toBe(201);
     // 6 × 7 in, 1 in = 25.4 mm exactly (NIST SP 811, B.8).
@@ -213,7 +322,11 @@ describe("POST /panels/dxf-import", () => {
   });
 
   it("422 says why no piece was found: lines that stop 2 mm short of closing", async () => {
-    const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).attach("file", fixture("ezdxf/open-outline.dxf"));
+    const res = await cutter.agent
+      .post(`${base()}/panels/dxf-import`)
+      .set("X-CSRF-Token", cutter.csrf)
+      .field("garmentId", garmentIds[0])
+      .attach("file", fixture("ezdxf/open-outline.dxf"));
 
     expect(res.status).toBe(422);
     expect(res.body.error.fields.file).toMatch(/no closed piece outline found: 4 × LINE on layer 0: .*2 mm apart/);
@@ -222,10 +335,17 @@ describe("POST /panels/dxf-import", () => {
 
   it("413 names the file when a piece has more points than the limit; nothing written", async () => {
     const n = 6000;
-    const pts = Array.from({ length: n }, (_, i) => `10\n${300 * Math.cos((2 * Math.PI * i) / n)}\n20\n${300 * Math.sin((2 * Math.PI * i) / n)}`).join("\n");
+    const pts = Array.from(
+      { length: n },
+      (_, i) => `10\n${300 * Math.cos((2 * Math.PI * i) / n)}\n20\n${300 * Math.sin((2 * Math.PI * i) / n)}`,
+    ).join("\n");
     const file = `0\nSECTION\n2\nENTITIES\n0\nLWPOLYLINE\n8\n0\n90\n${n}\n70\n1\n${pts}\n0\nENDSEC\n0\nEOF\n`;
 
-    const res = await cutter.agent.post(`${base()}/panels/dxf-import`).set("X-CSRF-Token", cutter.csrf).field("garmentId", garmentIds[0]).attach("file", Buffer.from(file), "circle.dxf");
+    const res = await cutter.agent
+      .post(`${base()}/panels/dxf-import`)
+      .set("X-CSRF-Token", cutter.csrf)
+      .field("garmentId", garmentIds[0])
+      .attach("file", Buffer.from(file), "circle.dxf");
 
     expect(res.status).toBe(413);
     expect(res.body.error.code).toBe("payload_too_large");
@@ -256,7 +376,10 @@ describe("one upload must not stall the server: outline checks and caps", () => 
 
   it("an outline over 5,000 points answers 400 naming the outline field", async () => {
     const n = 5001;
-    const outline = Array.from({ length: n }, (_, i) => [Math.round(3000 * Math.cos((2 * Math.PI * i) / n) * 1000) / 1000, Math.round(3000 * Math.sin((2 * Math.PI * i) / n) * 1000) / 1000]);
+    const outline = Array.from({ length: n }, (_, i) => [
+      Math.round(3000 * Math.cos((2 * Math.PI * i) / n) * 1000) / 1000,
+      Math.round(3000 * Math.sin((2 * Math.PI * i) / n) * 1000) / 1000,
+    ]);
 
     const res = await cutter.post(`${base()}/panels`, { garmentId: garmentIds[0], name: "Circle skirt", outline });
 
@@ -268,14 +391,46 @@ describe("one upload must not stall the server: outline checks and caps", () => 
 describe("seams", () => {
   // Hand-worked lengths: 3-4-5 right triangles scaled (Pythagoras), so every length is exact.
   it("reports both lengths, the difference and flags a mismatch beyond 3 mm", async () => {
-    const a = await buildPanel(productionId, garmentIds[0], { name: "Back", outline: [[0, 0], [200, 0], [200, 300], [0, 300]] });
+    const a = await buildPanel(productionId, garmentIds[0], {
+      name: "Back",
+      outline: [
+        [0, 0],
+        [200, 0],
+        [200, 300],
+        [0, 300],
+      ],
+    });
     // Edge 0 runs (0,0)→(180,240): 3-4-5 × 60 = 300 mm.
-    const b = await buildPanel(productionId, garmentIds[0], { name: "Side", outline: [[0, 0], [180, 240], [-50, 240], [-50, 0]] });
+    const b = await buildPanel(productionId, garmentIds[0], {
+      name: "Side",
+      outline: [
+        [0, 0],
+        [180, 240],
+        [-50, 240],
+        [-50, 0],
+      ],
+    });
     // Edge 0 runs (0,0)→(144,270): 8-15-17 × 18 = 306 mm.
-    const c = await buildPanel(productionId, garmentIds[1], { name: "Long side", outline: [[0, 0], [144, 270], [-50, 270], [-50, 0]] });
+    const c = await buildPanel(productionId, garmentIds[1], {
+      name: "Long side",
+      outline: [
+        [0, 0],
+        [144, 270],
+        [-50, 270],
+        [-50, 0],
+      ],
+    });
 
-    const ok = await cutter.post(`${base()}/seams`, { name: "Side seam", a: { panelId: a.id, from: 1, to: 2 }, b: { panelId: b.id, from: 0, to: 1 } });
-    const bad = await cutter.post(`${base()}/seams`, { name: "Other side", a: { panelId: a.id, from: 1, to: 2 }, b: { panelId: c.id, from: 0, to: 1 } });
+    const ok = await cutter.post(`${base()}/seams`, {
+      name: "Side seam",
+      a: { panelId: a.id, from: 1, to: 2 },
+      b: { panelId: b.id, from: 0, to: 1 },
+    });
+    const bad = await cutter.post(`${base()}/seams`, {
+      name: "Other side",
+      a: { panelId: a.id, from: 1, to: 2 },
+      b: { panelId: c.id, from: 0, to: 1 },
+    });
 
     expect(ok.status).toBe(201);
     expect(ok.body.data).toMatchObject({ status: "ok", effectiveToleranceMm: 3 });
@@ -289,8 +444,25 @@ describe("seams", () => {
 
   it("an eased sleeve cap within its range is not a mismatch", async () => {
     // Cap run: (0,0)→(90,120)→(180,0), two 3-4-5 × 30 edges = 300 mm; armhole edge 280 mm.
-    const sleeve = await buildPanel(productionId, garmentIds[0], { name: "Sleeve", outline: [[0, 0], [90, 120], [180, 0], [180, -400], [0, -400]] });
-    const body = await buildPanel(productionId, garmentIds[0], { name: "Body", outline: [[0, 0], [280, 0], [280, 500], [0, 500]] });
+    const sleeve = await buildPanel(productionId, garmentIds[0], {
+      name: "Sleeve",
+      outline: [
+        [0, 0],
+        [90, 120],
+        [180, 0],
+        [180, -400],
+        [0, -400],
+      ],
+    });
+    const body = await buildPanel(productionId, garmentIds[0], {
+      name: "Body",
+      outline: [
+        [0, 0],
+        [280, 0],
+        [280, 500],
+        [0, 500],
+      ],
+    });
 
     const res = await cutter.post(`${base()}/seams`, {
       name: "Sleeve head",
@@ -308,7 +480,11 @@ describe("seams", () => {
     const a = await buildPanel(productionId, garmentIds[0]);
     const b = await buildPanel(productionId, garmentIds[0]);
 
-    const res = await cutter.post(`${base()}/seams`, { name: "S", a: { panelId: a.id, from: 1, to: 9 }, b: { panelId: b.id, from: 0, to: 1 } });
+    const res = await cutter.post(`${base()}/seams`, {
+      name: "S",
+      a: { panelId: a.id, from: 1, to: 9 },
+      b: { panelId: b.id, from: 0, to: 1 },
+    });
 
     expect(res.status).toBe(400);
     expect(res.body.error.fields["a.to"]).toBe("To: the panel has 4 points (0–3)");
@@ -318,7 +494,12 @@ describe("seams", () => {
   it("400 for an ease range whose minimum exceeds its maximum", async () => {
     const a = await buildPanel(productionId, garmentIds[0]);
 
-    const res = await cutter.post(`${base()}/seams`, { name: "S", a: { panelId: a.id, from: 0, to: 1 }, b: { panelId: a.id, from: 2, to: 3 }, eased: { minMm: 20, maxMm: 5 } });
+    const res = await cutter.post(`${base()}/seams`, {
+      name: "S",
+      a: { panelId: a.id, from: 0, to: 1 },
+      b: { panelId: a.id, from: 2, to: 3 },
+      eased: { minMm: 20, maxMm: 5 },
+    });
 
     expect(res.status).toBe(400);
     expect(res.body.error.fields["eased.maxMm"]).toBe("Ease to: minimum must not exceed maximum");
@@ -330,8 +511,28 @@ describe("yardage and fabric physics", () => {
   it("lays a marker for the change: efficiency = piece area / marker area, never below the lower bound", async () => {
     // No seam allowance, so the marker lays the sew lines and their areas are worked by hand:
     // Front (shoelace): ½·(300·600 + 280·620) = 176 800 mm²; Sleeve (trapezoid): ½·(250 + 350)·500 = 150 000 mm².
-    await buildPanel(productionId, garmentIds[0], { name: "Front", outline: [[0, 0], [300, 0], [280, 600], [0, 620]], cutCount: 2, seamAllowanceMm: 0 });
-    await buildPanel(productionId, garmentIds[1], { name: "Sleeve", outline: [[0, 0], [250, 0], [300, 500], [-50, 500]], cutCount: 2, seamAllowanceMm: 0 });
+    await buildPanel(productionId, garmentIds[0], {
+      name: "Front",
+      outline: [
+        [0, 0],
+        [300, 0],
+        [280, 600],
+        [0, 620],
+      ],
+      cutCount: 2,
+      seamAllowanceMm: 0,
+    });
+    await buildPanel(productionId, garmentIds[1], {
+      name: "Sleeve",
+      outline: [
+        [0, 0],
+        [250, 0],
+        [300, 500],
+        [-50, 500],
+      ],
+      cutCount: 2,
+      seamAllowanceMm: 0,
+    });
     // 2 cut × 2 multiples = 4 copies of each: 4 × 176 800 + 4 × 150 000 = 1 307 200 mm².
     const pieces = 1_307_200;
 

@@ -27,7 +27,10 @@ describe("validation errors in the person's words", () => {
   it("a nested reading is named as on the form, not by its path", async () => {
     const f = await buildFabric({ production });
 
-    const res = await agent.post(`/api/productions/${production.id}/fabrics/${f.id}/tests`, { testedOn: "2026-11-20", readings: { kind: "cantilever", direction: "warp", overhangMm: -4 } });
+    const res = await agent.post(`/api/productions/${production.id}/fabrics/${f.id}/tests`, {
+      testedOn: "2026-11-20",
+      readings: { kind: "cantilever", direction: "warp", overhangMm: -4 },
+    });
 
     expect(res.status).toBe(400);
     expect(res.body.error.message).toBe("Overhang must be greater than 0");

@@ -32,7 +32,13 @@ describe("shrinkage, colour fastness and flame-retardancy tests", () => {
 
     const res = await agent.post(`${base}/tests`, {
       testedOn: "2030-09-02",
-      readings: { kind: "shrinkage", treatment: "washing", procedure: "ISO 6330 4N, line dry", length: pairs(350, 339, 340, 341), width: pairs(350, 352, 351, 353) },
+      readings: {
+        kind: "shrinkage",
+        treatment: "washing",
+        procedure: "ISO 6330 4N, line dry",
+        length: pairs(350, 339, 340, 341),
+        width: pairs(350, 352, 351, 353),
+      },
     });
 
     expect(res.status).toBe(201);
@@ -52,7 +58,14 @@ describe("shrinkage, colour fastness and flame-retardancy tests", () => {
     // 500 → 490 mm is (490 − 500) / 500 × 100 = −2 %; 500 → 505 mm is +1 %.
     const res = await agent.post(`${base}/tests`, {
       testedOn: "2030-09-02",
-      readings: { kind: "shrinkage", treatment: "dry_cleaning", cycles: 3, procedure: "ISO 3175-2, normal", length: pairs(500, 490), width: pairs(500, 505) },
+      readings: {
+        kind: "shrinkage",
+        treatment: "dry_cleaning",
+        cycles: 3,
+        procedure: "ISO 3175-2, normal",
+        length: pairs(500, 490),
+        width: pairs(500, 505),
+      },
     });
 
     expect(res.status, JSON.stringify(res.body)).toBe(201);
@@ -62,7 +75,10 @@ describe("shrinkage, colour fastness and flame-retardancy tests", () => {
   });
 
   it("records colour fastness with half grades written as the trade writes them and the pair's CIELAB difference (ISO 105-A02 §2.4)", async () => {
-    const res = await agent.post(`${base}/tests`, { testedOn: "2030-09-02", readings: { kind: "colourfastness", agent: "rubbing_wet", changeGrade: 4.5, stainingGrade: 3, adjacent: "cotton rubbing cloth" } });
+    const res = await agent.post(`${base}/tests`, {
+      testedOn: "2030-09-02",
+      readings: { kind: "colourfastness", agent: "rubbing_wet", changeGrade: 4.5, stainingGrade: 3, adjacent: "cotton rubbing cloth" },
+    });
 
     expect(res.status).toBe(201);
     // ISO 105-A02:1993 §2.4: grade 4-5 is the pair 0.8 ± 0.2 CIELAB units apart.
@@ -83,23 +99,43 @@ describe("shrinkage, colour fastness and flame-retardancy tests", () => {
       [1, "1", 13.6, 1.0],
     ];
     for (const [grade, label, deltaE, tolerance] of table) {
-      const res = await agent.post(`${base}/tests`, { testedOn: "2030-09-02", readings: { kind: "colourfastness", agent: "washing", changeGrade: grade, stainingGrade: grade } });
+      const res = await agent.post(`${base}/tests`, {
+        testedOn: "2030-09-02",
+        readings: { kind: "colourfastness", agent: "washing", changeGrade: grade, stainingGrade: grade },
+      });
       expect(res.status, String(grade)).toBe(201);
-      expect(res.body.data.derived, String(grade)).toEqual({ changeLabel: label, changeDeltaE: deltaE, changeDeltaETolerance: tolerance, stainingLabel: label });
+      expect(res.body.data.derived, String(grade)).toEqual({
+        changeLabel: label,
+        changeDeltaE: deltaE,
+        changeDeltaETolerance: tolerance,
+        stainingLabel: label,
+      });
     }
     expect(await FabricTest.count({ where: { kind: "colourfastness" } })).toBe(9);
   });
 
   it("400 naming the field for a grade off the scale, a pair with no distance, or a blank treatment; nothing is written", async () => {
     const cases: Array<[object, string, RegExp]> = [
-      [{ kind: "colourfastness", agent: "washing", changeGrade: 4.3 }, "readings.changeGrade", /grey-scale grade from 1 to 5 in half steps/],
+      [
+        { kind: "colourfastness", agent: "washing", changeGrade: 4.3 },
+        "readings.changeGrade",
+        /grey-scale grade from 1 to 5 in half steps/,
+      ],
       [{ kind: "colourfastness", agent: "washing", changeGrade: 6 }, "readings.changeGrade", /grey-scale grade/],
       [{ kind: "colourfastness", agent: "washing", changeGrade: 0.5 }, "readings.changeGrade", /grey-scale grade/],
       [{ kind: "colourfastness", agent: "washing", changeGrade: 4, stainingGrade: 2.25 }, "readings.stainingGrade", /grey-scale grade/],
       [{ kind: "colourfastness", agent: "light", changeGrade: 4 }, "readings.agent", /not a colour-fastness test/],
       [{ kind: "shrinkage", treatment: "washing", length: [], width: pairs(350, 349) }, "readings.length", /at least one pair/],
-      [{ kind: "shrinkage", treatment: "washing", length: pairs(0, 340), width: pairs(350, 349) }, "readings.length.0.beforeMm", /greater than 0/],
-      [{ kind: "shrinkage", treatment: "tumble", length: pairs(350, 340), width: pairs(350, 349) }, "readings.treatment", /washing or dry-cleaning/],
+      [
+        { kind: "shrinkage", treatment: "washing", length: pairs(0, 340), width: pairs(350, 349) },
+        "readings.length.0.beforeMm",
+        /greater than 0/,
+      ],
+      [
+        { kind: "shrinkage", treatment: "tumble", length: pairs(350, 340), width: pairs(350, 349) },
+        "readings.treatment",
+        /washing or dry-cleaning/,
+      ],
       [{ kind: "flame_retardancy", treatment: " ", treatedOn: "2030-09-01" }, "readings.treatment", /required/],
     ];
     for (const [readings, field, message] of cases) {
@@ -113,7 +149,13 @@ describe("shrinkage, colour fastness and flame-retardancy tests", () => {
   it("a flame-retardancy record carries its certificate photo; deleting the record deletes the photo", async () => {
     const rec = await agent.post(`${base}/tests`, {
       testedOn: "2030-09-02",
-      readings: { kind: "flame_retardancy", treatment: "Invented FR spray, applied by the workroom", treatedOn: "2030-09-01", certificateRef: "FR-0192", renewBy: "2030-12-01" },
+      readings: {
+        kind: "flame_retardancy",
+        treatment: "Invented FR spray, applied by the workroom",
+        treatedOn: "2030-09-01",
+        certificateRef: "FR-0192",
+        renewBy: "2030-12-01",
+      },
     });
     expect(rec.status).toBe(201);
     const testId = rec.body.data.id as string;

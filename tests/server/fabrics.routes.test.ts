@@ -18,11 +18,23 @@ beforeEach(async () => {
   base = `/api/productions/${production.id}/fabrics`;
 });
 
-const calico = { name: "Calico", fibreContent: [{ fibre: "cotton", percent: 100 }], construction: "woven", widthMm: 1500, massPerAreaGsm: 135 };
+const calico = {
+  name: "Calico",
+  fibreContent: [{ fibre: "cotton", percent: 100 }],
+  construction: "woven",
+  widthMm: 1500,
+  massPerAreaGsm: 135,
+};
 
 describe("POST /fabrics", () => {
   it("400 naming fibreContent when percentages do not add to 100, and writes nothing", async () => {
-    const res = await agent.post(base, { ...calico, fibreContent: [{ fibre: "wool", percent: 60 }, { fibre: "polyester", percent: 30 }] });
+    const res = await agent.post(base, {
+      ...calico,
+      fibreContent: [
+        { fibre: "wool", percent: 60 },
+        { fibre: "polyester", percent: 30 },
+      ],
+    });
 
     expect(res.status).toBe(400);
     expect(res.body.error.fields.fibreContent).toMatch(/add up to 100/);
@@ -38,7 +50,14 @@ describe("POST /fabrics", () => {
   });
 
   it("creates a fabric and shows oz/yd² beside g/m²", async () => {
-    const res = await agent.post(base, { ...calico, fibreContent: [{ fibre: "wool", percent: 33.3 }, { fibre: "linen", percent: 33.3 }, { fibre: "cotton", percent: 33.4 }] });
+    const res = await agent.post(base, {
+      ...calico,
+      fibreContent: [
+        { fibre: "wool", percent: 33.3 },
+        { fibre: "linen", percent: 33.3 },
+        { fibre: "cotton", percent: 33.4 },
+      ],
+    });
 
     expect(res.status).toBe(201);
     // NIST SP 811 App. B.8, 1959 international yard and pound: 1 g/m² ≈ 0.0294935246816 oz/yd², so 135 g/m² → 3.98 oz/yd² (ASTM D3776/D3776M-20 gives 3.98163).
@@ -50,7 +69,10 @@ describe("POST /fabrics/:id/tests", () => {
   it("mass test: ASTM D3776 m/A — 1.35 g on 100 × 100 mm → 135 g/m² = 3.98163 oz/yd² (ASTM D3776/D3776M-20)", async () => {
     const f = await buildFabric({ production });
 
-    const res = await agent.post(`${base}/${f.id}/tests`, { testedOn: "2026-11-20", readings: { kind: "mass", massG: 1.35, lengthMm: 100, widthMm: 100 } });
+    const res = await agent.post(`${base}/${f.id}/tests`, {
+      testedOn: "2026-11-20",
+      readings: { kind: "mass", massG: 1.35, lengthMm: 100, widthMm: 100 },
+    });
 
     expect(res.status).toBe(201);
     expect(res.body.data.readings).toEqual({ kind: "mass", massG: 1.35, lengthMm: 100, widthMm: 100 });
@@ -60,9 +82,14 @@ describe("POST /fabrics/:id/tests", () => {
 
   it("cantilever: ASTM D1388 worked example W = 200 g/m², overhang 40 mm → c = 20 mm, G = 15.69064 µN·m (ASTM D1388-18)", async () => {
     const f = await buildFabric({ production, massPerAreaGsm: null });
-    await agent.post(`${base}/${f.id}/tests`, { testedOn: "2026-11-20", readings: { kind: "mass", massG: 2, lengthMm: 100, widthMm: 100 } }).expect(201);
+    await agent
+      .post(`${base}/${f.id}/tests`, { testedOn: "2026-11-20", readings: { kind: "mass", massG: 2, lengthMm: 100, widthMm: 100 } })
+      .expect(201);
 
-    const res = await agent.post(`${base}/${f.id}/tests`, { testedOn: "2026-11-20", readings: { kind: "cantilever", direction: "warp", overhangMm: 40 } });
+    const res = await agent.post(`${base}/${f.id}/tests`, {
+      testedOn: "2026-11-20",
+      readings: { kind: "cantilever", direction: "warp", overhangMm: 40 },
+    });
 
     expect(res.status).toBe(201);
     expect(res.body.data.readings.angleDeg).toBe(41.5);
@@ -74,7 +101,10 @@ describe("POST /fabrics/:id/tests", () => {
   it("strip test: b = 50 mm, L₀ = 200 mm, 10 N at 4 mm → k = 10 000 N/m (strip test, Hooke's law per unit width)", async () => {
     const f = await buildFabric({ production });
 
-    const res = await agent.post(`${base}/${f.id}/tests`, { testedOn: "2026-11-20", readings: { kind: "strip", direction: "weft", loadN: 10, stripWidthMm: 50, gaugeLengthMm: 200, extensionMm: 4 } });
+    const res = await agent.post(`${base}/${f.id}/tests`, {
+      testedOn: "2026-11-20",
+      readings: { kind: "strip", direction: "weft", loadN: 10, stripWidthMm: 50, gaugeLengthMm: 200, extensionMm: 4 },
+    });
 
     expect(res.status).toBe(201);
     expect(res.body.data.derived.tensileStiffnessNPerM).toBeCloseTo(10_000, 6);
@@ -83,10 +113,15 @@ describe("POST /fabrics/:id/tests", () => {
 
   it("a later mass test recomputes the rigidity of earlier bending tests (declared → tested weight)", async () => {
     const f = await buildFabric({ production, massPerAreaGsm: 280 });
-    const bend = await agent.post(`${base}/${f.id}/tests`, { testedOn: "2026-11-20", readings: { kind: "cantilever", direction: "weft", overhangMm: 40 } });
+    const bend = await agent.post(`${base}/${f.id}/tests`, {
+      testedOn: "2026-11-20",
+      readings: { kind: "cantilever", direction: "weft", overhangMm: 40 },
+    });
     expect(bend.body.data.derived.massBasis).toBe("declared");
 
-    await agent.post(`${base}/${f.id}/tests`, { testedOn: "2026-11-21", readings: { kind: "mass", massG: 2, lengthMm: 100, widthMm: 100 } }).expect(201);
+    await agent
+      .post(`${base}/${f.id}/tests`, { testedOn: "2026-11-21", readings: { kind: "mass", massG: 2, lengthMm: 100, widthMm: 100 } })
+      .expect(201);
 
     const t = await FabricTest.findByPk(bend.body.data.id);
     expect(t!.derived.massBasis).toBe("tested");
@@ -100,7 +135,10 @@ describe("POST /fabrics/:id/tests", () => {
   it("400 for a cantilever test when no mass per area is known, nothing written", async () => {
     const f = await buildFabric({ production, massPerAreaGsm: null });
 
-    const res = await agent.post(`${base}/${f.id}/tests`, { testedOn: "2026-11-20", readings: { kind: "cantilever", direction: "warp", overhangMm: 40 } });
+    const res = await agent.post(`${base}/${f.id}/tests`, {
+      testedOn: "2026-11-20",
+      readings: { kind: "cantilever", direction: "warp", overhangMm: 40 },
+    });
 
     expect(res.status).toBe(400);
     expect(res.body.error.fields["readings.overhangMm"]).toMatch(/mass/);
@@ -110,7 +148,10 @@ describe("POST /fabrics/:id/tests", () => {
   it("400 naming the reading for a negative specimen length", async () => {
     const f = await buildFabric({ production });
 
-    const res = await agent.post(`${base}/${f.id}/tests`, { testedOn: "2026-11-20", readings: { kind: "mass", massG: 1, lengthMm: -100, widthMm: 100 } });
+    const res = await agent.post(`${base}/${f.id}/tests`, {
+      testedOn: "2026-11-20",
+      readings: { kind: "mass", massG: 1, lengthMm: -100, widthMm: 100 },
+    });
 
     expect(res.status).toBe(400);
     expect(res.body.error.fields["readings.lengthMm"]).toMatch(/greater than 0/);

@@ -11,7 +11,11 @@ const app = createApp();
 
 /** Points off, as "point:status", per garment, from the fitting view. */
 function fittingVerdicts(d: FittingDetailDto): Record<string, string[]> {
-  return Object.fromEntries(d.items.filter((i) => i.garmentId).map((i) => [i.garmentId!, i.fit.filter((p) => p.status !== "fits").map((p) => `${p.point}:${p.status}`)]));
+  return Object.fromEntries(
+    d.items
+      .filter((i) => i.garmentId)
+      .map((i) => [i.garmentId!, i.fit.filter((p) => p.status !== "fits").map((p) => `${p.point}:${p.status}`)]),
+  );
 }
 
 /** Points off, as "point:status", per garment, from the Snags screen (a garment with no fit snag fits). */
@@ -41,13 +45,28 @@ describe("one garment, one verdict: fitting view and Snags screen", () => {
     const performerId = await buildPerformer(pid, { name: "Ines Varga" });
     await buildMeasurementSet(pid, performerId, { chest_girth: 900 });
     // Woven fitted jacket, 20 mm chest ease: the handbook's fitted range is 1½–2 in (38.1–50.8 mm).
-    const jacket = await buildGarment(pid, { tagCode: "JKT-1", name: "Tweed jacket", category: "jacket", fitIntent: "fitted", finished: { chest: 920 } });
+    const jacket = await buildGarment(pid, {
+      tagCode: "JKT-1",
+      name: "Tweed jacket",
+      category: "jacket",
+      fitIntent: "fitted",
+      finished: { chest: 920 },
+    });
     // Knit top cut 40 mm under the chest; warp stretch 30 % only. R = 1.3 allows ease down to
     // −900·(1 − 1/1.3) ≈ −208 mm (finished ≥ body / R), so it fits; without the stretch it is tight.
     const jersey = await buildFabric(pid, { name: "Rib jersey", construction: "knit", stretchWarpPct: 30, stretchWeftPct: null });
-    const top = await buildGarment(pid, { tagCode: "TOP-1", name: "Rib top", category: "knit top", fitIntent: "fitted", finished: { chest: 860 }, fabricId: jersey });
+    const top = await buildGarment(pid, {
+      tagCode: "TOP-1",
+      name: "Rib top",
+      category: "knit top",
+      fitIntent: "fitted",
+      finished: { chest: 860 },
+      fabricId: jersey,
+    });
     const { changeId } = await buildChangeOnDays(pid, { performerId, garmentIds: [jacket, top], dates: ["2030-09-10"] });
-    const booked = await agent.post(`/api/productions/${pid}/fittings`, { performerId, changeId, startsAt: "2030-09-03T09:30:00Z", durationMinutes: 30 }).expect(201);
+    const booked = await agent
+      .post(`/api/productions/${pid}/fittings`, { performerId, changeId, startsAt: "2030-09-03T09:30:00Z", durationMinutes: 30 })
+      .expect(201);
     const fittingUrl = `/api/productions/${pid}/fittings/${booked.body.data.id}`;
     const both = async () => {
       const fitting = (await agent.get(fittingUrl).expect(200)).body.data as FittingDetailDto;
@@ -56,7 +75,9 @@ describe("one garment, one verdict: fitting view and Snags screen", () => {
     };
 
     const before = await both();
-    await agent.patch(`/api/productions/${pid}`, { settings: { easeOverrides: { jacket: { chest: { fitted: { min: 10, max: 30 } } } } } }).expect(200);
+    await agent
+      .patch(`/api/productions/${pid}`, { settings: { easeOverrides: { jacket: { chest: { fitted: { min: 10, max: 30 } } } } } })
+      .expect(200);
     const after = await both();
 
     expect(before.snags).toEqual({ [jacket]: ["chest:tight"], [top]: [] });

@@ -32,7 +32,9 @@ describe("fitting invitation: a person organizes it, the performer is asked to r
     const performerId = await buildPerformer(production.id, { name: "Ivy Example", email: "ivy@test.invalid" });
     const agent = await signedInAgent(app, booker.email);
 
-    await agent.post(`/api/productions/${production.id}/fittings`, { performerId, startsAt: "2030-09-03T09:30:00Z", durationMinutes: 45 }).expect(201);
+    await agent
+      .post(`/api/productions/${production.id}/fittings`, { performerId, startsAt: "2030-09-03T09:30:00Z", durationMinutes: 45 })
+      .expect(201);
     const { msg, vevent } = await invitationOf("ivy@test.invalid", "Costume fitting");
 
     // RFC 5545 §3.8.4.3: ORGANIZER is a cal-address (mailto:) with an optional CN; read back with ical.js.
@@ -56,10 +58,16 @@ describe("fitting invitation: a person organizes it, the performer is asked to r
     await buildMember("cutter", { production, user: booker });
     const { user: supervisor } = await buildMember("supervisor", { production });
     const performerId = await buildPerformer(production.id, { name: "Ivy Example", email: "ivy@test.invalid" });
-    const created = await (await signedInAgent(app, booker.email)).post(`/api/productions/${production.id}/fittings`, { performerId, startsAt: "2030-09-03T09:30:00Z", durationMinutes: 45 });
+    const created = await (
+      await signedInAgent(app, booker.email)
+    ).post(`/api/productions/${production.id}/fittings`, { performerId, startsAt: "2030-09-03T09:30:00Z", durationMinutes: 45 });
     await invitationOf("ivy@test.invalid", "Costume fitting");
 
-    await (await signedInAgent(app, supervisor.email)).patch(`/api/productions/${production.id}/fittings/${created.body.data.id}`, { startsAt: "2030-09-04T13:00:00Z" }).expect(200);
+    await (
+      await signedInAgent(app, supervisor.email)
+    )
+      .patch(`/api/productions/${production.id}/fittings/${created.body.data.id}`, { startsAt: "2030-09-04T13:00:00Z" })
+      .expect(200);
     const { vevent } = await invitationOf("ivy@test.invalid", "Fitting moved");
 
     expect(String(vevent.getFirstPropertyValue("organizer")).toLowerCase()).toBe("mailto:rosa@test.invalid");

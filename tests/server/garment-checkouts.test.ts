@@ -31,7 +31,11 @@ describe("check-out to a person (POST /garments/moves and /scan with checkout)",
     const scene = await buildScene({ production, number: "42A" });
     const day = await buildShootDay({ production, date: "2030-09-03", scenes: [scene] });
 
-    const res = await agent.post(`${base}/moves`, { garmentIds: [g.id], status: "on_set", checkout: { toPerformerId: performer.id, shootDayId: day.id, sceneId: scene.id } });
+    const res = await agent.post(`${base}/moves`, {
+      garmentIds: [g.id],
+      status: "on_set",
+      checkout: { toPerformerId: performer.id, shootDayId: day.id, sceneId: scene.id },
+    });
 
     expect(res.status).toBe(200);
     const dto = res.body.data[0].garment;
@@ -50,7 +54,11 @@ describe("check-out to a person (POST /garments/moves and /scan with checkout)",
   it("checks out to a member by user id through the tag-code scan, with an explicit due date", async () => {
     const g = await buildGarment({ production });
 
-    const res = await agent.post(`${base}/scan`, { tagCode: g.tagCode, status: "on_set", checkout: { toUserId: setCostumer.id, dueBackOn: "2030-09-05" } });
+    const res = await agent.post(`${base}/scan`, {
+      tagCode: g.tagCode,
+      status: "on_set",
+      checkout: { toUserId: setCostumer.id, dueBackOn: "2030-09-05" },
+    });
 
     expect(res.status).toBe(200);
     expect(res.body.data.garment.checkout.to).toEqual({ kind: "member", id: setCostumer.id, name: setCostumer.name });
@@ -67,7 +75,9 @@ describe("check-out to a person (POST /garments/moves and /scan with checkout)",
     const onlyOut = await agent.get(`${base}?out=out`);
     const detail = await agent.get(`${base}/${out.id}`);
 
-    expect(list.body.data.map((g: { name: string; checkout: { to: { name: string } } | null }) => [g.name, g.checkout?.to.name ?? null])).toEqual([
+    expect(
+      list.body.data.map((g: { name: string; checkout: { to: { name: string } } | null }) => [g.name, g.checkout?.to.name ?? null]),
+    ).toEqual([
       ["Home", null],
       ["Out", "Ada Pell"],
     ]);
@@ -116,7 +126,12 @@ describe("check-out to a person (POST /garments/moves and /scan with checkout)",
     const cases: Array<[object, string, string, RegExp]> = [
       [{ toPerformerId: stranger.id }, "on_set", "checkout.toPerformerId", /not a performer of this production/],
       [{ toUserId: outsider.id }, "on_set", "checkout.toUserId", /not a member/],
-      [{ toPerformerId: performer.id, sceneId: scene.id, shootDayId: day.id }, "on_set", "checkout.sceneId", /scene 7 is not on shoot day Wed 4 Sep 2030/],
+      [
+        { toPerformerId: performer.id, sceneId: scene.id, shootDayId: day.id },
+        "on_set",
+        "checkout.sceneId",
+        /scene 7 is not on shoot day Wed 4 Sep 2030/,
+      ],
       [{ toPerformerId: performer.id, dueBackOn: "2030-09-01" }, "on_set", "checkout.dueBackOn", /cannot be before today \(2030-09-02\)/],
       [{ toPerformerId: performer.id }, "cleaning", "status", /On set or Fitting/],
       [{}, "on_set", "checkout.toUserId", /one member or one performer/],
@@ -140,7 +155,11 @@ describe("check-out to a person (POST /garments/moves and /scan with checkout)",
     const scene = await buildScene({ production: stage, number: "2" });
     const perf = await buildShootDay({ production: stage, date: "2030-09-02", kind: "performance" });
 
-    const res = await sup.post(`/api/productions/${stage.id}/garments/moves`, { garmentIds: [g.id], status: "on_set", checkout: { toUserId: user.id, shootDayId: perf.id, sceneId: scene.id } });
+    const res = await sup.post(`/api/productions/${stage.id}/garments/moves`, {
+      garmentIds: [g.id],
+      status: "on_set",
+      checkout: { toUserId: user.id, shootDayId: perf.id, sceneId: scene.id },
+    });
 
     expect(res.status).toBe(200);
     expect(res.body.data[0].event.note).toContain("for performance Mon 2 Sep 2030, scene 2");
@@ -152,8 +171,16 @@ describe("out past due (snag and list filter)", () => {
     const late = await buildGarment({ production, name: "Late coat" });
     const fine = await buildGarment({ production, name: "Fine coat" });
     const performer = await buildPerformer({ production, name: "Ada Pell" });
-    await agent.post(`${base}/moves`, { garmentIds: [late.id], status: "on_set", checkout: { toPerformerId: performer.id, dueBackOn: "2030-09-03" } });
-    await agent.post(`${base}/moves`, { garmentIds: [fine.id], status: "on_set", checkout: { toPerformerId: performer.id, dueBackOn: "2030-09-04" } });
+    await agent.post(`${base}/moves`, {
+      garmentIds: [late.id],
+      status: "on_set",
+      checkout: { toPerformerId: performer.id, dueBackOn: "2030-09-03" },
+    });
+    await agent.post(`${base}/moves`, {
+      garmentIds: [fine.id],
+      status: "on_set",
+      checkout: { toPerformerId: performer.id, dueBackOn: "2030-09-04" },
+    });
 
     clock.set("2030-09-04", { frozen: true });
     const snags = await agent.get(`/api/productions/${production.id}/snags?kind=checkout_overdue`);
@@ -166,7 +193,9 @@ describe("out past due (snag and list filter)", () => {
     expect(s.explanation).toContain("was due back on Tue 3 Sep 2030; on Wed 4 Sep 2030 it is 1 day past due");
     expect(s.links[0].href).toBe(`/p/${production.id}/wardrobe/garments/${late.id}`);
     expect(s.links.map((l: { label: string }) => l.label)).toContain("Ada Pell");
-    expect(pastDue.body.data.map((g: { name: string; checkout: { pastDue: boolean } }) => [g.name, g.checkout.pastDue])).toEqual([["Late coat", true]]);
+    expect(pastDue.body.data.map((g: { name: string; checkout: { pastDue: boolean } }) => [g.name, g.checkout.pastDue])).toEqual([
+      ["Late coat", true],
+    ]);
   });
 
   it("the snag goes away when the garment is checked in", async () => {
@@ -187,8 +216,16 @@ describe("GET /garments/checkouts and /garments/checkout-options", () => {
     const a = await buildGarment({ production, name: "A" });
     const b = await buildGarment({ production, name: "B" });
     const performer = await buildPerformer({ production });
-    await agent.post(`${base}/moves`, { garmentIds: [a.id], status: "on_set", checkout: { toPerformerId: performer.id, dueBackOn: "2030-09-09" } });
-    await agent.post(`${base}/moves`, { garmentIds: [b.id], status: "fitting", checkout: { toUserId: setCostumer.id, dueBackOn: "2030-09-03" } });
+    await agent.post(`${base}/moves`, {
+      garmentIds: [a.id],
+      status: "on_set",
+      checkout: { toPerformerId: performer.id, dueBackOn: "2030-09-09" },
+    });
+    await agent.post(`${base}/moves`, {
+      garmentIds: [b.id],
+      status: "fitting",
+      checkout: { toUserId: setCostumer.id, dueBackOn: "2030-09-03" },
+    });
 
     const res = await agent.get(`${base}/checkouts`);
 
@@ -211,6 +248,8 @@ describe("GET /garments/checkouts and /garments/checkout-options", () => {
     expect(res.body.data.today).toBe("2030-09-02");
     expect(res.body.data.members).toEqual([{ userId: setCostumer.id, name: setCostumer.name, role: "Set costumer" }]);
     expect(res.body.data.performers).toEqual([{ id: performer.id, name: "Ada Pell", characters: [] }]);
-    expect(res.body.data.days).toEqual([{ id: next.id, date: "2030-09-02", kind: "shoot", dayNumber: 2, scenes: [{ id: scene.id, number: "12" }] }]);
+    expect(res.body.data.days).toEqual([
+      { id: next.id, date: "2030-09-02", kind: "shoot", dayNumber: 2, scenes: [{ id: scene.id, number: "12" }] },
+    ]);
   });
 });

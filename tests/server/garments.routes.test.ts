@@ -21,7 +21,14 @@ beforeEach(async () => {
   base = `/api/productions/${production.id}/garments`;
 });
 
-const jacket = { name: "Keeper's jacket", category: "jacket", source: "built", fitIntent: "fitted", finishedMeasurements: { chest: 1040, sleeve: 640 }, locationRack: "C3" };
+const jacket = {
+  name: "Keeper's jacket",
+  category: "jacket",
+  source: "built",
+  fitIntent: "fitted",
+  finishedMeasurements: { chest: 1040, sleeve: 640 },
+  locationRack: "C3",
+};
 
 describe("POST /garments", () => {
   it("401 without a session", async () => {
@@ -88,7 +95,12 @@ describe("POST /garments/moves (bulk status change)", () => {
     const a = await buildGarment({ production });
     const b = await buildGarment({ production });
 
-    const res = await agent.post(`${base}/moves`, { garmentIds: [a.id, b.id], status: "cleaning", locationRack: null, note: "after day 3" });
+    const res = await agent.post(`${base}/moves`, {
+      garmentIds: [a.id, b.id],
+      status: "cleaning",
+      locationRack: null,
+      note: "after day 3",
+    });
 
     expect(res.status).toBe(200);
     const events = await GarmentStatusEvent.findAll({ order: [["garmentId", "ASC"]] });
@@ -162,7 +174,25 @@ describe("POST /garments/scan (check in / out)", () => {
 describe("GET /garments", () => {
   it("filters rented garments due within N days of a given day, overdue included, returned excluded", async () => {
     const mk = (name: string, due: string, status: Garment["status"] = "in_stock") =>
-      Garment.create({ productionId: production.id, tagCode: `${name}`, name, category: "coat", sizeLabel: null, fabricId: null, colour: null, source: "rented", vendor: "Hire", costCents: 1000, rentalDueOn: due, locationRack: null, locationBin: null, status, multiplesGroupId: null, copyNumber: null, notes: null });
+      Garment.create({
+        productionId: production.id,
+        tagCode: `${name}`,
+        name,
+        category: "coat",
+        sizeLabel: null,
+        fabricId: null,
+        colour: null,
+        source: "rented",
+        vendor: "Hire",
+        costCents: 1000,
+        rentalDueOn: due,
+        locationRack: null,
+        locationBin: null,
+        status,
+        multiplesGroupId: null,
+        copyNumber: null,
+        notes: null,
+      });
     await mk("22222-2", "2026-12-11");
     await mk("23222-4", "2026-12-30");
     await mk("32222-3", "2026-12-01");
@@ -183,8 +213,12 @@ describe("GET /garments", () => {
     await copy.update({ multiplesGroupId: group.id, copyNumber: 1 });
     const cid = randomUUID();
     const chid = randomUUID();
-    await sequelize.query(`INSERT INTO characters (id, production_id, name) VALUES (:cid, :pid, 'Silas')`, { replacements: { cid, pid: production.id } });
-    await sequelize.query(`INSERT INTO changes (id, production_id, character_id, number) VALUES (:chid, :pid, :cid, 1)`, { replacements: { chid, cid, pid: production.id } });
+    await sequelize.query(`INSERT INTO characters (id, production_id, name) VALUES (:cid, :pid, 'Silas')`, {
+      replacements: { cid, pid: production.id },
+    });
+    await sequelize.query(`INSERT INTO changes (id, production_id, character_id, number) VALUES (:chid, :pid, :cid, 1)`, {
+      replacements: { chid, cid, pid: production.id },
+    });
     await sequelize.query(
       `INSERT INTO change_items (id, production_id, change_id, label, garment_id, multiples_group_id) VALUES (:a, :pid, :chid, 'coat', :g, NULL), (:b, :pid, :chid, 'oilskin', NULL, :grp)`,
       { replacements: { a: randomUUID(), b: randomUUID(), pid: production.id, chid, g: direct.id, grp: group.id } },
@@ -194,7 +228,9 @@ describe("GET /garments", () => {
     const detail = await agent.get(`${base}/${copy.id}`);
 
     expect(res.body.data.map((g: { name: string }) => g.name)).toEqual(["copy", "direct"]);
-    expect(detail.body.data.changes).toEqual([expect.objectContaining({ characterName: "Silas", changeNumber: 1, label: "oilskin", viaGroup: true })]);
+    expect(detail.body.data.changes).toEqual([
+      expect.objectContaining({ characterName: "Silas", changeNumber: 1, label: "oilskin", viaGroup: true }),
+    ]);
   });
 
   it("exports CSV with mm and production-unit columns", async () => {
@@ -214,11 +250,14 @@ describe("GET /garments", () => {
   it("renders a tag-label PDF", async () => {
     const a = await buildGarment({ production });
 
-    const res = await agent.get(`${base}/labels.pdf?ids=${a.id}`).buffer(true).parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on("data", (c: Buffer) => chunks.push(c));
-      r.on("end", () => cb(null, Buffer.concat(chunks)));
-    });
+    const res = await agent
+      .get(`${base}/labels.pdf?ids=${a.id}`)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on("data", (c: Buffer) => chunks.push(c));
+        r.on("end", () => cb(null, Buffer.concat(chunks)));
+      });
 
     expect(res.status).toBe(200);
     expect((res.body as Buffer).subarray(0, 5).toString()).toBe("%PDF-");

@@ -40,7 +40,10 @@ describe("sessions for signed-out visitors", () => {
     const theirs = await anonymousAgent(app);
 
     const none = await request(app).post("/api/auth/login").send({ email: user.email, password: TEST_PASSWORD });
-    const crossed = await mine.agent.post("/api/auth/login").set("X-CSRF-Token", theirs.csrf).send({ email: user.email, password: TEST_PASSWORD });
+    const crossed = await mine.agent
+      .post("/api/auth/login")
+      .set("X-CSRF-Token", theirs.csrf)
+      .send({ email: user.email, password: TEST_PASSWORD });
 
     expect(none.status).toBe(403);
     expect(crossed.status).toBe(403);
@@ -64,10 +67,16 @@ describe("GET /garments?rack=", () => {
     const { user, production } = await buildMember("supervisor");
     const agent = await signedInAgent(app, user.email);
     const base = `/api/productions/${production.id}/garments`;
-    for (const [name, rack] of [["Coat", "A1"], ["Shawl", "B1"], ["Cap", "5%"], ["Smock", "C_3"]]) {
+    for (const [name, rack] of [
+      ["Coat", "A1"],
+      ["Shawl", "B1"],
+      ["Cap", "5%"],
+      ["Smock", "C_3"],
+    ]) {
       await agent.post(base, { name, category: "jacket", source: "built", fitIntent: "fitted", locationRack: rack }).expect(201);
     }
-    const names = async (rack: string) => ((await agent.get(`${base}?rack=${encodeURIComponent(rack)}`)).body.data as Array<{ name: string }>).map((g) => g.name).sort();
+    const names = async (rack: string) =>
+      ((await agent.get(`${base}?rack=${encodeURIComponent(rack)}`)).body.data as Array<{ name: string }>).map((g) => g.name).sort();
 
     expect(await names("%")).toEqual([]);
     expect(await names("_1")).toEqual([]);
@@ -101,7 +110,10 @@ describe("POST /fabrics/:id/tests plausibility", () => {
     const fabric = await buildFabric({ production });
     const agent = await signedInAgent(app, user.email);
 
-    const res = await agent.post(`/api/productions/${production.id}/fabrics/${fabric.id}/tests`, { testedOn: "2026-11-20", readings: { kind: "mass", massG: 1e-300, lengthMm: 100, widthMm: 100 } });
+    const res = await agent.post(`/api/productions/${production.id}/fabrics/${fabric.id}/tests`, {
+      testedOn: "2026-11-20",
+      readings: { kind: "mass", massG: 1e-300, lengthMm: 100, widthMm: 100 },
+    });
 
     expect(res.status).toBe(400);
     expect(res.body.error.fields["readings.massG"]).toMatch(/below the plausible minimum of 0.01 g/);

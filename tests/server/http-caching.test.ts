@@ -20,7 +20,10 @@ beforeEach(async () => {
 });
 
 async function sessionRow(): Promise<{ expire: Date; touchedAt: number | null }> {
-  const rows = await sequelize.query<{ expire: Date; touched_at: string | null }>(`SELECT expire, sess->>'touchedAt' AS touched_at FROM session`, { type: QueryTypes.SELECT });
+  const rows = await sequelize.query<{ expire: Date; touched_at: string | null }>(
+    `SELECT expire, sess->>'touchedAt' AS touched_at FROM session`,
+    { type: QueryTypes.SELECT },
+  );
   expect(rows).toHaveLength(1);
   return { expire: rows[0]!.expire, touchedAt: rows[0]!.touched_at === null ? null : Number(rows[0]!.touched_at) };
 }
@@ -42,7 +45,10 @@ describe("session", () => {
     const { user } = await buildMember("supervisor");
     const agent = await signedInAgent(app, user.email);
     const longAgo = Date.now() - SESSION_TOUCH_INTERVAL_MS - 1000;
-    await sequelize.query(`UPDATE session SET sess = jsonb_set(sess::jsonb, '{touchedAt}', to_jsonb(:t::bigint))::json, expire = expire - interval '1 day'`, { replacements: { t: longAgo } });
+    await sequelize.query(
+      `UPDATE session SET sess = jsonb_set(sess::jsonb, '{touchedAt}', to_jsonb(:t::bigint))::json, expire = expire - interval '1 day'`,
+      { replacements: { t: longAgo } },
+    );
     const before = await sessionRow();
 
     const res = await agent.get("/api/auth/me").expect(200);

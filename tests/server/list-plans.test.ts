@@ -32,8 +32,14 @@ beforeAll(async () => {
   await seedScaledProduction(10, { listsOnly: true });
   const user = (await User.findOne({ where: { email: "supervisor@seamscene.test" } }))!;
   actor = { user, productionId: scaledProductionId(10), role: "supervisor" };
-  const [c] = await sequelize.query<{ id: string }>(`SELECT id FROM characters WHERE production_id = :pid ORDER BY sort_order LIMIT 1 OFFSET 7`, { replacements: { pid: actor.productionId }, type: QueryTypes.SELECT });
-  const [d] = await sequelize.query<{ id: string }>(`SELECT id FROM shoot_days WHERE production_id = :pid ORDER BY day_number LIMIT 1 OFFSET 400`, { replacements: { pid: actor.productionId }, type: QueryTypes.SELECT });
+  const [c] = await sequelize.query<{ id: string }>(
+    `SELECT id FROM characters WHERE production_id = :pid ORDER BY sort_order LIMIT 1 OFFSET 7`,
+    { replacements: { pid: actor.productionId }, type: QueryTypes.SELECT },
+  );
+  const [d] = await sequelize.query<{ id: string }>(
+    `SELECT id FROM shoot_days WHERE production_id = :pid ORDER BY day_number LIMIT 1 OFFSET 400`,
+    { replacements: { pid: actor.productionId }, type: QueryTypes.SELECT },
+  );
   characterId = c!.id;
   shootDayId = d!.id;
 }, 180_000);
@@ -65,7 +71,10 @@ async function sequentialScansOf(run: () => Promise<unknown>): Promise<{ queries
   for (const sql of selects) {
     const row = await sequelize.transaction(async (transaction) => {
       await sequelize.query(`SET LOCAL enable_seqscan = off`, { transaction });
-      const [r] = await sequelize.query<{ "QUERY PLAN": Array<{ Plan: PlanNode }> }>(`EXPLAIN (FORMAT JSON) ${sql}`, { type: QueryTypes.SELECT, transaction });
+      const [r] = await sequelize.query<{ "QUERY PLAN": Array<{ Plan: PlanNode }> }>(`EXPLAIN (FORMAT JSON) ${sql}`, {
+        type: QueryTypes.SELECT,
+        transaction,
+      });
       return r;
     });
     const walk = (n: PlanNode) => {
@@ -121,7 +130,11 @@ describe("list plans on a 10× production", () => {
     ["page 30", { page: 30 }],
   ];
   it.each(sceneCases)("scenes %s", async (_name, params) => {
-    const q = listScenesQuerySchema.parse({ ...params, ...(params.shootDayId ? { shootDayId } : {}), ...(params.characterId ? { characterId } : {}) });
+    const q = listScenesQuerySchema.parse({
+      ...params,
+      ...(params.shootDayId ? { shootDayId } : {}),
+      ...(params.characterId ? { characterId } : {}),
+    });
 
     const { queries, seqScans } = await sequentialScansOf(() => listScenes(actor, q));
 

@@ -25,7 +25,9 @@ function tempDir(prefix: string): string {
 
 /** Runs a PostgreSQL program as the postgres user when we are root (like the code under test). */
 function asPostgres(bin: string, args: string[]) {
-  const res = isRoot ? spawnSync("runuser", ["-u", "postgres", "--", pgBin(bin), ...args], { encoding: "utf8", cwd: "/" }) : spawnSync(pgBin(bin), args, { encoding: "utf8" });
+  const res = isRoot
+    ? spawnSync("runuser", ["-u", "postgres", "--", pgBin(bin), ...args], { encoding: "utf8", cwd: "/" })
+    : spawnSync(pgBin(bin), args, { encoding: "utf8" });
   return { status: res.status, output: `${res.stdout}${res.stderr}` };
 }
 
@@ -54,7 +56,8 @@ const running = (dataDir: string) => pgCtl(dataDir, ["status"], { allowFail: tru
 
 afterAll(() => {
   for (const dir of clusters) pgCtl(dir, ["-m", "immediate", "stop"], { allowFail: true });
-  for (const dir of [...tempRoots, ...clusters.filter((d) => d.includes(`${path.sep}seamscene${path.sep}`))]) fs.rmSync(dir, { recursive: true, force: true });
+  for (const dir of [...tempRoots, ...clusters.filter((d) => d.includes(`${path.sep}seamscene${path.sep}`))])
+    fs.rmSync(dir, { recursive: true, force: true });
 });
 
 describe("the private PostgreSQL cluster", () => {
@@ -82,17 +85,25 @@ describe("the private PostgreSQL cluster", () => {
     const port = await freePort();
     // npm start's own preparation (scripts/lib/local-env.ts), in a child process as `npm start` runs it.
     const code = `import(${JSON.stringify(path.resolve("scripts/lib/local-env.ts"))}).then(async (m) => { const l = await m.prepareLocalEnv(); console.log("RESULT " + JSON.stringify({ url: process.env.DATABASE_URL, dataDir: l.pg.dataDir, startedHere: l.pg.startedHere })); })`;
-    const child = spawnTsx(["-e", code], childEnv({ PGDATA_DIR: dataDir, PGPORT: String(port), DATABASE_URL: "", PGDATABASE: "seamscene" }));
+    const child = spawnTsx(
+      ["-e", code],
+      childEnv({ PGDATA_DIR: dataDir, PGPORT: String(port), DATABASE_URL: "", PGDATABASE: "seamscene" }),
+    );
     expect(await child.exited, child.output()).toBe(0);
     const result = JSON.parse(child.output().split("RESULT ")[1]!.trim()) as { url: string; dataDir: string; startedHere: boolean };
     expect(result.startedHere).toBe(true);
     expect(result.dataDir).toBe(dataDir);
 
-    const [me] = await query(result.url, "SELECT current_user AS role, (SELECT rolsuper FROM pg_roles WHERE rolname = current_user) AS super, (SELECT pg_get_userbyid(datdba) FROM pg_database WHERE datname = current_database()) AS owner, current_setting('fsync') AS fsync");
+    const [me] = await query(
+      result.url,
+      "SELECT current_user AS role, (SELECT rolsuper FROM pg_roles WHERE rolname = current_user) AS super, (SELECT pg_get_userbyid(datdba) FROM pg_database WHERE datname = current_database()) AS owner, current_setting('fsync') AS fsync",
+    );
     expect(me).toEqual({ role: "seamscene", super: false, owner: "seamscene", fsync: "on" });
 
     // The app's role cannot run programs as the postgres user.
-    await expect(query(result.url, "COPY (SELECT 1) TO PROGRAM 'true'")).rejects.toThrow(/permission denied|must be superuser|privileges of the pg_execute_server_program/i);
+    await expect(query(result.url, "COPY (SELECT 1) TO PROGRAM 'true'")).rejects.toThrow(
+      /permission denied|must be superuser|privileges of the pg_execute_server_program/i,
+    );
 
     // The password file: only its owner may read it.
     expect(fs.statSync(path.join(dataDir, CREDENTIALS_FILE)).mode & 0o777).toBe(0o600);
@@ -100,12 +111,18 @@ describe("the private PostgreSQL cluster", () => {
 
     // Without the password, or with a wrong one, nobody gets in: not the app's role, not the superuser.
     for (const user of ["seamscene", "seamscene_admin", "postgres"]) {
-      expect(await connectError({ host: "127.0.0.1", port, user, password: "wrong-password", database: "postgres" })).toMatch(/password authentication failed/);
+      expect(await connectError({ host: "127.0.0.1", port, user, password: "wrong-password", database: "postgres" })).toMatch(
+        /password authentication failed/,
+      );
     }
     // A local account with no password at all (psql, never prompting).
     const psqlArgs = ["-h", "127.0.0.1", "-p", String(port), "-U", "seamscene_admin", "-w", "-d", "postgres", "-c", "SELECT 1"];
     const psql = isRoot
-      ? spawnSync("runuser", ["-u", "nobody", "--", pgBin("psql"), ...psqlArgs], { encoding: "utf8", cwd: "/", env: { PATH: process.env.PATH } })
+      ? spawnSync("runuser", ["-u", "nobody", "--", pgBin("psql"), ...psqlArgs], {
+          encoding: "utf8",
+          cwd: "/",
+          env: { PATH: process.env.PATH },
+        })
       : spawnSync(pgBin("psql"), psqlArgs, { encoding: "utf8", env: { PATH: process.env.PATH, PGPASSFILE: "/dev/null" } });
     expect(psql.status).not.toBe(0);
     expect(psql.stderr).toMatch(/no password supplied|password authentication failed/);
@@ -138,7 +155,18 @@ describe("the private PostgreSQL cluster", () => {
     fs.mkdirSync(dataDir, { recursive: true });
     if (isRoot) spawnSync("chown", ["-R", "postgres:postgres", dataDir]);
     expect(asPostgres("initdb", ["-D", dataDir, "-A", "trust", "-U", "app", "-E", "UTF8", "--no-locale"]).status).toBe(0);
-    expect(asPostgres("pg_ctl", ["-D", dataDir, "-w", "-l", path.join(dataDir, "server.log"), "-o", `-h 127.0.0.1 -p ${port} -k /tmp -c fsync=off`, "start"]).status).toBe(0);
+    expect(
+      asPostgres("pg_ctl", [
+        "-D",
+        dataDir,
+        "-w",
+        "-l",
+        path.join(dataDir, "server.log"),
+        "-o",
+        `-h 127.0.0.1 -p ${port} -k /tmp -c fsync=off`,
+        "start",
+      ]).status,
+    ).toBe(0);
     const oldAdmin = { host: "127.0.0.1", port, user: "app" };
     const c = new pg.Client({ ...oldAdmin, database: "postgres" });
     await c.connect();
@@ -158,8 +186,13 @@ describe("the private PostgreSQL cluster", () => {
     const url = secured.appUrl("seamscene");
     // The data is there, and the app's role owns it all, so migrations (ALTER TABLE) keep working.
     expect(await query(url, "SELECT name, status FROM garments")).toEqual([{ name: "Fisherman's smock", status: "on_set" }]);
-    await query(url, "ALTER TABLE garments ADD COLUMN notes text; ALTER TABLE pgboss.job ADD COLUMN data jsonb; ALTER TYPE enum_garments_status ADD VALUE 'cleaning'; CREATE OR REPLACE FUNCTION refuse_change() RETURNS trigger LANGUAGE plpgsql AS $$ BEGIN RETURN OLD; END $$");
-    expect(await query(url, "SELECT current_user AS role, (SELECT rolsuper FROM pg_roles WHERE rolname = current_user) AS super")).toEqual([{ role: "seamscene", super: false }]);
+    await query(
+      url,
+      "ALTER TABLE garments ADD COLUMN notes text; ALTER TABLE pgboss.job ADD COLUMN data jsonb; ALTER TYPE enum_garments_status ADD VALUE 'cleaning'; CREATE OR REPLACE FUNCTION refuse_change() RETURNS trigger LANGUAGE plpgsql AS $$ BEGIN RETURN OLD; END $$",
+    );
+    expect(await query(url, "SELECT current_user AS role, (SELECT rolsuper FROM pg_roles WHERE rolname = current_user) AS super")).toEqual([
+      { role: "seamscene", super: false },
+    ]);
     // The earlier superuser no longer gets in without a password.
     expect(await connectError({ ...oldAdmin, database: "postgres" })).not.toBe("connected");
     expect(await connectError({ ...oldAdmin, password: "wrong", database: "postgres" })).toMatch(/password authentication failed/);

@@ -23,7 +23,11 @@ beforeEach(async () => {
 
 describe("POST measurements", () => {
   it("stores inches as exact millimetres (1 in = 25.4 mm) with who took them", async () => {
-    const res = await agent.post(url, { takenOn: "2026-11-18", unit: "in", values: { chest_girth: 40, waist_girth: 33.5, height: 70, inside_leg_length: 32 } });
+    const res = await agent.post(url, {
+      takenOn: "2026-11-18",
+      unit: "in",
+      values: { chest_girth: 40, waist_girth: 33.5, height: 70, inside_leg_length: 32 },
+    });
 
     expect(res.status).toBe(201);
     // 1959 international yard: 1 in = 25.4 mm exactly (NIST SP 811 App. B.8, 1959 international yard and pound).
@@ -57,7 +61,11 @@ describe("POST measurements", () => {
   it("404 for a performer of another production", async () => {
     const other = await buildPerformer();
 
-    const res = await agent.post(`/api/productions/${production.id}/performers/${other.id}/measurements`, { takenOn: "2026-11-18", unit: "cm", values: { chest_girth: 100 } });
+    const res = await agent.post(`/api/productions/${production.id}/performers/${other.id}/measurements`, {
+      takenOn: "2026-11-18",
+      unit: "cm",
+      values: { chest_girth: 100 },
+    });
 
     expect(res.status).toBe(404);
     expect(await MeasurementSet.count()).toBe(0);
@@ -72,7 +80,12 @@ describe("POST measurements", () => {
 describe("GET measurements", () => {
   it("lists sets newest first with sizes from the newest set", async () => {
     await buildMeasurementSet(performer.id, production, { chest_girth: 980, height: 1800 }, "2026-10-01");
-    await buildMeasurementSet(performer.id, production, { chest_girth: 1016, height: 1778, waist_girth: 851, inside_leg_length: 813, foot_length: 268 }, "2026-11-18");
+    await buildMeasurementSet(
+      performer.id,
+      production,
+      { chest_girth: 1016, height: 1778, waist_girth: 851, inside_leg_length: 813, foot_length: 268 },
+      "2026-11-18",
+    );
 
     const res = await agent.get(url);
 

@@ -2,7 +2,7 @@ import { beforeEach, describe, expect, it } from "vitest";
 import request from "supertest";
 import { randomUUID } from "node:crypto";
 import { createApp } from "../../server/app.js";
-import { Invitation, Membership, Production, User } from "../../server/models/index.js";
+import { Invitation, Membership, Production } from "../../server/models/index.js";
 import { buildMember, buildUser } from "../factories.js";
 import { anonymousAgent, resetDb, signedInAgent, waitForMail } from "../setup/http.js";
 
@@ -32,7 +32,11 @@ describe("POST /api/productions", () => {
     const tooLong = await agent.post("/api/productions", { title: "x".repeat(201), kind: "film" });
     const badKind = await agent.post("/api/productions", { title: "A", kind: "opera" });
     const badDates = await agent.post("/api/productions", { title: "A", kind: "film", startsOn: "2027-01-10", endsOn: "2027-01-01" });
-    const malformed = await agent.agent.post("/api/productions").set("X-CSRF-Token", agent.csrf).set("Content-Type", "application/json").send('{"title": ');
+    const malformed = await agent.agent
+      .post("/api/productions")
+      .set("X-CSRF-Token", agent.csrf)
+      .set("Content-Type", "application/json")
+      .send('{"title": ');
 
     expect(missing.status).toBe(400);
     expect(missing.body.error.fields.title).toBe("Title is required");
@@ -77,7 +81,9 @@ describe("invitations", () => {
 
     const me = await anon.get("/api/auth/me");
     expect(me.body.data.memberships).toEqual([expect.objectContaining({ productionId: production.id, role: "cutter" })]);
-    const reuse = await (await anonymousAgent(app)).post("/api/invitations/accept", { token, name: "Someone", password: "long-enough-password" });
+    const reuse = await (
+      await anonymousAgent(app)
+    ).post("/api/invitations/accept", { token, name: "Someone", password: "long-enough-password" });
     expect(reuse.status).toBe(404);
   });
 
@@ -98,7 +104,9 @@ describe("invitations", () => {
     const other = await buildUser({ email: "known@test.invalid" });
     const agent = await signedInAgent(app, boss.email);
     await agent.post(`/api/productions/${production.id}/invitations`, { email: "known@test.invalid", role: "vfx" }).expect(201);
-    const token = /invitations\/([A-Za-z0-9_-]+)/.exec((await waitForMail((m) => m.recipients.includes("known@test.invalid"))).textBody ?? "")![1]!;
+    const token = /invitations\/([A-Za-z0-9_-]+)/.exec(
+      (await waitForMail((m) => m.recipients.includes("known@test.invalid"))).textBody ?? "",
+    )![1]!;
 
     const anon = await anonymousAgent(app);
     const refused = await anon.post("/api/invitations/accept", { token });
@@ -144,7 +152,12 @@ describe("members", () => {
 
     const list = await agent.get("/api/productions");
 
-    expect(list.body.data.map((p: { id: string; role: string }) => [p.id, p.role]).sort()).toEqual([[a.id, "supervisor"], [b.id, "cutter"]].sort());
+    expect(list.body.data.map((p: { id: string; role: string }) => [p.id, p.role]).sort()).toEqual(
+      [
+        [a.id, "supervisor"],
+        [b.id, "cutter"],
+      ].sort(),
+    );
     expect((await agent.get(`/api/productions/${b.id}/members`)).status).toBe(403);
     expect((await agent.get(`/api/productions/${a.id}/members`)).status).toBe(200);
   });

@@ -19,7 +19,12 @@ afterEach(() => {
   (config as { DEV_OUTBOX: boolean }).DEV_OUTBOX = true;
 });
 
-const mailTo = (address: string, subject = "Tomorrow in the workroom") => ({ to: address, subject, text: `For ${address}`, html: `<p>For ${address}</p>` });
+const mailTo = (address: string, subject = "Tomorrow in the workroom") => ({
+  to: address,
+  subject,
+  text: `For ${address}`,
+  html: `<p>For ${address}</p>`,
+});
 
 describe("GET /api/productions/:productionId/outbox", () => {
   it("never shows another account's reset link, invitation token or fitting mail to a supervisor of a production they created", async () => {
@@ -28,8 +33,17 @@ describe("GET /api/productions/:productionId/outbox", () => {
     const victim = await buildMember("supervisor");
     const performerId = await buildPerformer(victim.production.id, { name: "Ivy Example", email: "ivy@test.invalid" });
     const victimAgent = await signedInAgent(app, victim.user.email);
-    await victimAgent.post(`/api/productions/${victim.production.id}/invitations`, { email: "new.cutter@test.invalid", role: "cutter" }).expect(201);
-    await victimAgent.post(`/api/productions/${victim.production.id}/fittings`, { performerId, startsAt: "2030-09-03T09:30:00Z", durationMinutes: 45, attendeeIds: [victim.user.id] }).expect(201);
+    await victimAgent
+      .post(`/api/productions/${victim.production.id}/invitations`, { email: "new.cutter@test.invalid", role: "cutter" })
+      .expect(201);
+    await victimAgent
+      .post(`/api/productions/${victim.production.id}/fittings`, {
+        performerId,
+        startsAt: "2030-09-03T09:30:00Z",
+        durationMinutes: 45,
+        attendeeIds: [victim.user.id],
+      })
+      .expect(201);
     // A digital-double artist creates their own production and so becomes its supervisor.
     const attacker = await buildMember("vfx");
     const attackerAgent = await signedInAgent(app, attacker.user.email);
@@ -77,8 +91,18 @@ describe("GET /api/productions/:productionId/outbox", () => {
     const outsider = await buildUser({ email: "outsider@test.invalid" });
     await queueWorkroomEmail({ productionId: production.id, kind: "evening_reminder", dedupeKey: "r1", mail: mailTo(cutter.user.email) });
     await queueWorkroomEmail({ productionId: production.id, kind: "evening_reminder", dedupeKey: "r2", mail: mailTo(outsider.email) });
-    await queueWorkroomEmail({ productionId: production.id, kind: "evening_reminder", dedupeKey: "r3", mail: { ...mailTo(cutter.user.email), to: [cutter.user.email, outsider.email] } });
-    await queueWorkroomEmail({ productionId: other.production.id, kind: "evening_reminder", dedupeKey: "r4", mail: mailTo(cutter.user.email, "Another production") });
+    await queueWorkroomEmail({
+      productionId: production.id,
+      kind: "evening_reminder",
+      dedupeKey: "r3",
+      mail: { ...mailTo(cutter.user.email), to: [cutter.user.email, outsider.email] },
+    });
+    await queueWorkroomEmail({
+      productionId: other.production.id,
+      kind: "evening_reminder",
+      dedupeKey: "r4",
+      mail: mailTo(cutter.user.email, "Another production"),
+    });
     while ((await OutboxMessage.count()) < 4) await new Promise((r) => setTimeout(r, 20));
     const agent = await signedInAgent(app, user.email);
 

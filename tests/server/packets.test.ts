@@ -19,7 +19,15 @@ import { packetManifestSchema, stitchesFileSchema } from "@shared/schemas/packet
 import { pointSegmentDistance } from "@shared/domain/panels/geometry.js";
 import { resetDb, signedInAgent, waitForMail, type TestAgent } from "../setup/http.js";
 import { buildMember, buildUser } from "../factories.js";
-import { buildChangeWithGarments, buildFabric, buildMeasurementSet, buildPanel, buildPhotoRow, buildSeam, buildShot } from "../setup/doubles-fixtures.js";
+import {
+  buildChangeWithGarments,
+  buildFabric,
+  buildMeasurementSet,
+  buildPanel,
+  buildPhotoRow,
+  buildSeam,
+  buildShot,
+} from "../setup/doubles-fixtures.js";
 import type { Production, User } from "../../server/models/index.js";
 
 const app = createApp();
@@ -31,12 +39,24 @@ let vfx: TestAgent;
 let otherVfx: TestAgent;
 let vfxUser: User;
 let otherVfxUser: User;
-let ids: { changeId: string; garmentIds: string[]; characterId: string; performerId: string; panelIds: string[]; shots: string[]; hiddenShot: string; photoId: string };
+let ids: {
+  changeId: string;
+  garmentIds: string[];
+  characterId: string;
+  performerId: string;
+  panelIds: string[];
+  shots: string[];
+  hiddenShot: string;
+  photoId: string;
+};
 
 const base = () => `/api/productions/${production.id}`;
 
 /** Downloads a packet and returns its entries by path. */
-async function download(agent: TestAgent, packetId: string): Promise<{ res: { status: number; headers: Record<string, string> }; files: Map<string, Buffer> }> {
+async function download(
+  agent: TestAgent,
+  packetId: string,
+): Promise<{ res: { status: number; headers: Record<string, string> }; files: Map<string, Buffer> }> {
   const res = await agent.agent
     .get(`${base()}/packets/${packetId}/download`)
     .buffer(true)
@@ -77,9 +97,35 @@ beforeEach(async () => {
     { kind: "strip", direction: "weft", readings: { loadN: 22, stripWidthMm: 50, gaugeLengthMm: 200, extensionMm: 4 } },
   ]);
   const g = await buildChangeWithGarments(production.id, { garments: 2, fabricId, name: "Elias Test" });
-  const front = await buildPanel(production.id, g.garmentIds[0], { name: "Front", outline: [[0, 0], [300, 0], [300, 600], [0, 600]], cutCount: 2 });
-  const back = await buildPanel(production.id, g.garmentIds[0], { name: "Back", outline: [[0, 0], [320, 0], [320, 600], [0, 600]] });
-  const sleeve = await buildPanel(production.id, g.garmentIds[1], { name: "Sleeve", outline: [[0, 0], [250, 0], [250, 550], [0, 550]], cutCount: 2 });
+  const front = await buildPanel(production.id, g.garmentIds[0], {
+    name: "Front",
+    outline: [
+      [0, 0],
+      [300, 0],
+      [300, 600],
+      [0, 600],
+    ],
+    cutCount: 2,
+  });
+  const back = await buildPanel(production.id, g.garmentIds[0], {
+    name: "Back",
+    outline: [
+      [0, 0],
+      [320, 0],
+      [320, 600],
+      [0, 600],
+    ],
+  });
+  const sleeve = await buildPanel(production.id, g.garmentIds[1], {
+    name: "Sleeve",
+    outline: [
+      [0, 0],
+      [250, 0],
+      [250, 550],
+      [0, 550],
+    ],
+    cutCount: 2,
+  });
   await buildSeam(production.id, { panelId: front.id, from: 1, to: 2 }, { panelId: back.id, from: 3, to: 0 }, "Side seam");
   const s1 = await buildShot(production.id, g.characterId, g.changeId, { number: "41", storyOrder: 41, distressStage: 1 });
   const s2 = await buildShot(production.id, g.characterId, g.changeId, { number: "52", storyOrder: 52, distressStage: 2 });
@@ -89,7 +135,13 @@ beforeEach(async () => {
   const key = `photos/${randomUUID()}/display.webp`;
   await packetStore().write(key, Readable.from([photoBytes]));
   const photoId = await buildPhotoRow(production.id, "garment", g.garmentIds[0], key, photoBytes.length, sha(photoBytes));
-  ids = { ...g, panelIds: [front.id, back.id, sleeve.id], shots: [s1.appearanceId, s2.appearanceId], hiddenShot: hidden.appearanceId, photoId };
+  ids = {
+    ...g,
+    panelIds: [front.id, back.id, sleeve.id],
+    shots: [s1.appearanceId, s2.appearanceId],
+    hiddenShot: hidden.appearanceId,
+    photoId,
+  };
 });
 
 async function publishedV1(): Promise<string> {
@@ -162,12 +214,28 @@ describe("the ZIP", () => {
     // Every file but SHA256SUMS itself is listed, and every listed hash matches (sha256sum -c).
     expect([...listed.keys()].sort()).toEqual([...files.keys()].filter((p) => p !== "SHA256SUMS").sort());
     for (const [p, h] of listed) expect(sha(files.get(p)!), p).toBe(h);
-    for (const name of ["manifest.json", "manifest.schema.json", "panels.json", "panels.svg", "panels.dxf", "dxf/01-garment-1-front.dxf", "panels.obj", "seams.json", "fabrics.json", "shots.json", "summary.pdf"]) {
+    for (const name of [
+      "manifest.json",
+      "manifest.schema.json",
+      "panels.json",
+      "panels.svg",
+      "panels.dxf",
+      "dxf/01-garment-1-front.dxf",
+      "panels.obj",
+      "seams.json",
+      "fabrics.json",
+      "shots.json",
+      "summary.pdf",
+    ]) {
       expect(files.has(name), name).toBe(true);
     }
     expect(files.has("measurements.json")).toBe(false);
     const manifest = packetManifestSchema.parse(JSON.parse(files.get("manifest.json")!.toString("utf8")));
-    expect(manifest).toMatchObject({ version: 1, character: { name: "Elias Test" }, contents: { panelCount: 3, measurementsIncluded: false, shotCount: 2, photoCount: 1 } });
+    expect(manifest).toMatchObject({
+      version: 1,
+      character: { name: "Elias Test" },
+      contents: { panelCount: 3, measurementsIncluded: false, shotCount: 2, photoCount: 1 },
+    });
     const schema = JSON.parse(files.get("manifest.schema.json")!.toString("utf8"));
     expect(schema.required).toEqual(expect.arrayContaining(["units", "production", "character", "change", "version", "dates", "contents"]));
     // The photo went in byte for byte.
@@ -182,7 +250,11 @@ describe("the ZIP", () => {
   });
 
   it("includes measurements (in metres) only when chosen", async () => {
-    const draft = await cutter.post(`${base()}/packets`, { changeId: ids.changeId, recipientUserIds: [vfxUser.id], includeMeasurements: true });
+    const draft = await cutter.post(`${base()}/packets`, {
+      changeId: ids.changeId,
+      recipientUserIds: [vfxUser.id],
+      includeMeasurements: true,
+    });
     await supervisor.post(`${base()}/packets/${draft.body.data.id}/publish`);
 
     const { files } = await download(vfx, draft.body.data.id);
@@ -198,7 +270,14 @@ describe("simulation meshes, stitches and the cantilever re-test", () => {
   const parseObj = (text: string) => {
     const lines = text.split("\n");
     const uv = lines.filter((l) => l.startsWith("vt ")).map((l) => l.split(" ").slice(1, 3).map(Number) as [number, number]);
-    const faces = lines.filter((l) => l.startsWith("f ")).map((l) => l.split(" ").slice(1).map((x) => Number(x.split("/")[0]) - 1));
+    const faces = lines
+      .filter((l) => l.startsWith("f "))
+      .map((l) =>
+        l
+          .split(" ")
+          .slice(1)
+          .map((x) => Number(x.split("/")[0]) - 1),
+      );
     return { uv, faces };
   };
 
@@ -215,7 +294,10 @@ describe("simulation meshes, stitches and the cantilever re-test", () => {
       expect(uv).toHaveLength(m.vertexCount);
       expect(faces).toHaveLength(m.triangleCount);
       // The triangles tile the panel: 0.3 × 0.6 m, 0.32 × 0.6 m and 0.25 × 0.55 m within 0.01 %.
-      const area = faces.reduce((s, [a, b, c]) => s + ((uv[b][0] - uv[a][0]) * (uv[c][1] - uv[a][1]) - (uv[b][1] - uv[a][1]) * (uv[c][0] - uv[a][0])) / 2, 0);
+      const area = faces.reduce(
+        (s, [a, b, c]) => s + ((uv[b][0] - uv[a][0]) * (uv[c][1] - uv[a][1]) - (uv[b][1] - uv[a][1]) * (uv[c][0] - uv[a][0])) / 2,
+        0,
+      );
       expect(area / 1e6 / m.areaM2).toBeCloseTo(1, 4);
       expect(m.minAngleDeg).toBeGreaterThanOrEqual(20);
     }
@@ -289,15 +371,27 @@ describe("summary.pdf and the DXF files", () => {
   function expectPrinted(printed: string, jsonValue: number, kind: keyof typeof SUMMARY_FIGURES) {
     const f = SUMMARY_FIGURES[kind];
     const want = jsonValue * f.factor;
-    expect(Math.abs(parse(printed) - want), `${kind}: printed ${printed}, JSON gives ${want}`).toBeLessThanOrEqual(printedHalfUnit(want, f.precision) * (1 + 1e-9));
+    expect(Math.abs(parse(printed) - want), `${kind}: printed ${printed}, JSON gives ${want}`).toBeLessThanOrEqual(
+      printedHalfUnit(want, f.precision) * (1 + 1e-9),
+    );
   }
 
   it("prints every fabric and panel figure as fabrics.json and panels.json hold it (defect: 28,000 N/m printed as 28)", async () => {
     const id = await publishedV1();
     const { files } = await download(vfx, id);
     const text = pdfText(files.get("summary.pdf")!);
-    const panels = JSON.parse(files.get("panels.json")!.toString("utf8")).panels as Array<{ id: string; name: string; garmentId: string; areaMm2: number; seamAllowanceMm: number; cutCount: number }>;
-    const fabrics = JSON.parse(files.get("fabrics.json")!.toString("utf8")).fabrics as Array<{ name: string; simulation: Record<string, { value: number } & Record<string, { value: number }>> }>;
+    const panels = JSON.parse(files.get("panels.json")!.toString("utf8")).panels as Array<{
+      id: string;
+      name: string;
+      garmentId: string;
+      areaMm2: number;
+      seamAllowanceMm: number;
+      cutCount: number;
+    }>;
+    const fabrics = JSON.parse(files.get("fabrics.json")!.toString("utf8")).fabrics as Array<{
+      name: string;
+      simulation: Record<string, { value: number } & Record<string, { value: number }>>;
+    }>;
     const lines = text.split("\n").map((l) => l.trim());
 
     expect(text).toContain("stretch stiffness warp 28,000 N/m (M), weft 22,000 N/m (M)");
@@ -331,14 +425,25 @@ describe("summary.pdf and the DXF files", () => {
   it("holds one DXF per piece with cut and sew lines; Seamscene's reader and ezdxf read back the same pieces", async () => {
     const id = await publishedV1();
     const { files } = await download(vfx, id);
-    const panels = JSON.parse(files.get("panels.json")!.toString("utf8")).panels as Array<{ name: string; outline: [number, number][]; seamAllowanceMm: number; cutCount: number; areaMm2: number }>;
+    const panels = JSON.parse(files.get("panels.json")!.toString("utf8")).panels as Array<{
+      name: string;
+      outline: [number, number][];
+      seamAllowanceMm: number;
+      cutCount: number;
+      areaMm2: number;
+    }>;
     const dxfs = [...files.keys()].filter((p) => p.startsWith("dxf/")).sort();
 
     expect(dxfs).toHaveLength(panels.length);
     dxfs.forEach((p, i) => {
       const back = readDxfPieces(files.get(p)!.toString("utf8"));
       expect(back.pieces).toHaveLength(1);
-      expect(back.pieces[0]).toMatchObject({ name: panels[i].name, cutCount: panels[i].cutCount, seamAllowanceMm: panels[i].seamAllowanceMm, seamAllowanceFrom: "file" });
+      expect(back.pieces[0]).toMatchObject({
+        name: panels[i].name,
+        cutCount: panels[i].cutCount,
+        seamAllowanceMm: panels[i].seamAllowanceMm,
+        seamAllowanceFrom: "file",
+      });
       expect(back.pieces[0].outline).toEqual(panels[i].outline);
       expect(back.pieces[0].cutLine).not.toBeNull();
     });
@@ -383,7 +488,25 @@ describe("summary.pdf and the DXF files", () => {
 
   it("400 names panelIds when the chosen garments hold more than 200 panels; nothing written", async () => {
     await Panel.bulkCreate(
-      Array.from({ length: 199 }, (_, i) => ({ productionId: production.id, garmentId: ids.garmentIds[1], name: `Scrap ${i}`, outline: [[0, 0], [50, 0], [50, 50]] as [number, number][], grainline: null, notches: [], seamAllowanceMm: 10, cutCount: 1, mirrored: false, grainMode: "straight" as const, fabricId: null, source: "drawn" as const, sortOrder: i + 10 })),
+      Array.from({ length: 199 }, (_, i) => ({
+        productionId: production.id,
+        garmentId: ids.garmentIds[1],
+        name: `Scrap ${i}`,
+        outline: [
+          [0, 0],
+          [50, 0],
+          [50, 50],
+        ] as [number, number][],
+        grainline: null,
+        notches: [],
+        seamAllowanceMm: 10,
+        cutCount: 1,
+        mirrored: false,
+        grainMode: "straight" as const,
+        fabricId: null,
+        source: "drawn" as const,
+        sortOrder: i + 10,
+      })),
     );
 
     const res = await cutter.post(`${base()}/packets`, { changeId: ids.changeId, recipientUserIds: [vfxUser.id] });
@@ -421,7 +544,9 @@ describe("immutability and versions", () => {
     expect(patch.status).toBe(409);
     expect(del.status).toBe(409);
     expect(again.status).toBe(409);
-    await expect(sequelize.query(`UPDATE packets SET include_measurements = true WHERE id = :id`, { replacements: { id } })).rejects.toThrow(/cannot change/);
+    await expect(
+      sequelize.query(`UPDATE packets SET include_measurements = true WHERE id = :id`, { replacements: { id } }),
+    ).rejects.toThrow(/cannot change/);
     expect((await Packet.findByPk(id))!.includeMeasurements).toBe(false);
   });
 
@@ -430,7 +555,11 @@ describe("immutability and versions", () => {
     const packet = (await Packet.findByPk(id))!;
     const s = await supervisor.get(`${base()}/packets/${id}`);
 
-    const files = await buildPacketFiles(packet.contents!, { packetId: id, version: 1, publishedAt: packet.publishedAt!, publishedByName: s.body.data.publishedByName }, (k) => packetStore().readBuffer(k));
+    const files = await buildPacketFiles(
+      packet.contents!,
+      { packetId: id, version: 1, publishedAt: packet.publishedAt!, publishedByName: s.body.data.publishedByName },
+      (k) => packetStore().readBuffer(k),
+    );
     const chunks: Buffer[] = [];
     for await (const c of zipPacketFiles(files, { date: packet.publishedAt! })) chunks.push(c as Buffer);
 
@@ -440,7 +569,11 @@ describe("immutability and versions", () => {
   it("a new draft after a change becomes version 2 and shows what changed since version 1", async () => {
     const v1 = await publishedV1();
     await cutter.patch(`${base()}/panels/${ids.panelIds[2]}`, { cutCount: 4 });
-    const draft = await cutter.post(`${base()}/packets`, { changeId: ids.changeId, includeMeasurements: true, appearanceIds: [ids.shots[0]] });
+    const draft = await cutter.post(`${base()}/packets`, {
+      changeId: ids.changeId,
+      includeMeasurements: true,
+      appearanceIds: [ids.shots[0]],
+    });
     expect(draft.body.data.selection.photoIds).toEqual([ids.photoId]); // copied from version 1
 
     const pub = await supervisor.post(`${base()}/packets/${draft.body.data.id}/publish`);
@@ -496,7 +629,9 @@ describe("what a vfx user sees", () => {
     // Version 2 was never marked received: the comparison goes back to version 1 and holds both edits.
     expect(seen.body.data.previousVersion).toBe(2);
     expect(seen.body.data.sinceReceived).toMatchObject({ version: 1 });
-    expect(seen.body.data.sinceReceived.diff.panels.changed.map((c: { id: string }) => c.id).sort()).toEqual([ids.panelIds[0], ids.panelIds[2]].sort());
+    expect(seen.body.data.sinceReceived.diff.panels.changed.map((c: { id: string }) => c.id).sort()).toEqual(
+      [ids.panelIds[0], ids.panelIds[2]].sort(),
+    );
     expect(first.body.data.sinceReceived).toBeNull();
     expect(staff.body.data.sinceReceived).toBeNull();
   });

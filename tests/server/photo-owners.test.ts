@@ -6,7 +6,10 @@ import { buildFabric, buildGarment, buildMember, buildProduction } from "../fact
 import { resetDb, signedInAgent } from "../setup/http.js";
 
 const app = createApp();
-const png = () => sharp({ create: { width: 40, height: 30, channels: 3, background: { r: 181, g: 69, b: 46 } } }).png().toBuffer();
+const png = () =>
+  sharp({ create: { width: 40, height: 30, channels: 3, background: { r: 181, g: 69, b: 46 } } })
+    .png()
+    .toBuffer();
 
 beforeEach(async () => {
   await resetDb();
@@ -31,7 +34,9 @@ describe("photos of wardrobe records", () => {
 
     const added = await upload(designer.email, production.id, "garment", garment.id);
     const refused = await upload(setCostumer.email, production.id, "garment", garment.id);
-    const list = await (await signedInAgent(app, setCostumer.email)).get(`/api/productions/${production.id}/photos?ownerType=garment&ownerId=${garment.id}`);
+    const list = await (
+      await signedInAgent(app, setCostumer.email)
+    ).get(`/api/productions/${production.id}/photos?ownerType=garment&ownerId=${garment.id}`);
 
     expect(added.status).toBe(201);
     expect(refused.status).toBe(403);
@@ -55,7 +60,11 @@ describe("before and after photos of an alteration", () => {
     const { user: setCostumer } = await buildMember("set_costumer", { production });
     const garment = await buildGarment({ production });
     const agent = await signedInAgent(app, cutter.email);
-    const ticket = await agent.post(`/api/productions/${production.id}/alterations`, { garmentId: garment.id, tasks: [{ kind: "repair", note: "torn pocket" }], estimateHours: 1 });
+    const ticket = await agent.post(`/api/productions/${production.id}/alterations`, {
+      garmentId: garment.id,
+      tasks: [{ kind: "repair", note: "torn pocket" }],
+      estimateHours: 1,
+    });
     expect(ticket.status).toBe(201);
 
     const before = await upload(cutter.email, production.id, "alteration_ticket", ticket.body.data.id);

@@ -31,10 +31,11 @@ afterAll(async () => {
 /** Every stored key across both drivers' roots: how we check "no file left behind". */
 async function storedKeys(storage: Storage, hashes: string[]): Promise<string[]> {
   const out: string[] = [];
-  for (const h of hashes) for (const f of ["full.jpg", "display.webp", "thumb.webp"]) {
-    const key = `photos/${h.slice(0, 2)}/${h}/${f}`;
-    if (await storage.exists(key)) out.push(key);
-  }
+  for (const h of hashes)
+    for (const f of ["full.jpg", "display.webp", "thumb.webp"]) {
+      const key = `photos/${h.slice(0, 2)}/${h}/${f}`;
+      if (await storage.exists(key)) out.push(key);
+    }
   return out;
 }
 
@@ -45,7 +46,17 @@ async function diskFileCount(dir: string): Promise<number> {
 
 const drivers: Array<[string, () => Storage]> = [
   ["disk", () => createDiskStorage(path.join(tmpRoot, "disk"))],
-  ["s3", () => createS3Storage({ endpoint: `http://127.0.0.1:${s3port}`, region: "us-east-1", bucket: "photos-test", accessKeyId: "S3RVER", secretAccessKey: "S3RVER" })],
+  [
+    "s3",
+    () =>
+      createS3Storage({
+        endpoint: `http://127.0.0.1:${s3port}`,
+        region: "us-east-1",
+        bucket: "photos-test",
+        accessKeyId: "S3RVER",
+        secretAccessKey: "S3RVER",
+      }),
+  ],
 ];
 
 for (const [driverName, makeStorage] of drivers) {
@@ -64,8 +75,15 @@ for (const [driverName, makeStorage] of drivers) {
     });
 
     const upload = (file: string | Buffer, name: string, fields: Record<string, string> = {}) => {
-      const r = agent.agent.post(`/api/productions/${pid}/photos`).set("X-CSRF-Token", agent.csrf).field("ownerType", fields.ownerType ?? "scene").field("ownerId", fields.ownerId ?? sceneId).field("view", fields.view ?? "front");
-      return Buffer.isBuffer(file) ? r.attach("file", file, { filename: name, contentType: name.endsWith(".png") ? "image/png" : "image/jpeg" }) : r.attach("file", file, { filename: name, contentType: "image/jpeg" });
+      const r = agent.agent
+        .post(`/api/productions/${pid}/photos`)
+        .set("X-CSRF-Token", agent.csrf)
+        .field("ownerType", fields.ownerType ?? "scene")
+        .field("ownerId", fields.ownerId ?? sceneId)
+        .field("view", fields.view ?? "front");
+      return Buffer.isBuffer(file)
+        ? r.attach("file", file, { filename: name, contentType: name.endsWith(".png") ? "image/png" : "image/jpeg" })
+        : r.attach("file", file, { filename: name, contentType: "image/jpeg" });
     };
 
     it("stores a JPEG with GPS tags with no metadata in any stored size, oriented upright", async () => {
@@ -81,11 +99,14 @@ for (const [driverName, makeStorage] of drivers) {
       expect(res.body.data).toMatchObject({ width: 48, height: 64, view: "front" });
       expect(res.body.data.contentHash).toMatch(/^[0-9a-f]{64}$/);
       for (const size of ["thumb", "display", "original"]) {
-        const file = await agent.get(`/api/productions/${pid}/photos/${res.body.data.id}/file?size=${size}`).buffer(true).parse((r, cb) => {
-          const chunks: Buffer[] = [];
-          r.on("data", (c: Buffer) => chunks.push(c));
-          r.on("end", () => cb(null, Buffer.concat(chunks)));
-        });
+        const file = await agent
+          .get(`/api/productions/${pid}/photos/${res.body.data.id}/file?size=${size}`)
+          .buffer(true)
+          .parse((r, cb) => {
+            const chunks: Buffer[] = [];
+            r.on("data", (c: Buffer) => chunks.push(c));
+            r.on("end", () => cb(null, Buffer.concat(chunks)));
+          });
         expect(file.status).toBe(200);
         const body = file.body as Buffer;
         const meta = await sharp(body).metadata();
@@ -138,7 +159,9 @@ for (const [driverName, makeStorage] of drivers) {
     it("refuses an image above the pixel limit with 413 and leaves nothing behind", async () => {
       // A flat-colour PNG compresses to a few kB but decodes to more pixels than the limit allows.
       const side = Math.ceil(Math.sqrt(Limits.photoMaxPixels)) + 10;
-      const bomb = await sharp({ create: { width: side, height: side, channels: 3, background: "#C98B2B" } }).png({ compressionLevel: 9 }).toBuffer();
+      const bomb = await sharp({ create: { width: side, height: side, channels: 3, background: "#C98B2B" } })
+        .png({ compressionLevel: 9 })
+        .toBuffer();
       expect(bomb.length).toBeLessThan(Limits.photoMaxBytes);
 
       const res = await upload(bomb, "bomb.png");
@@ -168,7 +191,12 @@ describe("photo upload limits and owners", () => {
   it("refuses a file over the byte limit with 413", async () => {
     const big = Buffer.alloc(Limits.photoMaxBytes + 1024, 0xff);
 
-    const res = await agent.agent.post(`/api/productions/${pid}/photos`).set("X-CSRF-Token", agent.csrf).field("ownerType", "scene").field("ownerId", sceneId).attach("file", big, { filename: "big.jpg", contentType: "image/jpeg" });
+    const res = await agent.agent
+      .post(`/api/productions/${pid}/photos`)
+      .set("X-CSRF-Token", agent.csrf)
+      .field("ownerType", "scene")
+      .field("ownerId", sceneId)
+      .attach("file", big, { filename: "big.jpg", contentType: "image/jpeg" });
 
     expect(res.status).toBe(413);
     expect(res.body.error.code).toBe("payload_too_large");
@@ -176,7 +204,12 @@ describe("photo upload limits and owners", () => {
   });
 
   it("refuses an extension outside the allow-list with 415 naming the field", async () => {
-    const res = await agent.agent.post(`/api/productions/${pid}/photos`).set("X-CSRF-Token", agent.csrf).field("ownerType", "scene").field("ownerId", sceneId).attach("file", Buffer.from("x"), { filename: "notes.txt", contentType: "text/plain" });
+    const res = await agent.agent
+      .post(`/api/productions/${pid}/photos`)
+      .set("X-CSRF-Token", agent.csrf)
+      .field("ownerType", "scene")
+      .field("ownerId", sceneId)
+      .attach("file", Buffer.from("x"), { filename: "notes.txt", contentType: "text/plain" });
 
     expect(res.status).toBe(415);
     expect(res.body.error.code).toBe("unsupported_media_type");
@@ -185,8 +218,18 @@ describe("photo upload limits and owners", () => {
   });
 
   it("refuses an unknown owner type (400) and a missing owner (404)", async () => {
-    const bad = await agent.agent.post(`/api/productions/${pid}/photos`).set("X-CSRF-Token", agent.csrf).field("ownerType", "spaceship").field("ownerId", sceneId).attach("file", fixture("gps-rotated.jpg"));
-    const missing = await agent.agent.post(`/api/productions/${pid}/photos`).set("X-CSRF-Token", agent.csrf).field("ownerType", "scene").field("ownerId", "00000000-0000-4000-8000-000000000000").attach("file", fixture("gps-rotated.jpg"));
+    const bad = await agent.agent
+      .post(`/api/productions/${pid}/photos`)
+      .set("X-CSRF-Token", agent.csrf)
+      .field("ownerType", "spaceship")
+      .field("ownerId", sceneId)
+      .attach("file", fixture("gps-rotated.jpg"));
+    const missing = await agent.agent
+      .post(`/api/productions/${pid}/photos`)
+      .set("X-CSRF-Token", agent.csrf)
+      .field("ownerType", "scene")
+      .field("ownerId", "00000000-0000-4000-8000-000000000000")
+      .attach("file", fixture("gps-rotated.jpg"));
 
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields).toHaveProperty("ownerType");

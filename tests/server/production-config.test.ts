@@ -27,18 +27,35 @@ describe("parseConfig in production", () => {
   });
 
   it("turns on Secure cookies, HSTS and the proxy trust (loopback listener) for an https APP_URL, and the outbox off", () => {
-    const c = parseConfig({ NODE_ENV: "production", SESSION_SECRET: SECRET, APP_URL: "https://costumes.example.invalid", DEV_OUTBOX: "true" });
+    const c = parseConfig({
+      NODE_ENV: "production",
+      SESSION_SECRET: SECRET,
+      APP_URL: "https://costumes.example.invalid",
+      DEV_OUTBOX: "true",
+    });
 
     expect(c).toMatchObject({ SECURE_COOKIES: true, HSTS: true, TRUST_PROXY: true, DEV_OUTBOX: false });
   });
 
   it("does not trust forwarded headers when listening on every interface unless told to", () => {
-    expect(parseConfig({ NODE_ENV: "production", SESSION_SECRET: SECRET, APP_URL: "https://x.example.invalid", HOST: "0.0.0.0" }).TRUST_PROXY).toBe(false);
-    expect(parseConfig({ NODE_ENV: "production", SESSION_SECRET: SECRET, APP_URL: "https://x.example.invalid", HOST: "0.0.0.0", TRUST_PROXY: "true" }).TRUST_PROXY).toBe(true);
+    expect(
+      parseConfig({ NODE_ENV: "production", SESSION_SECRET: SECRET, APP_URL: "https://x.example.invalid", HOST: "0.0.0.0" }).TRUST_PROXY,
+    ).toBe(false);
+    expect(
+      parseConfig({
+        NODE_ENV: "production",
+        SESSION_SECRET: SECRET,
+        APP_URL: "https://x.example.invalid",
+        HOST: "0.0.0.0",
+        TRUST_PROXY: "true",
+      }).TRUST_PROXY,
+    ).toBe(true);
   });
 
   it("refuses SECURE_COOKIES=false with an https APP_URL", () => {
-    expect(() => parseConfig({ NODE_ENV: "production", SESSION_SECRET: SECRET, APP_URL: "https://x.example.invalid", SECURE_COOKIES: "false" })).toThrow(/SECURE_COOKIES/);
+    expect(() =>
+      parseConfig({ NODE_ENV: "production", SESSION_SECRET: SECRET, APP_URL: "https://x.example.invalid", SECURE_COOKIES: "false" }),
+    ).toThrow(/SECURE_COOKIES/);
   });
 
   it("keeps development convenient: a fixed secret, plain cookies on http, the outbox on", () => {
@@ -63,7 +80,9 @@ describe("npm start", () => {
   it("starts Node with libuv's thread pool sized (package.json), since Node reads it before any code runs", () => {
     const pkg = JSON.parse(fs.readFileSync("package.json", "utf8")) as { scripts: Record<string, string> };
 
-    expect(pkg.scripts.start).toMatch(new RegExp(`^UV_THREADPOOL_SIZE=\\$\\{UV_THREADPOOL_SIZE:-${START_THREADPOOL_SIZE}\\} tsx scripts/start\\.ts$`));
+    expect(pkg.scripts.start).toMatch(
+      new RegExp(`^UV_THREADPOOL_SIZE=\\$\\{UV_THREADPOOL_SIZE:-${START_THREADPOOL_SIZE}\\} tsx scripts/start\\.ts$`),
+    );
     // Hashing takes at most half the pool (and leaves a core free), so file reads always find a thread.
     expect(hashConcurrency({ HASH_CONCURRENCY: undefined, UV_THREADPOOL_SIZE: START_THREADPOOL_SIZE }, 2)).toBe(1);
     expect(hashConcurrency({ HASH_CONCURRENCY: undefined, UV_THREADPOOL_SIZE: 4 }, 16)).toBe(2);
@@ -71,14 +90,28 @@ describe("npm start", () => {
   });
 });
 
-function get(port: number, urlPath: string, headers: Record<string, string> = {}, body?: object): Promise<{ status: number; headers: http.IncomingHttpHeaders; text: string }> {
+function get(
+  port: number,
+  urlPath: string,
+  headers: Record<string, string> = {},
+  body?: object,
+): Promise<{ status: number; headers: http.IncomingHttpHeaders; text: string }> {
   return new Promise((resolve, reject) => {
     const payload = body ? JSON.stringify(body) : undefined;
-    const req = http.request({ host: "127.0.0.1", port, path: urlPath, method: body ? "POST" : "GET", headers: { ...headers, ...(payload ? { "content-type": "application/json" } : {}) } }, (res) => {
-      let text = "";
-      res.on("data", (c: Buffer) => (text += c.toString()));
-      res.on("end", () => resolve({ status: res.statusCode ?? 0, headers: res.headers, text }));
-    });
+    const req = http.request(
+      {
+        host: "127.0.0.1",
+        port,
+        path: urlPath,
+        method: body ? "POST" : "GET",
+        headers: { ...headers, ...(payload ? { "content-type": "application/json" } : {}) },
+      },
+      (res) => {
+        let text = "";
+        res.on("data", (c: Buffer) => (text += c.toString()));
+        res.on("end", () => resolve({ status: res.statusCode ?? 0, headers: res.headers, text }));
+      },
+    );
     req.on("error", reject);
     req.end(payload);
   });
@@ -107,7 +140,16 @@ describe("the server process with NODE_ENV=production", () => {
     const port = (probe.address() as { port: number }).port;
     await new Promise((r) => probe.close(r));
     const child = spawn(process.execPath, [tsx, "server/index.ts"], {
-      env: { ...process.env, NODE_ENV: "production", SESSION_SECRET: SECRET, APP_URL: "https://costumes.example.invalid", HOST: "127.0.0.1", PORT: String(port), JOBS_ENABLED: "false", LOG_LEVEL: "warn" },
+      env: {
+        ...process.env,
+        NODE_ENV: "production",
+        SESSION_SECRET: SECRET,
+        APP_URL: "https://costumes.example.invalid",
+        HOST: "127.0.0.1",
+        PORT: String(port),
+        JOBS_ENABLED: "false",
+        LOG_LEVEL: "warn",
+      },
       stdio: ["ignore", "pipe", "pipe"],
     });
     let output = "";
@@ -125,7 +167,12 @@ describe("the server process with NODE_ENV=production", () => {
       const csrf = await get(port, "/api/auth/csrf", https);
       const csrfCookie = (csrf.headers["set-cookie"] ?? []).join("\n");
       const token = (JSON.parse(csrf.text) as { token: string }).token;
-      const login = await get(port, "/api/auth/login", { ...https, cookie: csrfCookie.split(";", 1)[0]!, "x-csrf-token": token }, { email: user.email, password: TEST_PASSWORD });
+      const login = await get(
+        port,
+        "/api/auth/login",
+        { ...https, cookie: csrfCookie.split(";", 1)[0]!, "x-csrf-token": token },
+        { email: user.email, password: TEST_PASSWORD },
+      );
       const sessionCookie = (login.headers["set-cookie"] ?? []).find((c) => c.startsWith("seamscene.sid="))!;
       const outbox = await get(port, `/api/productions/${production.id}/outbox`, { ...https, cookie: sessionCookie.split(";", 1)[0]! });
 

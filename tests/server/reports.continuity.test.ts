@@ -16,16 +16,32 @@ const app = createApp();
 /** A binary response body as a Buffer. */
 const binary = (res: { body: unknown }) => res.body as Buffer;
 const getPdf = (agent: TestAgent, url: string) =>
-  agent.agent.get(url).buffer(true).parse((r, cb) => {
-    const chunks: Buffer[] = [];
-    r.on("data", (c: Buffer) => chunks.push(c));
-    r.on("end", () => cb(null, Buffer.concat(chunks)));
-  });
+  agent.agent
+    .get(url)
+    .buffer(true)
+    .parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on("data", (c: Buffer) => chunks.push(c));
+      r.on("end", () => cb(null, Buffer.concat(chunks)));
+    });
 
 /** A continuity photo of an entry: a generated 900 × 1200 image through the real photo pipeline. */
 async function photo(productionId: string, entryId: string, view: PhotoView, label: string) {
   const stored = await storeImage(await renderSwatch({ width: 900, height: 1200, background: "#2B3A67", label, sublabel: view }));
-  return Photo.create({ productionId, ownerType: "continuity_entry", ownerId: entryId, view, caption: null, contentHash: stored.contentHash, originalName: `${label}.jpg`, width: stored.width, height: stored.height, bytes: stored.bytes, variants: stored.variants, uploadedBy: null });
+  return Photo.create({
+    productionId,
+    ownerType: "continuity_entry",
+    ownerId: entryId,
+    view,
+    caption: null,
+    contentHash: stored.contentHash,
+    originalName: `${label}.jpg`,
+    width: stored.width,
+    height: stored.height,
+    bytes: stored.bytes,
+    variants: stored.variants,
+    uploadedBy: null,
+  });
 }
 
 /**
@@ -97,7 +113,9 @@ describe("continuity book PDF", () => {
     // Contents (page 1): the three scenes in story order, with the shoot day of each.
     expect(pages[0]).toContain("Continuity book");
     expect(pages[0]).toContain("Wren Tallack");
-    expect(pages[0]).toMatch(/^\s*1\s+1\s+2 · Tue 3 Sep 2030\s+1 Harbour work clothes\s+\d+\s*\n\s*2\s+1\s+2 · Tue 3 Sep 2030\s+1 Harbour work clothes\s+\d+\s*\n\s*3A\s+2\s+1 · Mon 2 Sep 2030\s+2\s+\d+\s*$/m);
+    expect(pages[0]).toMatch(
+      /^\s*1\s+1\s+2 · Tue 3 Sep 2030\s+1 Harbour work clothes\s+\d+\s*\n\s*2\s+1\s+2 · Tue 3 Sep 2030\s+1 Harbour work clothes\s+\d+\s*\n\s*3A\s+2\s+1 · Mon 2 Sep 2030\s+2\s+\d+\s*$/m,
+    );
     expect(pages[0]).toContain("printed Sun 1 Sep 2030");
     // Body: story order 1, 2, 3A whatever the shoot order (3A was shot first).
     const body = pages.slice(1).join("\n");
@@ -137,7 +155,9 @@ describe("continuity book PDF", () => {
     const [pages, images] = await Promise.all([pdfPagesText(pdf), pdfImageList(pdf)]);
     const photosOfScene: Record<string, number> = { "1": 2, "2": 0, "3A": 3 };
     pages.forEach((text, i) => {
-      const expected = Object.entries(photosOfScene).filter(([s]) => new RegExp(`Scene ${s}\\b`).test(text) && i > 0).reduce((n, [, c]) => n + c, 0);
+      const expected = Object.entries(photosOfScene)
+        .filter(([s]) => new RegExp(`Scene ${s}\\b`).test(text) && i > 0)
+        .reduce((n, [, c]) => n + c, 0);
       expect(images.filter((im) => im.page === i + 1).length, `page ${i + 1}`).toBe(expected);
     });
     expect(images).toHaveLength(5);
@@ -184,7 +204,9 @@ describe("continuity book PDF", () => {
     const other = await snagFixtures((await buildProduction()).id).character({ name: "Elsewhere" });
 
     expect((await agent.get(`${base()}/continuity/${other}.pdf`)).status).toBe(404);
-    const mossChange = (await agent.get(`${base()}/continuity`)).body.data.characters.find((c: { name: string }) => c.name === "Moss Keverne").changes[0].id;
+    const mossChange = (await agent.get(`${base()}/continuity`)).body.data.characters.find(
+      (c: { name: string }) => c.name === "Moss Keverne",
+    ).changes[0].id;
     const res = await agent.get(`${base()}/continuity/${ids.wren}.pdf?changeId=${mossChange}`);
     expect(res.status).toBe(404);
     expect(res.body.error.message).toMatch(/change/i);
@@ -246,8 +268,21 @@ describe("every continuity book in one ZIP", () => {
     const production = await buildProduction();
     const { user } = await buildMember("supervisor", { production });
     const agent = await signedInAgent(app, user.email);
-    const stuck = await ReportRun.create({ productionId: production.id, kind: "continuity_books", status: "running", done: 1, total: 4, storageKey: null, bytes: null, error: null, requestedBy: null, finishedAt: null });
-    await ReportRun.sequelize!.query(`UPDATE report_runs SET updated_at = now() - interval '11 minutes' WHERE id = :id`, { replacements: { id: stuck.id } });
+    const stuck = await ReportRun.create({
+      productionId: production.id,
+      kind: "continuity_books",
+      status: "running",
+      done: 1,
+      total: 4,
+      storageKey: null,
+      bytes: null,
+      error: null,
+      requestedBy: null,
+      finishedAt: null,
+    });
+    await ReportRun.sequelize!.query(`UPDATE report_runs SET updated_at = now() - interval '11 minutes' WHERE id = :id`, {
+      replacements: { id: stuck.id },
+    });
 
     const res = await agent.get(`/api/productions/${production.id}/reports/runs/${stuck.id}`);
 

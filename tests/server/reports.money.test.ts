@@ -13,11 +13,14 @@ import type { BudgetDto, ReturnsDto } from "../../shared/schemas/reports.js";
 
 const app = createApp();
 const binaryGet = (agent: TestAgent, url: string) =>
-  agent.agent.get(url).buffer(true).parse((r, cb) => {
-    const chunks: Buffer[] = [];
-    r.on("data", (c: Buffer) => chunks.push(c));
-    r.on("end", () => cb(null, Buffer.concat(chunks)));
-  });
+  agent.agent
+    .get(url)
+    .buffer(true)
+    .parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on("data", (c: Buffer) => chunks.push(c));
+      r.on("end", () => cb(null, Buffer.concat(chunks)));
+    });
 
 /**
  * Today is 10 Sep 2030; the production runs 1 Sep – 15 Oct 2030, so hires are counted from 1 Sep.
@@ -37,13 +40,31 @@ async function scenario(production: Production, actorId: string) {
   const ids = {
     j1: await g({ tagCode: "J-1", name: "Keeper jacket", category: "jacket" }, { cost_cents: 42000 }),
     b1: await g({ tagCode: "B-1", name: "Hobnail boots", category: "boots", source: "bought" }, { cost_cents: 18000, vendor: "Cobbles" }),
-    r1: await g({ tagCode: "R-1", name: "Frock coat", category: "coat", source: "rented", rentalDueOn: "2030-09-08", status: "on_set" }, { cost_cents: 1000, rental_cost_per_week_cents: 4500, vendor: "Hire House A" }),
-    r2: await g({ tagCode: "R-2", name: "Shovel hat", category: "hat", source: "rented", rentalDueOn: "2030-09-30" }, { rental_cost_per_week_cents: 1250, vendor: "Hire House A" }),
-    r3: await g({ tagCode: "R-3", name: "Cassock", category: "coat", source: "rented" }, { rental_cost_per_week_cents: 2000, vendor: "Hire House B" }),
-    r4: await g({ tagCode: "R-4", name: "Tailcoat", category: "coat", source: "rented", rentalDueOn: "2030-09-20", status: "returned" }, { rental_cost_per_week_cents: 3000, vendor: "Hire House B" }),
+    r1: await g(
+      { tagCode: "R-1", name: "Frock coat", category: "coat", source: "rented", rentalDueOn: "2030-09-08", status: "on_set" },
+      { cost_cents: 1000, rental_cost_per_week_cents: 4500, vendor: "Hire House A" },
+    ),
+    r2: await g(
+      { tagCode: "R-2", name: "Shovel hat", category: "hat", source: "rented", rentalDueOn: "2030-09-30" },
+      { rental_cost_per_week_cents: 1250, vendor: "Hire House A" },
+    ),
+    r3: await g(
+      { tagCode: "R-3", name: "Cassock", category: "coat", source: "rented" },
+      { rental_cost_per_week_cents: 2000, vendor: "Hire House B" },
+    ),
+    r4: await g(
+      { tagCode: "R-4", name: "Tailcoat", category: "coat", source: "rented", rentalDueOn: "2030-09-20", status: "returned" },
+      { rental_cost_per_week_cents: 3000, vendor: "Hire House B" },
+    ),
     l1: await g({ tagCode: "L-1", name: "Paisley shawl", category: "shawl", status: "lost" }, { cost_cents: 2500 }),
-    s1: await g({ tagCode: "S-1", name: "Moleskin waistcoat", category: "waistcoat", source: "bought" }, { cost_cents: 6000, wrap_disposition: "sell" }),
-    k1: await g({ tagCode: "K-1", name: "Sunday overcoat", category: "coat", status: "cleaning" }, { cost_cents: 30000, wrap_disposition: "keep" }),
+    s1: await g(
+      { tagCode: "S-1", name: "Moleskin waistcoat", category: "waistcoat", source: "bought" },
+      { cost_cents: 6000, wrap_disposition: "sell" },
+    ),
+    k1: await g(
+      { tagCode: "K-1", name: "Sunday overcoat", category: "coat", status: "cleaning" },
+      { cost_cents: 30000, wrap_disposition: "keep" },
+    ),
     n1: await g({ tagCode: "N-1", name: "=2+3 trick", category: "accessory" }, {}),
   };
   const event = (garmentId: string, to: string, at: string) =>
@@ -109,13 +130,30 @@ describe("returns and wrap", () => {
     expect(res.status).toBe(200);
     const r = res.body.data as ReturnsDto;
     expect(r).toMatchObject({ today: "2030-09-10", currency: "GBP" });
-    expect(r.rentals.map((v) => [v.vendor, v.overdue, v.hireCents, v.lines.map((l) => [l.tagCode, l.dueOn, l.daysOverdue, l.weeks, l.hireCents])])).toEqual([
+    expect(
+      r.rentals.map((v) => [
+        v.vendor,
+        v.overdue,
+        v.hireCents,
+        v.lines.map((l) => [l.tagCode, l.dueOn, l.daysOverdue, l.weeks, l.hireCents]),
+      ]),
+    ).toEqual([
       // 1–8 Sep: 7 days, one week: 45 + 10 flat. 1–30 Sep: 29 days, five started weeks: 5 × 12.50.
-      ["Hire House A", 1, 11750, [["R-1", "2030-09-08", 2, 1, 5500], ["R-2", "2030-09-30", -20, 5, 6250]]],
+      [
+        "Hire House A",
+        1,
+        11750,
+        [
+          ["R-1", "2030-09-08", 2, 1, 5500],
+          ["R-2", "2030-09-30", -20, 5, 6250],
+        ],
+      ],
       // No due date: counted to the production's last day, 1 Sep – 15 Oct = 44 days, seven weeks.
       ["Hire House B", 0, 14000, [["R-3", null, null, 7, 14000]]],
     ]);
-    expect(r.lost).toEqual([{ garmentId: ids.l1, tagCode: "L-1", name: "Paisley shawl", source: "built", vendor: null, lostOn: "2030-09-07", costCents: 2500 }]);
+    expect(r.lost).toEqual([
+      { garmentId: ids.l1, tagCode: "L-1", name: "Paisley shawl", source: "built", vendor: null, lostOn: "2030-09-07", costCents: 2500 },
+    ]);
     expect(r.out.map((o) => [o.tagCode, o.status, o.since, o.movedBy, o.holder])).toEqual([
       ["R-1", "on_set", "2030-09-03", "Test set_costumer", null],
       ["K-1", "cleaning", "2030-09-09", "Test set_costumer", null],
@@ -140,7 +178,19 @@ describe("returns and wrap", () => {
     expect(rentals.status).toBe(200);
     expect(rentals.headers["content-type"]).toBe("text/csv; charset=utf-8");
     const rows = Papa.parse<string[]>(rentals.text.replace(/^\uFEFF/, ""), { dynamicTyping: true }).data.filter((r) => r.length > 1);
-    expect(rows[0]).toEqual(["Hire house", "Tag code", "Garment", "Category", "Status", "Where", "Due back", "Days overdue", "Weekly rate (GBP)", "Weeks", "Hire cost (GBP)"]);
+    expect(rows[0]).toEqual([
+      "Hire house",
+      "Tag code",
+      "Garment",
+      "Category",
+      "Status",
+      "Where",
+      "Due back",
+      "Days overdue",
+      "Weekly rate (GBP)",
+      "Weeks",
+      "Hire cost (GBP)",
+    ]);
     expect(rows[1]).toEqual(["Hire House A", "R-1", "Frock coat", "coat", "On set", null, "2030-09-08", 2, 45, 1, 55]);
     expect(rows.at(-1)).toEqual(["Total", null, null, null, null, null, null, null, 77.5, null, 257.5]);
     // Numbers are written bare, never quoted.
@@ -166,7 +216,10 @@ describe("returns and wrap", () => {
       expect(typeof v).toBe("number");
       costs.push(v as number);
     });
-    const [sql] = await sequelize.query<{ n: string }>(`SELECT count(*) AS n FROM garments WHERE production_id = :pid AND source = 'rented' AND status <> 'returned'`, { replacements: { pid: production.id }, type: QueryTypes.SELECT });
+    const [sql] = await sequelize.query<{ n: string }>(
+      `SELECT count(*) AS n FROM garments WHERE production_id = :pid AND source = 'rented' AND status <> 'returned'`,
+      { replacements: { pid: production.id }, type: QueryTypes.SELECT },
+    );
     expect(costs).toHaveLength(Number(sql!.n));
     expect(costs.reduce((a, b) => a + b, 0)).toBeCloseTo(257.5, 2);
     const total = sheet.getRow(sheet.rowCount).getCell(11).value as { formula: string; result: number };
@@ -201,7 +254,10 @@ describe("budget", () => {
     expect(sql).toBe(127250);
     expect(b.totalCents).toBe(sql);
     for (const grouping of ["category", "character", "change", "source"] as const) {
-      expect(b.groupings[grouping].reduce((s, r) => s + r.cents, 0), grouping).toBe(sql);
+      expect(
+        b.groupings[grouping].reduce((s, r) => s + r.cents, 0),
+        grouping,
+      ).toBe(sql);
     }
     expect(b.groupings.source.map((r) => [r.label, r.cents, r.garments])).toEqual([
       ["Built", 74500, 4],
@@ -257,7 +313,13 @@ describe("budget", () => {
       });
       return { sum, total };
     };
-    for (const [sheet, header] of [["Garments", "Total (EUR)"], ["By category", "Total (EUR)"], ["By character", "Total (EUR)"], ["By change", "Total (EUR)"], ["By source", "Total (EUR)"]] as const) {
+    for (const [sheet, header] of [
+      ["Garments", "Total (EUR)"],
+      ["By category", "Total (EUR)"],
+      ["By character", "Total (EUR)"],
+      ["By change", "Total (EUR)"],
+      ["By source", "Total (EUR)"],
+    ] as const) {
       const { sum, total } = sumColumn(sheet, header);
       expect(sum, sheet).toBeCloseTo(sql, 2);
       expect(total?.result, sheet).toBeCloseTo(sql, 2);

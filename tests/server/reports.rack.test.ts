@@ -11,11 +11,14 @@ import type { RackGarmentDto, RackListDto } from "../../shared/schemas/reports.j
 
 const app = createApp();
 const binaryGet = (agent: TestAgent, url: string) =>
-  agent.agent.get(url).buffer(true).parse((r, cb) => {
-    const chunks: Buffer[] = [];
-    r.on("data", (c: Buffer) => chunks.push(c));
-    r.on("end", () => cb(null, Buffer.concat(chunks)));
-  });
+  agent.agent
+    .get(url)
+    .buffer(true)
+    .parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on("data", (c: Buffer) => chunks.push(c));
+      r.on("end", () => cb(null, Buffer.concat(chunks)));
+    });
 
 /**
  * Today is Mon 2 Sep 2030 (shoot day 1). Tomorrow, shoot day 2, shoots scene 5 (Wren, wet, stage 1)
@@ -104,7 +107,16 @@ describe("tomorrow's rack list", () => {
       ["oilskin", "O-3", 3, 3, ["2"]],
       ["jacket", "J-1", null, null, ["5", "2"]],
     ]);
-    expect(line("O-2")).toMatchObject({ wet: true, bringSpare: true, spare: { tagCode: "O-1", copyNumber: 1 }, distressStage: 1, rack: "B1", bin: "2", status: "in_stock", warnings: [] });
+    expect(line("O-2")).toMatchObject({
+      wet: true,
+      bringSpare: true,
+      spare: { tagCode: "O-1", copyNumber: 1 },
+      distressStage: 1,
+      rack: "B1",
+      bin: "2",
+      status: "in_stock",
+      warnings: [],
+    });
     expect(line("O-3")).toMatchObject({ wet: false, bringSpare: false, spare: null, distressStage: 0 });
     expect(line("J-1")).toMatchObject({ status: "workroom", rack: "A2", bin: "7", wet: true, bringSpare: true, spare: null });
     expect(line("J-1").warnings).toEqual([{ level: "warning", message: "Not in stock: workroom" }]);
@@ -118,7 +130,12 @@ describe("tomorrow's rack list", () => {
     const byLabel = (l: string) => moss.find((g) => g.label === l) as RackGarmentDto;
     expect(byLabel("coat").warnings).toEqual([{ level: "warning", message: "Hire due back 2030-09-01, before this day" }]);
     expect(byLabel("hat").warnings).toEqual([{ level: "blocking", message: "Not in stock: lost" }]);
-    expect(byLabel("boots")).toMatchObject({ garmentId: null, tagCode: null, checkOutPath: null, warnings: [{ level: "blocking", message: "No garment is linked to this item of the change" }] });
+    expect(byLabel("boots")).toMatchObject({
+      garmentId: null,
+      tagCode: null,
+      checkOutPath: null,
+      warnings: [{ level: "blocking", message: "No garment is linked to this item of the change" }],
+    });
     expect(list.counts).toEqual({ characters: 2, garments: 6, warnings: 4, blocking: 2 });
   });
 

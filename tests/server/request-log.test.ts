@@ -62,17 +62,25 @@ describe("request log", () => {
     secrets.push(boss2.csrf);
     requests += 3;
     await boss2.post(`/api/productions/${production.id}/invitations`, { email: "new.cutter@test.invalid", role: "cutter" }).expect(201);
-    const invitationToken = /invitations\/([A-Za-z0-9_-]+)/.exec((await waitForMail((m) => m.recipients.includes("new.cutter@test.invalid"))).textBody ?? "")![1]!;
+    const invitationToken = /invitations\/([A-Za-z0-9_-]+)/.exec(
+      (await waitForMail((m) => m.recipients.includes("new.cutter@test.invalid"))).textBody ?? "",
+    )![1]!;
     const invitee = await anonymousAgent(app);
     await invitee.get(`/api/invitations/${invitationToken}?utm=1`).expect(200);
-    const accepted = await invitee.post("/api/invitations/accept", { token: invitationToken, name: "Nell Cutter", password: "long-enough-password" }).expect(200);
+    const accepted = await invitee
+      .post("/api/invitations/accept", { token: invitationToken, name: "Nell Cutter", password: "long-enough-password" })
+      .expect(200);
     secrets.push(invitationToken, ...cookieSecrets(accepted));
     requests += 4;
     // Ask for a reset and use the link.
     const resetter = await anonymousAgent(app);
     await resetter.post("/api/auth/password-reset", { email: "forgetful@test.invalid" }).expect(202);
-    const resetToken = /reset-password\/([A-Za-z0-9_-]+)/.exec((await waitForMail((m) => m.recipients.includes("forgetful@test.invalid"))).textBody ?? "")![1]!;
-    const confirmed = await resetter.post("/api/auth/password-reset/confirm", { token: resetToken, password: "a-brand-new-password" }).expect(200);
+    const resetToken = /reset-password\/([A-Za-z0-9_-]+)/.exec(
+      (await waitForMail((m) => m.recipients.includes("forgetful@test.invalid"))).textBody ?? "",
+    )![1]!;
+    const confirmed = await resetter
+      .post("/api/auth/password-reset/confirm", { token: resetToken, password: "a-brand-new-password" })
+      .expect(200);
     secrets.push(resetToken, ...cookieSecrets(confirmed));
     requests += 3;
     const log = lines.join("");
@@ -85,7 +93,9 @@ describe("request log", () => {
     expect(requestLines).toHaveLength(requests);
     for (const e of requestLines) expect(e.msg).toMatch(/^(GET|POST) \/api\/\S* \d{3} \d+ms$/);
     expect(requestLines.map((e) => e.path)).toContain("/api/invitations/:token");
-    expect(Object.keys(requestLines[0]!).sort()).toEqual(["level", "method", "ms", "msg", "path", "status", "time", "pid", "hostname"].sort());
+    expect(Object.keys(requestLines[0]!).sort()).toEqual(
+      ["level", "method", "ms", "msg", "path", "status", "time", "pid", "hostname"].sort(),
+    );
   });
 });
 
@@ -96,8 +106,14 @@ describe("loggablePath", () => {
     ["/api/invitations/accept", "/api/invitations/accept"],
     ["/reset-password/AbCdEfGhIjKlMnOpQrStUvWxYz0123456789_-abcde", "/reset-password/:token"],
     ["/api/auth/password-reset/confirm", "/api/auth/password-reset/confirm"],
-    ["/api/productions/0b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f/invitations/1b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f", "/api/productions/0b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f/invitations/1b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f"],
-    ["/api/productions/0b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f/garments?q=Ivy+Example", "/api/productions/0b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f/garments"],
+    [
+      "/api/productions/0b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f/invitations/1b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f",
+      "/api/productions/0b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f/invitations/1b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f",
+    ],
+    [
+      "/api/productions/0b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f/garments?q=Ivy+Example",
+      "/api/productions/0b7c6c1e-2f0a-4c1e-9d7e-3a2b1c0d9e8f/garments",
+    ],
     ["/api/something/QUJDREVGR0hJSktMTU5PUFFSU1RVVldY", "/api/something/:token"],
   ])("%s → %s", (url, expected) => {
     expect(loggablePath(url)).toBe(expected);
@@ -109,7 +125,12 @@ describe("logged errors", () => {
     const lines: string[] = [];
     const restore = redirectLogs({ write: (line: string) => void lines.push(line) });
     logger.level = "info";
-    const err = Object.assign(new Error("relation went away"), { name: "SequelizeDatabaseError", sql: "SELECT * FROM users WHERE email = 'ivy@test.invalid'", parameters: ["ivy@test.invalid"], parent: { code: "57P01" } });
+    const err = Object.assign(new Error("relation went away"), {
+      name: "SequelizeDatabaseError",
+      sql: "SELECT * FROM users WHERE email = 'ivy@test.invalid'",
+      parameters: ["ivy@test.invalid"],
+      parent: { code: "57P01" },
+    });
 
     logger.error({ err }, "request failed");
     logger.level = "silent";
@@ -147,21 +168,24 @@ describe("the server process's log", () => {
   async function runAndLog(nodeEnv: "development" | "production"): Promise<{ out: string; cookieValue: string }> {
     const port = await freePort();
     const base = `http://127.0.0.1:${port}`;
-    child = spawnTsx(["server/index.ts"], childEnv({
-      NODE_ENV: nodeEnv,
-      SESSION_SECRET: "Lr8-w2Qv9Zk4Tn7Yp1Xs6Bm3Hd0Jf5Gc_",
-      LOG_LEVEL: "info",
-      DATABASE_URL: process.env.DATABASE_URL,
-      HOST: "127.0.0.1",
-      PORT: String(port),
-      APP_URL: base,
-      STORAGE_DRIVER: "disk",
-      STORAGE_DIR: path.join(root, nodeEnv, "storage"),
-      DATA_DIR: path.join(root, nodeEnv, "data"),
-      JOBS_ENABLED: "false",
-      SMTP_HOST: "127.0.0.1",
-      SMTP_PORT: String(await freePort()),
-    }));
+    child = spawnTsx(
+      ["server/index.ts"],
+      childEnv({
+        NODE_ENV: nodeEnv,
+        SESSION_SECRET: "Lr8-w2Qv9Zk4Tn7Yp1Xs6Bm3Hd0Jf5Gc_",
+        LOG_LEVEL: "info",
+        DATABASE_URL: process.env.DATABASE_URL,
+        HOST: "127.0.0.1",
+        PORT: String(port),
+        APP_URL: base,
+        STORAGE_DRIVER: "disk",
+        STORAGE_DIR: path.join(root, nodeEnv, "storage"),
+        DATA_DIR: path.join(root, nodeEnv, "data"),
+        JOBS_ENABLED: "false",
+        SMTP_HOST: "127.0.0.1",
+        SMTP_PORT: String(await freePort()),
+      }),
+    );
     const c = child;
     await waitFor("the server", async () => c.alive() && (await fetch(`${base}/api/health`)).ok, 90_000).catch((err: Error) => {
       throw new Error(`${err.message}\n${c.output()}`);
@@ -189,7 +213,14 @@ describe("the server process's log", () => {
 
     const requestLines = out.split("\n").filter((l) => l.includes("/api/auth/csrf"));
     expect(requestLines, out).toHaveLength(2);
-    for (const l of requestLines) expect(JSON.parse(l)).toMatchObject({ level: 30, method: "GET", path: "/api/auth/csrf", status: 200, msg: expect.stringMatching(/^GET \/api\/auth\/csrf 200 \d+ms$/) });
+    for (const l of requestLines)
+      expect(JSON.parse(l)).toMatchObject({
+        level: 30,
+        method: "GET",
+        path: "/api/auth/csrf",
+        status: 200,
+        msg: expect.stringMatching(/^GET \/api\/auth\/csrf 200 \d+ms$/),
+      });
     expect(out).not.toContain(cookieValue);
     expect(out).not.toContain(decodeURIComponent(cookieValue));
   }, 120_000);

@@ -13,7 +13,13 @@ const loggers = ["supervisor", "designer", "set_costumer"] as const;
 const cases: MatrixCase[] = [
   { name: "offline pack", method: "get", path: (c) => `${P(c)}/offline-pack`, expect: only([...loggers], 200) },
   { name: "entries open for review", method: "get", path: (c) => `${P(c)}/continuity?review=open`, expect: only([...readers], 200) },
-  { name: "settle an entry's review (unknown entry)", method: "patch", path: (c) => `${P(c)}/continuity/00000000-0000-4000-8000-000000000000`, body: () => ({ reviewed: true }), expect: only([...loggers], 404) },
+  {
+    name: "settle an entry's review (unknown entry)",
+    method: "patch",
+    path: (c) => `${P(c)}/continuity/00000000-0000-4000-8000-000000000000`,
+    body: () => ({ reviewed: true }),
+    expect: only([...loggers], 404),
+  },
   {
     name: "log continuity with a client id",
     method: "post",

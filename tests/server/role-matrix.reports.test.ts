@@ -8,11 +8,27 @@ const setAndUp = ["supervisor", "designer", "set_costumer"] as const;
 const p = (c: { productionId: string }) => `/api/productions/${c.productionId}/reports`;
 const cases: MatrixCase[] = [
   { name: "continuity books index", method: "get", path: (c) => `${p(c)}/continuity`, expect: only([...setAndUp], 200) },
-  { name: "continuity book PDF", method: "get", path: (c) => `${p(c)}/continuity/${c.extra.characterId}.pdf`, expect: only([...setAndUp], 200) },
+  {
+    name: "continuity book PDF",
+    method: "get",
+    path: (c) => `${p(c)}/continuity/${c.extra.characterId}.pdf`,
+    expect: only([...setAndUp], 200),
+  },
   // Validation runs after the permission check, so a bad body shows "allowed" as 400.
-  { name: "start every book as a ZIP", method: "post", path: (c) => `${p(c)}/continuity/books`, body: () => ({ photos: "original" }), expect: only([...setAndUp], 400) },
+  {
+    name: "start every book as a ZIP",
+    method: "post",
+    path: (c) => `${p(c)}/continuity/books`,
+    body: () => ({ photos: "original" }),
+    expect: only([...setAndUp], 400),
+  },
   { name: "export progress", method: "get", path: (c) => `${p(c)}/runs/${c.extra.runId}`, expect: only([...setAndUp], 200) },
-  { name: "export file (not finished: 404)", method: "get", path: (c) => `${p(c)}/runs/${c.extra.runId}/file`, expect: only([...setAndUp], 404) },
+  {
+    name: "export file (not finished: 404)",
+    method: "get",
+    path: (c) => `${p(c)}/runs/${c.extra.runId}/file`,
+    expect: only([...setAndUp], 404),
+  },
   { name: "rack list", method: "get", path: (c) => `${p(c)}/rack-list`, expect: only([...setAndUp], 200) },
   { name: "rack list PDF", method: "get", path: (c) => `${p(c)}/rack-list.pdf`, expect: only([...setAndUp], 200) },
   { name: "returns and wrap", method: "get", path: (c) => `${p(c)}/returns`, expect: only([...setAndUp], 200) },
@@ -25,6 +41,17 @@ const cases: MatrixCase[] = [
 
 runRoleMatrix("reports", createApp(), cases, async (c) => {
   const character = await buildCharacter({ production: c.production });
-  const run = await ReportRun.create({ productionId: c.productionId, kind: "continuity_books", status: "running", done: 0, total: 1, storageKey: null, bytes: null, error: null, requestedBy: null, finishedAt: null });
+  const run = await ReportRun.create({
+    productionId: c.productionId,
+    kind: "continuity_books",
+    status: "running",
+    done: 0,
+    total: 1,
+    storageKey: null,
+    bytes: null,
+    error: null,
+    requestedBy: null,
+    finishedAt: null,
+  });
   return { characterId: character.id, runId: run.id };
 });

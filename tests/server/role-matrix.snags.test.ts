@@ -9,8 +9,18 @@ const dismissers = ["supervisor", "designer"] as const;
 
 const cases: MatrixCase[] = [
   { name: "list snags", method: "get", path: (c) => `/api/productions/${c.productionId}/snags`, expect: only([...readers], 200) },
-  { name: "next day's snags", method: "get", path: (c) => `/api/productions/${c.productionId}/snags?shootDayId=next`, expect: only([...readers], 200) },
-  { name: "multiples plan", method: "get", path: (c) => `/api/productions/${c.productionId}/snags/multiples/${c.extra.groupId}`, expect: only([...readers], 200) },
+  {
+    name: "next day's snags",
+    method: "get",
+    path: (c) => `/api/productions/${c.productionId}/snags?shootDayId=next`,
+    expect: only([...readers], 200),
+  },
+  {
+    name: "multiples plan",
+    method: "get",
+    path: (c) => `/api/productions/${c.productionId}/snags/multiples/${c.extra.groupId}`,
+    expect: only([...readers], 200),
+  },
   {
     name: "dismiss (missing reason)",
     method: "post",

@@ -1,7 +1,16 @@
 import { beforeEach, describe, expect, it } from "vitest";
 import { createApp } from "../../server/app.js";
 import { AuditEvent, ChangeItem, ShootDay, ShootDayScene } from "../../server/models/index.js";
-import { buildAppearance, buildChange, buildCharacter, buildGarment, buildMember, buildProduction, buildScene, buildShootDay } from "../factories.js";
+import {
+  buildAppearance,
+  buildChange,
+  buildCharacter,
+  buildGarment,
+  buildMember,
+  buildProduction,
+  buildScene,
+  buildShootDay,
+} from "../factories.js";
 import { anonymousAgent, resetDb, signedInAgent, type TestAgent } from "../setup/http.js";
 import type { ShootDayDto } from "../../shared/schemas/breakdown.js";
 import type { SnagDto } from "../../shared/schemas/snags.js";
@@ -54,7 +63,12 @@ describe("shoot-day editor routes", () => {
       const a = await buildScene({ production, number: "12" });
       const b = await buildScene({ production, number: "4" });
 
-      const res = await agent.post(`/api/productions/${pid}/shoot-days`, { dayNumber: 1, date: "2030-09-02", startsAt: "07:30", sceneIds: [a.id, b.id] });
+      const res = await agent.post(`/api/productions/${pid}/shoot-days`, {
+        dayNumber: 1,
+        date: "2030-09-02",
+        startsAt: "07:30",
+        sceneIds: [a.id, b.id],
+      });
 
       expect(res.status).toBe(201);
       expect(res.body.data).toMatchObject({ dayNumber: 1, date: "2030-09-02", kind: "shoot", startsAt: "07:30" });
@@ -64,7 +78,11 @@ describe("shoot-day editor routes", () => {
 
   describe("PATCH /shoot-days/:id", () => {
     it("redates a day, and reorders, adds and takes off scenes through sceneIds", async () => {
-      const [s1, s2, s3] = [await buildScene({ production, number: "1" }), await buildScene({ production, number: "2" }), await buildScene({ production, number: "3" })];
+      const [s1, s2, s3] = [
+        await buildScene({ production, number: "1" }),
+        await buildScene({ production, number: "2" }),
+        await buildScene({ production, number: "3" }),
+      ];
       const day = await buildShootDay({ production, dayNumber: 1, date: "2030-09-02", scenes: [s1, s2] });
 
       const res = await agent.patch(`/api/productions/${pid}/shoot-days/${day.id}`, { date: "2030-09-03", sceneIds: [s3.id, s2.id] });
@@ -92,7 +110,11 @@ describe("shoot-day editor routes", () => {
       const from = await buildShootDay({ production, dayNumber: 1, date: "2030-09-02", scenes: [s1!, s2!, s3!] });
       const to = await buildShootDay({ production, dayNumber: 2, date: "2030-09-03", scenes: [s4!] });
 
-      const res = await agent.post(`/api/productions/${pid}/shoot-days/${from.id}/move-scene`, { sceneId: s2!.id, toShootDayId: to.id, position: 1 });
+      const res = await agent.post(`/api/productions/${pid}/shoot-days/${from.id}/move-scene`, {
+        sceneId: s2!.id,
+        toShootDayId: to.id,
+        position: 1,
+      });
 
       expect(res.status).toBe(200);
       expect(numbers(res.body.data.from)).toEqual(["1", "3"]);
@@ -158,15 +180,32 @@ describe("shoot-day editor routes", () => {
       const moss = await buildCharacter({ production, name: "Moss" });
       const cw = await buildChange(wren);
       const cm = await buildChange(moss);
-      await ChangeItem.create({ productionId: pid, changeId: cw.id, label: "smock", garmentId: garment.id, multiplesGroupId: null, sortOrder: 1 });
-      await ChangeItem.create({ productionId: pid, changeId: cm.id, label: "smock", garmentId: garment.id, multiplesGroupId: null, sortOrder: 1 });
+      await ChangeItem.create({
+        productionId: pid,
+        changeId: cw.id,
+        label: "smock",
+        garmentId: garment.id,
+        multiplesGroupId: null,
+        sortOrder: 1,
+      });
+      await ChangeItem.create({
+        productionId: pid,
+        changeId: cm.id,
+        label: "smock",
+        garmentId: garment.id,
+        multiplesGroupId: null,
+        sortOrder: 1,
+      });
       const s1 = await buildScene({ production, number: "1" });
       const s2 = await buildScene({ production, number: "2" });
       await buildAppearance(s1, wren, cw);
       await buildAppearance(s2, moss, cm);
       const day1 = await buildShootDay({ production, dayNumber: 1, date: "2030-09-02", scenes: [s1] });
       const day2 = await buildShootDay({ production, dayNumber: 2, date: "2030-09-03", scenes: [s2] });
-      const bookings = async () => ((await agent.get(`/api/productions/${pid}/snags?kind=booking`)).body.data.snags as SnagDto[]).map((s) => s.shootDays.map((d) => d.id));
+      const bookings = async () =>
+        ((await agent.get(`/api/productions/${pid}/snags?kind=booking`)).body.data.snags as SnagDto[]).map((s) =>
+          s.shootDays.map((d) => d.id),
+        );
 
       const before = await bookings();
       await agent.post(`/api/productions/${pid}/shoot-days/${day2.id}/move-scene`, { sceneId: s2.id, toShootDayId: day1.id }).expect(200);

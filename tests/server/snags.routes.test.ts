@@ -40,7 +40,9 @@ describe("GET /api/productions/:pid/snags", () => {
     const res = await agent.get(`/api/productions/${pid}/snags?kind=weather`);
 
     expect(res.status).toBe(400);
-    expect(res.body.error.fields.kind).toBe("Kind must be one of: fit, continuity, multiples, booking, rental, availability, quick_change, workroom_late, workroom_overbooked");
+    expect(res.body.error.fields.kind).toBe(
+      "Kind must be one of: fit, continuity, multiples, booking, rental, availability, quick_change, workroom_late, workroom_overbooked",
+    );
   });
 
   it("answers 404 for a shoot day of no production", async () => {
@@ -103,7 +105,10 @@ describe("POST /api/productions/:pid/snags/dismissals", () => {
   });
 
   it("dismisses a snag, hides it from the list, and DELETE undoes it", async () => {
-    const res = await agent.post(`/api/productions/${pid}/snags/dismissals`, { snagKey: fitKey(), reason: "  Jacket is worn open on camera  " });
+    const res = await agent.post(`/api/productions/${pid}/snags/dismissals`, {
+      snagKey: fitKey(),
+      reason: "  Jacket is worn open on camera  ",
+    });
     const hidden = await agent.get(`/api/productions/${pid}/snags?kind=fit`);
     const shown = await agent.get(`/api/productions/${pid}/snags?kind=fit&includeDismissed=true`);
     const undo = await agent.delete(`/api/productions/${pid}/snags/dismissals/${res.body.data.id}`);

@@ -46,7 +46,11 @@ describe("loadSnapshot", () => {
     expect(snapshot.scenes.map((s) => s.number)).toEqual(["1", "2", "3", "4", "5", "6", "7"]);
     expect(snapshot.shootDays.map((d) => d.date)).toEqual(["2027-01-11", "2027-01-12", "2027-01-13", "2027-01-14"]);
     expect(snapshot.shootDays[0].sceneIds).toEqual([sc.scenes.s4, sc.scenes.s1]);
-    expect(snapshot.performers.find((p) => p.id === sc.performers.pWren)?.measurements).toEqual({ chest_girth: 1000, waist_girth: 820, arm_length: 600 });
+    expect(snapshot.performers.find((p) => p.id === sc.performers.pWren)?.measurements).toEqual({
+      chest_girth: 1000,
+      waist_girth: 820,
+      arm_length: 600,
+    });
     expect(snapshot.multiplesGroups[0].garmentIds.sort()).toEqual([sc.garments.oil1, sc.garments.oil2].sort());
     expect(snapshot.garments.find((g) => g.id === sc.garments.coat)).toMatchObject({ source: "rented", rentalDueDate: "2027-01-12" });
     expect(days).toHaveLength(4);
@@ -199,7 +203,10 @@ describe("dismissals", () => {
 
     expect(still.snags.some((s) => s.key === fitKey())).toBe(false);
     expect(still.counts.dismissed).toBe(1);
-    expect(withDismissed.snags.find((s) => s.key === fitKey())?.dismissal).toMatchObject({ id: dismissal.id, reason: "Performer is losing weight for the role" });
+    expect(withDismissed.snags.find((s) => s.key === fitKey())?.dismissal).toMatchObject({
+      id: dismissal.id,
+      reason: "Performer is losing weight for the role",
+    });
     const back = lapsed.snags.find((s) => s.key === fitKey())!;
     expect(back.dismissal).toBeNull();
     expect(back.lapsedDismissal?.id).toBe(dismissal.id);

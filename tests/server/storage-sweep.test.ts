@@ -55,7 +55,17 @@ const hashOf = (s: string) => createHash("sha256").update(s).digest("hex");
 
 const drivers: Array<[string, () => Storage]> = [
   ["disk", () => createDiskStorage(path.join(tmpRoot, `disk-${randomUUID()}`))],
-  ["s3", () => createS3Storage({ endpoint: `http://127.0.0.1:${s3port}`, region: "us-east-1", bucket: `sweep-${randomUUID().slice(0, 8)}`, accessKeyId: "S3RVER", secretAccessKey: "S3RVER" })],
+  [
+    "s3",
+    () =>
+      createS3Storage({
+        endpoint: `http://127.0.0.1:${s3port}`,
+        region: "us-east-1",
+        bucket: `sweep-${randomUUID().slice(0, 8)}`,
+        accessKeyId: "S3RVER",
+        secretAccessKey: "S3RVER",
+      }),
+  ],
 ];
 
 for (const [name, make] of drivers) {
@@ -73,19 +83,28 @@ for (const [name, make] of drivers) {
       const orphan = await photoKeys(storage, hashOf("orphan"), false, production.id, character.id);
       // An upload of this process still in progress (its pending row names us) ...
       const ours = await photoKeys(storage, hashOf("ours"), false, production.id, character.id);
-      await sequelize.query(`INSERT INTO pending_photo_files (id, content_hash, host, pid, instance) VALUES (:id, :hash, :host, :pid, :inst)`, {
-        replacements: { id: randomUUID(), hash: hashOf("ours"), host: os.hostname(), pid: process.pid, inst: instanceTag.split("-")[1] },
-      });
+      await sequelize.query(
+        `INSERT INTO pending_photo_files (id, content_hash, host, pid, instance) VALUES (:id, :hash, :host, :pid, :inst)`,
+        {
+          replacements: { id: randomUUID(), hash: hashOf("ours"), host: os.hostname(), pid: process.pid, inst: instanceTag.split("-")[1] },
+        },
+      );
       // ... and one of a process that died before its row was written.
       const dead = await photoKeys(storage, hashOf("dead"), false, production.id, character.id);
-      await sequelize.query(`INSERT INTO pending_photo_files (id, content_hash, host, pid, instance) VALUES (:id, :hash, :host, :pid, 'deadbeef')`, {
-        replacements: { id: randomUUID(), hash: hashOf("dead"), host: os.hostname(), pid: DEAD_PID },
-      });
+      await sequelize.query(
+        `INSERT INTO pending_photo_files (id, content_hash, host, pid, instance) VALUES (:id, :hash, :host, :pid, 'deadbeef')`,
+        {
+          replacements: { id: randomUUID(), hash: hashOf("dead"), host: os.hostname(), pid: DEAD_PID },
+        },
+      );
       // A publish killed mid-way: a half-written ZIP and a complete one that no version refers to.
       const draftId = randomUUID();
-      await sequelize.query(`INSERT INTO packets (id, production_id, character_id, change_id, created_at, updated_at) VALUES (:id, :p, :c, :ch, now(), now())`, {
-        replacements: { id: draftId, p: production.id, c: character.id, ch: change.id },
-      });
+      await sequelize.query(
+        `INSERT INTO packets (id, production_id, character_id, change_id, created_at, updated_at) VALUES (:id, :p, :c, :ch, now(), now())`,
+        {
+          replacements: { id: draftId, p: production.id, c: character.id, ch: change.id },
+        },
+      );
       const draftZip = `packets/${draftId.slice(0, 2)}/${draftId}/v1.zip`;
       await storage.put(draftZip, Buffer.from("PK complete but unreferenced"), "application/zip");
       const goneZip = `packets/ab/${randomUUID()}/v3.zip`;
@@ -97,7 +116,15 @@ for (const [name, make] of drivers) {
       await sequelize.query(
         `INSERT INTO photos (id, production_id, owner_type, owner_id, view, content_hash, width, height, bytes, variants, created_at, updated_at)
          VALUES (:id, :pid, 'character', :owner, 'front', :hash, 4, 4, 10, CAST(:variants AS jsonb), now(), now())`,
-        { replacements: { id: randomUUID(), pid: production.id, owner: character.id, hash: hashOf("lost"), variants: JSON.stringify({ original: "photos/zz/lost/full.jpg" }) } },
+        {
+          replacements: {
+            id: randomUUID(),
+            pid: production.id,
+            owner: character.id,
+            hash: hashOf("lost"),
+            variants: JSON.stringify({ original: "photos/zz/lost/full.jpg" }),
+          },
+        },
       );
 
       // While another server publishes this packet (its row locked), its ZIP is left alone.
@@ -115,7 +142,13 @@ for (const [name, make] of drivers) {
       for (const k of [...kept, ...ours, ownPartial]) expect(left.has(k), k).toBe(true);
       for (const k of [...orphan, ...dead, draftZip, goneZip]) expect(left.has(k), k).toBe(false);
       expect([...left].filter((k) => k.includes(deadTag))).toEqual([]);
-      expect(first).toMatchObject({ unreferencedPhotoFiles: 6, unreferencedPacketFiles: 1, partialFiles: 1, missingPhotoFiles: 1, stalePendingRows: 1 });
+      expect(first).toMatchObject({
+        unreferencedPhotoFiles: 6,
+        unreferencedPacketFiles: 1,
+        partialFiles: 1,
+        missingPhotoFiles: 1,
+        stalePendingRows: 1,
+      });
       expect(second).toMatchObject({ unreferencedPhotoFiles: 0, unreferencedPacketFiles: 1, partialFiles: 0 });
       const [rows] = await sequelize.query(`SELECT pid FROM pending_photo_files`);
       expect(rows).toEqual([{ pid: process.pid }]);
@@ -135,12 +168,17 @@ async function noisyJpeg(seed: number): Promise<Buffer> {
     x = (x * 1103515245 + 12345) >>> 0;
     raw[i] = x >>> 24;
   }
-  return sharp(raw, { raw: { width: w, height: h, channels: 3 } }).jpeg({ quality: 90 }).toBuffer();
+  return sharp(raw, { raw: { width: w, height: h, channels: 3 } })
+    .jpeg({ quality: 90 })
+    .toBuffer();
 }
 
 function filesUnder(dir: string): string[] {
   if (!fs.existsSync(dir)) return [];
-  return fs.readdirSync(dir, { recursive: true, withFileTypes: true }).filter((e) => e.isFile()).map((e) => path.join(e.parentPath, e.name));
+  return fs
+    .readdirSync(dir, { recursive: true, withFileTypes: true })
+    .filter((e) => e.isFile())
+    .map((e) => path.join(e.parentPath, e.name));
 }
 
 describe("a server killed during uploads", () => {
@@ -182,14 +220,21 @@ describe("a server killed during uploads", () => {
 
     // Sign in.
     const csrf1 = await fetch(`${base}/api/auth/csrf`);
-    let cookie = csrf1.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+    let cookie = csrf1.headers
+      .getSetCookie()
+      .map((c) => c.split(";")[0])
+      .join("; ");
     const login = await fetch(`${base}/api/auth/login`, {
       method: "POST",
       headers: { "content-type": "application/json", cookie, "x-csrf-token": ((await csrf1.json()) as { token: string }).token },
       body: JSON.stringify({ email: user.email, password: TEST_PASSWORD }),
     });
     expect(login.status).toBe(200);
-    cookie = login.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ") || cookie;
+    cookie =
+      login.headers
+        .getSetCookie()
+        .map((c) => c.split(";")[0])
+        .join("; ") || cookie;
     const token = ((await (await fetch(`${base}/api/auth/csrf`, { headers: { cookie } })).json()) as { token: string }).token;
 
     // Uploads in parallel until the kill.
@@ -203,7 +248,11 @@ describe("a server killed during uploads", () => {
       form.set("view", "front");
       form.set("file", new Blob([new Uint8Array(img)], { type: "image/jpeg" }), `look-${i}.jpg`);
       try {
-        const res = await fetch(`${base}/api/productions/${production.id}/photos`, { method: "POST", headers: { cookie, "x-csrf-token": token }, body: form });
+        const res = await fetch(`${base}/api/productions/${production.id}/photos`, {
+          method: "POST",
+          headers: { cookie, "x-csrf-token": token },
+          body: form,
+        });
         if (res.status === 201) ok++;
       } catch {
         if (!killed) throw new Error("an upload failed before the kill");

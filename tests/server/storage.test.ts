@@ -22,7 +22,17 @@ afterAll(async () => {
 
 const drivers: Array<[string, () => Storage]> = [
   ["disk", () => createDiskStorage(path.join(tmpRoot, "disk"))],
-  ["s3", () => createS3Storage({ endpoint: `http://127.0.0.1:${s3port}`, region: "us-east-1", bucket: "seamscene-test", accessKeyId: "S3RVER", secretAccessKey: "S3RVER" })],
+  [
+    "s3",
+    () =>
+      createS3Storage({
+        endpoint: `http://127.0.0.1:${s3port}`,
+        region: "us-east-1",
+        bucket: "seamscene-test",
+        accessKeyId: "S3RVER",
+        secretAccessKey: "S3RVER",
+      }),
+  ],
 ];
 
 for (const [name, make] of drivers) {

@@ -27,11 +27,14 @@ beforeEach(async () => {
 const MM = 72 / 25.4;
 
 async function pdf(url: string): Promise<{ status: number; body: Buffer; json?: { error: { fields: Record<string, string> } } }> {
-  const res = await agent.get(url).buffer(true).parse((r, cb) => {
-    const chunks: Buffer[] = [];
-    r.on("data", (c: Buffer) => chunks.push(c));
-    r.on("end", () => cb(null, Buffer.concat(chunks)));
-  });
+  const res = await agent
+    .get(url)
+    .buffer(true)
+    .parse((r, cb) => {
+      const chunks: Buffer[] = [];
+      r.on("data", (c: Buffer) => chunks.push(c));
+      r.on("end", () => cb(null, Buffer.concat(chunks)));
+    });
   const body = res.body as Buffer;
   return { status: res.status, body, json: res.status === 200 ? undefined : JSON.parse(body.toString()) };
 }

@@ -31,12 +31,20 @@ interface Session {
   csrf: string;
 }
 
-async function call(base: string, pathname: string, init: { method?: string; session?: Partial<Session>; body?: unknown; form?: FormData } = {}) {
+async function call(
+  base: string,
+  pathname: string,
+  init: { method?: string; session?: Partial<Session>; body?: unknown; form?: FormData } = {},
+) {
   const headers: Record<string, string> = {};
   if (init.session?.cookie) headers.cookie = init.session.cookie;
   if (init.session?.csrf) headers["x-csrf-token"] = init.session.csrf;
   if (init.body !== undefined) headers["content-type"] = "application/json";
-  const res = await fetch(`${base}${pathname}`, { method: init.method ?? "GET", headers, body: init.form ?? (init.body !== undefined ? JSON.stringify(init.body) : undefined) });
+  const res = await fetch(`${base}${pathname}`, {
+    method: init.method ?? "GET",
+    headers,
+    body: init.form ?? (init.body !== undefined ? JSON.stringify(init.body) : undefined),
+  });
   const buf = Buffer.from(await res.arrayBuffer());
   let body: any = null; // eslint-disable-line @typescript-eslint/no-explicit-any
   try {
@@ -53,7 +61,11 @@ const cookieOf = (setCookie: string[], prev = "") => setCookie.map((c) => c.spli
 async function signIn(bases: string[], email: string, password: string): Promise<Session> {
   const csrf = await call(bases[0]!, "/api/auth/csrf");
   const cookie = cookieOf(csrf.setCookie);
-  const login = await call(bases[1 % bases.length]!, "/api/auth/login", { method: "POST", session: { cookie, csrf: csrf.body.token }, body: { email, password } });
+  const login = await call(bases[1 % bases.length]!, "/api/auth/login", {
+    method: "POST",
+    session: { cookie, csrf: csrf.body.token },
+    body: { email, password },
+  });
   expect(login.status).toBe(200);
   const signed = cookieOf(login.setCookie, cookie);
   const fresh = await call(bases[0]!, "/api/auth/csrf", { session: { cookie: signed } });
@@ -64,7 +76,13 @@ beforeAll(async () => {
   root = fs.mkdtempSync(path.join(os.tmpdir(), "seamscene-two-"));
   await resetDb();
   await seedDemo({ today: testToday() });
-  s3 = new S3rver({ port: 0, address: "127.0.0.1", silent: true, directory: path.join(root, "s3"), configureBuckets: [{ name: "seamscene-two" }] });
+  s3 = new S3rver({
+    port: 0,
+    address: "127.0.0.1",
+    silent: true,
+    directory: path.join(root, "s3"),
+    configureBuckets: [{ name: "seamscene-two" }],
+  });
   const s3port = ((await s3.run()) as { port: number }).port;
 
   const databaseUrl = process.env.DATABASE_URL!;
@@ -93,9 +111,11 @@ beforeAll(async () => {
     servers.push({ child, url });
   }
   for (const s of servers) {
-    await waitFor("a server to answer", async () => s.child.alive() && (await call(s.url, "/api/health")).status === 200, 240_000).catch((err: Error) => {
-      throw new Error(`${err.message}\n${s.child.output()}`);
-    });
+    await waitFor("a server to answer", async () => s.child.alive() && (await call(s.url, "/api/health")).status === 200, 240_000).catch(
+      (err: Error) => {
+        throw new Error(`${err.message}\n${s.child.output()}`);
+      },
+    );
   }
 
   const proxy = httpProxy.createProxyServer({});
@@ -131,14 +151,26 @@ describe("two servers behind a round-robin proxy", () => {
     const meOnA = await call(a, "/api/auth/me", { session });
     const meOnB = await call(b, "/api/auth/me", { session });
     // A write on each server with the token one of them issued.
-    const onA = await call(a, `/api/productions/${SALTMARSH_ID}/garments`, { method: "POST", session, body: { name: "Proxy check coat A", category: "coat", source: "built" } });
-    const onB = await call(b, `/api/productions/${SALTMARSH_ID}/garments`, { method: "POST", session, body: { name: "Proxy check coat B", category: "coat", source: "built" } });
-    const viaProxy = await Promise.all([1, 2, 3, 4].map(() => call(proxyUrl, `/api/productions/${SALTMARSH_ID}/garments?q=Proxy%20check`, { session })));
+    const onA = await call(a, `/api/productions/${SALTMARSH_ID}/garments`, {
+      method: "POST",
+      session,
+      body: { name: "Proxy check coat A", category: "coat", source: "built" },
+    });
+    const onB = await call(b, `/api/productions/${SALTMARSH_ID}/garments`, {
+      method: "POST",
+      session,
+      body: { name: "Proxy check coat B", category: "coat", source: "built" },
+    });
+    const viaProxy = await Promise.all(
+      [1, 2, 3, 4].map(() => call(proxyUrl, `/api/productions/${SALTMARSH_ID}/garments?q=Proxy%20check`, { session })),
+    );
 
     expect(meOnA.status).toBe(200);
     expect(meOnB.body.data.email).toBe("supervisor@seamscene.test");
     expect([onA.status, onB.status]).toEqual([201, 201]);
-    expect(viaProxy.map((r) => r.body.data.map((g: { name: string }) => g.name).sort())).toEqual(Array(4).fill(["Proxy check coat A", "Proxy check coat B"]));
+    expect(viaProxy.map((r) => r.body.data.map((g: { name: string }) => g.name).sort())).toEqual(
+      Array(4).fill(["Proxy check coat A", "Proxy check coat B"]),
+    );
     expect([...hits.values()]).toEqual([2, 2]); // the proxy sent two of the four to each server
   });
 
@@ -150,7 +182,11 @@ describe("two servers behind a round-robin proxy", () => {
     const snag = before.body.data.snags[0] as { key: string };
     expect(snag).toBeDefined();
 
-    const dismissed = await call(a, `/api/productions/${SALTMARSH_ID}/snags/dismissals`, { method: "POST", session, body: { snagKey: snag.key, reason: "Accepted by the designer" } });
+    const dismissed = await call(a, `/api/productions/${SALTMARSH_ID}/snags/dismissals`, {
+      method: "POST",
+      session,
+      body: { snagKey: snag.key, reason: "Accepted by the designer" },
+    });
     const after = await call(b, `/api/productions/${SALTMARSH_ID}/snags`, { session });
 
     expect(dismissed.status).toBe(201);
@@ -161,12 +197,19 @@ describe("two servers behind a round-robin proxy", () => {
   it("serves a photo uploaded through one server from the other", async () => {
     const [a, b] = servers.map((s) => s.url) as [string, string];
     const session = await signIn([a, b], "supervisor@seamscene.test", DEMO_PASSWORD);
-    const [scene] = await sequelize.query<{ id: string }>(`SELECT id FROM scenes WHERE production_id = :pid ORDER BY story_order LIMIT 1`, { replacements: { pid: SALTMARSH_ID }, type: "SELECT" as never });
+    const [scene] = await sequelize.query<{ id: string }>(`SELECT id FROM scenes WHERE production_id = :pid ORDER BY story_order LIMIT 1`, {
+      replacements: { pid: SALTMARSH_ID },
+      type: "SELECT" as never,
+    });
     const form = new FormData();
     form.set("ownerType", "scene");
     form.set("ownerId", scene!.id);
     form.set("view", "front");
-    form.set("file", new Blob([fs.readFileSync(path.resolve("tests/fixtures/gps-rotated.jpg"))], { type: "image/jpeg" }), "gps-rotated.jpg");
+    form.set(
+      "file",
+      new Blob([fs.readFileSync(path.resolve("tests/fixtures/gps-rotated.jpg"))], { type: "image/jpeg" }),
+      "gps-rotated.jpg",
+    );
 
     const up = await call(a, `/api/productions/${SALTMARSH_ID}/photos`, { method: "POST", session, form });
     const file = await call(b, `/api/productions/${SALTMARSH_ID}/photos/${up.body?.data?.id}/file?size=thumb`, { session });
@@ -182,7 +225,13 @@ describe("two servers behind a round-robin proxy", () => {
     const [a, b] = servers.map((s) => s.url) as [string, string];
     const attempt = async (base: string) => {
       const csrf = await call(base, "/api/auth/csrf");
-      return (await call(base, "/api/auth/login", { method: "POST", session: { cookie: cookieOf(csrf.setCookie), csrf: csrf.body.token }, body: { email: "cutter@seamscene.test", password: "not-the-password" } })).status;
+      return (
+        await call(base, "/api/auth/login", {
+          method: "POST",
+          session: { cookie: cookieOf(csrf.setCookie), csrf: csrf.body.token },
+          body: { email: "cutter@seamscene.test", password: "not-the-password" },
+        })
+      ).status;
     };
 
     const statuses: number[] = [];

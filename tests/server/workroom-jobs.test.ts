@@ -24,9 +24,13 @@ describe("the job queue delivers fitting invitations", () => {
     const agent = await signedInAgent(createApp(), user.email);
 
     expect(jobsRunning()).toBe(true);
-    await agent.post(`/api/productions/${production.id}/fittings`, { performerId, startsAt: "2030-09-03T09:30:00Z", durationMinutes: 30 }).expect(201);
+    await agent
+      .post(`/api/productions/${production.id}/fittings`, { performerId, startsAt: "2030-09-03T09:30:00Z", durationMinutes: 30 })
+      .expect(201);
 
     await waitForMail((m) => m.recipients.includes("queue.check@test.invalid"), 20_000);
-    await expect.poll(async () => (await WorkroomEmailJob.findOne({ where: { recipient: "queue.check@test.invalid" } }))?.status, { timeout: 10_000 }).toBe("sent");
+    await expect
+      .poll(async () => (await WorkroomEmailJob.findOne({ where: { recipient: "queue.check@test.invalid" } }))?.status, { timeout: 10_000 })
+      .toBe("sent");
   });
 });

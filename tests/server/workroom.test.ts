@@ -108,7 +108,12 @@ describe("GET /api/productions/:pid/workroom/plan", () => {
     const g3 = await buildGarment(production.id, { tagCode: "T3" });
     await buildChangeOnDays(production.id, { garmentIds: [g1, g2], dates: ["2030-09-04"] });
     await buildChangeOnDays(production.id, { garmentIds: [g3], dates: ["2030-09-05"] });
-    for (const [g, h] of [[g1, 10], [g2, 10], [g3, 20]] as const) await raiseOn("2030-09-02", actor, { garmentId: g, tasks: [take], estimateHours: h });
+    for (const [g, h] of [
+      [g1, 10],
+      [g2, 10],
+      [g3, 20],
+    ] as const)
+      await raiseOn("2030-09-02", actor, { garmentId: g, tasks: [take], estimateHours: h });
     const supervisor = await buildMember("supervisor", { production });
     const agent = await signedInAgent(app, supervisor.user.email);
 
@@ -125,7 +130,9 @@ describe("GET /api/productions/:pid/workroom/plan", () => {
     expect(late[0]).toMatchObject({ key: `workroom_late:${byTag.T3.id}`, severity: "blocking" }); // finishes on the day it is needed
     expect(late[0].explanation).toContain("1 working day late");
     expect(res.body.data.snags.some((s: { kind: string }) => s.kind === "workroom_overbooked")).toBe(true);
-    expect(res.body.data.overbookedDays.every((d: { plannedHours: number; capacityHours: number }) => d.plannedHours === d.capacityHours)).toBe(true);
+    expect(
+      res.body.data.overbookedDays.every((d: { plannedHours: number; capacityHours: number }) => d.plannedHours === d.capacityHours),
+    ).toBe(true);
   });
 
   it("rejects a malformed from date", async () => {
@@ -200,7 +207,11 @@ describe("POST /api/productions/:pid/alterations — bad input writes nothing", 
     ["a negative estimate", (g) => ({ garmentId: g, tasks: [take], estimateHours: -1 }), "estimateHours"],
     ["distress without a stage", (g) => ({ garmentId: g, tasks: [{ kind: "distress" }], estimateHours: 1 }), "tasks.0.distressStage"],
     ["an unknown task", (g) => ({ garmentId: g, tasks: [{ kind: "embroider" }], estimateHours: 1 }), "tasks.0.kind"],
-    ["a garment of another production", () => ({ garmentId: "00000000-0000-4000-8000-000000000000", tasks: [take], estimateHours: 1 }), "garmentId"],
+    [
+      "a garment of another production",
+      () => ({ garmentId: "00000000-0000-4000-8000-000000000000", tasks: [take], estimateHours: 1 }),
+      "garmentId",
+    ],
   ];
   for (const [name, body, field] of cases) {
     it(`400 naming ${field} for ${name}`, async () => {
@@ -252,7 +263,14 @@ describe("fitting invitations (e-mail with an RFC 5545 part)", () => {
     const { changeId } = await buildChangeOnDays(production.id, { performerId, dates: ["2030-09-09"] });
     const agent = await signedInAgent(app, user.email);
 
-    const created = await agent.post(`/api/productions/${production.id}/fittings`, { performerId, changeId, startsAt: "2030-09-03T09:30:00Z", durationMinutes: 45, room: "Fitting room 2", attendeeIds: [user.id] });
+    const created = await agent.post(`/api/productions/${production.id}/fittings`, {
+      performerId,
+      changeId,
+      startsAt: "2030-09-03T09:30:00Z",
+      durationMinutes: 45,
+      room: "Fitting room 2",
+      attendeeIds: [user.id],
+    });
     expect(created.status).toBe(201);
     const invite = await calendarOf("ivy@test.invalid", "Costume fitting");
 
@@ -264,7 +282,9 @@ describe("fitting invitations (e-mail with an RFC 5545 part)", () => {
     expect(invite.event.endDate.toJSDate().toISOString()).toBe("2030-09-03T10:15:00.000Z");
     expect(invite.event.location).toBe("Fitting room 2");
 
-    const moved = await agent.patch(`/api/productions/${production.id}/fittings/${created.body.data.id}`, { startsAt: "2030-09-04T13:00:00Z" });
+    const moved = await agent.patch(`/api/productions/${production.id}/fittings/${created.body.data.id}`, {
+      startsAt: "2030-09-04T13:00:00Z",
+    });
     expect(moved.status).toBe(200);
     const update = await calendarOf("ivy@test.invalid", "Fitting moved");
     expect(update.event.uid).toBe(invite.event.uid);
@@ -282,10 +302,15 @@ describe("fitting invitations (e-mail with an RFC 5545 part)", () => {
 
   it("uses the address in the performer's contact when they have no e-mail", async () => {
     const { production, user } = await setup();
-    const performerId = await buildPerformer(production.id, { email: null, agentContact: "Agent: Sal Example <sal.agent@test.invalid>, 01234" });
+    const performerId = await buildPerformer(production.id, {
+      email: null,
+      agentContact: "Agent: Sal Example <sal.agent@test.invalid>, 01234",
+    });
     const agent = await signedInAgent(app, user.email);
 
-    await agent.post(`/api/productions/${production.id}/fittings`, { performerId, startsAt: "2030-09-03T09:30:00Z", durationMinutes: 30 }).expect(201);
+    await agent
+      .post(`/api/productions/${production.id}/fittings`, { performerId, startsAt: "2030-09-03T09:30:00Z", durationMinutes: 30 })
+      .expect(201);
 
     await calendarOf("sal.agent@test.invalid", "Costume fitting");
   });
@@ -296,8 +321,16 @@ describe("fitting invitations (e-mail with an RFC 5545 part)", () => {
     const agent = await signedInAgent(app, user.email);
 
     const r1 = await agent.post(`/api/productions/${production.id}/fittings`, { performerId, startsAt: "tomorrow", durationMinutes: 30 });
-    const r2 = await agent.post(`/api/productions/${production.id}/fittings`, { performerId, startsAt: "2030-09-03T09:30:00Z", durationMinutes: 2 });
-    const r3 = await agent.post(`/api/productions/${production.id}/fittings`, { performerId: "00000000-0000-4000-8000-000000000000", startsAt: "2030-09-03T09:30:00Z", durationMinutes: 30 });
+    const r2 = await agent.post(`/api/productions/${production.id}/fittings`, {
+      performerId,
+      startsAt: "2030-09-03T09:30:00Z",
+      durationMinutes: 2,
+    });
+    const r3 = await agent.post(`/api/productions/${production.id}/fittings`, {
+      performerId: "00000000-0000-4000-8000-000000000000",
+      startsAt: "2030-09-03T09:30:00Z",
+      durationMinutes: 30,
+    });
 
     expect([r1.status, r2.status, r3.status]).toEqual([400, 400, 400]);
     expect(r1.body.error.fields).toHaveProperty("startsAt");
@@ -313,7 +346,12 @@ describe("failed sends are recorded and visible to supervisors", () => {
     const supervisor = await buildMember("supervisor", { production });
     const cutter = await buildMember("cutter", { production });
     // No recipients: nodemailer refuses to send, like a relay that rejects the message.
-    const job = (await queueWorkroomEmail({ productionId: production.id, kind: "evening_reminder", dedupeKey: "test:bad", mail: { to: [], subject: "x", text: "x", html: "x" } }))!;
+    const job = (await queueWorkroomEmail({
+      productionId: production.id,
+      kind: "evening_reminder",
+      dedupeKey: "test:bad",
+      mail: { to: [], subject: "x", text: "x", html: "x" },
+    }))!;
 
     await expect(runJobNow(EMAIL_JOB, { emailJobId: job.id }, { retryCount: 1, retryLimit: 5 })).rejects.toThrow();
     expect((await job.reload()).status).toBe("retrying");
@@ -323,18 +361,29 @@ describe("failed sends are recorded and visible to supervisors", () => {
     expect(job.status).toBe("failed");
     expect(job.attempts).toBe(3); // the inline attempt at queueing, then the two above
     expect(job.lastError).toMatch(/recipient/i);
-    const list = await (await signedInAgent(app, supervisor.user.email)).get(`/api/productions/${production.id}/workroom/email-jobs?status=failed`);
+    const list = await (
+      await signedInAgent(app, supervisor.user.email)
+    ).get(`/api/productions/${production.id}/workroom/email-jobs?status=failed`);
     expect(list.status).toBe(200);
     expect(list.body.data.map((j: { id: string }) => j.id)).toEqual([job.id]);
-    expect((await (await signedInAgent(app, cutter.user.email)).get(`/api/productions/${production.id}/workroom/email-jobs`)).status).toBe(403);
+    expect((await (await signedInAgent(app, cutter.user.email)).get(`/api/productions/${production.id}/workroom/email-jobs`)).status).toBe(
+      403,
+    );
   });
 
   it("a retry that fails again (no queue, sent inline) answers with the row marked failed and its error", async () => {
     const { production } = await setup();
     const supervisor = await buildMember("supervisor", { production });
-    const job = (await queueWorkroomEmail({ productionId: production.id, kind: "evening_reminder", dedupeKey: "test:bad-again", mail: { to: [], subject: "x", text: "x", html: "x" } }))!;
+    const job = (await queueWorkroomEmail({
+      productionId: production.id,
+      kind: "evening_reminder",
+      dedupeKey: "test:bad-again",
+      mail: { to: [], subject: "x", text: "x", html: "x" },
+    }))!;
 
-    const res = await (await signedInAgent(app, supervisor.user.email)).post(`/api/productions/${production.id}/workroom/email-jobs/${job.id}/retry`, {});
+    const res = await (
+      await signedInAgent(app, supervisor.user.email)
+    ).post(`/api/productions/${production.id}/workroom/email-jobs/${job.id}/retry`, {});
 
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     expect(res.body.data).toMatchObject({ id: job.id, status: "failed", attempts: 2 });
@@ -351,7 +400,18 @@ describe("evening reminders", () => {
     await buildChangeOnDays(production.id, { garmentIds: [garmentId], dates: ["2030-09-05"] }); // Thu → due Wed
     await raiseOn("2030-09-02", actor, { garmentId, tasks: [take], estimateHours: 3, assigneeId: user.id });
     const { Fitting } = await import("../../server/models/index.js");
-    await Fitting.create({ productionId: production.id, performerId, changeId: null, startsAt: new Date("2030-09-04T10:00:00Z"), durationMinutes: 30, room: "Room 1", attendeeIds: [user.id], notes: null, icsUid: "t@x", createdBy: null });
+    await Fitting.create({
+      productionId: production.id,
+      performerId,
+      changeId: null,
+      startsAt: new Date("2030-09-04T10:00:00Z"),
+      durationMinutes: 30,
+      room: "Room 1",
+      attendeeIds: [user.id],
+      notes: null,
+      icsUid: "t@x",
+      createdBy: null,
+    });
 
     // Tue 3 Sep 2030, 18:00 in the department's zone (Europe/London is UTC+1 in September).
     const queued = await sendEveningReminders({ now: new Date("2030-09-03T17:05:00Z"), productionId: production.id });
@@ -393,6 +453,9 @@ describe("one cause, one snag card", () => {
     const [card] = aboutW1;
     expect(card.severity).toBe("blocking");
     expect(card.facts.map((f: { kind: string }) => f.kind)).toEqual(["workroom_late", "availability"]);
-    expect(card.links[0]).toEqual({ label: "Alteration ticket for W1", href: `/p/${production.id}/workroom?tab=tickets&ticket=${ticket.id}` });
+    expect(card.links[0]).toEqual({
+      label: "Alteration ticket for W1",
+      href: `/p/${production.id}/workroom?tab=tickets&ticket=${ticket.id}`,
+    });
   });
 });

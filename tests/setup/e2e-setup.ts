@@ -40,9 +40,23 @@ export default async function setup(project: TestProject) {
   const databaseUrl = await ensureDatabase(pg, "seamscene_e2e");
   const port = await freePort();
   const smtpPort = await freePort();
-  const env: NodeJS.ProcessEnv = { ...process.env, DATABASE_URL: databaseUrl, PORT: String(port), SMTP_PORT: String(smtpPort), NODE_ENV: "development", LOG_LEVEL: "warn", STORAGE_DIR: ".data/e2e-storage", DATA_DIR: ".data/e2e-data", APP_URL: `http://127.0.0.1:${port}`, CLOCK_AT: TEST_CLOCK_AT };
+  const env: NodeJS.ProcessEnv = {
+    ...process.env,
+    DATABASE_URL: databaseUrl,
+    PORT: String(port),
+    SMTP_PORT: String(smtpPort),
+    NODE_ENV: "development",
+    LOG_LEVEL: "warn",
+    STORAGE_DIR: ".data/e2e-storage",
+    DATA_DIR: ".data/e2e-data",
+    APP_URL: `http://127.0.0.1:${port}`,
+    CLOCK_AT: TEST_CLOCK_AT,
+  };
   delete env.SMTP_HOST;
-  child = spawn(process.execPath, [path.resolve("node_modules/tsx/dist/cli.mjs"), "scripts/start.ts"], { env, stdio: ["ignore", "pipe", "pipe"] });
+  child = spawn(process.execPath, [path.resolve("node_modules/tsx/dist/cli.mjs"), "scripts/start.ts"], {
+    env,
+    stdio: ["ignore", "pipe", "pipe"],
+  });
   let output = "";
   child.stdout?.on("data", (d) => (output += d));
   child.stderr?.on("data", (d) => (output += d));

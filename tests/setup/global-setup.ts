@@ -16,7 +16,8 @@ declare module "vitest" {
 
 export default async function globalSetup(project: TestProject) {
   const pg = await startTestPostgres();
-  if (pg.relocatedFrom) console.log(`Test PostgreSQL keeps its data in ${pg.dataDir} (${pg.relocatedFrom} is not reachable by the postgres user).`);
+  if (pg.relocatedFrom)
+    console.log(`Test PostgreSQL keeps its data in ${pg.dataDir} (${pg.relocatedFrom} is not reachable by the postgres user).`);
   // Drop worker databases left by an earlier run, then rebuild the template from the migrations.
   const { default: pgLib } = await import("pg");
   const client = new pgLib.Client({ connectionString: pg.adminUrl });

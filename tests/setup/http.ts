@@ -21,9 +21,21 @@ async function withCsrf(agent: ReturnType<typeof request.agent>): Promise<TestAg
     agent,
     csrf,
     get: (url) => agent.get(url),
-    post: (url, body) => agent.post(url).set("X-CSRF-Token", csrf).send(body ?? {}),
-    patch: (url, body) => agent.patch(url).set("X-CSRF-Token", csrf).send(body ?? {}),
-    put: (url, body) => agent.put(url).set("X-CSRF-Token", csrf).send(body ?? {}),
+    post: (url, body) =>
+      agent
+        .post(url)
+        .set("X-CSRF-Token", csrf)
+        .send(body ?? {}),
+    patch: (url, body) =>
+      agent
+        .patch(url)
+        .set("X-CSRF-Token", csrf)
+        .send(body ?? {}),
+    put: (url, body) =>
+      agent
+        .put(url)
+        .set("X-CSRF-Token", csrf)
+        .send(body ?? {}),
     delete: (url) => agent.delete(url).set("X-CSRF-Token", csrf),
   };
 }
@@ -48,7 +60,10 @@ export async function resetDb(): Promise<void> {
 }
 
 /** Waits until the SMTP fake has stored a message matching the predicate. */
-export async function waitForMail(match: (m: { recipients: string; subject: string; textBody: string | null }) => boolean, timeoutMs = 5000) {
+export async function waitForMail(
+  match: (m: { recipients: string; subject: string; textBody: string | null }) => boolean,
+  timeoutMs = 5000,
+) {
   const { OutboxMessage } = await import("../../server/models/index.js");
   const start = Date.now();
   while (Date.now() - start < timeoutMs) {

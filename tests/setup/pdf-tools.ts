@@ -73,7 +73,8 @@ export async function pdfPagePng(pdf: Buffer, page: number, dpi = 200): Promise<
 export async function decodeQr(png: Buffer): Promise<string> {
   const { data, info } = await sharp(png).removeAlpha().raw().toBuffer({ resolveWithObject: true });
   const lum = new Uint8ClampedArray(info.width * info.height);
-  for (let i = 0, p = 0; i < lum.length; i++, p += info.channels) lum[i] = (data[p]! * 299 + data[p + 1]! * 587 + data[p + 2]! * 114) / 1000;
+  for (let i = 0, p = 0; i < lum.length; i++, p += info.channels)
+    lum[i] = (data[p]! * 299 + data[p + 1]! * 587 + data[p + 2]! * 114) / 1000;
   const source = new RGBLuminanceSource(lum, info.width, info.height);
   const hints = new Map([[DecodeHintType.TRY_HARDER, true]]);
   return new QRCodeReader().decode(new BinaryBitmap(new HybridBinarizer(source)), hints).getText();
@@ -89,7 +90,11 @@ export async function decodeQrColumn(png: Buffer, opts: { dpi: number; fromMm: n
   const meta = await sharp(png).metadata();
   const left = px(opts.fromMm);
   const width = Math.min(px(opts.toMm) - left, (meta.width ?? 0) - left);
-  const strip = await sharp(png).extract({ left, top: 0, width, height: meta.height! }).greyscale().raw().toBuffer({ resolveWithObject: true });
+  const strip = await sharp(png)
+    .extract({ left, top: 0, width, height: meta.height! })
+    .greyscale()
+    .raw()
+    .toBuffer({ resolveWithObject: true });
   const inked: boolean[] = [];
   for (let y = 0; y < strip.info.height; y++) {
     let dark = false;

@@ -39,7 +39,12 @@ export function spawnTsx(args: string[], env: NodeJS.ProcessEnv, cwd = process.c
 }
 
 /** Polls `check` until it returns a value other than undefined/false, or fails after `ms`. */
-export async function waitFor<T>(what: string, check: () => Promise<T | undefined | false> | T | undefined | false, ms = 60_000, every = 200): Promise<T> {
+export async function waitFor<T>(
+  what: string,
+  check: () => Promise<T | undefined | false> | T | undefined | false,
+  ms = 60_000,
+  every = 200,
+): Promise<T> {
   const deadline = Date.now() + ms;
   let lastErr: unknown;
   for (;;) {

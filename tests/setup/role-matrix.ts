@@ -28,12 +28,23 @@ export interface MatrixCase {
   expect: Partial<Record<Who, number>> & Record<Role, number>;
 }
 
-export const all = (status: number): Record<Role, number> => ({ supervisor: status, designer: status, set_costumer: status, cutter: status, vfx: status });
+export const all = (status: number): Record<Role, number> => ({
+  supervisor: status,
+  designer: status,
+  set_costumer: status,
+  cutter: status,
+  vfx: status,
+});
 export const only = (allowed: Role[], ok: number, denied = 403): Record<Role, number> =>
   Object.fromEntries(roles.map((r) => [r, allowed.includes(r) ? ok : denied])) as Record<Role, number>;
 
 /** Declares the describe block for one feature's matrix. */
-export function runRoleMatrix(name: string, app: Express, cases: MatrixCase[], prepare?: (c: MatrixCtx) => Promise<Record<string, string>>) {
+export function runRoleMatrix(
+  name: string,
+  app: Express,
+  cases: MatrixCase[],
+  prepare?: (c: MatrixCtx) => Promise<Record<string, string>>,
+) {
   const agents = {} as Record<Role | "outsider", TestAgent>;
   const ctx = { memberIdOf: {}, userIdOf: {}, extra: {} } as MatrixCtx;
 
@@ -66,7 +77,11 @@ export function runRoleMatrix(name: string, app: Express, cases: MatrixCase[], p
             res = await (c.body ? r.send(c.body(ctx)) : r);
           } else {
             const a = agents[who];
-            res = await (c.method === "get" ? a.get(c.path(ctx)) : c.method === "delete" ? a.delete(c.path(ctx)) : a[c.method](c.path(ctx), c.body?.(ctx)));
+            res = await (c.method === "get"
+              ? a.get(c.path(ctx))
+              : c.method === "delete"
+                ? a.delete(c.path(ctx))
+                : a[c.method](c.path(ctx), c.body?.(ctx)));
           }
           expect(res.status, JSON.stringify(res.body).slice(0, 300)).toBe(expected);
           // The error code each refusal must carry (style guide: one error shape, stable codes).

@@ -17,10 +17,10 @@ async function insert(table: string, row: Params): Promise<string> {
     const v = row[c];
     values[c] = v !== null && typeof v === "object" && !(v instanceof Date) ? JSON.stringify(v) : v;
   }
-  await sequelize.query(
-    `INSERT INTO ${table} (id, ${cols.join(", ")}) VALUES (:id, ${cols.map((c) => `:${c}`).join(", ")})`,
-    { replacements: values, type: QueryTypes.INSERT },
-  );
+  await sequelize.query(`INSERT INTO ${table} (id, ${cols.join(", ")}) VALUES (:id, ${cols.map((c) => `:${c}`).join(", ")})`, {
+    replacements: values,
+    type: QueryTypes.INSERT,
+  });
   return id;
 }
 
@@ -55,9 +55,16 @@ export function snagFixtures(productionId: string) {
 
     /** A shoot day (or a performance) with its scenes in shooting order. */
     async shootDay(o: { date: string; sceneIds?: string[]; kind?: "shoot" | "performance"; startsAt?: string }) {
-      const id = await insert("shoot_days", { ...pid, day_number: ++dayNumber, date: o.date, kind: o.kind ?? "shoot", starts_at: o.startsAt ?? null });
+      const id = await insert("shoot_days", {
+        ...pid,
+        day_number: ++dayNumber,
+        date: o.date,
+        kind: o.kind ?? "shoot",
+        starts_at: o.startsAt ?? null,
+      });
       let position = 0;
-      for (const sceneId of o.sceneIds ?? []) await insert("shoot_day_scenes", { ...pid, shoot_day_id: id, scene_id: sceneId, position: ++position });
+      for (const sceneId of o.sceneIds ?? [])
+        await insert("shoot_day_scenes", { ...pid, shoot_day_id: id, scene_id: sceneId, position: ++position });
       return id;
     },
 
@@ -72,7 +79,15 @@ export function snagFixtures(productionId: string) {
         multiples_group_id: o.groupId ?? null,
       }),
 
-    appearance: (o: { sceneId: string; characterId: string; changeId: string | null; distressStage?: number; wet?: boolean; stunt?: boolean; changeHere?: boolean }) =>
+    appearance: (o: {
+      sceneId: string;
+      characterId: string;
+      changeId: string | null;
+      distressStage?: number;
+      wet?: boolean;
+      stunt?: boolean;
+      changeHere?: boolean;
+    }) =>
       insert("appearances", {
         ...pid,
         scene_id: o.sceneId,
@@ -117,7 +132,13 @@ export function snagFixtures(productionId: string) {
         fabric_id: o.fabricId ?? null,
       }),
 
-    async continuityEntry(o: { sceneId: string; characterId: string; shootDayId: string | null; distressStage?: number | null; garmentIds: string[] }) {
+    async continuityEntry(o: {
+      sceneId: string;
+      characterId: string;
+      shootDayId: string | null;
+      distressStage?: number | null;
+      garmentIds: string[];
+    }) {
       const id = await insert("continuity_entries", {
         ...pid,
         scene_id: o.sceneId,
@@ -175,7 +196,13 @@ export async function buildFilmScenario(f: SnagFixtures) {
   const d3 = await f.shootDay({ date: "2027-01-13", sceneIds: [s2, s6] });
   const d4 = await f.shootDay({ date: "2027-01-14", sceneIds: [s7] });
 
-  const jacket = await f.garment({ tagCode: "J-1", name: "Keeper jacket", category: "jacket", fitIntent: "fitted", finished: { chest: 1010 } });
+  const jacket = await f.garment({
+    tagCode: "J-1",
+    name: "Keeper jacket",
+    category: "jacket",
+    fitIntent: "fitted",
+    finished: { chest: 1010 },
+  });
   const shirt = await f.garment({ tagCode: "H-1", name: "Work shirt", category: "shirt" });
   const shawl = await f.garment({ tagCode: "S-1", name: "Knitted shawl", category: "shawl" });
   const coat = await f.garment({ tagCode: "R-1", name: "Frock coat", category: "coat", source: "rented", rentalDueOn: "2027-01-12" });

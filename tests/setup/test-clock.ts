@@ -10,5 +10,7 @@ export const TEST_CLOCK_AT = process.env.TEST_CLOCK_AT ?? "2026-12-02T09:00:00Z"
 
 /** The calendar date of the pinned instant in the demo's zone (yyyy-MM-dd). */
 export function testToday(): string {
-  return new Intl.DateTimeFormat("en-CA", { timeZone: DEMO_TIME_ZONE, year: "numeric", month: "2-digit", day: "2-digit" }).format(new Date(TEST_CLOCK_AT));
+  return new Intl.DateTimeFormat("en-CA", { timeZone: DEMO_TIME_ZONE, year: "numeric", month: "2-digit", day: "2-digit" }).format(
+    new Date(TEST_CLOCK_AT),
+  );
 }

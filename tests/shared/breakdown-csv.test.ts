@@ -1,12 +1,24 @@
 import { describe, expect, it } from "vitest";
 import Papa from "papaparse";
-import { breakdownTemplateCsv, breakdownToCsv, mergeDayOrder, parseBreakdownCsv, planBreakdownImport, type SceneValues } from "@shared/domain/breakdown-csv";
+import {
+  breakdownTemplateCsv,
+  breakdownToCsv,
+  mergeDayOrder,
+  parseBreakdownCsv,
+  planBreakdownImport,
+  type SceneValues,
+} from "@shared/domain/breakdown-csv";
 
 const header = "scene,set,int_ext,time_of_day,story_day,story_order,pages,running_minutes,synopsis,shoot_day,shoot_date,shoot_position";
 
 describe("parseBreakdownCsv", () => {
   it("reads scenes, shoot days and a scene shot on two days", () => {
-    const csv = [header, `1,Harbour wall,EXT,DAY,1,1,1 3/8,,"Boats come in, late",1,2026-11-30,2`, "2,Chapel,INT,NIGHT,1,2,4/8,,,1,2026-11-30,1", "2,,,,,,,,,2,2026-12-01,1"].join("\n");
+    const csv = [
+      header,
+      `1,Harbour wall,EXT,DAY,1,1,1 3/8,,"Boats come in, late",1,2026-11-30,2`,
+      "2,Chapel,INT,NIGHT,1,2,4/8,,,1,2026-11-30,1",
+      "2,,,,,,,,,2,2026-12-01,1",
+    ].join("\n");
 
     const r = parseBreakdownCsv(csv);
 
@@ -16,14 +28,29 @@ describe("parseBreakdownCsv", () => {
       ["1", 11, "Boats come in, late"],
       ["2", 4, undefined],
     ]);
-    expect(r.shootDays.map((d) => ({ dayNumber: d.dayNumber, date: d.date, scenes: d.scenes.map((s) => [s.number, s.position]) }))).toEqual([
-      { dayNumber: 1, date: "2026-11-30", scenes: [["1", 2], ["2", 1]] },
-      { dayNumber: 2, date: "2026-12-01", scenes: [["2", 1]] },
-    ]);
+    expect(r.shootDays.map((d) => ({ dayNumber: d.dayNumber, date: d.date, scenes: d.scenes.map((s) => [s.number, s.position]) }))).toEqual(
+      [
+        {
+          dayNumber: 1,
+          date: "2026-11-30",
+          scenes: [
+            ["1", 2],
+            ["2", 1],
+          ],
+        },
+        { dayNumber: 2, date: "2026-12-01", scenes: [["2", 1]] },
+      ],
+    );
   });
 
   it("reports every bad cell with its line and column", () => {
-    const csv = [header, "1,Quay,OUTSIDE,DAY,1,,1 3/8,,,,,", "1B?,Quay,EXT,DAY,x,,,,,,,", "3,Quay,EXT,DAY,2,,1/4,,,1,2026-02-30,", "4,Quay,EXT,DAY,2,,,,,,,"].join("\n");
+    const csv = [
+      header,
+      "1,Quay,OUTSIDE,DAY,1,,1 3/8,,,,,",
+      "1B?,Quay,EXT,DAY,x,,,,,,,",
+      "3,Quay,EXT,DAY,2,,1/4,,,1,2026-02-30,",
+      "4,Quay,EXT,DAY,2,,,,,,,",
+    ].join("\n");
 
     const r = parseBreakdownCsv(csv);
 
@@ -54,11 +81,38 @@ describe("parseBreakdownCsv", () => {
 describe("breakdownToCsv", () => {
   it("round-trips through the parser, and papaparse reads the same cells", () => {
     const scenes = [
-      { number: "2", setName: "Chapel, vestry", intExt: "INT", timeOfDay: "NIGHT", storyDay: 1, storyOrder: 2, lengthEighths: 4, runningMinutes: null, synopsis: 'He says "no"' },
-      { number: "1", setName: "Harbour wall", intExt: "EXT", timeOfDay: "DAY", storyDay: 1, storyOrder: 1, lengthEighths: 11, runningMinutes: null, synopsis: null },
+      {
+        number: "2",
+        setName: "Chapel, vestry",
+        intExt: "INT",
+        timeOfDay: "NIGHT",
+        storyDay: 1,
+        storyOrder: 2,
+        lengthEighths: 4,
+        runningMinutes: null,
+        synopsis: 'He says "no"',
+      },
+      {
+        number: "1",
+        setName: "Harbour wall",
+        intExt: "EXT",
+        timeOfDay: "DAY",
+        storyDay: 1,
+        storyOrder: 1,
+        lengthEighths: 11,
+        runningMinutes: null,
+        synopsis: null,
+      },
     ];
     const days = [
-      { dayNumber: 1, date: "2026-11-30", scenes: [{ number: "2", position: 1 }, { number: "1", position: 2 }] },
+      {
+        dayNumber: 1,
+        date: "2026-11-30",
+        scenes: [
+          { number: "2", position: 1 },
+          { number: "1", position: 2 },
+        ],
+      },
       { dayNumber: 2, date: "2026-12-01", scenes: [{ number: "2", position: 1 }] },
     ];
 
@@ -72,15 +126,36 @@ describe("breakdownToCsv", () => {
 
     expect(back.errors).toEqual([]);
     expect(plan.errors).toEqual([]);
-    expect(plan.dayWrites.map((d) => ({ dayNumber: d.dayNumber, date: d.date, scenes: d.sceneNumbers.map((number, i) => ({ number, position: i + 1 })) }))).toEqual(days);
+    expect(
+      plan.dayWrites.map((d) => ({
+        dayNumber: d.dayNumber,
+        date: d.date,
+        scenes: d.sceneNumbers.map((number, i) => ({ number, position: i + 1 })),
+      })),
+    ).toEqual(days);
     expect([...values.entries()].map(([number, v]) => ({ number, ...v }))).toEqual([scenes[1], scenes[0]]);
     expect(raw[2]![1]).toBe("Chapel, vestry");
     expect(raw[2]![8]).toBe('He says "no"');
-    expect(breakdownToCsv([...values.entries()].map(([number, v]) => ({ number, ...v })), days)).toBe(csv);
+    expect(
+      breakdownToCsv(
+        [...values.entries()].map(([number, v]) => ({ number, ...v })),
+        days,
+      ),
+    ).toBe(csv);
   });
 });
 
-const stored = (over: Partial<SceneValues> = {}): SceneValues => ({ setName: "Harbour wall", intExt: "EXT", timeOfDay: "DAY", storyDay: 3, storyOrder: 1, lengthEighths: 11, runningMinutes: null, synopsis: "Nets", ...over });
+const stored = (over: Partial<SceneValues> = {}): SceneValues => ({
+  setName: "Harbour wall",
+  intExt: "EXT",
+  timeOfDay: "DAY",
+  storyDay: 3,
+  storyOrder: 1,
+  lengthEighths: 11,
+  runningMinutes: null,
+  synopsis: "Nets",
+  ...over,
+});
 
 describe("planBreakdownImport (merge into the stored breakdown)", () => {
   it("keeps every stored field a row leaves empty or does not have, and clears only on (clear)", () => {
@@ -94,7 +169,11 @@ describe("planBreakdownImport (merge into the stored breakdown)", () => {
   });
 
   it("leaves an unchanged scene out of the writes and counts it as unchanged", () => {
-    const plan = planBreakdownImport(parseBreakdownCsv("scene,set\n1,Harbour wall\n"), { scenes: new Map([["1", stored()]]), days: new Map(), nextStoryOrder: 2 });
+    const plan = planBreakdownImport(parseBreakdownCsv("scene,set\n1,Harbour wall\n"), {
+      scenes: new Map([["1", stored()]]),
+      days: new Map(),
+      nextStoryOrder: 2,
+    });
 
     expect(plan.sceneWrites).toEqual([]);
     expect(plan.changes[0]!.status).toBe("unchanged");
@@ -130,9 +209,19 @@ describe("mergeDayOrder", () => {
 
   it("reproduces any full order written with positions 1..n over any stored order (export → import is stable)", () => {
     // Property: a file that lists every scene of a day with positions 1..n yields exactly that order.
-    const orders = [["1", "2", "3"], ["3", "1", "2"], ["2", "3", "1"]];
-    for (const storedOrder of orders) for (const target of orders) {
-      expect(mergeDayOrder(storedOrder, target.map((n, i) => slot(n, i + 1)))).toEqual(target);
-    }
+    const orders = [
+      ["1", "2", "3"],
+      ["3", "1", "2"],
+      ["2", "3", "1"],
+    ];
+    for (const storedOrder of orders)
+      for (const target of orders) {
+        expect(
+          mergeDayOrder(
+            storedOrder,
+            target.map((n, i) => slot(n, i + 1)),
+          ),
+        ).toEqual(target);
+      }
   });
 });

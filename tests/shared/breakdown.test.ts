@@ -48,7 +48,10 @@ describe("scene number order", () => {
 
 describe("minutes since a character's previous exit", () => {
   /** Brute force: walk the running order between the two scenes and add their minutes. */
-  function naive(scenes: Array<{ id: string; runningMinutes: number | null }>, apps: Array<{ id: string; sceneId: string; characterId: string }>) {
+  function naive(
+    scenes: Array<{ id: string; runningMinutes: number | null }>,
+    apps: Array<{ id: string; sceneId: string; characterId: string }>,
+  ) {
     const out = new Map<string, number | null>();
     const idx = (sid: string) => scenes.findIndex((s) => s.id === sid);
     for (const a of apps) {
@@ -68,7 +71,13 @@ describe("minutes since a character's previous exit", () => {
   it("matches a brute-force walk of the running order", () => {
     const arb = fc
       .record({
-        minutes: fc.array(fc.option(fc.integer({ min: 0, max: 2000 }).map((c) => c / 100), { nil: null }), { minLength: 1, maxLength: 15 }),
+        minutes: fc.array(
+          fc.option(
+            fc.integer({ min: 0, max: 2000 }).map((c) => c / 100),
+            { nil: null },
+          ),
+          { minLength: 1, maxLength: 15 },
+        ),
         chars: fc.integer({ min: 1, max: 4 }),
         seed: fc.array(fc.tuple(fc.nat(), fc.nat()), { maxLength: 40 }),
       })

@@ -9,12 +9,23 @@ import {
   simulatedOverhangMm,
   tipDeflectionMm,
 } from "@shared/domain/cantilever";
-import { STANDARD_GRAVITY, fabricSimulationValues, flexuralRigidity, peirceBendingLength, type FabricTest } from "@shared/domain/fabric-physics";
+import {
+  STANDARD_GRAVITY,
+  fabricSimulationValues,
+  flexuralRigidity,
+  peirceBendingLength,
+  type FabricTest,
+} from "@shared/domain/fabric-physics";
 import { fabricSeeds } from "../../seeds/fabric-library";
 
 // mathjs ships solveODE (adaptive Runge–Kutta) but its type declarations do not list it yet.
 const { solveODE } = mathjs as unknown as {
-  solveODE: (f: (t: number, y: number[]) => number[], span: [number, number], y0: number[], options?: { tol?: number }) => { t: number[]; y: number[][] };
+  solveODE: (
+    f: (t: number, y: number[]) => number[],
+    span: [number, number],
+    y0: number[],
+    options?: { tol?: number },
+  ) => { t: number[]; y: number[][] };
 };
 
 describe("heavy cantilever (planar elastica) solver", () => {

@@ -7,7 +7,7 @@ import { escapeCsvFormula, unescapeCsvFormula, writeCsv, writeCsvRecords } from 
 describe("escapeCsvFormula", () => {
   // OWASP "CSV Injection": cells starting with = + - @ tab or carriage return are run as formulas.
   it.each([
-    ["=HYPERLINK(\"http://x.invalid\",\"click\")", "'=HYPERLINK(\"http://x.invalid\",\"click\")"],
+    ['=HYPERLINK("http://x.invalid","click")', '\'=HYPERLINK("http://x.invalid","click")'],
     ["+1+cmd|' /C calc'!A0", "'+1+cmd|' /C calc'!A0"],
     ["-2+3", "'-2+3"],
     ["@SUM(A1:A9)", "'@SUM(A1:A9)"],
@@ -63,7 +63,10 @@ describe("writeCsv", () => {
 
 describe("the one CSV writer", () => {
   it("is the only place that writes CSV text: no other server or shared module calls Papa.unparse", () => {
-    const files = (dir: string): string[] => fs.readdirSync(dir, { withFileTypes: true }).flatMap((e) => (e.isDirectory() ? files(path.join(dir, e.name)) : /\.tsx?$/.test(e.name) ? [path.join(dir, e.name)] : []));
+    const files = (dir: string): string[] =>
+      fs
+        .readdirSync(dir, { withFileTypes: true })
+        .flatMap((e) => (e.isDirectory() ? files(path.join(dir, e.name)) : /\.tsx?$/.test(e.name) ? [path.join(dir, e.name)] : []));
     const writers = [...files("server"), ...files("shared"), ...files("src")].filter((f) => /\.unparse\(/.test(fs.readFileSync(f, "utf8")));
 
     expect(writers).toEqual([path.join("shared", "csv.ts")]);

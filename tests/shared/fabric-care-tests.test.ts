@@ -28,7 +28,11 @@ describe("dimensional change after washing or dry-cleaning", () => {
 
   it("the worked example gives −20/7 % in length and +4/7 % in width (exact fractions from mathjs as the oracle)", () => {
     const exact = (pairs: typeof length) =>
-      mnumber(mean(pairs.map((p) => multiply(divide(subtract(fraction(p.afterMm), fraction(p.beforeMm)), fraction(p.beforeMm)), 100)) as never) as never) as number;
+      mnumber(
+        mean(
+          pairs.map((p) => multiply(divide(subtract(fraction(p.afterMm), fraction(p.beforeMm)), fraction(p.beforeMm)), 100)) as never,
+        ) as never,
+      ) as number;
 
     const r = shrinkageResult(length, width);
 
@@ -78,7 +82,8 @@ describe("grey-scale grades", () => {
     }
     // A lower grade always stands for a larger difference, and neighbouring pairs' tolerance bands do not overlap.
     const rising = [...greyScaleGrades].reverse().map((g) => greyScaleChangeCielab[g]);
-    for (let i = 1; i < rising.length; i++) expect(rising[i]!.deltaE - rising[i]!.tolerance).toBeGreaterThan(rising[i - 1]!.deltaE + rising[i - 1]!.tolerance);
+    for (let i = 1; i < rising.length; i++)
+      expect(rising[i]!.deltaE - rising[i]!.tolerance).toBeGreaterThan(rising[i - 1]!.deltaE + rising[i - 1]!.tolerance);
   });
 
   it("reads the ways people write a grade and refuses values off the scale", () => {

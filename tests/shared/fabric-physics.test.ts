@@ -78,7 +78,12 @@ describe("ASTM D1388 option A cantilever", () => {
 
   it("matches mathjs unit arithmetic for G = W·g_n·c³", () => {
     // Oracle: mathjs carries units through; gravity constant is 9.80665 m/s².
-    for (const [w, c] of [[90, 14], [200, 20], [380, 31.5], [130, 9.8]]) {
+    for (const [w, c] of [
+      [90, 14],
+      [200, 20],
+      [380, 31.5],
+      [130, 9.8],
+    ]) {
       const oracle = multiply(multiply(unit(w, "g/m^2"), gravity), pow(unit(c, "mm"), 3)) as Unit;
       expectRel(flexuralRigidity(w, c), oracle.toNumber("N m"), 1e-12);
     }
@@ -130,7 +135,11 @@ describe("strip tensile stiffness per width", () => {
   it("matches mathjs: (F/b)/(ΔL/L0)", () => {
     const oracle = divide(divide(unit(7.5, "N"), unit(25, "mm")), 3 / 180) as Unit;
 
-    expectRel(tensileStiffnessPerWidth({ loadN: 7.5, stripWidthMm: 25, gaugeLengthMm: 180, extensionMm: 3 }), oracle.toNumber("N/m"), 1e-12);
+    expectRel(
+      tensileStiffnessPerWidth({ loadN: 7.5, stripWidthMm: 25, gaugeLengthMm: 180, extensionMm: 3 }),
+      oracle.toNumber("N/m"),
+      1e-12,
+    );
   });
 
   it("Young's modulus E = k/t: 10 000 N/m over 0.3 mm → 33.33 MPa (strip test, Hooke's law per unit width)", () => {
@@ -259,7 +268,14 @@ describe("fabricSimulationValues", () => {
     const v = fabricSimulationValues({ fabricClass: cls, tests: [] });
     const d = FABRIC_CLASS_DEFAULTS[cls];
 
-    for (const tagged of [v.massPerArea, v.bendingStiffness.warp, v.bendingStiffness.weft, v.stretchStiffness.warp, v.stretchStiffness.weft, v.thickness]) {
+    for (const tagged of [
+      v.massPerArea,
+      v.bendingStiffness.warp,
+      v.bendingStiffness.weft,
+      v.stretchStiffness.warp,
+      v.stretchStiffness.weft,
+      v.thickness,
+    ]) {
       expect(tagged.basis).toBe("assumed");
       expect(tagged.basis === "assumed" && tagged.note).toContain("common practice, no source");
     }

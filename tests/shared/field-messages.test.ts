@@ -39,7 +39,9 @@ describe("fieldSentence", () => {
   });
 
   it("keeps a message that is already a sentence", () => {
-    expect(fieldSentence("values.waist_girth", "Waist girth 5000 mm is above the plausible maximum of 1800 mm")).toBe("Waist girth 5000 mm is above the plausible maximum of 1800 mm");
+    expect(fieldSentence("values.waist_girth", "Waist girth 5000 mm is above the plausible maximum of 1800 mm")).toBe(
+      "Waist girth 5000 mm is above the plausible maximum of 1800 mm",
+    );
   });
 });
 
@@ -50,7 +52,9 @@ describe("plainMessage", () => {
   });
 
   it("capitalises any other message and leaves it alone", () => {
-    expect(plainMessage("A checked ticket is closed; raise a new one for more work.")).toBe("A checked ticket is closed; raise a new one for more work.");
+    expect(plainMessage("A checked ticket is closed; raise a new one for more work.")).toBe(
+      "A checked ticket is closed; raise a new one for more work.",
+    );
   });
 });
 

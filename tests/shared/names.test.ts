@@ -56,8 +56,16 @@ describe("every name field uses it", () => {
   it.each([
     ["performer", () => performerInputSchema.safeParse({ name: invisible }), "name"],
     ["character", () => characterInputSchema.safeParse({ name: "A\u0000B" }), "name"],
-    ["garment", () => createGarmentInputSchema.safeParse({ name: invisible, category: "jacket", source: "built", fitIntent: "fitted" }), "name"],
-    ["fabric", () => createFabricInputSchema.safeParse({ name: invisible, fibreContent: [{ fibre: "wool", percent: 100 }], construction: "woven" }), "name"],
+    [
+      "garment",
+      () => createGarmentInputSchema.safeParse({ name: invisible, category: "jacket", source: "built", fitIntent: "fitted" }),
+      "name",
+    ],
+    [
+      "fabric",
+      () => createFabricInputSchema.safeParse({ name: invisible, fibreContent: [{ fibre: "wool", percent: 100 }], construction: "woven" }),
+      "name",
+    ],
     ["production", () => createProductionInputSchema.safeParse({ title: invisible, kind: "film" }), "title"],
   ])("%s", (_label, parse, field) => {
     const res = parse();

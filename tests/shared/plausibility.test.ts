@@ -14,9 +14,23 @@ describe("measurement keys", () => {
   it("lists the ISO 8559-1 keys named in product.md plus foot width, each with a label", () => {
     // product.md "Measurement set" names these keys; foot length/width serve ISO 9407 shoe sizing.
     const fromProductMd = [
-      "height", "neck_girth", "chest_girth", "bust_girth", "waist_girth", "hip_girth", "across_back_width",
-      "shoulder_width", "arm_length", "upper_arm_girth", "wrist_girth", "back_waist_length",
-      "inside_leg_length", "thigh_girth", "head_girth", "foot_length", "foot_width",
+      "height",
+      "neck_girth",
+      "chest_girth",
+      "bust_girth",
+      "waist_girth",
+      "hip_girth",
+      "across_back_width",
+      "shoulder_width",
+      "arm_length",
+      "upper_arm_girth",
+      "wrist_girth",
+      "back_waist_length",
+      "inside_leg_length",
+      "thigh_girth",
+      "head_girth",
+      "foot_length",
+      "foot_width",
     ];
 
     expect([...MEASUREMENT_KEYS].sort()).toEqual([...fromProductMd].sort());
@@ -116,9 +130,22 @@ describe("ranges include real bodies from outside references", () => {
 describe("checkMeasurementSet", () => {
   it("returns nothing for an invented adult set", () => {
     const set = {
-      height: 1750, neck_girth: 380, chest_girth: 980, waist_girth: 840, hip_girth: 990, across_back_width: 380,
-      shoulder_width: 150, arm_length: 620, upper_arm_girth: 310, wrist_girth: 170, back_waist_length: 450,
-      inside_leg_length: 800, thigh_girth: 560, head_girth: 570, foot_length: 265, foot_width: 100,
+      height: 1750,
+      neck_girth: 380,
+      chest_girth: 980,
+      waist_girth: 840,
+      hip_girth: 990,
+      across_back_width: 380,
+      shoulder_width: 150,
+      arm_length: 620,
+      upper_arm_girth: 310,
+      wrist_girth: 170,
+      back_waist_length: 450,
+      inside_leg_length: 800,
+      thigh_girth: 560,
+      head_girth: 570,
+      foot_length: 265,
+      foot_width: 100,
     };
 
     expect(checkMeasurementSet(set)).toEqual([]);

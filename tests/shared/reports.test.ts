@@ -22,11 +22,18 @@ describe("hire weeks", () => {
     const period = { from: "2030-09-01", to: "2030-10-15" };
     const hire = { source: "rented" as const, costCents: 1000, rentalCostPerWeekCents: 4500 };
 
-    expect(garmentCost({ ...hire, rentalDueOn: "2030-09-30", returnedOn: "2030-09-05" }, period)).toEqual({ costCents: 1000, weeklyCents: 4500, weeks: 1, totalCents: 5500 });
+    expect(garmentCost({ ...hire, rentalDueOn: "2030-09-30", returnedOn: "2030-09-05" }, period)).toEqual({
+      costCents: 1000,
+      weeklyCents: 4500,
+      weeks: 1,
+      totalCents: 5500,
+    });
     expect(garmentCost({ ...hire, rentalDueOn: "2030-09-30", returnedOn: null }, period).weeks).toBe(5);
     expect(garmentCost({ ...hire, rentalDueOn: null, returnedOn: null }, period).weeks).toBe(7);
     // Owned garments cost what they cost, whatever rate a form left behind.
-    expect(garmentCost({ source: "bought", costCents: 18000, rentalCostPerWeekCents: 500, rentalDueOn: null, returnedOn: null }, period)).toEqual({ costCents: 18000, weeklyCents: 0, weeks: 0, totalCents: 18000 });
+    expect(
+      garmentCost({ source: "bought", costCents: 18000, rentalCostPerWeekCents: 500, rentalDueOn: null, returnedOn: null }, period),
+    ).toEqual({ costCents: 18000, weeklyCents: 0, weeks: 0, totalCents: 18000 });
   });
 });
 
@@ -44,7 +51,10 @@ describe("splitting and grouping costs", () => {
   });
 
   it("keeps every grouping's sum equal to the total, however garments are shared", () => {
-    const garment = fc.record({ totalCents: fc.integer({ min: 0, max: 1_000_000 }), groups: fc.uniqueArray(fc.constantFrom("a", "b", "c", "d"), { maxLength: 4 }) });
+    const garment = fc.record({
+      totalCents: fc.integer({ min: 0, max: 1_000_000 }),
+      groups: fc.uniqueArray(fc.constantFrom("a", "b", "c", "d"), { maxLength: 4 }),
+    });
     fc.assert(
       fc.property(fc.array(garment, { maxLength: 30 }), (gs) => {
         const rows = groupCosts(gs, (g) => g.groups.map((k) => ({ key: k, label: k })), { key: "none", label: "none" });
@@ -57,11 +67,16 @@ describe("splitting and grouping costs", () => {
 
   it("spreads rental cost over the weeks of the shoot so the weeks add up to rate × weeks", () => {
     fc.assert(
-      fc.property(fc.array(fc.record({ weeklyCents: fc.integer({ min: 0, max: 100_000 }), weeks: fc.integer({ min: 0, max: 20 }) }), { maxLength: 20 }), (gs) => {
-        const weeks = rentalWeeks(gs, "2030-09-02");
-        expect(weeks.reduce((s, w) => s + w.cents, 0)).toBe(gs.reduce((s, g) => s + g.weeklyCents * g.weeks, 0));
-        weeks.forEach((w, i) => expect(w.week).toBe(i + 1));
-      }),
+      fc.property(
+        fc.array(fc.record({ weeklyCents: fc.integer({ min: 0, max: 100_000 }), weeks: fc.integer({ min: 0, max: 20 }) }), {
+          maxLength: 20,
+        }),
+        (gs) => {
+          const weeks = rentalWeeks(gs, "2030-09-02");
+          expect(weeks.reduce((s, w) => s + w.cents, 0)).toBe(gs.reduce((s, g) => s + g.weeklyCents * g.weeks, 0));
+          weeks.forEach((w, i) => expect(w.week).toBe(i + 1));
+        },
+      ),
     );
     expect(rentalWeeks([{ weeklyCents: 100, weeks: 2 }], "2030-12-30").map((w) => w.starts)).toEqual(["2030-12-30", "2031-01-06"]);
   });
@@ -70,11 +85,31 @@ describe("splitting and grouping costs", () => {
 describe("returns", () => {
   const line = (tagCode: string, vendor: string | null, dueOn: string | null, today = "2030-09-10"): RentalLineDto => {
     const d = daysOverdue(dueOn, today);
-    return { garmentId: tagCode, tagCode, name: tagCode, category: "coat", vendor, status: "in_stock", location: null, dueOn, daysOverdue: d, overdue: d !== null && d > 0, weeklyCents: null, weeks: 0, hireCents: 0 };
+    return {
+      garmentId: tagCode,
+      tagCode,
+      name: tagCode,
+      category: "coat",
+      vendor,
+      status: "in_stock",
+      location: null,
+      dueOn,
+      daysOverdue: d,
+      overdue: d !== null && d > 0,
+      weeklyCents: null,
+      weeks: 0,
+      hireCents: 0,
+    };
   };
 
   it("puts hire houses with anything overdue first, and the most overdue first within a house", () => {
-    const groups = groupRentalsByVendor([line("A-2", "Alder Hire", "2030-09-20"), line("B-1", "Birch Hire", "2030-09-09"), line("B-2", "Birch Hire", "2030-09-01"), line("B-3", "Birch Hire", null), line("X-1", null, "2030-09-12")]);
+    const groups = groupRentalsByVendor([
+      line("A-2", "Alder Hire", "2030-09-20"),
+      line("B-1", "Birch Hire", "2030-09-09"),
+      line("B-2", "Birch Hire", "2030-09-01"),
+      line("B-3", "Birch Hire", null),
+      line("X-1", null, "2030-09-12"),
+    ]);
 
     expect(groups.map((g) => [g.vendor, g.overdue, g.lines.map((l) => l.tagCode)])).toEqual([
       ["Birch Hire", 2, ["B-2", "B-1", "B-3"]],

@@ -5,8 +5,24 @@ import { SIZE_TABLES, letterCode, mondopoint, sizeDesignation, snapToGrid } from
 // EN 13402-3:2013 letter bands as recalled (from memory; men's S/M/L corroborated by a secondary source,
 // see docs/references.md "EN 13402"): men's chest S 86–94, M 94–102, L 102–110, XL 110–118; women's bust
 // S 82–90, M 90–98, L 98–107. Edge rule (documented in sizes.ts): [min, max), an edge takes the larger letter.
-const MENS_CHEST_BANDS: Array<[string, number, number]> = [["XS", 78, 86], ["S", 86, 94], ["M", 94, 102], ["L", 102, 110], ["XL", 110, 118], ["XXL", 118, 129], ["3XL", 129, 141]];
-const WOMENS_BUST_BANDS: Array<[string, number, number]> = [["XS", 74, 82], ["S", 82, 90], ["M", 90, 98], ["L", 98, 107], ["XL", 107, 119], ["XXL", 119, 131], ["3XL", 131, 143]];
+const MENS_CHEST_BANDS: Array<[string, number, number]> = [
+  ["XS", 78, 86],
+  ["S", 86, 94],
+  ["M", 94, 102],
+  ["L", 102, 110],
+  ["XL", 110, 118],
+  ["XXL", 118, 129],
+  ["3XL", 129, 141],
+];
+const WOMENS_BUST_BANDS: Array<[string, number, number]> = [
+  ["XS", 74, 82],
+  ["S", 82, 90],
+  ["M", 90, 98],
+  ["L", 98, 107],
+  ["XL", 107, 119],
+  ["XXL", 119, 131],
+  ["3XL", 131, 143],
+];
 const bandOf = (bands: Array<[string, number, number]>, cm: number) => bands.find(([, lo, hi]) => cm >= lo && cm < hi)?.[0] ?? null;
 
 describe("letter codes (EN 13402-3 bands, from memory)", () => {
@@ -50,12 +66,14 @@ describe("snapToGrid", () => {
   const womensBustPoints = [...Array.from({ length: 27 }, (_, k) => 4 * k), ...Array.from({ length: 20 }, (_, k) => 104 + 6 * k)];
   function nearest(points: number[], x: number): number {
     let best = points[0]!;
-    for (const p of points) if (Math.abs(p - x) < Math.abs(best - x) - 1e-9 || (Math.abs(Math.abs(p - x) - Math.abs(best - x)) <= 1e-9 && p > best)) best = p;
+    for (const p of points)
+      if (Math.abs(p - x) < Math.abs(best - x) - 1e-9 || (Math.abs(Math.abs(p - x) - Math.abs(best - x)) <= 1e-9 && p > best)) best = p;
     return best;
   }
 
   it("men's chest: every 0.1 cm from 60 to 200 snaps to the nearest written-out point (ties → larger)", () => {
-    for (let tenth = 600; tenth <= 2000; tenth++) expect(snapToGrid(tenth / 10, SIZE_TABLES.mens_top.primary.grid)).toBe(nearest(mensChestPoints, tenth / 10));
+    for (let tenth = 600; tenth <= 2000; tenth++)
+      expect(snapToGrid(tenth / 10, SIZE_TABLES.mens_top.primary.grid)).toBe(nearest(mensChestPoints, tenth / 10));
   });
 
   it("women's bust: every 0.1 cm from 60 to 104 snaps to 4 cm points, above 104 to 6 cm points", () => {

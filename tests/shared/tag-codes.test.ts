@@ -21,7 +21,11 @@ describe("tag code alphabet", () => {
 });
 
 describe("check character (mod 31, weights 1..5)", () => {
-  const bodies = Array.from({ length: 200 }, (_, i) => generateTagCode(seeded(i + 1)).replace("-", "").slice(0, TAG_BODY_LENGTH));
+  const bodies = Array.from({ length: 200 }, (_, i) =>
+    generateTagCode(seeded(i + 1))
+      .replace("-", "")
+      .slice(0, TAG_BODY_LENGTH),
+  );
 
   // Exhaustive over every position and every other symbol: a weighted sum modulo a prime with weights
   // non-zero mod 31 changes under any single substitution (same argument as the ISBN-10 check, mod 11).

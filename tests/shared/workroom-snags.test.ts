@@ -4,8 +4,22 @@ import { planTickets, type Weekday, type WorkroomPersonInput } from "@shared/dom
 import { overbookedRuns, taskSummary, workroomSnags, type WorkroomSnagTicket } from "@shared/domain/workroom-snags";
 
 const MONDAY = "2030-09-02"; // invented planning day (a Monday)
-const hours = (h: Partial<Record<Weekday, number>>): Record<Weekday, number> => ({ mon: 0, tue: 0, wed: 0, thu: 0, fri: 0, sat: 0, sun: 0, ...h });
-const ann: WorkroomPersonInput = { id: "ann", name: "Ann Example", hoursPerWeekday: hours({ mon: 8, tue: 8, wed: 8, thu: 8, fri: 8 }), daysOff: [] };
+const hours = (h: Partial<Record<Weekday, number>>): Record<Weekday, number> => ({
+  mon: 0,
+  tue: 0,
+  wed: 0,
+  thu: 0,
+  fri: 0,
+  sat: 0,
+  sun: 0,
+  ...h,
+});
+const ann: WorkroomPersonInput = {
+  id: "ann",
+  name: "Ann Example",
+  hoursPerWeekday: hours({ mon: 8, tue: 8, wed: 8, thu: 8, fri: 8 }),
+  daysOff: [],
+};
 const meta = (id: string, neededOn: string | null): WorkroomSnagTicket => ({
   id,
   garmentId: `g-${id}`,
@@ -74,13 +88,23 @@ describe("workroomSnags — hand-worked example", () => {
     const over = snags.filter((s) => s.kind === "workroom_overbooked");
     expect(over).toHaveLength(1);
     expect(over[0].key).toBe("workroom_overbooked:ann:2030-09-02");
-    expect(over[0].evidence).toMatchObject({ dates: ["2030-09-02", "2030-09-03", "2030-09-04"], capacityHours: 24, plannedHours: 24, lateTicketIds: ["A", "C"] });
+    expect(over[0].evidence).toMatchObject({
+      dates: ["2030-09-02", "2030-09-03", "2030-09-04"],
+      capacityHours: 24,
+      plannedHours: 24,
+      lateTicketIds: ["A", "C"],
+    });
     expect(over[0].explanation).toContain("24 h of 24 h booked from Mon 2 Sep 2030 to Wed 4 Sep 2030 (3 working days)");
   });
 
   it("a weekend inside an overbooked stretch does not split the run", () => {
     // 50 h due the second Monday: every working day Mon–Mon is full and the ticket is still late.
-    const plan = planTickets({ today: MONDAY, horizonDays: 10, people: [ann], tickets: [{ id: "big", estimateHours: 50, dueDate: "2030-09-09" }] });
+    const plan = planTickets({
+      today: MONDAY,
+      horizonDays: 10,
+      people: [ann],
+      tickets: [{ id: "big", estimateHours: 50, dueDate: "2030-09-09" }],
+    });
 
     const runs = overbookedRuns(plan);
 
@@ -91,7 +115,9 @@ describe("workroomSnags — hand-worked example", () => {
   it("a ticket that fits nowhere in the window is blocking and says how many hours do not fit", () => {
     const plan = planTickets({ today: MONDAY, horizonDays: 2, people: [ann], tickets: [{ id: "X", estimateHours: 30, dueDate: MONDAY }] });
 
-    const [snag] = workroomSnags({ plan, tickets: [meta("X", "2030-09-03")], people: [ann], bufferWorkingDays: 1 }).filter((s) => s.kind === "workroom_late");
+    const [snag] = workroomSnags({ plan, tickets: [meta("X", "2030-09-03")], people: [ann], bufferWorkingDays: 1 }).filter(
+      (s) => s.kind === "workroom_late",
+    );
 
     expect(snag.severity).toBe("blocking");
     expect(snag.explanation).toContain("14 h of it do not fit"); // 30 h − 2 days × 8 h
@@ -100,7 +126,12 @@ describe("workroomSnags — hand-worked example", () => {
   it("keys and evidence hashes do not depend on input order, and change when the finish changes", () => {
     const { plan, tickets } = handWorked();
     const a = workroomSnags({ plan, tickets, people: [ann], bufferWorkingDays: 1 });
-    const b = workroomSnags({ plan: { ...plan, tickets: [...plan.tickets].reverse() }, tickets: [...tickets].reverse(), people: [ann], bufferWorkingDays: 1 });
+    const b = workroomSnags({
+      plan: { ...plan, tickets: [...plan.tickets].reverse() },
+      tickets: [...tickets].reverse(),
+      people: [ann],
+      bufferWorkingDays: 1,
+    });
     const slower = planTickets({
       today: MONDAY,
       horizonDays: 7,
@@ -118,7 +149,12 @@ describe("workroomSnags — hand-worked example", () => {
   });
 
   it("an on-time plan has no snags", () => {
-    const plan = planTickets({ today: MONDAY, horizonDays: 5, people: [ann], tickets: [{ id: "ok", estimateHours: 6, dueDate: "2030-09-04" }] });
+    const plan = planTickets({
+      today: MONDAY,
+      horizonDays: 5,
+      people: [ann],
+      tickets: [{ id: "ok", estimateHours: 6, dueDate: "2030-09-04" }],
+    });
 
     expect(workroomSnags({ plan, tickets: [meta("ok", "2030-09-05")], people: [ann], bufferWorkingDays: 1 })).toEqual([]);
   });
@@ -127,7 +163,15 @@ describe("workroomSnags — hand-worked example", () => {
 describe("taskSummary", () => {
   it("writes amounts in the production's unit", () => {
     // 1 in = 25.4 mm exactly (international yard and pound, 1959).
-    expect(taskSummary([{ kind: "take_in", amountMm: 20 }, { kind: "shorten", amountMm: 25.4 }], "in")).toBe('take in 3/4", shorten 1"'); // 20 mm = 0.787 in → nearest 1/8 is 6/8 = 3/4
+    expect(
+      taskSummary(
+        [
+          { kind: "take_in", amountMm: 20 },
+          { kind: "shorten", amountMm: 25.4 },
+        ],
+        "in",
+      ),
+    ).toBe('take in 3/4", shorten 1"'); // 20 mm = 0.787 in → nearest 1/8 is 6/8 = 3/4
     expect(taskSummary([{ kind: "take_in", amountMm: 20 }], "cm")).toBe("take in 2.0 cm");
     expect(taskSummary([{ kind: "distress", distressStage: 2 }, { kind: "repair" }], "cm")).toBe("distress to stage 2, repair");
   });

@@ -198,8 +198,28 @@ describe("planTickets — two people, different weekday hours, days off (hand-wo
   });
 
   it.each([
-    ["T1", "ana", [["ana", "2030-09-02", 8], ["ana", "2030-09-03", 4]], "2030-09-03", -1, false],
-    ["T2", "ben", [["ben", "2030-09-02", 4], ["ben", "2030-09-05", 2]], "2030-09-05", 1, true],
+    [
+      "T1",
+      "ana",
+      [
+        ["ana", "2030-09-02", 8],
+        ["ana", "2030-09-03", 4],
+      ],
+      "2030-09-03",
+      -1,
+      false,
+    ],
+    [
+      "T2",
+      "ben",
+      [
+        ["ben", "2030-09-02", 4],
+        ["ben", "2030-09-05", 2],
+      ],
+      "2030-09-05",
+      1,
+      true,
+    ],
     ["T3", "ana", [["ana", "2030-09-03", 4]], "2030-09-03", -2, false],
     ["T4", "ana", [["ana", "2030-09-05", 4]], "2030-09-05", 0, false],
     ["T5", "ben", [["ben", "2030-09-05", 4]], "2030-09-05", -1, false],
@@ -325,7 +345,12 @@ describe("planTickets — overbooked days (hand-worked)", () => {
 });
 
 describe("planTickets — edge rules", () => {
-  const person: WorkroomPersonInput = { id: "dee", name: "Dee Example", hoursPerWeekday: hours({ mon: 6, tue: 6, wed: 6, thu: 6, fri: 6 }), daysOff: [] };
+  const person: WorkroomPersonInput = {
+    id: "dee",
+    name: "Dee Example",
+    hoursPerWeekday: hours({ mon: 6, tue: 6, wed: 6, thu: 6, fri: 6 }),
+    daysOff: [],
+  };
 
   it("never plans before the day a ticket is raised", () => {
     const plan = planTickets({
@@ -362,8 +387,18 @@ describe("planTickets — edge rules", () => {
   it("rejects unknown pinned people, duplicate ids and malformed dates", () => {
     const base = { today: MONDAY, horizonDays: 3, people: [person] };
 
-    expect(() => planTickets({ ...base, tickets: [{ id: "x", estimateHours: 1, dueDate: null, assigneeId: "nobody" }] })).toThrow(RangeError);
-    expect(() => planTickets({ ...base, tickets: [{ id: "x", estimateHours: 1, dueDate: null }, { id: "x", estimateHours: 1, dueDate: null }] })).toThrow(RangeError);
+    expect(() => planTickets({ ...base, tickets: [{ id: "x", estimateHours: 1, dueDate: null, assigneeId: "nobody" }] })).toThrow(
+      RangeError,
+    );
+    expect(() =>
+      planTickets({
+        ...base,
+        tickets: [
+          { id: "x", estimateHours: 1, dueDate: null },
+          { id: "x", estimateHours: 1, dueDate: null },
+        ],
+      }),
+    ).toThrow(RangeError);
     expect(() => planTickets({ ...base, tickets: [{ id: "x", estimateHours: 1, dueDate: "2030-02-30" }] })).toThrow(RangeError);
   });
 

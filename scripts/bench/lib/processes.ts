@@ -26,9 +26,16 @@ export async function freshDatabase(name: string): Promise<string> {
   if (process.env.DATABASE_URL) {
     const url = new URL(process.env.DATABASE_URL);
     const onDatabase = (db: string) => Object.assign(new URL(url.href), { pathname: `/${db}` }).href;
-    admin = { adminUrl: onDatabase("postgres"), app: { user: decodeURIComponent(url.username), password: decodeURIComponent(url.password) }, appUrl: onDatabase };
+    admin = {
+      adminUrl: onDatabase("postgres"),
+      app: { user: decodeURIComponent(url.username), password: decodeURIComponent(url.password) },
+      appUrl: onDatabase,
+    };
   } else {
-    admin = await ensureLocalPostgres({ dataDir: process.env.PGDATA_DIR ?? path.resolve(".data/pg"), port: Number(process.env.PGPORT ?? 5433) });
+    admin = await ensureLocalPostgres({
+      dataDir: process.env.PGDATA_DIR ?? path.resolve(".data/pg"),
+      port: Number(process.env.PGPORT ?? 5433),
+    });
   }
   await dropDatabase(admin.adminUrl, name);
   return ensureDatabase(admin, name);
@@ -76,7 +83,13 @@ function cpuOf(pid: number | undefined): number {
   }
 }
 
-async function waitUntil(check: () => Promise<boolean>, child: ChildProcess, output: () => string, what: string, ms = 90_000): Promise<void> {
+async function waitUntil(
+  check: () => Promise<boolean>,
+  child: ChildProcess,
+  output: () => string,
+  what: string,
+  ms = 90_000,
+): Promise<void> {
   const deadline = Date.now() + ms;
   for (;;) {
     if (child.exitCode !== null) throw new Error(`${what} exited:\n${output()}`);
@@ -103,7 +116,12 @@ function stopper(child: ChildProcess): () => Promise<void> {
  * Starts `server/index.ts` as a production server (no job queue unless asked), its log going to
  * `logFile` so writing it costs what it costs in production.
  */
-export async function startSeamscene(opts: { databaseUrl: string; env?: NodeJS.ProcessEnv; logFile: string; nodeArgs?: string[] }): Promise<Running> {
+export async function startSeamscene(opts: {
+  databaseUrl: string;
+  env?: NodeJS.ProcessEnv;
+  logFile: string;
+  nodeArgs?: string[];
+}): Promise<Running> {
   const port = await freePort();
   fs.mkdirSync(path.dirname(opts.logFile), { recursive: true });
   const log = fs.openSync(opts.logFile, "w");
@@ -119,9 +137,17 @@ export async function startSeamscene(opts: { databaseUrl: string; env?: NodeJS.P
     STORAGE_DIR: ".data/bench-storage",
     ...opts.env,
   };
-  const child = spawn(process.execPath, [...(opts.nodeArgs ?? []), "--import", "tsx", "server/index.ts"], { env, stdio: ["ignore", log, log] });
+  const child = spawn(process.execPath, [...(opts.nodeArgs ?? []), "--import", "tsx", "server/index.ts"], {
+    env,
+    stdio: ["ignore", log, log],
+  });
   const url = `http://127.0.0.1:${port}`;
-  await waitUntil(async () => (await fetch(`${url}/api/health`)).ok, child, () => fs.readFileSync(opts.logFile, "utf8").slice(-4000), "The Seamscene server");
+  await waitUntil(
+    async () => (await fetch(`${url}/api/health`)).ok,
+    child,
+    () => fs.readFileSync(opts.logFile, "utf8").slice(-4000),
+    "The Seamscene server",
+  );
   fs.closeSync(log);
   return { child, url, rssMb: () => rssOf(child.pid), cpuMs: () => cpuOf(child.pid), stop: stopper(child) };
 }
@@ -132,17 +158,28 @@ export async function startBare(bodies: Record<string, string>, dir: string): Pr
   fs.mkdirSync(dir, { recursive: true });
   const file = path.join(dir, "bare-bodies.json");
   fs.writeFileSync(file, JSON.stringify(bodies));
-  const child = spawn(process.execPath, ["--import", "tsx", "scripts/bench/bare-server.ts", file, String(port)], { stdio: ["ignore", "pipe", "pipe"] });
+  const child = spawn(process.execPath, ["--import", "tsx", "scripts/bench/bare-server.ts", file, String(port)], {
+    stdio: ["ignore", "pipe", "pipe"],
+  });
   let out = "";
   child.stdout?.on("data", (d) => (out += d));
   child.stderr?.on("data", (d) => (out += d));
   const url = `http://127.0.0.1:${port}`;
-  await waitUntil(async () => out.includes("ready"), child, () => out, "The bare server");
+  await waitUntil(
+    async () => out.includes("ready"),
+    child,
+    () => out,
+    "The bare server",
+  );
   return { child, url, rssMb: () => rssOf(child.pid), cpuMs: () => cpuOf(child.pid), stop: stopper(child) };
 }
 
 /** Signs in through the API (CSRF token first) and returns the session cookie and a CSRF token for writes. */
-export async function signIn(url: string, email: string, password: string): Promise<{ cookie: string; csrf: string; me: { memberships: Array<{ productionId: string; title: string }> } }> {
+export async function signIn(
+  url: string,
+  email: string,
+  password: string,
+): Promise<{ cookie: string; csrf: string; me: { memberships: Array<{ productionId: string; title: string }> } }> {
   const cookieOf = (res: Response, prev = "") => {
     const set = res.headers.getSetCookie();
     const jar = new Map(prev ? prev.split("; ").map((c) => c.split("=", 2) as [string, string]) : []);

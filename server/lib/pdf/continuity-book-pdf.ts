@@ -9,7 +9,18 @@ import type { Writable } from "node:stream";
 import type { PhotoView } from "@shared/schemas/photos.js";
 import type { PaperSize } from "@shared/schemas/productions.js";
 import { toPrintJpeg } from "../images.js";
-import { colours, contentBottom, contentWidth, createReportDocument, flagWords, MM, oneLine, printDate, stampPages, waitForReader } from "./report-pdf.js";
+import {
+  colours,
+  contentBottom,
+  contentWidth,
+  createReportDocument,
+  flagWords,
+  MM,
+  oneLine,
+  printDate,
+  stampPages,
+  waitForReader,
+} from "./report-pdf.js";
 
 export interface BookPhoto {
   id: string;
@@ -74,11 +85,21 @@ export interface BookRenderResult {
 }
 
 const VIEW_ORDER: PhotoView[] = ["front", "back", "left", "right", "detail", "other"];
-export const viewLabels: Record<PhotoView, string> = { front: "Front", back: "Back", left: "Left side", right: "Right side", detail: "Detail", other: "Other" };
+export const viewLabels: Record<PhotoView, string> = {
+  front: "Front",
+  back: "Back",
+  left: "Left side",
+  right: "Right side",
+  detail: "Detail",
+  other: "Other",
+};
 
 /** Photos ordered by view (front, back, sides, detail), then as logged. */
 export function photosByView(photos: BookPhoto[]): BookPhoto[] {
-  return photos.map((p, i) => ({ p, i })).sort((a, b) => VIEW_ORDER.indexOf(a.p.view) - VIEW_ORDER.indexOf(b.p.view) || a.i - b.i).map((x) => x.p);
+  return photos
+    .map((p, i) => ({ p, i }))
+    .sort((a, b) => VIEW_ORDER.indexOf(a.p.view) - VIEW_ORDER.indexOf(b.p.view) || a.i - b.i)
+    .map((x) => x.p);
 }
 
 /** "EA-7K2Q Keeper's jacket #2 of 3". */
@@ -90,7 +111,9 @@ export function garmentLine(g: BookGarment): string {
 /** "Shoot day 7, Tue 8 Dec 2026" (or "Performance, …"; several joined). */
 export function shootDayLabel(s: BookScene, stage: boolean): string {
   if (!s.shootDays.length) return stage ? "Every performance (running order)" : "Not scheduled";
-  return s.shootDays.map((d) => `${d.kind === "performance" ? "Performance" : `Shoot day ${d.dayNumber}`}, ${printDate(d.date)}`).join("; ");
+  return s.shootDays
+    .map((d) => `${d.kind === "performance" ? "Performance" : `Shoot day ${d.dayNumber}`}, ${printDate(d.date)}`)
+    .join("; ");
 }
 
 type Loaded = { photo: BookPhoto; jpeg: { body: Buffer; width: number; height: number } | null };
@@ -104,7 +127,11 @@ const CONTENTS_ROW = 15;
  * @returns page count and photos per page, once the last byte is written
  */
 export async function renderContinuityBook(model: BookModel, out: Writable, opts: BookRenderOptions): Promise<BookRenderResult> {
-  const doc = createReportDocument({ paperSize: model.paperSize, title: `Continuity book - ${model.characterName}`, subject: model.productionTitle });
+  const doc = createReportDocument({
+    paperSize: model.paperSize,
+    title: `Continuity book - ${model.characterName}`,
+    subject: model.productionTitle,
+  });
   const finished = new Promise<void>((resolve, reject) => {
     out.on("finish", resolve);
     out.on("close", resolve);
@@ -174,7 +201,12 @@ export async function renderContinuityBook(model: BookModel, out: Writable, opts
     const lines = sceneTextLines(s, model.stage);
     doc.font("Body").fontSize(9);
     let textH = 22;
-    for (const l of lines) textH += doc.font(l.bold ? "Bold" : "Body").fontSize(l.size ?? 9).heightOfString(l.text, { width }) + 2;
+    for (const l of lines)
+      textH +=
+        doc
+          .font(l.bold ? "Bold" : "Body")
+          .fontSize(l.size ?? 9)
+          .heightOfString(l.text, { width }) + 2;
     const firstRow = loaded.length ? rowH : 0;
     if (i === 0 || doc.y + textH + firstRow > contentBottom(doc)) addPage();
     else doc.y += 8;
@@ -182,13 +214,28 @@ export async function renderContinuityBook(model: BookModel, out: Writable, opts
 
     const top = doc.y;
     doc.rect(left, top, width, 18).fill(colours.chalk);
-    doc.fillColor(colours.ink).font("Bold").fontSize(11).text(`Scene ${s.number}`, left + 4, top + 4, { width: width * 0.3, lineBreak: false });
+    doc
+      .fillColor(colours.ink)
+      .font("Bold")
+      .fontSize(11)
+      .text(`Scene ${s.number}`, left + 4, top + 4, { width: width * 0.3, lineBreak: false });
     const where = [s.intExt, s.setName, s.timeOfDay].filter(Boolean).join(" · ");
     doc.fillColor(colours.slate).font("Body").fontSize(8.5);
-    oneLine(doc, `${s.storyDay != null ? `Story day ${s.storyDay}` : "No story day"}${where ? ` · ${where}` : ""}`, left + width * 0.3, top + 5, width * 0.7 - 4, { align: "right" });
+    oneLine(
+      doc,
+      `${s.storyDay != null ? `Story day ${s.storyDay}` : "No story day"}${where ? ` · ${where}` : ""}`,
+      left + width * 0.3,
+      top + 5,
+      width * 0.7 - 4,
+      { align: "right" },
+    );
     doc.y = top + 22;
     for (const l of lines) {
-      doc.fillColor(l.colour ?? colours.text).font(l.bold ? "Bold" : "Body").fontSize(l.size ?? 9).text(l.text, left, doc.y, { width });
+      doc
+        .fillColor(l.colour ?? colours.text)
+        .font(l.bold ? "Bold" : "Body")
+        .fontSize(l.size ?? 9)
+        .text(l.text, left, doc.y, { width });
       doc.y += 2;
     }
 
@@ -207,7 +254,11 @@ export async function renderContinuityBook(model: BookModel, out: Writable, opts
           placeImage();
         } else {
           doc.rect(x, y, photoW, photoH).lineWidth(0.5).strokeColor(colours.rule).stroke();
-          doc.fillColor(colours.slate).font("Body").fontSize(7).text("Photo file missing", x, y + photoH / 2 - 4, { width: photoW, align: "center", lineBreak: false });
+          doc
+            .fillColor(colours.slate)
+            .font("Body")
+            .fontSize(7)
+            .text("Photo file missing", x, y + photoH / 2 - 4, { width: photoW, align: "center", lineBreak: false });
         }
         // Drop the bytes as soon as they are in the document.
         item.jpeg = null;
@@ -217,7 +268,12 @@ export async function renderContinuityBook(model: BookModel, out: Writable, opts
       });
       doc.y = y + rowH;
     }
-    doc.moveTo(left, doc.y + 2).lineTo(left + width, doc.y + 2).lineWidth(0.4).strokeColor(colours.rule).stroke();
+    doc
+      .moveTo(left, doc.y + 2)
+      .lineTo(left + width, doc.y + 2)
+      .lineWidth(0.4)
+      .strokeColor(colours.rule)
+      .stroke();
     doc.y += 4;
     await waitForReader(doc, out);
     // The reader went away (a closed browser tab): stop laying out pages nobody will read.
@@ -231,14 +287,30 @@ export async function renderContinuityBook(model: BookModel, out: Writable, opts
   y = doc.y + 2;
   doc.font("Bold").fontSize(14).text(model.characterName, left, y, { width });
   y = doc.y + 2;
-  doc.fillColor(colours.slate).font("Body").fontSize(9.5).text(
-    [model.productionTitle, model.changeLabel, `${model.scenes.length} scene${model.scenes.length === 1 ? "" : "s"} in story order`, `printed ${printDate(model.printedOn)}`].filter(Boolean).join(" · "),
-    left,
-    y,
-    { width },
-  );
+  doc
+    .fillColor(colours.slate)
+    .font("Body")
+    .fontSize(9.5)
+    .text(
+      [
+        model.productionTitle,
+        model.changeLabel,
+        `${model.scenes.length} scene${model.scenes.length === 1 ? "" : "s"} in story order`,
+        `printed ${printDate(model.printedOn)}`,
+      ]
+        .filter(Boolean)
+        .join(" · "),
+      left,
+      y,
+      { width },
+    );
   y = Math.max(doc.y + 8, doc.page.margins.top + titleBlock - 24);
-  if (!model.scenes.length) doc.fillColor(colours.text).font("Body").fontSize(10).text("This character plays in no scene yet.", left, y + 4, { width });
+  if (!model.scenes.length)
+    doc
+      .fillColor(colours.text)
+      .font("Body")
+      .fontSize(10)
+      .text("This character plays in no scene yet.", left, y + 4, { width });
   const cols = [
     { label: "Scene", x: 0, w: 0.12 },
     { label: "Story day", x: 0.12, w: 0.11 },
@@ -248,8 +320,14 @@ export async function renderContinuityBook(model: BookModel, out: Writable, opts
   ];
   const header = (yy: number) => {
     doc.fillColor(colours.ink).font("Bold").fontSize(8.5);
-    for (const c of cols) doc.text(c.label, left + c.x * width, yy, { width: c.w * width - 4, align: c.label === "Page" ? "right" : "left", lineBreak: false });
-    doc.moveTo(left, yy + 12).lineTo(left + width, yy + 12).lineWidth(0.6).strokeColor(colours.ink).stroke();
+    for (const c of cols)
+      doc.text(c.label, left + c.x * width, yy, { width: c.w * width - 4, align: c.label === "Page" ? "right" : "left", lineBreak: false });
+    doc
+      .moveTo(left, yy + 12)
+      .lineTo(left + width, yy + 12)
+      .lineWidth(0.6)
+      .strokeColor(colours.ink)
+      .stroke();
     return yy + 16;
   };
   let page = 0;
@@ -265,17 +343,27 @@ export async function renderContinuityBook(model: BookModel, out: Writable, opts
     const cells = [
       s.number,
       s.storyDay != null ? String(s.storyDay) : "–",
-      s.shootDays.length ? s.shootDays.map((d) => (d.kind === "performance" ? printDate(d.date) : `${d.dayNumber} · ${printDate(d.date)}`)).join("; ") : model.stage ? "every performance" : "not scheduled",
+      s.shootDays.length
+        ? s.shootDays.map((d) => (d.kind === "performance" ? printDate(d.date) : `${d.dayNumber} · ${printDate(d.date)}`)).join("; ")
+        : model.stage
+          ? "every performance"
+          : "not scheduled",
       s.change ? `${s.change.number}${s.change.description ? ` ${s.change.description}` : ""}` : "–",
       String(scenePage[i] ?? ""),
     ];
     doc.fillColor(colours.text).font("Body").fontSize(8.5);
-    cols.forEach((c, k) => oneLine(doc, cells[k]!, left + c.x * width, y, c.w * width - 4, { align: c.label === "Page" ? "right" : "left" }));
+    cols.forEach((c, k) =>
+      oneLine(doc, cells[k]!, left + c.x * width, y, c.w * width - 4, { align: c.label === "Page" ? "right" : "left" }),
+    );
     y += CONTENTS_ROW;
     rowsLeft--;
   });
 
-  stampPages(doc, { left: `${model.productionTitle} · ${model.characterName}`, right: model.changeLabel ?? "Continuity book" }, "Continuity book · no measurements or personal data are printed");
+  stampPages(
+    doc,
+    { left: `${model.productionTitle} · ${model.characterName}`, right: model.changeLabel ?? "Continuity book" },
+    "Continuity book · no measurements or personal data are printed",
+  );
   const pages = doc.bufferedPageRange().count;
   doc.end();
   await finished;
@@ -293,10 +381,19 @@ interface TextLine {
 function sceneTextLines(s: BookScene, stage: boolean): TextLine[] {
   const out: TextLine[] = [];
   out.push({ text: shootDayLabel(s, stage), size: 8.5, colour: colours.slate });
-  out.push({ text: s.change ? `Change ${s.change.number}${s.change.description ? ` – ${s.change.description}` : ""}` : "No change set in the breakdown", bold: true });
+  out.push({
+    text: s.change
+      ? `Change ${s.change.number}${s.change.description ? ` – ${s.change.description}` : ""}`
+      : "No change set in the breakdown",
+    bold: true,
+  });
   const distress = `Distress stage ${s.distressStage}${s.loggedStage !== null && s.loggedStage !== s.distressStage ? ` (logged on set: ${s.loggedStage})` : ""}`;
   const flags = flagWords(s.flags);
-  out.push({ text: flags.length ? `${distress} · ${flags.join(" · ")}` : distress, bold: flags.length > 0, colour: flags.length ? colours.madder : colours.text });
+  out.push({
+    text: flags.length ? `${distress} · ${flags.join(" · ")}` : distress,
+    bold: flags.length > 0,
+    colour: flags.length ? colours.madder : colours.text,
+  });
   if (s.garments.length) {
     out.push({ text: s.garmentsPlanned ? "Garments (planned; not logged yet):" : "Garments worn:", size: 8, colour: colours.slate });
     for (const g of s.garments) out.push({ text: garmentLine(g), size: 8.5 });

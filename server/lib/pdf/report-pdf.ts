@@ -11,7 +11,15 @@ import { dayLabel } from "@shared/domain/reports/day-label.js";
 export const MM = 72 / 25.4; // PDF points per millimetre
 
 /** The app's colours (design: ink-indigo structure, madder blocking, ochre warnings, slate notes). */
-export const colours = { ink: "#2B3A67", madder: "#B5452E", ochre: "#C98B2B", slate: "#5B6770", chalk: "#F7F4EE", rule: "#D9D4CA", text: "#1E2236" } as const;
+export const colours = {
+  ink: "#2B3A67",
+  madder: "#B5452E",
+  ochre: "#C98B2B",
+  slate: "#5B6770",
+  chalk: "#F7F4EE",
+  rule: "#D9D4CA",
+  text: "#1E2236",
+} as const;
 
 /** Page sizes in points: ISO 216 A4 (210 × 297 mm) and US Letter (8.5 × 11 in). */
 export const pageSizes: Record<PaperSize, { width: number; height: number }> = {
@@ -77,10 +85,23 @@ export function stampPages(doc: PDFKit.PDFDocument, header: { left: string; righ
     oneLine(doc, header.left, left, 10 * MM, w * 0.62);
     doc.font("Body").fontSize(8.5).fillColor(colours.slate);
     oneLine(doc, header.right, left + w * 0.62, 10 * MM, w * 0.38, { align: "right" });
-    doc.moveTo(left, 15 * MM).lineTo(left + w, 15 * MM).lineWidth(0.6).strokeColor(colours.ink).stroke();
+    doc
+      .moveTo(left, 15 * MM)
+      .lineTo(left + w, 15 * MM)
+      .lineWidth(0.6)
+      .strokeColor(colours.ink)
+      .stroke();
     doc.font("Body").fontSize(7.5).fillColor(colours.slate);
     oneLine(doc, footer, left, height - 12 * MM, w * 0.7);
-    doc.font("Bold").fontSize(8).fillColor(colours.ink).text(`Page ${i - range.start + 1} of ${total}`, left + w * 0.7, height - 12 * MM, { width: w * 0.3, align: "right", lineBreak: false });
+    doc
+      .font("Bold")
+      .fontSize(8)
+      .fillColor(colours.ink)
+      .text(`Page ${i - range.start + 1} of ${total}`, left + w * 0.7, height - 12 * MM, {
+        width: w * 0.3,
+        align: "right",
+        lineBreak: false,
+      });
     doc.page.margins = saved;
   }
 }
@@ -99,7 +120,14 @@ export function fitText(doc: PDFKit.PDFDocument, text: string, width: number): s
 }
 
 /** Writes one line of text at (x, y), cut to `width` (never wraps onto the next line). */
-export function oneLine(doc: PDFKit.PDFDocument, text: string, x: number, y: number, width: number, options: { align?: "left" | "right" | "center" } = {}): void {
+export function oneLine(
+  doc: PDFKit.PDFDocument,
+  text: string,
+  x: number,
+  y: number,
+  width: number,
+  options: { align?: "left" | "right" | "center" } = {},
+): void {
   doc.text(fitText(doc, text, width), x, y, { width, lineBreak: false, align: options.align ?? "left" });
 }
 
@@ -107,7 +135,11 @@ export function oneLine(doc: PDFKit.PDFDocument, text: string, x: number, y: num
  * Resolves once the document's unread output is below `limitBytes` (the reader has caught up), or
  * at once when the reader has gone away (the caller then stops laying out pages).
  */
-export async function waitForReader(doc: PDFKit.PDFDocument, out: NodeJS.WritableStream & { destroyed?: boolean }, limitBytes = 2 * 1024 * 1024): Promise<void> {
+export async function waitForReader(
+  doc: PDFKit.PDFDocument,
+  out: NodeJS.WritableStream & { destroyed?: boolean },
+  limitBytes = 2 * 1024 * 1024,
+): Promise<void> {
   while (doc.readableLength > limitBytes && !doc.destroyed && !out.destroyed) await new Promise((r) => setTimeout(r, 5));
 }
 

@@ -164,7 +164,8 @@ export function nurbsProblem(c: NurbsCurve): string | null {
   if (c.weights && c.weights.length && c.weights.length !== n) return `${c.weights.length} weights for ${n} control points`;
   if (c.weights?.some((w) => !(w > 0))) return "a weight is not positive";
   const periodicShort = c.periodic && c.knots.length === n + 1;
-  if (c.knots.length !== n + p + 1 && !periodicShort) return `${c.knots.length} knots for ${n} control points of degree ${p} (expected ${n + p + 1})`;
+  if (c.knots.length !== n + p + 1 && !periodicShort)
+    return `${c.knots.length} knots for ${n} control points of degree ${p} (expected ${n + p + 1})`;
   for (let i = 1; i < c.knots.length; i++) if (c.knots[i] < c.knots[i - 1]) return "the knot values decrease";
   if (c.knots[c.knots.length - 1] === c.knots[0]) return "all knots are equal";
   return null;

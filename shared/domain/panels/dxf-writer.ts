@@ -57,7 +57,10 @@ export function panelsToDxf(panels: readonly PanelShape[]): string {
     out.push(String(code), typeof value === "number" ? num(value) : value);
   };
   const blocks = panels.map((p, i) => pieceBlockName(i, p.name));
-  const layers = ["0", ...[ASTM_LAYER.cutLine, ASTM_LAYER.notches, ASTM_LAYER.grainLine, ASTM_LAYER.sewLine, ASTM_LAYER.annotation].map(String)];
+  const layers = [
+    "0",
+    ...[ASTM_LAYER.cutLine, ASTM_LAYER.notches, ASTM_LAYER.grainLine, ASTM_LAYER.sewLine, ASTM_LAYER.annotation].map(String),
+  ];
 
   g(0, "SECTION");
   g(2, "HEADER");

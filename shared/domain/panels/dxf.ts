@@ -9,9 +9,30 @@
 //   count), the longest line inside is the grain line, short lines from the edge are notches.
 // Everything not used is listed with the reason, so a cutter can see what the file held.
 import DxfParser from "dxf-parser";
-import type { IArcEntity, IDxf, IEntity, IInsertEntity, ILineEntity, ILwpolylineEntity, IMtextEntity, IPointEntity, IPolylineEntity, ITextEntity } from "dxf-parser";
+import type {
+  IArcEntity,
+  IDxf,
+  IEntity,
+  IInsertEntity,
+  ILineEntity,
+  ILwpolylineEntity,
+  IMtextEntity,
+  IPointEntity,
+  IPolylineEntity,
+  ITextEntity,
+} from "dxf-parser";
 import { Limits } from "../../constants";
-import { pointInPolygon, pointSegmentDistance, polygonArea, perimeter, boundingBox, validatePolygon, type Notch, type PanelShape, type Point } from "./geometry";
+import {
+  pointInPolygon,
+  pointSegmentDistance,
+  polygonArea,
+  perimeter,
+  boundingBox,
+  validatePolygon,
+  type Notch,
+  type PanelShape,
+  type Point,
+} from "./geometry";
 import { CHORD_TOLERANCE_MM, flattenArc, flattenBulge, flattenEllipse, flattenNurbs, nurbsProblem } from "./curves";
 import { ASTM_ROLE_LABEL, ASTM_TEXT_LABEL, astmLayerRole, splitLabelledText, type AstmLayerRole } from "./astm-d6673";
 import { cutLineFromSewLine, sewLineFromCutLine } from "./offset";
@@ -152,7 +173,23 @@ function countEntityTypes(lines: string[]): Map<string, number> {
   return counts;
 }
 /** Entity types dxf-parser reads (the others it skips, so they are named from the plain scan). */
-const PARSED_TYPES = new Set(["3DFACE", "ARC", "ATTDEF", "CIRCLE", "DIMENSION", "ELLIPSE", "INSERT", "LINE", "LWPOLYLINE", "MTEXT", "POINT", "POLYLINE", "SOLID", "SPLINE", "TEXT"]);
+const PARSED_TYPES = new Set([
+  "3DFACE",
+  "ARC",
+  "ATTDEF",
+  "CIRCLE",
+  "DIMENSION",
+  "ELLIPSE",
+  "INSERT",
+  "LINE",
+  "LWPOLYLINE",
+  "MTEXT",
+  "POINT",
+  "POLYLINE",
+  "SOLID",
+  "SPLINE",
+  "TEXT",
+]);
 
 // ---------------------------------------------------------------------------------------------
 // Placing: 2D affine transforms [a, b, c, d, e, f]: x' = a·x + c·y + e, y' = b·x + d·y + f.
@@ -273,15 +310,26 @@ function expand(dxf: IDxf, toMm: number, tolerance: number): Expansion {
   const countVertices = (n: number) => {
     ex.vertices += n;
     if (ex.vertices > Limits.dxfMaxTotalVertices) {
-      throw new DxfLimitError(`the drawing has more than ${Limits.dxfMaxTotalVertices.toLocaleString("en-GB")} points once its curves are flattened; split it into smaller files`);
+      throw new DxfLimitError(
+        `the drawing has more than ${Limits.dxfMaxTotalVertices.toLocaleString("en-GB")} points once its curves are flattened; split it into smaller files`,
+      );
     }
   };
 
-  const walk = (entities: IEntity[], m: Affine, group: string | null, insertLayer: string | null, blockName: string | null, depth: number) => {
+  const walk = (
+    entities: IEntity[],
+    m: Affine,
+    group: string | null,
+    insertLayer: string | null,
+    blockName: string | null,
+    depth: number,
+  ) => {
     for (const e of entities) {
       ex.entities += 1;
       if (ex.entities > Limits.dxfMaxEntities) {
-        throw new DxfLimitError(`the drawing places more than ${Limits.dxfMaxEntities.toLocaleString("en-GB")} entities; split it into smaller files`);
+        throw new DxfLimitError(
+          `the drawing places more than ${Limits.dxfMaxEntities.toLocaleString("en-GB")} entities; split it into smaller files`,
+        );
       }
       // Entities on layer 0 inside a block take the layer of the INSERT that places the block.
       const layer = (e.layer === "0" || !e.layer) && insertLayer ? insertLayer : (e.layer ?? "0");
@@ -307,7 +355,12 @@ function expand(dxf: IDxf, toMm: number, tolerance: number): Expansion {
         }
         case "LWPOLYLINE":
         case "POLYLINE": {
-          const p = e as (ILwpolylineEntity | IPolylineEntity) & { is3dPolygonMesh?: boolean; isPolyfaceMesh?: boolean; extrusionDirectionZ?: number; extrusionDirection?: { z: number } };
+          const p = e as (ILwpolylineEntity | IPolylineEntity) & {
+            is3dPolygonMesh?: boolean;
+            isPolyfaceMesh?: boolean;
+            extrusionDirectionZ?: number;
+            extrusionDirection?: { z: number };
+          };
           if (p.is3dPolygonMesh || p.isPolyfaceMesh) {
             ignore(ex, e.type, layer, "3D mesh, not a flat outline", where);
             break;
@@ -381,11 +434,25 @@ function expand(dxf: IDxf, toMm: number, tolerance: number): Expansion {
           const ys = groupValues(sp, 20);
           const controlPoints = xs.map((x, i): Point => [x, ys[i] ?? 0]);
           if (!controlPoints.length) {
-            ignore(ex, e.type, layer, groupValues(sp, 11).length ? "defined by fit points only (no control points); save it with control points" : "no control points", where);
+            ignore(
+              ex,
+              e.type,
+              layer,
+              groupValues(sp, 11).length
+                ? "defined by fit points only (no control points); save it with control points"
+                : "no control points",
+              where,
+            );
             break;
           }
           const weights = groupValues(sp, 41);
-          const curve = { degree: groupValue(sp, 71, 3), knots: groupValues(sp, 40), controlPoints, weights: weights.length ? weights : undefined, periodic: (flags & 2) !== 0 };
+          const curve = {
+            degree: groupValue(sp, 71, 3),
+            knots: groupValues(sp, 40),
+            controlPoints,
+            weights: weights.length ? weights : undefined,
+            periodic: (flags & 2) !== 0,
+          };
           const problem = nurbsProblem(curve);
           if (problem) {
             ignore(ex, e.type, layer, `cannot be drawn: ${problem}`, where);
@@ -393,9 +460,15 @@ function expand(dxf: IDxf, toMm: number, tolerance: number): Expansion {
           }
           const pts = flattenNurbs(curve, tol);
           const closedFlag = (flags & 1) !== 0;
-          if (pts.length > 2 && dist(pts[0], pts[pts.length - 1]) <= 1e-9 * Math.max(1, Math.abs(pts[0][0]) + Math.abs(pts[0][1]))) pts.pop();
+          if (pts.length > 2 && dist(pts[0], pts[pts.length - 1]) <= 1e-9 * Math.max(1, Math.abs(pts[0][0]) + Math.abs(pts[0][1])))
+            pts.pop();
           const rational = weights.length && weights.some((w) => w !== weights[0]);
-          path(pts, closedFlag || same(controlPoints[0], controlPoints[controlPoints.length - 1]), `${closedFlag ? "closed " : ""}SPLINE (degree ${curve.degree}${rational ? ", weighted" : ""})`, ocs(groupValue(sp, 230, 1)));
+          path(
+            pts,
+            closedFlag || same(controlPoints[0], controlPoints[controlPoints.length - 1]),
+            `${closedFlag ? "closed " : ""}SPLINE (degree ${curve.degree}${rational ? ", weighted" : ""})`,
+            ocs(groupValue(sp, 230, 1)),
+          );
           break;
         }
         case "POINT": {
@@ -438,7 +511,10 @@ function expand(dxf: IDxf, toMm: number, tolerance: number): Expansion {
             for (let c = 0; c < cols; c++) {
               const off = apply(rotation(ins.rotation ?? 0), [c * (ins.columnSpacing ?? 0), r * (ins.rowSpacing ?? 0)]);
               // WCS = [mirror if the normal points down] · move to position · rotate · scale · move base point to origin.
-              let t = compose(translation(ins.position.x + off[0], ins.position.y + off[1]), compose(rotation(ins.rotation ?? 0), compose(scaling(sx, sy), translation(-base.x, -base.y))));
+              let t = compose(
+                translation(ins.position.x + off[0], ins.position.y + off[1]),
+                compose(rotation(ins.rotation ?? 0), compose(scaling(sx, sy), translation(-base.x, -base.y))),
+              );
               if ((ins.extrusionDirection?.z ?? 1) < 0) t = compose(OCS_MIRROR, t);
               insertCount += 1;
               walk(block.entities ?? [], compose(m, t), group ?? `insert-${insertCount}`, layer, block.name, depth + 1);
@@ -455,7 +531,13 @@ function expand(dxf: IDxf, toMm: number, tolerance: number): Expansion {
   for (const b of Object.values(blocks)) {
     // Blocks whose names start with "*" are the drawing's own (model and paper space, dimensions).
     if (!b.name || b.name.startsWith("*") || ex.placed.has(b.name) || !b.entities?.length) continue;
-    ignore(ex, "BLOCK", "any", `block "${b.name}" is defined but no INSERT places it, so its ${plural(b.entities.length, "entity", "entities")} are not drawn`, "");
+    ignore(
+      ex,
+      "BLOCK",
+      "any",
+      `block "${b.name}" is defined but no INSERT places it, so its ${plural(b.entities.length, "entity", "entities")} are not drawn`,
+      "",
+    );
   }
   return ex;
 }
@@ -611,7 +693,8 @@ function nearestOnOutline(outline: readonly Point[], p: Point): { edge: number; 
       best = { edge: i, distance, t, point: [a[0] + (b[0] - a[0]) * t, a[1] + (b[1] - a[1]) * t] };
     }
   });
-  if (best.t >= 1) return { edge: (best.edge + 1) % outline.length, distance: best.distance, point: outline[(best.edge + 1) % outline.length] };
+  if (best.t >= 1)
+    return { edge: (best.edge + 1) % outline.length, distance: best.distance, point: outline[(best.edge + 1) % outline.length] };
   return best;
 }
 
@@ -642,7 +725,14 @@ function measureAllowance(cut: readonly Point[], sew: readonly Point[]): { media
 
 const CUT_TEXT = /^CUT\s+(\d+)(\s+MIRRORED)?$/i;
 /** "Label: value" texts of pattern files; any other text with a colon is plain text (a name may hold one). */
-const KNOWN_LABELS = new Set([...Object.values(ASTM_TEXT_LABEL).map((l) => l.toLowerCase()), "units", "material", "rotation", "grade rule table", "sample size"]);
+const KNOWN_LABELS = new Set([
+  ...Object.values(ASTM_TEXT_LABEL).map((l) => l.toLowerCase()),
+  "units",
+  "material",
+  "rotation",
+  "grade rule table",
+  "sample size",
+]);
 const MIRRORED_TEXT = /mirrored pairs?/i;
 
 /**
@@ -658,7 +748,8 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
   } catch (err) {
     const msg = err instanceof Error ? err.message : "parse error";
     // dxf-parser's own words are for programmers; say what they mean for the file.
-    if (/EOF group not read|Unexpected end of input/i.test(msg)) throw new Error("the file ends before DXF's end marker: it is cut short or not a DXF drawing");
+    if (/EOF group not read|Unexpected end of input/i.test(msg))
+      throw new Error("the file ends before DXF's end marker: it is cut short or not a DXF drawing");
     if (/Empty file/i.test(msg)) throw new Error("the file is empty");
     throw new Error(`the DXF groups could not be read (${msg})`);
   }
@@ -716,7 +807,15 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
   }
   function toOutline(pts: Point[], layer: string, group: string | null, drawn: string, sources: Source[]): Outline {
     const r = astm ? roleOf(layer) : null;
-    return { pts, role: r === "cut_line" ? "cut" : r === "sew_line" ? "sew" : "plain", layer, group, drawn, sources, area: polygonArea(pts) };
+    return {
+      pts,
+      role: r === "cut_line" ? "cut" : r === "sew_line" ? "sew" : "plain",
+      layer,
+      group,
+      drawn,
+      sources,
+      area: polygonArea(pts),
+    };
   }
   for (const paths of byKey.values()) {
     const { chains, singles } = joinPaths(paths, JOIN_TOLERANCE_MM);
@@ -727,13 +826,25 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
       if (c.closed) outlines.push(toOutline(c.pts, c.layer, c.group, c.drawn, c.sources));
       else if (layerIsOutline || (c.gap !== null && c.gap <= 0.1 * length)) {
         for (const s of c.sources) {
-          ignore(ex, s.type, s.layer, `part of ${plural(parts.length, "entity", "entities")} drawn end to end that do not close: the ends are ${mmText(c.gap ?? 0)} apart (joined within ${JOIN_TOLERANCE_MM} mm)`, s.where);
+          ignore(
+            ex,
+            s.type,
+            s.layer,
+            `part of ${plural(parts.length, "entity", "entities")} drawn end to end that do not close: the ends are ${mmText(c.gap ?? 0)} apart (joined within ${JOIN_TOLERANCE_MM} mm)`,
+            s.where,
+          );
         }
       } else loose.push(...parts);
     }
     for (const s of singles) {
       if (astm && (roleOf(s.layer) === "cut_line" || roleOf(s.layer) === "sew_line")) {
-        ignore(ex, s.sources[0].type, s.layer, `open ${ASTM_ROLE_LABEL[roleOf(s.layer)!]}: its ends are ${mmText(dist(s.pts[0], s.pts[s.pts.length - 1]))} apart`, s.sources[0].where);
+        ignore(
+          ex,
+          s.sources[0].type,
+          s.layer,
+          `open ${ASTM_ROLE_LABEL[roleOf(s.layer)!]}: its ends are ${mmText(dist(s.pts[0], s.pts[s.pts.length - 1]))} apart`,
+          s.sources[0].where,
+        );
       } else loose.push(s);
     }
   }
@@ -741,14 +852,24 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
   // Marks too small to be pieces.
   const big = outlines.filter((o) => {
     if (o.area >= MIN_PIECE_AREA_MM2) return true;
-    for (const s of o.sources) ignore(ex, s.type, s.layer, `closed outline of ${Math.round(o.area * 10) / 10} mm², too small to be a piece (under ${MIN_PIECE_AREA_MM2} mm²)`, s.where);
+    for (const s of o.sources)
+      ignore(
+        ex,
+        s.type,
+        s.layer,
+        `closed outline of ${Math.round(o.area * 10) / 10} mm², too small to be a piece (under ${MIN_PIECE_AREA_MM2} mm²)`,
+        s.where,
+      );
     return false;
   });
   if (units.from === "assumed" && big.length < outlines.length) {
-    warnings.push("Some outlines are too small to be pieces in millimetres; if the file was drawn in inches or centimetres, choose those units.");
+    warnings.push(
+      "Some outlines are too small to be pieces in millimetres; if the file was drawn in inches or centimetres, choose those units.",
+    );
   }
   const closedCount = big.filter((o) => o.role !== "sew").length || big.length;
-  if (closedCount > Limits.dxfMaxPieces) throw new DxfLimitError(`the file holds ${closedCount} piece outlines; at most ${Limits.dxfMaxPieces} are read from one file`);
+  if (closedCount > Limits.dxfMaxPieces)
+    throw new DxfLimitError(`the file holds ${closedCount} piece outlines; at most ${Limits.dxfMaxPieces} are read from one file`);
 
   // Sew lines pair with the smallest cut line of the same group that contains them.
   const drafts: Draft[] = [];
@@ -812,7 +933,11 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
       // Stored to 0.1 mm, as the panel record keeps it.
       seamAllowanceMm = Math.round(a.median * 10) / 10;
       seamAllowanceFrom = "file";
-      recognised.push(`cut line: ${label(d.cut)}`, `sew line: ${label(d.sew)}`, `seam allowance ${mmText(seamAllowanceMm)}, measured between the cut and sew lines`);
+      recognised.push(
+        `cut line: ${label(d.cut)}`,
+        `sew line: ${label(d.sew)}`,
+        `seam allowance ${mmText(seamAllowanceMm)}, measured between the cut and sew lines`,
+      );
       if (a.high - a.low > 0.5) {
         warnings.push(
           `Piece ${index + 1}: the seam allowance varies from ${mmText(a.low)} to ${mmText(a.high)} along the piece; Seamscene keeps one allowance per piece (${mmText(seamAllowanceMm)}, the median), so the cut line will be redrawn from the sew line.`,
@@ -848,7 +973,14 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
       else if (lab && lab.label === ASTM_TEXT_LABEL.size.toLowerCase()) size = lab.value || null;
       else if (lab && lab.label === ASTM_TEXT_LABEL.quantity.toLowerCase() && /^\d+$/.test(lab.value)) cutCount = Number(lab.value);
       else if (lab && lab.label === ASTM_TEXT_LABEL.annotation.toLowerCase() && MIRRORED_TEXT.test(lab.value)) mirrored = true;
-      else if (lab && lab.label !== "units") ignore(ex, t.source.type, t.layer, `piece text "${t.text.slice(0, 60)}" is not used (Seamscene reads piece name, size, quantity)`, t.source.where);
+      else if (lab && lab.label !== "units")
+        ignore(
+          ex,
+          t.source.type,
+          t.layer,
+          `piece text "${t.text.slice(0, 60)}" is not used (Seamscene reads piece name, size, quantity)`,
+          t.source.where,
+        );
       else if (!lab) plain.push(t.text);
     }
     if (name === null && plain.length) name = plain.shift()!;
@@ -874,12 +1006,22 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
       else if (role === "notches") {
         notchMarks.push(l.pts);
         notchSources.push(...l.sources);
-      } else if (role && role !== "cut_line" && role !== "sew_line") for (const s of l.sources) ignore(ex, s.type, s.layer, `${ASTM_ROLE_LABEL[role]} (layer ${s.layer}): not kept by Seamscene`, s.where);
+      } else if (role && role !== "cut_line" && role !== "sew_line")
+        for (const s of l.sources)
+          ignore(ex, s.type, s.layer, `${ASTM_ROLE_LABEL[role]} (layer ${s.layer}): not kept by Seamscene`, s.where);
       else if (isLine && pathLength(l.pts) <= NOTCH_MAX_MM && !astm && l.pts.some((p) => nearestOnOutline(outline, p).distance <= 0.05)) {
         notchMarks.push(l.pts);
         notchSources.push(...l.sources);
       } else if (isLine && !astm) grains.push(l);
-      else for (const s of l.sources) ignore(ex, s.type, s.layer, `${l.drawn} inside the piece is not an outline, grain line or notch (internal lines are not kept)`, s.where);
+      else
+        for (const s of l.sources)
+          ignore(
+            ex,
+            s.type,
+            s.layer,
+            `${l.drawn} inside the piece is not an outline, grain line or notch (internal lines are not kept)`,
+            s.where,
+          );
     }
     for (const p of d.points) {
       const role = astm ? roleOf(p.layer) : null;
@@ -887,12 +1029,16 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
         notchMarks.push([p.at]);
         notchSources.push(p.source);
       } else {
-        const why = role ? `${ASTM_ROLE_LABEL[role]} (layer ${p.layer}): ${role === "turn_points" || role === "curve_points" ? "the outline itself carries its corners and curves" : "not kept by Seamscene"}` : "point inside the piece, not on its outline";
+        const why = role
+          ? `${ASTM_ROLE_LABEL[role]} (layer ${p.layer}): ${role === "turn_points" || role === "curve_points" ? "the outline itself carries its corners and curves" : "not kept by Seamscene"}`
+          : "point inside the piece, not on its outline";
         ignore(ex, "POINT", p.layer, why, p.source.where);
       }
     }
     grains.sort((a, b) => pathLength(b.pts) - pathLength(a.pts));
-    for (const extra of grains.slice(1)) for (const s of extra.sources) ignore(ex, s.type, s.layer, "another line inside the piece; only the longest is taken as the grain line", s.where);
+    for (const extra of grains.slice(1))
+      for (const s of extra.sources)
+        ignore(ex, s.type, s.layer, "another line inside the piece; only the longest is taken as the grain line", s.where);
     const grain = grains[0];
     if (grain) recognised.push(`grain line: LINE on layer ${grain.layer}`);
     const notches: Notch[] = notchMarks.map((mark) => {
@@ -900,11 +1046,16 @@ export function readDxfPieces(text: string, options: DxfReadOptions = {}): DxfIm
       const best = mark.map((p) => nearestOnOutline(outline, p)).sort((a, b) => a.distance - b.distance)[0];
       return { point: best.point, edge: best.edge };
     });
-    if (notches.length) recognised.push(`${plural(notches.length, "notch", "notches")}: ${[...new Set(notchSources.map((s) => `${s.type} on layer ${s.layer}`))].join(", ")}`);
+    if (notches.length)
+      recognised.push(
+        `${plural(notches.length, "notch", "notches")}: ${[...new Set(notchSources.map((s) => `${s.type} on layer ${s.layer}`))].join(", ")}`,
+      );
 
     // Checks: the size cap refuses the file; a crossing outline is shown but not imported.
     if (outline.length > Limits.panelMaxVertices) {
-      throw new DxfLimitError(`piece "${name}" has ${outline.length.toLocaleString("en-GB")} points once its curves are flattened; at most ${Limits.panelMaxVertices.toLocaleString("en-GB")} are accepted per piece — simplify it in the pattern program`);
+      throw new DxfLimitError(
+        `piece "${name}" has ${outline.length.toLocaleString("en-GB")} points once its curves are flattened; at most ${Limits.panelMaxVertices.toLocaleString("en-GB")} are accepted per piece — simplify it in the pattern program`,
+      );
     }
     const check = validatePolygon(outline);
     if (!check.valid) problems.push(...check.issues.map((x) => x.message));

@@ -71,7 +71,9 @@ export function panelsToSvg(panels: readonly PanelShape[], options: SvgOptions =
     g.push(`<path d="${path(p.outline)}" fill="#f4f1e8" stroke="#000" stroke-width="0.6"/>`);
     if (p.grainline) {
       const [a, b] = p.grainline.map(tx);
-      g.push(`<line x1="${n2(a[0])}" y1="${n2(a[1])}" x2="${n2(b[0])}" y2="${n2(b[1])}" stroke="#000" stroke-width="0.5" marker-end="url(#grain-arrow)"/>`);
+      g.push(
+        `<line x1="${n2(a[0])}" y1="${n2(a[1])}" x2="${n2(b[0])}" y2="${n2(b[1])}" stroke="#000" stroke-width="0.5" marker-end="url(#grain-arrow)"/>`,
+      );
     }
     const n = p.outline.length;
     for (const notch of p.notches ?? []) {
@@ -191,7 +193,7 @@ export function panelsToObj(panels: readonly PanelShape[], seams: readonly SeamR
     const to = m.index(ref.to);
     const step = (ref.direction ?? "forward") === "forward" ? 1 : -1;
     const vertices = [m.base + from + 1];
-    for (let k = from; k !== to; ) {
+    for (let k = from; k !== to;) {
       k = (k + step + m.count) % m.count;
       vertices.push(m.base + k + 1);
     }

@@ -211,12 +211,7 @@ export function notchPosition(poly: Polygon, notch: Notch): OutlinePosition {
  * The points of the outline run from `from` to `to`, walking forward (increasing vertex index, wrapping)
  * or backward. Equal ends give a single point (an empty run).
  */
-export function runPoints(
-  poly: Polygon,
-  from: RunEnd,
-  to: RunEnd,
-  direction: "forward" | "backward" = "forward",
-): Point[] {
+export function runPoints(poly: Polygon, from: RunEnd, to: RunEnd, direction: "forward" | "backward" = "forward"): Point[] {
   const n = poly.length;
   if (direction === "backward") {
     // Walking backward on poly is walking forward on the reversed polygon; map edge positions across.
@@ -254,12 +249,7 @@ export function polylineLength(points: readonly Point[]): number {
 }
 
 /** Length of the outline run between two vertex indices or edge positions (wrapping), mm. */
-export function runLength(
-  poly: Polygon,
-  from: RunEnd,
-  to: RunEnd,
-  direction: "forward" | "backward" = "forward",
-): number {
+export function runLength(poly: Polygon, from: RunEnd, to: RunEnd, direction: "forward" | "backward" = "forward"): number {
   return polylineLength(runPoints(poly, from, to, direction));
 }
 
@@ -283,12 +273,7 @@ function orient(a: Point, b: Point, c: Point): number {
 }
 
 function onSegment(a: Point, b: Point, p: Point): boolean {
-  return (
-    Math.min(a[0], b[0]) <= p[0] &&
-    p[0] <= Math.max(a[0], b[0]) &&
-    Math.min(a[1], b[1]) <= p[1] &&
-    p[1] <= Math.max(a[1], b[1])
-  );
+  return Math.min(a[0], b[0]) <= p[0] && p[0] <= Math.max(a[0], b[0]) && Math.min(a[1], b[1]) <= p[1] && p[1] <= Math.max(a[1], b[1]);
 }
 
 /** Where segments ab and cd meet (touching counts), or null. */
@@ -345,9 +330,13 @@ export function validatePolygon(points: readonly Point[], options: { closed?: bo
   const found = findCrossings(poly, MAX_LISTED_CROSSINGS);
   crossings.push(...found.crossings);
   for (const c of crossings) {
-    issues.push({ code: "self_intersection", message: `edges ${c.edgeA} and ${c.edgeB} cross at (${round3(c.point[0])}, ${round3(c.point[1])})` });
+    issues.push({
+      code: "self_intersection",
+      message: `edges ${c.edgeA} and ${c.edgeB} cross at (${round3(c.point[0])}, ${round3(c.point[1])})`,
+    });
   }
-  if (found.truncated) issues.push({ code: "self_intersection", message: `the first ${MAX_LISTED_CROSSINGS} crossings are listed; there may be more` });
+  if (found.truncated)
+    issues.push({ code: "self_intersection", message: `the first ${MAX_LISTED_CROSSINGS} crossings are listed; there may be more` });
   return { valid: issues.length === 0, issues, crossings };
 }
 

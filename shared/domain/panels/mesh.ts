@@ -196,10 +196,15 @@ function planSeam(seamId: string, oa: Outline, ob: Outline, a: SidePlan, b: Side
   ].sort((x, y) => x.u - y.u);
   // Pair an A vertex with a B vertex when they are within a third of the target length (in either side's terms).
   const merged: Entry[] = [];
-  const near = (h / 3) / Math.max(La, Lb);
+  const near = h / 3 / Math.max(La, Lb);
   for (const e of entries) {
     const last = merged[merged.length - 1];
-    if (last && e.u - last.u < near && (last.ra === undefined) !== (e.ra === undefined) && (last.rb === undefined) !== (e.rb === undefined)) {
+    if (
+      last &&
+      e.u - last.u < near &&
+      (last.ra === undefined) !== (e.ra === undefined) &&
+      (last.rb === undefined) !== (e.rb === undefined)
+    ) {
       merged[merged.length - 1] = { u: (last.u + e.u) / 2, ra: last.ra ?? e.ra, rb: last.rb ?? e.rb };
     } else merged.push(e);
   }
@@ -315,7 +320,12 @@ function meshPanel(
       for (const cx of crossings) if (cx < x) inside = !inside;
       if (!inside) continue;
       const p: Point = [x, y];
-      if (nearEdges.some(([a, b]) => Math.min(a[0], b[0]) - h / 2 <= x && x <= Math.max(a[0], b[0]) + h / 2 && segmentDistance(p, a, b) < h / 2)) continue;
+      if (
+        nearEdges.some(
+          ([a, b]) => Math.min(a[0], b[0]) - h / 2 <= x && x <= Math.max(a[0], b[0]) + h / 2 && segmentDistance(p, a, b) < h / 2,
+        )
+      )
+        continue;
       interior.push(p);
     }
   }
@@ -377,7 +387,7 @@ function meshPanel(
     let maxEdge = 0;
     let area = 0;
     for (let t = 0; t < del.triangles.length; t += 3) {
-      let i = del.triangles[t];
+      const i = del.triangles[t];
       let j = del.triangles[t + 1];
       let k = del.triangles[t + 2];
       const a = pts[i];
@@ -390,7 +400,12 @@ function meshPanel(
       area += Math.abs(cross) / 2;
       const ang = minAngle(a, b, c);
       worst = Math.min(worst, ang);
-      maxEdge = Math.max(maxEdge, Math.hypot(b[0] - a[0], b[1] - a[1]), Math.hypot(c[0] - b[0], c[1] - b[1]), Math.hypot(a[0] - c[0], a[1] - c[1]));
+      maxEdge = Math.max(
+        maxEdge,
+        Math.hypot(b[0] - a[0], b[1] - a[1]),
+        Math.hypot(c[0] - b[0], c[1] - b[1]),
+        Math.hypot(a[0] - c[0], a[1] - c[1]),
+      );
       // Aim a little above the guarantee so float noise never drops a triangle below it.
       if (ang < minAngleDeg + 0.5) bad.push({ tri: [i, j, k], angle: ang });
     }
@@ -477,7 +492,11 @@ function meshPanel(
  * Meshes every panel for a cloth simulator and stitches every seam.
  * @throws RangeError when the target edge length is outside 5–50 mm
  */
-export function meshPanelsForSimulation(panels: readonly MeshPanelInput[], seams: readonly MeshSeamInput[], options: MeshOptions = {}): SimulationMeshes {
+export function meshPanelsForSimulation(
+  panels: readonly MeshPanelInput[],
+  seams: readonly MeshSeamInput[],
+  options: MeshOptions = {},
+): SimulationMeshes {
   const h = options.targetEdgeMm ?? DEFAULT_MESH_EDGE_MM;
   if (!(h >= MESH_EDGE_RANGE_MM.min && h <= MESH_EDGE_RANGE_MM.max)) {
     throw new RangeError(`target edge length must be ${MESH_EDGE_RANGE_MM.min} to ${MESH_EDGE_RANGE_MM.max} mm, got ${h}`);
@@ -487,12 +506,15 @@ export function meshPanelsForSimulation(panels: readonly MeshPanelInput[], seams
   const skipped: SimulationMeshes["skipped"] = [];
   // Covered intervals per panel, as forward arcs, with the seam that owns them.
   const coverage = new Map<string, { start: number; length: number; seamId: string; side: "a" | "b" }[]>();
-  const intervalOf = (side: SidePlan) => (side.dir === 1 ? { start: side.start, length: side.length } : { start: side.start - side.length, length: side.length });
+  const intervalOf = (side: SidePlan) =>
+    side.dir === 1 ? { start: side.start, length: side.length } : { start: side.start - side.length, length: side.length };
   const overlaps = (panelId: string, iv: { start: number; length: number }, P: number) =>
     (coverage.get(panelId) ?? []).find((c) => {
       // Two arcs overlap when either holds an interior point of the other (touching ends is fine).
       const probe = (x: { start: number; length: number }, y: { start: number; length: number }) =>
-        covered(x, y.start + Math.min(1e-6, y.length / 2), P) || covered(x, y.start + y.length / 2, P) || covered(x, y.start + y.length - Math.min(1e-6, y.length / 2), P);
+        covered(x, y.start + Math.min(1e-6, y.length / 2), P) ||
+        covered(x, y.start + y.length / 2, P) ||
+        covered(x, y.start + y.length - Math.min(1e-6, y.length / 2), P);
       return probe(c, iv) || probe(iv, c);
     });
   for (const s of seams) {
@@ -511,7 +533,9 @@ export function meshPanelsForSimulation(panels: readonly MeshPanelInput[], seams
     const ia = intervalOf(a);
     const ib = intervalOf(b);
     const clash = overlaps(a.panelId, ia, oa.perimeter) ?? overlaps(b.panelId, ib, ob.perimeter);
-    const selfClash = a.panelId === b.panelId && (covered(ia, ib.start + ib.length / 2, oa.perimeter) || covered(ib, ia.start + ia.length / 2, oa.perimeter));
+    const selfClash =
+      a.panelId === b.panelId &&
+      (covered(ia, ib.start + ib.length / 2, oa.perimeter) || covered(ib, ia.start + ia.length / 2, oa.perimeter));
     if (clash || selfClash) {
       skipped.push({ seamId: s.id, reason: clash ? `its run overlaps seam ${clash.seamId}` : "its two sides overlap" });
       continue;
@@ -552,14 +576,16 @@ export function meshPanelsForSimulation(panels: readonly MeshPanelInput[], seams
     return out.sort((x, y) => x - y).map((s) => ({ s, p: pointAtArc(o, s) }));
   };
 
-  const ownerFor = (panelId: string) => (s0: number, s1: number): BoundarySegmentOwner | null => {
-    const o = outlines.get(panelId)!;
-    const mid = wrap((s0 + s1) / 2, o.perimeter);
-    const iv = (coverage.get(panelId) ?? []).find((c) => covered(c, mid, o.perimeter));
-    if (!iv) return null;
-    const plan = planById.get(iv.seamId)!;
-    return { seamId: iv.seamId, side: iv.side, plan: plan[iv.side] };
-  };
+  const ownerFor =
+    (panelId: string) =>
+    (s0: number, s1: number): BoundarySegmentOwner | null => {
+      const o = outlines.get(panelId)!;
+      const mid = wrap((s0 + s1) / 2, o.perimeter);
+      const iv = (coverage.get(panelId) ?? []).find((c) => covered(c, mid, o.perimeter));
+      if (!iv) return null;
+      const plan = planById.get(iv.seamId)!;
+      return { seamId: iv.seamId, side: iv.side, plan: plan[iv.side] };
+    };
 
   // Mesh, apply seam splits on both sides, re-mesh the panels they touch; repeat until no split is asked.
   const meshes = new Map<string, { mesh: Omit<SimulationMesh, "panelId">; boundary: BoundaryPoint[] }>();
@@ -574,7 +600,10 @@ export function meshPanelsForSimulation(panels: readonly MeshPanelInput[], seams
       const merged = [...base, ...extra.filter((e) => !base.some((b) => Math.abs(b.s - e.s) < 1e-6))].sort((x, y) => x.s - y.s);
       const r = meshPanel(o, merged, ownerFor(id), h, MESH_MIN_ANGLE_DEG);
       // Keep the free-edge splits refinement made, so the next round starts from them.
-      freeExtra.set(id, r.boundary.filter((b) => !base.some((x) => Math.abs(x.s - b.s) < 1e-6)));
+      freeExtra.set(
+        id,
+        r.boundary.filter((b) => !base.some((x) => Math.abs(x.s - b.s) < 1e-6)),
+      );
       meshes.set(id, { mesh: r.mesh, boundary: r.boundary });
       splits.push(...r.request.seamSplits);
     }
@@ -582,7 +611,9 @@ export function meshPanelsForSimulation(panels: readonly MeshPanelInput[], seams
     for (const sp of splits) {
       const plan = planById.get(sp.seamId)!;
       const key = sp.side === "a" ? "ra" : "rb";
-      const k = plan.pairs.findIndex((pr, i) => i + 1 < plan.pairs.length && Math.abs(pr[key] - sp.r0) < 1e-6 && Math.abs(plan.pairs[i + 1][key] - sp.r1) < 1e-6);
+      const k = plan.pairs.findIndex(
+        (pr, i) => i + 1 < plan.pairs.length && Math.abs(pr[key] - sp.r0) < 1e-6 && Math.abs(plan.pairs[i + 1][key] - sp.r1) < 1e-6,
+      );
       if (k < 0) continue;
       const p = plan.pairs[k];
       const q = plan.pairs[k + 1];

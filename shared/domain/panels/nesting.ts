@@ -172,10 +172,7 @@ function buildOrientation(piece: NestPiece, mirrored: boolean, step: number): Or
   const raw = rotated.map(([x, y]) => ({ X: snap(x * S), Y: snap(y * S) }));
   const minX = Math.min(...raw.map((p) => p.X));
   const minY = Math.min(...raw.map((p) => p.Y));
-  const path = ClipperLib.Clipper.CleanPolygons(
-    [raw.map((p) => ({ X: p.X - minX, Y: p.Y - minY }))],
-    0.5,
-  )[0];
+  const path = ClipperLib.Clipper.CleanPolygons([raw.map((p) => ({ X: p.X - minX, Y: p.Y - minY }))], 0.5)[0];
   const co = new ClipperLib.ClipperOffset(1.5, 0.25);
   co.AddPath(path, ClipperLib.JoinType.jtMiter, ClipperLib.EndType.etClosedPolygon);
   const shrunkAll: IntPath[] = [];
@@ -488,7 +485,16 @@ function layOut(
     if (!best) unplaced.push(ci);
     else {
       const { o, t } = best;
-      placed.push({ orient: o, t, path: translate(o.path, t), minX: t.X, minY: t.Y, maxX: t.X + o.width, maxY: t.Y + o.height, clips: new Map() });
+      placed.push({
+        orient: o,
+        t,
+        path: translate(o.path, t),
+        minX: t.X,
+        minY: t.Y,
+        maxX: t.X + o.width,
+        maxY: t.Y + o.height,
+        clips: new Map(),
+      });
       placedCopy.push(ci);
       rightEdge = Math.max(rightEdge, t.X + o.width);
       compaction += t.X + o.width;
@@ -500,7 +506,9 @@ function layOut(
   return { order: [...order], steps: [...steps], placed, placedCopy, unplaced, length: rightEdge, compaction, after };
 }
 
-const better = (a: Layout, b: Layout) => a.unplaced.length < b.unplaced.length || (a.unplaced.length === b.unplaced.length && (a.length < b.length || (a.length === b.length && a.compaction < b.compaction)));
+const better = (a: Layout, b: Layout) =>
+  a.unplaced.length < b.unplaced.length ||
+  (a.unplaced.length === b.unplaced.length && (a.length < b.length || (a.length === b.length && a.compaction < b.compaction)));
 
 /** A small seeded generator (mulberry32), so a search repeats exactly for the same seed and budget. */
 function seededRandom(seed: number): () => number {
@@ -589,7 +597,10 @@ export function nestPieces(pieces: readonly NestPiece[], options: NestOptions): 
     options.search?.onProgress?.({
       evaluations,
       bestLengthMm: best.length / S,
-      fraction: Math.min(1, Math.max(evaluations / Math.max(1, maxEvaluations), Number.isFinite(budgetMs) ? (now() - started) / budgetMs : 0)),
+      fraction: Math.min(
+        1,
+        Math.max(evaluations / Math.max(1, maxEvaluations), Number.isFinite(budgetMs) ? (now() - started) / budgetMs : 0),
+      ),
     });
   if (total > 1) {
     while (evaluations < maxEvaluations && now() - started < budgetMs) {
@@ -597,7 +608,10 @@ export function nestPieces(pieces: readonly NestPiece[], options: NestOptions): 
       const st = [...best.steps];
       const move = random();
       // Half the moves start from a copy near the marker's end: that is where the length is decided.
-      const tail = best.placed.map((p, i) => [p.maxX, i] as const).filter(([x]) => x >= best.length * 0.85).map(([, i]) => o.indexOf(best.placedCopy[i]));
+      const tail = best.placed
+        .map((p, i) => [p.maxX, i] as const)
+        .filter(([x]) => x >= best.length * 0.85)
+        .map(([, i]) => o.indexOf(best.placedCopy[i]));
       const pickPos = () => (tail.length && random() < 0.5 ? tail[Math.floor(random() * tail.length)] : Math.floor(random() * total));
       if (move < 0.4) {
         // Swap two copies, mostly near each other in the order.
@@ -664,7 +678,9 @@ export function markerToSvg(result: NestResult): string {
       `Marker ${num(result.markerLengthMm / 10)} cm × ${num(W / 10)} cm, efficiency ${num(result.efficiency * 100)} %, lower bound ${num(result.lowerBoundMm / 10)} cm`,
     )}</text>`,
   );
-  parts.push(`<rect x="0" y="0" width="${num(L)}" height="${num(W)}" fill="none" stroke="#555" stroke-width="0.8" stroke-dasharray="4 2"/>`);
+  parts.push(
+    `<rect x="0" y="0" width="${num(L)}" height="${num(W)}" fill="none" stroke="#555" stroke-width="0.8" stroke-dasharray="4 2"/>`,
+  );
   for (const p of result.placements) {
     const d = p.polygon.map(([x, y], i) => `${i === 0 ? "M" : "L"}${num(x)} ${num(fy(y))}`).join(" ") + " Z";
     const bb = boundingBox(p.polygon);

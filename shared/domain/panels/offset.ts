@@ -82,9 +82,7 @@ export function offsetOutline(outline: Polygon, distanceMm: number, options: Off
   co.AddPath(path, joinType, ClipperLib.EndType.etClosedPolygon);
   const solution: IntPath[] = [];
   co.Execute(solution, distanceMm * CLIPPER_SCALE);
-  return solution
-    .filter((p) => ClipperLib.Clipper.Area(p) > 0)
-    .map((p) => fromIntPath(p));
+  return solution.filter((p) => ClipperLib.Clipper.Area(p) > 0).map((p) => fromIntPath(p));
 }
 
 function single(polys: Point[][], what: string): Point[] {

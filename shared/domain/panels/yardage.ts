@@ -68,7 +68,8 @@ export function planYardage(
       maxEvaluations: search.maxEvaluations,
       timeBudgetMs: search.timeBudgetMs === undefined ? undefined : search.timeBudgetMs * share,
       now: search.now,
-      onProgress: (p) => search.onProgress?.({ fraction: start + share * p.fraction, fabricName: g.fabricName, bestLengthMm: p.bestLengthMm }),
+      onProgress: (p) =>
+        search.onProgress?.({ fraction: start + share * p.fraction, fabricName: g.fabricName, bestLengthMm: p.bestLengthMm }),
     };
     const result = nestPieces(pieces, {
       usableWidthMm: usableWidthMm(g.clothWidthMm),

@@ -45,7 +45,10 @@ export function hireSpan(g: GarmentCostFacts, period: HirePeriod): { from: strin
 }
 
 /** Cost of one garment: its flat cost plus, for a hire, the weekly rate for every week hired. */
-export function garmentCost(g: GarmentCostFacts, period: HirePeriod): { costCents: number; weeklyCents: number; weeks: number; totalCents: number } {
+export function garmentCost(
+  g: GarmentCostFacts,
+  period: HirePeriod,
+): { costCents: number; weeklyCents: number; weeks: number; totalCents: number } {
   const costCents = g.costCents ?? 0;
   const span = hireSpan(g, period);
   const weeklyCents = g.source === "rented" ? (g.rentalCostPerWeekCents ?? 0) : 0;

@@ -82,13 +82,19 @@ export function buildRackList(input: RackListInput): RackCharacterDto[] {
   const copyOf = copiesForRun(plans, run.runId);
 
   // Character → change → garment key → accumulated line.
-  const chars = new Map<string, { first: number; scenes: string[]; changes: Map<string, { changeId: string; scenes: string[]; garments: Map<string, GarmentAcc> }> }>();
+  const chars = new Map<
+    string,
+    { first: number; scenes: string[]; changes: Map<string, { changeId: string; scenes: string[]; garments: Map<string, GarmentAcc> }> }
+  >();
   run.sceneIds.forEach((sceneId, pos) => {
     const sceneNumber = ix.scenesById.get(sceneId)?.number ?? "?";
     for (const app of ix.appearancesByScene.get(sceneId) ?? []) {
-      const c = chars.get(app.characterId) ?? chars.set(app.characterId, { first: pos, scenes: [], changes: new Map() }).get(app.characterId)!;
+      const c =
+        chars.get(app.characterId) ?? chars.set(app.characterId, { first: pos, scenes: [], changes: new Map() }).get(app.characterId)!;
       if (!c.scenes.includes(sceneNumber)) c.scenes.push(sceneNumber);
-      const ch = c.changes.get(app.changeId) ?? c.changes.set(app.changeId, { changeId: app.changeId, scenes: [], garments: new Map() }).get(app.changeId)!;
+      const ch =
+        c.changes.get(app.changeId) ??
+        c.changes.set(app.changeId, { changeId: app.changeId, scenes: [], garments: new Map() }).get(app.changeId)!;
       if (!ch.scenes.includes(sceneNumber)) ch.scenes.push(sceneNumber);
       for (const item of ix.itemsByChange.get(app.changeId) ?? []) {
         const info = input.items.get(item.id);
@@ -149,7 +155,11 @@ export function buildRackList(input: RackListInput): RackCharacterDto[] {
               checkOutPath: garment ? input.checkOutPath(garment) : null,
             },
           };
-          if (!garment && missingCopy) acc.dto.warnings.push({ level: "blocking", message: `Copy #${missingCopy} of \u201c${groupName ?? "the group"}\u201d does not exist: the group holds ${copiesHeld ?? 0}` });
+          if (!garment && missingCopy)
+            acc.dto.warnings.push({
+              level: "blocking",
+              message: `Copy #${missingCopy} of \u201c${groupName ?? "the group"}\u201d does not exist: the group holds ${copiesHeld ?? 0}`,
+            });
           else if (!garment) acc.dto.warnings.push({ level: "blocking", message: "No garment is linked to this item of the change" });
           ch.garments.set(key, acc);
         }
@@ -167,7 +177,8 @@ export function buildRackList(input: RackListInput): RackCharacterDto[] {
   // Wet and stunt: bring a spare copy (the lowest-numbered copy of the group in stock and not already
   // on this list).
   const onList = new Set<string>();
-  for (const c of chars.values()) for (const ch of c.changes.values()) for (const a of ch.garments.values()) if (a.dto.garmentId) onList.add(a.dto.garmentId);
+  for (const c of chars.values())
+    for (const ch of c.changes.values()) for (const a of ch.garments.values()) if (a.dto.garmentId) onList.add(a.dto.garmentId);
   for (const c of chars.values()) {
     for (const ch of c.changes.values()) {
       for (const a of ch.garments.values()) {
@@ -175,7 +186,9 @@ export function buildRackList(input: RackListInput): RackCharacterDto[] {
         const groupId = a.groupId;
         if (!(d.wet || d.stunt) || !d.garmentId) continue;
         d.bringSpare = true;
-        const spareId = groupId ? (ix.groupCopies.get(groupId) ?? []).find((id) => !onList.has(id) && ix.garmentsById.get(id)?.status === "in_stock") : undefined;
+        const spareId = groupId
+          ? (ix.groupCopies.get(groupId) ?? []).find((id) => !onList.has(id) && ix.garmentsById.get(id)?.status === "in_stock")
+          : undefined;
         const spare = spareId ? ix.garmentsById.get(spareId) : undefined;
         if (spare) {
           d.spare = { tagCode: spare.tagCode, copyNumber: spare.copyNumber ?? null };
@@ -189,29 +202,42 @@ export function buildRackList(input: RackListInput): RackCharacterDto[] {
   }
 
   const out: RackCharacterDto[] = [...chars.entries()]
-    .sort(([a, ca], [b, cb]) => ca.first - cb.first || (input.characterSort.get(a) ?? 0) - (input.characterSort.get(b) ?? 0) || (ix.charactersById.get(a)?.name ?? "").localeCompare(ix.charactersById.get(b)?.name ?? ""))
+    .sort(
+      ([a, ca], [b, cb]) =>
+        ca.first - cb.first ||
+        (input.characterSort.get(a) ?? 0) - (input.characterSort.get(b) ?? 0) ||
+        (ix.charactersById.get(a)?.name ?? "").localeCompare(ix.charactersById.get(b)?.name ?? ""),
+    )
     .map(([characterId, c], i) => ({
       characterId,
       name: ix.charactersById.get(characterId)?.name ?? "?",
       callOrder: i + 1,
       sceneNumbers: c.scenes,
-      changes: [...c.changes.values()].map(
-        (ch): RackChangeDto => ({
-          changeId: ch.changeId,
-          number: changeNumber(ix, ch.changeId),
-          description: input.changeDescriptions.get(ch.changeId) ?? null,
-          sceneNumbers: ch.scenes,
-          garments: [...ch.garments.values()]
-            .sort((a, b) => a.order - b.order || (a.dto.copyNumber ?? 0) - (b.dto.copyNumber ?? 0) || (a.dto.tagCode ?? "").localeCompare(b.dto.tagCode ?? ""))
-            .map((a) => a.dto),
-        }),
-      ),
+      changes: [...c.changes.values()].map((ch): RackChangeDto => ({
+        changeId: ch.changeId,
+        number: changeNumber(ix, ch.changeId),
+        description: input.changeDescriptions.get(ch.changeId) ?? null,
+        sceneNumbers: ch.scenes,
+        garments: [...ch.garments.values()]
+          .sort(
+            (a, b) =>
+              a.order - b.order ||
+              (a.dto.copyNumber ?? 0) - (b.dto.copyNumber ?? 0) ||
+              (a.dto.tagCode ?? "").localeCompare(b.dto.tagCode ?? ""),
+          )
+          .map((a) => a.dto),
+      })),
     }));
   return out;
 }
 
 /** Counts for the heading: characters, garment lines, warnings and blocking ones. */
-export function rackListCounts(characters: RackCharacterDto[]): { characters: number; garments: number; warnings: number; blocking: number } {
+export function rackListCounts(characters: RackCharacterDto[]): {
+  characters: number;
+  garments: number;
+  warnings: number;
+  blocking: number;
+} {
   let garments = 0;
   let warnings = 0;
   let blocking = 0;

@@ -112,13 +112,14 @@ export function doubleBookingSnags(ix: SnapshotIndex, uses: PinnedUse[] = pinned
     list.push(u);
   }
   const labels = new Map<string, string>();
-  for (const r of ix.runs) labels.set(r.id, r.isShootDay ? `on shoot day ${formatDate(r.dates[0]!)}` : "in the running order (every performance)");
+  for (const r of ix.runs)
+    labels.set(r.id, r.isShootDay ? `on shoot day ${formatDate(r.dates[0]!)}` : "in the running order (every performance)");
   const out: SnagDraft[] = [];
   for (const [garmentId, list] of byGarment) {
     const garment = ix.garmentsById.get(garmentId);
     if (!garment || list.every((u) => u.characterId === list[0].characterId)) continue;
     list.sort((a, b) => cmpStr(a.runId, b.runId) || cmpStr(a.characterId, b.characterId));
-    for (let i = 0; i < list.length; ) {
+    for (let i = 0; i < list.length;) {
       let j = i;
       while (j < list.length && list[j].runId === list[i].runId) j++;
       const day = list.slice(i, j);

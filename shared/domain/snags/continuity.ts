@@ -102,12 +102,7 @@ export function compareRecords(a: CopyRecord, b: CopyRecord): number {
 }
 
 /** The snag for a copy whose distress goes down in story order. */
-export function distressBreakSnag(
-  prev: CopyRecord,
-  cur: CopyRecord,
-  copyLabel: string,
-  sceneNumber: (id: string) => string,
-): SnagDraft {
+export function distressBreakSnag(prev: CopyRecord, cur: CopyRecord, copyLabel: string, sceneNumber: (id: string) => string): SnagDraft {
   const evidence: { [k: string]: JsonValue } = {
     copyId: cur.copyId,
     from: { recordId: prev.recordId, sceneId: prev.sceneId, stage: prev.stage },
@@ -239,7 +234,19 @@ export function copyRecordTable(ix: SnapshotIndex, plans: GroupPlan[]): CopyReco
     const stage = entry.distressStage ?? appearance.distressStage;
     for (const gid of entry.garmentIds) {
       const g = ix.garmentsById.get(gid);
-      t.add(gid, gid, g?.multiplesGroupId ?? null, 1, entry.id, appearance.id, appearance.characterId, appearance.sceneId, sc.storyOrder, date, stage);
+      t.add(
+        gid,
+        gid,
+        g?.multiplesGroupId ?? null,
+        1,
+        entry.id,
+        appearance.id,
+        appearance.characterId,
+        appearance.sceneId,
+        sc.storyOrder,
+        date,
+        stage,
+      );
     }
   }
   for (const app of ix.snapshot.appearances) {
@@ -249,7 +256,19 @@ export function copyRecordTable(ix: SnapshotIndex, plans: GroupPlan[]): CopyReco
     for (const item of ix.itemsByChange.get(app.changeId) ?? []) {
       if (!item.garmentId) continue;
       const g = ix.garmentsById.get(item.garmentId);
-      t.add(item.garmentId, item.garmentId, g?.multiplesGroupId ?? null, 0, app.id, app.id, app.characterId, app.sceneId, sc.storyOrder, "", app.distressStage);
+      t.add(
+        item.garmentId,
+        item.garmentId,
+        g?.multiplesGroupId ?? null,
+        0,
+        app.id,
+        app.id,
+        app.characterId,
+        app.sceneId,
+        sc.storyOrder,
+        "",
+        app.distressStage,
+      );
     }
   }
   for (const plan of plans) {
@@ -260,7 +279,19 @@ export function copyRecordTable(ix: SnapshotIndex, plans: GroupPlan[]): CopyReco
       if (!sc) continue;
       const c = plan.copyOf[i];
       const garmentId = plan.copyIds[c] ?? null;
-      t.add(garmentId ?? `${plan.groupId}#${c + 1}`, garmentId, plan.groupId, 0, d.appearanceId, d.appearanceId, d.characterId, d.sceneId, sc.storyOrder, "", d.level);
+      t.add(
+        garmentId ?? `${plan.groupId}#${c + 1}`,
+        garmentId,
+        plan.groupId,
+        0,
+        d.appearanceId,
+        d.appearanceId,
+        d.characterId,
+        d.sceneId,
+        sc.storyOrder,
+        "",
+        d.level,
+      );
     }
   }
   return t;

@@ -42,7 +42,7 @@ export function fnv1a32(text: string): string {
     h = Math.imul(h, 0x01000193);
   };
   for (let i = 0; i < text.length; i++) {
-    let cp = text.codePointAt(i) as number;
+    const cp = text.codePointAt(i) as number;
     if (cp > 0xffff) i++; // surrogate pair consumed
     if (cp < 0x80) byte(cp);
     else if (cp < 0x800) {

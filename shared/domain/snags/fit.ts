@@ -1,14 +1,6 @@
 // Fit check: ease = finished garment measurement − body measurement, per point, compared with
 // the ease range for the garment's category and fit intent.
-import type {
-  EaseOverrides,
-  EaseRange,
-  FitIntent,
-  GarmentRec,
-  JsonValue,
-  SnagDraft,
-  SnapshotIndex,
-} from "./types";
+import type { EaseOverrides, EaseRange, FitIntent, GarmentRec, JsonValue, SnagDraft, SnapshotIndex } from "./types";
 
 const INCH_MM = 25.4; // exact (1959 international yard)
 
@@ -82,7 +74,10 @@ const categoryMemo = new Map<string, string>();
 export function normalisePoint(point: string): string {
   let out = pointMemo.get(point);
   if (out === undefined) {
-    const p = point.trim().toLowerCase().replace(/[\s-]+/g, "_");
+    const p = point
+      .trim()
+      .toLowerCase()
+      .replace(/[\s-]+/g, "_");
     out = own(POINT_ALIASES, p) ?? p;
     if (pointMemo.size < 10_000) pointMemo.set(point, out);
   }
@@ -107,7 +102,10 @@ const CATEGORY_ALIASES: Record<string, string> = {
 export function normaliseCategory(category: string): string {
   let out = categoryMemo.get(category);
   if (out === undefined) {
-    const c = category.trim().toLowerCase().replace(/[\s-]+/g, "_");
+    const c = category
+      .trim()
+      .toLowerCase()
+      .replace(/[\s-]+/g, "_");
     out = own(CATEGORY_ALIASES, c) ?? c;
     if (categoryMemo.size < 10_000) categoryMemo.set(category, out);
   }
@@ -178,12 +176,7 @@ export interface EaseLookup {
 }
 
 /** The ease range for a category/point/intent: production override first, then the table. */
-export function easeRangeFor(
-  category: string,
-  point: string,
-  intent: FitIntent,
-  overrides?: EaseOverrides,
-): EaseLookup | null {
+export function easeRangeFor(category: string, point: string, intent: FitIntent, overrides?: EaseOverrides): EaseLookup | null {
   const cat = normaliseCategory(category);
   const pt = normalisePoint(point);
   const o = own(own(own(overrides, cat), pt), intent);
@@ -329,9 +322,7 @@ export function fitSnagFromFacts(f: FitFacts): SnagDraft | null {
     title: `${g.tagCode} ${g.name} on ${f.performerName}${f.asDouble ? " (double)" : ""}: ${names}`,
     explanation:
       off.map((p) => describePointFit(p, g.fitIntent, g.category)).join(" ") +
-      (f.asDouble && tight
-        ? " A stunt costume must leave room for movement and padding; check it with the stunt coordinator."
-        : ""),
+      (f.asDouble && tight ? " A stunt costume must leave room for movement and padding; check it with the stunt coordinator." : ""),
     subject: { characterId: f.characterId, garmentId: g.id },
     evidence,
   };

@@ -46,7 +46,11 @@ export function mergeSameCause(snags: readonly Snag[]): Snag[] {
       continue;
     }
     const severity = RANK[other.severity] < RANK[s.severity] ? other.severity : s.severity;
-    const evidence: { [k: string]: JsonValue } = { ...s.evidence, garmentStatus: other.evidence.status ?? "workroom", neededOn: other.evidence.neededOn ?? null };
+    const evidence: { [k: string]: JsonValue } = {
+      ...s.evidence,
+      garmentStatus: other.evidence.status ?? "workroom",
+      neededOn: other.evidence.neededOn ?? null,
+    };
     const shootDayIds = Array.from(new Set([...(s.subject.shootDayIds ?? []), ...(other.subject.shootDayIds ?? [])])).sort();
     out.push(
       finishSnag({

@@ -353,9 +353,7 @@ export function multiplesSnagFromPlan(plan: GroupPlan, sceneNumber: (sceneId: st
   }
   explanation +=
     " Plan: " +
-    assignment
-      .map((a) => `copy #${a.copy} \u2192 scenes ${listNumbers(uniq(a.sceneIds.map(sceneNumber)), 12)}`)
-      .join("; ") +
+    assignment.map((a) => `copy #${a.copy} \u2192 scenes ${listNumbers(uniq(a.sceneIds.map(sceneNumber)), 12)}`).join("; ") +
     ".";
   const evidence: { [k: string]: JsonValue } = {
     copiesHeld: plan.copiesHeld,

@@ -31,9 +31,7 @@ export function quickChangeSnag(f: QuickChangeFacts): SnagDraft {
   const listed = f.between.map((b) => `${b.sceneNumber} (${b.minutes === null ? "?" : b.minutes} min)`);
   if (f.betweenCount > f.between.length) listed.push(`\u2026 ${f.betweenCount - f.between.length} more`);
   const between =
-    f.betweenCount === 0
-      ? "with no scene in between"
-      : `with scene${f.betweenCount > 1 ? "s" : ""} ${listed.join(", ")} in between`;
+    f.betweenCount === 0 ? "with no scene in between" : `with scene${f.betweenCount > 1 ? "s" : ""} ${listed.join(", ")} in between`;
   const evidence: { [k: string]: JsonValue } = {
     fromAppearanceId: f.from.appearance.id,
     toAppearanceId: f.to.appearance.id,
@@ -53,9 +51,7 @@ export function quickChangeSnag(f: QuickChangeFacts): SnagDraft {
       `${f.characterName} exits in change ${f.from.changeNumber} after scene ${f.from.sceneNumber} and enters in change ` +
       `${f.to.changeNumber} in scene ${f.to.sceneNumber}, ${between}: ${f.minutes} min against the ${f.threshold} min set ` +
       `for this production.` +
-      (f.unknownCount
-        ? ` Running time unknown for ${f.unknownCount} scene${f.unknownCount > 1 ? "s" : ""} in between; counted as 0.`
-        : ""),
+      (f.unknownCount ? ` Running time unknown for ${f.unknownCount} scene${f.unknownCount > 1 ? "s" : ""} in between; counted as 0.` : ""),
     subject: {
       characterId: f.characterId,
       sceneIds: [f.from.appearance.sceneId, f.to.appearance.sceneId],

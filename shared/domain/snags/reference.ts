@@ -47,9 +47,7 @@ function findById<T extends { id: string }>(xs: readonly T[], id: string | null 
 }
 
 function appearancesInScene(s: ProductionSnapshot, sceneId: string): AppearanceRec[] {
-  return s.appearances
-    .filter((a) => a.sceneId === sceneId)
-    .sort((a, b) => cmp(a.characterId, b.characterId) || cmp(a.id, b.id));
+  return s.appearances.filter((a) => a.sceneId === sceneId).sort((a, b) => cmp(a.characterId, b.characterId) || cmp(a.id, b.id));
 }
 
 function itemsOf(s: ProductionSnapshot, changeId: string) {
@@ -72,9 +70,7 @@ function resolveEntries(s: ProductionSnapshot) {
     let app: AppearanceRec | undefined;
     if (e.appearanceId) app = findById(s.appearances, e.appearanceId);
     else if (e.sceneId && e.characterId) {
-      app = s.appearances
-        .filter((a) => a.sceneId === e.sceneId && a.characterId === e.characterId)
-        .sort((a, b) => cmp(a.id, b.id))[0];
+      app = s.appearances.filter((a) => a.sceneId === e.sceneId && a.characterId === e.characterId).sort((a, b) => cmp(a.id, b.id))[0];
     }
     if (app) out.push({ entry: e, appearance: app });
   }
@@ -163,7 +159,19 @@ function plainCheckFit(garment: GarmentRec, measurements: Record<string, number>
     const max = lookup.range.max;
     const tight = ease < min - 1e-3;
     const loose = !tight && max !== null && ease > max + 1e-3;
-    out.push({ point, bodyKey, finished, body, ease, min, max, stretchRatio: stretches ? r : null, status: tight ? "tight" : loose ? "loose" : "fits", by: tight ? min - ease : loose ? ease - max! : 0, source: lookup.source });
+    out.push({
+      point,
+      bodyKey,
+      finished,
+      body,
+      ease,
+      min,
+      max,
+      stretchRatio: stretches ? r : null,
+      status: tight ? "tight" : loose ? "loose" : "fits",
+      by: tight ? min - ease : loose ? ease - max! : 0,
+      source: lookup.source,
+    });
   }
   return out;
 }
@@ -191,7 +199,10 @@ function ldsQuadratic(levels: number[]): number[] {
 }
 
 function refPlans(s: ProductionSnapshot, runs: Run[]): GroupPlan[] {
-  const groupIds = s.multiplesGroups.map((g) => g.id).filter((id, i, a) => a.indexOf(id) === i).sort();
+  const groupIds = s.multiplesGroups
+    .map((g) => g.id)
+    .filter((id, i, a) => a.indexOf(id) === i)
+    .sort();
   const all: GroupDemand[] = [];
   const groupOf: string[] = [];
   let batch = 0;
@@ -203,14 +214,14 @@ function refPlans(s: ProductionSnapshot, runs: Run[]): GroupPlan[] {
           if (!item.multiplesGroupId || !groupIds.includes(item.multiplesGroupId)) continue;
           groupOf.push(item.multiplesGroupId);
           all.push({
-              level: app.distressStage,
-              day,
-              batch,
-              outForDay: app.wet || app.stunt,
-              appearanceId: app.id,
-              sceneId,
-              characterId: app.characterId,
-              itemId: item.id,
+            level: app.distressStage,
+            day,
+            batch,
+            outForDay: app.wet || app.stunt,
+            appearanceId: app.id,
+            sceneId,
+            characterId: app.characterId,
+            itemId: item.id,
             runId: run.id,
             isShootDay: run.isShootDay,
           });
@@ -305,8 +316,7 @@ function refRecords(s: ProductionSnapshot, plans: GroupPlan[]): CopyRecord[] {
   };
   const resolved = resolveEntries(s);
   const hasEntry = (appId: string) => resolved.some((r) => r.appearance.id === appId);
-  const dateOf = (runId: string) =>
-    findById(s.shootDays, runId)?.date ?? findById(s.performances ?? [], runId)?.date ?? "";
+  const dateOf = (runId: string) => findById(s.shootDays, runId)?.date ?? findById(s.performances ?? [], runId)?.date ?? "";
   for (const { entry, appearance } of resolved) {
     const sc = findById(s.scenes, appearance.sceneId);
     if (!sc) continue;
@@ -414,7 +424,14 @@ function refPinned(s: ProductionSnapshot, runs: Run[]): Use[] {
       if (!runs.some((r) => r.isShootDay && r.id === entry.shootDayId)) continue;
       recorded.push(`${appearance.id}|${entry.shootDayId}`);
       for (const gid of entry.garmentIds) {
-        out.push({ garmentId: gid, runId: entry.shootDayId, isShootDay: true, characterId: appearance.characterId, appearanceId: appearance.id, sceneId: appearance.sceneId });
+        out.push({
+          garmentId: gid,
+          runId: entry.shootDayId,
+          isShootDay: true,
+          characterId: appearance.characterId,
+          appearanceId: appearance.id,
+          sceneId: appearance.sceneId,
+        });
       }
     }
   }
@@ -424,7 +441,14 @@ function refPinned(s: ProductionSnapshot, runs: Run[]): Use[] {
         if (app.sceneId !== sceneId || recorded.includes(`${app.id}|${run.id}`)) continue;
         for (const item of s.changeItems) {
           if (item.changeId !== app.changeId || !item.garmentId) continue;
-          out.push({ garmentId: item.garmentId, runId: run.id, isShootDay: run.isShootDay, characterId: app.characterId, appearanceId: app.id, sceneId });
+          out.push({
+            garmentId: item.garmentId,
+            runId: run.id,
+            isShootDay: run.isShootDay,
+            characterId: app.characterId,
+            appearanceId: app.id,
+            sceneId,
+          });
         }
       }
     }

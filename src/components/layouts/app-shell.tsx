@@ -28,7 +28,10 @@ export function AppShell() {
 
   return (
     <div className="min-h-dvh">
-      <a href="#main-content" className="sr-only rounded-md bg-chalk px-4 py-2 font-semibold text-ink shadow focus:not-sr-only focus:fixed focus:top-2 focus:left-2 focus:z-50">
+      <a
+        href="#main-content"
+        className="sr-only rounded-md bg-chalk px-4 py-2 font-semibold text-ink shadow focus:not-sr-only focus:fixed focus:top-2 focus:left-2 focus:z-50"
+      >
         Skip to content
       </a>
       {/* One row of fixed height at every width: the phone menu opens right below it (top-14), never under it. */}
@@ -57,7 +60,11 @@ export function AppShell() {
               {me.data?.name}
               {role && <span className="ml-1 text-chalk/70">· {roleLabels[role]}</span>}
             </span>
-            <button type="button" className="min-h-11 rounded px-2 underline-offset-2 hover:underline" onClick={() => (queue.items.length ? setConfirmSignOut(true) : signOut())}>
+            <button
+              type="button"
+              className="min-h-11 rounded px-2 underline-offset-2 hover:underline"
+              onClick={() => (queue.items.length ? setConfirmSignOut(true) : signOut())}
+            >
               Sign out
             </button>
           </div>
@@ -76,19 +83,34 @@ export function AppShell() {
         }}
       >
         <p>
-          {queue.items.length} record{queue.items.length === 1 ? "" : "s"} captured on this phone {queue.items.length === 1 ? "has" : "have"} not been sent yet. Signing out deletes
+          {queue.items.length} record{queue.items.length === 1 ? "" : "s"} captured on this phone{" "}
+          {queue.items.length === 1 ? "has" : "have"} not been sent yet. Signing out deletes
           {queue.items.length === 1 ? " it" : " them"} and everything saved for offline for your account from this phone.
         </p>
       </ConfirmDialog>
       <div className="mx-auto flex max-w-7xl gap-5 px-3 py-4 sm:px-5">
-        <nav id="main-nav" aria-label="Screens" className={cn("shrink-0 md:block md:w-48", menuOpen ? "fixed inset-x-0 top-14 z-10 block max-h-[calc(100dvh-3.5rem)] overflow-y-auto bg-chalk p-3 shadow-lg md:static md:max-h-none md:p-0 md:shadow-none" : "hidden")}>
+        <nav
+          id="main-nav"
+          aria-label="Screens"
+          className={cn(
+            "shrink-0 md:block md:w-48",
+            menuOpen
+              ? "fixed inset-x-0 top-14 z-10 block max-h-[calc(100dvh-3.5rem)] overflow-y-auto bg-chalk p-3 shadow-lg md:static md:max-h-none md:p-0 md:shadow-none"
+              : "hidden",
+          )}
+        >
           <ul className="grid gap-0.5">
             {allowed.map((s) => (
               <li key={s.key}>
                 <NavLink
                   to={paths.production.screen.getHref(productionId, s.key)}
                   onClick={() => setMenuOpen(false)}
-                  className={({ isActive }) => cn("flex min-h-11 items-center rounded-md px-3 text-sm font-semibold", isActive || screen === s.key ? "bg-ink text-chalk" : "text-ink hover:bg-ink-50")}
+                  className={({ isActive }) =>
+                    cn(
+                      "flex min-h-11 items-center rounded-md px-3 text-sm font-semibold",
+                      isActive || screen === s.key ? "bg-ink text-chalk" : "text-ink hover:bg-ink-50",
+                    )
+                  }
                 >
                   {s.label}
                 </NavLink>
@@ -97,7 +119,13 @@ export function AppShell() {
           </ul>
         </nav>
         <main id="main-content" tabIndex={-1} className="min-w-0 flex-1 outline-none">
-          {query.isPending ? <Spinner /> : query.error ? <ErrorAlert error={query.error} title="Cannot open this production" /> : production ? <Outlet /> : null}
+          {query.isPending ? (
+            <Spinner />
+          ) : query.error ? (
+            <ErrorAlert error={query.error} title="Cannot open this production" />
+          ) : production ? (
+            <Outlet />
+          ) : null}
         </main>
       </div>
     </div>

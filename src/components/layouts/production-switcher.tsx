@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState } from "react";
+import { useRef, useState } from "react";
 
 interface Props {
   /** The production open now. */
@@ -18,10 +18,17 @@ const NEW = "__new";
 export function ProductionSwitcher({ productionId, productions, onOpen, onNew }: Props) {
   const [choice, setChoice] = useState(productionId);
   const lastInput = useRef<"pointer" | "keyboard">("pointer");
-  useEffect(() => setChoice(productionId), [productionId]);
+  // Another production opened (from elsewhere): the choice follows it. Adjusted while rendering, as
+  // React advises for state that follows a prop.
+  const [shownFor, setShownFor] = useState(productionId);
+  if (shownFor !== productionId) {
+    setShownFor(productionId);
+    setChoice(productionId);
+  }
   const pending = choice !== productionId;
   const go = (id: string) => (id === NEW ? onNew() : onOpen(id));
-  const title = (id: string) => (id === NEW ? "a new production" : (productions.find((p) => p.productionId === id)?.title ?? "that production"));
+  const title = (id: string) =>
+    id === NEW ? "a new production" : (productions.find((p) => p.productionId === id)?.title ?? "that production");
 
   return (
     <form
@@ -66,7 +73,10 @@ export function ProductionSwitcher({ productionId, productions, onOpen, onNew }:
       </select>
       {pending && (
         <>
-          <button type="submit" className="shrink-0 rounded-md bg-chalk px-2 py-1 text-sm font-semibold text-ink focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-chalk focus-visible:outline-solid">
+          <button
+            type="submit"
+            className="shrink-0 rounded-md bg-chalk px-2 py-1 text-sm font-semibold text-ink focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-chalk focus-visible:outline-solid"
+          >
             Open
           </button>
           <span id="production-switcher-hint" className="sr-only" role="status">

@@ -17,7 +17,12 @@ export function QueueBadge() {
   const [open, setOpen] = useState(false);
   const panel = useRef<HTMLDivElement>(null);
   useEffect(() => {
-    if (open) panel.current?.focus();
+    if (!open) return;
+    panel.current?.focus();
+    // Escape closes the list wherever focus is, as it closes every pop-up in the app.
+    const onKey = (e: KeyboardEvent) => e.key === "Escape" && setOpen(false);
+    document.addEventListener("keydown", onKey);
+    return () => document.removeEventListener("keydown", onKey);
   }, [open]);
   const held = q.items.filter((i) => i.state === "held").length;
   if (!q.userId || (q.items.length === 0 && q.online)) return null;
@@ -40,7 +45,6 @@ export function QueueBadge() {
           tabIndex={-1}
           role="region"
           aria-label="Waiting to be sent"
-          onKeyDown={(e) => e.key === "Escape" && setOpen(false)}
           className="fixed inset-x-2 top-24 z-30 grid sm:absolute sm:inset-x-auto sm:top-auto sm:right-0 sm:mt-2 sm:w-[24rem] gap-2 rounded-lg bg-white p-3 text-ink shadow-xl outline-none"
         >
           <QueueList />
@@ -72,7 +76,13 @@ export function QueueList() {
               <span className="font-semibold">{i.summary}</span>
               <span className="text-slate">
                 {i.kind === "continuity" ? "Continuity" : "Check in / out"} · captured {formatWallTime(new Date(i.queuedAt))}
-                {q.sendingClientId === i.clientId ? " · sending…" : i.state === "held" ? " · not accepted" : i.attempts ? ` · tried ${i.attempts}×` : ""}
+                {q.sendingClientId === i.clientId
+                  ? " · sending…"
+                  : i.state === "held"
+                    ? " · not accepted"
+                    : i.attempts
+                      ? ` · tried ${i.attempts}×`
+                      : ""}
               </span>
               {i.lastError && <span className={i.state === "held" ? "text-madder" : "text-slate"}>{i.lastError}</span>}
               <span className="flex gap-2">
@@ -81,7 +91,13 @@ export function QueueList() {
                     Try again
                   </Button>
                 )}
-                <Button size="sm" variant="ghost" aria-label={`Cancel: ${i.summary}`} onClick={() => setCancel(i)} disabled={q.sendingClientId === i.clientId}>
+                <Button
+                  size="sm"
+                  variant="ghost"
+                  aria-label={`Cancel: ${i.summary}`}
+                  onClick={() => setCancel(i)}
+                  disabled={q.sendingClientId === i.clientId}
+                >
                   Cancel
                 </Button>
               </span>
@@ -106,7 +122,10 @@ export function QueueList() {
         }}
       >
         <p>{cancel?.summary}</p>
-        <p className="mt-1">It is deleted from this phone and never sent{cancel?.photos.length ? `, with its ${cancel.photos.length} photo${cancel.photos.length > 1 ? "s" : ""}` : ""}.</p>
+        <p className="mt-1">
+          It is deleted from this phone and never sent
+          {cancel?.photos.length ? `, with its ${cancel.photos.length} photo${cancel.photos.length > 1 ? "s" : ""}` : ""}.
+        </p>
       </ConfirmDialog>
     </div>
   );
@@ -138,7 +157,11 @@ export function OfflineStamp({ userId, productionId, timeZone }: { userId: strin
   return (
     <div className="flex flex-wrap items-center gap-2 text-sm" role="status" aria-live="polite">
       <span data-testid="offline-stamp">
-        {pack ? `Saved for offline at ${formatTime(pack.savedAt, timeZone)} · ${pack.shootDays.length} shoot day${pack.shootDays.length === 1 ? "" : "s"}` : busy ? "Saving for offline…" : "Not saved for offline on this phone"}
+        {pack
+          ? `Saved for offline at ${formatTime(pack.savedAt, timeZone)} · ${pack.shootDays.length} shoot day${pack.shootDays.length === 1 ? "" : "s"}`
+          : busy
+            ? "Saving for offline…"
+            : "Not saved for offline on this phone"}
       </span>
       {q.online && (
         <Button size="sm" variant="secondary" onClick={save} busy={busy}>

@@ -5,7 +5,11 @@ import type { PhotoDto, PhotoView } from "@shared/schemas/photos";
 
 /** Photos of one owner record. */
 export function usePhotos(productionId: string, ownerType: string, ownerId: string) {
-  return useQuery({ queryKey: ["photos", productionId, ownerType, ownerId], queryFn: () => api.get<PhotoDto[]>(`/productions/${productionId}/photos${qs({ ownerType, ownerId })}`), enabled: Boolean(ownerId) });
+  return useQuery({
+    queryKey: ["photos", productionId, ownerType, ownerId],
+    queryFn: () => api.get<PhotoDto[]>(`/productions/${productionId}/photos${qs({ ownerType, ownerId })}`),
+    enabled: Boolean(ownerId),
+  });
 }
 
 /** Uploads one photo for an owner. */

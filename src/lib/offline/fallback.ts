@@ -69,7 +69,9 @@ export async function offlineAnswer(url: string): Promise<{ data: unknown } | un
     return s ? mark({ data: s }) : undefined;
   }
   if (rest === "/continuity" && !q.get("review")) {
-    const rows = pack.continuity.filter((e) => (["sceneId", "characterId", "shootDayId"] as const).every((k) => !q.get(k) || e[k] === q.get(k)));
+    const rows = pack.continuity.filter((e) =>
+      (["sceneId", "characterId", "shootDayId"] as const).every((k) => !q.get(k) || e[k] === q.get(k)),
+    );
     return mark(list(rows));
   }
   if (rest === "/garments") {

@@ -31,7 +31,10 @@ export function useSavedPack(userId: string | undefined, productionId: string): 
   useEffect(() => {
     if (!userId || !productionId) return;
     let live = true;
-    const read = () => void getPack(userId, productionId).then((p) => live && setPack(p)).catch(() => undefined);
+    const read = () =>
+      void getPack(userId, productionId)
+        .then((p) => live && setPack(p))
+        .catch(() => undefined);
     read();
     const off = onPackChange(read);
     return () => {

@@ -30,10 +30,13 @@ async function encode(bitmap: ImageBitmap, width: number, height: number): Promi
   if (!ctx) throw new Error("No 2D canvas");
   ctx.imageSmoothingQuality = "high";
   ctx.drawImage(bitmap, 0, 0, width, height);
-  return new Promise((resolve, reject) => canvas.toBlob((b) => (b ? resolve(b) : reject(new Error("The photo could not be encoded"))), "image/jpeg", PHOTO_JPEG_QUALITY));
+  return new Promise((resolve, reject) =>
+    canvas.toBlob((b) => (b ? resolve(b) : reject(new Error("The photo could not be encoded"))), "image/jpeg", PHOTO_JPEG_QUALITY),
+  );
 }
 
-const jpegName = (name: string, view: PhotoView, i: number) => `${(name.replace(/\.[^.]+$/, "") || view).replace(/[^\w.-]+/g, "-").slice(0, 60) || `photo-${i}`}.jpg`;
+const jpegName = (name: string, view: PhotoView, i: number) =>
+  `${(name.replace(/\.[^.]+$/, "") || view).replace(/[^\w.-]+/g, "-").slice(0, 60) || `photo-${i}`}.jpg`;
 
 /**
  * The photo ready for the queue: decoded upright, scaled down and re-encoded as JPEG. A file the

@@ -120,7 +120,8 @@ export class QueueRunner {
       const pass = () => sendWaiting({ userId, transport: this.transport, force, onSending: (id) => this.set({ sendingClientId: id }) });
       const locks = typeof navigator !== "undefined" ? navigator.locks : undefined;
       const report = locks ? await locks.request(LOCK, pass) : await pass();
-      if (report.sent.length || report.held.length || report.signInNeeded !== this.state.signInNeeded) this.set({ signInNeeded: report.signInNeeded });
+      if (report.sent.length || report.held.length || report.signInNeeded !== this.state.signInNeeded)
+        this.set({ signInNeeded: report.signInNeeded });
       for (const r of report.sent) this.sentListeners.forEach((l) => l(r));
       if (report.nextAttemptAt !== null) {
         const wait = Math.max(0, report.nextAttemptAt - Date.now());

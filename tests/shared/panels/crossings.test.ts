@@ -7,7 +7,8 @@ import { validatePolygon, type Point } from "@shared/domain/panels/geometry";
 // The reference uses the same exact orientation sign as the sweep, so the two differ only in which
 // pairs they look at: all of them, or neighbours in the sweep order.
 const orient = (a: Point, b: Point, c: Point) => -orient2d(a[0], a[1], b[0], b[1], c[0], c[1]);
-const within = (a: Point, b: Point, p: Point) => Math.min(a[0], b[0]) <= p[0] && p[0] <= Math.max(a[0], b[0]) && Math.min(a[1], b[1]) <= p[1] && p[1] <= Math.max(a[1], b[1]);
+const within = (a: Point, b: Point, p: Point) =>
+  Math.min(a[0], b[0]) <= p[0] && p[0] <= Math.max(a[0], b[0]) && Math.min(a[1], b[1]) <= p[1] && p[1] <= Math.max(a[1], b[1]);
 function touches(a: Point, b: Point, c: Point, d: Point): boolean {
   const [d1, d2, d3, d4] = [orient(c, d, a), orient(c, d, b), orient(a, b, c), orient(a, b, d)];
   if (((d1 > 0 && d2 < 0) || (d1 < 0 && d2 > 0)) && ((d3 > 0 && d4 < 0) || (d3 < 0 && d4 > 0))) return true;
@@ -30,7 +31,8 @@ function bruteForcePairs(poly: readonly Point[]): Set<string> {
         const shared = nextTo ? b : a;
         const p = nextTo ? a : b;
         const q = nextTo ? d : c;
-        if (orient(p, shared, q) === 0 && (q[0] - shared[0]) * (p[0] - shared[0]) + (q[1] - shared[1]) * (p[1] - shared[1]) > 0) out.add(`${i}:${j}`);
+        if (orient(p, shared, q) === 0 && (q[0] - shared[0]) * (p[0] - shared[0]) + (q[1] - shared[1]) * (p[1] - shared[1]) > 0)
+          out.add(`${i}:${j}`);
         continue;
       }
       if (touches(a, b, c, d)) out.add(`${i}:${j}`);
@@ -47,7 +49,9 @@ function withoutRepeats(pts: readonly Point[]): Point[] {
   while (out.length > 1 && out[0][0] === out[out.length - 1][0] && out[0][1] === out[out.length - 1][1]) out.pop();
   return out;
 }
-const gridPolygon = fc.array(fc.tuple(fc.integer({ min: 0, max: 8 }), fc.integer({ min: 0, max: 8 })), { minLength: 3, maxLength: 14 }).map(withoutRepeats);
+const gridPolygon = fc
+  .array(fc.tuple(fc.integer({ min: 0, max: 8 }), fc.integer({ min: 0, max: 8 })), { minLength: 3, maxLength: 14 })
+  .map(withoutRepeats);
 // Millimetres with micrometre steps (exact predicates misjudge subnormal numbers, which no drawing holds).
 const mm = fc.integer({ min: -100_000_000, max: 100_000_000 }).map((v) => v / 1e6);
 const realPolygon = fc.array(fc.tuple(mm, mm), { minLength: 3, maxLength: 30 }).map(withoutRepeats);
@@ -84,14 +88,22 @@ describe("findCrossings (sweep line) against the all-pairs reference", () => {
   });
 
   it("reports a figure eight's single crossing at its centre", () => {
-    const bowTie: Point[] = [[0, 0], [100, 100], [100, 0], [0, 100]];
+    const bowTie: Point[] = [
+      [0, 0],
+      [100, 100],
+      [100, 0],
+      [0, 100],
+    ];
 
     expect(findCrossings(bowTie)).toEqual({ crossings: [{ edgeA: 0, edgeB: 2, point: [50, 50] }], truncated: false });
   });
 
   it("finds nothing in a simple 40,000-point outline (a circle of radius 500 mm)", () => {
     const n = 40_000;
-    const circle: Point[] = Array.from({ length: n }, (_, i) => [500 * Math.cos((2 * Math.PI * i) / n), 500 * Math.sin((2 * Math.PI * i) / n)]);
+    const circle: Point[] = Array.from({ length: n }, (_, i) => [
+      500 * Math.cos((2 * Math.PI * i) / n),
+      500 * Math.sin((2 * Math.PI * i) / n),
+    ]);
 
     expect(findCrossings(circle)).toEqual({ crossings: [], truncated: false });
   });

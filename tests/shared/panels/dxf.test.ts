@@ -32,7 +32,32 @@ const dxfOf = (...entities: Array<Array<string | number>>) =>
     .flat()
     .join("\n");
 
-const square = (x: number, y: number, side: number, layer = "0") => ["0", "LWPOLYLINE", "8", layer, "90", "4", "70", "1", "10", x, "20", y, "10", x + side, "20", y, "10", x + side, "20", y + side, "10", x, "20", y + side];
+const square = (x: number, y: number, side: number, layer = "0") => [
+  "0",
+  "LWPOLYLINE",
+  "8",
+  layer,
+  "90",
+  "4",
+  "70",
+  "1",
+  "10",
+  x,
+  "20",
+  y,
+  "10",
+  x + side,
+  "20",
+  y,
+  "10",
+  x + side,
+  "20",
+  y + side,
+  "10",
+  x,
+  "20",
+  y + side,
+];
 
 describe("curves are flattened within the stated tolerance (areas within 0.1 % of the exact shape)", () => {
   it("a closed LWPOLYLINE with bulge arcs keeps its area and length (defect: bulges became chords, −7 % area here)", () => {
@@ -60,10 +85,12 @@ describe("curves are flattened within the stated tolerance (areas within 0.1 % o
     expect(relErr(circle.perimeterMm, want.circlePerimeterMm)).toBeLessThan(1e-3);
     // Sagitta of every chord: radius minus the distance of the chord's midpoint from the centre.
     const o = circle.outline;
-    const worst = Math.max(...o.map((a, i) => {
-      const b = o[(i + 1) % o.length];
-      return 120 - Math.hypot((a[0] + b[0]) / 2, (a[1] + b[1]) / 2);
-    }));
+    const worst = Math.max(
+      ...o.map((a, i) => {
+        const b = o[(i + 1) % o.length];
+        return 120 - Math.hypot((a[0] + b[0]) / 2, (a[1] + b[1]) / 2);
+      }),
+    );
     expect(worst).toBeLessThanOrEqual(CHORD_TOLERANCE_MM + 1e-9);
     expect(worst).toBeGreaterThan(0);
   });
@@ -116,10 +143,20 @@ describe("ASTM D6673 conventions (layer numbers from memory, see astm-d6673.ts)"
     const r = readDxfPieces(fixture("astm-pieces.dxf"));
 
     expect(r.convention).toBe("astm-d6673");
-    const [back, facing] = r.pieces;
-    expect(back).toMatchObject({ name: "Back", size: "M", cutCount: 2, mirrored: true, seamAllowanceMm: want.seamAllowanceMm, seamAllowanceFrom: "file" });
+    const [back] = r.pieces;
+    expect(back).toMatchObject({
+      name: "Back",
+      size: "M",
+      cutCount: 2,
+      mirrored: true,
+      seamAllowanceMm: want.seamAllowanceMm,
+      seamAllowanceFrom: "file",
+    });
     expectSamePoints(back.outline, want.plainSewVertices, 1e-9);
-    expect(back.grainline).toEqual([[125, 50], [125, 350]]);
+    expect(back.grainline).toEqual([
+      [125, 50],
+      [125, 350],
+    ]);
     expect(back.notches).toEqual([
       { point: [0, 200], edge: 3 },
       { point: [125, 0], edge: 0 },
@@ -134,7 +171,14 @@ describe("ASTM D6673 conventions (layer numbers from memory, see astm-d6673.ts)"
     expect(facing).toMatchObject({ name: "Facing", cutCount: 1, mirrored: false, seamAllowanceMm: want.turnedSeamAllowanceMm });
     expectSamePoints(facing.outline, want.turnedSewVertices, 1e-9);
     const g = want.turnedGrain;
-    expectSamePoints(facing.grainline!, [[g[0], g[1]], [g[2], g[3]]], 1e-9);
+    expectSamePoints(
+      facing.grainline!,
+      [
+        [g[0], g[1]],
+        [g[2], g[3]],
+      ],
+      1e-9,
+    );
     expect(facing.areaMm2).toBeCloseTo(want.turnedSewAreaMm2, 6);
   });
 
@@ -190,12 +234,45 @@ describe("outlines that do not make a piece", () => {
     const r = readDxfPieces(fixture("open-outline.dxf"));
 
     expect(r.pieces).toHaveLength(0);
-    expect(r.ignored[0]).toMatchObject({ entity: "LINE", count: 4, reason: expect.stringMatching(/do not close: the ends are 2 mm apart/) });
+    expect(r.ignored[0]).toMatchObject({
+      entity: "LINE",
+      count: 4,
+      reason: expect.stringMatching(/do not close: the ends are 2 mm apart/),
+    });
     expect(noPieceReason(r)).toMatch(/4 × LINE on layer 0: .*2 mm apart/);
   });
 
   it("a SPLINE given by fit points only is named with the reason", () => {
-    const file = dxfOf(["0", "SPLINE", "8", "CUT", "70", "8", "71", "3", "74", "3", "11", "0", "21", "0", "31", "0", "11", "50", "21", "80", "31", "0", "11", "100", "21", "0", "31", "0"]);
+    const file = dxfOf([
+      "0",
+      "SPLINE",
+      "8",
+      "CUT",
+      "70",
+      "8",
+      "71",
+      "3",
+      "74",
+      "3",
+      "11",
+      "0",
+      "21",
+      "0",
+      "31",
+      "0",
+      "11",
+      "50",
+      "21",
+      "80",
+      "31",
+      "0",
+      "11",
+      "100",
+      "21",
+      "0",
+      "31",
+      "0",
+    ]);
 
     const r = readDxfPieces(file);
 
@@ -204,7 +281,10 @@ describe("outlines that do not make a piece", () => {
 
   it("a self-crossing outline is shown but marked not importable, with at most 20 crossings", () => {
     // Star polygon {61/30}: each vertex joined to the one 30 steps on, 61 × 29 crossings.
-    const pts: Point[] = Array.from({ length: 61 }, (_, i) => [300 * Math.cos((2 * Math.PI * 30 * i) / 61), 300 * Math.sin((2 * Math.PI * 30 * i) / 61)]);
+    const pts: Point[] = Array.from({ length: 61 }, (_, i) => [
+      300 * Math.cos((2 * Math.PI * 30 * i) / 61),
+      300 * Math.sin((2 * Math.PI * 30 * i) / 61),
+    ]);
     const file = dxfOf(["0", "LWPOLYLINE", "8", "0", "90", pts.length, "70", "1", ...pts.flatMap(([x, y]) => ["10", x, "20", y])]);
 
     const r = readDxfPieces(file);
@@ -223,7 +303,10 @@ describe("limits", () => {
   it("a piece with more points than the limit refuses the file with a message naming the piece", () => {
     const n = 5001;
     const pts = Array.from({ length: n }, (_, i) => [300 * Math.cos((2 * Math.PI * i) / n), 300 * Math.sin((2 * Math.PI * i) / n)]);
-    const file = dxfOf(["0", "LWPOLYLINE", "8", "0", "90", n, "70", "1", ...pts.flatMap(([x, y]) => ["10", x, "20", y])], ["0", "TEXT", "8", "0", "10", "0", "20", "0", "40", "5", "1", "Circle skirt"]);
+    const file = dxfOf(
+      ["0", "LWPOLYLINE", "8", "0", "90", n, "70", "1", ...pts.flatMap(([x, y]) => ["10", x, "20", y])],
+      ["0", "TEXT", "8", "0", "10", "0", "20", "0", "40", "5", "1", "Circle skirt"],
+    );
 
     expect(() => readDxfPieces(file)).toThrow(DxfLimitError);
     expect(() => readDxfPieces(file)).toThrow(/piece "Circle skirt" has 5,001 points.*at most 5,000/);
@@ -240,8 +323,18 @@ describe("export → import returns the same pieces (ASTM D6673 layout)", () => 
   const front: PanelShape = {
     id: "front",
     name: "Front bodice",
-    outline: [[0, 0], [310.125, 0], [300.3333333333333, 480.7], [225.1, 600.05], [95, 740], [0, 640.123456789]],
-    grainline: [[150, 100], [150, 600]],
+    outline: [
+      [0, 0],
+      [310.125, 0],
+      [300.3333333333333, 480.7],
+      [225.1, 600.05],
+      [95, 740],
+      [0, 640.123456789],
+    ],
+    grainline: [
+      [150, 100],
+      [150, 600],
+    ],
     notches: [
       { point: [155.0625, 0], edge: 0 },
       { point: [0, 320.0617283945], edge: 5 },
@@ -254,8 +347,16 @@ describe("export → import returns the same pieces (ASTM D6673 layout)", () => 
     id: "sleeve",
     name: "Ärmel – top sleeve №2",
     // Clockwise, far from the origin, with coordinates that need all their digits.
-    outline: [[1000.000001, 2000], [1190.5, 2650.25], [1370.75, 2470.1], [1300, 2000.000002]],
-    grainline: [[1190, 2100], [1190, 2500]],
+    outline: [
+      [1000.000001, 2000],
+      [1190.5, 2650.25],
+      [1370.75, 2470.1],
+      [1300, 2000.000002],
+    ],
+    grainline: [
+      [1190, 2100],
+      [1190, 2500],
+    ],
     notches: [],
     seamAllowanceMm: 10,
     cutCount: 1,
@@ -265,7 +366,12 @@ describe("export → import returns the same pieces (ASTM D6673 layout)", () => 
     id: "cuff",
     // A name that reads like the older "CUT n" text stays a name.
     name: "CUT 4",
-    outline: [[0, 3000], [260, 3000], [260, 3070], [0, 3070]],
+    outline: [
+      [0, 3000],
+      [260, 3000],
+      [260, 3070],
+      [0, 3070],
+    ],
     grainline: null,
     notches: [{ point: [130, 3070], edge: 2 }],
     seamAllowanceMm: 0,
@@ -295,7 +401,10 @@ describe("export → import returns the same pieces (ASTM D6673 layout)", () => 
       if (panels[i].grainline) expectSamePoints(p.grainline!, panels[i].grainline!);
       else expect(p.grainline).toBeNull();
       expect(p.notches!.map((n) => n.edge)).toEqual(panels[i].notches!.map((n) => n.edge));
-      expectSamePoints(p.notches!.map((n) => n.point), panels[i].notches!.map((n) => n.point));
+      expectSamePoints(
+        p.notches!.map((n) => n.point),
+        panels[i].notches!.map((n) => n.point),
+      );
     });
   });
 
@@ -326,19 +435,127 @@ describe("export → import returns the same pieces (ASTM D6673 layout)", () => 
 describe("files in the older one-layer-per-piece layout and from elsewhere", () => {
   // A hand-written DXF in inches ($INSUNITS 1): 1 in = 25.4 mm exactly (NIST SP 811, B.8).
   const inchFile = [
-    "0", "SECTION", "2", "HEADER", "9", "$INSUNITS", "70", "1", "0", "ENDSEC",
-    "0", "SECTION", "2", "ENTITIES",
-    "0", "LWPOLYLINE", "8", "POCKET", "90", "4", "70", "1",
-    "10", "0", "20", "0", "10", "6", "20", "0", "10", "6", "20", "7", "10", "0", "20", "7",
-    "0", "TEXT", "8", "POCKET", "10", "1", "20", "3", "40", "0.4", "1", "Patch pocket",
-    "0", "TEXT", "8", "POCKET", "10", "1", "20", "2", "40", "0.4", "1", "CUT 2 MIRRORED",
-    "0", "LINE", "8", "POCKET", "10", "3", "20", "1", "30", "0", "11", "3", "21", "6", "31", "0",
-    "0", "POLYLINE", "8", "STRAY", "66", "1", "70", "0",
-    "0", "VERTEX", "8", "STRAY", "10", "20", "20", "20",
-    "0", "VERTEX", "8", "STRAY", "10", "30", "20", "20",
-    "0", "SEQEND",
-    "0", "TEXT", "8", "0", "10", "50", "20", "50", "40", "0.4", "1", "Title block",
-    "0", "ENDSEC", "0", "EOF", "",
+    "0",
+    "SECTION",
+    "2",
+    "HEADER",
+    "9",
+    "$INSUNITS",
+    "70",
+    "1",
+    "0",
+    "ENDSEC",
+    "0",
+    "SECTION",
+    "2",
+    "ENTITIES",
+    "0",
+    "LWPOLYLINE",
+    "8",
+    "POCKET",
+    "90",
+    "4",
+    "70",
+    "1",
+    "10",
+    "0",
+    "20",
+    "0",
+    "10",
+    "6",
+    "20",
+    "0",
+    "10",
+    "6",
+    "20",
+    "7",
+    "10",
+    "0",
+    "20",
+    "7",
+    "0",
+    "TEXT",
+    "8",
+    "POCKET",
+    "10",
+    "1",
+    "20",
+    "3",
+    "40",
+    "0.4",
+    "1",
+    "Patch pocket",
+    "0",
+    "TEXT",
+    "8",
+    "POCKET",
+    "10",
+    "1",
+    "20",
+    "2",
+    "40",
+    "0.4",
+    "1",
+    "CUT 2 MIRRORED",
+    "0",
+    "LINE",
+    "8",
+    "POCKET",
+    "10",
+    "3",
+    "20",
+    "1",
+    "30",
+    "0",
+    "11",
+    "3",
+    "21",
+    "6",
+    "31",
+    "0",
+    "0",
+    "POLYLINE",
+    "8",
+    "STRAY",
+    "66",
+    "1",
+    "70",
+    "0",
+    "0",
+    "VERTEX",
+    "8",
+    "STRAY",
+    "10",
+    "20",
+    "20",
+    "20",
+    "0",
+    "VERTEX",
+    "8",
+    "STRAY",
+    "10",
+    "30",
+    "20",
+    "20",
+    "0",
+    "SEQEND",
+    "0",
+    "TEXT",
+    "8",
+    "0",
+    "10",
+    "50",
+    "20",
+    "50",
+    "40",
+    "0.4",
+    "1",
+    "Title block",
+    "0",
+    "ENDSEC",
+    "0",
+    "EOF",
+    "",
   ].join("\n");
 
   it("reads closed LWPOLYLINEs in inches, converts to mm and attaches the text and grainline inside", () => {
@@ -347,8 +564,16 @@ describe("files in the older one-layer-per-piece layout and from elsewhere", () 
     expect(r.convention).toBe("generic");
     expect(r.pieces).toHaveLength(1);
     expect(r.pieces[0]).toMatchObject({ name: "Patch pocket", cutCount: 2, mirrored: true });
-    expectSamePoints(r.pieces[0].outline, [[0, 0], [152.4, 0], [152.4, 177.8], [0, 177.8]]);
-    expectSamePoints(r.pieces[0].grainline!, [[76.2, 25.4], [76.2, 152.4]]);
+    expectSamePoints(r.pieces[0].outline, [
+      [0, 0],
+      [152.4, 0],
+      [152.4, 177.8],
+      [0, 177.8],
+    ]);
+    expectSamePoints(r.pieces[0].grainline!, [
+      [76.2, 25.4],
+      [76.2, 152.4],
+    ]);
     expect(r.ignored.map((g) => [g.entity, g.layer])).toEqual([
       ["TEXT", "0"],
       ["POLYLINE", "STRAY"],
@@ -357,25 +582,70 @@ describe("files in the older one-layer-per-piece layout and from elsewhere", () 
 
   it("a name with a colon stays a name; a block no INSERT places is named as left out", () => {
     const file = [
-      "0", "SECTION", "2", "BLOCKS",
-      "0", "BLOCK", "8", "0", "2", "SPARE", "70", "0", "10", "0", "20", "0", "30", "0",
+      "0",
+      "SECTION",
+      "2",
+      "BLOCKS",
+      "0",
+      "BLOCK",
+      "8",
+      "0",
+      "2",
+      "SPARE",
+      "70",
+      "0",
+      "10",
+      "0",
+      "20",
+      "0",
+      "30",
+      "0",
       ...square(0, 0, 100),
-      "0", "ENDBLK", "8", "0",
-      "0", "ENDSEC",
-      "0", "SECTION", "2", "ENTITIES",
+      "0",
+      "ENDBLK",
+      "8",
+      "0",
+      "0",
+      "ENDSEC",
+      "0",
+      "SECTION",
+      "2",
+      "ENTITIES",
       ...square(0, 0, 200),
-      "0", "TEXT", "8", "0", "10", "50", "20", "50", "40", "5", "1", "Sleeve: upper",
-      "0", "ENDSEC", "0", "EOF", "",
+      "0",
+      "TEXT",
+      "8",
+      "0",
+      "10",
+      "50",
+      "20",
+      "50",
+      "40",
+      "5",
+      "1",
+      "Sleeve: upper",
+      "0",
+      "ENDSEC",
+      "0",
+      "EOF",
+      "",
     ].join("\n");
 
     const r = readDxfPieces(file);
 
     expect(r.pieces.map((p) => p.name)).toEqual(["Sleeve: upper"]);
-    expect(r.ignored).toContainEqual(expect.objectContaining({ entity: "BLOCK", reason: expect.stringMatching(/block "SPARE" is defined but no INSERT places it/) }));
+    expect(r.ignored).toContainEqual(
+      expect.objectContaining({ entity: "BLOCK", reason: expect.stringMatching(/block "SPARE" is defined but no INSERT places it/) }),
+    );
   });
 
   it("gives nested text to the smallest piece that contains it", () => {
-    const file = dxfOf(square(0, 0, 1000, "OUTER"), square(100, 100, 200, "INNER"), ["0", "TEXT", "8", "0", "10", "150", "20", "150", "40", "5", "1", "Inner"], ["0", "TEXT", "8", "0", "10", "500", "20", "500", "40", "5", "1", "Outer"]);
+    const file = dxfOf(
+      square(0, 0, 1000, "OUTER"),
+      square(100, 100, 200, "INNER"),
+      ["0", "TEXT", "8", "0", "10", "150", "20", "150", "40", "5", "1", "Inner"],
+      ["0", "TEXT", "8", "0", "10", "500", "20", "500", "40", "5", "1", "Outer"],
+    );
 
     const r = readDxfPieces(file);
 

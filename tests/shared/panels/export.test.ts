@@ -39,7 +39,11 @@ const back: PanelShape = {
 // back edge 0 from (0,0) up to (0,402). Plus a notch-to-corner run on the front.
 const seams: SeamRef[] = [
   { id: "side", a: { panelId: "front", from: 1, to: 2 }, b: { panelId: "back", from: 0, to: 1 } },
-  { id: "hem-part", a: { panelId: "front", from: { edge: 0, t: 0.5 }, to: 1 }, b: { panelId: "back", from: 3, to: 0, direction: "forward" } },
+  {
+    id: "hem-part",
+    a: { panelId: "front", from: { edge: 0, t: 0.5 }, to: 1 },
+    b: { panelId: "back", from: 3, to: 0, direction: "forward" },
+  },
 ];
 
 interface ParsedObj {

@@ -105,7 +105,13 @@ describe("lengths", () => {
 
   // Worked by hand: 3-4-5 right triangle has edges 3, 4, 5 and perimeter 12.
   it("gives edge lengths 3, 4, 5 for a 3-4-5 triangle", () => {
-    expect(edgeLengths([[0, 0], [3, 0], [3, 4]])).toEqual([3, 4, 5]);
+    expect(
+      edgeLengths([
+        [0, 0],
+        [3, 0],
+        [3, 4],
+      ]),
+    ).toEqual([3, 4, 5]);
   });
 
   // Worked by hand on a 100 mm square (0,0),(100,0),(100,100),(0,100).
@@ -168,7 +174,13 @@ describe("lengths", () => {
 
 describe("transforms and bounding box", () => {
   it("rotates by 90° exactly and keeps the area", () => {
-    const r = rotatePoints([[10, 0], [20, 5]], 90);
+    const r = rotatePoints(
+      [
+        [10, 0],
+        [20, 5],
+      ],
+      90,
+    );
 
     expect(r).toEqual([
       [0, 10],
@@ -188,7 +200,13 @@ describe("transforms and bounding box", () => {
   });
 
   it("finds the bounding box", () => {
-    expect(boundingBox([[1, 5], [-2, 3], [4, -1]])).toEqual({ minX: -2, minY: -1, maxX: 4, maxY: 5, width: 6, height: 6 });
+    expect(
+      boundingBox([
+        [1, 5],
+        [-2, 3],
+        [4, -1],
+      ]),
+    ).toEqual({ minX: -2, minY: -1, maxX: 4, maxY: 5, width: 6, height: 6 });
   });
 });
 
@@ -196,23 +214,45 @@ describe("pointInPolygon", () => {
   // d3-polygon polygonContains is an independent even-odd point-in-polygon test (d3-polygon library).
   it("agrees with d3-polygon polygonContains away from the boundary", () => {
     fc.assert(
-      fc.property(starPolygon, fc.double({ min: -500, max: 500, noNaN: true }), fc.double({ min: -500, max: 500, noNaN: true }), (poly, x, y) => {
-        const ours = pointInPolygon([x, y], poly, 1e-6);
-        if (ours === "boundary") return;
-        expect(ours === "inside").toBe(polygonContains(toD3(poly), [x, y]));
-      }),
+      fc.property(
+        starPolygon,
+        fc.double({ min: -500, max: 500, noNaN: true }),
+        fc.double({ min: -500, max: 500, noNaN: true }),
+        (poly, x, y) => {
+          const ours = pointInPolygon([x, y], poly, 1e-6);
+          if (ours === "boundary") return;
+          expect(ours === "inside").toBe(polygonContains(toD3(poly), [x, y]));
+        },
+      ),
       { numRuns: 500 },
     );
   });
 
   it("reports points on an edge as boundary", () => {
-    expect(pointInPolygon([50, 0], [[0, 0], [100, 0], [100, 100], [0, 100]])).toBe("boundary");
+    expect(
+      pointInPolygon(
+        [50, 0],
+        [
+          [0, 0],
+          [100, 0],
+          [100, 100],
+          [0, 100],
+        ],
+      ),
+    ).toBe("boundary");
   });
 });
 
 describe("validatePolygon", () => {
   it("accepts a simple quadrilateral", () => {
-    expect(validatePolygon([[0, 0], [10, 0], [10, 10], [0, 10]])).toMatchObject({ valid: true, issues: [] });
+    expect(
+      validatePolygon([
+        [0, 0],
+        [10, 0],
+        [10, 10],
+        [0, 10],
+      ]),
+    ).toMatchObject({ valid: true, issues: [] });
   });
 
   it("reports which edges of a bow-tie cross, and where", () => {
@@ -229,20 +269,54 @@ describe("validatePolygon", () => {
   });
 
   it("rejects fewer than 3 points", () => {
-    expect(validatePolygon([[0, 0], [1, 1]]).issues[0].code).toBe("too_few_points");
+    expect(
+      validatePolygon([
+        [0, 0],
+        [1, 1],
+      ]).issues[0].code,
+    ).toBe("too_few_points");
   });
 
   it("rejects an open polyline and accepts one whose last point repeats the first", () => {
-    const open = validatePolygon([[0, 0], [10, 0], [10, 10]], { closed: false });
-    const closedByRepeat = validatePolygon([[0, 0], [10, 0], [10, 10], [0, 0]], { closed: false });
+    const open = validatePolygon(
+      [
+        [0, 0],
+        [10, 0],
+        [10, 10],
+      ],
+      { closed: false },
+    );
+    const closedByRepeat = validatePolygon(
+      [
+        [0, 0],
+        [10, 0],
+        [10, 10],
+        [0, 0],
+      ],
+      { closed: false },
+    );
 
     expect(open.issues.map((i) => i.code)).toContain("not_closed");
     expect(closedByRepeat.valid).toBe(true);
   });
 
   it("rejects repeated vertices and an edge folding back on its neighbour", () => {
-    expect(validatePolygon([[0, 0], [10, 0], [10, 0], [0, 10]]).issues.map((i) => i.code)).toContain("zero_length_edge");
-    expect(validatePolygon([[0, 0], [10, 0], [5, 0], [5, 5]]).crossings[0]).toMatchObject({ edgeA: 0, edgeB: 1 });
+    expect(
+      validatePolygon([
+        [0, 0],
+        [10, 0],
+        [10, 0],
+        [0, 10],
+      ]).issues.map((i) => i.code),
+    ).toContain("zero_length_edge");
+    expect(
+      validatePolygon([
+        [0, 0],
+        [10, 0],
+        [5, 0],
+        [5, 5],
+      ]).crossings[0],
+    ).toMatchObject({ edgeA: 0, edgeB: 1 });
   });
 
   it("accepts every star-shaped polygon (simple by construction)", () => {
@@ -257,11 +331,23 @@ describe("validatePolygon", () => {
 
 describe("insertOutlinePoints", () => {
   it("splits edges at the given positions without changing the area", () => {
-    const square: Point[] = [[0, 0], [100, 0], [100, 100], [0, 100]];
+    const square: Point[] = [
+      [0, 0],
+      [100, 0],
+      [100, 100],
+      [0, 100],
+    ];
 
     const r = insertOutlinePoints(square, [{ edge: 0, t: 0.5 }, 2, { edge: 0, t: 0.25 }]);
 
-    expect(r.outline).toEqual([[0, 0], [25, 0], [50, 0], [100, 0], [100, 100], [0, 100]]);
+    expect(r.outline).toEqual([
+      [0, 0],
+      [25, 0],
+      [50, 0],
+      [100, 0],
+      [100, 100],
+      [0, 100],
+    ]);
     expect(r.indices).toEqual([2, 4, 1]);
     expect(signedArea(r.outline)).toBe(10000);
   });

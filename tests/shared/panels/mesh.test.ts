@@ -2,7 +2,13 @@ import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { polygonArea as d3Area, polygonContains } from "d3-polygon";
 import { demoPanels, demoSeams } from "../../../seeds/doubles-patterns";
-import { meshPanelsForSimulation, meshToObj, type MeshPanelInput, type MeshSeamInput, type SimulationMeshes } from "@shared/domain/panels/mesh";
+import {
+  meshPanelsForSimulation,
+  meshToObj,
+  type MeshPanelInput,
+  type MeshSeamInput,
+  type SimulationMeshes,
+} from "@shared/domain/panels/mesh";
 import { pointSegmentDistance, runLength, runPoints, type Point, type Polygon, type RunEnd } from "@shared/domain/panels/geometry";
 
 type XY = [number, number];
@@ -13,7 +19,8 @@ function smallestAngle(a: Point, b: Point, c: Point): number {
   const ab = Math.hypot(b[0] - a[0], b[1] - a[1]);
   const bc = Math.hypot(c[0] - b[0], c[1] - b[1]);
   const ca = Math.hypot(a[0] - c[0], a[1] - c[1]);
-  const at = (opp: number, s1: number, s2: number) => (Math.acos(Math.max(-1, Math.min(1, (s1 * s1 + s2 * s2 - opp * opp) / (2 * s1 * s2)))) * 180) / Math.PI;
+  const at = (opp: number, s1: number, s2: number) =>
+    (Math.acos(Math.max(-1, Math.min(1, (s1 * s1 + s2 * s2 - opp * opp) / (2 * s1 * s2)))) * 180) / Math.PI;
   return Math.min(at(bc, ab, ca), at(ca, ab, bc), at(ab, bc, ca));
 }
 
@@ -134,7 +141,10 @@ describe("simulation meshes of the demo change", () => {
     // Consecutive stitches on the longer sleeve side are further apart than on the armhole side.
     const gap = (panelId: string, idx: number[]) => {
       const v = r.meshes.find((m) => m.panelId === panelId)!.vertices;
-      return idx.slice(1).map((i, k) => Math.hypot(v[i][0] - v[idx[k]][0], v[i][1] - v[idx[k]][1])).reduce((s, x) => s + x, 0);
+      return idx
+        .slice(1)
+        .map((i, k) => Math.hypot(v[i][0] - v[idx[k]][0], v[i][1] - v[idx[k]][1]))
+        .reduce((s, x) => s + x, 0);
     };
     expect(gap("jacket:sleeve", st.a.indices)).toBeGreaterThan(gap("jacket:front", st.b.indices));
   });
@@ -163,10 +173,20 @@ describe("mesher inputs", () => {
   it("skips a seam whose run overlaps another seam, with the reason", () => {
     const seams: MeshSeamInput[] = [
       { id: "first", a: { panelId: "p", from: 0, to: 1, direction: "forward" }, b: { panelId: "q", from: 0, to: 1, direction: "forward" } },
-      { id: "second", a: { panelId: "p", from: { edge: 0, t: 0.5 }, to: 2, direction: "forward" }, b: { panelId: "q", from: 2, to: 3, direction: "forward" } },
+      {
+        id: "second",
+        a: { panelId: "p", from: { edge: 0, t: 0.5 }, to: 2, direction: "forward" },
+        b: { panelId: "q", from: 2, to: 3, direction: "forward" },
+      },
     ];
 
-    const r = meshPanelsForSimulation([{ id: "p", outline: square }, { id: "q", outline: square }], seams);
+    const r = meshPanelsForSimulation(
+      [
+        { id: "p", outline: square },
+        { id: "q", outline: square },
+      ],
+      seams,
+    );
 
     expect(r.stitches.map((s) => s.seamId)).toEqual(["first"]);
     expect(r.skipped).toEqual([{ seamId: "second", reason: "its run overlaps seam first" }]);
@@ -175,8 +195,13 @@ describe("mesher inputs", () => {
   it("stitches runs that start and end at notches (edge positions)", () => {
     const from: RunEnd = { edge: 0, t: 0.25 };
     const to: RunEnd = { edge: 1, t: 0.5 };
-    const seams: MeshSeamInput[] = [{ id: "s", a: { panelId: "p", from, to, direction: "forward" }, b: { panelId: "q", from: 3, to: 1, direction: "backward" } }];
-    const panels = [{ id: "p", outline: square }, { id: "q", outline: square }];
+    const seams: MeshSeamInput[] = [
+      { id: "s", a: { panelId: "p", from, to, direction: "forward" }, b: { panelId: "q", from: 3, to: 1, direction: "backward" } },
+    ];
+    const panels = [
+      { id: "p", outline: square },
+      { id: "q", outline: square },
+    ];
 
     const r = meshPanelsForSimulation(panels, seams);
 
@@ -188,8 +213,14 @@ describe("mesher inputs", () => {
     const m = r.meshes[0];
 
     const obj = meshToObj(m, "Test square");
-    const v = obj.split("\n").filter((l) => l.startsWith("v ")).map((l) => l.split(" ").slice(1).map(Number));
-    const vt = obj.split("\n").filter((l) => l.startsWith("vt ")).map((l) => l.split(" ").slice(1).map(Number));
+    const v = obj
+      .split("\n")
+      .filter((l) => l.startsWith("v "))
+      .map((l) => l.split(" ").slice(1).map(Number));
+    const vt = obj
+      .split("\n")
+      .filter((l) => l.startsWith("vt "))
+      .map((l) => l.split(" ").slice(1).map(Number));
     const f = obj.split("\n").filter((l) => l.startsWith("f "));
 
     expect(v).toHaveLength(m.vertices.length);
@@ -208,7 +239,15 @@ describe("mesher properties", () => {
   /** A star-shaped outline with no corner sharper than the mesher can keep at 20°. */
   const starOutline = fc
     .array(fc.integer({ min: 110, max: 250 }), { minLength: 5, maxLength: 14 })
-    .map((radii) => radii.map((r, i) => [Math.round(r * Math.cos((2 * Math.PI * i) / radii.length) * 100) / 100, Math.round(r * Math.sin((2 * Math.PI * i) / radii.length) * 100) / 100] as Point));
+    .map((radii) =>
+      radii.map(
+        (r, i) =>
+          [
+            Math.round(r * Math.cos((2 * Math.PI * i) / radii.length) * 100) / 100,
+            Math.round(r * Math.sin((2 * Math.PI * i) / radii.length) * 100) / 100,
+          ] as Point,
+      ),
+    );
 
   it("meets every check for random outlines joined by an eased seam", () => {
     fc.assert(
@@ -220,8 +259,17 @@ describe("mesher properties", () => {
           [stripLength, 60],
           [0, 60],
         ];
-        const panels = [{ id: "star", outline }, { id: "strip", outline: strip }];
-        const seams: MeshSeamInput[] = [{ id: "s", a: { panelId: "star", from: 0, to: 2, direction: "forward" }, b: { panelId: "strip", from: 0, to: 1, direction: "forward" } }];
+        const panels = [
+          { id: "star", outline },
+          { id: "strip", outline: strip },
+        ];
+        const seams: MeshSeamInput[] = [
+          {
+            id: "s",
+            a: { panelId: "star", from: 0, to: 2, direction: "forward" },
+            b: { panelId: "strip", from: 0, to: 1, direction: "forward" },
+          },
+        ];
 
         const r = meshPanelsForSimulation(panels, seams, { targetEdgeMm: h });
 

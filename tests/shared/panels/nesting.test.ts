@@ -76,12 +76,16 @@ function checkMarker(pieces: NestPiece[], result: NestResult, W: number) {
     expect(area(p.polygon)).toBeCloseTo(area(piece.outline), -1);
     // Match every vertex to its nearest counterpart both ways (sorting by x could pair up two vertices
     // that share an x coordinate in different orders after grid rounding).
-    const nearest = (q: readonly [number, number], pts: ReadonlyArray<readonly [number, number]>) => Math.min(...pts.map((r) => Math.max(Math.abs(q[0] - r[0]), Math.abs(q[1] - r[1]))));
+    const nearest = (q: readonly [number, number], pts: ReadonlyArray<readonly [number, number]>) =>
+      Math.min(...pts.map((r) => Math.max(Math.abs(q[0] - r[0]), Math.abs(q[1] - r[1]))));
     const worst = Math.max(...moved.map((q) => nearest(q, p.polygon)), ...p.polygon.map((q) => nearest(q, moved)));
     expect(worst).toBeLessThanOrEqual(0.006);
-    const g = piece.grainline ?? [[0, 0], [0, 1]];
+    const g = piece.grainline ?? [
+      [0, 0],
+      [0, 1],
+    ];
     const [g0, g1] = g.map((pt) => transform(pt, p.mirrored, p.rotationDeg, [0, 0]));
-    const angle = (((Math.atan2(g1[1] - g0[1], g1[0] - g0[0]) * 180) / Math.PI) % 360 + 360) % 360;
+    const angle = ((((Math.atan2(g1[1] - g0[1], g1[0] - g0[0]) * 180) / Math.PI) % 360) + 360) % 360;
     const allowed = (piece.grainMode ?? "straight") === "straight" ? [0, 180, 360] : [0, 90, 180, 270, 360];
     expect(Math.min(...allowed.map((a) => Math.abs(angle - a)))).toBeLessThan(1e-6);
     expect(p.mirrored).toBe(Boolean(piece.mirrored) && p.copy % 2 === 1);
@@ -176,7 +180,16 @@ describe("nestPieces on garment-like and random sets", () => {
     const pieces: NestPiece[] = [
       { id: "skirt", outline: trapezoid(600, 400, 700), cutCount: 2, mirrored: true },
       { id: "yoke", outline: lShape, cutCount: 2, mirrored: true },
-      { id: "bias", outline: rect(40, 500), cutCount: 2, grainMode: "bias", grainline: [[0, 0], [40, 40]] },
+      {
+        id: "bias",
+        outline: rect(40, 500),
+        cutCount: 2,
+        grainMode: "bias",
+        grainline: [
+          [0, 0],
+          [40, 40],
+        ],
+      },
       { id: "pocket", outline: trapezoid(180, 150, 200), cutCount: 3, grainMode: "free" },
     ];
     const progress: [number, number][] = [];
@@ -202,7 +215,16 @@ describe("nestPieces on garment-like and random sets", () => {
         const n = radii.length;
         const outline = radii.map((r, i): Point => [r * Math.cos((2 * Math.PI * i) / n), r * Math.sin((2 * Math.PI * i) / n)]);
         const a = (grainAngle * Math.PI) / 180;
-        return { outline, cutCount, mirrored, grainMode, grainline: [[0, 0], [Math.cos(a), Math.sin(a)]] as [Point, Point] };
+        return {
+          outline,
+          cutCount,
+          mirrored,
+          grainMode,
+          grainline: [
+            [0, 0],
+            [Math.cos(a), Math.sin(a)],
+          ] as [Point, Point],
+        };
       });
     fc.assert(
       fc.property(fc.array(pieceArb, { minLength: 2, maxLength: 6 }), fc.integer({ min: 700, max: 1500 }), (raw, W) => {
@@ -246,7 +268,10 @@ describe("nestPieces local search", () => {
     const pieces = benchPieces().slice(5, 12);
     const progress: number[] = [];
 
-    const a = nestPieces(pieces, { usableWidthMm: W, search: { seed: 3, maxEvaluations: 25, onProgress: (p) => progress.push(p.fraction) } });
+    const a = nestPieces(pieces, {
+      usableWidthMm: W,
+      search: { seed: 3, maxEvaluations: 25, onProgress: (p) => progress.push(p.fraction) },
+    });
     const b = nestPieces(pieces, { usableWidthMm: W, search: { seed: 3, maxEvaluations: 25 } });
 
     expect(b).toEqual(a);
@@ -259,7 +284,10 @@ describe("nestPieces local search", () => {
     const pieces = benchPieces().slice(5, 12);
     let layouts = 0;
 
-    nestPieces(pieces, { usableWidthMm: W, search: { seed: 1, timeBudgetMs: 100, now: () => (t += 10), onProgress: (p) => (layouts = p.evaluations) } });
+    nestPieces(pieces, {
+      usableWidthMm: W,
+      search: { seed: 1, timeBudgetMs: 100, now: () => (t += 10), onProgress: (p) => (layouts = p.evaluations) },
+    });
 
     // Each clock reading advances 10 ms: a 100 ms budget allows about ten readings.
     expect(layouts).toBeGreaterThan(1);
@@ -268,21 +296,34 @@ describe("nestPieces local search", () => {
 
   it("never overlaps on random polygon sets after searching", () => {
     const pieceArb = fc
-      .record({ radii: fc.array(fc.integer({ min: 40, max: 300 }), { minLength: 4, maxLength: 10 }), cutCount: fc.integer({ min: 1, max: 3 }), mirrored: fc.boolean(), grainMode: fc.constantFrom("straight" as const, "free" as const) })
+      .record({
+        radii: fc.array(fc.integer({ min: 40, max: 300 }), { minLength: 4, maxLength: 10 }),
+        cutCount: fc.integer({ min: 1, max: 3 }),
+        mirrored: fc.boolean(),
+        grainMode: fc.constantFrom("straight" as const, "free" as const),
+      })
       .map(({ radii, cutCount, mirrored, grainMode }) => ({
-        outline: radii.map((r, i): Point => [r * Math.cos((2 * Math.PI * i) / radii.length), r * Math.sin((2 * Math.PI * i) / radii.length)]),
+        outline: radii.map((r, i): Point => [
+          r * Math.cos((2 * Math.PI * i) / radii.length),
+          r * Math.sin((2 * Math.PI * i) / radii.length),
+        ]),
         cutCount,
         mirrored,
         grainMode,
       }));
     fc.assert(
-      fc.property(fc.array(pieceArb, { minLength: 2, maxLength: 5 }), fc.integer({ min: 700, max: 1500 }), fc.integer({ min: 1, max: 1000 }), (raw, width, seed) => {
-        const pieces: NestPiece[] = raw.map((p, i) => ({ id: `p${i}`, ...p }));
+      fc.property(
+        fc.array(pieceArb, { minLength: 2, maxLength: 5 }),
+        fc.integer({ min: 700, max: 1500 }),
+        fc.integer({ min: 1, max: 1000 }),
+        (raw, width, seed) => {
+          const pieces: NestPiece[] = raw.map((p, i) => ({ id: `p${i}`, ...p }));
 
-        const result = nestPieces(pieces, { usableWidthMm: width, search: { seed, maxEvaluations: 8 } });
+          const result = nestPieces(pieces, { usableWidthMm: width, search: { seed, maxEvaluations: 8 } });
 
-        checkMarker(pieces, result, width);
-      }),
+          checkMarker(pieces, result, width);
+        },
+      ),
       { numRuns: 6 },
     );
   });

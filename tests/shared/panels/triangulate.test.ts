@@ -74,6 +74,11 @@ describe("interiorPoint", () => {
       [0, 300],
     ];
 
-    expect(polygonContains(u.map(([x, y]) => [x, y] as [number, number]), [...interiorPoint(u)] as [number, number])).toBe(true);
+    expect(
+      polygonContains(
+        u.map(([x, y]) => [x, y] as [number, number]),
+        [...interiorPoint(u)] as [number, number],
+      ),
+    ).toBe(true);
   });
 });

@@ -6,10 +6,32 @@ import { computeSnags } from "@shared/domain/snags/engine";
 import type { AppearanceRec, GarmentRec, ProductionSnapshot } from "@shared/domain/snags/types";
 
 function app(id: string, sceneId: string, characterId: string, changeId: string): AppearanceRec {
-  return { id, sceneId, characterId, changeId, distressStage: 0, wet: false, stunt: false, blood: false, vfxShot: false, changeHere: false };
+  return {
+    id,
+    sceneId,
+    characterId,
+    changeId,
+    distressStage: 0,
+    wet: false,
+    stunt: false,
+    blood: false,
+    vfxShot: false,
+    changeHere: false,
+  };
 }
 function garment(id: string, over: Partial<GarmentRec> = {}): GarmentRec {
-  return { id, tagCode: id.toUpperCase(), name: "Cloak", category: "coat", fitIntent: "loose", construction: "woven", finished: {}, source: "built", status: "in_stock", ...over };
+  return {
+    id,
+    tagCode: id.toUpperCase(),
+    name: "Cloak",
+    category: "coat",
+    fitIntent: "loose",
+    construction: "woven",
+    finished: {},
+    source: "built",
+    status: "in_stock",
+    ...over,
+  };
 }
 
 /** Two characters; scenes s1 (day d1, 2027-03-01), s2 (d1), s3 (d2, 2027-03-05). */
@@ -41,11 +63,13 @@ function snap(appearances: AppearanceRec[], garments: GarmentRec[], items: [stri
     continuityEntries: [],
   };
 }
-const of = (s: ProductionSnapshot, kind: string, today = "2027-02-01") =>
-  computeSnags(s, { today }).filter((x) => x.kind === kind);
+const of = (s: ProductionSnapshot, kind: string, today = "2027-02-01") => computeSnags(s, { today }).filter((x) => x.kind === kind);
 
 describe("double booking", () => {
-  const items: [string, string][] = [["x1", "cloak"], ["x2", "cloak"]];
+  const items: [string, string][] = [
+    ["x1", "cloak"],
+    ["x2", "cloak"],
+  ];
   it("one garment on two characters the same shoot day → blocking", () => {
     const snags = of(snap([app("a1", "s1", "c1", "x1"), app("a2", "s2", "c2", "x2")], [garment("cloak")], items), "booking");
     expect(snags.map((s) => [s.key, s.severity])).toEqual([["booking:cloak:d1", "blocking"]]);
@@ -64,7 +88,11 @@ describe("double booking", () => {
 
 describe("rentals", () => {
   it("due back before the last scene → warning with the days late (date-fns as the calendar oracle)", () => {
-    const s = snap([app("a1", "s1", "c1", "x1"), app("a3", "s3", "c1", "x1")], [garment("cloak", { source: "rented", rentalDueDate: "2027-03-02" })], [["x1", "cloak"]]);
+    const s = snap(
+      [app("a1", "s1", "c1", "x1"), app("a3", "s3", "c1", "x1")],
+      [garment("cloak", { source: "rented", rentalDueDate: "2027-03-02" })],
+      [["x1", "cloak"]],
+    );
     const [r] = of(s, "rental");
     expect(r.key).toBe("rental:cloak");
     expect(r.severity).toBe("warning");
@@ -76,7 +104,9 @@ describe("rentals", () => {
     expect(of(s, "rental")).toEqual([]);
   });
   it("daysBetween agrees with date-fns differenceInCalendarDays on random dates", () => {
-    const day = fc.date({ min: new Date("2000-01-01T00:00:00Z"), max: new Date("2100-12-31T00:00:00Z"), noInvalidDate: true }).map((d) => d.toISOString().slice(0, 10));
+    const day = fc
+      .date({ min: new Date("2000-01-01T00:00:00Z"), max: new Date("2100-12-31T00:00:00Z"), noInvalidDate: true })
+      .map((d) => d.toISOString().slice(0, 10));
     fc.assert(
       fc.property(day, day, (a, b) => {
         expect(daysBetween(a, b)).toBe(differenceInCalendarDays(parseISO(b), parseISO(a)));

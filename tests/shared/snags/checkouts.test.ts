@@ -5,8 +5,23 @@ import { daysBetween } from "@shared/domain/snags/bookings";
 import { computeSnags, finishSnag } from "@shared/domain/snags/engine";
 import type { CheckoutRec, ProductionSnapshot } from "@shared/domain/snags/types";
 
-const checkout: CheckoutRec = { id: "co1", garmentId: "g1", toName: "Ada Pell", dueBackOn: "2030-02-27", checkedOutOn: "2030-02-26", shootDayId: "d1", sceneId: "s1" };
-const facts = (today: string) => ({ checkout, tagCode: "KQ4-7M2", garmentName: "Oilskin", dayText: "shoot day Wed 27 Feb 2030", sceneNumber: "42A", today });
+const checkout: CheckoutRec = {
+  id: "co1",
+  garmentId: "g1",
+  toName: "Ada Pell",
+  dueBackOn: "2030-02-27",
+  checkedOutOn: "2030-02-26",
+  shootDayId: "d1",
+  sceneId: "s1",
+};
+const facts = (today: string) => ({
+  checkout,
+  tagCode: "KQ4-7M2",
+  garmentName: "Oilskin",
+  dayText: "shoot day Wed 27 Feb 2030",
+  sceneNumber: "42A",
+  today,
+});
 
 describe("out past due", () => {
   it("is past due only from the day after the due date (due today is not late)", () => {
@@ -23,12 +38,18 @@ describe("out past due", () => {
     // Weekdays written out as GNU date(1) gives them: 26 Feb 2030 is a Tuesday, 27 Feb a Wednesday, 2 Mar a Saturday.
     expect(s.title).toBe("KQ4-7M2 Oilskin is still with Ada Pell, due back Wed 27 Feb 2030");
     // 2030 is not a leap year: 27 Feb → 2 Mar is 3 days (Gregorian calendar; cross-checked with date-fns below).
-    expect(s.explanation).toContain("went out to Ada Pell on Tue 26 Feb 2030 for shoot day Wed 27 Feb 2030, scene 42A and was due back on Wed 27 Feb 2030; on Sat 2 Mar 2030 it is 3 days past due");
+    expect(s.explanation).toContain(
+      "went out to Ada Pell on Tue 26 Feb 2030 for shoot day Wed 27 Feb 2030, scene 42A and was due back on Wed 27 Feb 2030; on Sat 2 Mar 2030 it is 3 days past due",
+    );
     expect(s.subject).toEqual({ garmentId: "g1", sceneIds: ["s1"] });
   });
 
   it("days late agree with date-fns differenceInCalendarDays (a general-purpose date library) over a leap day", () => {
-    for (const [a, b] of [["2028-02-27", "2028-03-01"], ["2030-12-30", "2031-01-02"], ["2030-02-27", "2030-03-02"]] as const) {
+    for (const [a, b] of [
+      ["2028-02-27", "2028-03-01"],
+      ["2030-12-30", "2031-01-02"],
+      ["2030-02-27", "2030-03-02"],
+    ] as const) {
       expect(daysBetween(a, b)).toBe(differenceInCalendarDays(parseISO(b), parseISO(a)));
     }
   });
@@ -52,7 +73,19 @@ describe("out past due", () => {
       changes: [],
       changeItems: [],
       appearances: [],
-      garments: [{ id: "g1", tagCode: "KQ4-7M2", name: "Oilskin", category: "coat", fitIntent: "regular", construction: "woven", finished: {}, source: "built", status: "on_set" }],
+      garments: [
+        {
+          id: "g1",
+          tagCode: "KQ4-7M2",
+          name: "Oilskin",
+          category: "coat",
+          fitIntent: "regular",
+          construction: "woven",
+          finished: {},
+          source: "built",
+          status: "on_set",
+        },
+      ],
       multiplesGroups: [],
       continuityEntries: [],
       checkouts: [

@@ -7,10 +7,32 @@ import type { AppearanceRec, GarmentRec, ProductionSnapshot } from "@shared/doma
 // garment copy's distress stage never goes down in story order. Trade rules, no external source.
 
 function app(id: string, sceneId: string, changeId: string, over: Partial<AppearanceRec> = {}): AppearanceRec {
-  return { id, sceneId, characterId: "c1", changeId, distressStage: 0, wet: false, stunt: false, blood: false, vfxShot: false, changeHere: false, ...over };
+  return {
+    id,
+    sceneId,
+    characterId: "c1",
+    changeId,
+    distressStage: 0,
+    wet: false,
+    stunt: false,
+    blood: false,
+    vfxShot: false,
+    changeHere: false,
+    ...over,
+  };
 }
 function garment(id: string): GarmentRec {
-  return { id, tagCode: id.toUpperCase(), name: "Shirt", category: "shirt", fitIntent: "regular", construction: "woven", finished: {}, source: "built", status: "in_stock" };
+  return {
+    id,
+    tagCode: id.toUpperCase(),
+    name: "Shirt",
+    category: "shirt",
+    fitIntent: "regular",
+    construction: "woven",
+    finished: {},
+    source: "built",
+    status: "in_stock",
+  };
 }
 
 /** Scenes s1..s4: story days 1,1,1,2 in story order 1..4, shot on one day in reverse. */
@@ -64,13 +86,23 @@ describe("one change per story day", () => {
 
 describe("distress never goes down for one copy", () => {
   it("planned: same shirt at stage 2 then stage 1 later in the story → warning", () => {
-    const snags = cont(snap([app("a1", "s1", "ch1", { distressStage: 2 }), app("a4", "s4", "ch1", { distressStage: 1, changeHere: true })]));
+    const snags = cont(
+      snap([app("a1", "s1", "ch1", { distressStage: 2 }), app("a4", "s4", "ch1", { distressStage: 1, changeHere: true })]),
+    );
     expect(snags.map((s) => s.key)).toEqual(["continuity:distress:shirt:app:a1:app:a4"]);
     expect(snags[0].evidence).toMatchObject({ from: { stage: 2 }, to: { stage: 1 } });
   });
 
   it("rising or level distress is fine", () => {
-    expect(cont(snap([app("a1", "s1", "ch1", { distressStage: 1 }), app("a2", "s2", "ch1", { distressStage: 1 }), app("a3", "s3", "ch1", { distressStage: 3 })]))).toEqual([]);
+    expect(
+      cont(
+        snap([
+          app("a1", "s1", "ch1", { distressStage: 1 }),
+          app("a2", "s2", "ch1", { distressStage: 1 }),
+          app("a3", "s3", "ch1", { distressStage: 3 }),
+        ]),
+      ),
+    ).toEqual([]);
   });
 
   it("a continuity entry's recorded stage is used instead of the planned one", () => {

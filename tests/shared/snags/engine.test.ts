@@ -57,7 +57,8 @@ function randomSnapshot(sh: Shape): ProductionSnapshot {
           sceneIds: scenes.filter(() => r() < 0.45).map((s) => s.id),
         }))
       : [];
-  const performances = sh.kind === "stage" ? Array.from({ length: sh.days }, (_, d) => ({ id: `pf${d}`, date: date(d * 2), startsAt: "19:30" })) : [];
+  const performances =
+    sh.kind === "stage" ? Array.from({ length: sh.days }, (_, d) => ({ id: `pf${d}`, date: date(d * 2), startsAt: "19:30" })) : [];
   const performers = Array.from({ length: sh.chars + 2 }, (_, i) => ({
     id: `p${i}`,
     name: `P${i}`,
@@ -83,7 +84,9 @@ function randomSnapshot(sh: Shape): ProductionSnapshot {
     performerId: r() < 0.9 ? `p${i}` : null,
     doublePerformerIds: r() < 0.4 ? [`p${sh.chars + int(0, 1)}`] : [],
   }));
-  const changes = characters.flatMap((c) => Array.from({ length: int(1, 3) }, (_, k) => ({ id: `${c.id}x${k}`, characterId: c.id, number: k + 1 })));
+  const changes = characters.flatMap((c) =>
+    Array.from({ length: int(1, 3) }, (_, k) => ({ id: `${c.id}x${k}`, characterId: c.id, number: k + 1 })),
+  );
   const groups = Array.from({ length: sh.groups }, (_, i) => ({ id: `g${i}`, name: `Group ${i}`, garmentIds: [] as string[] }));
   const garments: GarmentRec[] = Array.from({ length: sh.garments }, (_, i) => {
     const category = pick(CATS);
@@ -235,7 +238,16 @@ describe("engine vs quadratic reference", () => {
       }),
       { numRuns: 300, seed: 42 },
     );
-    expect([...kinds].sort()).toEqual(["availability", "booking", "checkout_overdue", "continuity", "fit", "multiples", "quick_change", "rental"]);
+    expect([...kinds].sort()).toEqual([
+      "availability",
+      "booking",
+      "checkout_overdue",
+      "continuity",
+      "fit",
+      "multiples",
+      "quick_change",
+      "rental",
+    ]);
   });
 
   it("same result on the benchmark generator at 1/10 scale", () => {

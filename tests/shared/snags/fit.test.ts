@@ -79,10 +79,7 @@ describe("handbook ease values per point", () => {
   });
 
   it("skirt/trouser waistband: ½–¾ in = 12.7–19.05 mm for every intent (CWU ch. 16, waist for skirts/trousers)", () => {
-    const w = at(
-      checkFit(g({ category: "trousers", fitIntent: "loose", finished: { waist: 810 } }), { waist_girth: 800 }),
-      "waist",
-    );
+    const w = at(checkFit(g({ category: "trousers", fitIntent: "loose", finished: { waist: 810 } }), { waist_girth: 800 }), "waist");
     expect(w.status).toBe("tight");
     expect(w.by).toBeCloseTo(2.7, 9);
   });
@@ -118,9 +115,7 @@ describe("handbook ease values per point", () => {
     const jacket = g({ category: "jacket", finished: { chest: 1012 } });
     const p = at(checkFit(jacket, { chest_girth: 1000 }), "chest");
     expect(p.by).toBeCloseTo(26.1, 9);
-    expect(describePointFit(p, "fitted", "jacket")).toBe(
-      "Chest ease is 12 mm; a fitted jacket needs 38\u201351 mm: tight by 26 mm.",
-    );
+    expect(describePointFit(p, "fitted", "jacket")).toBe("Chest ease is 12 mm; a fitted jacket needs 38\u201351 mm: tight by 26 mm.");
   });
 });
 
@@ -164,7 +159,18 @@ describe("fit snags through computeSnags", () => {
     changes: [{ id: "ch1", characterId: "c1", number: 1 }],
     changeItems: [{ id: "i1", changeId: "ch1", garmentId: "g1", multiplesGroupId: null }],
     appearances: [
-      { id: "a1", sceneId: "s1", characterId: "c1", changeId: "ch1", distressStage: 0, wet: false, stunt, blood: false, vfxShot: false, changeHere: false },
+      {
+        id: "a1",
+        sceneId: "s1",
+        characterId: "c1",
+        changeId: "ch1",
+        distressStage: 0,
+        wet: false,
+        stunt,
+        blood: false,
+        vfxShot: false,
+        changeHere: false,
+      },
     ],
     garments: [g({ category: "jacket", finished })],
     multiplesGroups: [],

@@ -23,7 +23,15 @@ const away = (garmentId: string, status: "workroom" | "cleaning" = "workroom", n
     subject: { garmentId },
     evidence: { status, neededOn },
   } satisfies SnagDraft);
-const other = finishSnag({ key: "fit:g9:chest", kind: "fit", severity: "note", title: "t", explanation: "e", subject: { garmentId: "g9" }, evidence: {} });
+const other = finishSnag({
+  key: "fit:g9:chest",
+  kind: "fit",
+  severity: "note",
+  title: "t",
+  explanation: "e",
+  subject: { garmentId: "g9" },
+  evidence: {},
+});
 
 describe("snags with one cause show as one", () => {
   it("a late alteration and 'in the workroom on the day' of the same garment become one card with both facts", () => {

@@ -1,12 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { computeMultiplesPlans, computeSnags } from "@shared/domain/snags/engine";
-import {
-  assignCopies,
-  longestStrictlyDecreasing,
-  patienceCover,
-  type CopyDemand,
-} from "@shared/domain/snags/multiples";
+import { assignCopies, longestStrictlyDecreasing, patienceCover, type CopyDemand } from "@shared/domain/snags/multiples";
 import type { AppearanceRec, GarmentRec, ProductionSnapshot } from "@shared/domain/snags/types";
 
 // ---------- independent brute force ----------
@@ -87,8 +82,22 @@ describe("worked sequences (Dilworth 1950; patience sorting, each checked by exh
   // Aldous & Diaconis (1999), Bull. AMS 36(4): patience sorting piles = longest monotone run.
   const cases: [number[], number, number[][]][] = [
     [[3, 1, 2, 1, 3, 2], 3, [[3, 3], [1, 2, 2], [1]]],
-    [[0, 2, 1, 3, 1, 2], 2, [[0, 2, 3], [1, 1, 2]]],
-    [[2, 2, 1, 1], 2, [[2, 2], [1, 1]]],
+    [
+      [0, 2, 1, 3, 1, 2],
+      2,
+      [
+        [0, 2, 3],
+        [1, 1, 2],
+      ],
+    ],
+    [
+      [2, 2, 1, 1],
+      2,
+      [
+        [2, 2],
+        [1, 1],
+      ],
+    ],
     [[1, 3, 2, 2, 4, 3, 1, 4], 3, [[1, 3, 4, 4], [2, 2, 3], [1]]],
     [[1, 2, 3, 4], 1, [[1, 2, 3, 4]]],
     [[4, 3, 2, 1], 4, [[4], [3], [2], [1]]],

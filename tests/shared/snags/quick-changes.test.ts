@@ -6,7 +6,18 @@ import type { AppearanceRec, ProductionSnapshot } from "@shared/domain/snags/typ
 // exit and the entrance (product.md, Computations 6). Arithmetic only; no external source needed.
 
 function app(id: string, sceneId: string, changeId: string): AppearanceRec {
-  return { id, sceneId, characterId: "c1", changeId, distressStage: 0, wet: false, stunt: false, blood: false, vfxShot: false, changeHere: true };
+  return {
+    id,
+    sceneId,
+    characterId: "c1",
+    changeId,
+    distressStage: 0,
+    wet: false,
+    stunt: false,
+    blood: false,
+    vfxShot: false,
+    changeHere: true,
+  };
 }
 
 function stage(minutes: (number | null)[], apps: AppearanceRec[], kind: "stage" | "film" = "stage", threshold = 4): ProductionSnapshot {

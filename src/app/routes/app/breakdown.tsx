@@ -17,7 +17,6 @@ import { SnagsForDay } from "@/features/snags/components/snags-for-day";
 import { ApiError } from "@/lib/api-client";
 import { cn } from "@/utils/cn";
 import { scheduleLabels } from "@shared/domain/schedule-labels";
-import { formatClockTime, formatDate } from "@shared/format";
 import { onTabListKeyDown } from "@/components/ui/tabs";
 
 /** Breakdown screen: the scene table, shoot days (or running order and performances), import/export, scene pages. */
@@ -45,10 +44,22 @@ function BreakdownHome() {
   ] as const;
   return (
     <div className="grid gap-4">
-      <PageHeader title="Breakdown" subtitle={stage ? "The order of the show, running times and performances" : `Scenes, story days and ${scheduleLabels(production).days}`} />
-      <div role="tablist" aria-label="Breakdown views" onKeyDown={onTabListKeyDown} className="flex gap-1">
+      <PageHeader
+        title="Breakdown"
+        subtitle={
+          stage ? "The order of the show, running times and performances" : `Scenes, story days and ${scheduleLabels(production).days}`
+        }
+      />
+      <div role="tablist" aria-label="Breakdown views" tabIndex={-1} onKeyDown={onTabListKeyDown} className="flex gap-1">
         {tabs.map((t) => (
-          <button key={t.key} role="tab" type="button" aria-selected={tab === t.key} onClick={() => setTab(t.key)} className={cn("min-h-11 rounded-md px-3 text-sm font-semibold", tab === t.key ? "bg-ink text-chalk" : "bg-white text-ink")}>
+          <button
+            key={t.key}
+            role="tab"
+            type="button"
+            aria-selected={tab === t.key}
+            onClick={() => setTab(t.key)}
+            className={cn("min-h-11 rounded-md px-3 text-sm font-semibold", tab === t.key ? "bg-ink text-chalk" : "bg-white text-ink")}
+          >
             {t.label}
           </button>
         ))}
@@ -62,7 +73,13 @@ function BreakdownHome() {
           ) : scenes.data.length === 0 ? (
             <EmptyState title="No scenes yet">Add scenes one by one below or import a CSV file.</EmptyState>
           ) : (
-            <BreakdownTable scenes={scenes.data} shootDays={days.data ?? []} characters={characters.data ?? []} stage={stage} sceneHref={sceneHref} />
+            <BreakdownTable
+              scenes={scenes.data}
+              shootDays={days.data ?? []}
+              characters={characters.data ?? []}
+              stage={stage}
+              sceneHref={sceneHref}
+            />
           )}
           {can("breakdown.update") && <NewSceneForm productionId={productionId} stage={stage} />}
         </Card>
@@ -127,8 +144,23 @@ function NewSceneForm({ productionId, stage }: { productionId: string; stage: bo
         <option>EXT</option>
         <option>INT/EXT</option>
       </SelectField>
-      <InputField label="Story day" type="number" min={1} value={v.storyDay} onChange={(e) => setV({ ...v, storyDay: e.target.value })} error={fields.storyDay} />
-      <InputField label={stage ? "Minutes" : "Eighths"} type="number" min={0} step={stage ? 0.5 : 1} value={v.length} onChange={(e) => setV({ ...v, length: e.target.value })} error={fields.lengthEighths ?? fields.runningMinutes} />
+      <InputField
+        label="Story day"
+        type="number"
+        min={1}
+        value={v.storyDay}
+        onChange={(e) => setV({ ...v, storyDay: e.target.value })}
+        error={fields.storyDay}
+      />
+      <InputField
+        label={stage ? "Minutes" : "Eighths"}
+        type="number"
+        min={0}
+        step={stage ? 0.5 : 1}
+        value={v.length}
+        onChange={(e) => setV({ ...v, length: e.target.value })}
+        error={fields.lengthEighths ?? fields.runningMinutes}
+      />
       <div className="flex items-end">
         <Button type="submit" busy={create.isPending}>
           Add scene
@@ -164,7 +196,13 @@ function SceneRoute() {
       />
       {editing && can("breakdown.update") && (
         <Card>
-          <SceneForm key={scene.data.id} productionId={productionId} scene={scene.data} stage={production?.kind === "stage"} onDeleted={() => navigate(`/p/${productionId}/breakdown`)} />
+          <SceneForm
+            key={scene.data.id}
+            productionId={productionId}
+            scene={scene.data}
+            stage={production?.kind === "stage"}
+            onDeleted={() => navigate(`/p/${productionId}/breakdown`)}
+          />
         </Card>
       )}
       <Card>
@@ -179,7 +217,13 @@ function SceneRoute() {
         />
       </Card>
       <Card>
-        <OwnerPhotos productionId={productionId} ownerType="scene" ownerId={scene.data.id} canEdit={can("breakdown.update")} title="Scene reference photos" />
+        <OwnerPhotos
+          productionId={productionId}
+          ownerType="scene"
+          ownerId={scene.data.id}
+          canEdit={can("breakdown.update")}
+          title="Scene reference photos"
+        />
       </Card>
     </div>
   );

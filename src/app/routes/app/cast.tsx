@@ -8,7 +8,14 @@ import { InputField, SelectField, TextareaField } from "@/components/ui/field";
 import { Badge, ErrorAlert, Spinner } from "@/components/ui/feedback";
 import { OwnerPhotos } from "@/components/photos";
 import { ApiError } from "@/lib/api-client";
-import { useCharacterSchedule, useCharacters, useCreateCharacter, useCreatePerformer, usePerformers, useUpdatePerformer } from "@/features/breakdown/api/breakdown";
+import {
+  useCharacterSchedule,
+  useCharacters,
+  useCreateCharacter,
+  useCreatePerformer,
+  usePerformers,
+  useUpdatePerformer,
+} from "@/features/breakdown/api/breakdown";
 import { StateBadges } from "@/features/breakdown/components/scene-page";
 import type { CharacterSceneDto } from "@shared/schemas/cast";
 import { scheduleLabels } from "@shared/domain/schedule-labels";
@@ -52,15 +59,21 @@ function CastHome() {
               {characters.data.map((c) => (
                 <tr key={c.id} className="border-b border-chalk-100">
                   <td className="py-1.5 pr-2">
-                    <Link className="font-semibold text-ink underline-offset-2 hover:underline" to={`/p/${productionId}/cast/characters/${c.id}`}>
+                    <Link
+                      className="font-semibold text-ink underline-offset-2 hover:underline"
+                      to={`/p/${productionId}/cast/characters/${c.id}`}
+                    >
                       {c.name}
                     </Link>
                   </td>
-                  <td className="pr-2">{c.performer ? <Link to={`/p/${productionId}/cast/performers/${c.performer.id}`}>{c.performer.name}</Link> : "—"}</td>
+                  <td className="pr-2">
+                    {c.performer ? <Link to={`/p/${productionId}/cast/performers/${c.performer.id}`}>{c.performer.name}</Link> : "—"}
+                  </td>
                   <td>
                     {c.doubles.map((d) => (
                       <span key={d.id} className="mr-2">
-                        <Link to={`/p/${productionId}/cast/performers/${d.performer.id}`}>{d.performer.name}</Link> <Badge tone="note">{d.kind}</Badge>
+                        <Link to={`/p/${productionId}/cast/performers/${d.performer.id}`}>{d.performer.name}</Link>{" "}
+                        <Badge tone="note">{d.kind}</Badge>
                       </span>
                     ))}
                   </td>
@@ -81,10 +94,15 @@ function CastHome() {
           <ul className="grid gap-1 text-sm" aria-label="Performers">
             {performers.data.map((p) => (
               <li key={p.id}>
-                <Link className="font-semibold text-ink underline-offset-2 hover:underline" to={`/p/${productionId}/cast/performers/${p.id}`}>
+                <Link
+                  className="font-semibold text-ink underline-offset-2 hover:underline"
+                  to={`/p/${productionId}/cast/performers/${p.id}`}
+                >
                   {p.name}
                 </Link>{" "}
-                <span className="text-slate">{p.roles.map((r) => `${r.as === "performer" ? "" : `${r.as} for `}${r.characterName}`).join("; ")}</span>
+                <span className="text-slate">
+                  {p.roles.map((r) => `${r.as === "performer" ? "" : `${r.as} for `}${r.characterName}`).join("; ")}
+                </span>
               </li>
             ))}
           </ul>
@@ -102,13 +120,27 @@ function NewCharacterForm({ productionId }: { productionId: string }) {
   const [performerId, setPerformerId] = useState("");
   const fields = create.error instanceof ApiError ? create.error.fields : {};
   return (
-    <form className="mt-3 grid gap-2 border-t border-chalk-200 pt-3 sm:grid-cols-3" onSubmit={(e) => { e.preventDefault(); create.mutate({ name, performerId: performerId || null }, { onSuccess: () => setName("") }); }}>
+    <form
+      className="mt-3 grid gap-2 border-t border-chalk-200 pt-3 sm:grid-cols-3"
+      onSubmit={(e) => {
+        e.preventDefault();
+        create.mutate({ name, performerId: performerId || null }, { onSuccess: () => setName("") });
+      }}
+    >
       <InputField label="New character" value={name} onChange={(e) => setName(e.target.value)} error={fields.name} required />
       <SelectField label="Played by" value={performerId} onChange={(e) => setPerformerId(e.target.value)}>
         <option value="">—</option>
-        {performers.data?.map((p) => <option key={p.id} value={p.id}>{p.name}</option>)}
+        {performers.data?.map((p) => (
+          <option key={p.id} value={p.id}>
+            {p.name}
+          </option>
+        ))}
       </SelectField>
-      <div className="flex items-end"><Button type="submit" busy={create.isPending}>Add character</Button></div>
+      <div className="flex items-end">
+        <Button type="submit" busy={create.isPending}>
+          Add character
+        </Button>
+      </div>
     </form>
   );
 }
@@ -118,14 +150,32 @@ function NewPerformerForm({ productionId }: { productionId: string }) {
   const [name, setName] = useState("");
   const fields = create.error instanceof ApiError ? create.error.fields : {};
   return (
-    <form className="mt-3 flex flex-wrap items-end gap-2 border-t border-chalk-200 pt-3" onSubmit={(e) => { e.preventDefault(); create.mutate({ name }, { onSuccess: () => setName("") }); }}>
+    <form
+      className="mt-3 flex flex-wrap items-end gap-2 border-t border-chalk-200 pt-3"
+      onSubmit={(e) => {
+        e.preventDefault();
+        create.mutate({ name }, { onSuccess: () => setName("") });
+      }}
+    >
       <InputField label="New performer" value={name} onChange={(e) => setName(e.target.value)} error={fields.name} required />
-      <Button type="submit" busy={create.isPending}>Add performer</Button>
+      <Button type="submit" busy={create.isPending}>
+        Add performer
+      </Button>
     </form>
   );
 }
 
-function SceneList({ rows, productionId, showDay, label }: { rows: Array<CharacterSceneDto & { shootDay?: { dayNumber: number; date: string } }>; productionId: string; showDay?: boolean; label: string }) {
+function SceneList({
+  rows,
+  productionId,
+  showDay,
+  label,
+}: {
+  rows: Array<CharacterSceneDto & { shootDay?: { dayNumber: number; date: string } }>;
+  productionId: string;
+  showDay?: boolean;
+  label: string;
+}) {
   const { production } = useCurrentProduction();
   return (
     <table className="w-full text-left text-sm" aria-label={label}>
@@ -141,13 +191,21 @@ function SceneList({ rows, productionId, showDay, label }: { rows: Array<Charact
       <tbody>
         {rows.map((r, i) => (
           <tr key={`${r.appearanceId}-${i}`} className="border-b border-chalk-100">
-            {showDay && <td className="py-1 pr-2">{r.shootDay ? `${scheduleLabels(production).numbered(r.shootDay.dayNumber)} · ${formatDate(r.shootDay.date)}` : ""}</td>}
-            <td className="py-1 pr-2"><Link to={`/p/${productionId}/breakdown/scenes/${r.sceneId}`}>{r.sceneNumber}</Link></td>
+            {showDay && (
+              <td className="py-1 pr-2">
+                {r.shootDay ? `${scheduleLabels(production).numbered(r.shootDay.dayNumber)} · ${formatDate(r.shootDay.date)}` : ""}
+              </td>
+            )}
+            <td className="py-1 pr-2">
+              <Link to={`/p/${productionId}/breakdown/scenes/${r.sceneId}`}>{r.sceneNumber}</Link>
+            </td>
             <td className="pr-2">{r.storyDay ?? "—"}</td>
             <td className="pr-2">{r.change ? r.change.number : "—"}</td>
             <td>
               <StateBadges a={r} />
-              {r.minutesSincePreviousExit != null && <span className="ml-1 text-xs text-slate">{r.minutesSincePreviousExit} min since last exit</span>}
+              {r.minutesSincePreviousExit != null && (
+                <span className="ml-1 text-xs text-slate">{r.minutesSincePreviousExit} min since last exit</span>
+              )}
             </td>
           </tr>
         ))}
@@ -166,10 +224,23 @@ function CharacterRoute() {
   const stage = production?.kind === "stage";
   return (
     <div className="grid gap-4">
-      <PageHeader title={character.name} subtitle={<Link to={`/p/${productionId}/cast`}>← Cast</Link>} actions={<Link className="font-semibold text-ink underline" to={`/p/${productionId}/continuity/timeline/${character.id}`}>Continuity timeline</Link>} />
+      <PageHeader
+        title={character.name}
+        subtitle={<Link to={`/p/${productionId}/cast`}>← Cast</Link>}
+        actions={
+          <Link className="font-semibold text-ink underline" to={`/p/${productionId}/continuity/timeline/${character.id}`}>
+            Continuity timeline
+          </Link>
+        }
+      />
       <Card>
         <p className="text-sm">
-          Played by {character.performer ? <Link to={`/p/${productionId}/cast/performers/${character.performer.id}`}>{character.performer.name}</Link> : "—"}
+          Played by{" "}
+          {character.performer ? (
+            <Link to={`/p/${productionId}/cast/performers/${character.performer.id}`}>{character.performer.name}</Link>
+          ) : (
+            "—"
+          )}
           {character.doubles.map((d) => ` · ${d.kind}: ${d.performer.name}`)}
         </p>
         {character.notes && <p className="mt-1 text-sm text-slate">{character.notes}</p>}
@@ -185,7 +256,13 @@ function CharacterRoute() {
         </Card>
       )}
       <Card>
-        <OwnerPhotos productionId={productionId} ownerType="character" ownerId={character.id} canEdit={can("cast.update")} title="Character reference photos" />
+        <OwnerPhotos
+          productionId={productionId}
+          ownerType="character"
+          ownerId={character.id}
+          canEdit={can("cast.update")}
+          title="Character reference photos"
+        />
       </Card>
     </div>
   );
@@ -210,17 +287,42 @@ function PerformerRoute() {
           onSubmit={(e) => {
             e.preventDefault();
             const f = new FormData(e.currentTarget);
-            update.mutate({ name: String(f.get("name")), email: String(f.get("email") ?? "") || null, phone: String(f.get("phone") ?? "") || null, agentContact: String(f.get("agentContact") ?? "") || null, notes: String(f.get("notes") ?? "") || null });
+            update.mutate({
+              name: String(f.get("name")),
+              email: String(f.get("email") ?? "") || null,
+              phone: String(f.get("phone") ?? "") || null,
+              agentContact: String(f.get("agentContact") ?? "") || null,
+              notes: String(f.get("notes") ?? "") || null,
+            });
           }}
         >
           <InputField label="Name" name="name" defaultValue={p.name} error={fields.name} disabled={!editable} required />
           <InputField label="E-mail" name="email" type="email" defaultValue={p.email ?? ""} error={fields.email} disabled={!editable} />
           <InputField label="Phone" name="phone" defaultValue={p.phone ?? ""} error={fields.phone} disabled={!editable} />
-          <InputField label="Agent / contact" name="agentContact" defaultValue={p.agentContact ?? ""} error={fields.agentContact} disabled={!editable} />
+          <InputField
+            label="Agent / contact"
+            name="agentContact"
+            defaultValue={p.agentContact ?? ""}
+            error={fields.agentContact}
+            disabled={!editable}
+          />
           <TextareaField label="Notes" name="notes" defaultValue={p.notes ?? ""} className="sm:col-span-2" disabled={!editable} />
-          {editable && <div><Button type="submit" busy={update.isPending}>Save</Button>{update.isSuccess && <span role="status" className="ml-2 text-sm">Saved.</span>}</div>}
+          {editable && (
+            <div>
+              <Button type="submit" busy={update.isPending}>
+                Save
+              </Button>
+              {update.isSuccess && (
+                <span role="status" className="ml-2 text-sm">
+                  Saved.
+                </span>
+              )}
+            </div>
+          )}
         </form>
-        <p className="mt-3 text-sm">Plays: {p.roles.map((r) => `${r.characterName}${r.as === "performer" ? "" : ` (${r.as})`}`).join(", ") || "—"}</p>
+        <p className="mt-3 text-sm">
+          Plays: {p.roles.map((r) => `${r.characterName}${r.as === "performer" ? "" : ` (${r.as})`}`).join(", ") || "—"}
+        </p>
       </Card>
       <Card>
         <h2 className="font-semibold text-ink">Measurements</h2>
@@ -234,7 +336,13 @@ function PerformerRoute() {
       </Card>
       {can("measurement.read") && (
         <Card>
-          <OwnerPhotos productionId={productionId} ownerType="performer" ownerId={p.id} canEdit={can("measurement.update")} title="Fitting reference photos (personal data)" />
+          <OwnerPhotos
+            productionId={productionId}
+            ownerType="performer"
+            ownerId={p.id}
+            canEdit={can("measurement.update")}
+            title="Fitting reference photos (personal data)"
+          />
         </Card>
       )}
     </div>

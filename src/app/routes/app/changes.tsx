@@ -52,7 +52,17 @@ export default function ChangesScreen() {
   );
 }
 
-function ChangeCard({ productionId, change, canEdit, canApprove }: { productionId: string; change: ChangeDto; canEdit: boolean; canApprove: boolean }) {
+function ChangeCard({
+  productionId,
+  change,
+  canEdit,
+  canApprove,
+}: {
+  productionId: string;
+  change: ChangeDto;
+  canEdit: boolean;
+  canApprove: boolean;
+}) {
   const approve = useSetApproval(productionId);
   const update = useUpdateChange(productionId);
   const [label, setLabel] = useState("");
@@ -65,11 +75,23 @@ function ChangeCard({ productionId, change, canEdit, canApprove }: { productionI
           {change.characterName} · change {change.number}
         </h2>
         <Badge tone={approvalTone[change.approval]}>{change.approval}</Badge>
-        {change.storyDayFrom != null && <span className="text-sm text-slate">story days {change.storyDayFrom}–{change.storyDayTo ?? "…"}</span>}
+        {change.storyDayFrom != null && (
+          <span className="text-sm text-slate">
+            story days {change.storyDayFrom}–{change.storyDayTo ?? "…"}
+          </span>
+        )}
         {canApprove && (
           <span className="ml-auto flex gap-1">
-            {change.approval !== "proposed" && <Button size="sm" variant="secondary" onClick={() => approve.mutate({ id: change.id, approval: "proposed" })}>Propose</Button>}
-            {change.approval !== "approved" && <Button size="sm" onClick={() => approve.mutate({ id: change.id, approval: "approved" })}>Approve</Button>}
+            {change.approval !== "proposed" && (
+              <Button size="sm" variant="secondary" onClick={() => approve.mutate({ id: change.id, approval: "proposed" })}>
+                Propose
+              </Button>
+            )}
+            {change.approval !== "approved" && (
+              <Button size="sm" onClick={() => approve.mutate({ id: change.id, approval: "approved" })}>
+                Approve
+              </Button>
+            )}
           </span>
         )}
       </div>
@@ -83,7 +105,12 @@ function ChangeCard({ productionId, change, canEdit, canApprove }: { productionI
               {i.garmentId && <Badge>garment linked</Badge>}
               {i.multiplesGroupId && <Badge tone="note">multiples group</Badge>}
               {canEdit && (
-                <button type="button" className="min-h-8 text-xs text-madder underline" onClick={() => setRemoving(n)} aria-label={`Remove ${i.label} from change ${change.number}`}>
+                <button
+                  type="button"
+                  className="min-h-8 text-xs text-madder underline"
+                  onClick={() => setRemoving(n)}
+                  aria-label={`Remove ${i.label} from change ${change.number}`}
+                >
                   remove
                 </button>
               )}
@@ -97,28 +124,54 @@ function ChangeCard({ productionId, change, canEdit, canApprove }: { productionI
           danger
           busy={update.isPending}
           onCancel={() => setRemoving(null)}
-          onConfirm={() => removing !== null && update.mutate({ id: change.id, input: { items: items.filter((_, k) => k !== removing) } }, { onSettled: () => setRemoving(null) })}
+          onConfirm={() =>
+            removing !== null &&
+            update.mutate(
+              { id: change.id, input: { items: items.filter((_, k) => k !== removing) } },
+              { onSettled: () => setRemoving(null) },
+            )
+          }
         >
           {removing !== null && change.items[removing]?.garmentId ? "Its link to the garment goes too (the garment stays in stock). " : ""}
           {change.approval === "approved" ? "Editing an approved change sends it back to draft." : ""}
         </ConfirmDialog>
         {canEdit && (
-          <form className="mt-1 flex gap-2" onSubmit={(e) => { e.preventDefault(); if (label.trim()) update.mutate({ id: change.id, input: { items: [...items, { label: label.trim(), garmentId: null, multiplesGroupId: null }] } }, { onSuccess: () => setLabel("") }); }}>
-            <input className={`${controlClass} max-w-60 py-1`} placeholder="Add item (e.g. waistcoat)" aria-label={`New item for change ${change.number}`} value={label} onChange={(e) => setLabel(e.target.value)} />
-            <Button size="sm" type="submit" busy={update.isPending}>Add</Button>
+          <form
+            className="mt-1 flex gap-2"
+            onSubmit={(e) => {
+              e.preventDefault();
+              if (label.trim())
+                update.mutate(
+                  { id: change.id, input: { items: [...items, { label: label.trim(), garmentId: null, multiplesGroupId: null }] } },
+                  { onSuccess: () => setLabel("") },
+                );
+            }}
+          >
+            <input
+              className={`${controlClass} max-w-60 py-1`}
+              placeholder="Add item (e.g. waistcoat)"
+              aria-label={`New item for change ${change.number}`}
+              value={label}
+              onChange={(e) => setLabel(e.target.value)}
+            />
+            <Button size="sm" type="submit" busy={update.isPending}>
+              Add
+            </Button>
           </form>
         )}
         {update.error && <ErrorAlert error={update.error} title="Not saved" />}
       </div>
       <p className="text-sm">
         <span className="font-semibold text-ink">Scenes: </span>
-        {change.scenes.length ? change.scenes.map((s, i) => (
-          <span key={s.sceneId}>
-            {i > 0 && ", "}
-            <Link to={`/p/${productionId}/breakdown/scenes/${s.sceneId}`}>{s.number}</Link>
-            {s.distressStage > 0 ? ` (d${s.distressStage})` : ""}
-          </span>
-        )) : "not used yet"}
+        {change.scenes.length
+          ? change.scenes.map((s, i) => (
+              <span key={s.sceneId}>
+                {i > 0 && ", "}
+                <Link to={`/p/${productionId}/breakdown/scenes/${s.sceneId}`}>{s.number}</Link>
+                {s.distressStage > 0 ? ` (d${s.distressStage})` : ""}
+              </span>
+            ))
+          : "not used yet"}
       </p>
     </Card>
   );
@@ -130,11 +183,48 @@ function NewChangeForm({ productionId, characterId }: { productionId: string; ch
   const fields = create.error instanceof ApiError ? create.error.fields : {};
   return (
     <Card>
-      <form className="grid gap-2 sm:grid-cols-4" onSubmit={(e) => { e.preventDefault(); create.mutate({ characterId, description: v.description || null, storyDayFrom: v.from ? Number(v.from) : null, storyDayTo: v.to ? Number(v.to) : null }, { onSuccess: () => setV({ description: "", from: "", to: "" }) }); }}>
-        <InputField label="New change: description" value={v.description} onChange={(e) => setV({ ...v, description: e.target.value })} error={fields.description} />
-        <InputField label="From story day" type="number" min={1} value={v.from} onChange={(e) => setV({ ...v, from: e.target.value })} error={fields.storyDayFrom} />
-        <InputField label="To story day" type="number" min={1} value={v.to} onChange={(e) => setV({ ...v, to: e.target.value })} error={fields.storyDayTo} />
-        <div className="flex items-end"><Button type="submit" busy={create.isPending}>Add change</Button></div>
+      <form
+        className="grid gap-2 sm:grid-cols-4"
+        onSubmit={(e) => {
+          e.preventDefault();
+          create.mutate(
+            {
+              characterId,
+              description: v.description || null,
+              storyDayFrom: v.from ? Number(v.from) : null,
+              storyDayTo: v.to ? Number(v.to) : null,
+            },
+            { onSuccess: () => setV({ description: "", from: "", to: "" }) },
+          );
+        }}
+      >
+        <InputField
+          label="New change: description"
+          value={v.description}
+          onChange={(e) => setV({ ...v, description: e.target.value })}
+          error={fields.description}
+        />
+        <InputField
+          label="From story day"
+          type="number"
+          min={1}
+          value={v.from}
+          onChange={(e) => setV({ ...v, from: e.target.value })}
+          error={fields.storyDayFrom}
+        />
+        <InputField
+          label="To story day"
+          type="number"
+          min={1}
+          value={v.to}
+          onChange={(e) => setV({ ...v, to: e.target.value })}
+          error={fields.storyDayTo}
+        />
+        <div className="flex items-end">
+          <Button type="submit" busy={create.isPending}>
+            Add change
+          </Button>
+        </div>
       </form>
     </Card>
   );

@@ -44,17 +44,19 @@ function ContinuityHome() {
   const [characterId, setCharacterId] = useState("");
   const words = scheduleLabels(production);
 
-  // Default to today's shoot day, else the next one, else the last.
-  useEffect(() => {
-    if (dayId || !days.data?.length || !today) return;
+  // Default to today's shoot day, else the next one, else the last (chosen while rendering, once the days are in).
+  if (!dayId && days.data?.length && today) {
     const pick = days.data.find((d) => d.date === today) ?? days.data.find((d) => d.date > today) ?? days.data[days.data.length - 1]!;
     setDayId(pick.id);
-  }, [days.data, dayId, today]);
+  }
   const day = days.data?.find((d) => d.id === dayId);
 
   return (
     <div className="grid gap-4">
-      <PageHeader title="Continuity" subtitle={can("continuity.log") ? "Log what was worn, with photos, in a few taps" : "What was worn, scene by scene"} />
+      <PageHeader
+        title="Continuity"
+        subtitle={can("continuity.log") ? "Log what was worn, with photos, in a few taps" : "What was worn, scene by scene"}
+      />
       {can("continuity.log") && (
         <Card className="grid gap-4">
           {me.data && production && <OfflineStamp userId={me.data.id} productionId={productionId} timeZone={production.timeZone} />}
@@ -63,7 +65,15 @@ function ContinuityHome() {
           ) : !days.data?.length ? (
             <EmptyState title={words.none} />
           ) : (
-            <SelectField label={words.Day} value={dayId} onChange={(e) => { setDayId(e.target.value); setSceneId(""); setCharacterId(""); }}>
+            <SelectField
+              label={words.Day}
+              value={dayId}
+              onChange={(e) => {
+                setDayId(e.target.value);
+                setSceneId("");
+                setCharacterId("");
+              }}
+            >
               {days.data.map((d) => (
                 <option key={d.id} value={d.id}>
                   {d.date === today ? "Today · " : ""}
@@ -78,7 +88,19 @@ function ContinuityHome() {
               <legend className="mb-1 text-sm font-semibold text-ink-900">Scene</legend>
               <div className="grid grid-cols-3 gap-2 sm:grid-cols-6">
                 {day.scenes.map((s) => (
-                  <button key={s.id} type="button" aria-pressed={sceneId === s.id} onClick={() => { setSceneId(s.id); setCharacterId(""); }} className={cn("min-h-12 rounded-md border px-2 text-base font-semibold", sceneId === s.id ? "border-ink bg-ink text-chalk" : "border-ink-100 bg-white text-ink")}>
+                  <button
+                    key={s.id}
+                    type="button"
+                    aria-pressed={sceneId === s.id}
+                    onClick={() => {
+                      setSceneId(s.id);
+                      setCharacterId("");
+                    }}
+                    className={cn(
+                      "min-h-12 rounded-md border px-2 text-base font-semibold",
+                      sceneId === s.id ? "border-ink bg-ink text-chalk" : "border-ink-100 bg-white text-ink",
+                    )}
+                  >
                     Sc {s.number}
                   </button>
                 ))}
@@ -86,7 +108,17 @@ function ContinuityHome() {
             </fieldset>
           )}
           {sceneId && <CharacterPicker productionId={productionId} sceneId={sceneId} characterId={characterId} onPick={setCharacterId} />}
-          {sceneId && characterId && <CaptureForm key={`${sceneId}:${characterId}`} productionId={productionId} shootDayId={dayId} sceneId={sceneId} characterId={characterId} label={`Scene ${day?.scenes.find((s) => s.id === sceneId)?.number ?? "?"} · ${characters.data?.find((c) => c.id === characterId)?.name ?? "character"}`} onDone={() => setCharacterId("")} />}
+          {sceneId && characterId && (
+            <CaptureForm
+              key={`${sceneId}:${characterId}`}
+              productionId={productionId}
+              shootDayId={dayId}
+              sceneId={sceneId}
+              characterId={characterId}
+              label={`Scene ${day?.scenes.find((s) => s.id === sceneId)?.number ?? "?"} · ${characters.data?.find((c) => c.id === characterId)?.name ?? "character"}`}
+              onDone={() => setCharacterId("")}
+            />
+          )}
         </Card>
       )}
       <Card>
@@ -94,7 +126,10 @@ function ContinuityHome() {
         <ul className="grid grid-cols-1 gap-1 sm:grid-cols-2">
           {characters.data?.map((c) => (
             <li key={c.id}>
-              <Link className="block min-h-11 rounded px-2 py-2 font-semibold text-ink hover:bg-ink-50" to={`/p/${productionId}/continuity/timeline/${c.id}`}>
+              <Link
+                className="block min-h-11 rounded px-2 py-2 font-semibold text-ink hover:bg-ink-50"
+                to={`/p/${productionId}/continuity/timeline/${c.id}`}
+              >
                 {c.name}
               </Link>
             </li>
@@ -105,7 +140,17 @@ function ContinuityHome() {
   );
 }
 
-function CharacterPicker({ productionId, sceneId, characterId, onPick }: { productionId: string; sceneId: string; characterId: string; onPick: (id: string) => void }) {
+function CharacterPicker({
+  productionId,
+  sceneId,
+  characterId,
+  onPick,
+}: {
+  productionId: string;
+  sceneId: string;
+  characterId: string;
+  onPick: (id: string) => void;
+}) {
   const scene = useScene(productionId, sceneId);
   if (scene.isPending) return <Spinner />;
   if (scene.error) return <ErrorAlert error={scene.error} />;
@@ -114,7 +159,16 @@ function CharacterPicker({ productionId, sceneId, characterId, onPick }: { produ
       <legend className="mb-1 text-sm font-semibold text-ink-900">Character</legend>
       <div className="grid gap-2 sm:grid-cols-2">
         {scene.data.appearances.map((a) => (
-          <button key={a.id} type="button" aria-pressed={characterId === a.characterId} onClick={() => onPick(a.characterId)} className={cn("min-h-12 rounded-md border px-3 py-2 text-left", characterId === a.characterId ? "border-ink bg-ink text-chalk" : "border-ink-100 bg-white text-ink")}>
+          <button
+            key={a.id}
+            type="button"
+            aria-pressed={characterId === a.characterId}
+            onClick={() => onPick(a.characterId)}
+            className={cn(
+              "min-h-12 rounded-md border px-3 py-2 text-left",
+              characterId === a.characterId ? "border-ink bg-ink text-chalk" : "border-ink-100 bg-white text-ink",
+            )}
+          >
             <span className="block font-semibold">{a.characterName}</span>
             <span className="text-sm">{a.change ? `Change ${a.change.number}` : "No change set"} </span>
             <StateBadges a={a} />
@@ -123,14 +177,30 @@ function CharacterPicker({ productionId, sceneId, characterId, onPick }: { produ
       </div>
       {scene.data.appearances.some((a) => a.wet || a.stunt || a.blood) && (
         <div className="mt-2">
-          <SafetyNote>Wet, stunt or blood scene: keep a dry change and warm layers ready and follow the stunt coordinator on padding and fastenings.</SafetyNote>
+          <SafetyNote>
+            Wet, stunt or blood scene: keep a dry change and warm layers ready and follow the stunt coordinator on padding and fastenings.
+          </SafetyNote>
         </div>
       )}
     </fieldset>
   );
 }
 
-function CaptureForm({ productionId, shootDayId, sceneId, characterId, label, onDone }: { productionId: string; shootDayId: string; sceneId: string; characterId: string; label: string; onDone: () => void }) {
+function CaptureForm({
+  productionId,
+  shootDayId,
+  sceneId,
+  characterId,
+  label,
+  onDone,
+}: {
+  productionId: string;
+  shootDayId: string;
+  sceneId: string;
+  characterId: string;
+  label: string;
+  onDone: () => void;
+}) {
   const me = useMe();
   const queue = useOfflineQueue();
   const [photos, setPhotos] = useState<PendingPhoto[]>([]);
@@ -191,14 +261,18 @@ function CaptureForm({ productionId, shootDayId, sceneId, characterId, label, on
                 ? "Cancelled: not sent."
                 : "Kept on this phone; sending…"
               : waiting.state === "held"
-              ? `Kept on this phone, not accepted: ${waiting.lastError ?? ""}`
-              : queue.online
-                ? "Kept on this phone; sending…"
-                : "Kept on this phone. It is sent when the signal is back."}
+                ? `Kept on this phone, not accepted: ${waiting.lastError ?? ""}`
+                : queue.online
+                  ? "Kept on this phone; sending…"
+                  : "Kept on this phone. It is sent when the signal is back."}
         </p>
         <div className="flex flex-wrap gap-2">
-          <Link className="font-semibold text-ink underline" to={`/p/${productionId}/continuity/timeline/${characterId}`}>See the timeline</Link>
-          <Button variant="secondary" onClick={onDone}>Log another character</Button>
+          <Link className="font-semibold text-ink underline" to={`/p/${productionId}/continuity/timeline/${characterId}`}>
+            See the timeline
+          </Link>
+          <Button variant="secondary" onClick={onDone}>
+            Log another character
+          </Button>
         </div>
       </div>
     );
@@ -211,16 +285,46 @@ function CaptureForm({ productionId, shootDayId, sceneId, characterId, label, on
           {photos.map((p) => (
             <li key={p.id} className="relative">
               <img src={p.previewUrl} alt={`${viewLabels[p.view]} (not saved yet)`} className="size-20 rounded object-cover" />
-              <select aria-label="View of this photo" className="absolute bottom-0 left-0 w-full bg-ink/80 text-xs text-chalk" value={p.view} onChange={(e) => setPhotos((ps) => ps.map((x) => (x.id === p.id ? { ...x, view: e.target.value as PhotoView } : x)))}>
-                {Object.entries(viewLabels).map(([v, l]) => <option key={v} value={v}>{l}</option>)}
+              <select
+                aria-label="View of this photo"
+                className="absolute bottom-0 left-0 w-full bg-ink/80 text-xs text-chalk"
+                value={p.view}
+                onChange={(e) => setPhotos((ps) => ps.map((x) => (x.id === p.id ? { ...x, view: e.target.value as PhotoView } : x)))}
+              >
+                {Object.entries(viewLabels).map(([v, l]) => (
+                  <option key={v} value={v}>
+                    {l}
+                  </option>
+                ))}
               </select>
-              <button type="button" aria-label="Remove this photo" className="absolute -top-2 -right-2 size-6 rounded-full bg-madder text-xs text-white" onClick={() => setPhotos((ps) => ps.filter((x) => x.id !== p.id))}>×</button>
+              <button
+                type="button"
+                aria-label="Remove this photo"
+                className="absolute -top-2 -right-2 size-6 rounded-full bg-madder text-xs text-white"
+                onClick={() => setPhotos((ps) => ps.filter((x) => x.id !== p.id))}
+              >
+                ×
+              </button>
             </li>
           ))}
         </ul>
       )}
-      <TextareaField label="Notes" placeholder="collar open, left cuff rolled twice" value={notes} onChange={(e) => setNotes(e.target.value)} />
-      <InputField label="Distress stage worn (optional)" type="number" min={0} max={10} inputMode="numeric" value={distress} onChange={(e) => setDistress(e.target.value)} className="max-w-48" />
+      <TextareaField
+        label="Notes"
+        placeholder="collar open, left cuff rolled twice"
+        value={notes}
+        onChange={(e) => setNotes(e.target.value)}
+      />
+      <InputField
+        label="Distress stage worn (optional)"
+        type="number"
+        min={0}
+        max={10}
+        inputMode="numeric"
+        value={distress}
+        onChange={(e) => setDistress(e.target.value)}
+        className="max-w-48"
+      />
       {error && <ErrorAlert error={error} title="Not saved; your notes and photos are still here" />}
       <Button size="lg" onClick={() => void save()} busy={busy} disabled={!photos.length && !notes.trim()}>
         Save continuity{photos.length ? ` (${photos.length} photo${photos.length > 1 ? "s" : ""})` : ""}
@@ -265,11 +369,27 @@ function CompareDialog({ open, scenes, onClose }: { open: boolean; scenes: Timel
               Scene {s.number} · story day {s.storyDay ?? "—"} · change {s.change?.number ?? "—"}
             </p>
             {s.entries.flatMap((e) => e.photos).length ? (
-              s.entries.flatMap((e) => e.photos).map((p) => <img key={p.id} src={p.urls.display} alt={`Scene ${s.number}, ${viewLabels[p.view].toLowerCase()}`} className="w-full rounded" />)
+              s.entries
+                .flatMap((e) => e.photos)
+                .map((p) => (
+                  <img
+                    key={p.id}
+                    src={p.urls.display}
+                    alt={`Scene ${s.number}, ${viewLabels[p.view].toLowerCase()}`}
+                    className="w-full rounded"
+                  />
+                ))
             ) : (
               <p className="text-sm text-slate">No photos.</p>
             )}
-            {s.entries.map((e) => e.notes && <p key={e.id} className="text-sm">{e.notes}</p>)}
+            {s.entries.map(
+              (e) =>
+                e.notes && (
+                  <p key={e.id} className="text-sm">
+                    {e.notes}
+                  </p>
+                ),
+            )}
           </div>
         ))}
       </div>
@@ -283,8 +403,11 @@ function TimelineRoute() {
   const timeline = useContinuityTimeline(productionId, characterId);
   const [compare, setCompare] = useState<string[]>([]);
   const [showing, setShowing] = useState(false);
-  const scenes = timeline.data?.scenes ?? [];
-  const picked = useMemo(() => compare.map((id) => scenes.find((s) => s.sceneId === id)).filter((s): s is TimelineScene => Boolean(s)), [compare, scenes]);
+  const scenes = useMemo(() => timeline.data?.scenes ?? [], [timeline.data]);
+  const picked = useMemo(
+    () => compare.map((id) => scenes.find((s) => s.sceneId === id)).filter((s): s is TimelineScene => Boolean(s)),
+    [compare, scenes],
+  );
   if (timeline.isPending) return <Spinner />;
   if (timeline.error) return <ErrorAlert error={timeline.error} />;
   const toggle = (id: string) => {
@@ -295,11 +418,18 @@ function TimelineRoute() {
   };
   return (
     <div className="grid grid-cols-1 gap-4">
-      <PageHeader title={`${timeline.data.character.name}: continuity`} subtitle={<Link to={`/p/${productionId}/continuity`}>← Continuity</Link>} />
+      <PageHeader
+        title={`${timeline.data.character.name}: continuity`}
+        subtitle={<Link to={`/p/${productionId}/continuity`}>← Continuity</Link>}
+      />
       <CompareDialog open={showing && picked.length === 2} scenes={picked} onClose={() => setShowing(false)} />
       {picked.length === 2 && !showing && (
         // Stays at the bottom of the screen, wherever the timeline is scrolled to.
-        <div className="fixed inset-x-0 bottom-0 z-10 flex flex-wrap items-center justify-center gap-2 border-t border-chalk-200 bg-white/95 px-3 py-2 shadow-lg" role="region" aria-label="Scenes to compare">
+        <div
+          className="fixed inset-x-0 bottom-0 z-10 flex flex-wrap items-center justify-center gap-2 border-t border-chalk-200 bg-white/95 px-3 py-2 shadow-lg"
+          role="region"
+          aria-label="Scenes to compare"
+        >
           <span className="text-sm text-ink-900">
             Scenes {picked[0]!.number} and {picked[1]!.number}
           </span>
@@ -315,7 +445,9 @@ function TimelineRoute() {
             <Card className="grid gap-2">
               <div className="flex flex-wrap items-center gap-2">
                 <h2 className="font-semibold text-ink">Scene {s.number}</h2>
-                <span className="text-sm text-slate">story day {s.storyDay ?? "—"} · change {s.change?.number ?? "—"}</span>
+                <span className="text-sm text-slate">
+                  story day {s.storyDay ?? "—"} · change {s.change?.number ?? "—"}
+                </span>
                 {s.distressStage > 0 && <span className="text-sm text-slate">· distress {s.distressStage}</span>}
                 <label className="ml-auto flex min-h-11 items-center gap-1 text-sm">
                   <input type="checkbox" checked={compare.includes(s.sceneId)} onChange={() => toggle(s.sceneId)} /> Compare

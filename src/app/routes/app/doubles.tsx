@@ -36,22 +36,40 @@ function DoublesWorkspace() {
   const tab = (params.get("tab") ?? "panels") as (typeof tabs)[number]["key"];
   if (changes.isPending) return <Spinner />;
   if (changes.error) return <ErrorAlert error={changes.error} />;
-  if (!changes.data.length) return <EmptyState title="No costume changes yet">Changes are set up on the Changes screen; each character's change gets its panels here.</EmptyState>;
+  if (!changes.data.length)
+    return (
+      <EmptyState title="No costume changes yet">
+        Changes are set up on the Changes screen; each character's change gets its panels here.
+      </EmptyState>
+    );
   const withPanels = changes.data.find((c) => c.garments.some((g) => g.panelCount > 0));
   const changeId = params.get("change") ?? withPanels?.id ?? changes.data[0]!.id;
   const change = changes.data.find((c) => c.id === changeId) ?? changes.data[0]!;
-  const set = (k: string, v: string) => setParams((p) => { p.set(k, v); return p; });
+  const set = (k: string, v: string) =>
+    setParams((p) => {
+      p.set(k, v);
+      return p;
+    });
   return (
     <div className="grid grid-cols-1 gap-4">
       <Card className="grid grid-cols-1 gap-3 sm:grid-cols-[minmax(0,24rem)_1fr] sm:items-end">
         <SelectField label="Character and change" value={change.id} onChange={(e) => set("change", e.target.value)}>
           {changes.data.map((c) => (
-            <option key={c.id} value={c.id}>{c.characterName}: change {c.number}{c.description ? ` (${c.description.slice(0, 40)})` : ""}</option>
+            <option key={c.id} value={c.id}>
+              {c.characterName}: change {c.number}
+              {c.description ? ` (${c.description.slice(0, 40)})` : ""}
+            </option>
           ))}
         </SelectField>
-        <div role="tablist" aria-label="Doubles sections" onKeyDown={onTabListKeyDown} className="flex flex-wrap gap-2">
+        <div role="tablist" aria-label="Doubles sections" tabIndex={-1} onKeyDown={onTabListKeyDown} className="flex flex-wrap gap-2">
           {tabs.map((t) => (
-            <Button key={t.key} role="tab" aria-selected={tab === t.key} variant={tab === t.key ? "primary" : "secondary"} onClick={() => set("tab", t.key)}>
+            <Button
+              key={t.key}
+              role="tab"
+              aria-selected={tab === t.key}
+              variant={tab === t.key ? "primary" : "secondary"}
+              onClick={() => set("tab", t.key)}
+            >
               {t.label}
             </Button>
           ))}
@@ -61,7 +79,12 @@ function DoublesWorkspace() {
       {tab === "seams" && <SeamsTab key={change.id} productionId={productionId} change={change} canEdit={can("panel.update")} />}
       {tab === "yardage" && <YardageTab key={change.id} productionId={productionId} change={change} canEdit={can("panel.update")} />}
       {tab === "physics" && <PhysicsTab key={change.id} productionId={productionId} change={change} />}
-      {tab === "packets" && (can("packet.prepare") ? <PacketsTab productionId={productionId} change={change} canPrepare /> : <p className="text-sm text-slate">Handoff packets are prepared by the workroom and published by the supervisor.</p>)}
+      {tab === "packets" &&
+        (can("packet.prepare") ? (
+          <PacketsTab productionId={productionId} change={change} canPrepare />
+        ) : (
+          <p className="text-sm text-slate">Handoff packets are prepared by the workroom and published by the supervisor.</p>
+        ))}
     </div>
   );
 }
@@ -84,12 +107,28 @@ function PacketPage() {
       <PageHeader
         title={`${p.characterName}, change ${p.changeNumber}: ${p.status === "draft" ? "draft packet" : `version ${p.version}`}`}
         subtitle={p.publishedAt ? `Published ${dateTime(p.publishedAt)} by ${p.publishedByName ?? ""}` : "Not published yet"}
-        actions={<Link className="text-sm text-ink underline" to={can("packet.read_all") ? `/p/${productionId}/doubles?change=${p.changeId}&tab=packets` : `/p/${productionId}/doubles`}>Back</Link>}
+        actions={
+          <Link
+            className="text-sm text-ink underline"
+            to={can("packet.read_all") ? `/p/${productionId}/doubles?change=${p.changeId}&tab=packets` : `/p/${productionId}/doubles`}
+          >
+            Back
+          </Link>
+        }
       />
-      {justPublished && <p role="status" className="rounded bg-ink-50 px-3 py-2 text-sm text-ink">Published as version {p.version}; the recipients were e-mailed.</p>}
+      {justPublished && (
+        <p role="status" className="rounded bg-ink-50 px-3 py-2 text-sm text-ink">
+          Published as version {p.version}; the recipients were e-mailed.
+        </p>
+      )}
       {p.status === "draft" && can("packet.prepare") && (
         <Card>
-          <PacketBuilder productionId={productionId} packet={p} canPublish={can("packet.publish")} onPublished={() => setJustPublished(true)} />
+          <PacketBuilder
+            productionId={productionId}
+            packet={p}
+            canPublish={can("packet.publish")}
+            onPublished={() => setJustPublished(true)}
+          />
         </Card>
       )}
       <Card>
@@ -99,7 +138,9 @@ function PacketPage() {
             {mine?.receivedAt ? (
               <p className="text-sm text-ink">You marked this version received on {dateTime(mine.receivedAt)}.</p>
             ) : (
-              <Button size="lg" busy={received.isPending} onClick={() => received.mutate(p.id)}>Mark received</Button>
+              <Button size="lg" busy={received.isPending} onClick={() => received.mutate(p.id)}>
+                Mark received
+              </Button>
             )}
             {received.error && <ErrorAlert error={received.error} />}
           </div>
@@ -127,7 +168,14 @@ export default function DoublesPage() {
         element={
           // grid-cols-1 (minmax(0, 1fr)): panels, tables and canvases scroll inside their cards on a phone.
           <div className="grid grid-cols-1 gap-4">
-            <PageHeader title="Digital doubles" subtitle={vfx ? "Handoff packets published to you" : `Pattern panels, seams, yardage, fabric physics and handoff packets${production ? ` for ${production.title}` : ""}`} />
+            <PageHeader
+              title="Digital doubles"
+              subtitle={
+                vfx
+                  ? "Handoff packets published to you"
+                  : `Pattern panels, seams, yardage, fabric physics and handoff packets${production ? ` for ${production.title}` : ""}`
+              }
+            />
             {vfx ? <VfxPacketsRoute /> : <DoublesWorkspace />}
           </div>
         }

@@ -26,7 +26,13 @@ function FabricLibrary() {
       />
       {adding && (
         <Card>
-          <FabricForm unit={production.units} busy={create.isPending} error={create.error} submitLabel="Add fabric" onSubmit={(v) => create.mutate(v, { onSuccess: () => setAdding(false) })} />
+          <FabricForm
+            unit={production.units}
+            busy={create.isPending}
+            error={create.error}
+            submitLabel="Add fabric"
+            onSubmit={(v) => create.mutate(v, { onSuccess: () => setAdding(false) })}
+          />
         </Card>
       )}
       {fabrics.isPending ? (
@@ -62,8 +68,14 @@ function FabricLibrary() {
                   <td className="px-2 py-1.5">{f.fibreContent.map((x) => `${x.percent} % ${x.fibre}`).join(", ")}</td>
                   <td className="px-2 py-1.5">{f.construction}</td>
                   <td className="px-2 py-1.5 whitespace-nowrap">{f.widthMm ? formatLength(f.widthMm, production.units) : "—"}</td>
-                  <td className="px-2 py-1.5 whitespace-nowrap">{f.massPerAreaGsm ? `${f.massPerAreaGsm} g/m² (${f.massPerAreaOzYd2} oz/yd²)` : "—"}</td>
-                  <td className="px-2 py-1.5">{f.stretchWarpPct != null || f.stretchWeftPct != null ? `${f.stretchWarpPct ?? "—"} % / ${f.stretchWeftPct ?? "—"} %` : "—"}</td>
+                  <td className="px-2 py-1.5 whitespace-nowrap">
+                    {f.massPerAreaGsm ? `${f.massPerAreaGsm} g/m² (${f.massPerAreaOzYd2} oz/yd²)` : "—"}
+                  </td>
+                  <td className="px-2 py-1.5">
+                    {f.stretchWarpPct != null || f.stretchWeftPct != null
+                      ? `${f.stretchWarpPct ?? "—"} % / ${f.stretchWeftPct ?? "—"} %`
+                      : "—"}
+                  </td>
                   <td className="px-2 py-1.5">{f.supplier ?? "—"}</td>
                   <td className="px-2 py-1.5">{f.testCount}</td>
                   <td className="px-2 py-1.5">{f.garmentCount}</td>
@@ -88,13 +100,33 @@ function FabricPage() {
   const f = fabric.data;
   return (
     <div className="grid gap-4">
-      <PageHeader title={f.name} subtitle={<Link to=".." relative="path" className="underline">Back to the fabric library</Link>} />
+      <PageHeader
+        title={f.name}
+        subtitle={
+          <Link to=".." relative="path" className="underline">
+            Back to the fabric library
+          </Link>
+        }
+      />
       <Card>
-        <OwnerPhotos productionId={productionId} ownerType="fabric" ownerId={fabricId} canEdit={can("fabric.update")} title="Swatch photos" />
+        <OwnerPhotos
+          productionId={productionId}
+          ownerType="fabric"
+          ownerId={fabricId}
+          canEdit={can("fabric.update")}
+          title="Swatch photos"
+        />
       </Card>
       <Card>
         {editing ? (
-          <FabricForm unit={production.units} initial={f} busy={update.isPending} error={update.error} submitLabel="Save fabric" onSubmit={(v) => update.mutate(v, { onSuccess: () => setEditing(false) })} />
+          <FabricForm
+            unit={production.units}
+            initial={f}
+            busy={update.isPending}
+            error={update.error}
+            submitLabel="Save fabric"
+            onSubmit={(v) => update.mutate(v, { onSuccess: () => setEditing(false) })}
+          />
         ) : (
           <div className="grid gap-1 text-sm">
             <p>
@@ -105,7 +137,9 @@ function FabricPage() {
             <p>
               {f.massPerAreaGsm ? `${f.massPerAreaGsm} g/m² (${f.massPerAreaOzYd2} oz/yd²) declared` : "No declared weight"}
               {f.thicknessMm ? ` · ${f.thicknessMm} mm thick` : ""}
-              {f.stretchWarpPct != null || f.stretchWeftPct != null ? ` · stretch ${f.stretchWarpPct ?? "—"} % warp, ${f.stretchWeftPct ?? "—"} % weft` : ""}
+              {f.stretchWarpPct != null || f.stretchWeftPct != null
+                ? ` · stretch ${f.stretchWarpPct ?? "—"} % warp, ${f.stretchWeftPct ?? "—"} % weft`
+                : ""}
             </p>
             {f.supplier && <p>Supplier: {f.supplier}</p>}
             {f.careNotes && <p className="whitespace-pre-line text-slate">Care: {f.careNotes}</p>}

@@ -16,9 +16,14 @@ type FormValues = z.input<typeof createProductionInputSchema>;
 export default function NewProductionPage() {
   const navigate = useNavigate();
   const create = useCreateProduction();
-  const form = useForm<FormValues>({ resolver: formResolver(zodResolver(createProductionInputSchema)), defaultValues: { title: "", kind: "film", units: "cm", startsOn: null, endsOn: null } });
+  const form = useForm<FormValues>({
+    resolver: formResolver(zodResolver(createProductionInputSchema)),
+    defaultValues: { title: "", kind: "film", units: "cm", startsOn: null, endsOn: null },
+  });
   const onSubmit = form.handleSubmit((v) =>
-    create.mutate(createProductionInputSchema.parse({ ...v, startsOn: v.startsOn || null, endsOn: v.endsOn || null }), { onSuccess: (p) => navigate(paths.production.screen.getHref(p.id, "team")) }),
+    create.mutate(createProductionInputSchema.parse({ ...v, startsOn: v.startsOn || null, endsOn: v.endsOn || null }), {
+      onSuccess: (p) => void navigate(paths.production.screen.getHref(p.id, "team")),
+    }),
   );
   const e = form.formState.errors;
   return (
@@ -33,8 +38,18 @@ export default function NewProductionPage() {
           ))}
         </SelectField>
         <div className="grid grid-cols-2 gap-3">
-          <InputField label="First day" type="date" {...form.register("startsOn", { setValueAs: (v) => v || null })} error={e.startsOn?.message} />
-          <InputField label="Last day" type="date" {...form.register("endsOn", { setValueAs: (v) => v || null })} error={e.endsOn?.message} />
+          <InputField
+            label="First day"
+            type="date"
+            {...form.register("startsOn", { setValueAs: (v) => v || null })}
+            error={e.startsOn?.message}
+          />
+          <InputField
+            label="Last day"
+            type="date"
+            {...form.register("endsOn", { setValueAs: (v) => v || null })}
+            error={e.endsOn?.message}
+          />
         </div>
         <SelectField label="Measurement units" {...form.register("units")} hint="Stored in millimetres either way.">
           <option value="cm">Centimetres</option>

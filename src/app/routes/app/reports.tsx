@@ -32,7 +32,12 @@ function Tabs() {
             key={t.path}
             to={`../${t.path}`}
             relative="path"
-            className={({ isActive }) => cn("whitespace-nowrap border-b-2 px-3 py-2 text-sm font-semibold", isActive ? "border-ink text-ink" : "border-transparent text-slate hover:text-ink")}
+            className={({ isActive }) =>
+              cn(
+                "whitespace-nowrap border-b-2 px-3 py-2 text-sm font-semibold",
+                isActive ? "border-ink text-ink" : "border-transparent text-slate hover:text-ink",
+              )
+            }
           >
             {t.label}
           </NavLink>
@@ -59,7 +64,12 @@ function RackListPage() {
         subtitle={q.data ? `${rackDayLabel(q.data)} · today is ${formatDay(q.data.today)}` : undefined}
         actions={
           q.data?.day ? (
-            <a className="inline-flex min-h-11 items-center rounded-md bg-ink px-4 text-sm font-semibold text-chalk hover:bg-ink-700" href={reportFileUrls.rackListPdf(productionId, dayId)} target="_blank" rel="noreferrer">
+            <a
+              className="inline-flex min-h-11 items-center rounded-md bg-ink px-4 text-sm font-semibold text-chalk hover:bg-ink-700"
+              href={reportFileUrls.rackListPdf(productionId, dayId)}
+              target="_blank"
+              rel="noreferrer"
+            >
               PDF for the rack
             </a>
           ) : undefined
@@ -73,8 +83,17 @@ function RackListPage() {
       ) : (
         <div className="grid gap-3">
           {q.data.upcoming.length > 1 && (
-            <SelectField label="Day" value={q.data.day?.id ?? ""} onChange={(e) => setParams(e.target.value && e.target.value !== q.data.upcoming[0]?.id ? { day: e.target.value } : {}, { replace: true })} className="max-w-sm">
-              {q.data.day && !q.data.upcoming.some((d) => d.id === q.data.day!.id) && <option value={q.data.day.id}>{formatDay(q.data.day.date)}</option>}
+            <SelectField
+              label="Day"
+              value={q.data.day?.id ?? ""}
+              onChange={(e) =>
+                setParams(e.target.value && e.target.value !== q.data.upcoming[0]?.id ? { day: e.target.value } : {}, { replace: true })
+              }
+              className="max-w-sm"
+            >
+              {q.data.day && !q.data.upcoming.some((d) => d.id === q.data.day!.id) && (
+                <option value={q.data.day.id}>{formatDay(q.data.day.date)}</option>
+              )}
               {q.data.upcoming.map((d, i) => (
                 <option key={d.id} value={d.id}>
                   {i === 0 ? "Next: " : ""}
@@ -85,8 +104,15 @@ function RackListPage() {
           )}
           {q.data.day && (
             <p className="text-sm text-slate">
-              {q.data.counts.characters} character{q.data.counts.characters === 1 ? "" : "s"} in call order · {q.data.counts.garments} garment{q.data.counts.garments === 1 ? "" : "s"}
-              {q.data.counts.warnings > 0 && <strong className="text-madder"> · {q.data.counts.warnings} warning{q.data.counts.warnings === 1 ? "" : "s"}</strong>}. Tap a code (or scan it with another phone) to check the garment out.
+              {q.data.counts.characters} character{q.data.counts.characters === 1 ? "" : "s"} in call order · {q.data.counts.garments}{" "}
+              garment{q.data.counts.garments === 1 ? "" : "s"}
+              {q.data.counts.warnings > 0 && (
+                <strong className="text-madder">
+                  {" "}
+                  · {q.data.counts.warnings} warning{q.data.counts.warnings === 1 ? "" : "s"}
+                </strong>
+              )}
+              . Tap a code (or scan it with another phone) to check the garment out.
             </p>
           )}
           <RackList list={q.data} />
@@ -115,15 +141,29 @@ function ReturnsPage() {
     <div>
       <PageHeader
         title="Returns and wrap"
-        subtitle={q.data ? `Hires by hire house, overdue first (today is ${formatDay(q.data.today)}); lost; out of the store; what happens at wrap` : undefined}
+        subtitle={
+          q.data
+            ? `Hires by hire house, overdue first (today is ${formatDay(q.data.today)}); lost; out of the store; what happens at wrap`
+            : undefined
+        }
         actions={
-          <a className="inline-flex min-h-10 items-center rounded-md border border-ink-100 bg-white px-3 text-sm font-semibold text-ink hover:bg-ink-50" href={reportFileUrls.returnsXlsx(productionId)} download>
+          <a
+            className="inline-flex min-h-10 items-center rounded-md border border-ink-100 bg-white px-3 text-sm font-semibold text-ink hover:bg-ink-50"
+            href={reportFileUrls.returnsXlsx(productionId)}
+            download
+          >
             Workbook (XLSX)
           </a>
         }
       />
       <Tabs />
-      {q.isPending ? <Spinner /> : q.error ? <ErrorAlert error={q.error} /> : <ReturnsReport productionId={productionId} data={q.data} canEditWrap={can("garment.update")} />}
+      {q.isPending ? (
+        <Spinner />
+      ) : q.error ? (
+        <ErrorAlert error={q.error} />
+      ) : (
+        <ReturnsReport productionId={productionId} data={q.data} canEditWrap={can("garment.update")} />
+      )}
     </div>
   );
 }
@@ -152,10 +192,38 @@ export default function ReportsScreen() {
   return (
     <Routes>
       <Route index element={<FirstReport />} />
-      <Route path="rack" element={<Guard action="report.rack"><RackListPage /></Guard>} />
-      <Route path="continuity" element={<Guard action="report.continuity"><ContinuityPage /></Guard>} />
-      <Route path="returns" element={<Guard action="report.returns"><ReturnsPage /></Guard>} />
-      <Route path="budget" element={<Guard action="report.budget"><BudgetPage /></Guard>} />
+      <Route
+        path="rack"
+        element={
+          <Guard action="report.rack">
+            <RackListPage />
+          </Guard>
+        }
+      />
+      <Route
+        path="continuity"
+        element={
+          <Guard action="report.continuity">
+            <ContinuityPage />
+          </Guard>
+        }
+      />
+      <Route
+        path="returns"
+        element={
+          <Guard action="report.returns">
+            <ReturnsPage />
+          </Guard>
+        }
+      />
+      <Route
+        path="budget"
+        element={
+          <Guard action="report.budget">
+            <BudgetPage />
+          </Guard>
+        }
+      />
       <Route path="*" element={<FirstReport />} />
     </Routes>
   );

@@ -22,7 +22,9 @@ export function ScreenRoute() {
     return (
       <Card>
         <PageHeader title={def.label} />
-        <p className="text-sm text-slate">Your role in this production does not open this screen. Ask the costume supervisor if you need it.</p>
+        <p className="text-sm text-slate">
+          Your role in this production does not open this screen. Ask the costume supervisor if you need it.
+        </p>
       </Card>
     );
   }

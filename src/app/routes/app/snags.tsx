@@ -41,13 +41,23 @@ function SnagsOverview() {
   });
   return (
     <div>
-      <PageHeader title="Snags" subtitle="Conflicts in fit, continuity, multiples, bookings, rentals, check-outs, quick changes and the workroom, each with the numbers behind it." />
+      <PageHeader
+        title="Snags"
+        subtitle="Conflicts in fit, continuity, multiples, bookings, rentals, check-outs, quick changes and the workroom, each with the numbers behind it."
+      />
       {q.isPending ? (
         <Spinner />
       ) : q.error ? (
         <ErrorAlert error={q.error} title="Snags could not be computed" />
       ) : (
-        <SnagsList productionId={productionId} kind={production?.kind ?? "film"} data={q.data} filters={filters} onFiltersChange={setFilters} canDismiss={can("snag.dismiss")} />
+        <SnagsList
+          productionId={productionId}
+          kind={production?.kind ?? "film"}
+          data={q.data}
+          filters={filters}
+          onFiltersChange={setFilters}
+          canDismiss={can("snag.dismiss")}
+        />
       )}
     </div>
   );
@@ -70,7 +80,13 @@ function MultiplesPlanPage() {
           </Link>
         }
       />
-      {q.isPending ? <Spinner /> : q.error ? <ErrorAlert error={q.error} /> : <MultiplesPlan productionId={productionId} plan={q.data} kind={production?.kind ?? "film"} />}
+      {q.isPending ? (
+        <Spinner />
+      ) : q.error ? (
+        <ErrorAlert error={q.error} />
+      ) : (
+        <MultiplesPlan productionId={productionId} plan={q.data} kind={production?.kind ?? "film"} />
+      )}
     </div>
   );
 }

@@ -24,13 +24,25 @@ export default function TeamPage() {
       <PageHeader title="Team" subtitle={production ? `Who works on ${production.title}, and in which role` : undefined} />
       <Card>
         <h2 className="mb-3 font-semibold text-ink">Members</h2>
-        {members.isPending ? <Spinner /> : members.error ? <ErrorAlert error={members.error} /> : <MembersTable productionId={productionId} members={members.data} currentUserId={me.data?.id ?? ""} />}
+        {members.isPending ? (
+          <Spinner />
+        ) : members.error ? (
+          <ErrorAlert error={members.error} />
+        ) : (
+          <MembersTable productionId={productionId} members={members.data} currentUserId={me.data?.id ?? ""} />
+        )}
       </Card>
       <Card>
         <h2 className="mb-3 font-semibold text-ink">Invite someone</h2>
         <InviteForm productionId={productionId} />
         <h3 className="mt-5 mb-1 text-sm font-semibold text-ink">Invitations</h3>
-        {invitations.isPending ? <Spinner /> : invitations.error ? <ErrorAlert error={invitations.error} /> : <InvitationsList productionId={productionId} invitations={invitations.data} />}
+        {invitations.isPending ? (
+          <Spinner />
+        ) : invitations.error ? (
+          <ErrorAlert error={invitations.error} />
+        ) : (
+          <InvitationsList productionId={productionId} invitations={invitations.data} />
+        )}
       </Card>
       {production && (
         <Card>
@@ -50,7 +62,10 @@ export default function TeamPage() {
       </Card>
       <Card>
         <h2 className="mb-1 font-semibold text-ink">Outbox (development)</h2>
-        <p className="mb-3 text-xs text-slate">Mail to this production's members, caught by the local SMTP server; nothing here left the machine. Password-reset and invitation mail is never shown.</p>
+        <p className="mb-3 text-xs text-slate">
+          Mail to this production's members, caught by the local SMTP server; nothing here left the machine. Password-reset and invitation
+          mail is never shown.
+        </p>
         <Outbox productionId={productionId} />
       </Card>
     </div>

@@ -17,7 +17,9 @@ function NextDay({ productionId, stage, today }: { productionId: string; stage: 
   if (days.isPending) return <Spinner />;
   if (days.error) return <ErrorAlert error={days.error} />;
   const kind = stage ? "performance" : "shoot";
-  const next = days.data.filter((d) => d.kind === kind && d.date >= today).sort((a, b) => a.date.localeCompare(b.date) || a.dayNumber - b.dayNumber)[0];
+  const next = days.data
+    .filter((d) => d.kind === kind && d.date >= today)
+    .sort((a, b) => a.date.localeCompare(b.date) || a.dayNumber - b.dayNumber)[0];
   if (!next) return <EmptyState title={`No ${words.days} ahead`}>Add them on the Breakdown screen.</EmptyState>;
   return (
     <div>
@@ -49,7 +51,10 @@ function UpcomingFittings({ productionId, today }: { productionId: string; today
   const { timeZone, dateTime } = useProductionTime();
   if (fittings.isPending) return <Spinner />;
   if (fittings.error) return <ErrorAlert error={fittings.error} />;
-  const next = fittings.data.filter((f) => f.status === "booked" && calendarDateIn(f.startsAt, timeZone) >= today).sort((a, b) => a.startsAt.localeCompare(b.startsAt)).slice(0, 5);
+  const next = fittings.data
+    .filter((f) => f.status === "booked" && calendarDateIn(f.startsAt, timeZone) >= today)
+    .sort((a, b) => a.startsAt.localeCompare(b.startsAt))
+    .slice(0, 5);
   if (!next.length) return <p className="text-sm text-slate">No fittings booked from today on.</p>;
   return (
     <ul className="divide-y divide-chalk-200 text-sm" aria-label="Upcoming fittings">
@@ -83,10 +88,22 @@ function WorkDue({ productionId }: { productionId: string }) {
       {soon.map((t) => (
         <li key={t.id} className="flex flex-wrap items-center justify-between gap-2 py-1.5">
           <span>
-            <span className="font-semibold text-ink-900">{t.tagCode} {t.garmentName}</span>
-            <span className="text-slate"> · due {nice(t.dueDate!)}{t.plannedAssigneeName ? ` · ${t.plannedAssigneeName}` : ""}</span>
+            <span className="font-semibold text-ink-900">
+              {t.tagCode} {t.garmentName}
+            </span>
+            <span className="text-slate">
+              {" "}
+              · due {nice(t.dueDate!)}
+              {t.plannedAssigneeName ? ` · ${t.plannedAssigneeName}` : ""}
+            </span>
           </span>
-          {t.late ? <Badge tone="blocking">late by {t.lateness} working day{t.lateness === 1 ? "" : "s"}</Badge> : <Badge tone="neutral">on time</Badge>}
+          {t.late ? (
+            <Badge tone="blocking">
+              late by {t.lateness} working day{t.lateness === 1 ? "" : "s"}
+            </Badge>
+          ) : (
+            <Badge tone="neutral">on time</Badge>
+          )}
         </li>
       ))}
     </ul>
@@ -108,7 +125,10 @@ export default function TodayPage() {
             <h2 className="mb-2 font-semibold text-ink">{words.Next}</h2>
             <NextDay productionId={productionId} stage={stage} today={today} />
             {can("report.rack") && (
-              <Link to={`/p/${productionId}/reports/rack`} className="mt-3 inline-flex min-h-11 items-center rounded-md border border-ink-100 bg-white px-3 text-sm font-semibold text-ink hover:bg-ink-50">
+              <Link
+                to={`/p/${productionId}/reports/rack`}
+                className="mt-3 inline-flex min-h-11 items-center rounded-md border border-ink-100 bg-white px-3 text-sm font-semibold text-ink hover:bg-ink-50"
+              >
                 {stage ? "Rack list for the next performance" : "Tomorrow's rack list"}
               </Link>
             )}

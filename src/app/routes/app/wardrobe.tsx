@@ -53,10 +53,23 @@ function GarmentPage() {
   const garment = useGarment(productionId, garmentId);
   return (
     <div>
-      <PageHeader title="Garment" subtitle={<Link to="../.." relative="path" className="underline">Back to the wardrobe</Link>} />
+      <PageHeader
+        title="Garment"
+        subtitle={
+          <Link to="../.." relative="path" className="underline">
+            Back to the wardrobe
+          </Link>
+        }
+      />
       {can("photo.read") && (
         <Card className="mb-4">
-          <OwnerPhotos productionId={productionId} ownerType="garment" ownerId={garmentId} canEdit={can("garment.update")} title="Garment photos" />
+          <OwnerPhotos
+            productionId={productionId}
+            ownerType="garment"
+            ownerId={garmentId}
+            canEdit={can("garment.update")}
+            title="Garment photos"
+          />
         </Card>
       )}
       {garment.isPending || !production ? (
@@ -86,7 +99,14 @@ function NewGarmentPage() {
   if (!production) return <Spinner />;
   return (
     <div>
-      <PageHeader title="Add garment" subtitle={<Link to=".." relative="path" className="underline">Back to the wardrobe</Link>} />
+      <PageHeader
+        title="Add garment"
+        subtitle={
+          <Link to=".." relative="path" className="underline">
+            Back to the wardrobe
+          </Link>
+        }
+      />
       <Card>
         <GarmentForm
           unit={production.units}
@@ -95,7 +115,7 @@ function NewGarmentPage() {
           busy={create.isPending}
           error={create.error}
           submitLabel="Add garment"
-          onSubmit={(v) => create.mutate(v, { onSuccess: (rows) => navigate(`../garments/${rows[0]!.id}`, { relative: "path" }) })}
+          onSubmit={(v) => create.mutate(v, { onSuccess: (rows) => void navigate(`../garments/${rows[0]!.id}`, { relative: "path" }) })}
         />
       </Card>
     </div>
@@ -110,11 +130,18 @@ function TagSheetPage() {
   const [start, setStart] = useState(1);
   return (
     <div>
-      <PageHeader title="Tag sheet" subtitle={<Link to=".." relative="path" className="underline">Back to the wardrobe</Link>} />
+      <PageHeader
+        title="Tag sheet"
+        subtitle={
+          <Link to=".." relative="path" className="underline">
+            Back to the wardrobe
+          </Link>
+        }
+      />
       <Card className="grid max-w-xl gap-3">
         <p className="text-sm text-slate">
-          An A4 sheet of 3 × 8 labels (70 × 37 mm). Each label has a QR code holding only the tag code, so a phone or a USB scanner types it into Check in / out.
-          To print a hand-picked set, tick garments in the wardrobe table and use its Tag labels link.
+          An A4 sheet of 3 × 8 labels (70 × 37 mm). Each label has a QR code holding only the tag code, so a phone or a USB scanner types it
+          into Check in / out. To print a hand-picked set, tick garments in the wardrobe table and use its Tag labels link.
         </p>
         <SelectField label="Rack" value={rack} onChange={(e) => setRack(e.target.value)}>
           <option value="">All racks</option>
@@ -129,8 +156,16 @@ function TagSheetPage() {
           ))}
         </SelectField>
         <LabelPositionSelect value={start} onChange={setStart} />
-        <p className="-mt-2 text-xs text-slate">On a partly used sheet, choose the first free label; the rest of the sheet fills from there and further sheets start at the top left.</p>
-        <a className="rounded-md bg-ink px-3 py-2 text-center text-sm font-semibold text-chalk hover:bg-ink-700" target="_blank" rel="noreferrer" href={garmentFileUrls.labels(productionId, { rack: rack || undefined, category: category || undefined }, start)}>
+        <p className="-mt-2 text-xs text-slate">
+          On a partly used sheet, choose the first free label; the rest of the sheet fills from there and further sheets start at the top
+          left.
+        </p>
+        <a
+          className="rounded-md bg-ink px-3 py-2 text-center text-sm font-semibold text-chalk hover:bg-ink-700"
+          target="_blank"
+          rel="noreferrer"
+          href={garmentFileUrls.labels(productionId, { rack: rack || undefined, category: category || undefined }, start)}
+        >
           Open label sheet (PDF)
         </a>
       </Card>
@@ -146,8 +181,21 @@ function ScanPage() {
   const initialStatus = (garmentStatuses as readonly string[]).includes(to ?? "") ? (to as GarmentStatus) : undefined;
   return (
     <div>
-      <PageHeader title="Check in / out" subtitle={<Link to=".." relative="path" className="underline">Back to the wardrobe</Link>} />
-      <CheckInOut key={params.toString()} productionId={productionId} kind={production?.kind ?? "film"} initialTag={params.get("tag")?.slice(0, 20) || undefined} initialStatus={initialStatus} />
+      <PageHeader
+        title="Check in / out"
+        subtitle={
+          <Link to=".." relative="path" className="underline">
+            Back to the wardrobe
+          </Link>
+        }
+      />
+      <CheckInOut
+        key={params.toString()}
+        productionId={productionId}
+        kind={production?.kind ?? "film"}
+        initialTag={params.get("tag")?.slice(0, 20) || undefined}
+        initialStatus={initialStatus}
+      />
     </div>
   );
 }

@@ -47,7 +47,9 @@ function Overview() {
   const setParam = (patch: Record<string, string | null>) =>
     setParams((p) => {
       const n = new URLSearchParams(p);
-      for (const [k, v] of Object.entries(patch)) if (v === null) n.delete(k); else n.set(k, v);
+      for (const [k, v] of Object.entries(patch))
+        if (v === null) n.delete(k);
+        else n.set(k, v);
       return n;
     });
 
@@ -85,7 +87,13 @@ function Overview() {
         </Card>
       )}
 
-      <div role="tablist" aria-label="Workroom sections" onKeyDown={onTabListKeyDown} className="flex flex-wrap gap-1 border-b border-chalk-200">
+      <div
+        role="tablist"
+        aria-label="Workroom sections"
+        tabIndex={-1}
+        onKeyDown={onTabListKeyDown}
+        className="flex flex-wrap gap-1 border-b border-chalk-200"
+      >
         {TABS.map((t) => (
           <button
             key={t.key}
@@ -94,24 +102,43 @@ function Overview() {
             aria-selected={tab === t.key}
             tabIndex={tab === t.key ? 0 : -1}
             onClick={() => setParam({ tab: t.key })}
-            className={cn("min-h-11 rounded-t-md px-4 text-sm font-semibold", tab === t.key ? "bg-white text-ink border border-b-0 border-chalk-200" : "text-slate hover:text-ink")}
+            className={cn(
+              "min-h-11 rounded-t-md px-4 text-sm font-semibold",
+              tab === t.key ? "bg-white text-ink border border-b-0 border-chalk-200" : "text-slate hover:text-ink",
+            )}
           >
             {t.label}
           </button>
         ))}
       </div>
 
-      {tab === "fittings" && <Card>{fittings.isPending ? <Spinner /> : fittings.error ? <ErrorAlert error={fittings.error} /> : <FittingsList productionId={productionId} fittings={fittings.data} />}</Card>}
+      {tab === "fittings" && (
+        <Card>
+          {fittings.isPending ? (
+            <Spinner />
+          ) : fittings.error ? (
+            <ErrorAlert error={fittings.error} />
+          ) : (
+            <FittingsList productionId={productionId} fittings={fittings.data} />
+          )}
+        </Card>
+      )}
 
       {(tab === "tickets" || tab === "calendar") && (
         <div className="flex flex-wrap items-end gap-2 text-sm">
           <label className="flex flex-col gap-1 font-semibold text-ink-900">
             Plan from
-            <input type="date" className="rounded-md border border-ink-100 px-2 py-1" value={plan.data?.from ?? ""} onChange={(e) => setParam({ from: e.target.value || null })} />
+            <input
+              type="date"
+              className="rounded-md border border-ink-100 px-2 py-1"
+              value={plan.data?.from ?? ""}
+              onChange={(e) => setParam({ from: e.target.value || null })}
+            />
           </label>
           {plan.data && (
             <p className="pb-1 text-slate">
-              {plan.data.summary.openCount} open · {plan.data.summary.lateCount} late · buffer {plan.data.bufferWorkingDays} working day{plan.data.bufferWorkingDays === 1 ? "" : "s"}
+              {plan.data.summary.openCount} open · {plan.data.summary.lateCount} late · buffer {plan.data.bufferWorkingDays} working day
+              {plan.data.bufferWorkingDays === 1 ? "" : "s"}
             </p>
           )}
         </div>
@@ -119,7 +146,20 @@ function Overview() {
 
       {tab === "tickets" && (
         <Card>
-          {plan.isPending ? <Spinner /> : plan.error ? <ErrorAlert error={plan.error} /> : <TicketsTable productionId={productionId} tickets={plan.data.tickets} units={units} canUpdate={can("alteration.update")} canEstimate={can("alteration.estimate")} focusTicketId={params.get("ticket")} />}
+          {plan.isPending ? (
+            <Spinner />
+          ) : plan.error ? (
+            <ErrorAlert error={plan.error} />
+          ) : (
+            <TicketsTable
+              productionId={productionId}
+              tickets={plan.data.tickets}
+              units={units}
+              canUpdate={can("alteration.update")}
+              canEstimate={can("alteration.estimate")}
+              focusTicketId={params.get("ticket")}
+            />
+          )}
         </Card>
       )}
 
@@ -149,7 +189,12 @@ function Overview() {
           ) : capacity.error ? (
             <ErrorAlert error={capacity.error} />
           ) : (
-            <CapacityEditor productionId={productionId} people={capacity.data} settings={options.data?.settings ?? { bufferWorkingDays: 1, reminderHour: 18 }} canEdit={can("workroom.capacity")} />
+            <CapacityEditor
+              productionId={productionId}
+              people={capacity.data}
+              settings={options.data?.settings ?? { bufferWorkingDays: 1, reminderHour: 18 }}
+              canEdit={can("workroom.capacity")}
+            />
           )}
         </Card>
       )}
@@ -157,7 +202,13 @@ function Overview() {
       {can("workroom.mail") && tab === "capacity" && (
         <Card>
           <h2 className="mb-2 font-semibold text-ink">Invitations and reminders not sent</h2>
-          {emailJobs.isPending ? <Spinner /> : emailJobs.error ? <ErrorAlert error={emailJobs.error} /> : <EmailFailures productionId={productionId} jobs={emailJobs.data} />}
+          {emailJobs.isPending ? (
+            <Spinner />
+          ) : emailJobs.error ? (
+            <ErrorAlert error={emailJobs.error} />
+          ) : (
+            <EmailFailures productionId={productionId} jobs={emailJobs.data} />
+          )}
         </Card>
       )}
     </div>
@@ -172,7 +223,16 @@ function FittingPage() {
   if (fitting.isPending || options.isPending) return <Spinner />;
   if (fitting.error) return <ErrorAlert error={fitting.error} />;
   if (options.error) return <ErrorAlert error={options.error} />;
-  return <FittingView productionId={productionId} fitting={fitting.data} options={options.data} units={production?.units ?? "cm"} canEdit={can("alteration.update")} canLink={can("fitting.link_garment")} />;
+  return (
+    <FittingView
+      productionId={productionId}
+      fitting={fitting.data}
+      options={options.data}
+      units={production?.units ?? "cm"}
+      canEdit={can("alteration.update")}
+      canLink={can("fitting.link_garment")}
+    />
+  );
 }
 
 /** The Workroom screen: fittings, tickets with their plan, calendar, hours; a fitting's own page for tablets. */

@@ -12,14 +12,24 @@ import { paths } from "@/config/paths";
 
 export default function ForgotPasswordPage() {
   const reset = useRequestPasswordReset();
-  const form = useForm<RequestPasswordResetInput>({ resolver: formResolver(zodResolver(requestPasswordResetInputSchema)), defaultValues: { email: "" } });
+  const form = useForm<RequestPasswordResetInput>({
+    resolver: formResolver(zodResolver(requestPasswordResetInputSchema)),
+    defaultValues: { email: "" },
+  });
   return (
     <AuthLayout title="Reset your password">
       {reset.isSuccess ? (
         <p className="text-sm text-ink-900">{reset.data.message} The link works once and expires in an hour.</p>
       ) : (
         <form onSubmit={form.handleSubmit((v) => reset.mutate(v))} noValidate className="grid gap-4">
-          <InputField label="E-mail" type="email" autoComplete="username" autoFocus {...form.register("email")} error={form.formState.errors.email?.message} />
+          <InputField
+            label="E-mail"
+            type="email"
+            autoComplete="username"
+            autoFocus
+            {...form.register("email")}
+            error={form.formState.errors.email?.message}
+          />
           {reset.error && <ErrorAlert error={reset.error} />}
           <Button type="submit" size="lg" busy={reset.isPending}>
             Send reset link

@@ -24,8 +24,18 @@ export default function InvitationPage() {
   const form = useForm<z.infer<typeof schema>>({ resolver: formResolver(zodResolver(schema)), defaultValues: { name: "", password: "" } });
   const go = (productionId: string) => navigate(paths.production.root.getHref(productionId), { replace: true });
 
-  if (preview.isPending) return <AuthLayout title="Invitation"><Spinner /></AuthLayout>;
-  if (preview.error) return <AuthLayout title="Invitation"><ErrorAlert error={preview.error} title="Cannot use this link" /></AuthLayout>;
+  if (preview.isPending)
+    return (
+      <AuthLayout title="Invitation">
+        <Spinner />
+      </AuthLayout>
+    );
+  if (preview.error)
+    return (
+      <AuthLayout title="Invitation">
+        <ErrorAlert error={preview.error} title="Cannot use this link" />
+      </AuthLayout>
+    );
   const inv = preview.data;
   return (
     <AuthLayout title={`Join ${inv.productionTitle}`}>
@@ -34,7 +44,12 @@ export default function InvitationPage() {
       </p>
       {inv.accountExists ? (
         me.data?.email === inv.email ? (
-          <Button size="lg" className="w-full" busy={accept.isPending} onClick={() => accept.mutate({ token }, { onSuccess: (r) => go(r.productionId) })}>
+          <Button
+            size="lg"
+            className="w-full"
+            busy={accept.isPending}
+            onClick={() => accept.mutate({ token }, { onSuccess: (r) => void go(r.productionId) })}
+          >
             Join the production
           </Button>
         ) : (
@@ -47,15 +62,36 @@ export default function InvitationPage() {
           </p>
         )
       ) : (
-        <form onSubmit={form.handleSubmit((v) => accept.mutate({ token, ...v }, { onSuccess: (r) => go(r.productionId) }))} noValidate className="grid gap-4">
-          <InputField label="Your name" autoComplete="name" autoFocus {...form.register("name")} error={form.formState.errors.name?.message} />
-          <InputField label="Choose a password" type="password" autoComplete="new-password" hint="At least 10 characters." {...form.register("password")} error={form.formState.errors.password?.message} />
+        <form
+          onSubmit={form.handleSubmit((v) => accept.mutate({ token, ...v }, { onSuccess: (r) => void go(r.productionId) }))}
+          noValidate
+          className="grid gap-4"
+        >
+          <InputField
+            label="Your name"
+            autoComplete="name"
+            autoFocus
+            {...form.register("name")}
+            error={form.formState.errors.name?.message}
+          />
+          <InputField
+            label="Choose a password"
+            type="password"
+            autoComplete="new-password"
+            hint="At least 10 characters."
+            {...form.register("password")}
+            error={form.formState.errors.password?.message}
+          />
           <Button type="submit" size="lg" busy={accept.isPending}>
             Create account and join
           </Button>
         </form>
       )}
-      {accept.error && <div className="mt-3"><ErrorAlert error={accept.error} title="Not joined" /></div>}
+      {accept.error && (
+        <div className="mt-3">
+          <ErrorAlert error={accept.error} title="Not joined" />
+        </div>
+      )}
     </AuthLayout>
   );
 }

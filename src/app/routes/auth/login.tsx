@@ -20,12 +20,27 @@ export default function LoginPage() {
   const login = useLogin();
   const form = useForm<LoginInput>({ resolver: formResolver(zodResolver(loginInputSchema)), defaultValues: { email: "", password: "" } });
   if (me.data) return <Navigate to={redirectTo?.startsWith("/") ? redirectTo : "/"} replace />;
-  const onSubmit = form.handleSubmit((v) => login.mutate(v, { onSuccess: () => navigate(redirectTo?.startsWith("/") ? redirectTo : "/", { replace: true }) }));
+  const onSubmit = form.handleSubmit((v) =>
+    login.mutate(v, { onSuccess: () => void navigate(redirectTo?.startsWith("/") ? redirectTo : "/", { replace: true }) }),
+  );
   return (
     <AuthLayout title="Sign in">
       <form onSubmit={onSubmit} noValidate className="grid gap-4">
-        <InputField label="E-mail" type="email" autoComplete="username" autoFocus {...form.register("email")} error={form.formState.errors.email?.message} />
-        <InputField label="Password" type="password" autoComplete="current-password" {...form.register("password")} error={form.formState.errors.password?.message} />
+        <InputField
+          label="E-mail"
+          type="email"
+          autoComplete="username"
+          autoFocus
+          {...form.register("email")}
+          error={form.formState.errors.email?.message}
+        />
+        <InputField
+          label="Password"
+          type="password"
+          autoComplete="current-password"
+          {...form.register("password")}
+          error={form.formState.errors.password?.message}
+        />
         {login.error && <ErrorAlert error={login.error} title="Not signed in" />}
         <Button type="submit" size="lg" busy={login.isPending}>
           Sign in

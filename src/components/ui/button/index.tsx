@@ -27,7 +27,12 @@ export const Button = forwardRef<HTMLButtonElement, ButtonProps>(function Button
       type={type}
       disabled={disabled || busy}
       aria-busy={busy || undefined}
-      className={cn("inline-flex items-center justify-center gap-2 rounded-md font-semibold transition-colors", variants[variant], sizes[size], className)}
+      className={cn(
+        "inline-flex items-center justify-center gap-2 rounded-md font-semibold transition-colors",
+        variants[variant],
+        sizes[size],
+        className,
+      )}
       {...rest}
     >
       {busy && <span className="size-3.5 animate-spin rounded-full border-2 border-current border-t-transparent" aria-hidden />}

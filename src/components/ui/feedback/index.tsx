@@ -43,7 +43,11 @@ const severityStyles = {
 
 /** A small label; severities use our madder / ochre / slate. */
 export function Badge({ tone = "neutral", children }: { tone?: keyof typeof severityStyles; children: ReactNode }) {
-  return <span className={cn("inline-flex items-center rounded border px-1.5 py-0.5 text-xs font-semibold", severityStyles[tone])}>{children}</span>;
+  return (
+    <span className={cn("inline-flex items-center rounded border px-1.5 py-0.5 text-xs font-semibold", severityStyles[tone])}>
+      {children}
+    </span>
+  );
 }
 
 /** A caution box for work that can hurt someone (chemicals, blades, heat, stunts, water, fire). */

@@ -1,7 +1,8 @@
 import { forwardRef, useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from "react";
 import { cn } from "@/utils/cn";
 
-const control = "w-full rounded-md border border-ink-100 bg-white px-3 py-2 text-sm text-ink-900 placeholder:text-slate/60 focus:border-ink focus:outline-none aria-[invalid=true]:border-madder";
+const control =
+  "w-full rounded-md border border-ink-100 bg-white px-3 py-2 text-sm text-ink-900 placeholder:text-slate/60 focus:border-ink focus:outline-none aria-[invalid=true]:border-madder";
 
 interface FieldShellProps {
   label: string;
@@ -36,17 +37,25 @@ export function FieldShell({ label, error, hint, children, className }: FieldShe
 
 type InputFieldProps = InputHTMLAttributes<HTMLInputElement> & { label: string; error?: string; hint?: ReactNode };
 
-export const InputField = forwardRef<HTMLInputElement, InputFieldProps>(function InputField({ label, error, hint, className, ...rest }, ref) {
+export const InputField = forwardRef<HTMLInputElement, InputFieldProps>(function InputField(
+  { label, error, hint, className, ...rest },
+  ref,
+) {
   return (
     <FieldShell label={label} error={error} hint={hint} className={className}>
-      {(id, describedBy) => <input ref={ref} id={id} aria-invalid={Boolean(error)} aria-describedby={describedBy} className={control} {...rest} />}
+      {(id, describedBy) => (
+        <input ref={ref} id={id} aria-invalid={Boolean(error)} aria-describedby={describedBy} className={control} {...rest} />
+      )}
     </FieldShell>
   );
 });
 
 type SelectFieldProps = SelectHTMLAttributes<HTMLSelectElement> & { label: string; error?: string; hint?: ReactNode };
 
-export const SelectField = forwardRef<HTMLSelectElement, SelectFieldProps>(function SelectField({ label, error, hint, className, children, ...rest }, ref) {
+export const SelectField = forwardRef<HTMLSelectElement, SelectFieldProps>(function SelectField(
+  { label, error, hint, className, children, ...rest },
+  ref,
+) {
   return (
     <FieldShell label={label} error={error} hint={hint} className={className}>
       {(id, describedBy) => (
@@ -60,10 +69,22 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectFieldProps>(funct
 
 type TextareaFieldProps = TextareaHTMLAttributes<HTMLTextAreaElement> & { label: string; error?: string; hint?: ReactNode };
 
-export const TextareaField = forwardRef<HTMLTextAreaElement, TextareaFieldProps>(function TextareaField({ label, error, hint, className, ...rest }, ref) {
+export const TextareaField = forwardRef<HTMLTextAreaElement, TextareaFieldProps>(function TextareaField(
+  { label, error, hint, className, ...rest },
+  ref,
+) {
   return (
     <FieldShell label={label} error={error} hint={hint} className={className}>
-      {(id, describedBy) => <textarea ref={ref} id={id} aria-invalid={Boolean(error)} aria-describedby={describedBy} className={cn(control, "min-h-20")} {...rest} />}
+      {(id, describedBy) => (
+        <textarea
+          ref={ref}
+          id={id}
+          aria-invalid={Boolean(error)}
+          aria-describedby={describedBy}
+          className={cn(control, "min-h-20")}
+          {...rest}
+        />
+      )}
     </FieldShell>
   );
 });

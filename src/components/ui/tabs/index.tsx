@@ -9,11 +9,15 @@ export function onTabListKeyDown(e: KeyboardEvent<HTMLElement>): void {
   const at = tabs.findIndex((t) => t === document.activeElement);
   if (at < 0 || tabs.length === 0) return;
   const next =
-    e.key === "ArrowRight" || e.key === "ArrowDown" ? (at + 1) % tabs.length
-    : e.key === "ArrowLeft" || e.key === "ArrowUp" ? (at - 1 + tabs.length) % tabs.length
-    : e.key === "Home" ? 0
-    : e.key === "End" ? tabs.length - 1
-    : -1;
+    e.key === "ArrowRight" || e.key === "ArrowDown"
+      ? (at + 1) % tabs.length
+      : e.key === "ArrowLeft" || e.key === "ArrowUp"
+        ? (at - 1 + tabs.length) % tabs.length
+        : e.key === "Home"
+          ? 0
+          : e.key === "End"
+            ? tabs.length - 1
+            : -1;
   if (next < 0) return;
   e.preventDefault();
   tabs[next]!.focus();

@@ -93,7 +93,12 @@ export function useLogout() {
 
 /** Whether a pathname is one of the sign-in pages (never a place to return to after signing in). */
 export function isAuthPath(pathname: string): boolean {
-  return pathname === paths.auth.login.path || pathname === paths.auth.forgot.path || pathname.startsWith("/reset-password/") || pathname.startsWith("/invitations/");
+  return (
+    pathname === paths.auth.login.path ||
+    pathname === paths.auth.forgot.path ||
+    pathname.startsWith("/reset-password/") ||
+    pathname.startsWith("/invitations/")
+  );
 }
 
 export function useRequestPasswordReset() {
@@ -121,7 +126,7 @@ export function useAcceptInvitation() {
     onSuccess: (res) => {
       resetCsrfToken();
       qc.setQueryData(["me"], res.me);
-      qc.invalidateQueries({ queryKey: ["productions"] });
+      void qc.invalidateQueries({ queryKey: ["productions"] });
     },
   });
 }

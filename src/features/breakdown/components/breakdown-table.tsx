@@ -47,7 +47,11 @@ function buildColumns(stage: boolean, sceneHref: (id: string) => string) {
     col.accessor("storyDay", { header: "Story day", filterFn: equalsValue, size: 70 }),
     stage
       ? col.accessor("runningMinutes", { header: "Minutes", cell: (c) => c.getValue() ?? "", size: 70 })
-      : col.accessor("lengthEighths", { header: "Pages", cell: (c) => (c.getValue() == null ? "" : formatEighths(c.getValue()!)), size: 70 }),
+      : col.accessor("lengthEighths", {
+          header: "Pages",
+          cell: (c) => (c.getValue() == null ? "" : formatEighths(c.getValue()!)),
+          size: 70,
+        }),
     col.accessor((r) => r.shootDays.map((d) => d.dayNumber).join(", "), {
       id: "shootDays",
       header: stage ? scheduleLabels("stage").Days : scheduleLabels("film").Day,
@@ -55,7 +59,13 @@ function buildColumns(stage: boolean, sceneHref: (id: string) => string) {
       sortingFn: (a, b) => (a.original.shootDays[0]?.dayNumber ?? 1e9) - (b.original.shootDays[0]?.dayNumber ?? 1e9),
       size: 90,
     }),
-    col.accessor((r) => r.characters.map((c) => `${c.name}${c.changeNumber ? ` (${c.changeNumber})` : ""}`).join(", "), { id: "characters", header: "Characters (change)", filterFn: hasCharacter, enableSorting: false, size: 320 }),
+    col.accessor((r) => r.characters.map((c) => `${c.name}${c.changeNumber ? ` (${c.changeNumber})` : ""}`).join(", "), {
+      id: "characters",
+      header: "Characters (change)",
+      filterFn: hasCharacter,
+      enableSorting: false,
+      size: 320,
+    }),
     col.accessor("synopsis", { header: "Synopsis", enableSorting: false, size: 320 }),
   ];
 }
@@ -63,7 +73,19 @@ function buildColumns(stage: boolean, sceneHref: (id: string) => string) {
 const ROW_HEIGHT = 40;
 
 /** The breakdown: sortable, filterable, column-hiding, virtualised so thousands of scenes stay smooth. */
-export function BreakdownTable({ scenes, shootDays, characters, stage, sceneHref }: { scenes: SceneRowDto[]; shootDays: ShootDayDto[]; characters: CharacterDto[]; stage: boolean; sceneHref: (id: string) => string }) {
+export function BreakdownTable({
+  scenes,
+  shootDays,
+  characters,
+  stage,
+  sceneHref,
+}: {
+  scenes: SceneRowDto[];
+  shootDays: ShootDayDto[];
+  characters: CharacterDto[];
+  stage: boolean;
+  sceneHref: (id: string) => string;
+}) {
   const [sorting, setSorting] = useState<SortingState>([{ id: "storyOrder", desc: false }]);
   const [filters, setFilters] = useState<ColumnFiltersState>([]);
   const [visibility, setVisibility] = useState<VisibilityState>({ synopsis: false, timeOfDay: !stage, intExt: !stage });
@@ -82,14 +104,23 @@ export function BreakdownTable({ scenes, shootDays, characters, stage, sceneHref
   });
   const rows = table.getRowModel().rows;
   const scrollRef = useRef<HTMLDivElement>(null);
-  const virtualizer = useVirtualizer({ count: rows.length, getScrollElement: () => scrollRef.current, estimateSize: () => ROW_HEIGHT, overscan: 12 });
+  const virtualizer = useVirtualizer({
+    count: rows.length,
+    getScrollElement: () => scrollRef.current,
+    estimateSize: () => ROW_HEIGHT,
+    overscan: 12,
+  });
   const items = virtualizer.getVirtualItems();
   const padTop = items[0]?.start ?? 0;
   const padBottom = virtualizer.getTotalSize() - (items[items.length - 1]?.end ?? 0);
-  const storyDays = useMemo(() => [...new Set(scenes.map((s) => s.storyDay).filter((d): d is number => d != null))].sort((a, b) => a - b), [scenes]);
+  const storyDays = useMemo(
+    () => [...new Set(scenes.map((s) => s.storyDay).filter((d): d is number => d != null))].sort((a, b) => a - b),
+    [scenes],
+  );
   const sets = useMemo(() => [...new Set(scenes.map((s) => s.setName).filter((d): d is string => Boolean(d)))].sort(), [scenes]);
   const filterValue = (id: string) => (filters.find((f) => f.id === id)?.value as string | undefined) ?? "";
-  const setFilter = (id: string, value: string) => setFilters((fs) => [...fs.filter((f) => f.id !== id), ...(value ? [{ id, value }] : [])]);
+  const setFilter = (id: string, value: string) =>
+    setFilters((fs) => [...fs.filter((f) => f.id !== id), ...(value ? [{ id, value }] : [])]);
 
   return (
     <div className="grid gap-3">
@@ -107,13 +138,20 @@ export function BreakdownTable({ scenes, shootDays, characters, stage, sceneHref
         </label>
         <label className="grid gap-1 text-sm font-semibold text-ink-900">
           {scheduleLabels(stage ? "stage" : "film").Day}
-          <select className={controlClass} value={filterValue("shootDays")} onChange={(e) => setFilter("shootDays", e.target.value)} disabled={stage}>
+          <select
+            className={controlClass}
+            value={filterValue("shootDays")}
+            onChange={(e) => setFilter("shootDays", e.target.value)}
+            disabled={stage}
+          >
             <option value="">All</option>
-            {shootDays.filter((d) => d.kind === "shoot").map((d) => (
-              <option key={d.id} value={d.id}>
-                Day {d.dayNumber} · {formatDate(d.date)}
-              </option>
-            ))}
+            {shootDays
+              .filter((d) => d.kind === "shoot")
+              .map((d) => (
+                <option key={d.id} value={d.id}>
+                  Day {d.dayNumber} · {formatDate(d.date)}
+                </option>
+              ))}
           </select>
         </label>
         <label className="grid gap-1 text-sm font-semibold text-ink-900">
@@ -159,7 +197,13 @@ export function BreakdownTable({ scenes, shootDays, characters, stage, sceneHref
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
                 {hg.headers.map((h) => (
-                  <th key={h.id} scope="col" className="border-b border-chalk-200 px-2 py-2 text-left font-semibold whitespace-nowrap text-ink" style={{ minWidth: h.getSize() }} aria-sort={h.column.getIsSorted() === "asc" ? "ascending" : h.column.getIsSorted() === "desc" ? "descending" : "none"}>
+                  <th
+                    key={h.id}
+                    scope="col"
+                    className="border-b border-chalk-200 px-2 py-2 text-left font-semibold whitespace-nowrap text-ink"
+                    style={{ minWidth: h.getSize() }}
+                    aria-sort={h.column.getIsSorted() === "asc" ? "ascending" : h.column.getIsSorted() === "desc" ? "descending" : "none"}
+                  >
                     <SortHeader header={h} />
                   </th>
                 ))}
@@ -175,7 +219,11 @@ export function BreakdownTable({ scenes, shootDays, characters, stage, sceneHref
             {items.map((vi) => {
               const row = rows[vi.index]!;
               return (
-                <tr key={row.id} className={cn("border-b border-chalk-100", vi.index % 2 ? "bg-chalk/40" : "")} style={{ height: ROW_HEIGHT }}>
+                <tr
+                  key={row.id}
+                  className={cn("border-b border-chalk-100", vi.index % 2 ? "bg-chalk/40" : "")}
+                  style={{ height: ROW_HEIGHT }}
+                >
                   {row.getVisibleCells().map((cell) => (
                     <td key={cell.id} className="max-w-80 truncate px-2 py-1 align-middle">
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}

@@ -8,7 +8,8 @@ import { useImportBreakdown, useImportPreview } from "../api/breakdown";
 /** Rows shown in the preview table; the counts above it cover the whole file. */
 const SHOWN_ROWS = 500;
 
-const linkClass = "inline-flex min-h-11 items-center rounded-md border border-ink-100 bg-white px-3.5 py-2 font-semibold text-ink hover:bg-ink-50";
+const linkClass =
+  "inline-flex min-h-11 items-center rounded-md border border-ink-100 bg-white px-3.5 py-2 font-semibold text-ink hover:bg-ink-50";
 
 /** "old → new" with empty values named, so a cleared field reads as cleared. */
 function OldNew({ old, next }: { old: string; next: string }) {
@@ -34,7 +35,11 @@ export function ImportPanel({ productionId, canImport }: { productionId: string;
   const importM = useImportBreakdown(productionId);
   const exportHref = `/api/productions/${productionId}/scenes/export`;
   const templateHref = `/api/productions/${productionId}/imports/breakdown/template`;
-  const rows: ImportRowChange[] = preview ? (showUnchanged ? preview.changes : preview.changes.filter((c) => c.status !== "unchanged")) : [];
+  const rows: ImportRowChange[] = preview
+    ? showUnchanged
+      ? preview.changes
+      : preview.changes.filter((c) => c.status !== "unchanged")
+    : [];
   const changedDays = preview ? preview.days.filter((d) => d.status !== "unchanged") : [];
   return (
     <div className="grid gap-3 text-sm">
@@ -51,7 +56,9 @@ export function ImportPanel({ productionId, canImport }: { productionId: string;
       <details className="rounded border border-chalk-200 bg-white p-3">
         <summary className="cursor-pointer font-semibold text-ink">Columns and what each accepts</summary>
         <p className="mt-2">
-          Importing <strong>merges</strong> into the breakdown: a column the file does not have, or an empty cell, keeps what is stored. To empty a field, write <code className="rounded bg-ink-50 px-1">{CLEAR_TOKEN}</code> in its cell. A scene shot on several days repeats on a row with only scene and the shoot columns. Lines starting with # are ignored.
+          Importing <strong>merges</strong> into the breakdown: a column the file does not have, or an empty cell, keeps what is stored. To
+          empty a field, write <code className="rounded bg-ink-50 px-1">{CLEAR_TOKEN}</code> in its cell. A scene shot on several days
+          repeats on a row with only scene and the shoot columns. Lines starting with # are ignored.
         </p>
         <dl className="mt-2 grid gap-1 sm:grid-cols-[10rem_1fr]">
           {breakdownCsvColumns.map((c) => (
@@ -85,7 +92,9 @@ export function ImportPanel({ productionId, canImport }: { productionId: string;
           {preview && (
             <div className="grid gap-3 rounded border border-chalk-200 bg-white p-3" aria-label="Import preview" role="region">
               <p>
-                {preview.rows} rows. Scenes: {preview.scenes.created} new, {preview.scenes.updated} changed, {preview.scenes.unchanged} unchanged. Shoot days: {preview.shootDays.created} new, {preview.shootDays.updated} changed, {preview.shootDays.unchanged} unchanged. Nothing is written until you press Import.
+                {preview.rows} rows. Scenes: {preview.scenes.created} new, {preview.scenes.updated} changed, {preview.scenes.unchanged}{" "}
+                unchanged. Shoot days: {preview.shootDays.created} new, {preview.shootDays.updated} changed, {preview.shootDays.unchanged}{" "}
+                unchanged. Nothing is written until you press Import.
               </p>
               {preview.errors.length > 0 ? (
                 <>
@@ -114,7 +123,8 @@ export function ImportPanel({ productionId, canImport }: { productionId: string;
               ) : (
                 <>
                   <label className="flex items-center gap-2">
-                    <input type="checkbox" checked={showUnchanged} onChange={(e) => setShowUnchanged(e.target.checked)} /> Show unchanged rows too
+                    <input type="checkbox" checked={showUnchanged} onChange={(e) => setShowUnchanged(e.target.checked)} /> Show unchanged
+                    rows too
                   </label>
                   <div className="max-h-[28rem] overflow-auto">
                     <table className="w-full text-left" aria-label="Changes per row">
@@ -179,7 +189,14 @@ export function ImportPanel({ productionId, canImport }: { productionId: string;
                     </div>
                   )}
                   <div>
-                    <Button onClick={() => file && importM.mutate({ csv: file.text, fileName: file.name })} busy={importM.isPending} disabled={importM.isSuccess || preview.scenes.created + preview.scenes.updated + preview.shootDays.created + preview.shootDays.updated === 0}>
+                    <Button
+                      onClick={() => file && importM.mutate({ csv: file.text, fileName: file.name })}
+                      busy={importM.isPending}
+                      disabled={
+                        importM.isSuccess ||
+                        preview.scenes.created + preview.scenes.updated + preview.shootDays.created + preview.shootDays.updated === 0
+                      }
+                    >
                       Import {preview.rows} row{preview.rows === 1 ? "" : "s"}
                     </Button>
                   </div>
@@ -188,7 +205,8 @@ export function ImportPanel({ productionId, canImport }: { productionId: string;
               {importM.error && <ErrorAlert error={importM.error} title="Nothing was imported" />}
               {importM.isSuccess && (
                 <p role="status" className="font-semibold text-ink">
-                  Imported: {importM.data.scenes.created} new and {importM.data.scenes.updated} changed scenes, {importM.data.shootDays.created} new and {importM.data.shootDays.updated} changed shoot days.
+                  Imported: {importM.data.scenes.created} new and {importM.data.scenes.updated} changed scenes,{" "}
+                  {importM.data.shootDays.created} new and {importM.data.shootDays.updated} changed shoot days.
                 </p>
               )}
             </div>

@@ -11,7 +11,19 @@ import { useDeleteScene, useUpdateScene } from "../api/breakdown";
 const text = (v: string) => (v.trim() ? v.trim() : null);
 
 /** Edits a scene's fields (number, set, I/E, time, story day and order, length, synopsis); delete asks first. */
-export function SceneForm({ productionId, scene, stage, onSaved, onDeleted }: { productionId: string; scene: SceneDetailDto; stage: boolean; onSaved?: () => void; onDeleted: () => void }) {
+export function SceneForm({
+  productionId,
+  scene,
+  stage,
+  onSaved,
+  onDeleted,
+}: {
+  productionId: string;
+  scene: SceneDetailDto;
+  stage: boolean;
+  onSaved?: () => void;
+  onDeleted: () => void;
+}) {
   const update = useUpdateScene(productionId, scene.id);
   const del = useDeleteScene(productionId);
   const [confirm, setConfirm] = useState(false);
@@ -22,7 +34,13 @@ export function SceneForm({ productionId, scene, stage, onSaved, onDeleted }: { 
     timeOfDay: scene.timeOfDay ?? "",
     storyDay: scene.storyDay == null ? "" : String(scene.storyDay),
     storyOrder: String(scene.storyOrder),
-    length: stage ? (scene.runningMinutes == null ? "" : String(scene.runningMinutes)) : scene.lengthEighths == null ? "" : formatEighths(scene.lengthEighths),
+    length: stage
+      ? scene.runningMinutes == null
+        ? ""
+        : String(scene.runningMinutes)
+      : scene.lengthEighths == null
+        ? ""
+        : formatEighths(scene.lengthEighths),
     synopsis: scene.synopsis ?? "",
   };
   const [v, setV] = useState(initial);
@@ -66,23 +84,72 @@ export function SceneForm({ productionId, scene, stage, onSaved, onDeleted }: { 
 
   return (
     <form onSubmit={submit} aria-label={`Edit scene ${scene.number}`} className="grid grid-cols-2 gap-3 sm:grid-cols-4">
-      <InputField label="Scene number" required value={v.number} onChange={(e) => setV({ ...v, number: e.target.value })} error={fields.number} />
-      <InputField label="Set or location" value={v.setName} onChange={(e) => setV({ ...v, setName: e.target.value })} error={fields.setName} />
+      <InputField
+        label="Scene number"
+        required
+        value={v.number}
+        onChange={(e) => setV({ ...v, number: e.target.value })}
+        error={fields.number}
+      />
+      <InputField
+        label="Set or location"
+        value={v.setName}
+        onChange={(e) => setV({ ...v, setName: e.target.value })}
+        error={fields.setName}
+      />
       <SelectField label="I/E" value={v.intExt} onChange={(e) => setV({ ...v, intExt: e.target.value })} error={fields.intExt}>
         <option value="">—</option>
         {intExtValues.map((x) => (
           <option key={x}>{x}</option>
         ))}
       </SelectField>
-      <InputField label="Time of day" value={v.timeOfDay} placeholder="DAY, NIGHT, DAWN…" onChange={(e) => setV({ ...v, timeOfDay: e.target.value })} error={fields.timeOfDay} />
-      <InputField label="Story day" inputMode="numeric" value={v.storyDay} onChange={(e) => setV({ ...v, storyDay: e.target.value })} error={fields.storyDay} />
-      <InputField label={stage ? "Running order" : "Story order"} inputMode="numeric" required value={v.storyOrder} onChange={(e) => setV({ ...v, storyOrder: e.target.value })} error={fields.storyOrder} />
+      <InputField
+        label="Time of day"
+        value={v.timeOfDay}
+        placeholder="DAY, NIGHT, DAWN…"
+        onChange={(e) => setV({ ...v, timeOfDay: e.target.value })}
+        error={fields.timeOfDay}
+      />
+      <InputField
+        label="Story day"
+        inputMode="numeric"
+        value={v.storyDay}
+        onChange={(e) => setV({ ...v, storyDay: e.target.value })}
+        error={fields.storyDay}
+      />
+      <InputField
+        label={stage ? "Running order" : "Story order"}
+        inputMode="numeric"
+        required
+        value={v.storyOrder}
+        onChange={(e) => setV({ ...v, storyOrder: e.target.value })}
+        error={fields.storyOrder}
+      />
       {stage ? (
-        <InputField label="Running time (minutes)" inputMode="decimal" value={v.length} onChange={(e) => setV({ ...v, length: e.target.value })} error={fields.runningMinutes} />
+        <InputField
+          label="Running time (minutes)"
+          inputMode="decimal"
+          value={v.length}
+          onChange={(e) => setV({ ...v, length: e.target.value })}
+          error={fields.runningMinutes}
+        />
       ) : (
-        <InputField label="Pages" placeholder="1 3/8" value={v.length} onChange={(e) => setV({ ...v, length: e.target.value })} error={fields.lengthEighths} hint="in eighths: 3/8, 1, 1 3/8" />
+        <InputField
+          label="Pages"
+          placeholder="1 3/8"
+          value={v.length}
+          onChange={(e) => setV({ ...v, length: e.target.value })}
+          error={fields.lengthEighths}
+          hint="in eighths: 3/8, 1, 1 3/8"
+        />
       )}
-      <TextareaField className="col-span-2 sm:col-span-4" label="Synopsis" value={v.synopsis} onChange={(e) => setV({ ...v, synopsis: e.target.value })} error={fields.synopsis} />
+      <TextareaField
+        className="col-span-2 sm:col-span-4"
+        label="Synopsis"
+        value={v.synopsis}
+        onChange={(e) => setV({ ...v, synopsis: e.target.value })}
+        error={fields.synopsis}
+      />
       {update.error && !Object.keys(server).length && <ErrorAlert error={update.error} title="Not saved" />}
       {update.isSuccess && !dirty && (
         <p role="status" className="col-span-2 self-center text-sm text-ink sm:col-span-4">
@@ -105,9 +172,19 @@ export function SceneForm({ productionId, scene, stage, onSaved, onDeleted }: { 
         danger
         busy={del.isPending}
         onCancel={() => setConfirm(false)}
-        onConfirm={() => del.mutate(scene.id, { onSuccess: () => { setConfirm(false); onDeleted(); }, onError: () => setConfirm(false) })}
+        onConfirm={() =>
+          del.mutate(scene.id, {
+            onSuccess: () => {
+              setConfirm(false);
+              onDeleted();
+            },
+            onError: () => setConfirm(false),
+          })
+        }
       >
-        {appearances ? `Its ${appearances} character${appearances === 1 ? "" : "s"} with their changes and states, ` : ""}every continuity entry and photo logged for it, and its place on {scene.shootDays.length} shoot day{scene.shootDays.length === 1 ? "" : "s"} are deleted too. This cannot be undone.
+        {appearances ? `Its ${appearances} character${appearances === 1 ? "" : "s"} with their changes and states, ` : ""}every continuity
+        entry and photo logged for it, and its place on {scene.shootDays.length} shoot day{scene.shootDays.length === 1 ? "" : "s"} are
+        deleted too. This cannot be undone.
       </ConfirmDialog>
     </form>
   );

@@ -16,7 +16,11 @@ import { formatDate } from "@shared/format";
 type App = SceneDetailDto["appearances"][number];
 
 /** Flags of an appearance as badges. */
-export function StateBadges({ a }: { a: { distressStage: number; wet: boolean; stunt: boolean; blood: boolean; vfxShot: boolean; changeHere: boolean } }) {
+export function StateBadges({
+  a,
+}: {
+  a: { distressStage: number; wet: boolean; stunt: boolean; blood: boolean; vfxShot: boolean; changeHere: boolean };
+}) {
   return (
     <span className="inline-flex flex-wrap gap-1">
       {a.distressStage > 0 && <Badge tone="warning">distress {a.distressStage}</Badge>}
@@ -30,7 +34,23 @@ export function StateBadges({ a }: { a: { distressStage: number; wet: boolean; s
 }
 
 /** A scene: its shoot days, each character with the change worn and the state, and continuity logged. */
-export function ScenePage({ productionId, scene, characters, changes, canEdit, stage, characterHref }: { productionId: string; scene: SceneDetailDto; characters: CharacterDto[]; changes: ChangeDto[]; canEdit: boolean; stage: boolean; characterHref: (id: string) => string }) {
+export function ScenePage({
+  productionId,
+  scene,
+  characters,
+  changes,
+  canEdit,
+  stage,
+  characterHref,
+}: {
+  productionId: string;
+  scene: SceneDetailDto;
+  characters: CharacterDto[];
+  changes: ChangeDto[];
+  canEdit: boolean;
+  stage: boolean;
+  characterHref: (id: string) => string;
+}) {
   const continuity = useContinuityEntries(productionId, { sceneId: scene.id });
   const create = useCreateAppearance(productionId);
   const update = useUpdateAppearance(productionId);
@@ -42,18 +62,59 @@ export function ScenePage({ productionId, scene, characters, changes, canEdit, s
   return (
     <div className="grid gap-4">
       <dl className="grid grid-cols-2 gap-x-4 gap-y-1 text-sm sm:grid-cols-4">
-        <div><dt className="text-slate">Set</dt><dd>{scene.setName ?? "—"} {scene.intExt ? `(${scene.intExt})` : ""}</dd></div>
-        <div><dt className="text-slate">Time · story day</dt><dd>{scene.timeOfDay ?? "—"} · {scene.storyDay ?? "—"}</dd></div>
-        <div><dt className="text-slate">{stage ? "Running time" : "Length"}</dt><dd>{stage ? `${scene.runningMinutes ?? "?"} min` : scene.lengthEighths != null ? `${formatEighths(scene.lengthEighths)} pages` : "—"}</dd></div>
-        <div><dt className="text-slate">{stage ? "Running order" : scheduleLabels("film").Days}</dt><dd>{stage ? scene.storyOrder : scene.shootDays.map((d) => `${scheduleLabels("film").numbered(d.dayNumber)} (${formatDate(d.date)})`).join(", ") || "not scheduled"}</dd></div>
+        <div>
+          <dt className="text-slate">Set</dt>
+          <dd>
+            {scene.setName ?? "—"} {scene.intExt ? `(${scene.intExt})` : ""}
+          </dd>
+        </div>
+        <div>
+          <dt className="text-slate">Time · story day</dt>
+          <dd>
+            {scene.timeOfDay ?? "—"} · {scene.storyDay ?? "—"}
+          </dd>
+        </div>
+        <div>
+          <dt className="text-slate">{stage ? "Running time" : "Length"}</dt>
+          <dd>
+            {stage
+              ? `${scene.runningMinutes ?? "?"} min`
+              : scene.lengthEighths != null
+                ? `${formatEighths(scene.lengthEighths)} pages`
+                : "—"}
+          </dd>
+        </div>
+        <div>
+          <dt className="text-slate">{stage ? "Running order" : scheduleLabels("film").Days}</dt>
+          <dd>
+            {stage
+              ? scene.storyOrder
+              : scene.shootDays.map((d) => `${scheduleLabels("film").numbered(d.dayNumber)} (${formatDate(d.date)})`).join(", ") ||
+                "not scheduled"}
+          </dd>
+        </div>
       </dl>
       {scene.synopsis && <p className="text-sm text-ink-900">{scene.synopsis}</p>}
-      {risky && <SafetyNote>This scene has wet, stunt or blood work: check fabric and fastenings with the stunt coordinator, keep dry changes and warm layers ready, and use only approved stage blood on approved fabrics.</SafetyNote>}
+      {risky && (
+        <SafetyNote>
+          This scene has wet, stunt or blood work: check fabric and fastenings with the stunt coordinator, keep dry changes and warm layers
+          ready, and use only approved stage blood on approved fabrics.
+        </SafetyNote>
+      )}
       <section aria-label="Characters in this scene" className="grid gap-2">
         <h2 className="font-semibold text-ink">Characters and changes</h2>
         <ul className="grid gap-2">
           {scene.appearances.map((a) => (
-            <AppearanceRow key={a.id} a={a} changes={changes.filter((c) => c.characterId === a.characterId)} canEdit={canEdit} stage={stage} characterHref={characterHref} onSave={(input) => update.mutate({ id: a.id, input })} onRemove={() => setRemoving(a)} />
+            <AppearanceRow
+              key={a.id}
+              a={a}
+              changes={changes.filter((c) => c.characterId === a.characterId)}
+              canEdit={canEdit}
+              stage={stage}
+              characterHref={characterHref}
+              onSave={(input) => update.mutate({ id: a.id, input })}
+              onRemove={() => setRemoving(a)}
+            />
           ))}
         </ul>
         {update.error && <ErrorAlert error={update.error} title="Not saved" />}
@@ -67,7 +128,8 @@ export function ScenePage({ productionId, scene, characters, changes, canEdit, s
           onCancel={() => setRemoving(null)}
           onConfirm={() => removing && remove.mutate(removing.id, { onSettled: () => setRemoving(null) })}
         >
-          The change worn here, the distress stage and the wet, stunt, blood and effects flags of this appearance are deleted. Continuity already logged stays.
+          The change worn here, the distress stage and the wet, stunt, blood and effects flags of this appearance are deleted. Continuity
+          already logged stays.
         </ConfirmDialog>
         {canEdit && (
           <div className="flex flex-wrap items-end gap-2">
@@ -75,14 +137,25 @@ export function ScenePage({ productionId, scene, characters, changes, canEdit, s
               Add a character
               <select className={controlClass} value={adding} onChange={(e) => setAdding(e.target.value)}>
                 <option value="">Choose…</option>
-                {characters.filter((c) => !present.has(c.id)).map((c) => (
-                  <option key={c.id} value={c.id}>
-                    {c.name}
-                  </option>
-                ))}
+                {characters
+                  .filter((c) => !present.has(c.id))
+                  .map((c) => (
+                    <option key={c.id} value={c.id}>
+                      {c.name}
+                    </option>
+                  ))}
               </select>
             </label>
-            <Button disabled={!adding} busy={create.isPending} onClick={() => create.mutate({ sceneId: scene.id, characterId: adding, changeId: changes.find((c) => c.characterId === adding)?.id ?? null }, { onSuccess: () => setAdding("") })}>
+            <Button
+              disabled={!adding}
+              busy={create.isPending}
+              onClick={() =>
+                create.mutate(
+                  { sceneId: scene.id, characterId: adding, changeId: changes.find((c) => c.characterId === adding)?.id ?? null },
+                  { onSuccess: () => setAdding("") },
+                )
+              }
+            >
               Add
             </Button>
             {create.error && <ErrorAlert error={create.error} />}
@@ -109,7 +182,23 @@ export function ScenePage({ productionId, scene, characters, changes, canEdit, s
   );
 }
 
-function AppearanceRow({ a, changes, canEdit, stage, characterHref, onSave, onRemove }: { a: App; changes: ChangeDto[]; canEdit: boolean; stage: boolean; characterHref: (id: string) => string; onSave: (input: Record<string, unknown>) => void; onRemove: () => void }) {
+function AppearanceRow({
+  a,
+  changes,
+  canEdit,
+  stage,
+  characterHref,
+  onSave,
+  onRemove,
+}: {
+  a: App;
+  changes: ChangeDto[];
+  canEdit: boolean;
+  stage: boolean;
+  characterHref: (id: string) => string;
+  onSave: (input: Record<string, unknown>) => void;
+  onRemove: () => void;
+}) {
   return (
     <li className="grid gap-2 rounded border border-chalk-200 bg-white p-2 sm:grid-cols-[1fr_auto] sm:items-center">
       <div className="grid gap-1">
@@ -117,16 +206,25 @@ function AppearanceRow({ a, changes, canEdit, stage, characterHref, onSave, onRe
           <Link to={characterHref(a.characterId)} className="font-semibold text-ink underline-offset-2 hover:underline">
             {a.characterName}
           </Link>
-          <span className="text-sm">{a.change ? `Change ${a.change.number}${a.change.description ? `: ${a.change.description}` : ""}` : "No change set"}</span>
+          <span className="text-sm">
+            {a.change ? `Change ${a.change.number}${a.change.description ? `: ${a.change.description}` : ""}` : "No change set"}
+          </span>
           <StateBadges a={a} />
-          {stage && a.minutesSincePreviousExit != null && <Badge tone={a.minutesSincePreviousExit < 2 ? "warning" : "neutral"}>{a.minutesSincePreviousExit} min since last exit</Badge>}
+          {stage && a.minutesSincePreviousExit != null && (
+            <Badge tone={a.minutesSincePreviousExit < 2 ? "warning" : "neutral"}>{a.minutesSincePreviousExit} min since last exit</Badge>
+          )}
         </div>
       </div>
       {canEdit && (
         <div className="flex flex-wrap items-center gap-2 text-sm">
           <label className="flex items-center gap-1">
             <span className="sr-only">Change for {a.characterName}</span>
-            <select className={`${controlClass} w-auto py-1`} value={a.changeId ?? ""} onChange={(e) => onSave({ changeId: e.target.value || null })} aria-label={`Change for ${a.characterName}`}>
+            <select
+              className={`${controlClass} w-auto py-1`}
+              value={a.changeId ?? ""}
+              onChange={(e) => onSave({ changeId: e.target.value || null })}
+              aria-label={`Change for ${a.characterName}`}
+            >
               <option value="">none</option>
               {changes.map((c) => (
                 <option key={c.id} value={c.id}>
@@ -137,7 +235,15 @@ function AppearanceRow({ a, changes, canEdit, stage, characterHref, onSave, onRe
           </label>
           <label className="flex items-center gap-1">
             Distress
-            <input type="number" min={0} max={10} className={`${controlClass} w-16 py-1`} defaultValue={a.distressStage} onBlur={(e) => Number(e.target.value) !== a.distressStage && onSave({ distressStage: Number(e.target.value) })} aria-label={`Distress stage for ${a.characterName}`} />
+            <input
+              type="number"
+              min={0}
+              max={10}
+              className={`${controlClass} w-16 py-1`}
+              defaultValue={a.distressStage}
+              onBlur={(e) => Number(e.target.value) !== a.distressStage && onSave({ distressStage: Number(e.target.value) })}
+              aria-label={`Distress stage for ${a.characterName}`}
+            />
           </label>
           {(["wet", "stunt", "blood", "vfxShot", "changeHere"] as const).map((f) => (
             <label key={f} className="flex items-center gap-1">

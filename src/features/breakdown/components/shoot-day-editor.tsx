@@ -1,6 +1,15 @@
-import { useEffect, useMemo, useState, type FormEvent, type ReactNode } from "react";
+import { useMemo, useState, type FormEvent, type ReactNode } from "react";
 import { Link } from "react-router";
-import { closestCenter, DndContext, KeyboardSensor, PointerSensor, useSensor, useSensors, type Announcements, type DragEndEvent } from "@dnd-kit/core";
+import {
+  closestCenter,
+  DndContext,
+  KeyboardSensor,
+  PointerSensor,
+  useSensor,
+  useSensors,
+  type Announcements,
+  type DragEndEvent,
+} from "@dnd-kit/core";
 import { arrayMove, SortableContext, sortableKeyboardCoordinates, useSortable, verticalListSortingStrategy } from "@dnd-kit/sortable";
 import { CSS } from "@dnd-kit/utilities";
 import type { SceneRowDto, ShootDayDto } from "@shared/schemas/breakdown";
@@ -29,7 +38,8 @@ interface EditorProps {
 }
 
 /** "Day 4" or "Performance 4": a stage production says performance. */
-export const dayLabel = (d: Pick<ShootDayDto, "kind" | "dayNumber">) => `${d.kind === "performance" ? "Performance" : "Day"} ${d.dayNumber}`;
+export const dayLabel = (d: Pick<ShootDayDto, "kind" | "dayNumber">) =>
+  `${d.kind === "performance" ? "Performance" : "Day"} ${d.dayNumber}`;
 
 /** Shoot days (or performances): add, date, delete; a day's scenes put on, taken off, reordered (drag or keyboard), moved. */
 export function ShootDayEditor({ productionId, days, scenes, stage, canEdit, today, sceneHref, daySnags }: EditorProps) {
@@ -44,7 +54,9 @@ export function ShootDayEditor({ productionId, days, scenes, stage, canEdit, tod
       <div className="grid content-start gap-3">
         {canEdit && <NewDayForm productionId={productionId} kind={kind} days={days} onCreated={setSelectedId} />}
         {sorted.length === 0 ? (
-          <EmptyState title={stage ? "No performances yet" : "No shoot days yet"}>{canEdit ? `Add the first ${noun} above.` : "The supervisor or designer adds them."}</EmptyState>
+          <EmptyState title={stage ? "No performances yet" : "No shoot days yet"}>
+            {canEdit ? `Add the first ${noun} above.` : "The supervisor or designer adds them."}
+          </EmptyState>
         ) : (
           <nav aria-label={stage ? "Performances" : "Shoot days"}>
             <ul className="grid max-h-[32rem] gap-1 overflow-y-auto">
@@ -54,13 +66,18 @@ export function ShootDayEditor({ productionId, days, scenes, stage, canEdit, tod
                     type="button"
                     aria-current={selected?.id === d.id ? "true" : undefined}
                     onClick={() => setSelectedId(d.id)}
-                    className={cn("flex min-h-11 w-full items-center justify-between gap-2 rounded-md border px-3 py-2 text-left text-sm", selected?.id === d.id ? "border-ink bg-ink text-chalk" : "border-chalk-200 bg-white text-ink-900 hover:bg-ink-50")}
+                    className={cn(
+                      "flex min-h-11 w-full items-center justify-between gap-2 rounded-md border px-3 py-2 text-left text-sm",
+                      selected?.id === d.id ? "border-ink bg-ink text-chalk" : "border-chalk-200 bg-white text-ink-900 hover:bg-ink-50",
+                    )}
                   >
                     <span className="font-semibold">
                       {dayLabel(d)} · {d.date}
                       {d.startsAt ? ` · ${d.startsAt.slice(0, 5)}` : ""}
                     </span>
-                    <span className="text-xs">{d.kind === "shoot" ? `${d.scenes.length} scene${d.scenes.length === 1 ? "" : "s"}` : "full show"}</span>
+                    <span className="text-xs">
+                      {d.kind === "shoot" ? `${d.scenes.length} scene${d.scenes.length === 1 ? "" : "s"}` : "full show"}
+                    </span>
                   </button>
                 </li>
               ))}
@@ -85,7 +102,17 @@ export function ShootDayEditor({ productionId, days, scenes, stage, canEdit, tod
   );
 }
 
-function NewDayForm({ productionId, kind, days, onCreated }: { productionId: string; kind: "shoot" | "performance"; days: ShootDayDto[]; onCreated: (id: string) => void }) {
+function NewDayForm({
+  productionId,
+  kind,
+  days,
+  onCreated,
+}: {
+  productionId: string;
+  kind: "shoot" | "performance";
+  days: ShootDayDto[];
+  onCreated: (id: string) => void;
+}) {
   const create = useCreateShootDay(productionId);
   const next = days.reduce((m, d) => Math.max(m, d.dayNumber), 0) + 1;
   const [v, setV] = useState({ dayNumber: "", date: "", startsAt: "" });
@@ -107,11 +134,35 @@ function NewDayForm({ productionId, kind, days, onCreated }: { productionId: str
     );
   };
   return (
-    <form onSubmit={submit} aria-label={`Add a ${label}`} className="grid grid-cols-2 gap-2 rounded-md border border-chalk-200 bg-white p-3">
+    <form
+      onSubmit={submit}
+      aria-label={`Add a ${label}`}
+      className="grid grid-cols-2 gap-2 rounded-md border border-chalk-200 bg-white p-3"
+    >
       <h2 className="col-span-2 text-sm font-semibold text-ink">Add a {label}</h2>
-      <InputField label="Number" type="number" min={1} placeholder={String(next)} value={v.dayNumber} onChange={(e) => setV({ ...v, dayNumber: e.target.value })} error={fields.dayNumber} />
-      <InputField label="Date" type="date" value={v.date} onChange={(e) => setV({ ...v, date: e.target.value })} error={missing ? "Choose the date." : fields.date} />
-      <InputField label={kind === "performance" ? "Curtain" : "Call time"} type="time" value={v.startsAt} onChange={(e) => setV({ ...v, startsAt: e.target.value })} error={fields.startsAt} />
+      <InputField
+        label="Number"
+        type="number"
+        min={1}
+        placeholder={String(next)}
+        value={v.dayNumber}
+        onChange={(e) => setV({ ...v, dayNumber: e.target.value })}
+        error={fields.dayNumber}
+      />
+      <InputField
+        label="Date"
+        type="date"
+        value={v.date}
+        onChange={(e) => setV({ ...v, date: e.target.value })}
+        error={missing ? "Choose the date." : fields.date}
+      />
+      <InputField
+        label={kind === "performance" ? "Curtain" : "Call time"}
+        type="time"
+        value={v.startsAt}
+        onChange={(e) => setV({ ...v, startsAt: e.target.value })}
+        error={fields.startsAt}
+      />
       <div className="flex items-end">
         <Button type="submit" busy={create.isPending} className="w-full">
           Add {label}
@@ -124,13 +175,27 @@ function NewDayForm({ productionId, kind, days, onCreated }: { productionId: str
 
 type Undo = { message: string; run: () => void };
 
-function DayPanel(props: { productionId: string; day: ShootDayDto; days: ShootDayDto[]; scenes: SceneRowDto[]; canEdit: boolean; sceneHref: (id: string) => string; onDeleted: () => void; snags?: ReactNode }) {
+function DayPanel(props: {
+  productionId: string;
+  day: ShootDayDto;
+  days: ShootDayDto[];
+  scenes: SceneRowDto[];
+  canEdit: boolean;
+  sceneHref: (id: string) => string;
+  onDeleted: () => void;
+  snags?: ReactNode;
+}) {
   const { productionId, day, canEdit } = props;
   const update = useUpdateShootDay(productionId);
   const move = useMoveScene(productionId);
   const del = useDeleteShootDay(productionId);
   const [order, setOrder] = useState(() => day.scenes.map((s) => s.id));
-  useEffect(() => setOrder(day.scenes.map((s) => s.id)), [day.scenes]);
+  // The server's order replaces the local one whenever the day is fetched again (adjusted while rendering).
+  const [orderOf, setOrderOf] = useState(day.scenes);
+  if (orderOf !== day.scenes) {
+    setOrderOf(day.scenes);
+    setOrder(day.scenes.map((s) => s.id));
+  }
   const [adding, setAdding] = useState("");
   const [undo, setUndo] = useState<Undo | null>(null);
   const [confirmDelete, setConfirmDelete] = useState(false);
@@ -138,12 +203,20 @@ function DayPanel(props: { productionId: string; day: ShootDayDto; days: ShootDa
   const sceneById = useMemo(() => new Map(props.scenes.map((s) => [s.id, s])), [props.scenes]);
   const otherDays = props.days.filter((d) => d.id !== day.id && d.kind === "shoot");
   const error = update.error ?? move.error ?? del.error;
-  const sensors = useSensors(useSensor(PointerSensor, { activationConstraint: { distance: 4 } }), useSensor(KeyboardSensor, { coordinateGetter: sortableKeyboardCoordinates }));
+  const sensors = useSensors(
+    useSensor(PointerSensor, { activationConstraint: { distance: 4 } }),
+    useSensor(KeyboardSensor, { coordinateGetter: sortableKeyboardCoordinates }),
+  );
   const numberOf = (id: string | number) => sceneById.get(String(id))?.number ?? "";
   const announcements: Announcements = {
-    onDragStart: ({ active }) => `Picked up scene ${numberOf(active.id)}. Use the arrow keys to move it, space to drop it, escape to cancel.`,
-    onDragOver: ({ active, over }) => (over ? `Scene ${numberOf(active.id)} is over place ${order.indexOf(String(over.id)) + 1} of ${order.length}.` : undefined),
-    onDragEnd: ({ active, over }) => (over ? `Scene ${numberOf(active.id)} dropped at place ${order.indexOf(String(over.id)) + 1} of ${order.length}.` : `Scene ${numberOf(active.id)} dropped.`),
+    onDragStart: ({ active }) =>
+      `Picked up scene ${numberOf(active.id)}. Use the arrow keys to move it, space to drop it, escape to cancel.`,
+    onDragOver: ({ active, over }) =>
+      over ? `Scene ${numberOf(active.id)} is over place ${order.indexOf(String(over.id)) + 1} of ${order.length}.` : undefined,
+    onDragEnd: ({ active, over }) =>
+      over
+        ? `Scene ${numberOf(active.id)} dropped at place ${order.indexOf(String(over.id)) + 1} of ${order.length}.`
+        : `Scene ${numberOf(active.id)} dropped.`,
     onDragCancel: ({ active }) => `Moving scene ${numberOf(active.id)} was cancelled; it is back in its place.`,
   };
 
@@ -153,7 +226,12 @@ function DayPanel(props: { productionId: string; day: ShootDayDto; days: ShootDa
     update.mutate(
       { id: day.id, sceneIds: ids },
       {
-        onSuccess: () => setUndo(undoMessage ? { message: undoMessage, run: () => update.mutate({ id: day.id, sceneIds: before }, { onSuccess: () => setUndo(null) }) } : null),
+        onSuccess: () =>
+          setUndo(
+            undoMessage
+              ? { message: undoMessage, run: () => update.mutate({ id: day.id, sceneIds: before }, { onSuccess: () => setUndo(null) }) }
+              : null,
+          ),
         onError: () => setOrder(before),
       },
     );
@@ -190,26 +268,64 @@ function DayPanel(props: { productionId: string; day: ShootDayDto; days: ShootDa
           </Button>
         )}
       </div>
-      {canEdit && <DayFields key={`${day.id}-${day.dayNumber}-${day.date}-${day.startsAt}-${day.notes}`} productionId={productionId} day={day} />}
+      {canEdit && (
+        <DayFields key={`${day.id}-${day.dayNumber}-${day.date}-${day.startsAt}-${day.notes}`} productionId={productionId} day={day} />
+      )}
       {error && <ErrorAlert error={error} title="Not saved" />}
-      {undo && <UndoBar message={undo.message} busy={update.isPending || move.isPending} onUndo={undo.run} onDismiss={() => setUndo(null)} />}
+      {undo && (
+        <UndoBar message={undo.message} busy={update.isPending || move.isPending} onUndo={undo.run} onDismiss={() => setUndo(null)} />
+      )}
 
       {day.kind === "performance" ? (
-        <p className="text-sm text-slate">A performance plays the whole show in running order ({day.scenes.length} scenes). Change the running order on the Running order tab.</p>
+        <p className="text-sm text-slate">
+          A performance plays the whole show in running order ({day.scenes.length} scenes). Change the running order on the Running order
+          tab.
+        </p>
       ) : (
         <div className="grid gap-2">
           <h3 className="font-semibold text-ink">Scenes in shooting order</h3>
-          {canEdit && order.length > 1 && <p className="text-xs text-slate">Drag a scene by its handle, or focus the handle and press space, then the arrow keys, then space again.</p>}
+          {canEdit && order.length > 1 && (
+            <p className="text-xs text-slate">
+              Drag a scene by its handle, or focus the handle and press space, then the arrow keys, then space again.
+            </p>
+          )}
           {order.length === 0 ? (
             <p className="text-sm text-slate">No scenes on this day yet.</p>
           ) : (
-            <DndContext sensors={sensors} collisionDetection={closestCenter} onDragEnd={onDragEnd} accessibility={{ announcements, screenReaderInstructions: { draggable: "To move a scene, press space or enter, then the up and down arrow keys, then space or enter to drop it. Escape cancels." } }}>
+            <DndContext
+              sensors={sensors}
+              collisionDetection={closestCenter}
+              onDragEnd={onDragEnd}
+              accessibility={{
+                announcements,
+                screenReaderInstructions: {
+                  draggable:
+                    "To move a scene, press space or enter, then the up and down arrow keys, then space or enter to drop it. Escape cancels.",
+                },
+              }}
+            >
               <SortableContext items={order} strategy={verticalListSortingStrategy}>
                 <ol className="grid gap-1.5" aria-label={`Scenes of ${dayLabel(day)}`}>
                   {order.map((id, i) => {
                     const s = sceneById.get(id);
                     return (
-                      <SceneSlot key={id} id={id} place={i + 1} scene={s} canEdit={canEdit} href={props.sceneHref(id)} otherDays={otherDays} busy={update.isPending || move.isPending} onMove={(toId) => moveTo(id, toId)} onTakeOff={() => saveOrder(order.filter((x) => x !== id), `Scene ${s?.number ?? ""} taken off ${dayLabel(day)}.`)} />
+                      <SceneSlot
+                        key={id}
+                        id={id}
+                        place={i + 1}
+                        scene={s}
+                        canEdit={canEdit}
+                        href={props.sceneHref(id)}
+                        otherDays={otherDays}
+                        busy={update.isPending || move.isPending}
+                        onMove={(toId) => moveTo(id, toId)}
+                        onTakeOff={() =>
+                          saveOrder(
+                            order.filter((x) => x !== id),
+                            `Scene ${s?.number ?? ""} taken off ${dayLabel(day)}.`,
+                          )
+                        }
+                      />
                     );
                   })}
                 </ol>
@@ -254,10 +370,22 @@ function DayPanel(props: { productionId: string; day: ShootDayDto; days: ShootDa
         danger
         busy={del.isPending}
         onCancel={() => setConfirmDelete(false)}
-        onConfirm={() => del.mutate(day.id, { onSuccess: () => { setConfirmDelete(false); props.onDeleted(); }, onError: () => setConfirmDelete(false) })}
+        onConfirm={() =>
+          del.mutate(day.id, {
+            onSuccess: () => {
+              setConfirmDelete(false);
+              props.onDeleted();
+            },
+            onError: () => setConfirmDelete(false),
+          })
+        }
       >
-        {day.kind === "shoot" ? `Its ${order.length} scene${order.length === 1 ? "" : "s"} stay in the breakdown but lose this day and their order on it. ` : ""}
-        {continuity.data?.length ? `${continuity.data.length} continuity entr${continuity.data.length === 1 ? "y" : "ies"} logged on this day keep their scene and photos but no longer name the day. ` : ""}
+        {day.kind === "shoot"
+          ? `Its ${order.length} scene${order.length === 1 ? "" : "s"} stay in the breakdown but lose this day and their order on it. `
+          : ""}
+        {continuity.data?.length
+          ? `${continuity.data.length} continuity entr${continuity.data.length === 1 ? "y" : "ies"} logged on this day keep their scene and photos but no longer name the day. `
+          : ""}
         This cannot be undone.
       </ConfirmDialog>
     </section>
@@ -266,9 +394,18 @@ function DayPanel(props: { productionId: string; day: ShootDayDto; days: ShootDa
 
 function DayFields({ productionId, day }: { productionId: string; day: ShootDayDto }) {
   const update = useUpdateShootDay(productionId);
-  const [v, setV] = useState({ dayNumber: String(day.dayNumber), date: day.date, startsAt: day.startsAt?.slice(0, 5) ?? "", notes: day.notes ?? "" });
+  const [v, setV] = useState({
+    dayNumber: String(day.dayNumber),
+    date: day.date,
+    startsAt: day.startsAt?.slice(0, 5) ?? "",
+    notes: day.notes ?? "",
+  });
   const fields = update.error instanceof ApiError ? update.error.fields : {};
-  const dirty = v.dayNumber !== String(day.dayNumber) || v.date !== day.date || v.startsAt !== (day.startsAt?.slice(0, 5) ?? "") || v.notes !== (day.notes ?? "");
+  const dirty =
+    v.dayNumber !== String(day.dayNumber) ||
+    v.date !== day.date ||
+    v.startsAt !== (day.startsAt?.slice(0, 5) ?? "") ||
+    v.notes !== (day.notes ?? "");
   return (
     <form
       aria-label={`Details of ${dayLabel(day)}`}
@@ -278,28 +415,82 @@ function DayFields({ productionId, day }: { productionId: string; day: ShootDayD
         update.mutate({ id: day.id, dayNumber: Number(v.dayNumber), date: v.date, startsAt: v.startsAt || null, notes: v.notes || null });
       }}
     >
-      <InputField label="Number" type="number" min={1} required value={v.dayNumber} onChange={(e) => setV({ ...v, dayNumber: e.target.value })} error={fields.dayNumber} />
-      <InputField label="Date" type="date" required value={v.date} onChange={(e) => setV({ ...v, date: e.target.value })} error={fields.date} />
-      <InputField label={day.kind === "performance" ? "Curtain" : "Call time"} type="time" value={v.startsAt} onChange={(e) => setV({ ...v, startsAt: e.target.value })} error={fields.startsAt} />
+      <InputField
+        label="Number"
+        type="number"
+        min={1}
+        required
+        value={v.dayNumber}
+        onChange={(e) => setV({ ...v, dayNumber: e.target.value })}
+        error={fields.dayNumber}
+      />
+      <InputField
+        label="Date"
+        type="date"
+        required
+        value={v.date}
+        onChange={(e) => setV({ ...v, date: e.target.value })}
+        error={fields.date}
+      />
+      <InputField
+        label={day.kind === "performance" ? "Curtain" : "Call time"}
+        type="time"
+        value={v.startsAt}
+        onChange={(e) => setV({ ...v, startsAt: e.target.value })}
+        error={fields.startsAt}
+      />
       <div className="flex items-end">
         <Button type="submit" variant="secondary" disabled={!dirty} busy={update.isPending} className="w-full">
           Save day
         </Button>
       </div>
-      <TextareaField className="col-span-2 sm:col-span-4" label="Notes" value={v.notes} onChange={(e) => setV({ ...v, notes: e.target.value })} error={fields.notes} />
+      <TextareaField
+        className="col-span-2 sm:col-span-4"
+        label="Notes"
+        value={v.notes}
+        onChange={(e) => setV({ ...v, notes: e.target.value })}
+        error={fields.notes}
+      />
     </form>
   );
 }
 
-function SceneSlot(props: { id: string; place: number; scene: SceneRowDto | undefined; canEdit: boolean; href: string; otherDays: ShootDayDto[]; busy: boolean; onMove: (toId: string) => void; onTakeOff: () => void }) {
-  const { attributes, listeners, setNodeRef, setActivatorNodeRef, transform, transition, isDragging } = useSortable({ id: props.id, disabled: !props.canEdit });
+function SceneSlot(props: {
+  id: string;
+  place: number;
+  scene: SceneRowDto | undefined;
+  canEdit: boolean;
+  href: string;
+  otherDays: ShootDayDto[];
+  busy: boolean;
+  onMove: (toId: string) => void;
+  onTakeOff: () => void;
+}) {
+  const { attributes, listeners, setNodeRef, setActivatorNodeRef, transform, transition, isDragging } = useSortable({
+    id: props.id,
+    disabled: !props.canEdit,
+  });
   const [to, setTo] = useState("");
   const s = props.scene;
   const number = s?.number ?? "?";
   return (
-    <li ref={setNodeRef} style={{ transform: CSS.Transform.toString(transform), transition }} className={cn("flex flex-wrap items-center gap-2 rounded-md border border-chalk-200 bg-white p-2 text-sm", isDragging && "relative z-10 shadow-lg")}>
+    <li
+      ref={setNodeRef}
+      style={{ transform: CSS.Transform.toString(transform), transition }}
+      className={cn(
+        "flex flex-wrap items-center gap-2 rounded-md border border-chalk-200 bg-white p-2 text-sm",
+        isDragging && "relative z-10 shadow-lg",
+      )}
+    >
       {props.canEdit && (
-        <button type="button" ref={setActivatorNodeRef} {...attributes} {...listeners} aria-label={`Reorder scene ${number} (place ${props.place})`} className="min-h-11 min-w-11 cursor-grab touch-none rounded-md border border-ink-100 text-lg text-slate hover:bg-ink-50">
+        <button
+          type="button"
+          ref={setActivatorNodeRef}
+          {...attributes}
+          {...listeners}
+          aria-label={`Reorder scene ${number} (place ${props.place})`}
+          className="min-h-11 min-w-11 cursor-grab touch-none rounded-md border border-ink-100 text-lg text-slate hover:bg-ink-50"
+        >
           ⠿
         </button>
       )}
@@ -319,20 +510,33 @@ function SceneSlot(props: { id: string; place: number; scene: SceneRowDto | unde
         <span className="flex w-full flex-wrap items-center justify-end gap-1 sm:w-auto">
           {props.otherDays.length > 0 && (
             <>
-              <span className="w-44"><select className={cn(controlClass, "py-1")} aria-label={`Move scene ${number} to`} value={to} onChange={(e) => setTo(e.target.value)}>
-                <option value="">Move to…</option>
-                {props.otherDays.map((d) => (
-                  <option key={d.id} value={d.id}>
-                    {dayLabel(d)} · {d.date}
-                  </option>
-                ))}
-              </select></span>
+              <span className="w-44">
+                <select
+                  className={cn(controlClass, "py-1")}
+                  aria-label={`Move scene ${number} to`}
+                  value={to}
+                  onChange={(e) => setTo(e.target.value)}
+                >
+                  <option value="">Move to…</option>
+                  {props.otherDays.map((d) => (
+                    <option key={d.id} value={d.id}>
+                      {dayLabel(d)} · {d.date}
+                    </option>
+                  ))}
+                </select>
+              </span>
               <Button size="sm" variant="secondary" disabled={!to || props.busy} onClick={() => to && props.onMove(to)}>
                 Move
               </Button>
             </>
           )}
-          <Button size="sm" variant="ghost" disabled={props.busy} onClick={props.onTakeOff} aria-label={`Take off scene ${number} from this day`}>
+          <Button
+            size="sm"
+            variant="ghost"
+            disabled={props.busy}
+            onClick={props.onTakeOff}
+            aria-label={`Take off scene ${number} from this day`}
+          >
             Take off
           </Button>
         </span>

@@ -31,19 +31,34 @@ export const useFabricOptions = (pid: string) =>
   useQuery({ queryKey: ["doubles", pid, "fabrics"], queryFn: () => api.get<DoublesFabricOptionDto[]>(`${base(pid)}/doubles/fabrics`) });
 
 export const panelsQueryOptions = (pid: string, scope: DoublesScope) =>
-  queryOptions({ queryKey: ["doubles", pid, "panels", scope], queryFn: () => api.get<PanelDto[]>(`${base(pid)}/panels${qs({ ...scope })}`) });
-export const usePanels = (pid: string, scope: DoublesScope) => useQuery({ ...panelsQueryOptions(pid, scope), enabled: Boolean(scope.garmentId || scope.changeId) });
+  queryOptions({
+    queryKey: ["doubles", pid, "panels", scope],
+    queryFn: () => api.get<PanelDto[]>(`${base(pid)}/panels${qs({ ...scope })}`),
+  });
+export const usePanels = (pid: string, scope: DoublesScope) =>
+  useQuery({ ...panelsQueryOptions(pid, scope), enabled: Boolean(scope.garmentId || scope.changeId) });
 
 export const useSeams = (pid: string, scope: DoublesScope) =>
-  useQuery({ queryKey: ["doubles", pid, "seams", scope], queryFn: () => api.get<SeamDto[]>(`${base(pid)}/seams${qs({ ...scope })}`), enabled: Boolean(scope.garmentId || scope.changeId) });
+  useQuery({
+    queryKey: ["doubles", pid, "seams", scope],
+    queryFn: () => api.get<SeamDto[]>(`${base(pid)}/seams${qs({ ...scope })}`),
+    enabled: Boolean(scope.garmentId || scope.changeId),
+  });
 
 export const usePhysics = (pid: string, scope: DoublesScope) =>
-  useQuery({ queryKey: ["doubles", pid, "physics", scope], queryFn: () => api.get<FabricPhysicsDto[]>(`${base(pid)}/doubles/physics${qs({ ...scope })}`), enabled: Boolean(scope.garmentId || scope.changeId) });
+  useQuery({
+    queryKey: ["doubles", pid, "physics", scope],
+    queryFn: () => api.get<FabricPhysicsDto[]>(`${base(pid)}/doubles/physics${qs({ ...scope })}`),
+    enabled: Boolean(scope.garmentId || scope.changeId),
+  });
 
 export const useMarker = (pid: string, input: MarkerInput | null) =>
   useQuery({
     queryKey: ["doubles", pid, "marker", input],
-    queryFn: () => api.get<MarkerDto | null>(`${base(pid)}/doubles/markers${qs({ scope: input!.scope, scopeId: input!.scopeId, multiples: input!.multiples })}`),
+    queryFn: () =>
+      api.get<MarkerDto | null>(
+        `${base(pid)}/doubles/markers${qs({ scope: input!.scope, scopeId: input!.scopeId, multiples: input!.multiples })}`,
+      ),
     enabled: Boolean(input),
   });
 
@@ -60,7 +75,10 @@ export function useCreatePanel(pid: string) {
 
 export function useUpdatePanel(pid: string) {
   const invalidate = useInvalidateDoubles(pid);
-  return useMutation({ mutationFn: (p: { id: string; input: UpdatePanelInput }) => api.patch<PanelDto>(`${base(pid)}/panels/${p.id}`, p.input), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: (p: { id: string; input: UpdatePanelInput }) => api.patch<PanelDto>(`${base(pid)}/panels/${p.id}`, p.input),
+    onSuccess: invalidate,
+  });
 }
 
 export function useDeletePanel(pid: string) {
@@ -94,7 +112,10 @@ export function useDxfImport(pid: string) {
   const invalidate = useInvalidateDoubles(pid);
   return useMutation({
     mutationFn: (p: DxfReadChoices & { garmentId: string; fabricId: string }) =>
-      api.upload<{ panels: PanelDto[]; warnings: string[]; skipped: string[] }>(`${base(pid)}/panels/dxf-import`, dxfForm(p, { garmentId: p.garmentId, fabricId: p.fabricId })),
+      api.upload<{ panels: PanelDto[]; warnings: string[]; skipped: string[] }>(
+        `${base(pid)}/panels/dxf-import`,
+        dxfForm(p, { garmentId: p.garmentId, fabricId: p.fabricId }),
+      ),
     onSuccess: invalidate,
   });
 }
@@ -111,5 +132,8 @@ export function useDeleteSeam(pid: string) {
 
 export function useSaveMarker(pid: string) {
   const invalidate = useInvalidateDoubles(pid);
-  return useMutation({ mutationFn: (input: MarkerInput) => api.post<MarkerDto>(`${base(pid)}/doubles/markers`, input), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: (input: MarkerInput) => api.post<MarkerDto>(`${base(pid)}/doubles/markers`, input),
+    onSuccess: invalidate,
+  });
 }

@@ -5,14 +5,25 @@ import type { CreatePacketInput, PacketDetailDto, PacketOptionsDto, PacketSummar
 const base = (pid: string) => `/productions/${pid}/packets`;
 
 export const packetsQueryOptions = (pid: string, changeId?: string) =>
-  queryOptions({ queryKey: ["packets", pid, "list", changeId ?? "all"], queryFn: () => api.get<PacketSummaryDto[]>(`${base(pid)}${qs({ changeId })}`) });
+  queryOptions({
+    queryKey: ["packets", pid, "list", changeId ?? "all"],
+    queryFn: () => api.get<PacketSummaryDto[]>(`${base(pid)}${qs({ changeId })}`),
+  });
 export const usePackets = (pid: string, changeId?: string) => useQuery(packetsQueryOptions(pid, changeId));
 
 export const usePacket = (pid: string, id: string | null) =>
-  useQuery({ queryKey: ["packets", pid, "detail", id], queryFn: () => api.get<PacketDetailDto>(`${base(pid)}/${id}`), enabled: Boolean(id) });
+  useQuery({
+    queryKey: ["packets", pid, "detail", id],
+    queryFn: () => api.get<PacketDetailDto>(`${base(pid)}/${id}`),
+    enabled: Boolean(id),
+  });
 
 export const usePacketOptions = (pid: string, changeId: string | null) =>
-  useQuery({ queryKey: ["packets", pid, "options", changeId], queryFn: () => api.get<PacketOptionsDto>(`${base(pid)}/options${qs({ changeId })}`), enabled: Boolean(changeId) });
+  useQuery({
+    queryKey: ["packets", pid, "options", changeId],
+    queryFn: () => api.get<PacketOptionsDto>(`${base(pid)}/options${qs({ changeId })}`),
+    enabled: Boolean(changeId),
+  });
 
 /** Where the browser downloads a packet's ZIP (a plain link, so the browser's own download shows progress). */
 export const packetDownloadHref = (pid: string, id: string) => `/api${base(pid)}/${id}/download`;
@@ -29,7 +40,10 @@ export function useCreatePacket(pid: string) {
 
 export function useUpdatePacket(pid: string) {
   const invalidate = useInvalidatePackets(pid);
-  return useMutation({ mutationFn: (p: { id: string; input: UpdatePacketInput }) => api.patch<PacketDetailDto>(`${base(pid)}/${p.id}`, p.input), onSuccess: invalidate });
+  return useMutation({
+    mutationFn: (p: { id: string; input: UpdatePacketInput }) => api.patch<PacketDetailDto>(`${base(pid)}/${p.id}`, p.input),
+    onSuccess: invalidate,
+  });
 }
 
 export function useDeletePacket(pid: string) {

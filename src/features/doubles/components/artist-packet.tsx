@@ -24,7 +24,10 @@ const shown = (value: number, unit: string) => {
 function SimValue({ v, label }: { v?: TaggedValue<string>; label?: string }) {
   if (!v) return <span className="text-slate">—</span>;
   return (
-    <span className="block" title={v.basis === "measured" ? `measured (${v.testIds.length} test${v.testIds.length > 1 ? "s" : ""})` : v.note}>
+    <span
+      className="block"
+      title={v.basis === "measured" ? `measured (${v.testIds.length} test${v.testIds.length > 1 ? "s" : ""})` : v.note}
+    >
       {label ? <span className="text-xs text-slate">{label} </span> : null}
       <span className="whitespace-nowrap">{shown(v.value, v.unit)}</span>{" "}
       <Badge tone={v.basis === "measured" ? "note" : "warning"}>{v.basis === "measured" ? "measured" : "assumed"}</Badge>
@@ -66,16 +69,37 @@ function FabricTable({ fabrics }: { fabrics: PacketFabricSnapshot[] }) {
         {fabrics.map((f) => (
           <tbody key={f.id} className="border-b border-chalk-200 last:border-0">
             <tr className="align-top">
-              <th scope="row" rowSpan={2} className="px-2 py-2 font-semibold">{f.name}<span className="block text-xs font-normal text-slate">{f.construction}</span></th>
-              <td className="px-2 py-2"><SimValue v={f.simulation.massPerArea} /></td>
-              <td className="px-2 py-2"><div className="grid gap-1"><SimValue label="warp" v={f.simulation.bendingStiffness.warp} /><SimValue label="weft" v={f.simulation.bendingStiffness.weft} /></div></td>
-              <td className="px-2 py-2"><div className="grid gap-1"><SimValue label="warp" v={f.simulation.stretchStiffness.warp} /><SimValue label="weft" v={f.simulation.stretchStiffness.weft} /></div></td>
-              <td className="px-2 py-2"><SimValue v={f.simulation.thickness} /></td>
+              <th scope="row" rowSpan={2} className="px-2 py-2 font-semibold">
+                {f.name}
+                <span className="block text-xs font-normal text-slate">{f.construction}</span>
+              </th>
+              <td className="px-2 py-2">
+                <SimValue v={f.simulation.massPerArea} />
+              </td>
+              <td className="px-2 py-2">
+                <div className="grid gap-1">
+                  <SimValue label="warp" v={f.simulation.bendingStiffness.warp} />
+                  <SimValue label="weft" v={f.simulation.bendingStiffness.weft} />
+                </div>
+              </td>
+              <td className="px-2 py-2">
+                <div className="grid gap-1">
+                  <SimValue label="warp" v={f.simulation.stretchStiffness.warp} />
+                  <SimValue label="weft" v={f.simulation.stretchStiffness.weft} />
+                </div>
+              </td>
+              <td className="px-2 py-2">
+                <SimValue v={f.simulation.thickness} />
+              </td>
             </tr>
             <tr>
               <td colSpan={4} className="px-2 pb-2 text-sm">
                 <span className="font-semibold">Cantilever re-test: </span>
-                {f.retest === undefined ? <span className="text-xs text-slate">not in this version</span> : <RetestFigure retest={f.retest} />}
+                {f.retest === undefined ? (
+                  <span className="text-xs text-slate">not in this version</span>
+                ) : (
+                  <RetestFigure retest={f.retest} />
+                )}
               </td>
             </tr>
           </tbody>
@@ -98,33 +122,58 @@ export function ArtistPacketView({ packet }: { packet: PacketDetailDto }) {
   return (
     <div className="grid gap-5">
       <section aria-labelledby="artist-changes" className="grid gap-2">
-        <h2 id="artist-changes" className="text-lg font-semibold text-ink">What changed for you</h2>
+        <h2 id="artist-changes" className="text-lg font-semibold text-ink">
+          What changed for you
+        </h2>
         {packet.sinceReceived ? (
           <>
-            <p className="text-sm">Since version {packet.sinceReceived.version}, which you marked received on {dateOf(packet.sinceReceived.receivedAt)}:</p>
+            <p className="text-sm">
+              Since version {packet.sinceReceived.version}, which you marked received on {dateOf(packet.sinceReceived.receivedAt)}:
+            </p>
             <PacketDiffList diff={packet.sinceReceived.diff} />
           </>
         ) : (
-          <p className="text-sm text-slate">You have not marked an earlier version of this change received: everything here is new to you.</p>
+          <p className="text-sm text-slate">
+            You have not marked an earlier version of this change received: everything here is new to you.
+          </p>
         )}
       </section>
 
       <section aria-labelledby="artist-panels" className="grid gap-3">
-        <h2 id="artist-panels" className="text-lg font-semibold text-ink">Panels</h2>
-        <p className="text-xs text-slate">Solid: sew line · dashed: cut line (seam allowance) · arrow: grain · red ticks: notches · numbered ochre runs: seams (listed below). The ZIP holds a simulation mesh of each panel and stitches.json pairing the seam vertices.</p>
+        <h2 id="artist-panels" className="text-lg font-semibold text-ink">
+          Panels
+        </h2>
+        <p className="text-xs text-slate">
+          Solid: sew line · dashed: cut line (seam allowance) · arrow: grain · red ticks: notches · numbered ochre runs: seams (listed
+          below). The ZIP holds a simulation mesh of each panel and stitches.json pairing the seam vertices.
+        </p>
         {c.garments.map((g) => {
           const panels = c.panels.filter((p) => p.garmentId === g.id);
           return (
             <div key={g.id} className="grid gap-2">
-              <h3 className="font-semibold text-ink">{g.name} <span className="text-xs font-normal text-slate">{g.tagCode} · {panels.length} panels</span></h3>
+              <h3 className="font-semibold text-ink">
+                {g.name}{" "}
+                <span className="text-xs font-normal text-slate">
+                  {g.tagCode} · {panels.length} panels
+                </span>
+              </h3>
               {panels.length === 0 ? (
                 <p className="text-sm text-slate">No panels for this garment in this version.</p>
               ) : (
                 <ul className="grid grid-cols-1 gap-3 sm:grid-cols-2 lg:grid-cols-3">
                   {panels.map((p) => (
                     <li key={p.id} className="grid gap-1">
-                      <PanelCanvas panel={p} height={220} showVertices={false} seams={marks.get(p.id) ?? []} label={`${g.name}, ${p.name}: cut ${p.cutCount}${p.mirrored ? " (mirrored pairs)" : ""}`} />
-                      <p className="text-xs text-slate">{p.name} · cut {p.cutCount}{p.mirrored ? " in mirrored pairs" : ""} · allowance {p.seamAllowanceMm} mm · {p.grainMode} grain</p>
+                      <PanelCanvas
+                        panel={p}
+                        height={220}
+                        showVertices={false}
+                        seams={marks.get(p.id) ?? []}
+                        label={`${g.name}, ${p.name}: cut ${p.cutCount}${p.mirrored ? " (mirrored pairs)" : ""}`}
+                      />
+                      <p className="text-xs text-slate">
+                        {p.name} · cut {p.cutCount}
+                        {p.mirrored ? " in mirrored pairs" : ""} · allowance {p.seamAllowanceMm} mm · {p.grainMode} grain
+                      </p>
                     </li>
                   ))}
                 </ul>
@@ -137,7 +186,9 @@ export function ArtistPacketView({ packet }: { packet: PacketDetailDto }) {
             {c.seams.map((s) => (
               <li key={s.id}>
                 {s.name}: {panelName.get(s.a.panelId)} ↔ {panelName.get(s.b.panelId)}{" "}
-                <span className="text-xs text-slate">({s.lengthAMm.toFixed(0)} / {s.lengthBMm.toFixed(0)} mm{s.eased ? ", eased" : ""})</span>
+                <span className="text-xs text-slate">
+                  ({s.lengthAMm.toFixed(0)} / {s.lengthBMm.toFixed(0)} mm{s.eased ? ", eased" : ""})
+                </span>
               </li>
             ))}
           </ol>
@@ -145,20 +196,34 @@ export function ArtistPacketView({ packet }: { packet: PacketDetailDto }) {
       </section>
 
       <section aria-labelledby="artist-fabrics" className="grid gap-2">
-        <h2 id="artist-fabrics" className="text-lg font-semibold text-ink">Fabrics</h2>
+        <h2 id="artist-fabrics" className="text-lg font-semibold text-ink">
+          Fabrics
+        </h2>
         <FabricTable fabrics={c.fabrics} />
-        <p className="text-xs text-slate">fabrics.json holds these in SI units (kg/m², N·m, N/m, m); they are shown here as summary.pdf prints them. "Measured" values come from the workroom's tests, "assumed" ones from class defaults. The re-test bends a virtual strip with the exported bending stiffness and mass per area and compares the overhang at 41.5° with the measured one (ASTM D1388).</p>
+        <p className="text-xs text-slate">
+          fabrics.json holds these in SI units (kg/m², N·m, N/m, m); they are shown here as summary.pdf prints them. "Measured" values come
+          from the workroom's tests, "assumed" ones from class defaults. The re-test bends a virtual strip with the exported bending
+          stiffness and mass per area and compares the overhang at 41.5° with the measured one (ASTM D1388).
+        </p>
       </section>
 
       <section aria-labelledby="artist-shots" className="grid gap-2">
-        <h2 id="artist-shots" className="text-lg font-semibold text-ink">Effects shots</h2>
+        <h2 id="artist-shots" className="text-lg font-semibold text-ink">
+          Effects shots
+        </h2>
         {c.shots.length === 0 ? (
           <p className="text-sm text-slate">No effects shots in this version.</p>
         ) : (
           <div className="overflow-x-auto">
             <table className="w-full text-left text-sm" aria-label="Effects shots">
               <thead className="border-b border-chalk-200 text-xs uppercase tracking-wide text-slate">
-                <tr><th className="px-2 py-1">Scene</th><th className="px-2 py-1">Story day</th><th className="px-2 py-1">Distress stage</th><th className="px-2 py-1">State</th><th className="px-2 py-1">Photos</th></tr>
+                <tr>
+                  <th className="px-2 py-1">Scene</th>
+                  <th className="px-2 py-1">Story day</th>
+                  <th className="px-2 py-1">Distress stage</th>
+                  <th className="px-2 py-1">State</th>
+                  <th className="px-2 py-1">Photos</th>
+                </tr>
               </thead>
               <tbody>
                 {c.shots.map((s) => (
@@ -166,7 +231,10 @@ export function ArtistPacketView({ packet }: { packet: PacketDetailDto }) {
                     <td className="px-2 py-1 font-semibold">{s.sceneNumber}</td>
                     <td className="px-2 py-1">{s.storyDay ?? "—"}</td>
                     <td className="px-2 py-1">{s.distressStage}</td>
-                    <td className="px-2 py-1">{[s.wet && "wet", s.blood && "blood", s.stunt && "stunt"].filter(Boolean).join(", ") || "—"}{s.notes ? <span className="block text-xs text-slate">{s.notes}</span> : null}</td>
+                    <td className="px-2 py-1">
+                      {[s.wet && "wet", s.blood && "blood", s.stunt && "stunt"].filter(Boolean).join(", ") || "—"}
+                      {s.notes ? <span className="block text-xs text-slate">{s.notes}</span> : null}
+                    </td>
                     <td className="px-2 py-1">{s.photoFiles.length}</td>
                   </tr>
                 ))}

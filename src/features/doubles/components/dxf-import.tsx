@@ -12,7 +12,7 @@ import { PanelCanvas } from "./panel-canvas";
 const UNIT_NAMES: Record<DxfUnit, string> = { mm: "millimetres", cm: "centimetres", m: "metres", in: "inches", ft: "feet" };
 const UNIT_FROM: Record<DxfReport["units"]["from"], string> = {
   header: "as the file's header says",
-  annotation: "from the file's \"Units:\" text",
+  annotation: 'from the file\'s "Units:" text',
   override: "as chosen here",
   assumed: "assumed: the file does not say",
 };
@@ -37,10 +37,17 @@ function PieceCard({ piece }: { piece: DxfPiece }) {
         }}
       />
       <p className="mt-1 text-sm font-semibold text-ink">
-        {piece.name} <span className="font-normal text-slate">cut {piece.cutCount}{piece.mirrored ? " (mirrored pairs)" : ""}{piece.size ? ` · size ${piece.size}` : ""}</span>
+        {piece.name}{" "}
+        <span className="font-normal text-slate">
+          cut {piece.cutCount}
+          {piece.mirrored ? " (mirrored pairs)" : ""}
+          {piece.size ? ` · size ${piece.size}` : ""}
+        </span>
       </p>
       <p className="text-xs text-slate">
-        {cm(piece.widthMm)} × {cm(piece.heightMm)} · {cm2(piece.areaMm2)} · seam allowance {formatQuantity(piece.seamAllowanceMm, "mm", { decimals: 1 })} {piece.seamAllowanceFrom === "file" ? "(measured in the file)" : "(as entered)"}
+        {cm(piece.widthMm)} × {cm(piece.heightMm)} · {cm2(piece.areaMm2)} · seam allowance{" "}
+        {formatQuantity(piece.seamAllowanceMm, "mm", { decimals: 1 })}{" "}
+        {piece.seamAllowanceFrom === "file" ? "(measured in the file)" : "(as entered)"}
       </p>
       <ul className="mt-1 list-disc pl-4 text-xs text-slate">
         {piece.recognised.map((r) => (
@@ -62,7 +69,17 @@ function PieceCard({ piece }: { piece: DxfPiece }) {
 }
 
 /** Upload a DXF file, look at the pieces found and what was left out, then import them onto the garment. */
-export function DxfImport({ productionId, garmentId, fabrics, onDone }: { productionId: string; garmentId: string; fabrics: DoublesFabricOptionDto[]; onDone: () => void }) {
+export function DxfImport({
+  productionId,
+  garmentId,
+  fabrics,
+  onDone,
+}: {
+  productionId: string;
+  garmentId: string;
+  fabrics: DoublesFabricOptionDto[];
+  onDone: () => void;
+}) {
   const [file, setFile] = useState<File | null>(null);
   const [units, setUnits] = useState<DxfUnit | "">("");
   const [allowance, setAllowance] = useState("10");
@@ -70,7 +87,8 @@ export function DxfImport({ productionId, garmentId, fabrics, onDone }: { produc
   const preview = useDxfPreview(productionId);
   const importer = useDxfImport(productionId);
   const allowanceMm = Number(allowance);
-  const allowanceError = allowance === "" || !Number.isFinite(allowanceMm) || allowanceMm < 0 || allowanceMm > 100 ? "between 0 and 100 mm" : undefined;
+  const allowanceError =
+    allowance === "" || !Number.isFinite(allowanceMm) || allowanceMm < 0 || allowanceMm > 100 ? "between 0 and 100 mm" : undefined;
   const { mutate } = preview;
 
   // Read the file again when the units or the allowance change (pieces without a sew line depend on it).
@@ -133,20 +151,26 @@ export function DxfImport({ productionId, garmentId, fabrics, onDone }: { produc
       <details className="text-xs text-slate">
         <summary className="cursor-pointer">What is read from a DXF file</summary>
         <p className="mt-1">
-          Files using the ASTM D6673 layer numbers: each block is a piece; layer 1 is the cut line, 14 the sew line, 7 the grain line, 4 (and 80–83) notches; texts "Piece Name:", "Size:" and
-          "Quantity:". Other files: every closed outline is a piece's sew line — closed polylines (with bulge arcs), circles, ellipses, closed splines, or lines, arcs and splines meeting end to end; text
-          inside names it ("CUT 2" for the count, "MIRRORED" for pairs), the longest line inside is the grain line, short lines from the edge are notches. Curves become chords no more than 0.01 mm from
-          the true curve.
+          Files using the ASTM D6673 layer numbers: each block is a piece; layer 1 is the cut line, 14 the sew line, 7 the grain line, 4
+          (and 80–83) notches; texts "Piece Name:", "Size:" and "Quantity:". Other files: every closed outline is a piece's sew line —
+          closed polylines (with bulge arcs), circles, ellipses, closed splines, or lines, arcs and splines meeting end to end; text inside
+          names it ("CUT 2" for the count, "MIRRORED" for pairs), the longest line inside is the grain line, short lines from the edge are
+          notches. Curves become chords no more than 0.01 mm from the true curve.
         </p>
       </details>
       {!file && <p className="text-sm text-slate">Choose a file to see its pieces before anything is imported.</p>}
-      {preview.isPending && <p className="text-sm text-slate" role="status">Reading the file…</p>}
+      {preview.isPending && (
+        <p className="text-sm text-slate" role="status">
+          Reading the file…
+        </p>
+      )}
       {preview.error && <ErrorAlert error={preview.error} title="Cannot read this file" />}
       {report && !preview.isPending && (
         <>
           <p className="text-sm text-ink" role="status">
-            {report.pieces.length === 0 ? "No piece found." : `${report.pieces.length} piece${report.pieces.length === 1 ? "" : "s"} found`} · {report.convention === "astm-d6673" ? "ASTM D6673 layers" : "outlines by shape"} ·{" "}
-            {UNIT_NAMES[report.units.unit]} ({UNIT_FROM[report.units.from]}) · chords within {report.chordToleranceMm} mm, ends joined within {report.joinToleranceMm} mm
+            {report.pieces.length === 0 ? "No piece found." : `${report.pieces.length} piece${report.pieces.length === 1 ? "" : "s"} found`}{" "}
+            · {report.convention === "astm-d6673" ? "ASTM D6673 layers" : "outlines by shape"} · {UNIT_NAMES[report.units.unit]} (
+            {UNIT_FROM[report.units.from]}) · chords within {report.chordToleranceMm} mm, ends joined within {report.joinToleranceMm} mm
           </p>
           {report.warnings.length > 0 && (
             <ul className="list-disc pl-5 text-sm text-[#8a5d17]">
@@ -182,7 +206,10 @@ export function DxfImport({ productionId, garmentId, fabrics, onDone }: { produc
                       <td className="px-2 py-1">{g.layer}</td>
                       <td className="px-2 py-1">{g.count}</td>
                       <td className="px-2 py-1">{g.reason}</td>
-                      <td className="px-2 py-1 text-slate">{g.where.slice(0, 5).join(", ")}{g.where.length > 5 ? ", …" : ""}</td>
+                      <td className="px-2 py-1 text-slate">
+                        {g.where.slice(0, 5).join(", ")}
+                        {g.where.length > 5 ? ", …" : ""}
+                      </td>
                     </tr>
                   ))}
                 </tbody>

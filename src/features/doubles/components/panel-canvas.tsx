@@ -26,7 +26,21 @@ export interface CanvasSeamMark {
   points: readonly Point[];
 }
 
-export function PanelCanvas({ panel, height = 320, showVertices = true, onAddPoint, label, seams = [] }: { panel: CanvasPanel; height?: number; showVertices?: boolean; onAddPoint?: (p: [number, number]) => void; label?: string; seams?: readonly CanvasSeamMark[] }) {
+export function PanelCanvas({
+  panel,
+  height = 320,
+  showVertices = true,
+  onAddPoint,
+  label,
+  seams = [],
+}: {
+  panel: CanvasPanel;
+  height?: number;
+  showVertices?: boolean;
+  onAddPoint?: (p: [number, number]) => void;
+  label?: string;
+  seams?: readonly CanvasSeamMark[];
+}) {
   const drawn = useMemo(() => {
     const valid = panel.outline.length >= 3 && validatePolygon(panel.outline as Point[]).valid;
     let cut: Point[] | null = panel.cutLine ?? null;
@@ -71,10 +85,27 @@ export function PanelCanvas({ panel, height = 320, showVertices = true, onAddPoi
           <path d="M0 0 L10 5 L0 10 z" fill="#2B3A67" />
         </marker>
       </defs>
-      {drawn.cut && <path d={path(drawn.cut)} fill="none" stroke="#5B6770" strokeWidth={stroke} strokeDasharray={`${stroke * 6} ${stroke * 4}`} />}
-      {panel.outline.length > 1 && <path d={path(panel.outline)} fill={drawn.valid ? "#fff" : "none"} stroke={drawn.valid ? "#2B3A67" : "#B5452E"} strokeWidth={stroke * 1.6} />}
+      {drawn.cut && (
+        <path d={path(drawn.cut)} fill="none" stroke="#5B6770" strokeWidth={stroke} strokeDasharray={`${stroke * 6} ${stroke * 4}`} />
+      )}
+      {panel.outline.length > 1 && (
+        <path
+          d={path(panel.outline)}
+          fill={drawn.valid ? "#fff" : "none"}
+          stroke={drawn.valid ? "#2B3A67" : "#B5452E"}
+          strokeWidth={stroke * 1.6}
+        />
+      )}
       {panel.grainline && (
-        <line x1={panel.grainline[0][0]} y1={-panel.grainline[0][1]} x2={panel.grainline[1][0]} y2={-panel.grainline[1][1]} stroke="#2B3A67" strokeWidth={stroke} markerEnd="url(#grain-head)" />
+        <line
+          x1={panel.grainline[0][0]}
+          y1={-panel.grainline[0][1]}
+          x2={panel.grainline[1][0]}
+          y2={-panel.grainline[1][1]}
+          stroke="#2B3A67"
+          strokeWidth={stroke}
+          markerEnd="url(#grain-head)"
+        />
       )}
       {panel.notches.map((n, i) => {
         const a = panel.outline[n.edge % Math.max(1, panel.outline.length)];
@@ -92,11 +123,26 @@ export function PanelCanvas({ panel, height = 320, showVertices = true, onAddPoi
         const mid = m.points[Math.floor(m.points.length / 2)];
         return (
           <g key={`seam-${i}`}>
-            <polyline points={m.points.map((p) => `${p[0]},${-p[1]}`).join(" ")} fill="none" stroke="#C98B2B" strokeWidth={stroke * 4} strokeOpacity={0.75} strokeLinecap="round" />
+            <polyline
+              points={m.points.map((p) => `${p[0]},${-p[1]}`).join(" ")}
+              fill="none"
+              stroke="#C98B2B"
+              strokeWidth={stroke * 4}
+              strokeOpacity={0.75}
+              strokeLinecap="round"
+            />
             {mid && (
               <g>
                 <circle cx={mid[0]} cy={-mid[1]} r={font * 1.1} fill="#fff" stroke="#C98B2B" strokeWidth={stroke * 1.5} />
-                <text x={mid[0]} y={-mid[1]} fontSize={font * 1.4} fontWeight="bold" fill="#172041" textAnchor="middle" dominantBaseline="central">
+                <text
+                  x={mid[0]}
+                  y={-mid[1]}
+                  fontSize={font * 1.4}
+                  fontWeight="bold"
+                  fill="#172041"
+                  textAnchor="middle"
+                  dominantBaseline="central"
+                >
                   {m.label}
                 </text>
               </g>

@@ -21,20 +21,54 @@ interface Draft {
   fabricId: string | null;
 }
 
-const blank: Draft = { name: "", outline: [], grainline: null, notches: [], seamAllowanceMm: 10, cutCount: 1, mirrored: false, grainMode: "straight", fabricId: null };
+const blank: Draft = {
+  name: "",
+  outline: [],
+  grainline: null,
+  notches: [],
+  seamAllowanceMm: 10,
+  cutCount: 1,
+  mirrored: false,
+  grainMode: "straight",
+  fabricId: null,
+};
 
 /**
  * Creates or edits a panel: points typed in millimetres (or clicked on the canvas), grainline,
  * notches as edge + position, allowance, cut count, mirroring, grain freedom and fabric.
  */
-export function PanelEditor({ productionId, garmentId, panel, fabrics, onDone }: { productionId: string; garmentId: string; panel: PanelDto | null; fabrics: DoublesFabricOptionDto[]; onDone: () => void }) {
-  const [d, setD] = useState<Draft>(() => (panel ? { ...panel, outline: panel.outline.map((p) => [...p] as Pt), notches: panel.notches.map((n) => ({ point: [...n.point] as Pt, edge: n.edge })) } : blank));
+export function PanelEditor({
+  productionId,
+  garmentId,
+  panel,
+  fabrics,
+  onDone,
+}: {
+  productionId: string;
+  garmentId: string;
+  panel: PanelDto | null;
+  fabrics: DoublesFabricOptionDto[];
+  onDone: () => void;
+}) {
+  const [d, setD] = useState<Draft>(() =>
+    panel
+      ? {
+          ...panel,
+          outline: panel.outline.map((p) => [...p] as Pt),
+          notches: panel.notches.map((n) => ({ point: [...n.point] as Pt, edge: n.edge })),
+        }
+      : blank,
+  );
   const create = useCreatePanel(productionId);
   const update = useUpdatePanel(productionId);
   const save = panel ? update : create;
   const set = <K extends keyof Draft>(k: K, v: Draft[K]) => setD((x) => ({ ...x, [k]: v }));
   const check = d.outline.length >= 3 ? validatePolygon(d.outline as Point[]) : null;
-  const setPoint = (i: number, axis: 0 | 1, v: number) => set("outline", d.outline.map((p, k) => (k === i ? ((axis === 0 ? [v, p[1]] : [p[0], v]) as Pt) : p)));
+  const setPoint = (i: number, axis: 0 | 1, v: number) =>
+    set(
+      "outline",
+      d.outline.map((p, k) => (k === i ? ((axis === 0 ? [v, p[1]] : [p[0], v]) as Pt) : p)),
+    );
   const fieldError = save.error && "fields" in save.error ? (save.error as { fields: Record<string, string> }).fields : {};
 
   const submit = () => {
@@ -56,8 +90,24 @@ export function PanelEditor({ productionId, garmentId, panel, fabrics, onDone }:
               </option>
             ))}
           </SelectField>
-          <InputField label="Seam allowance (mm)" type="number" min={0} step={1} value={d.seamAllowanceMm} onChange={(e) => set("seamAllowanceMm", Number(e.target.value))} error={fieldError.seamAllowanceMm} />
-          <InputField label="Cut count" type="number" min={1} max={99} value={d.cutCount} onChange={(e) => set("cutCount", Number(e.target.value))} error={fieldError.cutCount} />
+          <InputField
+            label="Seam allowance (mm)"
+            type="number"
+            min={0}
+            step={1}
+            value={d.seamAllowanceMm}
+            onChange={(e) => set("seamAllowanceMm", Number(e.target.value))}
+            error={fieldError.seamAllowanceMm}
+          />
+          <InputField
+            label="Cut count"
+            type="number"
+            min={1}
+            max={99}
+            value={d.cutCount}
+            onChange={(e) => set("cutCount", Number(e.target.value))}
+            error={fieldError.cutCount}
+          />
           <SelectField label="Grain" value={d.grainMode} onChange={(e) => set("grainMode", e.target.value as Draft["grainMode"])}>
             <option value="straight">Straight grain (0° / 180°)</option>
             <option value="bias">Bias piece (may turn)</option>
@@ -76,7 +126,9 @@ export function PanelEditor({ productionId, garmentId, panel, fabrics, onDone }:
                   <th className="px-2 text-left">#</th>
                   <th className="px-2 text-left">x</th>
                   <th className="px-2 text-left">y</th>
-                  <th><span className="sr-only">Actions</span></th>
+                  <th>
+                    <span className="sr-only">Actions</span>
+                  </th>
                 </tr>
               </thead>
               <tbody>
@@ -84,13 +136,37 @@ export function PanelEditor({ productionId, garmentId, panel, fabrics, onDone }:
                   <tr key={i}>
                     <td className="px-2 text-slate">{i}</td>
                     <td className="px-1">
-                      <input aria-label={`Point ${i} x`} type="number" step="0.1" className={`${controlClass} py-1`} value={p[0]} onChange={(e) => setPoint(i, 0, Number(e.target.value))} />
+                      <input
+                        aria-label={`Point ${i} x`}
+                        type="number"
+                        step="0.1"
+                        className={`${controlClass} py-1`}
+                        value={p[0]}
+                        onChange={(e) => setPoint(i, 0, Number(e.target.value))}
+                      />
                     </td>
                     <td className="px-1">
-                      <input aria-label={`Point ${i} y`} type="number" step="0.1" className={`${controlClass} py-1`} value={p[1]} onChange={(e) => setPoint(i, 1, Number(e.target.value))} />
+                      <input
+                        aria-label={`Point ${i} y`}
+                        type="number"
+                        step="0.1"
+                        className={`${controlClass} py-1`}
+                        value={p[1]}
+                        onChange={(e) => setPoint(i, 1, Number(e.target.value))}
+                      />
                     </td>
                     <td className="px-1">
-                      <Button size="sm" variant="ghost" aria-label={`Remove point ${i}`} onClick={() => set("outline", d.outline.filter((_, k) => k !== i))}>
+                      <Button
+                        size="sm"
+                        variant="ghost"
+                        aria-label={`Remove point ${i}`}
+                        onClick={() =>
+                          set(
+                            "outline",
+                            d.outline.filter((_, k) => k !== i),
+                          )
+                        }
+                      >
                         ✕
                       </Button>
                     </td>
@@ -100,7 +176,11 @@ export function PanelEditor({ productionId, garmentId, panel, fabrics, onDone }:
             </table>
           </div>
           <div className="flex flex-wrap gap-2">
-            <Button size="sm" variant="secondary" onClick={() => set("outline", [...d.outline, (d.outline.at(-1) ?? [0, 0]).map((v) => v + 10) as Pt])}>
+            <Button
+              size="sm"
+              variant="secondary"
+              onClick={() => set("outline", [...d.outline, (d.outline.at(-1) ?? [0, 0]).map((v) => v + 10) as Pt])}
+            >
               Add point
             </Button>
             <span className="text-xs text-slate">or click on the drawing to add a point there.</span>
@@ -119,7 +199,12 @@ export function PanelEditor({ productionId, garmentId, panel, fabrics, onDone }:
                 className={`${controlClass} py-1`}
                 value={d.grainline ? d.grainline[end][axis] : ""}
                 onChange={(e) => {
-                  const g: [Pt, Pt] = d.grainline ? [[...d.grainline[0]] as Pt, [...d.grainline[1]] as Pt] : [[0, 0], [0, 100]];
+                  const g: [Pt, Pt] = d.grainline
+                    ? [[...d.grainline[0]] as Pt, [...d.grainline[1]] as Pt]
+                    : [
+                        [0, 0],
+                        [0, 100],
+                      ];
                   g[end][axis] = Number(e.target.value);
                   set("grainline", g);
                 }}
@@ -132,28 +217,71 @@ export function PanelEditor({ productionId, garmentId, panel, fabrics, onDone }:
           {d.notches.map((n, i) => {
             const a = d.outline[n.edge];
             const b = d.outline[(n.edge + 1) % Math.max(1, d.outline.length)];
-            const t = a && b ? (Math.hypot(n.point[0] - a[0], n.point[1] - a[1]) / (Math.hypot(b[0] - a[0], b[1] - a[1]) || 1)) : 0;
+            const t = a && b ? Math.hypot(n.point[0] - a[0], n.point[1] - a[1]) / (Math.hypot(b[0] - a[0], b[1] - a[1]) || 1) : 0;
             const place = (edge: number, tt: number): { point: Pt; edge: number } => {
               const p = d.outline[edge] ?? [0, 0];
               const q = d.outline[(edge + 1) % Math.max(1, d.outline.length)] ?? p;
-              return { edge, point: [Math.round((p[0] + (q[0] - p[0]) * tt) * 100) / 100, Math.round((p[1] + (q[1] - p[1]) * tt) * 100) / 100] };
+              return {
+                edge,
+                point: [Math.round((p[0] + (q[0] - p[0]) * tt) * 100) / 100, Math.round((p[1] + (q[1] - p[1]) * tt) * 100) / 100],
+              };
             };
             return (
               <div key={i} className="flex items-center gap-2">
-                <input aria-label={`Notch ${i + 1} edge`} type="number" min={0} className={`${controlClass} w-20 py-1`} value={n.edge} onChange={(e) => set("notches", d.notches.map((x, k) => (k === i ? place(Number(e.target.value), t) : x)))} />
-                <input aria-label={`Notch ${i + 1} position`} type="number" min={0} max={1} step={0.05} className={`${controlClass} w-24 py-1`} value={Math.round(t * 100) / 100} onChange={(e) => set("notches", d.notches.map((x, k) => (k === i ? place(x.edge, Number(e.target.value)) : x)))} />
-                <Button size="sm" variant="ghost" onClick={() => set("notches", d.notches.filter((_, k) => k !== i))}>
+                <input
+                  aria-label={`Notch ${i + 1} edge`}
+                  type="number"
+                  min={0}
+                  className={`${controlClass} w-20 py-1`}
+                  value={n.edge}
+                  onChange={(e) =>
+                    set(
+                      "notches",
+                      d.notches.map((x, k) => (k === i ? place(Number(e.target.value), t) : x)),
+                    )
+                  }
+                />
+                <input
+                  aria-label={`Notch ${i + 1} position`}
+                  type="number"
+                  min={0}
+                  max={1}
+                  step={0.05}
+                  className={`${controlClass} w-24 py-1`}
+                  value={Math.round(t * 100) / 100}
+                  onChange={(e) =>
+                    set(
+                      "notches",
+                      d.notches.map((x, k) => (k === i ? place(x.edge, Number(e.target.value)) : x)),
+                    )
+                  }
+                />
+                <Button
+                  size="sm"
+                  variant="ghost"
+                  onClick={() =>
+                    set(
+                      "notches",
+                      d.notches.filter((_, k) => k !== i),
+                    )
+                  }
+                >
                   Remove
                 </Button>
               </div>
             );
           })}
           <div>
-            <Button size="sm" variant="secondary" disabled={d.outline.length < 2} onClick={() => {
-              const a = d.outline[0]!;
-              const b = d.outline[1]!;
-              set("notches", [...d.notches, { edge: 0, point: [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2] }]);
-            }}>
+            <Button
+              size="sm"
+              variant="secondary"
+              disabled={d.outline.length < 2}
+              onClick={() => {
+                const a = d.outline[0]!;
+                const b = d.outline[1]!;
+                set("notches", [...d.notches, { edge: 0, point: [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2] }]);
+              }}
+            >
               Add notch
             </Button>
           </div>

@@ -16,7 +16,10 @@ function fmt(v: number): string {
 function Value({ v, f }: { v?: TaggedValue<string>; f: FabricPhysicsDto }) {
   if (!v) return <span className="text-slate">—</span>;
   const test = v.basis === "measured" ? f.tests.find((t) => t.id === v.testId) : undefined;
-  const why = v.basis === "measured" ? `measured: ${v.testIds.length} test${v.testIds.length > 1 ? "s" : ""}${test ? ` (${test.kind}${test.direction ? ` ${test.direction}` : ""}, ${formatDate(test.testedOn)})` : ""}` : v.note;
+  const why =
+    v.basis === "measured"
+      ? `measured: ${v.testIds.length} test${v.testIds.length > 1 ? "s" : ""}${test ? ` (${test.kind}${test.direction ? ` ${test.direction}` : ""}, ${formatDate(test.testedOn)})` : ""}`
+      : v.note;
   return (
     <span title={why}>
       {fmt(v.value)} <span className="text-xs text-slate">{v.unit}</span>{" "}
@@ -37,9 +40,13 @@ export function RetestFigure({ retest }: { retest: CantileverRetest | null | und
         const off = Math.abs(d.differencePercent) > RETEST_TOLERANCE_PERCENT;
         return (
           <li key={d.direction}>
-            <span className="text-xs text-slate">{d.direction} at {d.angleDeg}°: </span>
+            <span className="text-xs text-slate">
+              {d.direction} at {d.angleDeg}°:{" "}
+            </span>
             {mm1(d.simulatedOverhangMm)} <span className="text-xs text-slate">simulated / {mm1(d.measuredOverhangMm)} measured</span>{" "}
-            <Badge tone={off ? "blocking" : "note"}>{`${d.differencePercent >= 0 ? "+" : "−"}${Math.abs(d.differencePercent).toFixed(2)} %`}</Badge>
+            <Badge
+              tone={off ? "blocking" : "note"}
+            >{`${d.differencePercent >= 0 ? "+" : "−"}${Math.abs(d.differencePercent).toFixed(2)} %`}</Badge>
           </li>
         );
       })}
@@ -52,30 +59,66 @@ export function PhysicsTab({ productionId, change }: { productionId: string; cha
   const q = usePhysics(productionId, { changeId: change.id });
   if (q.isPending) return <Spinner />;
   if (q.error) return <ErrorAlert error={q.error} />;
-  if (!q.data.length) return <EmptyState title="No fabrics set">Give the garments a fabric on the Wardrobe screen and record its tests on Fabrics.</EmptyState>;
+  if (!q.data.length)
+    return (
+      <EmptyState title="No fabrics set">Give the garments a fabric on the Wardrobe screen and record its tests on Fabrics.</EmptyState>
+    );
   return (
     <Card>
       <div className="overflow-x-auto">
         <table className="w-full text-left text-sm" aria-label="Fabric physics">
           <thead className="border-b border-chalk-200 text-xs uppercase tracking-wide text-slate">
-            <tr><th className="px-2 py-1">Fabric</th><th className="px-2 py-1">Mass per area</th><th className="px-2 py-1">Bending warp / weft</th><th className="px-2 py-1">Stretch warp / weft</th><th className="px-2 py-1">Thickness</th><th className="px-2 py-1">Shear, friction</th><th className="px-2 py-1">Cantilever re-test (overhang)</th></tr>
+            <tr>
+              <th className="px-2 py-1">Fabric</th>
+              <th className="px-2 py-1">Mass per area</th>
+              <th className="px-2 py-1">Bending warp / weft</th>
+              <th className="px-2 py-1">Stretch warp / weft</th>
+              <th className="px-2 py-1">Thickness</th>
+              <th className="px-2 py-1">Shear, friction</th>
+              <th className="px-2 py-1">Cantilever re-test (overhang)</th>
+            </tr>
           </thead>
           <tbody>
             {q.data.map((f) => (
               <tr key={f.fabricId} className="border-b border-chalk-200 align-top last:border-0">
-                <td className="px-2 py-2 font-semibold">{f.name}<span className="block text-xs font-normal text-slate">{f.construction}, class {f.fabricClass.replace("_", " ")}</span></td>
-                <td className="px-2 py-2"><Value v={f.values.massPerArea} f={f} /></td>
-                <td className="px-2 py-2"><Value v={f.values.bendingStiffness.warp} f={f} /><Value v={f.values.bendingStiffness.weft} f={f} /></td>
-                <td className="px-2 py-2"><Value v={f.values.stretchStiffness.warp} f={f} /><Value v={f.values.stretchStiffness.weft} f={f} /></td>
-                <td className="px-2 py-2"><Value v={f.values.thickness} f={f} /></td>
-                <td className="px-2 py-2"><Value v={f.values.shearStiffness} f={f} /><Value v={f.values.friction} f={f} /></td>
-                <td className="px-2 py-2"><RetestFigure retest={f.retest} /></td>
+                <td className="px-2 py-2 font-semibold">
+                  {f.name}
+                  <span className="block text-xs font-normal text-slate">
+                    {f.construction}, class {f.fabricClass.replace("_", " ")}
+                  </span>
+                </td>
+                <td className="px-2 py-2">
+                  <Value v={f.values.massPerArea} f={f} />
+                </td>
+                <td className="px-2 py-2">
+                  <Value v={f.values.bendingStiffness.warp} f={f} />
+                  <Value v={f.values.bendingStiffness.weft} f={f} />
+                </td>
+                <td className="px-2 py-2">
+                  <Value v={f.values.stretchStiffness.warp} f={f} />
+                  <Value v={f.values.stretchStiffness.weft} f={f} />
+                </td>
+                <td className="px-2 py-2">
+                  <Value v={f.values.thickness} f={f} />
+                </td>
+                <td className="px-2 py-2">
+                  <Value v={f.values.shearStiffness} f={f} />
+                  <Value v={f.values.friction} f={f} />
+                </td>
+                <td className="px-2 py-2">
+                  <RetestFigure retest={f.retest} />
+                </td>
               </tr>
             ))}
           </tbody>
         </table>
       </div>
-      <p className="mt-2 text-xs text-slate">Bending from the cantilever test (ASTM D1388: G = mass per area × g × bending length³), mass per area from ASTM D3776 specimens, stretch from strip tests. "Assumed" values are class defaults so a simulation can start; replace them with tests. The re-test bends a virtual strip with the exported bending stiffness and mass per area (a heavy elastica) and reports the overhang at which its tip line reaches the test angle; it should match the measured overhang within {RETEST_TOLERANCE_PERCENT} %.</p>
+      <p className="mt-2 text-xs text-slate">
+        Bending from the cantilever test (ASTM D1388: G = mass per area × g × bending length³), mass per area from ASTM D3776 specimens,
+        stretch from strip tests. "Assumed" values are class defaults so a simulation can start; replace them with tests. The re-test bends
+        a virtual strip with the exported bending stiffness and mass per area (a heavy elastica) and reports the overhang at which its tip
+        line reaches the test angle; it should match the measured overhang within {RETEST_TOLERANCE_PERCENT} %.
+      </p>
     </Card>
   );
 }

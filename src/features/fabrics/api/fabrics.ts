@@ -1,10 +1,18 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
-import type { CreateFabricInput, CreateFabricTestRequest, FabricDetailDto, FabricDto, FabricTestDto, UpdateFabricInput } from "@shared/schemas/fabrics";
+import type {
+  CreateFabricInput,
+  CreateFabricTestRequest,
+  FabricDetailDto,
+  FabricDto,
+  FabricTestDto,
+  UpdateFabricInput,
+} from "@shared/schemas/fabrics";
 
 const base = (pid: string) => `/productions/${pid}/fabrics`;
 
-export const fabricsQueryOptions = (pid: string) => queryOptions({ queryKey: ["fabrics", pid, "list"], queryFn: () => api.get<FabricDto[]>(base(pid)) });
+export const fabricsQueryOptions = (pid: string) =>
+  queryOptions({ queryKey: ["fabrics", pid, "list"], queryFn: () => api.get<FabricDto[]>(base(pid)) });
 export const useFabrics = (pid: string) => useQuery(fabricsQueryOptions(pid));
 
 export const fabricQueryOptions = (pid: string, id: string) =>

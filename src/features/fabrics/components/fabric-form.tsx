@@ -18,7 +18,9 @@ interface Props {
 }
 
 const num = (v: FormDataEntryValue | null) => {
-  const s = String(v ?? "").trim().replace(",", ".");
+  const s = String(v ?? "")
+    .trim()
+    .replace(",", ".");
   return s === "" ? null : Number(s);
 };
 
@@ -37,7 +39,9 @@ export function FabricForm({ unit, initial, busy, error, submitLabel, onSubmit }
     e.preventDefault();
     const fd = new FormData(e.currentTarget);
     const errs: Record<string, string> = {};
-    const fibreContent = fibres.filter((f) => f.fibre.trim() || f.percent.trim()).map((f) => ({ fibre: f.fibre.trim(), percent: Number(f.percent) }));
+    const fibreContent = fibres
+      .filter((f) => f.fibre.trim() || f.percent.trim())
+      .map((f) => ({ fibre: f.fibre.trim(), percent: Number(f.percent) }));
     const fc = fibreContentSchema.safeParse(fibreContent);
     if (!fc.success) errs.fibreContent = Object.values(fieldErrorsOf(fc.error, "fibreContent"))[0] ?? "Check the fibres";
     let widthMm: number | null = null;
@@ -73,7 +77,13 @@ export function FabricForm({ unit, initial, busy, error, submitLabel, onSubmit }
           <option value="woven">woven</option>
           <option value="knit">knit</option>
         </SelectField>
-        <InputField label={`Width (${unit})`} name="width" inputMode="decimal" defaultValue={initial?.widthMm != null ? String(roundTo(mmToUnit(initial.widthMm, unit), 1)) : ""} error={fields.widthMm} />
+        <InputField
+          label={`Width (${unit})`}
+          name="width"
+          inputMode="decimal"
+          defaultValue={initial?.widthMm != null ? String(roundTo(mmToUnit(initial.widthMm, unit), 1)) : ""}
+          error={fields.widthMm}
+        />
         <InputField
           label="Mass per area (g/m²)"
           name="gsm"
@@ -83,19 +93,52 @@ export function FabricForm({ unit, initial, busy, error, submitLabel, onSubmit }
           error={fields.massPerAreaGsm}
           hint={gsmNum > 0 ? `${roundTo(gsmToOzPerSqYd(gsmNum), 2)} oz/yd²` : "oz/yd² shown as you type"}
         />
-        <InputField label="Thickness (mm)" name="thicknessMm" inputMode="decimal" defaultValue={initial?.thicknessMm ?? ""} error={fields.thicknessMm} />
-        <InputField label="Stretch warp (%)" name="stretchWarpPct" inputMode="decimal" defaultValue={initial?.stretchWarpPct ?? ""} error={fields.stretchWarpPct} />
-        <InputField label="Stretch weft (%)" name="stretchWeftPct" inputMode="decimal" defaultValue={initial?.stretchWeftPct ?? ""} error={fields.stretchWeftPct} />
+        <InputField
+          label="Thickness (mm)"
+          name="thicknessMm"
+          inputMode="decimal"
+          defaultValue={initial?.thicknessMm ?? ""}
+          error={fields.thicknessMm}
+        />
+        <InputField
+          label="Stretch warp (%)"
+          name="stretchWarpPct"
+          inputMode="decimal"
+          defaultValue={initial?.stretchWarpPct ?? ""}
+          error={fields.stretchWarpPct}
+        />
+        <InputField
+          label="Stretch weft (%)"
+          name="stretchWeftPct"
+          inputMode="decimal"
+          defaultValue={initial?.stretchWeftPct ?? ""}
+          error={fields.stretchWeftPct}
+        />
         <InputField label="Colour" name="colour" defaultValue={initial?.colour ?? ""} />
       </div>
       <fieldset className="grid gap-2">
         <legend className="text-sm font-semibold text-ink">Fibre content — total {roundTo(sum, 2)} %</legend>
         {fibres.map((f, i) => (
           <div key={i} className="flex items-end gap-2">
-            <InputField label={`Fibre ${i + 1}`} value={f.fibre} onChange={(e) => setFibres((xs) => xs.map((x, j) => (j === i ? { ...x, fibre: e.target.value } : x)))} />
-            <InputField label="%" className="w-24" inputMode="decimal" value={f.percent} onChange={(e) => setFibres((xs) => xs.map((x, j) => (j === i ? { ...x, percent: e.target.value } : x)))} />
+            <InputField
+              label={`Fibre ${i + 1}`}
+              value={f.fibre}
+              onChange={(e) => setFibres((xs) => xs.map((x, j) => (j === i ? { ...x, fibre: e.target.value } : x)))}
+            />
+            <InputField
+              label="%"
+              className="w-24"
+              inputMode="decimal"
+              value={f.percent}
+              onChange={(e) => setFibres((xs) => xs.map((x, j) => (j === i ? { ...x, percent: e.target.value } : x)))}
+            />
             {fibres.length > 1 && (
-              <Button variant="ghost" size="sm" onClick={() => setFibres((xs) => xs.filter((_, j) => j !== i))} aria-label={`Remove fibre ${i + 1}`}>
+              <Button
+                variant="ghost"
+                size="sm"
+                onClick={() => setFibres((xs) => xs.filter((_, j) => j !== i))}
+                aria-label={`Remove fibre ${i + 1}`}
+              >
                 Remove
               </Button>
             )}

@@ -38,7 +38,8 @@ function readingsText(t: FabricTestDto): string {
     case "thickness":
       return `${num(r.thicknessMm)} mm`;
     case "shrinkage": {
-      const pairs = (xs: Array<{ beforeMm: number; afterMm: number }>) => xs.map((p) => `${num(p.beforeMm)} → ${num(p.afterMm)}`).join(", ");
+      const pairs = (xs: Array<{ beforeMm: number; afterMm: number }>) =>
+        xs.map((p) => `${num(p.beforeMm)} → ${num(p.afterMm)}`).join(", ");
       return `${fabricCareTreatmentLabels[r.treatment]}${r.cycles > 1 ? ` × ${r.cycles}` : ""}${r.procedure ? ` (${r.procedure})` : ""}: length ${pairs(r.length)} mm; width ${pairs(r.width)} mm`;
     }
     case "colourfastness":
@@ -55,7 +56,9 @@ function derivedText(t: FabricTestDto): string {
   const d = t.derived;
   switch (t.kind) {
     case "mass":
-      return d.massPerAreaGsm === undefined ? "—" : `${sig(d.massPerAreaGsm)} g/m² (${sig(d.massPerAreaOzYd2!)} oz/yd²) = ${sig(d.massPerAreaKgM2!)} kg/m²`;
+      return d.massPerAreaGsm === undefined
+        ? "—"
+        : `${sig(d.massPerAreaGsm)} g/m² (${sig(d.massPerAreaOzYd2!)} oz/yd²) = ${sig(d.massPerAreaKgM2!)} kg/m²`;
     case "cantilever":
       return d.bendingLengthMm === undefined
         ? "—"
@@ -64,7 +67,9 @@ function derivedText(t: FabricTestDto): string {
               ? `; G = ${sig(d.flexuralRigidityMicroNm)} µN·m = ${sig(d.flexuralRigidityNm!)} N·m (${sig(d.flexuralRigidityMicroNm / MICRO_NM_PER_MG_CM)} mg·cm) using ${sig(d.massPerAreaUsedGsm!)} g/m² ${d.massBasis}`
               : "; rigidity needs a mass per area");
     case "strip":
-      return d.tensileStiffnessNPerM === undefined ? "—" : `k = ${sig(d.tensileStiffnessNPerM)} N/m (strain ${num(d.strain! * 100)} %, ${sig(d.forcePerWidthNPerM!)} N/m load per width)`;
+      return d.tensileStiffnessNPerM === undefined
+        ? "—"
+        : `k = ${sig(d.tensileStiffnessNPerM)} N/m (strain ${num(d.strain! * 100)} %, ${sig(d.forcePerWidthNPerM!)} N/m load per width)`;
     case "thickness":
       return d.thicknessM === undefined ? "—" : `${sig(d.thicknessM)} m`;
     case "shrinkage":
@@ -72,7 +77,9 @@ function derivedText(t: FabricTestDto): string {
         ? "—"
         : `length ${pct(d.lengthChangePct)}, width ${pct(d.widthChangePct!)} (negative shrinks); to end at size, cut length × ${num(d.lengthCutFactor!)}, width × ${num(d.widthCutFactor!)}`;
     case "colourfastness":
-      return d.changeLabel === undefined ? "—" : `change ${d.changeLabel}${d.changeDeltaE !== undefined ? ` (the scale's pair is ΔE*ab ${num(d.changeDeltaE)} ± ${num(d.changeDeltaETolerance!)})` : ""}${d.stainingLabel ? `, staining ${d.stainingLabel}` : ""}; grey scale, 5 = none`;
+      return d.changeLabel === undefined
+        ? "—"
+        : `change ${d.changeLabel}${d.changeDeltaE !== undefined ? ` (the scale's pair is ΔE*ab ${num(d.changeDeltaE)} ± ${num(d.changeDeltaETolerance!)})` : ""}${d.stainingLabel ? `, staining ${d.stainingLabel}` : ""}; grey scale, 5 = none`;
     case "flame_retardancy":
       return "Record of treatment; the certificate photo is with the test";
   }
@@ -93,7 +100,17 @@ const FLAME_CAUTION =
   "This records a treatment and its certificate; the app does not judge whether cloth is safe on stage. Local fire codes, the venue and its fire officer decide what is acceptable and how it is tested. Many treatments wash or clean out: re-treat and re-test as the product and the venue require.";
 
 /** A fabric's tests: raw readings beside derived values, a form to record one, and the SI simulation values. */
-export function FabricTests({ productionId, fabric, canUpdate, today }: { productionId: string; fabric: FabricDetailDto; canUpdate: boolean; today: string }) {
+export function FabricTests({
+  productionId,
+  fabric,
+  canUpdate,
+  today,
+}: {
+  productionId: string;
+  fabric: FabricDetailDto;
+  canUpdate: boolean;
+  today: string;
+}) {
   const add = useAddFabricTest(productionId, fabric.id);
   const del = useDeleteFabricTest(productionId, fabric.id);
   const [kind, setKind] = useState<FabricTestKind>("mass");
@@ -118,9 +135,23 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
         : kind === "cantilever"
           ? { kind, direction: str("direction") as "warp" | "weft", overhangMm: n("overhangMm"), angleDeg: n("angleDeg") }
           : kind === "strip"
-            ? { kind, direction: str("direction") as "warp" | "weft", loadN: n("loadN"), stripWidthMm: n("stripWidthMm"), gaugeLengthMm: n("gaugeLengthMm"), extensionMm: n("extensionMm") }
+            ? {
+                kind,
+                direction: str("direction") as "warp" | "weft",
+                loadN: n("loadN"),
+                stripWidthMm: n("stripWidthMm"),
+                gaugeLengthMm: n("gaugeLengthMm"),
+                extensionMm: n("extensionMm"),
+              }
             : kind === "shrinkage"
-              ? { kind, treatment: str("treatment") as "washing" | "dry_cleaning", procedure: str("procedure") || null, cycles: n("cycles"), length: pairs("length"), width: pairs("width") }
+              ? {
+                  kind,
+                  treatment: str("treatment") as "washing" | "dry_cleaning",
+                  procedure: str("procedure") || null,
+                  cycles: n("cycles"),
+                  length: pairs("length"),
+                  width: pairs("width"),
+                }
               : kind === "colourfastness"
                 ? {
                     kind,
@@ -131,7 +162,14 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
                     adjacent: str("adjacent") || null,
                   }
                 : kind === "flame_retardancy"
-                  ? { kind, treatment: str("treatment"), treatedOn: str("treatedOn"), standard: str("standard") || null, certificateRef: str("certificateRef") || null, renewBy: str("renewBy") || null }
+                  ? {
+                      kind,
+                      treatment: str("treatment"),
+                      treatedOn: str("treatedOn"),
+                      standard: str("standard") || null,
+                      certificateRef: str("certificateRef") || null,
+                      renewBy: str("renewBy") || null,
+                    }
                   : { kind, thicknessMm: n("thicknessMm") };
     add.mutate(
       { testedOn: str("testedOn"), readings, notes: str("notes") || null },
@@ -172,7 +210,9 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
                   <th className="px-2 py-1">Readings</th>
                   <th className="px-2 py-1">Derived</th>
                   <th className="px-2 py-1">By</th>
-                  <th className="px-2 py-1"><span className="sr-only">Photos and actions</span></th>
+                  <th className="px-2 py-1">
+                    <span className="sr-only">Photos and actions</span>
+                  </th>
                 </tr>
               </thead>
               <tbody>
@@ -185,11 +225,21 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
                     <td className="px-2 py-1">{t.testedByName ?? "—"}</td>
                     <td className="px-2 py-1">
                       <span className="flex gap-1">
-                        <Button size="sm" variant="ghost" onClick={() => setPhotosFor(photosFor === t.id ? null : t.id)} aria-label={`Photos of the ${t.kind.replace(/_/g, " ")} test of ${formatDate(t.testedOn)}`}>
+                        <Button
+                          size="sm"
+                          variant="ghost"
+                          onClick={() => setPhotosFor(photosFor === t.id ? null : t.id)}
+                          aria-label={`Photos of the ${t.kind.replace(/_/g, " ")} test of ${formatDate(t.testedOn)}`}
+                        >
                           {t.kind === "flame_retardancy" ? "Certificate" : "Photos"}
                         </Button>
                         {canUpdate && (
-                          <Button size="sm" variant="ghost" onClick={() => setDeleting(t)} aria-label={`Delete ${t.kind.replace(/_/g, " ")} test of ${formatDate(t.testedOn)}`}>
+                          <Button
+                            size="sm"
+                            variant="ghost"
+                            onClick={() => setDeleting(t)}
+                            aria-label={`Delete ${t.kind.replace(/_/g, " ")} test of ${formatDate(t.testedOn)}`}
+                          >
                             Delete
                           </Button>
                         )}
@@ -209,7 +259,11 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
               ownerType="fabric_test"
               ownerId={photosTest.id}
               canEdit={canUpdate}
-              title={photosTest.kind === "flame_retardancy" ? `Certificate: ${readingsText(photosTest)}` : `${kindLabels[photosTest.kind]}, ${formatDate(photosTest.testedOn)}`}
+              title={
+                photosTest.kind === "flame_retardancy"
+                  ? `Certificate: ${readingsText(photosTest)}`
+                  : `${kindLabels[photosTest.kind]}, ${formatDate(photosTest.testedOn)}`
+              }
             />
           </div>
         )}
@@ -242,7 +296,13 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
             )}
             {kind === "cantilever" && (
               <>
-                <InputField label="Overhang (mm)" name="overhangMm" inputMode="decimal" error={f("overhangMm")} hint="Length pushed out until the tip touches the incline" />
+                <InputField
+                  label="Overhang (mm)"
+                  name="overhangMm"
+                  inputMode="decimal"
+                  error={f("overhangMm")}
+                  hint="Length pushed out until the tip touches the incline"
+                />
                 <InputField label="Incline (°)" name="angleDeg" inputMode="decimal" defaultValue="41.5" error={f("angleDeg")} />
               </>
             )}
@@ -251,16 +311,22 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
                 <InputField label="Load (N)" name="loadN" inputMode="decimal" error={f("loadN")} />
                 <InputField label="Extension (mm)" name="extensionMm" inputMode="decimal" error={f("extensionMm")} />
                 <InputField label="Strip width (mm)" name="stripWidthMm" inputMode="decimal" defaultValue="50" error={f("stripWidthMm")} />
-                <InputField label="Gauge length (mm)" name="gaugeLengthMm" inputMode="decimal" defaultValue="200" error={f("gaugeLengthMm")} />
+                <InputField
+                  label="Gauge length (mm)"
+                  name="gaugeLengthMm"
+                  inputMode="decimal"
+                  defaultValue="200"
+                  error={f("gaugeLengthMm")}
+                />
               </>
             )}
             {kind === "thickness" && <InputField label="Thickness (mm)" name="thicknessMm" inputMode="decimal" error={f("thicknessMm")} />}
             {kind === "shrinkage" && (
               <>
                 <p className="text-xs text-slate sm:col-span-3 lg:col-span-6">
-                  Mark the specimen and measure before and after, as ISO 3759 describes (a 500 × 500 mm specimen with marks 350 mm apart is usual); wash by an ISO 6330
-                  procedure or dry-clean by ISO 3175; the change is computed as ISO 5077 does: (after − before) ÷ before × 100, negative = shrinkage. Procedure codes from
-                  memory: write the one you ran.
+                  Mark the specimen and measure before and after, as ISO 3759 describes (a 500 × 500 mm specimen with marks 350 mm apart is
+                  usual); wash by an ISO 6330 procedure or dry-clean by ISO 3175; the change is computed as ISO 5077 does: (after − before)
+                  ÷ before × 100, negative = shrinkage. Procedure codes from memory: write the one you ran.
                 </p>
                 <SelectField label="Treatment" name="treatment" defaultValue="washing" error={f("treatment")}>
                   <option value="washing">{fabricCareTreatmentLabels.washing}</option>
@@ -269,11 +335,28 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
                 <InputField label="Procedure" name="procedure" placeholder="ISO 6330 4N, line dry" error={f("procedure")} />
                 <InputField label="Cycles" name="cycles" inputMode="numeric" defaultValue="1" error={f("cycles")} />
                 {(["length", "width"] as const).map((dir) => (
-                  <fieldset key={dir} className="grid grid-cols-2 gap-2 rounded-md border border-chalk-200 p-2 sm:col-span-3 sm:grid-cols-4">
-                    <legend className="px-1 text-sm font-semibold text-ink">{dir === "length" ? "Length (warp / wales)" : "Width (weft / courses)"}</legend>
-                    <InputField label="Marks before (mm)" name={`${dir}Before`} inputMode="decimal" defaultValue="350" error={f(`${dir}.0.beforeMm`)} />
+                  <fieldset
+                    key={dir}
+                    className="grid grid-cols-2 gap-2 rounded-md border border-chalk-200 p-2 sm:col-span-3 sm:grid-cols-4"
+                  >
+                    <legend className="px-1 text-sm font-semibold text-ink">
+                      {dir === "length" ? "Length (warp / wales)" : "Width (weft / courses)"}
+                    </legend>
+                    <InputField
+                      label="Marks before (mm)"
+                      name={`${dir}Before`}
+                      inputMode="decimal"
+                      defaultValue="350"
+                      error={f(`${dir}.0.beforeMm`)}
+                    />
                     {[1, 2, 3].map((i) => (
-                      <InputField key={i} label={`After, pair ${i} (mm)`} name={`${dir}After${i}`} inputMode="decimal" error={i === 1 ? (f(dir) ?? f(`${dir}.0.afterMm`)) : f(`${dir}.${i - 1}.afterMm`)} />
+                      <InputField
+                        key={i}
+                        label={`After, pair ${i} (mm)`}
+                        name={`${dir}After${i}`}
+                        inputMode="decimal"
+                        error={i === 1 ? (f(dir) ?? f(`${dir}.0.afterMm`)) : f(`${dir}.${i - 1}.afterMm`)}
+                      />
                     ))}
                   </fieldset>
                 ))}
@@ -282,8 +365,8 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
             {kind === "colourfastness" && (
               <>
                 <p className="text-xs text-slate sm:col-span-3 lg:col-span-6">
-                  Read the change in colour on the ISO 105-A02 grey scale and the staining of the adjacent fabric on the ISO 105-A03 grey scale: 5 is no change, 1 the most;
-                  half steps are written 4-5. The agent's ISO 105 part is named beside it (from memory).
+                  Read the change in colour on the ISO 105-A02 grey scale and the staining of the adjacent fabric on the ISO 105-A03 grey
+                  scale: 5 is no change, 1 the most; half steps are written 4-5. The agent's ISO 105 part is named beside it (from memory).
                 </p>
                 <SelectField label="Agent" name="agent" defaultValue="washing" className="sm:col-span-2" error={f("agent")}>
                   {colourfastnessAgents.map((a) => (
@@ -321,7 +404,9 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
                 <InputField label="Standard or code on the certificate" name="standard" error={f("standard")} />
                 <InputField label="Certificate number" name="certificateRef" error={f("certificateRef")} />
                 <InputField label="Renew by" name="renewBy" type="date" error={f("renewBy")} hint="After this, re-treat or re-test." />
-                <p className="text-xs text-slate sm:col-span-3 lg:col-span-6">After saving, add the certificate as a photo (it opens below the tests).</p>
+                <p className="text-xs text-slate sm:col-span-3 lg:col-span-6">
+                  After saving, add the certificate as a photo (it opens below the tests).
+                </p>
               </>
             )}
             <InputField label="Notes" name="notes" className="sm:col-span-2" />
@@ -331,7 +416,11 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
               </Button>
             </div>
           </form>
-          {add.error != null && <div className="mt-2"><ErrorAlert error={add.error} title="Test not recorded" /></div>}
+          {add.error != null && (
+            <div className="mt-2">
+              <ErrorAlert error={add.error} title="Test not recorded" />
+            </div>
+          )}
         </section>
       )}
 
@@ -344,14 +433,15 @@ export function FabricTests({ productionId, fabric, canUpdate, today }: { produc
         onCancel={() => setDeleting(null)}
         onConfirm={() => deleting && del.mutate(deleting.id, { onSettled: () => setDeleting(null) })}
       >
-        {deleting ? `${kindLabels[deleting.kind]} of ${formatDate(deleting.testedOn)}: ${readingsText(deleting)}. ` : ""}The other tests are recomputed without it.
+        {deleting ? `${kindLabels[deleting.kind]} of ${formatDate(deleting.testedOn)}: ${readingsText(deleting)}. ` : ""}The other tests are
+        recomputed without it.
       </ConfirmDialog>
       {del.error != null && <ErrorAlert error={del.error} title="Test not deleted" />}
       <section>
         <h3 className="mb-1 font-semibold text-ink">Simulation values (SI)</h3>
         <p className="mb-2 text-xs text-slate">
-          For digital doubles. Measured values come from the tests above; anything not tested falls back to the {fabric.simulation.fabricClass.replace("_", " ")} class default
-          (common practice, no source).
+          For digital doubles. Measured values come from the tests above; anything not tested falls back to the{" "}
+          {fabric.simulation.fabricClass.replace("_", " ")} class default (common practice, no source).
         </p>
         <table className="w-full text-sm" aria-label="Simulation values">
           <tbody>

@@ -11,7 +11,17 @@ import { useCreateMeasurementSet } from "../api/measurements";
 const cap = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
 
 /** Enter a dated set in cm or inches (fractions welcome); the server stores mm and refuses implausible values. */
-export function MeasurementForm({ productionId, performerId, defaultUnit, today }: { productionId: string; performerId: string; defaultUnit: LengthUnit; today: string }) {
+export function MeasurementForm({
+  productionId,
+  performerId,
+  defaultUnit,
+  today,
+}: {
+  productionId: string;
+  performerId: string;
+  defaultUnit: LengthUnit;
+  today: string;
+}) {
   const create = useCreateMeasurementSet(productionId, performerId);
   const [unit, setUnit] = useState<LengthUnit>(defaultUnit);
   const [localErrors, setLocalErrors] = useState<Record<string, string>>({});
@@ -67,11 +77,22 @@ export function MeasurementForm({ productionId, performerId, defaultUnit, today 
       </div>
       <div className="grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-4">
         {MEASUREMENT_KEYS.map((k) => (
-          <InputField key={k} label={`${cap(MEASUREMENT_LABELS[k])} (${unit})`} name={k} inputMode="decimal" autoComplete="off" error={err(k)} />
+          <InputField
+            key={k}
+            label={`${cap(MEASUREMENT_LABELS[k])} (${unit})`}
+            name={k}
+            inputMode="decimal"
+            autoComplete="off"
+            error={err(k)}
+          />
         ))}
       </div>
       <TextareaField label="Notes" name="notes" />
-      {localErrors._ && <p role="alert" className="text-sm text-madder">{localErrors._}</p>}
+      {localErrors._ && (
+        <p role="alert" className="text-sm text-madder">
+          {localErrors._}
+        </p>
+      )}
       {create.error != null && <ErrorAlert error={create.error} title="Not saved" />}
       {create.isSuccess && <p className="text-sm text-ink">Saved.</p>}
       <div>

@@ -8,7 +8,15 @@ import { formatDate } from "@shared/format";
 const cap = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
 
 /** Sets side by side, newest first; a value that moved since the set before it is highlighted with the change. */
-export function MeasurementHistory({ sets, unit, onDelete }: { sets: MeasurementSetDto[]; unit: LengthUnit; onDelete?: (id: string) => void }) {
+export function MeasurementHistory({
+  sets,
+  unit,
+  onDelete,
+}: {
+  sets: MeasurementSetDto[];
+  unit: LengthUnit;
+  onDelete?: (id: string) => void;
+}) {
   const keys = MEASUREMENT_KEYS.filter((k) => sets.some((s) => s.valuesMm[k] !== undefined));
   return (
     <div className="overflow-x-auto">
@@ -26,7 +34,13 @@ export function MeasurementHistory({ sets, unit, onDelete }: { sets: Measurement
                   {s.takenByName ?? "—"} · typed in {s.enteredUnit}
                 </span>
                 {onDelete && (
-                  <Button size="sm" variant="ghost" className="px-0" onClick={() => onDelete(s.id)} aria-label={`Delete the set of ${formatDate(s.takenOn)}`}>
+                  <Button
+                    size="sm"
+                    variant="ghost"
+                    className="px-0"
+                    onClick={() => onDelete(s.id)}
+                    aria-label={`Delete the set of ${formatDate(s.takenOn)}`}
+                  >
                     Delete
                   </Button>
                 )}
@@ -66,7 +80,8 @@ export function MeasurementHistory({ sets, unit, onDelete }: { sets: Measurement
 
 /** EN 13402-3 designations and ISO 9407 Mondopoint from the newest set. */
 export function SizesPanel({ data }: { data: PerformerMeasurementsDto }) {
-  if (data.sizes.length === 0 && !data.mondopoint) return <p className="text-sm text-slate">No sizes yet: record a chest or bust girth, a waist girth, or a foot length.</p>;
+  if (data.sizes.length === 0 && !data.mondopoint)
+    return <p className="text-sm text-slate">No sizes yet: record a chest or bust girth, a waist girth, or a foot length.</p>;
   return (
     <dl className="grid gap-2 text-sm sm:grid-cols-2" aria-label="Sizes">
       {data.sizes.map((s) => (
@@ -86,10 +101,14 @@ export function SizesPanel({ data }: { data: PerformerMeasurementsDto }) {
         <div className="rounded-md border border-chalk-200 px-3 py-2">
           <dt className="text-slate">Shoes — ISO 9407 Mondopoint</dt>
           <dd className="text-lg font-bold text-ink">{data.mondopoint.label}</dd>
-          <dd className="text-xs text-slate">foot length {data.mondopoint.lengthMm} mm{data.mondopoint.widthMm ? `, width ${data.mondopoint.widthMm} mm` : ""}</dd>
+          <dd className="text-xs text-slate">
+            foot length {data.mondopoint.lengthMm} mm{data.mondopoint.widthMm ? `, width ${data.mondopoint.widthMm} mm` : ""}
+          </dd>
         </div>
       )}
-      <p className="text-xs text-slate sm:col-span-2">Letter bands and size intervals are recalled, not yet checked against the purchased standard.</p>
+      <p className="text-xs text-slate sm:col-span-2">
+        Letter bands and size intervals are recalled, not yet checked against the purchased standard.
+      </p>
     </dl>
   );
 }

@@ -2,7 +2,8 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/r
 import { api } from "@/lib/api-client";
 import type { CreateProductionInput, ProductionDto, UpdateProductionInput } from "@shared/schemas/productions";
 
-export const productionsQueryOptions = () => queryOptions({ queryKey: ["productions", "list"], queryFn: () => api.get<ProductionDto[]>("/productions") });
+export const productionsQueryOptions = () =>
+  queryOptions({ queryKey: ["productions", "list"], queryFn: () => api.get<ProductionDto[]>("/productions") });
 export const useProductions = () => useQuery(productionsQueryOptions());
 
 export const productionQueryOptions = (id: string) =>
@@ -14,8 +15,8 @@ export function useCreateProduction() {
   return useMutation({
     mutationFn: (input: CreateProductionInput) => api.post<ProductionDto>("/productions", input),
     onSuccess: () => {
-      qc.invalidateQueries({ queryKey: ["productions"] });
-      qc.invalidateQueries({ queryKey: ["me"] });
+      void qc.invalidateQueries({ queryKey: ["productions"] });
+      void qc.invalidateQueries({ queryKey: ["me"] });
     },
   });
 }

@@ -73,7 +73,8 @@ export function EaseRangesForm({ production }: { production: ProductionDto }) {
   return (
     <div className="grid gap-3">
       <p className="text-sm text-slate">
-        The fit check compares finished measurement minus body measurement with a range per garment and fit intent, from published pattern-cutting values. Set your own where the department works differently.
+        The fit check compares finished measurement minus body measurement with a range per garment and fit intent, from published
+        pattern-cutting values. Set your own where the department works differently.
       </p>
       {rows.length ? (
         <ul className="divide-y divide-chalk-200 text-sm" aria-label="Ease ranges set for this production">
@@ -95,26 +96,63 @@ export function EaseRangesForm({ production }: { production: ProductionDto }) {
         <p className="text-sm text-slate">No own ranges: the handbook values apply everywhere.</p>
       )}
       <div className="grid gap-2 sm:grid-cols-5 sm:items-end">
-        <SelectField label="Garment" value={category} onChange={(e) => { setCategory(e.target.value); setPoint(Object.keys(EASE_TABLE[e.target.value] ?? {})[0]!); }}>
-          {categories.map((c) => <option key={c} value={c}>{label(c)}</option>)}
+        <SelectField
+          label="Garment"
+          value={category}
+          onChange={(e) => {
+            setCategory(e.target.value);
+            setPoint(Object.keys(EASE_TABLE[e.target.value] ?? {})[0]!);
+          }}
+        >
+          {categories.map((c) => (
+            <option key={c} value={c}>
+              {label(c)}
+            </option>
+          ))}
         </SelectField>
         <SelectField label="Point" value={point} onChange={(e) => setPoint(e.target.value)}>
-          {points.map((p) => <option key={p} value={p}>{label(p)}</option>)}
+          {points.map((p) => (
+            <option key={p} value={p}>
+              {label(p)}
+            </option>
+          ))}
         </SelectField>
         <SelectField label="Fit" value={intent} onChange={(e) => setIntent(e.target.value as Intent)}>
-          {intents.map((i) => <option key={i} value={i}>{i}</option>)}
+          {intents.map((i) => (
+            <option key={i} value={i}>
+              {i}
+            </option>
+          ))}
         </SelectField>
-        <InputField label={`Min ease (${unit})`} value={min} onChange={(e) => setMin(e.target.value)} error={errors.min} inputMode="decimal" />
-        <InputField label={`Max ease (${unit})`} value={max} onChange={(e) => setMax(e.target.value)} error={errors.max} inputMode="decimal" hint="Empty: no upper limit" />
+        <InputField
+          label={`Min ease (${unit})`}
+          value={min}
+          onChange={(e) => setMin(e.target.value)}
+          error={errors.min}
+          inputMode="decimal"
+        />
+        <InputField
+          label={`Max ease (${unit})`}
+          value={max}
+          onChange={(e) => setMax(e.target.value)}
+          error={errors.max}
+          inputMode="decimal"
+          hint="Empty: no upper limit"
+        />
       </div>
       {handbook && (
         <p className="text-xs text-slate">
-          Handbook value here: {formatLength(handbook.range.min, unit)} to {handbook.range.max === null ? "no limit" : formatLength(handbook.range.max, unit)} ({handbook.source}).
+          Handbook value here: {formatLength(handbook.range.min, unit)} to{" "}
+          {handbook.range.max === null ? "no limit" : formatLength(handbook.range.max, unit)} ({handbook.source}).
         </p>
       )}
       <div className="flex flex-wrap gap-2">
-        <Button variant="secondary" onClick={add}>Add or replace range</Button>
-        <Button onClick={() => save(rows)} disabled={!dirty} busy={update.isPending}>Save ease ranges</Button>
+        <Button variant="secondary" onClick={add}>
+          Add or replace range
+        </Button>
+        <Button onClick={() => save(rows)} disabled={!dirty} busy={update.isPending}>
+          Save ease ranges
+        </Button>
         {update.isSuccess && !dirty && <span className="self-center text-sm text-ink">Saved.</span>}
       </div>
       {update.error && <ErrorAlert error={update.error} title="Not saved" />}

@@ -10,7 +10,8 @@ import { ErrorAlert } from "@/components/ui/feedback";
 import { scheduleLabels } from "@shared/domain/schedule-labels";
 import { ApiError } from "@/lib/api-client";
 
-const num = (min: number, max: number) => z.union([z.literal(""), z.coerce.number().min(min, `at least ${min}`).max(max, `at most ${max}`)]);
+const num = (min: number, max: number) =>
+  z.union([z.literal(""), z.coerce.number().min(min, `at least ${min}`).max(max, `at most ${max}`)]);
 const formSchema = z.object({
   title: z.string().trim().min(1, "is required").max(200),
   startsOn: z.string(),
@@ -20,7 +21,13 @@ const formSchema = z.object({
   quickChangeThresholdMin: num(0, 60),
   reminderHour: num(0, 23),
   seamToleranceMm: num(0, 50),
-  currency: z.union([z.literal(""), z.string().trim().regex(/^[A-Za-z]{3}$/, "three letters, such as GBP, EUR or USD")]),
+  currency: z.union([
+    z.literal(""),
+    z
+      .string()
+      .trim()
+      .regex(/^[A-Za-z]{3}$/, "three letters, such as GBP, EUR or USD"),
+  ]),
   paperSize: z.enum(["A4", "Letter"]),
 });
 type FormValues = z.input<typeof formSchema>;
@@ -65,7 +72,9 @@ export function ProductionSettingsForm({ production }: { production: ProductionD
       },
       {
         onError: (err) => {
-          if (err instanceof ApiError) for (const [k, m] of Object.entries(err.fields)) form.setError(k.replace(/^settings\./, "") as keyof FormValues, { message: m });
+          if (err instanceof ApiError)
+            for (const [k, m] of Object.entries(err.fields))
+              form.setError(k.replace(/^settings\./, "") as keyof FormValues, { message: m });
         },
       },
     ),
@@ -75,18 +84,54 @@ export function ProductionSettingsForm({ production }: { production: ProductionD
       <InputField label="Title" className="sm:col-span-2" {...form.register("title")} error={e.title?.message} />
       <InputField label="First day" type="date" {...form.register("startsOn")} error={e.startsOn?.message} />
       <InputField label="Last day" type="date" {...form.register("endsOn")} error={e.endsOn?.message} />
-      <SelectField label="Measurement units" {...form.register("units")} hint="Everything is stored in millimetres; this is how it is shown and entered.">
+      <SelectField
+        label="Measurement units"
+        {...form.register("units")}
+        hint="Everything is stored in millimetres; this is how it is shown and entered."
+      >
         <option value="cm">Centimetres</option>
         <option value="in">Inches</option>
       </SelectField>
-      <InputField label="Workroom buffer (working days)" type="number" inputMode="numeric" {...form.register("bufferWorkingDays")} error={e.bufferWorkingDays?.message} hint={`Finished alterations are due this many working days before the ${scheduleLabels(production).day}.`} />
+      <InputField
+        label="Workroom buffer (working days)"
+        type="number"
+        inputMode="numeric"
+        {...form.register("bufferWorkingDays")}
+        error={e.bufferWorkingDays?.message}
+        hint={`Finished alterations are due this many working days before the ${scheduleLabels(production).day}.`}
+      />
       {production.kind === "stage" && (
-        <InputField label="Quick change threshold (minutes)" type="number" step="0.5" {...form.register("quickChangeThresholdMin")} error={e.quickChangeThresholdMin?.message} />
+        <InputField
+          label="Quick change threshold (minutes)"
+          type="number"
+          step="0.5"
+          {...form.register("quickChangeThresholdMin")}
+          error={e.quickChangeThresholdMin?.message}
+        />
       )}
       <InputField label="Evening reminder hour (0–23)" type="number" {...form.register("reminderHour")} error={e.reminderHour?.message} />
-      <InputField label="Seam length tolerance (mm)" type="number" step="0.5" {...form.register("seamToleranceMm")} error={e.seamToleranceMm?.message} />
-      <InputField label="Currency" placeholder={DEFAULT_CURRENCY} autoCapitalize="characters" maxLength={3} {...form.register("currency")} error={e.currency?.message} hint={`ISO 4217 code for every cost and the budget (default ${DEFAULT_CURRENCY}).`} />
-      <SelectField label="Paper for printed reports" {...form.register("paperSize")} error={e.paperSize?.message} hint="Continuity books and rack lists.">
+      <InputField
+        label="Seam length tolerance (mm)"
+        type="number"
+        step="0.5"
+        {...form.register("seamToleranceMm")}
+        error={e.seamToleranceMm?.message}
+      />
+      <InputField
+        label="Currency"
+        placeholder={DEFAULT_CURRENCY}
+        autoCapitalize="characters"
+        maxLength={3}
+        {...form.register("currency")}
+        error={e.currency?.message}
+        hint={`ISO 4217 code for every cost and the budget (default ${DEFAULT_CURRENCY}).`}
+      />
+      <SelectField
+        label="Paper for printed reports"
+        {...form.register("paperSize")}
+        error={e.paperSize?.message}
+        hint="Continuity books and rack lists."
+      >
         <option value="A4">A4 (210 × 297 mm)</option>
         <option value="Letter">US Letter (8.5 × 11 in)</option>
       </SelectField>

@@ -1,13 +1,22 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { api, qs } from "@/lib/api-client";
 import type { GarmentDto, WrapDisposition } from "@shared/schemas/garments";
-import type { BookPhotoSize, BudgetDto, ContinuityBooksIndexDto, RackListDto, ReportRunDto, ReturnsDto, ReturnsSection } from "@shared/schemas/reports";
+import type {
+  BookPhotoSize,
+  BudgetDto,
+  ContinuityBooksIndexDto,
+  RackListDto,
+  ReportRunDto,
+  ReturnsDto,
+  ReturnsSection,
+} from "@shared/schemas/reports";
 
 const base = (pid: string) => `/productions/${pid}/reports`;
 
 /** Addresses of the files the reports download (opened by the browser, not fetched as JSON). */
 export const reportFileUrls = {
-  continuityBook: (pid: string, characterId: string, opts: { changeId?: string; photos?: BookPhotoSize } = {}) => `/api${base(pid)}/continuity/${characterId}.pdf${qs({ changeId: opts.changeId, photos: opts.photos === "thumb" ? undefined : opts.photos })}`,
+  continuityBook: (pid: string, characterId: string, opts: { changeId?: string; photos?: BookPhotoSize } = {}) =>
+    `/api${base(pid)}/continuity/${characterId}.pdf${qs({ changeId: opts.changeId, photos: opts.photos === "thumb" ? undefined : opts.photos })}`,
   rackListPdf: (pid: string, shootDayId?: string) => `/api${base(pid)}/rack-list.pdf${qs({ shootDayId })}`,
   returnsCsv: (pid: string, section: ReturnsSection) => `/api${base(pid)}/returns.csv${qs({ section })}`,
   returnsXlsx: (pid: string) => `/api${base(pid)}/returns.xlsx`,
@@ -44,17 +53,24 @@ export function useReportRun(pid: string, runId: string | null) {
 
 /** Tomorrow's rack list (or the named day's). */
 export const rackListQueryOptions = (pid: string, shootDayId?: string) =>
-  queryOptions({ queryKey: ["reports", pid, "rack", shootDayId ?? "next"], queryFn: () => api.get<RackListDto>(`${base(pid)}/rack-list${qs({ shootDayId })}`) });
-export const useRackList = (pid: string, shootDayId?: string) => useQuery({ ...rackListQueryOptions(pid, shootDayId), enabled: Boolean(pid) });
+  queryOptions({
+    queryKey: ["reports", pid, "rack", shootDayId ?? "next"],
+    queryFn: () => api.get<RackListDto>(`${base(pid)}/rack-list${qs({ shootDayId })}`),
+  });
+export const useRackList = (pid: string, shootDayId?: string) =>
+  useQuery({ ...rackListQueryOptions(pid, shootDayId), enabled: Boolean(pid) });
 
-export const useReturns = (pid: string) => useQuery({ queryKey: ["reports", pid, "returns"], queryFn: () => api.get<ReturnsDto>(`${base(pid)}/returns`), enabled: Boolean(pid) });
-export const useBudget = (pid: string) => useQuery({ queryKey: ["reports", pid, "budget"], queryFn: () => api.get<BudgetDto>(`${base(pid)}/budget`), enabled: Boolean(pid) });
+export const useReturns = (pid: string) =>
+  useQuery({ queryKey: ["reports", pid, "returns"], queryFn: () => api.get<ReturnsDto>(`${base(pid)}/returns`), enabled: Boolean(pid) });
+export const useBudget = (pid: string) =>
+  useQuery({ queryKey: ["reports", pid, "budget"], queryFn: () => api.get<BudgetDto>(`${base(pid)}/budget`), enabled: Boolean(pid) });
 
 /** Keep or sell an owned garment at wrap (null = not decided); returns and budget refresh. */
 export function useSetWrapDisposition(pid: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: ({ garmentId, wrapDisposition }: { garmentId: string; wrapDisposition: WrapDisposition | null }) => api.patch<GarmentDto>(`/productions/${pid}/garments/${garmentId}`, { wrapDisposition }),
+    mutationFn: ({ garmentId, wrapDisposition }: { garmentId: string; wrapDisposition: WrapDisposition | null }) =>
+      api.patch<GarmentDto>(`/productions/${pid}/garments/${garmentId}`, { wrapDisposition }),
     onSuccess: () => {
       void qc.invalidateQueries({ queryKey: ["reports", pid] });
       void qc.invalidateQueries({ queryKey: ["garments", pid] });

@@ -7,7 +7,8 @@ import { reportFileUrls } from "../api/reports";
 import { formatDay, formatMoney } from "../format";
 
 const BudgetChart = lazy(() => import("./budget-chart"));
-const download = "inline-flex min-h-10 items-center rounded-md border border-ink-100 bg-white px-3 text-sm font-semibold text-ink hover:bg-ink-50";
+const download =
+  "inline-flex min-h-10 items-center rounded-md border border-ink-100 bg-white px-3 text-sm font-semibold text-ink hover:bg-ink-50";
 
 /** Costs by category, character, change and source, with a chart per grouping and the rental cost per week. */
 export function BudgetReport({ productionId, data }: { productionId: string; data: BudgetDto }) {
@@ -15,19 +16,30 @@ export function BudgetReport({ productionId, data }: { productionId: string; dat
   const money = (c: number) => formatMoney(c, data.currency);
   const rows = data.groupings[by];
   const rental = data.groupings.source.find((r) => r.key === "rented")?.cents ?? 0;
-  if (!data.garments.length) return <EmptyState title="No garments yet">Costs come from the garments in the Wardrobe: purchase or making cost, and the weekly hire rate of rentals.</EmptyState>;
+  if (!data.garments.length)
+    return (
+      <EmptyState title="No garments yet">
+        Costs come from the garments in the Wardrobe: purchase or making cost, and the weekly hire rate of rentals.
+      </EmptyState>
+    );
   return (
     <div className="grid gap-4">
       <div className="grid gap-3 sm:grid-cols-3">
         <Card>
           <p className="text-sm text-slate">Total</p>
           <p className="text-2xl font-bold text-ink tabular-nums">{money(data.totalCents)}</p>
-          <p className="text-xs text-slate">{data.garments.length} garments · {data.currency}</p>
+          <p className="text-xs text-slate">
+            {data.garments.length} garments · {data.currency}
+          </p>
         </Card>
         <Card>
           <p className="text-sm text-slate">Hire</p>
           <p className="text-2xl font-bold text-ink tabular-nums">{money(rental)}</p>
-          <p className="text-xs text-slate">{data.hireFrom ? `counted from ${formatDay(data.hireFrom)}${data.hireTo ? ` to ${formatDay(data.hireTo)} at the latest` : ""}` : "set the production's first day to count hire weeks"}</p>
+          <p className="text-xs text-slate">
+            {data.hireFrom
+              ? `counted from ${formatDay(data.hireFrom)}${data.hireTo ? ` to ${formatDay(data.hireTo)} at the latest` : ""}`
+              : "set the production's first day to count hire weeks"}
+          </p>
         </Card>
         <Card className="flex flex-wrap content-center gap-2">
           <a className={download} href={reportFileUrls.budgetXlsx(productionId)} download>
@@ -51,13 +63,20 @@ export function BudgetReport({ productionId, data }: { productionId: string; dat
               type="button"
               aria-selected={by === g}
               onClick={() => setBy(g)}
-              className={cn("min-h-10 rounded-md px-3 text-sm font-semibold", by === g ? "bg-ink text-chalk" : "border border-ink-100 bg-white text-ink hover:bg-ink-50")}
+              className={cn(
+                "min-h-10 rounded-md px-3 text-sm font-semibold",
+                by === g ? "bg-ink text-chalk" : "border border-ink-100 bg-white text-ink hover:bg-ink-50",
+              )}
             >
               By {budgetGroupingLabels[g].toLowerCase()}
             </button>
           ))}
         </div>
-        <div className="grid gap-4 lg:grid-cols-[3fr_2fr]" role="tabpanel" aria-label={`Costs by ${budgetGroupingLabels[by].toLowerCase()}`}>
+        <div
+          className="grid gap-4 lg:grid-cols-[3fr_2fr]"
+          role="tabpanel"
+          aria-label={`Costs by ${budgetGroupingLabels[by].toLowerCase()}`}
+        >
           <Suspense fallback={<Spinner label="Loading the chart…" />}>
             <BudgetChart rows={rows} currency={data.currency} title={`Costs by ${budgetGroupingLabels[by].toLowerCase()}`} />
           </Suspense>
@@ -87,14 +106,23 @@ export function BudgetReport({ productionId, data }: { productionId: string; dat
             </tfoot>
           </table>
         </div>
-        {(by === "character" || by === "change") && <p className="text-xs text-slate">A garment worn in several characters' or changes' costumes is shared evenly between them, so every grouping adds up to the same total.</p>}
+        {(by === "character" || by === "change") && (
+          <p className="text-xs text-slate">
+            A garment worn in several characters' or changes' costumes is shared evenly between them, so every grouping adds up to the same
+            total.
+          </p>
+        )}
       </Card>
 
       {data.rentalWeeks.length > 0 && (
         <Card className="grid gap-3">
           <h2 className="font-semibold text-ink">Hire cost per week over the shoot</h2>
           <Suspense fallback={<Spinner label="Loading the chart…" />}>
-            <BudgetChart rows={data.rentalWeeks.map((w) => ({ label: `Week ${w.week} (${formatDay(w.starts).slice(4, -5)})`, cents: w.cents }))} currency={data.currency} title="Hire cost per week" />
+            <BudgetChart
+              rows={data.rentalWeeks.map((w) => ({ label: `Week ${w.week} (${formatDay(w.starts).slice(4, -5)})`, cents: w.cents }))}
+              currency={data.currency}
+              title="Hire cost per week"
+            />
           </Suspense>
           <a className="text-sm font-semibold text-ink underline" href={reportFileUrls.budgetCsv(productionId, "week")} download>
             Hire per week (CSV)

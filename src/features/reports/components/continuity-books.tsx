@@ -7,7 +7,8 @@ import { SelectField } from "@/components/ui/field";
 import { reportFileUrls, useReportRun, useStartBooksRun } from "../api/reports";
 import { formatBytes } from "../format";
 
-const linkClass = "inline-flex min-h-10 items-center rounded-md border border-ink-100 bg-white px-3 text-sm font-semibold text-ink hover:bg-ink-50";
+const linkClass =
+  "inline-flex min-h-10 items-center rounded-md border border-ink-100 bg-white px-3 text-sm font-semibold text-ink hover:bg-ink-50";
 
 /** Progress of the "every book" export, then its download link. */
 function RunProgress({ productionId, run }: { productionId: string; run: ReportRunDto }) {
@@ -21,7 +22,9 @@ function RunProgress({ productionId, run }: { productionId: string; run: ReportR
         <a className="font-semibold text-ink underline" href={r.fileUrl!} download>
           Download every book (ZIP{r.bytes ? `, ${formatBytes(r.bytes)}` : ""})
         </a>{" "}
-        <span className="text-slate">· {r.total} books, built {new Date(r.finishedAt ?? r.createdAt).toLocaleString("en-GB")}</span>
+        <span className="text-slate">
+          · {r.total} books, built {new Date(r.finishedAt ?? r.createdAt).toLocaleString("en-GB")}
+        </span>
       </p>
     );
   return (
@@ -44,11 +47,18 @@ export function ContinuityBooks({ productionId, data }: { productionId: string; 
     <div className="grid gap-4">
       <Card className="grid gap-3">
         <p className="text-sm text-slate">
-          One book per character: every scene in story order with its shoot day, change, garment copies, distress stage, flags, notes and photos by view; a contents page first.
-          Printed on {data.paperSize === "A4" ? "A4" : "US Letter"} (Team → settings). Measurements never appear in a book.
+          One book per character: every scene in story order with its shoot day, change, garment copies, distress stage, flags, notes and
+          photos by view; a contents page first. Printed on {data.paperSize === "A4" ? "A4" : "US Letter"} (Team → settings). Measurements
+          never appear in a book.
         </p>
         <div className="flex flex-wrap items-end gap-3">
-          <SelectField label="Photos" value={photos} onChange={(e) => setPhotos(e.target.value as BookPhotoSize)} hint="Thumbnails keep the file small; display size prints sharper" className="min-w-56">
+          <SelectField
+            label="Photos"
+            value={photos}
+            onChange={(e) => setPhotos(e.target.value as BookPhotoSize)}
+            hint="Thumbnails keep the file small; display size prints sharper"
+            className="min-w-56"
+          >
             <option value="thumb">Thumbnails (smallest file)</option>
             <option value="display">Display size (sharper)</option>
           </SelectField>
@@ -69,18 +79,31 @@ export function ContinuityBooks({ productionId, data }: { productionId: string; 
                 <div>
                   <p className="font-semibold text-ink-900">{c.name}</p>
                   <p className="text-sm text-slate">
-                    {c.scenes} scene{c.scenes === 1 ? "" : "s"} · {c.photos} photo{c.photos === 1 ? "" : "s"} · {c.changes.length} change{c.changes.length === 1 ? "" : "s"}
+                    {c.scenes} scene{c.scenes === 1 ? "" : "s"} · {c.photos} photo{c.photos === 1 ? "" : "s"} · {c.changes.length} change
+                    {c.changes.length === 1 ? "" : "s"}
                   </p>
                 </div>
                 {c.scenes > 0 ? (
                   <div className="flex flex-wrap gap-2">
-                    <a className={linkClass} href={reportFileUrls.continuityBook(productionId, c.id, { photos })} target="_blank" rel="noreferrer">
+                    <a
+                      className={linkClass}
+                      href={reportFileUrls.continuityBook(productionId, c.id, { photos })}
+                      target="_blank"
+                      rel="noreferrer"
+                    >
                       Book (PDF)
                     </a>
                     {c.changes
                       .filter((ch) => ch.scenes > 0)
                       .map((ch) => (
-                        <a key={ch.id} className={linkClass} href={reportFileUrls.continuityBook(productionId, c.id, { changeId: ch.id, photos })} target="_blank" rel="noreferrer" title={ch.description ?? undefined}>
+                        <a
+                          key={ch.id}
+                          className={linkClass}
+                          href={reportFileUrls.continuityBook(productionId, c.id, { changeId: ch.id, photos })}
+                          target="_blank"
+                          rel="noreferrer"
+                          title={ch.description ?? undefined}
+                        >
                           Change {ch.number}
                         </a>
                       ))}

@@ -12,7 +12,15 @@ export function QrCode({ text, size = 96, label }: { text: string; size?: number
     return { n: m.size + 4, path: d };
   }, [text]);
   return (
-    <svg role="img" aria-label={label} width={size} height={size} viewBox={`0 0 ${n} ${n}`} shapeRendering="crispEdges" className="shrink-0 bg-white">
+    <svg
+      role="img"
+      aria-label={label}
+      width={size}
+      height={size}
+      viewBox={`0 0 ${n} ${n}`}
+      shapeRendering="crispEdges"
+      className="shrink-0 bg-white"
+    >
       <rect width={n} height={n} fill="#fff" />
       <path d={path} fill="#000" />
     </svg>

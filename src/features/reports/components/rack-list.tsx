@@ -22,11 +22,18 @@ function GarmentRow({ g }: { g: RackGarmentDto }) {
   return (
     <li className="flex gap-3 py-3" aria-label={`${g.tagCode ?? "No garment"} ${g.label}`}>
       {g.checkOutPath && href ? (
-        <Link to={g.checkOutPath} className="rounded focus:outline-2 focus:outline-ink" aria-label={`Check out ${g.tagCode}`} data-qr-for={g.tagCode ?? ""}>
+        <Link
+          to={g.checkOutPath}
+          className="rounded focus:outline-2 focus:outline-ink"
+          aria-label={`Check out ${g.tagCode}`}
+          data-qr-for={g.tagCode ?? ""}
+        >
           <QrCode text={href} size={88} label={`QR code: check out ${g.tagCode}`} />
         </Link>
       ) : (
-        <div className="grid size-[88px] shrink-0 place-items-center rounded border border-dashed border-madder/50 text-center text-xs text-madder">no garment</div>
+        <div className="grid size-[88px] shrink-0 place-items-center rounded border border-dashed border-madder/50 text-center text-xs text-madder">
+          no garment
+        </div>
       )}
       <div className="min-w-0 flex-1">
         <div className="flex flex-wrap items-baseline gap-x-2">
@@ -52,7 +59,13 @@ function GarmentRow({ g }: { g: RackGarmentDto }) {
               {f}
             </Badge>
           ))}
-          {g.bringSpare && <Badge tone="warning">{g.spare ? `bring spare copy ${g.spare.tagCode}${g.spare.copyNumber ? ` (#${g.spare.copyNumber})` : ""}` : "bring spare copy: none held"}</Badge>}
+          {g.bringSpare && (
+            <Badge tone="warning">
+              {g.spare
+                ? `bring spare copy ${g.spare.tagCode}${g.spare.copyNumber ? ` (#${g.spare.copyNumber})` : ""}`
+                : "bring spare copy: none held"}
+            </Badge>
+          )}
         </div>
         <p className="mt-1 text-xs text-slate">Scenes {g.sceneNumbers.join(", ")}</p>
         {g.warnings.length > 0 && (
@@ -65,7 +78,10 @@ function GarmentRow({ g }: { g: RackGarmentDto }) {
           </ul>
         )}
         {g.checkOutPath && (
-          <Link to={g.checkOutPath} className="mt-2 inline-flex min-h-11 items-center rounded-md border border-ink-100 bg-white px-3 text-sm font-semibold text-ink hover:bg-ink-50">
+          <Link
+            to={g.checkOutPath}
+            className="mt-2 inline-flex min-h-11 items-center rounded-md border border-ink-100 bg-white px-3 text-sm font-semibold text-ink hover:bg-ink-50"
+          >
             Check out {g.tagCode}
           </Link>
         )}
@@ -77,11 +93,16 @@ function GarmentRow({ g }: { g: RackGarmentDto }) {
 /** The rack list as the set reads it on a phone: characters in call order, big tag codes and locations. */
 export function RackList({ list }: { list: RackListDto }) {
   if (!list.day) return <EmptyState title={rackDayLabel(list)}>Add shoot days or performances on the Breakdown screen.</EmptyState>;
-  if (!list.characters.length) return <EmptyState title="Nobody is called on this day">The day has no scenes with characters in changes yet.</EmptyState>;
+  if (!list.characters.length)
+    return <EmptyState title="Nobody is called on this day">The day has no scenes with characters in changes yet.</EmptyState>;
   const wetOrStunt = list.characters.some((c) => c.changes.some((ch) => ch.garments.some((g) => g.wet || g.stunt)));
   return (
     <div className="grid gap-3">
-      {wetOrStunt && <SafetyNote>Wet and stunt scenes: bring the spare copy; agree drying, padding and quick-release fastenings with the stunt coordinator.</SafetyNote>}
+      {wetOrStunt && (
+        <SafetyNote>
+          Wet and stunt scenes: bring the spare copy; agree drying, padding and quick-release fastenings with the stunt coordinator.
+        </SafetyNote>
+      )}
       {list.characters.map((c) => (
         <Card key={c.characterId} className="p-3 sm:p-4">
           <h2 className="flex flex-wrap items-baseline justify-between gap-2 text-lg font-bold text-ink">
@@ -94,7 +115,8 @@ export function RackList({ list }: { list: RackListDto }) {
             <section key={ch.changeId ?? "none"} aria-label={`${c.name}, ${ch.number !== null ? `change ${ch.number}` : "no change"}`}>
               <h3 className="mt-2 text-sm font-semibold text-ink-900">
                 {ch.number !== null ? `Change ${ch.number}` : "No change set"}
-                {ch.description ? ` – ${ch.description}` : ""} <span className="font-normal text-slate">· scenes {ch.sceneNumbers.join(", ")}</span>
+                {ch.description ? ` – ${ch.description}` : ""}{" "}
+                <span className="font-normal text-slate">· scenes {ch.sceneNumbers.join(", ")}</span>
               </h3>
               <ul className="divide-y divide-chalk-200">
                 {ch.garments.map((g, i) => (

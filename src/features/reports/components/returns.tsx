@@ -48,7 +48,12 @@ function WrapChoice({ productionId, line, canEdit }: { productionId: string; lin
   );
 }
 
-const actionTone: Record<WrapAction, "neutral" | "warning" | "note" | "blocking"> = { return: "warning", keep: "neutral", sell: "note", undecided: "blocking" };
+const actionTone: Record<WrapAction, "neutral" | "warning" | "note" | "blocking"> = {
+  return: "warning",
+  keep: "neutral",
+  sell: "note",
+  undecided: "blocking",
+};
 
 /** Rentals by hire house (overdue first), lost items, garments out, and what happens to everything at wrap. */
 export function ReturnsReport({ productionId, data, canEditWrap }: { productionId: string; data: ReturnsDto; canEditWrap: boolean }) {
@@ -91,7 +96,11 @@ export function ReturnsReport({ productionId, data, canEditWrap }: { productionI
                     <td className={td}>{l.name}</td>
                     <td className={td}>
                       {l.dueOn ? formatDay(l.dueOn) : "not set"}
-                      {l.overdue && <span className="block text-xs font-semibold text-madder">{l.daysOverdue} day{l.daysOverdue === 1 ? "" : "s"} overdue</span>}
+                      {l.overdue && (
+                        <span className="block text-xs font-semibold text-madder">
+                          {l.daysOverdue} day{l.daysOverdue === 1 ? "" : "s"} overdue
+                        </span>
+                      )}
                     </td>
                     <td className={td}>
                       {garmentStatusLabels[l.status]}
@@ -122,7 +131,9 @@ export function ReturnsReport({ productionId, data, canEditWrap }: { productionI
                     <td className={`${td} font-mono font-semibold`}>{l.tagCode}</td>
                     <td className={td}>
                       {l.name}
-                      {l.source === "rented" && <span className="block text-xs text-madder">hired from {l.vendor ?? "a hire house"}: settle with them</span>}
+                      {l.source === "rented" && (
+                        <span className="block text-xs text-madder">hired from {l.vendor ?? "a hire house"}: settle with them</span>
+                      )}
                     </td>
                     <td className={td}>{l.lostOn ? formatDay(l.lostOn) : "—"}</td>
                     <td className={`${td} text-right tabular-nums`}>{money(l.costCents)}</td>
@@ -161,7 +172,13 @@ export function ReturnsReport({ productionId, data, canEditWrap }: { productionI
       <Section title="At wrap" count={data.wrap.length} csv={reportFileUrls.returnsCsv(productionId, "wrap")}>
         <div className="flex flex-wrap gap-2 px-3 pt-2 text-sm" role="group" aria-label="Show at wrap">
           {(Object.keys(data.wrapCounts) as WrapAction[]).map((a) => (
-            <button key={a} type="button" aria-pressed={wrapShown === a} onClick={() => setWrapShown(wrapShown === a ? null : a)} className="rounded focus:outline-2 focus:outline-ink aria-pressed:ring-2 aria-pressed:ring-ink">
+            <button
+              key={a}
+              type="button"
+              aria-pressed={wrapShown === a}
+              onClick={() => setWrapShown(wrapShown === a ? null : a)}
+              className="rounded focus:outline-2 focus:outline-ink aria-pressed:ring-2 aria-pressed:ring-ink"
+            >
               <Badge tone={actionTone[a]}>
                 {wrapActionLabels[a]}: {data.wrapCounts[a]}
               </Badge>

@@ -24,14 +24,19 @@ export const snagsQueryOptions = (pid: string, params: SnagListParams = {}) =>
   });
 
 /** The snags of a production (the server recomputes them on the first read after a change). */
-export const useSnags = (pid: string, params: SnagListParams = {}) => useQuery({ ...snagsQueryOptions(pid, params), enabled: Boolean(pid) });
+export const useSnags = (pid: string, params: SnagListParams = {}) =>
+  useQuery({ ...snagsQueryOptions(pid, params), enabled: Boolean(pid) });
 
 /** Query options for one multiples group's copy plan. */
 export const multiplesPlanQueryOptions = (pid: string, groupId: string) =>
-  queryOptions({ queryKey: ["snags", pid, "multiples", groupId], queryFn: () => api.get<MultiplesPlanDto>(`${base(pid)}/multiples/${groupId}`) });
+  queryOptions({
+    queryKey: ["snags", pid, "multiples", groupId],
+    queryFn: () => api.get<MultiplesPlanDto>(`${base(pid)}/multiples/${groupId}`),
+  });
 
 /** Which copy of a multiples group goes into which scene. */
-export const useMultiplesPlan = (pid: string, groupId: string) => useQuery({ ...multiplesPlanQueryOptions(pid, groupId), enabled: Boolean(pid && groupId) });
+export const useMultiplesPlan = (pid: string, groupId: string) =>
+  useQuery({ ...multiplesPlanQueryOptions(pid, groupId), enabled: Boolean(pid && groupId) });
 
 /** Dismiss a snag with a reason; every snag list of the production refreshes. */
 export function useDismissSnag(pid: string) {

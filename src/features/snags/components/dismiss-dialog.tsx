@@ -22,18 +22,23 @@ export function DismissDialog({ productionId, snag, onClose, onDismissed }: Dism
   const dismiss = useDismissSnag(productionId);
   const open = snag !== null;
 
+  // A new snag to dismiss starts with an empty form (adjusted while rendering, as React advises).
+  const [formFor, setFormFor] = useState(snag);
+  if (formFor !== snag) {
+    setFormFor(snag);
+    if (snag) {
+      setReason("");
+      setFieldError(undefined);
+    }
+  }
+  const { reset } = dismiss;
   useEffect(() => {
     const d = ref.current;
     if (!d) return;
     if (open && !d.open) d.showModal?.();
     if (!open && d.open) d.close();
-    if (open) {
-      setReason("");
-      setFieldError(undefined);
-      dismiss.reset();
-    }
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [open]);
+    if (open) reset();
+  }, [open, reset]);
 
   const submit = (e: FormEvent) => {
     e.preventDefault();
@@ -79,7 +84,9 @@ export function DismissDialog({ productionId, snag, onClose, onDismissed }: Dism
           error={fieldError}
           hint="Everyone sees why. The snag comes back by itself if the numbers behind it change."
         />
-        {dismiss.error && !(dismiss.error instanceof ApiError && dismiss.error.fields.reason) && <ErrorAlert error={dismiss.error} title="Not dismissed" />}
+        {dismiss.error && !(dismiss.error instanceof ApiError && dismiss.error.fields.reason) && (
+          <ErrorAlert error={dismiss.error} title="Not dismissed" />
+        )}
         <div className="flex flex-wrap justify-end gap-2">
           <Button variant="secondary" size="lg" onClick={onClose}>
             Cancel

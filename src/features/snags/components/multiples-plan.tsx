@@ -1,4 +1,11 @@
-import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type SortingState,
+} from "@tanstack/react-table";
 import { useMemo, useState } from "react";
 import { Link } from "react-router";
 import type { MultiplesPlanDto, MultiplesUseDto } from "@shared/schemas/snags";
@@ -9,7 +16,11 @@ import { formatDate } from "@shared/format";
 
 const col = createColumnHelper<MultiplesUseDto>();
 const columnsFor = (kind: ScheduleKind) => [
-  col.accessor((u) => u.date ?? "", { id: "date", header: scheduleLabels(kind).Day, cell: (c) => (c.getValue() ? formatDate(c.getValue()) : "—") }),
+  col.accessor((u) => u.date ?? "", {
+    id: "date",
+    header: scheduleLabels(kind).Day,
+    cell: (c) => (c.getValue() ? formatDate(c.getValue()) : "—"),
+  }),
   col.accessor("sceneNumber", { header: "Scene" }),
   col.accessor("characterName", { header: "Character" }),
   col.accessor("stage", {
@@ -17,7 +28,11 @@ const columnsFor = (kind: ScheduleKind) => [
     cell: (c) => (
       <span>
         {c.getValue()}
-        {c.row.original.inLongestFalling && <span className="ml-1 text-xs text-madder" title="Part of the longest falling run">▼</span>}
+        {c.row.original.inLongestFalling && (
+          <span className="ml-1 text-xs text-madder" title="Part of the longest falling run">
+            ▼
+          </span>
+        )}
       </span>
     ),
   }),
@@ -33,10 +48,25 @@ const columnsFor = (kind: ScheduleKind) => [
 ];
 
 /** A group's copy plan: a summary per copy, then every use in shoot order (sortable). */
-export function MultiplesPlan({ productionId, plan, kind = "film" }: { productionId: string; plan: MultiplesPlanDto; kind?: ScheduleKind }) {
+export function MultiplesPlan({
+  productionId,
+  plan,
+  kind = "film",
+}: {
+  productionId: string;
+  plan: MultiplesPlanDto;
+  kind?: ScheduleKind;
+}) {
   const [sorting, setSorting] = useState<SortingState>([]);
   const columns = useMemo(() => columnsFor(kind), [kind]);
-  const table = useReactTable({ data: plan.uses, columns, state: { sorting }, onSortingChange: setSorting, getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel() });
+  const table = useReactTable({
+    data: plan.uses,
+    columns,
+    state: { sorting },
+    onSortingChange: setSorting,
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+  });
   const short = plan.copiesNeeded > plan.copiesHeld;
   return (
     <div className="grid gap-4">
@@ -44,7 +74,10 @@ export function MultiplesPlan({ productionId, plan, kind = "film" }: { productio
         <Badge tone={short ? "blocking" : "neutral"}>
           {plan.copiesHeld} held · {plan.copiesNeeded} needed
         </Badge>{" "}
-        <span className="text-slate">Distress only goes up on one copy, so a copy follows rising stages in shoot order; ▼ marks the longest falling run, which sets the minimum.</span>
+        <span className="text-slate">
+          Distress only goes up on one copy, so a copy follows rising stages in shoot order; ▼ marks the longest falling run, which sets the
+          minimum.
+        </span>
       </p>
       <ul className="grid gap-2 sm:grid-cols-2 lg:grid-cols-3">
         {plan.copies.map((c) => (
@@ -63,7 +96,9 @@ export function MultiplesPlan({ productionId, plan, kind = "film" }: { productio
           </li>
         ))}
       </ul>
-      {plan.uses.some((u) => u.outForDay) && <SafetyNote>Wet and stunt costumes: agree drying, padding and quick-release fastenings with the stunt coordinator.</SafetyNote>}
+      {plan.uses.some((u) => u.outForDay) && (
+        <SafetyNote>Wet and stunt costumes: agree drying, padding and quick-release fastenings with the stunt coordinator.</SafetyNote>
+      )}
       <div className="overflow-x-auto">
         <table aria-label="Copy plan" className="w-full text-left text-sm">
           <thead>

@@ -12,11 +12,19 @@ const severityBorder = { blocking: "border-l-madder", warning: "border-l-ochre",
 /** Evidence members that are ids or hashes say nothing to a reader. */
 const hidden = (key: string) => /(^|[a-z])(id|ids|Id|Ids|hash)$/.test(key) || key === "copyId";
 const isUuid = (v: unknown) => typeof v === "string" && /^[0-9a-f]{8}-[0-9a-f]{4}-/.test(v);
-const words = (key: string) => key.replace(/([a-z])([A-Z])/g, "$1 $2").replace(/_/g, " ").toLowerCase();
+const words = (key: string) =>
+  key
+    .replace(/([a-z])([A-Z])/g, "$1 $2")
+    .replace(/_/g, " ")
+    .toLowerCase();
 
 function show(v: JsonValue): string {
   if (v === null) return "—";
-  if (Array.isArray(v)) return v.filter((x) => !isUuid(x)).map(show).join(", ");
+  if (Array.isArray(v))
+    return v
+      .filter((x) => !isUuid(x))
+      .map(show)
+      .join(", ");
   if (typeof v === "object") {
     return Object.entries(v)
       .filter(([k, x]) => !hidden(k) && !isUuid(x))
@@ -59,7 +67,11 @@ export function SnagCard({ snag, canDismiss, onDismiss, onUndo, undoBusy, compac
   return (
     <article
       aria-labelledby={titleId}
-      className={cn("rounded-md border border-chalk-200 border-l-4 bg-white p-3 shadow-sm", severityBorder[snag.severity], snag.dismissal && "opacity-70")}
+      className={cn(
+        "rounded-md border border-chalk-200 border-l-4 bg-white p-3 shadow-sm",
+        severityBorder[snag.severity],
+        snag.dismissal && "opacity-70",
+      )}
     >
       <div className="flex flex-wrap items-center gap-1.5">
         <Badge tone={snag.severity}>{snag.severity}</Badge>
@@ -102,7 +114,8 @@ export function SnagCard({ snag, canDismiss, onDismiss, onUndo, undoBusy, compac
       )}
       {snag.lapsedDismissal && !snag.dismissal && (
         <p className="mt-2 text-xs text-slate">
-          Dismissed earlier by {snag.lapsedDismissal.dismissedByName ?? "someone"} (“{snag.lapsedDismissal.reason}”); the numbers have changed since, so it shows again.
+          Dismissed earlier by {snag.lapsedDismissal.dismissedByName ?? "someone"} (“{snag.lapsedDismissal.reason}”); the numbers have
+          changed since, so it shows again.
         </p>
       )}
       {snag.dismissal && (
@@ -112,7 +125,11 @@ export function SnagCard({ snag, canDismiss, onDismiss, onUndo, undoBusy, compac
       )}
       <div className="mt-2 flex flex-wrap items-center gap-x-3 gap-y-1">
         {(compact ? snag.links.slice(0, 1) : snag.links).map((l, i) => (
-          <Link key={`${l.href}-${i}`} to={l.href} className={cn("text-sm underline-offset-2 hover:underline", i === 0 ? "font-semibold text-ink" : "text-slate")}>
+          <Link
+            key={`${l.href}-${i}`}
+            to={l.href}
+            className={cn("text-sm underline-offset-2 hover:underline", i === 0 ? "font-semibold text-ink" : "text-slate")}
+          >
             {i === 0 ? `Fix: ${l.label}` : l.label}
           </Link>
         ))}

@@ -26,7 +26,9 @@ export function SnagsForDay({
   return (
     <Card role="region" aria-label={given ? `Snags for ${formatDate(given.date)}` : "Snags for the next day"}>
       <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
-        <h2 className="font-semibold text-ink">Snags{day ? ` for ${scheduleLabels(day.kind === "performance" ? "stage" : "film").on(day.date)}` : ""}</h2>
+        <h2 className="font-semibold text-ink">
+          Snags{day ? ` for ${scheduleLabels(day.kind === "performance" ? "stage" : "film").on(day.date)}` : ""}
+        </h2>
         <Link to={`/p/${productionId}/snags`} className="text-sm font-semibold text-ink underline-offset-2 hover:underline">
           All snags
         </Link>

@@ -13,7 +13,12 @@ import { formatDate } from "@shared/format";
 
 export type SnagGrouping = "severity" | "shootDay" | "character" | "kind";
 
-const groupingLabels = (kind: ScheduleKind): Record<SnagGrouping, string> => ({ severity: "Severity", shootDay: scheduleLabels(kind).Day, character: "Character", kind: "Kind" });
+const groupingLabels = (kind: ScheduleKind): Record<SnagGrouping, string> => ({
+  severity: "Severity",
+  shootDay: scheduleLabels(kind).Day,
+  character: "Character",
+  kind: "Kind",
+});
 const severityRank = { blocking: 0, warning: 1, note: 2 } as const;
 const NONE = "\uffff"; // sorts after every real key
 
@@ -25,14 +30,22 @@ function groupsOf(s: SnagDto, by: SnagGrouping, kind: ScheduleKind): { key: stri
     case "kind":
       return [{ key: String(snagKinds.indexOf(s.kind)), label: snagKindLabels[s.kind] }];
     case "shootDay":
-      return s.shootDays.length ? s.shootDays.map((d) => ({ key: d.date, label: `${scheduleLabels(kind).Day} ${formatDate(d.date)}` })) : [{ key: NONE, label: "Not tied to one day" }];
+      return s.shootDays.length
+        ? s.shootDays.map((d) => ({ key: d.date, label: `${scheduleLabels(kind).Day} ${formatDate(d.date)}` }))
+        : [{ key: NONE, label: "Not tied to one day" }];
     case "character":
-      return s.characters.length ? s.characters.map((c) => ({ key: c.name.toLowerCase(), label: c.name })) : [{ key: NONE, label: "No character" }];
+      return s.characters.length
+        ? s.characters.map((c) => ({ key: c.name.toLowerCase(), label: c.name }))
+        : [{ key: NONE, label: "No character" }];
   }
 }
 
 /** Groups snags, headings in order, snags inside by severity then title. Pure, for the list and tests. */
-export function groupSnags(snags: SnagDto[], by: SnagGrouping, kind: ScheduleKind = "film"): { key: string; label: string; snags: SnagDto[] }[] {
+export function groupSnags(
+  snags: SnagDto[],
+  by: SnagGrouping,
+  kind: ScheduleKind = "film",
+): { key: string; label: string; snags: SnagDto[] }[] {
   const groups = new Map<string, { key: string; label: string; snags: SnagDto[] }>();
   for (const s of snags) {
     for (const g of groupsOf(s, by, kind)) {
@@ -93,7 +106,9 @@ export function SnagsList({ productionId, kind = "film", data, filters, onFilter
           </Badge>
         ))}
         <span className="text-xs text-slate">
-          {data.counts.dismissed} dismissed{data.counts.lapsed ? ` · ${data.counts.lapsed} dismissal${data.counts.lapsed > 1 ? "s" : ""} lapsed` : ""} · judged on {formatDate(data.today)}
+          {data.counts.dismissed} dismissed
+          {data.counts.lapsed ? ` · ${data.counts.lapsed} dismissal${data.counts.lapsed > 1 ? "s" : ""} lapsed` : ""} · judged on{" "}
+          {formatDate(data.today)}
         </span>
       </div>
       <div className="grid grid-cols-2 gap-3 sm:grid-cols-4 lg:grid-cols-5">
@@ -133,14 +148,21 @@ export function SnagsList({ productionId, kind = "film", data, filters, onFilter
           ))}
         </SelectField>
         <label className="flex min-h-12 items-center gap-2 self-end text-sm text-ink-900">
-          <input type="checkbox" className="size-5" checked={filters.includeDismissed} onChange={(e) => set({ includeDismissed: e.target.checked })} />
+          <input
+            type="checkbox"
+            className="size-5"
+            checked={filters.includeDismissed}
+            onChange={(e) => set({ includeDismissed: e.target.checked })}
+          />
           Show dismissed
         </label>
       </div>
       {undo.error && <ErrorAlert error={undo.error} title="Not undone" />}
       {groups.length === 0 ? (
         <EmptyState title="No snags">
-          {data.counts.dismissed ? "Every snag that matches is dismissed." : "Nothing in the breakdown, wardrobe or schedule conflicts with anything else right now."}
+          {data.counts.dismissed
+            ? "Every snag that matches is dismissed."
+            : "Nothing in the breakdown, wardrobe or schedule conflicts with anything else right now."}
         </EmptyState>
       ) : (
         groups.map((g) => (
@@ -153,7 +175,11 @@ export function SnagsList({ productionId, kind = "film", data, filters, onFilter
               if (gone && !s.dismissal) {
                 // Where the card was: say what happened and offer to take it back.
                 return (
-                  <div key={s.key} role="status" className="flex flex-wrap items-center gap-2 rounded-md border border-dashed border-ink-100 bg-white/70 px-3 py-2 text-sm text-ink-900">
+                  <div
+                    key={s.key}
+                    role="status"
+                    className="flex flex-wrap items-center gap-2 rounded-md border border-dashed border-ink-100 bg-white/70 px-3 py-2 text-sm text-ink-900"
+                  >
                     <span className="min-w-0 flex-1">
                       Dismissed: <span className="font-semibold">{s.title}</span>
                     </span>

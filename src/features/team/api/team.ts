@@ -5,7 +5,8 @@ import type { Role } from "@shared/permissions";
 
 const base = (pid: string) => `/productions/${pid}`;
 
-export const membersQueryOptions = (pid: string) => queryOptions({ queryKey: ["members", pid], queryFn: () => api.get<MemberDto[]>(`${base(pid)}/members`) });
+export const membersQueryOptions = (pid: string) =>
+  queryOptions({ queryKey: ["members", pid], queryFn: () => api.get<MemberDto[]>(`${base(pid)}/members`) });
 export const useMembers = (pid: string) => useQuery(membersQueryOptions(pid));
 
 export const invitationsQueryOptions = (pid: string) =>
@@ -21,8 +22,8 @@ export function useInviteMember(pid: string) {
   return useMutation({
     mutationFn: (input: InviteMemberInput) => api.post<InvitationDto>(`${base(pid)}/invitations`, input),
     onSuccess: () => {
-      qc.invalidateQueries({ queryKey: ["invitations", pid] });
-      qc.invalidateQueries({ queryKey: ["outbox", pid] });
+      void qc.invalidateQueries({ queryKey: ["invitations", pid] });
+      void qc.invalidateQueries({ queryKey: ["outbox", pid] });
     },
   });
 }
@@ -52,5 +53,8 @@ export function useRemoveMember(pid: string) {
 }
 
 export const auditQueryOptions = (pid: string) =>
-  queryOptions({ queryKey: ["audit", pid], queryFn: () => api.get<import("@shared/schemas/productions").AuditEventDto[]>(`${base(pid)}/audit?pageSize=30`) });
+  queryOptions({
+    queryKey: ["audit", pid],
+    queryFn: () => api.get<import("@shared/schemas/productions").AuditEventDto[]>(`${base(pid)}/audit?pageSize=30`),
+  });
 export const useAuditEvents = (pid: string) => useQuery(auditQueryOptions(pid));

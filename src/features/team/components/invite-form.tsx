@@ -12,12 +12,16 @@ import { useInviteMember } from "../api/team";
 /** Invite by e-mail with a role; schema checked here and again on the server. */
 export function InviteForm({ productionId }: { productionId: string }) {
   const invite = useInviteMember(productionId);
-  const form = useForm<InviteMemberInput>({ resolver: formResolver(zodResolver(inviteMemberInputSchema)), defaultValues: { email: "", role: "set_costumer" } });
+  const form = useForm<InviteMemberInput>({
+    resolver: formResolver(zodResolver(inviteMemberInputSchema)),
+    defaultValues: { email: "", role: "set_costumer" },
+  });
   const onSubmit = form.handleSubmit((values) =>
     invite.mutate(values, {
       onSuccess: () => form.reset({ email: "", role: values.role }),
       onError: (err) => {
-        if (err instanceof ApiError) for (const [k, m] of Object.entries(err.fields)) form.setError(k as keyof InviteMemberInput, { message: m });
+        if (err instanceof ApiError)
+          for (const [k, m] of Object.entries(err.fields)) form.setError(k as keyof InviteMemberInput, { message: m });
       },
     }),
   );

@@ -1,5 +1,12 @@
 import { useState } from "react";
-import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type SortingState,
+} from "@tanstack/react-table";
 import type { MemberDto } from "@shared/schemas/members";
 import { roles, roleLabels, type Role } from "@shared/permissions";
 import { ConfirmDialog } from "@/components/ui/dialog";
@@ -16,7 +23,15 @@ const PHONE_HIDDEN = new Set(["email", "joinedAt"]);
 const cellClass = (id: string) => (PHONE_HIDDEN.has(id) ? "hidden sm:table-cell" : "");
 
 /** Members with their roles; the supervisor changes a role inline or removes a member after confirming. */
-export function MembersTable({ productionId, members, currentUserId }: { productionId: string; members: MemberDto[]; currentUserId: string }) {
+export function MembersTable({
+  productionId,
+  members,
+  currentUserId,
+}: {
+  productionId: string;
+  members: MemberDto[];
+  currentUserId: string;
+}) {
   const [sorting, setSorting] = useState<SortingState>([{ id: "name", desc: false }]);
   const [removing, setRemoving] = useState<MemberDto | null>(null);
   const updateRole = useUpdateMemberRole(productionId);
@@ -67,7 +82,14 @@ export function MembersTable({ productionId, members, currentUserId }: { product
     }),
   ];
 
-  const table = useReactTable({ data: members, columns, state: { sorting }, onSortingChange: setSorting, getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel() });
+  const table = useReactTable({
+    data: members,
+    columns,
+    state: { sorting },
+    onSortingChange: setSorting,
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+  });
 
   return (
     <div>

@@ -55,16 +55,23 @@ export const useGarment = (pid: string, id: string) => useQuery(garmentQueryOpti
 export const useGarmentFilterOptions = (pid: string) =>
   useQuery({
     queryKey: ["garments", pid, "filter-options"],
-    queryFn: () => api.get<{ categories: string[]; racks: string[]; characters: Array<{ id: string; name: string }> }>(`${base(pid)}/filter-options`),
+    queryFn: () =>
+      api.get<{ categories: string[]; racks: string[]; characters: Array<{ id: string; name: string }> }>(`${base(pid)}/filter-options`),
     staleTime: 60_000,
   });
 
 /** Members, performers and the days from today on, for the check-out fields. */
 export const useCheckoutOptions = (pid: string, enabled = true) =>
-  useQuery({ queryKey: ["garments", pid, "checkout-options"], queryFn: () => api.get<CheckoutOptionsDto>(`${base(pid)}/checkout-options`), staleTime: 60_000, enabled });
+  useQuery({
+    queryKey: ["garments", pid, "checkout-options"],
+    queryFn: () => api.get<CheckoutOptionsDto>(`${base(pid)}/checkout-options`),
+    staleTime: 60_000,
+    enabled,
+  });
 
 /** Who has what now (open check-outs, soonest due first). */
-export const useOpenCheckouts = (pid: string) => useQuery({ queryKey: ["garments", pid, "checkouts"], queryFn: () => api.get<OpenCheckoutDto[]>(`${base(pid)}/checkouts`) });
+export const useOpenCheckouts = (pid: string) =>
+  useQuery({ queryKey: ["garments", pid, "checkouts"], queryFn: () => api.get<OpenCheckoutDto[]>(`${base(pid)}/checkouts`) });
 
 /** Fabric names for the garment form's select (only roles that may read fabrics ask). */
 export const useFabricOptions = (pid: string, enabled: boolean) =>
@@ -99,7 +106,8 @@ export function useMoveGarments(pid: string) {
   return useMutation({
     mutationFn: (input: MoveGarmentsInput) => api.post<GarmentMoveResultDto[]>(`${base(pid)}/moves`, input),
     // A move can close or open a check-out, which the snags judge.
-    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: ["garments", pid] }), qc.invalidateQueries({ queryKey: ["snags", pid] })]),
+    onSuccess: () =>
+      Promise.all([qc.invalidateQueries({ queryKey: ["garments", pid] }), qc.invalidateQueries({ queryKey: ["snags", pid] })]),
   });
 }
 
@@ -107,17 +115,31 @@ export function useMoveGarments(pid: string) {
 export function useScanGarment(pid: string) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (input: { tagCode: string; status: GarmentStatus; locationRack?: string | null; locationBin?: string | null; note?: string | null; checkout?: CheckoutInput | null }) =>
-      api.post<GarmentMoveResultDto>(`${base(pid)}/scan`, input),
-    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: ["garments", pid] }), qc.invalidateQueries({ queryKey: ["snags", pid] })]),
+    mutationFn: (input: {
+      tagCode: string;
+      status: GarmentStatus;
+      locationRack?: string | null;
+      locationBin?: string | null;
+      note?: string | null;
+      checkout?: CheckoutInput | null;
+    }) => api.post<GarmentMoveResultDto>(`${base(pid)}/scan`, input),
+    onSuccess: () =>
+      Promise.all([qc.invalidateQueries({ queryKey: ["garments", pid] }), qc.invalidateQueries({ queryKey: ["snags", pid] })]),
   });
 }
 
-const garmentParamsForFiles = (p: Partial<GarmentListParams> & { ids?: string }) => ({ ...p, page: undefined, pageSize: undefined, sort: undefined, dir: undefined });
+const garmentParamsForFiles = (p: Partial<GarmentListParams> & { ids?: string }) => ({
+  ...p,
+  page: undefined,
+  pageSize: undefined,
+  sort: undefined,
+  dir: undefined,
+});
 
 /** URLs of the file endpoints (opened in a new tab / downloaded by the browser). */
 export const garmentFileUrls = {
-  csv: (pid: string, p: Partial<GarmentListParams> & { ids?: string }) => `/api${base(pid)}/export.csv${garmentQueryString({ ...p, page: undefined, pageSize: undefined, sort: undefined, dir: undefined })}`,
+  csv: (pid: string, p: Partial<GarmentListParams> & { ids?: string }) =>
+    `/api${base(pid)}/export.csv${garmentQueryString({ ...p, page: undefined, pageSize: undefined, sort: undefined, dir: undefined })}`,
   /** @param start first free position on a partly used sheet (1 = top left) */
   labels: (pid: string, p: Partial<GarmentListParams> & { ids?: string }, start = 1) =>
     `/api${base(pid)}/labels.pdf${qs({ ...garmentParamsForFiles(p), start: start > 1 ? start : undefined })}`,

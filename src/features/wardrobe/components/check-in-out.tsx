@@ -1,6 +1,12 @@
 import { useEffect, useRef, useState, type FormEvent } from "react";
 import { Link } from "react-router";
-import { checkedOutStatuses, garmentStatuses, garmentStatusLabels, type GarmentMoveResultDto, type GarmentStatus } from "@shared/schemas/garments";
+import {
+  checkedOutStatuses,
+  garmentStatuses,
+  garmentStatusLabels,
+  type GarmentMoveResultDto,
+  type GarmentStatus,
+} from "@shared/schemas/garments";
 import type { ScheduleKind } from "@shared/domain/schedule-labels";
 import { parseTagCode } from "@shared/domain/tag-codes";
 import { Button } from "@/components/ui/button";
@@ -30,12 +36,14 @@ function CameraScanner({ onCode, onClose }: { onCode: (code: string) => void; on
   const [error, setError] = useState<string | null>(null);
   // The latest handler, so the camera is not restarted on every render.
   const handler = useRef(onCode);
-  handler.current = onCode;
+  useEffect(() => {
+    handler.current = onCode;
+  });
   useEffect(() => {
     let stop: (() => void) | undefined;
     let cancelled = false;
     let last = "";
-    (async () => {
+    void (async () => {
       try {
         const { BrowserQRCodeReader } = await import("@zxing/browser");
         const reader = new BrowserQRCodeReader();
@@ -77,7 +85,17 @@ const outStatus = (s: GarmentStatus) => (checkedOutStatuses as readonly GarmentS
  * A QR code on the rack list opens this with the tag and status filled in (`?tag=…&to=on_set`); the
  * move still waits for one tap, so opening a link never moves a garment by itself.
  */
-export function CheckInOut({ productionId, kind, initialTag, initialStatus }: { productionId: string; kind: ScheduleKind; initialTag?: string; initialStatus?: GarmentStatus }) {
+export function CheckInOut({
+  productionId,
+  kind,
+  initialTag,
+  initialStatus,
+}: {
+  productionId: string;
+  kind: ScheduleKind;
+  initialTag?: string;
+  initialStatus?: GarmentStatus;
+}) {
   const scan = useScanGarment(productionId);
   const me = useMe();
   const options = useCheckoutOptions(productionId);
@@ -98,24 +116,70 @@ export function CheckInOut({ productionId, kind, initialTag, initialStatus }: { 
     }
     const to = outStatus(status) ? checkoutFromDraft(checkout) : null;
     scan.mutate(
-      { tagCode: parsed.code, status, ...(rack.trim() ? { locationRack: rack.trim() } : {}), ...(bin.trim() ? { locationBin: bin.trim() } : {}), ...(to ? { checkout: to } : {}) },
+      {
+        tagCode: parsed.code,
+        status,
+        ...(rack.trim() ? { locationRack: rack.trim() } : {}),
+        ...(bin.trim() ? { locationBin: bin.trim() } : {}),
+        ...(to ? { checkout: to } : {}),
+      },
       {
         onSuccess: (r) =>
-          setLog((l) => [{ at: Date.now(), code: parsed.code, ok: true, text: r.event ? `${r.garment.name} → ${garmentStatusLabels[r.garment.status]}` : `${r.garment.name} was already there`, result: r }, ...l].slice(0, 30)),
+          setLog((l) =>
+            [
+              {
+                at: Date.now(),
+                code: parsed.code,
+                ok: true,
+                text: r.event ? `${r.garment.name} → ${garmentStatusLabels[r.garment.status]}` : `${r.garment.name} was already there`,
+                result: r,
+              },
+              ...l,
+            ].slice(0, 30),
+          ),
         onError: (e) => {
           const userId = me.data?.id;
           // No signal: the move waits on this phone and is sent with the continuity queue.
           if (e instanceof ApiError && e.status === 0 && userId) {
-            const payload = { tagCode: parsed.code, status, ...(rack.trim() ? { locationRack: rack.trim() } : {}), ...(bin.trim() ? { locationBin: bin.trim() } : {}), ...(to ? { checkout: to } : {}) };
-            void enqueue({ clientId: newClientId(), userId, productionId, kind: "garment-scan", summary: `${parsed.code} → ${garmentStatusLabels[status]}`, queuedAt: new Date().toISOString(), payload, photos: [] })
+            const payload = {
+              tagCode: parsed.code,
+              status,
+              ...(rack.trim() ? { locationRack: rack.trim() } : {}),
+              ...(bin.trim() ? { locationBin: bin.trim() } : {}),
+              ...(to ? { checkout: to } : {}),
+            };
+            void enqueue({
+              clientId: newClientId(),
+              userId,
+              productionId,
+              kind: "garment-scan",
+              summary: `${parsed.code} → ${garmentStatusLabels[status]}`,
+              queuedAt: new Date().toISOString(),
+              payload,
+              photos: [],
+            })
               .then(() => {
-                setLog((l) => [{ at: Date.now(), code: parsed.code, ok: true, text: `No signal: kept on this phone, moves to ${garmentStatusLabels[status]} when sent` }, ...l].slice(0, 30));
+                setLog((l) =>
+                  [
+                    {
+                      at: Date.now(),
+                      code: parsed.code,
+                      ok: true,
+                      text: `No signal: kept on this phone, moves to ${garmentStatusLabels[status]} when sent`,
+                    },
+                    ...l,
+                  ].slice(0, 30),
+                );
                 queueRunner.kick();
               })
-              .catch((err: unknown) => setLog((l) => [{ at: Date.now(), code: parsed.code, ok: false, text: `Not kept: ${String(err)}` }, ...l].slice(0, 30)));
+              .catch((err: unknown) =>
+                setLog((l) => [{ at: Date.now(), code: parsed.code, ok: false, text: `Not kept: ${String(err)}` }, ...l].slice(0, 30)),
+              );
             return;
           }
-          setLog((l) => [{ at: Date.now(), code: parsed.code, ok: false, text: e instanceof ApiError ? e.message : String(e) }, ...l].slice(0, 30));
+          setLog((l) =>
+            [{ at: Date.now(), code: parsed.code, ok: false, text: e instanceof ApiError ? e.message : String(e) }, ...l].slice(0, 30),
+          );
         },
       },
     );
@@ -140,7 +204,10 @@ export function CheckInOut({ productionId, kind, initialTag, initialStatus }: { 
                 type="button"
                 aria-pressed={status === s}
                 onClick={() => setStatus(s)}
-                className={cn("min-h-12 rounded-md border px-3 py-2 text-base font-semibold", status === s ? "border-ink bg-ink text-chalk" : "border-ink-100 bg-white text-ink")}
+                className={cn(
+                  "min-h-12 rounded-md border px-3 py-2 text-base font-semibold",
+                  status === s ? "border-ink bg-ink text-chalk" : "border-ink-100 bg-white text-ink",
+                )}
               >
                 {garmentStatusLabels[s]}
               </button>
@@ -149,13 +216,20 @@ export function CheckInOut({ productionId, kind, initialTag, initialStatus }: { 
         </fieldset>
         {outStatus(status) && <CheckoutFields options={options.data} kind={kind} value={checkout} onChange={setCheckout} />}
         <div className="grid grid-cols-2 gap-2">
-          <InputField label="Rack" value={rack} onChange={(e) => setRack(e.target.value)} placeholder="unchanged" hint="Leave empty to keep each garment's rack" />
+          <InputField
+            label="Rack"
+            value={rack}
+            onChange={(e) => setRack(e.target.value)}
+            placeholder="unchanged"
+            hint="Leave empty to keep each garment's rack"
+          />
           <InputField label="Bin" value={bin} onChange={(e) => setBin(e.target.value)} placeholder="unchanged" />
         </div>
         <form onSubmit={onSubmit} className="grid gap-2" aria-label="Scan a tag">
           {initialTag && code === initialTag && (
             <p className="rounded-md bg-ink-50 px-3 py-2 text-sm text-ink-900" role="note">
-              From the rack list: press the button to move <span className="font-mono font-semibold">{initialTag}</span> to {garmentStatusLabels[status]}.
+              From the rack list: press the button to move <span className="font-mono font-semibold">{initialTag}</span> to{" "}
+              {garmentStatusLabels[status]}.
             </p>
           )}
           <InputField
@@ -189,7 +263,13 @@ export function CheckInOut({ productionId, kind, initialTag, initialStatus }: { 
         ) : (
           <ul className="grid gap-2" aria-label="Scanned garments" aria-live="polite">
             {log.map((l) => (
-              <li key={l.at + l.code} className={cn("rounded-md border px-3 py-2 text-sm", l.ok ? "border-chalk-200" : "border-madder/40 bg-madder-50 text-madder")}>
+              <li
+                key={l.at + l.code}
+                className={cn(
+                  "rounded-md border px-3 py-2 text-sm",
+                  l.ok ? "border-chalk-200" : "border-madder/40 bg-madder-50 text-madder",
+                )}
+              >
                 <span className="font-mono font-semibold">{l.code}</span> — {l.text}
                 {l.result && (
                   <span className="ml-2 inline-flex flex-wrap items-center gap-2">

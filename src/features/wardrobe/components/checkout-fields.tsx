@@ -76,7 +76,12 @@ export function CheckoutFields({ options, kind, value, onChange, errors = {} }: 
       </SelectField>
       {value.to && (
         <div className="grid gap-2 sm:grid-cols-2">
-          <SelectField label={words.Day} value={value.shootDayId} onChange={(e) => set({ shootDayId: e.target.value, sceneId: "" })} error={errors["checkout.shootDayId"]}>
+          <SelectField
+            label={words.Day}
+            value={value.shootDayId}
+            onChange={(e) => set({ shootDayId: e.target.value, sceneId: "" })}
+            error={errors["checkout.shootDayId"]}
+          >
             <option value="">None</option>
             {options?.days.map((d) => (
               <option key={d.id} value={d.id}>
@@ -85,7 +90,13 @@ export function CheckoutFields({ options, kind, value, onChange, errors = {} }: 
               </option>
             ))}
           </SelectField>
-          <SelectField label="Scene" value={value.sceneId} onChange={(e) => set({ sceneId: e.target.value })} error={errors["checkout.sceneId"]} disabled={!day}>
+          <SelectField
+            label="Scene"
+            value={value.sceneId}
+            onChange={(e) => set({ sceneId: e.target.value })}
+            error={errors["checkout.sceneId"]}
+            disabled={!day}
+          >
             <option value="">{day ? "Any / not one scene" : `Choose a ${words.day} first`}</option>
             {day?.scenes.map((s) => (
               <option key={s.id} value={s.id}>

@@ -53,7 +53,9 @@ function TagLabelLink({ productionId, garmentId }: { productionId: string; garme
         </a>
         <LabelPositionSelect value={start} onChange={setStart} />
       </div>
-      <p className="text-xs text-slate">A4 sheet of 3 × 8 labels; on a partly used sheet, choose the first free one (1 is top left, counting along each row).</p>
+      <p className="text-xs text-slate">
+        A4 sheet of 3 × 8 labels; on a partly used sheet, choose the first free one (1 is top left, counting along each row).
+      </p>
     </div>
   );
 }
@@ -165,7 +167,11 @@ export function GarmentDetail({ productionId, garment: g, unit, kind, canUpdate,
           </div>
         </div>
         {g.checkout && (
-          <p className={`mt-3 rounded-md border px-3 py-2 text-sm ${g.checkout.pastDue ? "border-madder/40 bg-madder-50" : "border-ink-100 bg-ink-50"}`} role="group" aria-label="Who has it">
+          <p
+            className={`mt-3 rounded-md border px-3 py-2 text-sm ${g.checkout.pastDue ? "border-madder/40 bg-madder-50" : "border-ink-100 bg-ink-50"}`}
+            role="group"
+            aria-label="Who has it"
+          >
             <CheckoutSummary checkout={g.checkout} kind={kind} />
           </p>
         )}
@@ -224,7 +230,14 @@ export function GarmentDetail({ productionId, garment: g, unit, kind, canUpdate,
                 const fd = new FormData(form);
                 const to = outStatus(status) ? checkoutFromDraft(checkout) : null;
                 move.mutate(
-                  { garmentIds: [g.id], status, locationRack: String(fd.get("rack") ?? ""), locationBin: String(fd.get("bin") ?? ""), note: String(fd.get("note") ?? "") || null, checkout: to },
+                  {
+                    garmentIds: [g.id],
+                    status,
+                    locationRack: String(fd.get("rack") ?? ""),
+                    locationBin: String(fd.get("bin") ?? ""),
+                    note: String(fd.get("note") ?? "") || null,
+                    checkout: to,
+                  },
                   {
                     onSuccess: () => {
                       setCheckout(emptyCheckout);
@@ -234,14 +247,21 @@ export function GarmentDetail({ productionId, garment: g, unit, kind, canUpdate,
                 );
               }}
             >
-              <SelectField label="Status" value={status} onChange={(e) => setStatus(e.target.value as GarmentStatus)} error={moveErrors.status}>
+              <SelectField
+                label="Status"
+                value={status}
+                onChange={(e) => setStatus(e.target.value as GarmentStatus)}
+                error={moveErrors.status}
+              >
                 {garmentStatuses.map((s) => (
                   <option key={s} value={s}>
                     {garmentStatusLabels[s]}
                   </option>
                 ))}
               </SelectField>
-              {outStatus(status) && <CheckoutFields options={checkoutOptions.data} kind={kind} value={checkout} onChange={setCheckout} errors={moveErrors} />}
+              {outStatus(status) && (
+                <CheckoutFields options={checkoutOptions.data} kind={kind} value={checkout} onChange={setCheckout} errors={moveErrors} />
+              )}
               <div className="grid grid-cols-2 gap-2">
                 <InputField label="Rack" name="rack" defaultValue={g.locationRack ?? ""} />
                 <InputField label="Bin" name="bin" defaultValue={g.locationBin ?? ""} />
@@ -313,7 +333,11 @@ export function GarmentDetail({ productionId, garment: g, unit, kind, canUpdate,
                       {c.to.name}
                       <span className="text-xs text-slate"> ({c.to.kind})</span>
                     </td>
-                    <td className="px-2 py-1">{[c.shootDay ? words.on(c.shootDay.date) : null, c.scene ? `scene ${c.scene.number}` : null].filter(Boolean).join(", ") || "—"}</td>
+                    <td className="px-2 py-1">
+                      {[c.shootDay ? words.on(c.shootDay.date) : null, c.scene ? `scene ${c.scene.number}` : null]
+                        .filter(Boolean)
+                        .join(", ") || "—"}
+                    </td>
                     <td className="px-2 py-1 whitespace-nowrap">
                       {dateTime(c.checkedOutAt)}
                       {c.checkedOutByName ? ` by ${c.checkedOutByName}` : ""}
@@ -352,7 +376,9 @@ export function GarmentDetail({ productionId, garment: g, unit, kind, canUpdate,
                   <tr key={e.id} className="border-t border-chalk-200">
                     <td className="px-2 py-1 whitespace-nowrap">{dateTime(e.at)}</td>
                     <td className="px-2 py-1">{e.actorName ?? "—"}</td>
-                    <td className="px-2 py-1">{e.fromStatus ? `${garmentStatusLabels[e.fromStatus]}${e.fromLocation ? ` · ${e.fromLocation}` : ""}` : "—"}</td>
+                    <td className="px-2 py-1">
+                      {e.fromStatus ? `${garmentStatusLabels[e.fromStatus]}${e.fromLocation ? ` · ${e.fromLocation}` : ""}` : "—"}
+                    </td>
                     <td className="px-2 py-1">
                       {garmentStatusLabels[e.toStatus]}
                       {e.toLocation ? ` · ${e.toLocation}` : ""}

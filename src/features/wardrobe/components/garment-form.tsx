@@ -30,7 +30,19 @@ interface Props {
   onSubmit: (values: GarmentFormValues) => void;
 }
 
-const MAIN_POINTS: FinishedPoint[] = ["chest", "bust", "waist", "hip", "back_length", "sleeve", "inside_leg", "neck", "shoulder", "head", "foot_length"];
+const MAIN_POINTS: FinishedPoint[] = [
+  "chest",
+  "bust",
+  "waist",
+  "hip",
+  "back_length",
+  "sleeve",
+  "inside_leg",
+  "neck",
+  "shoulder",
+  "head",
+  "foot_length",
+];
 
 /** Create / edit a garment; lengths typed in the production's unit (fractions allowed in inches), sent in mm. */
 export function GarmentForm({ unit, fabrics, initial, allowCopies, busy, error, submitLabel, onSubmit }: Props) {
@@ -110,8 +122,23 @@ export function GarmentForm({ unit, fabrics, initial, allowCopies, busy, error, 
           ))}
         </SelectField>
         <InputField label="Vendor / maker" name="vendor" defaultValue={initial?.vendor ?? ""} />
-        <InputField label="Cost" name="cost" type="number" step="0.01" min={0} defaultValue={initial?.costCents != null ? (initial.costCents / 100).toFixed(2) : ""} error={fields.costCents} hint="Built: making cost; bought: price; rented: any flat hire fee" />
-        <InputField label="Rental due back" name="rentalDueOn" type="date" defaultValue={initial?.rentalDueOn ?? ""} error={fields.rentalDueOn} />
+        <InputField
+          label="Cost"
+          name="cost"
+          type="number"
+          step="0.01"
+          min={0}
+          defaultValue={initial?.costCents != null ? (initial.costCents / 100).toFixed(2) : ""}
+          error={fields.costCents}
+          hint="Built: making cost; bought: price; rented: any flat hire fee"
+        />
+        <InputField
+          label="Rental due back"
+          name="rentalDueOn"
+          type="date"
+          defaultValue={initial?.rentalDueOn ?? ""}
+          error={fields.rentalDueOn}
+        />
         <InputField
           label="Hire rate per week"
           name="rentalCostPerWeek"
@@ -122,7 +149,13 @@ export function GarmentForm({ unit, fabrics, initial, allowCopies, busy, error, 
           error={fields.rentalCostPerWeekCents}
           hint="Rented garments; the budget counts it for every week hired"
         />
-        <SelectField label="At wrap" name="wrapDisposition" defaultValue={initial?.wrapDisposition ?? ""} error={fields.wrapDisposition} hint="Owned garments; rented ones go back">
+        <SelectField
+          label="At wrap"
+          name="wrapDisposition"
+          defaultValue={initial?.wrapDisposition ?? ""}
+          error={fields.wrapDisposition}
+          hint="Owned garments; rented ones go back"
+        >
           <option value="">Not decided</option>
           {wrapDispositions.map((w) => (
             <option key={w} value={w}>
@@ -139,17 +172,38 @@ export function GarmentForm({ unit, fabrics, initial, allowCopies, busy, error, 
           ))}
         </SelectField>
         <InputField label="Colour" name="colour" defaultValue={initial?.colour ?? ""} />
-        <InputField label="Distress stage" name="distressStage" type="number" min={0} max={10} defaultValue={initial?.distressStage ?? 0} error={fields.distressStage} />
+        <InputField
+          label="Distress stage"
+          name="distressStage"
+          type="number"
+          min={0}
+          max={10}
+          defaultValue={initial?.distressStage ?? 0}
+          error={fields.distressStage}
+        />
         {!initial && (
           <>
             <InputField label="Rack" name="locationRack" />
             <InputField label="Bin" name="locationBin" />
           </>
         )}
-        {allowCopies && <InputField label="Copies (multiples)" name="copies" type="number" min={1} max={20} defaultValue={1} hint="More than 1 makes a multiples group #1..#n" error={fields.copies} />}
+        {allowCopies && (
+          <InputField
+            label="Copies (multiples)"
+            name="copies"
+            type="number"
+            min={1}
+            max={20}
+            defaultValue={1}
+            hint="More than 1 makes a multiples group #1..#n"
+            error={fields.copies}
+          />
+        )}
       </div>
       <fieldset className="grid gap-3 sm:grid-cols-3 lg:grid-cols-6">
-        <legend className="mb-1 text-sm font-semibold text-ink">Finished measurements ({unit === "cm" ? "cm" : "inches; 37 1/2 works"})</legend>
+        <legend className="mb-1 text-sm font-semibold text-ink">
+          Finished measurements ({unit === "cm" ? "cm" : "inches; 37 1/2 works"})
+        </legend>
         {shownPoints.map((p) => (
           <InputField
             key={p}
@@ -158,7 +212,11 @@ export function GarmentForm({ unit, fabrics, initial, allowCopies, busy, error, 
             inputMode="decimal"
             defaultValue={fm(p)}
             error={lengthErrors[p] ?? fields[`finishedMeasurements.${p}`]}
-            hint={initial?.finishedMeasurements[p] !== undefined ? formatLength(initial.finishedMeasurements[p]!, unit === "cm" ? "in" : "cm") : undefined}
+            hint={
+              initial?.finishedMeasurements[p] !== undefined
+                ? formatLength(initial.finishedMeasurements[p]!, unit === "cm" ? "in" : "cm")
+                : undefined
+            }
           />
         ))}
       </fieldset>

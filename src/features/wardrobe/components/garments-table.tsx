@@ -29,9 +29,23 @@ function buildColumns(unit: LengthUnit) {
     col.display({
       id: "select",
       header: ({ table }) => (
-        <input type="checkbox" aria-label="Select all on this page" className="size-4" checked={table.getIsAllPageRowsSelected()} onChange={table.getToggleAllPageRowsSelectedHandler()} />
+        <input
+          type="checkbox"
+          aria-label="Select all on this page"
+          className="size-4"
+          checked={table.getIsAllPageRowsSelected()}
+          onChange={table.getToggleAllPageRowsSelectedHandler()}
+        />
       ),
-      cell: ({ row }) => <input type="checkbox" aria-label={`Select ${row.original.tagCode}`} className="size-4" checked={row.getIsSelected()} onChange={row.getToggleSelectedHandler()} />,
+      cell: ({ row }) => (
+        <input
+          type="checkbox"
+          aria-label={`Select ${row.original.tagCode}`}
+          className="size-4"
+          checked={row.getIsSelected()}
+          onChange={row.getToggleSelectedHandler()}
+        />
+      ),
       enableHiding: false,
     }),
     col.accessor("tagCode", {
@@ -64,14 +78,33 @@ function buildColumns(unit: LengthUnit) {
     }),
     col.accessor("category", { header: "Category" }),
     col.accessor("sizeLabel", { header: "Size", cell: (c) => c.getValue() ?? "—" }),
-    col.accessor("locationRack", { header: "Rack", cell: (c) => [c.getValue(), c.row.original.locationBin].filter(Boolean).join(" / ") || "—" }),
+    col.accessor("locationRack", {
+      header: "Rack",
+      cell: (c) => [c.getValue(), c.row.original.locationBin].filter(Boolean).join(" / ") || "—",
+    }),
     col.accessor("source", { header: "Source" }),
-    col.accessor("rentalDueOn", { header: "Rental due", cell: (c) => { const v = c.getValue(); return v ? formatDate(v) : "—"; } }),
+    col.accessor("rentalDueOn", {
+      header: "Rental due",
+      cell: (c) => {
+        const v = c.getValue();
+        return v ? formatDate(v) : "—";
+      },
+    }),
     col.accessor("fabricName", { header: "Fabric", cell: (c) => c.getValue() ?? "—", enableSorting: false }),
     col.accessor("colour", { header: "Colour", cell: (c) => c.getValue() ?? "—", enableSorting: false }),
     col.accessor("multiplesGroupName", { header: "Multiples", cell: (c) => c.getValue() ?? "—", enableSorting: false }),
-    col.accessor((g) => g.finishedMeasurements.chest ?? g.finishedMeasurements.bust, { id: "chest", header: "Chest / bust", cell: (c) => len(c.getValue()), enableSorting: false }),
-    col.accessor((g) => g.finishedMeasurements.waist, { id: "waist", header: "Waist", cell: (c) => len(c.getValue()), enableSorting: false }),
+    col.accessor((g) => g.finishedMeasurements.chest ?? g.finishedMeasurements.bust, {
+      id: "chest",
+      header: "Chest / bust",
+      cell: (c) => len(c.getValue()),
+      enableSorting: false,
+    }),
+    col.accessor((g) => g.finishedMeasurements.waist, {
+      id: "waist",
+      header: "Waist",
+      cell: (c) => len(c.getValue()),
+      enableSorting: false,
+    }),
     col.accessor("distressStage", { header: "Distress", enableSorting: false }),
     col.accessor("vendor", { header: "Vendor", cell: (c) => c.getValue() ?? "—", enableSorting: false }),
   ];
@@ -149,8 +182,18 @@ export function GarmentsTable({ productionId, unit, canMove }: { productionId: s
 
   return (
     <div className="grid gap-3">
-      <form className="grid grid-cols-2 gap-2 sm:grid-cols-4 lg:grid-cols-8" role="search" aria-label="Filter garments" onSubmit={(e) => e.preventDefault()}>
-        <InputField label="Search" placeholder="name, tag, colour" defaultValue={params.q} onChange={(e) => setParam("q", e.target.value || undefined)} />
+      <form
+        className="grid grid-cols-2 gap-2 sm:grid-cols-4 lg:grid-cols-8"
+        role="search"
+        aria-label="Filter garments"
+        onSubmit={(e) => e.preventDefault()}
+      >
+        <InputField
+          label="Search"
+          placeholder="name, tag, colour"
+          defaultValue={params.q}
+          onChange={(e) => setParam("q", e.target.value || undefined)}
+        />
         <SelectField label="Category" value={params.category ?? ""} onChange={(e) => setParam("category", e.target.value || undefined)}>
           <option value="">All</option>
           {options.data?.categories.map((c) => (
@@ -165,7 +208,11 @@ export function GarmentsTable({ productionId, unit, canMove }: { productionId: s
             </option>
           ))}
         </SelectField>
-        <SelectField label="Character" value={params.characterId ?? ""} onChange={(e) => setParam("characterId", e.target.value || undefined)}>
+        <SelectField
+          label="Character"
+          value={params.characterId ?? ""}
+          onChange={(e) => setParam("characterId", e.target.value || undefined)}
+        >
           <option value="">All</option>
           {options.data?.characters.map((c) => (
             <option key={c.id} value={c.id}>
@@ -207,7 +254,12 @@ export function GarmentsTable({ productionId, unit, canMove }: { productionId: s
             <label className="sr-only" htmlFor="bulk-status">
               New status
             </label>
-            <select id="bulk-status" className={cn(controlClass, "w-auto py-1")} value={bulkStatus} onChange={(e) => setBulkStatus(e.target.value as GarmentStatus)}>
+            <select
+              id="bulk-status"
+              className={cn(controlClass, "w-auto py-1")}
+              value={bulkStatus}
+              onChange={(e) => setBulkStatus(e.target.value as GarmentStatus)}
+            >
               {garmentStatuses.map((s) => (
                 <option key={s} value={s}>
                   {garmentStatusLabels[s]}
@@ -225,7 +277,9 @@ export function GarmentsTable({ productionId, unit, canMove }: { productionId: s
           </div>
         )}
         <details className="relative">
-          <summary className="cursor-pointer rounded-md border border-ink-100 bg-white px-3 py-1.5 text-sm font-semibold text-ink">Columns</summary>
+          <summary className="cursor-pointer rounded-md border border-ink-100 bg-white px-3 py-1.5 text-sm font-semibold text-ink">
+            Columns
+          </summary>
           <div className="absolute z-10 mt-1 grid w-56 gap-1 rounded-md border border-chalk-200 bg-white p-2 shadow-lg">
             {table
               .getAllLeafColumns()
@@ -238,7 +292,10 @@ export function GarmentsTable({ productionId, unit, canMove }: { productionId: s
               ))}
           </div>
         </details>
-        <a className="rounded-md border border-ink-100 bg-white px-3 py-1.5 text-sm font-semibold text-ink hover:bg-ink-50" href={garmentFileUrls.csv(productionId, filterParams)}>
+        <a
+          className="rounded-md border border-ink-100 bg-white px-3 py-1.5 text-sm font-semibold text-ink hover:bg-ink-50"
+          href={garmentFileUrls.csv(productionId, filterParams)}
+        >
           Export CSV
         </a>
         <a

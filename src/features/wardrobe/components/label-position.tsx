@@ -6,7 +6,11 @@ export function LabelPositionSelect({ value, onChange }: { value: number; onChan
   return (
     <label className="flex flex-col gap-1 text-sm font-semibold text-ink-900">
       Start at label
-      <select className="min-h-11 rounded-md border border-ink-100 bg-white px-2 text-sm font-normal" value={value} onChange={(e) => onChange(Number(e.target.value))}>
+      <select
+        className="min-h-11 rounded-md border border-ink-100 bg-white px-2 text-sm font-normal"
+        value={value}
+        onChange={(e) => onChange(Number(e.target.value))}
+      >
         {POSITIONS.map((n) => (
           <option key={n} value={n}>
             {n} (row {Math.ceil(n / 3)}, column {((n - 1) % 3) + 1})

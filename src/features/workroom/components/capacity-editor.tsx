@@ -13,7 +13,9 @@ const DAY_LABEL: Record<Weekday, string> = { mon: "Mon", tue: "Tue", wed: "Wed",
 
 function PersonRow({ productionId, person, canEdit }: { productionId: string; person: CapacityDto; canEdit: boolean }) {
   const save = useUpsertCapacity(productionId);
-  const [hours, setHours] = useState<Record<Weekday, string>>(() => Object.fromEntries(WEEKDAYS.map((d) => [d, String(person.hoursPerWeekday[d])])) as Record<Weekday, string>);
+  const [hours, setHours] = useState<Record<Weekday, string>>(
+    () => Object.fromEntries(WEEKDAYS.map((d) => [d, String(person.hoursPerWeekday[d])])) as Record<Weekday, string>,
+  );
   const [daysOff, setDaysOff] = useState(person.daysOff.join(", "));
   const [error, setError] = useState<string | null>(null);
   const submit = () => {
@@ -45,7 +47,14 @@ function PersonRow({ productionId, person, canEdit }: { productionId: string; pe
         </td>
       ))}
       <td className="px-1 py-2">
-        <input aria-label={`${person.name} days off`} className={`${controlClass} min-w-48 py-1`} placeholder="2026-12-11, …" value={daysOff} disabled={!canEdit} onChange={(e) => setDaysOff(e.target.value)} />
+        <input
+          aria-label={`${person.name} days off`}
+          className={`${controlClass} min-w-48 py-1`}
+          placeholder="2026-12-11, …"
+          value={daysOff}
+          disabled={!canEdit}
+          onChange={(e) => setDaysOff(e.target.value)}
+        />
         {error && <p className="text-xs text-madder">{error}</p>}
         {save.error && <ErrorAlert error={save.error} title="Not saved" />}
       </td>
@@ -61,7 +70,12 @@ function PersonRow({ productionId, person, canEdit }: { productionId: string; pe
 }
 
 /** Each workroom member's hours per weekday and days off, plus the production's buffer and reminder hour. */
-export function CapacityEditor(props: { productionId: string; people: CapacityDto[]; settings: { bufferWorkingDays: number; reminderHour: number }; canEdit: boolean }) {
+export function CapacityEditor(props: {
+  productionId: string;
+  people: CapacityDto[];
+  settings: { bufferWorkingDays: number; reminderHour: number };
+  canEdit: boolean;
+}) {
   const words = scheduleLabels(useCurrentProduction().production);
   const saveSettings = useUpdateWorkroomSettings(props.productionId);
   const [buffer, setBuffer] = useState(String(props.settings.bufferWorkingDays));
@@ -79,7 +93,9 @@ export function CapacityEditor(props: { productionId: string; people: CapacityDt
                 </th>
               ))}
               <th className="px-1 py-2">Days off</th>
-              <th className="px-1 py-2"><span className="sr-only">Actions</span></th>
+              <th className="px-1 py-2">
+                <span className="sr-only">Actions</span>
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -90,10 +106,30 @@ export function CapacityEditor(props: { productionId: string; people: CapacityDt
         </table>
       </div>
       <div className="grid max-w-xl gap-3 sm:grid-cols-[1fr_1fr_auto] sm:items-end">
-        <InputField label={`Buffer before a ${words.day} (working days)`} type="number" min={0} max={10} value={buffer} disabled={!props.canEdit} onChange={(e) => setBuffer(e.target.value)} hint="Time for pressing and rack prep." />
-        <InputField label="Evening reminders at (hour)" type="number" min={0} max={23} value={hour} disabled={!props.canEdit} onChange={(e) => setHour(e.target.value)} />
+        <InputField
+          label={`Buffer before a ${words.day} (working days)`}
+          type="number"
+          min={0}
+          max={10}
+          value={buffer}
+          disabled={!props.canEdit}
+          onChange={(e) => setBuffer(e.target.value)}
+          hint="Time for pressing and rack prep."
+        />
+        <InputField
+          label="Evening reminders at (hour)"
+          type="number"
+          min={0}
+          max={23}
+          value={hour}
+          disabled={!props.canEdit}
+          onChange={(e) => setHour(e.target.value)}
+        />
         {props.canEdit && (
-          <Button busy={saveSettings.isPending} onClick={() => saveSettings.mutate({ bufferWorkingDays: Number(buffer), reminderHour: Number(hour) })}>
+          <Button
+            busy={saveSettings.isPending}
+            onClick={() => saveSettings.mutate({ bufferWorkingDays: Number(buffer), reminderHour: Number(hour) })}
+          >
             Save
           </Button>
         )}

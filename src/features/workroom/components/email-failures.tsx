@@ -17,7 +17,8 @@ export function EmailFailures({ productionId, jobs }: { productionId: string; jo
         {jobs.map((j) => (
           <li key={j.id} className="flex flex-wrap items-center justify-between gap-2 rounded border border-chalk-200 p-2 text-sm">
             <span>
-              <Badge tone={j.status === "failed" ? "blocking" : "warning"}>{j.status}</Badge> <span className="font-semibold">{j.subject}</span> → {j.recipient}
+              <Badge tone={j.status === "failed" ? "blocking" : "warning"}>{j.status}</Badge>{" "}
+              <span className="font-semibold">{j.subject}</span> → {j.recipient}
               <span className="block text-xs text-slate">
                 {j.attempts} attempt{j.attempts === 1 ? "" : "s"}
                 {j.lastError ? ` · ${j.lastError}` : ""}

@@ -70,7 +70,16 @@ export function FittingForm({ productionId, options, onDone }: { productionId: s
         </SelectField>
         <InputField label="Date" type="date" value={date} onChange={(e) => setDate(e.target.value)} error={errors.date} />
         <InputField label="Time" type="time" value={time} onChange={(e) => setTime(e.target.value)} hint={`${timeZone} time`} />
-        <InputField label="Length (minutes)" type="number" min={5} max={480} step={5} value={minutes} onChange={(e) => setMinutes(e.target.value)} error={errors.durationMinutes} />
+        <InputField
+          label="Length (minutes)"
+          type="number"
+          min={5}
+          max={480}
+          step={5}
+          value={minutes}
+          onChange={(e) => setMinutes(e.target.value)}
+          error={errors.durationMinutes}
+        />
         <InputField label="Room" value={room} onChange={(e) => setRoom(e.target.value)} error={errors.room} />
       </div>
       <fieldset>
@@ -78,7 +87,12 @@ export function FittingForm({ productionId, options, onDone }: { productionId: s
         <div className="mt-1 flex flex-wrap gap-3">
           {options.members.map((m) => (
             <label key={m.id} className="flex min-h-10 items-center gap-2 text-sm">
-              <input type="checkbox" className="size-5" checked={attendees.includes(m.id)} onChange={(e) => setAttendees((a) => (e.target.checked ? [...a, m.id] : a.filter((x) => x !== m.id)))} />
+              <input
+                type="checkbox"
+                className="size-5"
+                checked={attendees.includes(m.id)}
+                onChange={(e) => setAttendees((a) => (e.target.checked ? [...a, m.id] : a.filter((x) => x !== m.id)))}
+              />
               {m.name}
             </label>
           ))}
@@ -88,7 +102,9 @@ export function FittingForm({ productionId, options, onDone }: { productionId: s
       <TextareaField label="Notes" value={notes} onChange={(e) => setNotes(e.target.value)} />
       {performer && (
         <p className="text-xs text-slate">
-          {performer.email ? `The invitation (with a calendar file) goes to ${performer.email}.` : "This performer has no e-mail on file; the invitation goes to the address in their contact, if any."}
+          {performer.email
+            ? `The invitation (with a calendar file) goes to ${performer.email}.`
+            : "This performer has no e-mail on file; the invitation goes to the address in their contact, if any."}
         </p>
       )}
       {create.error && <ErrorAlert error={create.error} title="Fitting not booked" />}

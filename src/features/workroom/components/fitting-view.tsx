@@ -18,7 +18,14 @@ import { ConfirmDialog } from "@/components/ui/dialog";
 import { LinkGarment } from "./link-garment";
 
 /** During a fitting, on a tablet: the change's garments with their fit, measurements, fit snags, notes, one tap per garment to raise a ticket. */
-export function FittingView(props: { productionId: string; fitting: FittingDetailDto; options: WorkroomOptionsDto; units: LengthUnit; canEdit: boolean; canLink: boolean }) {
+export function FittingView(props: {
+  productionId: string;
+  fitting: FittingDetailDto;
+  options: WorkroomOptionsDto;
+  units: LengthUnit;
+  canEdit: boolean;
+  canLink: boolean;
+}) {
   const { fitting: f, productionId } = props;
   const [raisingFor, setRaisingFor] = useState<string | null>(null);
   const [linking, setLinking] = useState<string | null>(null);
@@ -47,7 +54,9 @@ export function FittingView(props: { productionId: string; fitting: FittingDetai
 
       <Card>
         <h2 className="mb-2 font-semibold text-ink">Garments</h2>
-        {f.items.length === 0 && <p className="text-sm text-slate">No change items to show{f.changeId ? " for this change yet" : " (general fitting)"}.</p>}
+        {f.items.length === 0 && (
+          <p className="text-sm text-slate">No change items to show{f.changeId ? " for this change yet" : " (general fitting)"}.</p>
+        )}
         <ul className="grid gap-3">
           {f.items.map((item) => (
             <li key={`${item.changeItemId}-${item.garmentId}`} className="rounded-md border border-chalk-200 p-3">
@@ -61,16 +70,27 @@ export function FittingView(props: { productionId: string; fitting: FittingDetai
                     {item.label}
                     {!item.garmentId ? " · no garment linked yet" : ""}
                     {item.garmentStatus ? ` · ${item.garmentStatus.replace("_", " ")}` : ""}
-                    {item.openTicketIds.length ? ` · ${item.openTicketIds.length} open ticket${item.openTicketIds.length === 1 ? "" : "s"}` : ""}
+                    {item.openTicketIds.length
+                      ? ` · ${item.openTicketIds.length} open ticket${item.openTicketIds.length === 1 ? "" : "s"}`
+                      : ""}
                   </p>
                 </div>
                 {props.canLink && !item.garmentId && linking !== item.changeItemId && f.status !== "cancelled" && (
-                  <Button size="lg" variant="secondary" onClick={() => setLinking(item.changeItemId)} aria-label={`Link a garment to ${item.label}`}>
+                  <Button
+                    size="lg"
+                    variant="secondary"
+                    onClick={() => setLinking(item.changeItemId)}
+                    aria-label={`Link a garment to ${item.label}`}
+                  >
                     Link a garment
                   </Button>
                 )}
                 {props.canEdit && item.garmentId && raisingFor !== item.garmentId && f.status !== "cancelled" && (
-                  <Button size="lg" onClick={() => setRaisingFor(item.garmentId)} aria-label={`Raise ticket for ${item.tagCode ?? ""} ${item.garmentName ?? item.label}`.trim()}>
+                  <Button
+                    size="lg"
+                    onClick={() => setRaisingFor(item.garmentId)}
+                    aria-label={`Raise ticket for ${item.tagCode ?? ""} ${item.garmentName ?? item.label}`.trim()}
+                  >
                     Raise ticket
                   </Button>
                 )}
@@ -136,7 +156,9 @@ export function FittingView(props: { productionId: string; fitting: FittingDetai
         <h2 className="mb-2 font-semibold text-ink">Current measurements</h2>
         {f.measurements ? (
           <>
-            <p className="mb-2 text-xs text-slate">Taken {formatDate(f.measurements.takenOn)}. Personal data: do not copy outside the department.</p>
+            <p className="mb-2 text-xs text-slate">
+              Taken {formatDate(f.measurements.takenOn)}. Personal data: do not copy outside the department.
+            </p>
             <dl className="grid grid-cols-2 gap-x-4 gap-y-1 text-sm sm:grid-cols-3">
               {Object.entries(f.measurements.valuesMm).map(([k, v]) => (
                 <div key={k} className="flex justify-between border-b border-chalk-200 py-1">
@@ -162,8 +184,14 @@ export function FittingView(props: { productionId: string; fitting: FittingDetai
                 <span className="font-semibold">
                   {t.tagCode} {t.garmentName}
                 </span>{" "}
-                · {t.tasks.map((k) => `${taskKindLabels[k.kind]}${k.amountMm ? ` ${formatLength(k.amountMm, props.units)}` : ""}${k.distressStage ? ` to stage ${k.distressStage}` : ""}`).join(", ")} · {formatHours(t.estimateHours)} ·{" "}
-                <Badge>{t.status.replace("_", " ")}</Badge>
+                ·{" "}
+                {t.tasks
+                  .map(
+                    (k) =>
+                      `${taskKindLabels[k.kind]}${k.amountMm ? ` ${formatLength(k.amountMm, props.units)}` : ""}${k.distressStage ? ` to stage ${k.distressStage}` : ""}`,
+                  )
+                  .join(", ")}{" "}
+                · {formatHours(t.estimateHours)} · <Badge>{t.status.replace("_", " ")}</Badge>
                 <div className="mt-1">
                   <TaskSafetyNotes kinds={t.tasks.map((k) => k.kind)} />
                 </div>
@@ -176,7 +204,13 @@ export function FittingView(props: { productionId: string; fitting: FittingDetai
       <Card>
         <h2 className="mb-2 font-semibold text-ink">Notes and outcome</h2>
         <div className="mb-3">
-          <OwnerPhotos productionId={props.productionId} ownerType="fitting" ownerId={f.id} canEdit={props.canEdit} title="Fitting photos (turnarounds)" />
+          <OwnerPhotos
+            productionId={props.productionId}
+            ownerType="fitting"
+            ownerId={f.id}
+            canEdit={props.canEdit}
+            title="Fitting photos (turnarounds)"
+          />
         </div>
         <div className="grid gap-3">
           <TextareaField label="Notes" value={notes} onChange={(e) => setNotes(e.target.value)} disabled={!props.canEdit} />
@@ -184,16 +218,31 @@ export function FittingView(props: { productionId: string; fitting: FittingDetai
           {update.error && <ErrorAlert error={update.error} title="Not saved" />}
           {props.canEdit && f.status !== "cancelled" && (
             <div className="flex flex-wrap gap-2">
-              <Button size="lg" variant="secondary" busy={update.isPending} onClick={() => update.mutate({ id: f.id, notes: notes || null, outcome: outcome || null })}>
+              <Button
+                size="lg"
+                variant="secondary"
+                busy={update.isPending}
+                onClick={() => update.mutate({ id: f.id, notes: notes || null, outcome: outcome || null })}
+              >
                 Save notes
               </Button>
               {f.status === "booked" && (
-                <Button size="lg" busy={update.isPending} onClick={() => update.mutate({ id: f.id, notes: notes || null, outcome: outcome || null, status: "done" })}>
+                <Button
+                  size="lg"
+                  busy={update.isPending}
+                  onClick={() => update.mutate({ id: f.id, notes: notes || null, outcome: outcome || null, status: "done" })}
+                >
                   Fitting done
                 </Button>
               )}
               {f.status === "booked" && (
-                <Button size="lg" variant="ghost" className="text-madder" disabled={update.isPending} onClick={() => setConfirmCancel(true)}>
+                <Button
+                  size="lg"
+                  variant="ghost"
+                  className="text-madder"
+                  disabled={update.isPending}
+                  onClick={() => setConfirmCancel(true)}
+                >
                   Cancel fitting…
                 </Button>
               )}
@@ -208,7 +257,9 @@ export function FittingView(props: { productionId: string; fitting: FittingDetai
             onCancel={() => setConfirmCancel(false)}
             onConfirm={() => update.mutate({ id: f.id, status: "cancelled" }, { onSettled: () => setConfirmCancel(false) })}
           >
-            {f.performerEmail ? `${f.performerName} is e-mailed a cancellation at ${f.performerEmail} and the booking leaves their calendar. ` : `${f.performerName} has no e-mail address on file, so nobody is told; let them know yourself. `}
+            {f.performerEmail
+              ? `${f.performerName} is e-mailed a cancellation at ${f.performerEmail} and the booking leaves their calendar. `
+              : `${f.performerName} has no e-mail address on file, so nobody is told; let them know yourself. `}
             A cancelled fitting cannot be reopened; book a new one if needed.
           </ConfirmDialog>
         </div>

@@ -24,7 +24,11 @@ export function FittingsList({ productionId, fittings }: { productionId: string;
               </span>
             </span>
             <span className="flex gap-1">
-              {f.ticketCount > 0 && <Badge>{f.ticketCount} ticket{f.ticketCount === 1 ? "" : "s"}</Badge>}
+              {f.ticketCount > 0 && (
+                <Badge>
+                  {f.ticketCount} ticket{f.ticketCount === 1 ? "" : "s"}
+                </Badge>
+              )}
               <Badge tone={f.status === "cancelled" ? "blocking" : f.status === "done" ? "note" : "neutral"}>{f.status}</Badge>
             </span>
           </Link>

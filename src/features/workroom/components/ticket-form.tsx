@@ -1,5 +1,12 @@
 import { useState, type FormEvent } from "react";
-import { alterationTaskSchema, createTicketInputSchema, taskKindLabels, taskKinds, type AlterationTask, type TaskKind } from "@shared/schemas/workroom";
+import {
+  alterationTaskSchema,
+  createTicketInputSchema,
+  taskKindLabels,
+  taskKinds,
+  type AlterationTask,
+  type TaskKind,
+} from "@shared/schemas/workroom";
 import { parseLength, formatLength, type LengthUnit } from "@shared/domain/units";
 import { Button } from "@/components/ui/button";
 import { InputField, SelectField, TextareaField, controlClass } from "@/components/ui/field";
@@ -52,7 +59,14 @@ export function TicketForm(props: {
       if (!check.success) Object.assign(errs, fieldErrorsOf(check.error, `tasks.${i}`));
       return task;
     });
-    const input = { garmentId: props.garment.id, fittingId: props.fittingId ?? null, tasks, estimateHours: Number(estimate), assigneeId: assigneeId || null, notes: notes.trim() || null };
+    const input = {
+      garmentId: props.garment.id,
+      fittingId: props.fittingId ?? null,
+      tasks,
+      estimateHours: Number(estimate),
+      assigneeId: assigneeId || null,
+      notes: notes.trim() || null,
+    };
     const parsed = createTicketInputSchema.safeParse(input);
     if (!parsed.success) for (const [k, m] of Object.entries(fieldErrorsOf(parsed.error))) errs[k] ??= m;
     setErrors(errs);
@@ -64,12 +78,21 @@ export function TicketForm(props: {
   };
 
   return (
-    <form onSubmit={submit} className="grid gap-3 rounded-md border border-ink-100 bg-chalk p-3" aria-label={`New alteration ticket for ${props.garment.label}`}>
+    <form
+      onSubmit={submit}
+      className="grid gap-3 rounded-md border border-ink-100 bg-chalk p-3"
+      aria-label={`New alteration ticket for ${props.garment.label}`}
+    >
       <p className="font-semibold text-ink">Alteration ticket · {props.garment.label}</p>
       {rows.map((r, i) => (
         <fieldset key={i} className="grid gap-2 rounded border border-chalk-200 bg-white p-2 sm:grid-cols-[10rem_8rem_1fr_auto]">
           <legend className="sr-only">Task {i + 1}</legend>
-          <SelectField label={`Task ${i + 1}`} value={r.kind} onChange={(e) => update(i, { kind: e.target.value as TaskKind })} error={errors[`tasks.${i}.kind`]}>
+          <SelectField
+            label={`Task ${i + 1}`}
+            value={r.kind}
+            onChange={(e) => update(i, { kind: e.target.value as TaskKind })}
+            error={errors[`tasks.${i}.kind`]}
+          >
             {taskKinds.map((k) => (
               <option key={k} value={k}>
                 {taskKindLabels[k]}
@@ -77,7 +100,15 @@ export function TicketForm(props: {
             ))}
           </SelectField>
           {r.kind === "distress" ? (
-            <InputField label="To stage" type="number" min={1} max={10} value={r.distressStage} onChange={(e) => update(i, { distressStage: e.target.value })} error={errors[`tasks.${i}.distressStage`]} />
+            <InputField
+              label="To stage"
+              type="number"
+              min={1}
+              max={10}
+              value={r.distressStage}
+              onChange={(e) => update(i, { distressStage: e.target.value })}
+              error={errors[`tasks.${i}.distressStage`]}
+            />
           ) : (
             <InputField
               label={`Amount (${props.units})`}
@@ -87,13 +118,22 @@ export function TicketForm(props: {
               placeholder={takesAmount(r.kind) ? (props.units === "cm" ? "2.5" : "1 1/4") : "—"}
               onChange={(e) => update(i, { amount: e.target.value })}
               error={errors[`tasks.${i}.amountMm`]}
-              hint={r.amount && parseLength(r.amount, props.units).ok ? `= ${formatLength(Math.abs((parseLength(r.amount, props.units) as { mm: number }).mm), props.units)}` : undefined}
+              hint={
+                r.amount && parseLength(r.amount, props.units).ok
+                  ? `= ${formatLength(Math.abs((parseLength(r.amount, props.units) as { mm: number }).mm), props.units)}`
+                  : undefined
+              }
             />
           )}
           <InputField label="Note" value={r.note} onChange={(e) => update(i, { note: e.target.value })} placeholder="where, how" />
           <div className="flex items-end">
             {rows.length > 1 && (
-              <Button variant="ghost" size="sm" onClick={() => setRows((rs) => rs.filter((_, j) => j !== i))} aria-label={`Remove task ${i + 1}`}>
+              <Button
+                variant="ghost"
+                size="sm"
+                onClick={() => setRows((rs) => rs.filter((_, j) => j !== i))}
+                aria-label={`Remove task ${i + 1}`}
+              >
                 Remove
               </Button>
             )}
@@ -108,12 +148,24 @@ export function TicketForm(props: {
       </div>
       <TaskSafetyNotes kinds={rows.map((r) => r.kind)} />
       <div className="grid gap-3 sm:grid-cols-2">
-        <InputField label="Estimated hours" inputMode="decimal" value={estimate} onChange={(e) => setEstimate(e.target.value.replace(",", "."))} error={errors.estimateHours} />
+        <InputField
+          label="Estimated hours"
+          inputMode="decimal"
+          value={estimate}
+          onChange={(e) => setEstimate(e.target.value.replace(",", "."))}
+          error={errors.estimateHours}
+        />
         <div className="flex flex-col gap-1">
           <label className="text-sm font-semibold text-ink-900" htmlFor="ticket-assignee">
             Who does it
           </label>
-          <select id="ticket-assignee" className={controlClass} value={assigneeId} onChange={(e) => setAssigneeId(e.target.value)} aria-invalid={Boolean(errors.assigneeId)}>
+          <select
+            id="ticket-assignee"
+            className={controlClass}
+            value={assigneeId}
+            onChange={(e) => setAssigneeId(e.target.value)}
+            aria-invalid={Boolean(errors.assigneeId)}
+          >
             <option value="">Let the plan choose</option>
             {props.members.map((m) => (
               <option key={m.id} value={m.id}>
@@ -125,7 +177,9 @@ export function TicketForm(props: {
         </div>
       </div>
       <TextareaField label="Notes" value={notes} onChange={(e) => setNotes(e.target.value)} />
-      {raise.error && !(raise.error instanceof ApiError && Object.keys(raise.error.fields).length) && <ErrorAlert error={raise.error} title="Ticket not raised" />}
+      {raise.error && !(raise.error instanceof ApiError && Object.keys(raise.error.fields).length) && (
+        <ErrorAlert error={raise.error} title="Ticket not raised" />
+      )}
       <div className="flex gap-2">
         <Button type="submit" size="lg" busy={raise.isPending}>
           Raise ticket

@@ -1,5 +1,12 @@
 import { useEffect, useMemo, useRef, useState } from "react";
-import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type SortingState,
+} from "@tanstack/react-table";
 import type { PlannedTicketDto, TicketStatus } from "@shared/schemas/workroom";
 import { hazardousTaskKinds } from "@shared/schemas/workroom";
 import { taskSummary } from "@shared/domain/workroom-snags";
@@ -15,9 +22,15 @@ import { formatDate, formatHours } from "@shared/format";
 
 const col = createColumnHelper<PlannedTicketDto>();
 const NEXT: Partial<Record<TicketStatus, Array<{ to: TicketStatus; label: string }>>> = {
-  waiting: [{ to: "in_progress", label: "Start" }, { to: "done", label: "Mark done" }],
+  waiting: [
+    { to: "in_progress", label: "Start" },
+    { to: "done", label: "Mark done" },
+  ],
   in_progress: [{ to: "done", label: "Mark done" }],
-  done: [{ to: "checked", label: "Check" }, { to: "in_progress", label: "Reopen" }],
+  done: [
+    { to: "checked", label: "Check" },
+    { to: "in_progress", label: "Reopen" },
+  ],
 };
 
 /** Open and done tickets with their plan: due date, who, planned finish, lateness; status moves and estimates inline. */
@@ -71,7 +84,11 @@ export function TicketsTable(props: {
             <span>
               {c.getValue()}
               {hazardous && (
-                <button type="button" className="ml-1 text-xs font-semibold text-[#8a5d17] underline" onClick={() => setSafetyFor(safetyFor === c.row.original.id ? null : c.row.original.id)}>
+                <button
+                  type="button"
+                  className="ml-1 text-xs font-semibold text-[#8a5d17] underline"
+                  onClick={() => setSafetyFor(safetyFor === c.row.original.id ? null : c.row.original.id)}
+                >
                   safety
                 </button>
               )}
@@ -98,15 +115,31 @@ export function TicketsTable(props: {
             formatHours(c.getValue())
           ),
       }),
-      col.accessor((t) => t.plannedAssigneeName ?? t.assigneeName ?? "", { id: "who", header: "Who", cell: (c) => c.getValue() || <span className="text-slate">nobody has hours</span> }),
-      col.accessor((t) => t.neededOn ?? "", { id: "neededOn", header: "Needed", cell: (c) => <span className="whitespace-nowrap">{c.getValue() ? formatDate(c.getValue()) : "—"}</span> }),
-      col.accessor((t) => t.dueDate ?? "9999", { id: "dueDate", header: "Due", cell: (c) => <span className="whitespace-nowrap">{c.row.original.dueDate ? formatDate(c.row.original.dueDate) : "—"}</span> }),
+      col.accessor((t) => t.plannedAssigneeName ?? t.assigneeName ?? "", {
+        id: "who",
+        header: "Who",
+        cell: (c) => c.getValue() || <span className="text-slate">nobody has hours</span>,
+      }),
+      col.accessor((t) => t.neededOn ?? "", {
+        id: "neededOn",
+        header: "Needed",
+        cell: (c) => <span className="whitespace-nowrap">{c.getValue() ? formatDate(c.getValue()) : "—"}</span>,
+      }),
+      col.accessor((t) => t.dueDate ?? "9999", {
+        id: "dueDate",
+        header: "Due",
+        cell: (c) => <span className="whitespace-nowrap">{c.row.original.dueDate ? formatDate(c.row.original.dueDate) : "—"}</span>,
+      }),
       col.accessor((t) => t.plannedFinish ?? "", {
         id: "finish",
         header: "Planned finish",
         cell: (c) => (
           <span className="whitespace-nowrap" data-planned-finish={c.row.original.plannedFinish ?? ""}>
-            {c.row.original.planStatus === "done" ? "done" : (c.row.original.plannedFinish ? formatDate(c.row.original.plannedFinish) : `${formatHours(c.row.original.unplannedHours)} do not fit`)}
+            {c.row.original.planStatus === "done"
+              ? "done"
+              : c.row.original.plannedFinish
+                ? formatDate(c.row.original.plannedFinish)
+                : `${formatHours(c.row.original.unplannedHours)} do not fit`}
             {c.row.original.late && (
               <>
                 {" "}
@@ -123,7 +156,13 @@ export function TicketsTable(props: {
             <Badge>{c.getValue().replace("_", " ")}</Badge>
             {props.canUpdate &&
               (NEXT[c.getValue()] ?? []).map((n) => (
-                <Button key={n.to} size="sm" variant={n.to === "in_progress" && c.getValue() === "done" ? "ghost" : "secondary"} busy={setStatus.isPending && setStatus.variables?.id === c.row.original.id} onClick={() => setStatus.mutate({ id: c.row.original.id, status: n.to })}>
+                <Button
+                  key={n.to}
+                  size="sm"
+                  variant={n.to === "in_progress" && c.getValue() === "done" ? "ghost" : "secondary"}
+                  busy={setStatus.isPending && setStatus.variables?.id === c.row.original.id}
+                  onClick={() => setStatus.mutate({ id: c.row.original.id, status: n.to })}
+                >
                   {n.label}
                 </Button>
               ))}
@@ -134,7 +173,14 @@ export function TicketsTable(props: {
     [props.units, props.canEstimate, props.canUpdate, setStatus, update, safetyFor, photosFor],
   );
 
-  const table = useReactTable({ data: props.tickets, columns, state: { sorting }, onSortingChange: setSorting, getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel() });
+  const table = useReactTable({
+    data: props.tickets,
+    columns,
+    state: { sorting },
+    onSortingChange: setSorting,
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+  });
   if (props.tickets.length === 0) return <EmptyState title="No open alteration tickets">Raise one from a fitting.</EmptyState>;
   const safetyTicket = props.tickets.find((t) => t.id === safetyFor);
   const photosTicket = props.tickets.find((t) => t.id === photosFor);
@@ -145,7 +191,13 @@ export function TicketsTable(props: {
       {safetyTicket && <TaskSafetyNotes kinds={safetyTicket.tasks.map((k) => k.kind)} />}
       {photosTicket && (
         <div className="rounded-md border border-chalk-200 bg-chalk p-3">
-          <OwnerPhotos productionId={props.productionId} ownerType="alteration_ticket" ownerId={photosTicket.id} canEdit={props.canUpdate} title={`Before and after: ${photosTicket.tagCode} ${photosTicket.garmentName}`} />
+          <OwnerPhotos
+            productionId={props.productionId}
+            ownerType="alteration_ticket"
+            ownerId={photosTicket.id}
+            canEdit={props.canUpdate}
+            title={`Before and after: ${photosTicket.tagCode} ${photosTicket.garmentName}`}
+          />
         </div>
       )}
       <div className="overflow-x-auto">

@@ -1,12 +1,31 @@
 import { useCallback, useEffect, useMemo, useRef, useState, type RefObject } from "react";
-import { Calendar, dateFnsLocalizer, type DateHeaderProps, type Formats, type HeaderProps, type ToolbarProps, type View } from "react-big-calendar";
+import {
+  Calendar,
+  dateFnsLocalizer,
+  type DateHeaderProps,
+  type Formats,
+  type HeaderProps,
+  type ToolbarProps,
+  type View,
+} from "react-big-calendar";
 import dndAddon, { type EventInteractionArgs } from "react-big-calendar/lib/addons/dragAndDrop";
 import { endOfWeek, format, getDay, parse, parseISO, startOfMonth, startOfWeek } from "date-fns";
 import { enGB } from "date-fns/locale";
 import "react-big-calendar/lib/css/react-big-calendar.css";
 import "react-big-calendar/lib/addons/dragAndDrop/styles.css";
 import type { FittingDto, WorkroomPlanDto } from "@shared/schemas/workroom";
-import { formatDate, formatDateRange, formatDateTime, formatHours, formatMonth, formatWallTime, formatWeekday, formatWeekdayDay, instantFromWallClock, wallClockOf } from "@shared/format";
+import {
+  formatDate,
+  formatDateRange,
+  formatDateTime,
+  formatHours,
+  formatMonth,
+  formatWallTime,
+  formatWeekday,
+  formatWeekdayDay,
+  instantFromWallClock,
+  wallClockOf,
+} from "@shared/format";
 import { Button } from "@/components/ui/button";
 import { ErrorAlert } from "@/components/ui/feedback";
 import { ConfirmDialog } from "@/components/ui/dialog";
@@ -147,7 +166,12 @@ function WorkroomToolbar({ date, view, onNavigate, onView }: ToolbarProps<CalEve
       </h2>
       <div className="flex flex-wrap gap-1" role="group" aria-label="View">
         {VIEWS.map((v) => (
-          <Button key={v.view} variant={view === v.view ? "primary" : "secondary"} aria-pressed={view === v.view} onClick={() => onView(v.view)}>
+          <Button
+            key={v.view}
+            variant={view === v.view ? "primary" : "secondary"}
+            aria-pressed={view === v.view}
+            onClick={() => onView(v.view)}
+          >
             {v.label}
           </Button>
         ))}
@@ -187,18 +211,40 @@ export function WorkroomCalendar(props: {
   const events = useMemo<CalEvent[]>(() => {
     const out: CalEvent[] = [];
     for (const s of props.plan.shootDays) {
-      out.push({ id: `sd-${s.id}`, title: `${scheduleLabels(s.kind === "performance" ? "stage" : "film").Day} ${s.dayNumber}`, start: day(s.date), end: day(s.date), allDay: true, kind: "shoot" });
+      out.push({
+        id: `sd-${s.id}`,
+        title: `${scheduleLabels(s.kind === "performance" ? "stage" : "film").Day} ${s.dayNumber}`,
+        start: day(s.date),
+        end: day(s.date),
+        allDay: true,
+        kind: "shoot",
+      });
     }
     for (const f of props.fittings) {
       if (f.status === "cancelled") continue;
       if (person && !f.attendeeIds.includes(person)) continue;
-      out.push({ id: `f-${f.id}`, title: `Fitting: ${f.performerName}${f.room ? ` (${f.room})` : ""}`, start: wallClockOf(f.startsAt, timeZone), end: wallClockOf(f.endsAt, timeZone), allDay: false, kind: "fitting", fitting: f });
+      out.push({
+        id: `f-${f.id}`,
+        title: `Fitting: ${f.performerName}${f.room ? ` (${f.room})` : ""}`,
+        start: wallClockOf(f.startsAt, timeZone),
+        end: wallClockOf(f.endsAt, timeZone),
+        allDay: false,
+        kind: "fitting",
+        fitting: f,
+      });
     }
     for (const t of props.plan.tickets) {
       for (const b of t.blocks) {
         if (person && b.personId !== person) continue;
         const who = props.plan.people.find((p) => p.id === b.personId)?.name ?? "";
-        out.push({ id: `w-${t.id}-${b.date}-${b.personId}`, title: `${t.tagCode} ${t.garmentName} · ${formatHours(b.hours)} · ${who}`, start: day(b.date), end: day(b.date), allDay: true, kind: t.late ? "late" : "work" });
+        out.push({
+          id: `w-${t.id}-${b.date}-${b.personId}`,
+          title: `${t.tagCode} ${t.garmentName} · ${formatHours(b.hours)} · ${who}`,
+          start: day(b.date),
+          end: day(b.date),
+          allDay: true,
+          kind: t.late ? "late" : "work",
+        });
       }
     }
     return out;
@@ -242,7 +288,9 @@ export function WorkroomCalendar(props: {
           {LEGEND.map((l) => (
             <li key={l.kind} className="flex items-center gap-1">
               <span aria-hidden className={cn("inline-block size-3 rounded-sm", `cal-event-${l.kind}`)} />
-              {l.kind === "shoot" ? scheduleLabels(props.plan.shootDays.some((s) => s.kind === "performance") ? "stage" : "film").Day : l.label}
+              {l.kind === "shoot"
+                ? scheduleLabels(props.plan.shootDays.some((s) => s.kind === "performance") ? "stage" : "film").Day
+                : l.label}
             </li>
           ))}
         </ul>
@@ -257,12 +305,22 @@ export function WorkroomCalendar(props: {
         confirmLabel="Move and e-mail"
         busy={move.isPending}
         onCancel={() => setPending(null)}
-        onConfirm={() => pending && move.mutate({ id: pending.fitting.id, startsAt: pending.startsAt.toISOString() }, { onSettled: () => setPending(null) })}
+        onConfirm={() =>
+          pending &&
+          move.mutate({ id: pending.fitting.id, startsAt: pending.startsAt.toISOString() }, { onSettled: () => setPending(null) })
+        }
       >
         {pending && `From ${when(new Date(pending.fitting.startsAt))} to ${when(pending.startsAt)}. `}
-        {pending?.fitting.performerEmail ? `${pending.fitting.performerName} is e-mailed the new time at ${pending.fitting.performerEmail}.` : "The performer has no e-mail on file; tell them yourself."}
+        {pending?.fitting.performerEmail
+          ? `${pending.fitting.performerName} is e-mailed the new time at ${pending.fitting.performerEmail}.`
+          : "The performer has no e-mail on file; tell them yourself."}
       </ConfirmDialog>
-      <div ref={gridRef} className="workroom-calendar h-[36rem] rounded-lg border border-chalk-200 bg-white p-2 md:h-[44rem]" aria-label="Workroom calendar" role="region">
+      <div
+        ref={gridRef}
+        className="workroom-calendar h-[36rem] rounded-lg border border-chalk-200 bg-white p-2 md:h-[44rem]"
+        aria-label="Workroom calendar"
+        role="region"
+      >
         <DnDCalendar
           localizer={localizer}
           culture="en-GB"
