@@ -1,5 +1,5 @@
 import { useQuery } from "@tanstack/react-query";
-import { useParams } from "react-router";
+import { useParams } from "react-router-dom";
 import { api } from "@/lib/api-client";
 import { can, type Action } from "@shared/permissions";
 import type { ProductionDto } from "@shared/schemas/productions";

@@ -5,7 +5,7 @@ import type { ReactNode } from "react";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { cleanup, fireEvent, render, screen, waitFor } from "@testing-library/react";
 import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
-import { MemoryRouter } from "react-router";
+import { MemoryRouter } from "react-router-dom";
 import { InvitationsList } from "@/features/team/components/invitations-list";
 import { MembersTable } from "@/features/team/components/members-table";
 import { EmailFailures } from "@/features/workroom/components/email-failures";

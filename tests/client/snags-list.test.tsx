@@ -1,7 +1,7 @@
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { cleanup, fireEvent, render, screen, within } from "@testing-library/react";
 import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
-import { MemoryRouter } from "react-router";
+import { MemoryRouter } from "react-router-dom";
 import { SnagsList, groupSnags, type SnagFilters } from "@/features/snags/components/snags-list";
 import type { SnagDto, SnagListDto } from "@shared/schemas/snags";
 

@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { NavLink, Outlet, useNavigate, useParams } from "react-router";
+import { NavLink, Outlet, useNavigate, useParams } from "react-router-dom";
 import { screens, can, roleLabels } from "@shared/permissions";
 import { useMe, useLogout } from "@/features/auth/api/auth";
 import { useCurrentProduction } from "@/hooks/use-current-production";

@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { Link } from "react-router";
+import { Link } from "react-router-dom";
 import type { ChangeDto } from "@shared/schemas/changes";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { PageHeader } from "@/components/ui/page";

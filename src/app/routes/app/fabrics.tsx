@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { Link, Route, Routes, useParams } from "react-router";
+import { Link, Route, Routes, useParams } from "react-router-dom";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { PageHeader } from "@/components/ui/page";
 import { Card } from "@/components/ui/card";

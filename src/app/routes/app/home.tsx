@@ -1,4 +1,4 @@
-import { Navigate } from "react-router";
+import { Navigate } from "react-router-dom";
 import { useMe } from "@/features/auth/api/auth";
 import { paths } from "@/config/paths";
 import { firstScreenFor } from "./screen-route";

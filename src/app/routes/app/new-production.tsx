@@ -1,7 +1,7 @@
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { formResolver } from "@/lib/form-errors";
-import { useNavigate } from "react-router";
+import { useNavigate } from "react-router-dom";
 import { z } from "zod";
 import { createProductionInputSchema, productionKinds } from "@shared/schemas/productions";
 import { useCreateProduction } from "@/features/productions/api/productions";

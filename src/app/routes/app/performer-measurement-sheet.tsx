@@ -1,4 +1,4 @@
-import { Link, useParams } from "react-router";
+import { Link, useParams } from "react-router-dom";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { Button } from "@/components/ui/button";
 import { ErrorAlert, Spinner } from "@/components/ui/feedback";

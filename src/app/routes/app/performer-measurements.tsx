@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { Link, useParams } from "react-router";
+import { Link, useParams } from "react-router-dom";
 import { ConfirmDialog } from "@/components/ui/dialog";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { PageHeader } from "@/components/ui/page";

@@ -1,5 +1,5 @@
 import type { ReactNode } from "react";
-import { Navigate, NavLink, Route, Routes, useSearchParams } from "react-router";
+import { Navigate, NavLink, Route, Routes, useSearchParams } from "react-router-dom";
 import type { Action } from "@shared/permissions";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { PageHeader } from "@/components/ui/page";

@@ -1,4 +1,4 @@
-import { Navigate, Route, Routes, useParams } from "react-router";
+import { Navigate, Route, Routes, useParams } from "react-router-dom";
 import { screens, can, type ScreenKey } from "@shared/permissions";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { screenComponents, screenSubpages } from "./screens";

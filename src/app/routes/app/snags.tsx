@@ -1,4 +1,4 @@
-import { Link, Route, Routes, useParams, useSearchParams } from "react-router";
+import { Link, Route, Routes, useParams, useSearchParams } from "react-router-dom";
 import type { SnagKind } from "@shared/domain/snags/types";
 import { snagKinds } from "@shared/schemas/snags";
 import { useCurrentProduction } from "@/hooks/use-current-production";

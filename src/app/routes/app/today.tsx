@@ -1,4 +1,4 @@
-import { Link } from "react-router";
+import { Link } from "react-router-dom";
 import { calendarDateIn, formatClockTime, formatDate as nice } from "@shared/format";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { useProductionTime } from "@/hooks/use-production-time";

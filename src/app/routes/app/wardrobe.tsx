@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { Link, Route, Routes, useNavigate, useParams, useSearchParams } from "react-router";
+import { Link, Route, Routes, useNavigate, useParams, useSearchParams } from "react-router-dom";
 import { garmentStatuses, type GarmentStatus } from "@shared/schemas/garments";
 import { useCurrentProduction } from "@/hooks/use-current-production";
 import { PageHeader } from "@/components/ui/page";

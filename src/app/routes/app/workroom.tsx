@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { Route, Routes, useParams, useSearchParams } from "react-router";
+import { Route, Routes, useParams, useSearchParams } from "react-router-dom";
 import { parseISO, isValid } from "date-fns";
 import { isoDateOf } from "@shared/format";
 import type { View } from "react-big-calendar";

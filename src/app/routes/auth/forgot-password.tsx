@@ -1,7 +1,7 @@
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { formResolver } from "@/lib/form-errors";
-import { Link } from "react-router";
+import { Link } from "react-router-dom";
 import { requestPasswordResetInputSchema, type RequestPasswordResetInput } from "@shared/schemas/auth";
 import { useRequestPasswordReset } from "@/features/auth/api/auth";
 import { AuthLayout } from "@/components/layouts/auth-layout";

@@ -3,7 +3,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { formResolver } from "@/lib/form-errors";
 import { z } from "zod";
 import { useQuery } from "@tanstack/react-query";
-import { Link, useNavigate, useParams } from "react-router";
+import { Link, useNavigate, useParams } from "react-router-dom";
 import { passwordSchema } from "@shared/schemas/auth";
 import { roleLabels } from "@shared/permissions";
 import { invitationQueryOptions, useAcceptInvitation, useMe } from "@/features/auth/api/auth";

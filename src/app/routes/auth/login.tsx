@@ -1,7 +1,7 @@
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { formResolver } from "@/lib/form-errors";
-import { Link, Navigate, useNavigate, useSearchParams } from "react-router";
+import { Link, Navigate, useNavigate, useSearchParams } from "react-router-dom";
 import { loginInputSchema, type LoginInput } from "@shared/schemas/auth";
 import { isAuthPath, useLogin, useMe } from "@/features/auth/api/auth";
 import { AuthLayout } from "@/components/layouts/auth-layout";

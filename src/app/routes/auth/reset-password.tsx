@@ -2,7 +2,7 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { formResolver } from "@/lib/form-errors";
 import { z } from "zod";
-import { useNavigate, useParams } from "react-router";
+import { useNavigate, useParams } from "react-router-dom";
 import { passwordSchema } from "@shared/schemas/auth";
 import { useResetPassword } from "@/features/auth/api/auth";
 import { AuthLayout } from "@/components/layouts/auth-layout";

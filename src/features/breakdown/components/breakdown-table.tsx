@@ -1,5 +1,5 @@
 import { useMemo, useRef, useState } from "react";
-import { Link } from "react-router";
+import { Link } from "react-router-dom";
 import {
   createColumnHelper,
   flexRender,

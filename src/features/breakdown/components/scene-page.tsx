@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { Link } from "react-router";
+import { Link } from "react-router-dom";
 import type { SceneDetailDto } from "@shared/schemas/breakdown";
 import type { CharacterDto } from "@shared/schemas/cast";
 import type { ChangeDto } from "@shared/schemas/changes";

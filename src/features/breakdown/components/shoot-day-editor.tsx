@@ -1,5 +1,5 @@
 import { useMemo, useState, type FormEvent, type ReactNode } from "react";
-import { Link } from "react-router";
+import { Link } from "react-router-dom";
 import {
   closestCenter,
   DndContext,

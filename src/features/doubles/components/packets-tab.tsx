@@ -1,4 +1,4 @@
-import { Link, useNavigate } from "react-router";
+import { Link, useNavigate } from "react-router-dom";
 import type { DoublesChangeDto } from "@shared/schemas/doubles";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";

@@ -1,4 +1,4 @@
-import { Link } from "react-router";
+import { Link } from "react-router-dom";
 import type { RackGarmentDto, RackListDto } from "@shared/schemas/reports";
 import { garmentStatusLabels } from "@shared/schemas/garments";
 import { rackFlags } from "@shared/domain/reports/rack-list";

@@ -7,7 +7,7 @@ import {
   type SortingState,
 } from "@tanstack/react-table";
 import { useMemo, useState } from "react";
-import { Link } from "react-router";
+import { Link } from "react-router-dom";
 import type { MultiplesPlanDto, MultiplesUseDto } from "@shared/schemas/snags";
 import { scheduleLabels, type ScheduleKind } from "@shared/domain/schedule-labels";
 import { Badge } from "@/components/ui/feedback";

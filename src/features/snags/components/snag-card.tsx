@@ -1,4 +1,4 @@
-import { Link } from "react-router";
+import { Link } from "react-router-dom";
 import type { JsonValue } from "@shared/domain/snags/types";
 import { snagKindLabels, type SnagDto } from "@shared/schemas/snags";
 import { Badge } from "@/components/ui/feedback";

@@ -1,4 +1,4 @@
-import { Link } from "react-router";
+import { Link } from "react-router-dom";
 import { scheduleLabels, type ScheduleKind } from "@shared/domain/schedule-labels";
 import { Card } from "@/components/ui/card";
 import { ErrorAlert, Spinner } from "@/components/ui/feedback";

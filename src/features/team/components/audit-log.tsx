@@ -1,4 +1,4 @@
-import { Link } from "react-router";
+import { Link } from "react-router-dom";
 import { useAuditEvents } from "../api/team";
 import { Spinner, ErrorAlert, EmptyState } from "@/components/ui/feedback";
 import { useProductionTime } from "@/hooks/use-production-time";

@@ -1,5 +1,5 @@
 import { useEffect, useRef, useState, type FormEvent } from "react";
-import { Link } from "react-router";
+import { Link } from "react-router-dom";
 import {
   checkedOutStatuses,
   garmentStatuses,

@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { Link } from "react-router";
+import { Link } from "react-router-dom";
 import type { FittingDetailDto, WorkroomOptionsDto } from "@shared/schemas/workroom";
 import { taskKindLabels } from "@shared/schemas/workroom";
 import { formatLength, type LengthUnit } from "@shared/domain/units";

@@ -1,4 +1,4 @@
-import { Link } from "react-router";
+import { Link } from "react-router-dom";
 import type { FittingDto } from "@shared/schemas/workroom";
 import { Badge, EmptyState } from "@/components/ui/feedback";
 import { useProductionTime } from "@/hooks/use-production-time";
