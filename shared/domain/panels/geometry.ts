@@ -268,31 +268,6 @@ export interface PolygonValidation {
   crossings: EdgeCrossing[];
 }
 
-function orient(a: Point, b: Point, c: Point): number {
-  return (b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0]);
-}
-
-function onSegment(a: Point, b: Point, p: Point): boolean {
-  return Math.min(a[0], b[0]) <= p[0] && p[0] <= Math.max(a[0], b[0]) && Math.min(a[1], b[1]) <= p[1] && p[1] <= Math.max(a[1], b[1]);
-}
-
-/** Where segments ab and cd meet (touching counts), or null. */
-export function segmentIntersection(a: Point, b: Point, c: Point, d: Point): Point | null {
-  const d1 = orient(c, d, a);
-  const d2 = orient(c, d, b);
-  const d3 = orient(a, b, c);
-  const d4 = orient(a, b, d);
-  if (((d1 > 0 && d2 < 0) || (d1 < 0 && d2 > 0)) && ((d3 > 0 && d4 < 0) || (d3 < 0 && d4 > 0))) {
-    const t = d1 / (d1 - d2);
-    return [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])];
-  }
-  if (d1 === 0 && onSegment(c, d, a)) return a;
-  if (d2 === 0 && onSegment(c, d, b)) return b;
-  if (d3 === 0 && onSegment(a, b, c)) return c;
-  if (d4 === 0 && onSegment(a, b, d)) return d;
-  return null;
-}
-
 const round3 = (v: number) => Math.round(v * 1000) / 1000;
 
 /**
