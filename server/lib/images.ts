@@ -93,9 +93,7 @@ export async function makeVariants(input: string | Buffer): Promise<ImageVariant
 }
 
 /** Reads width, height, format and whether any metadata block is present (for checks and tests). */
-export async function describeImage(
-  input: Buffer,
-): Promise<{
+export async function describeImage(input: Buffer): Promise<{
   width: number;
   height: number;
   format: string;
