@@ -3,6 +3,7 @@
 // seeded so it repeats. Shoot days are numbered from 0; dates start on 2027-01-04 (the scaled seed
 // re-anchors them to the demo calendar).
 import { easeRangeFor } from "../shared/domain/snags/fit.js";
+import { addCalendarDays } from "../shared/calendar-days.js";
 import type {
   AppearanceRec,
   ChangeItemRec,
@@ -65,12 +66,6 @@ const POINTS: Record<string, [string, string][]> = {
   ],
 };
 
-function addDays(iso: string, n: number): string {
-  const d = new Date(`${iso}T00:00:00Z`);
-  d.setUTCDate(d.getUTCDate() + n);
-  return d.toISOString().slice(0, 10);
-}
-
 /** Invented production at `scale` × (400 scenes, 90 shoot days, 80 characters, 3,000 garments, 600 groups). */
 export function buildSyntheticProduction(scale = 1, seed = 20270104): ProductionSnapshot {
   const rnd = mulberry32(seed);
@@ -98,7 +93,11 @@ export function buildSyntheticProduction(scale = 1, seed = 20270104): Production
     const j = Math.floor(rnd() * (i + 1));
     [order[i], order[j]] = [order[j], order[i]];
   }
-  const shootDays: ShootDayRec[] = Array.from({ length: nDays }, (_, d) => ({ id: `sd-${d}`, date: addDays(start, d), sceneIds: [] }));
+  const shootDays: ShootDayRec[] = Array.from({ length: nDays }, (_, d) => ({
+    id: `sd-${d}`,
+    date: addCalendarDays(start, d),
+    sceneIds: [],
+  }));
   order.forEach((sid, i) => shootDays[Math.min(nDays - 1, Math.floor((i * nDays) / order.length))].sceneIds.push(sid));
   // A few scenes are split over two days.
   for (const sid of order) if (rnd() < 0.03) pick(shootDays).sceneIds.push(sid);
@@ -159,7 +158,7 @@ export function buildSyntheticProduction(scale = 1, seed = 20270104): Production
       stretchRatio: category === "knit_top" ? 1.25 : null,
       finished,
       source: rented ? "rented" : pick(["built", "bought"] as const),
-      rentalDueDate: rented ? addDays(start, int(nDays / 2, nDays + 20)) : null,
+      rentalDueDate: rented ? addCalendarDays(start, int(nDays / 2, nDays + 20)) : null,
       status: r < 0.01 ? "lost" : r < 0.02 ? "workroom" : r < 0.03 ? "cleaning" : "in_stock",
       multiplesGroupId: groupId,
       copyNumber: copy,

@@ -1,5 +1,6 @@
 import { randomInt } from "node:crypto";
 import { Op, QueryTypes, UniqueConstraintError, type Transaction, type WhereOptions } from "sequelize";
+import { addCalendarDays } from "@shared/calendar-days.js";
 import { writeCsvRecords, type CsvCell } from "@shared/csv.js";
 import { sequelize } from "../db.js";
 import { escapeLike } from "../lib/like.js";
@@ -60,12 +61,6 @@ const includeNames = [
   { model: GarmentCheckout, as: "openCheckout", required: false, where: { returnedAt: null }, include: checkoutIncludes },
 ];
 
-function addDays(isoDay: string, days: number): string {
-  const d = new Date(`${isoDay}T00:00:00Z`);
-  d.setUTCDate(d.getUTCDate() + days);
-  return d.toISOString().slice(0, 10);
-}
-
 /** Rack and bin as one location string for the history ("C3 / 12"), or null. */
 export function locationLabel(rack: string | null | undefined, bin: string | null | undefined): string | null {
   const parts = [rack, bin].filter((x): x is string => Boolean(x));
@@ -116,7 +111,7 @@ function whereFor(actor: Actor, f: GarmentFilters, dueFromDay: string | null, to
     });
   }
   if (f.dueWithinDays !== undefined) {
-    const until = addDays(dueFromDay ?? f.asOf!, f.dueWithinDays);
+    const until = addCalendarDays(dueFromDay ?? f.asOf!, f.dueWithinDays);
     and.push({ source: "rented", rentalDueOn: { [Op.ne]: null, [Op.lte]: until }, status: { [Op.notIn]: ["returned", "lost"] } });
   }
   if (f.characterId) {

@@ -1,23 +1,12 @@
 // Costs for the budget and the returns list. Amounts are integer cents of the production's currency.
-
-/** Whole days from `a` to `b` (YYYY-MM-DD; negative when b is earlier). */
-export function daysBetween(a: string, b: string): number {
-  return Math.round((Date.parse(`${b}T00:00:00Z`) - Date.parse(`${a}T00:00:00Z`)) / 86_400_000);
-}
-
-/** `iso` plus `days` calendar days. */
-export function addDays(iso: string, days: number): string {
-  const d = new Date(`${iso}T00:00:00Z`);
-  d.setUTCDate(d.getUTCDate() + days);
-  return d.toISOString().slice(0, 10);
-}
+import { addCalendarDays, calendarDaysBetween } from "../../calendar-days.js";
 
 /**
  * Weeks charged for a hire from `from` to `to`: every started week counts, and a hire is at least
  * one week (common practice for costume hire, no source).
  */
 export function hireWeeks(from: string, to: string): number {
-  const days = daysBetween(from, to);
+  const days = calendarDaysBetween(from, to);
   return Math.max(1, Math.ceil(days / 7));
 }
 
@@ -111,7 +100,7 @@ export function rentalWeeks(
   const last = garments.reduce((m, g) => (g.weeklyCents > 0 ? Math.max(m, g.weeks) : m), 0);
   return Array.from({ length: last }, (_, i) => {
     const on = garments.filter((g) => g.weeklyCents > 0 && g.weeks > i);
-    return { week: i + 1, starts: addDays(from, i * 7), cents: on.reduce((s, g) => s + g.weeklyCents, 0), garments: on.length };
+    return { week: i + 1, starts: addCalendarDays(from, i * 7), cents: on.reduce((s, g) => s + g.weeklyCents, 0), garments: on.length };
   });
 }
 

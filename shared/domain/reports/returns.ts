@@ -2,11 +2,11 @@
 // everything else at wrap.
 import type { RentalLineDto, VendorReturnsDto, WrapAction } from "../../schemas/reports.js";
 import type { GarmentSource, WrapDisposition } from "../../schemas/garments.js";
-import { daysBetween } from "./money.js";
+import { calendarDaysBetween } from "../../calendar-days.js";
 
 /** Days past due (positive = overdue) on `today`, or null without a due date. */
 export function daysOverdue(dueOn: string | null, today: string): number | null {
-  return dueOn ? daysBetween(dueOn, today) : null;
+  return dueOn ? calendarDaysBetween(dueOn, today) : null;
 }
 
 const byDue = (a: RentalLineDto, b: RentalLineDto): number =>

@@ -1,6 +1,7 @@
 // Bookings: one garment copy on two characters the same day, rentals due back before their last
 // scene, and garments that are not available (workroom, cleaning, returned, lost) when needed.
 import type { GarmentRec, GarmentStatus, JsonValue, SnagDraft, SnapshotIndex } from "./types";
+import { calendarDaysBetween } from "../../calendar-days";
 import type { GroupPlan } from "./multiples";
 import { formatDate } from "../../format";
 
@@ -184,19 +185,13 @@ export function neededDates(
   return out;
 }
 
-/** Whole days from date a to date b (YYYY-MM-DD). */
-export function daysBetween(a: string, b: string): number {
-  const t = (d: string) => Date.UTC(Number(d.slice(0, 4)), Number(d.slice(5, 7)) - 1, Number(d.slice(8, 10)));
-  return Math.round((t(b) - t(a)) / 86_400_000);
-}
-
 /** The rental snag when a rented garment is due back before its last needed date, else null. */
 export function rentalSnag(g: GarmentRec, dates: string[]): SnagDraft | null {
   if (g.source !== "rented" || !g.rentalDueDate || dates.length === 0) return null;
   const last = dates[dates.length - 1];
   if (last <= g.rentalDueDate) return null;
   const after = dates.filter((d) => d > g.rentalDueDate!);
-  const late = daysBetween(g.rentalDueDate, last);
+  const late = calendarDaysBetween(g.rentalDueDate, last);
   return {
     key: `rental:${g.id}`,
     kind: "rental",

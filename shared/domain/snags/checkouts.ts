@@ -1,6 +1,6 @@
 // Check-outs past due: a garment given to a member or performer that is not back by the date it
 // was due. Judged against "today" as the server's clock gives it in the production's time zone.
-import { daysBetween } from "./bookings";
+import { calendarDaysBetween } from "../../calendar-days";
 import { scheduleLabels } from "../schedule-labels";
 import { formatDate } from "../../format";
 import type { CheckoutRec, JsonValue, SnagDraft, SnapshotIndex } from "./types";
@@ -25,7 +25,7 @@ export interface CheckoutFacts {
 export function checkoutOverdueSnag(f: CheckoutFacts): SnagDraft | null {
   const c = f.checkout;
   if (!checkoutPastDue(c.dueBackOn, f.today)) return null;
-  const late = daysBetween(c.dueBackOn, f.today);
+  const late = calendarDaysBetween(c.dueBackOn, f.today);
   const forWhat = [f.dayText, f.sceneNumber ? `scene ${f.sceneNumber}` : null].filter(Boolean).join(", ");
   // Days late is in the explanation, not the evidence: the evidence (and so a dismissal) must not
   // change every morning while the facts stay the same.
