@@ -41,7 +41,7 @@ describe("GET /api/productions/:pid/snags", () => {
 
     expect(res.status).toBe(400);
     expect(res.body.error.fields.kind).toBe(
-      "Kind must be one of: fit, continuity, multiples, booking, rental, availability, quick_change, workroom_late, workroom_overbooked",
+      "Kind must be one of: fit, continuity, multiples, booking, rental, availability, quick_change, checkout_overdue, workroom_late, workroom_overbooked",
     );
   });
 
