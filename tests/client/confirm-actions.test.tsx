@@ -386,7 +386,7 @@ describe("the shoot-day editor", () => {
     const api = stubApi();
     editor();
 
-    fireEvent.click(screen.getByRole("button", { name: "Take off scene 1 from this day" }));
+    fireEvent.click(screen.getByRole("button", { name: "Take off scene 1" }));
     const undo = await screen.findByRole("button", { name: "Undo" });
     expect(
       screen

@@ -5,6 +5,7 @@ import { describe, expect, inject, it } from "vitest";
 import type { APIRequestContext, Page } from "playwright-core";
 import { useBrowser, signIn } from "./browser.js";
 import { SALTMARSH_ID } from "../../seeds/accounts.js";
+import { formatDate } from "../../shared/format.js";
 
 const baseUrl = inject("baseUrl");
 const browser = useBrowser();
@@ -55,11 +56,11 @@ describe("the shoot-day editor", () => {
       await page.getByRole("tab", { name: "Shoot days" }).click();
       await page
         .getByRole("navigation", { name: "Shoot days" })
-        .getByRole("button", { name: new RegExp(`^Day ${day.dayNumber} · ${day.date}`) })
+        .getByRole("button", { name: new RegExp(`^Day ${day.dayNumber} · ${formatDate(day.date)}`) })
         .click();
       const list = page.getByRole("list", { name: `Scenes of Day ${day.dayNumber}` });
       await list.waitFor();
-      const panel = page.getByRole("region", { name: `Snags for ${day.date}` });
+      const panel = page.getByRole("region", { name: `Snags for ${formatDate(day.date)}` });
       await panel.getByText(snag.title).waitFor();
       const order = async () => (await list.getByRole("link").allTextContents()).map((t) => t.replace("Scene ", ""));
 
@@ -111,7 +112,7 @@ describe("the shoot-day editor", () => {
     await add.getByText("Choose the date.").waitFor();
     await add.getByLabel("Date").fill(date);
     await add.getByRole("button", { name: "Add shoot day" }).click();
-    const section = page.getByRole("region", { name: `Day ${number}, ${date}` });
+    const section = page.getByRole("region", { name: `Day ${number}, ${formatDate(date)}` });
     await section.getByText("No scenes on this day yet.").waitFor();
 
     for (const n of candidates) {
@@ -129,7 +130,9 @@ describe("the shoot-day editor", () => {
 
     // Move the first scene to the last demo day, then undo.
     const moveSelect = section.getByLabel(`Move scene ${candidates[0]} to`);
-    const target = await moveSelect.locator("option", { hasText: `Day ${lastDay.dayNumber} · ${lastDay.date}` }).getAttribute("value");
+    const target = await moveSelect
+      .locator("option", { hasText: `Day ${lastDay.dayNumber} · ${formatDate(lastDay.date)}` })
+      .getAttribute("value");
     const lastBefore = (await call<Day>(page, "GET", `${api}/shoot-days/${lastDay.id}`)).scenes.map((s) => s.number);
     // It is already on that day (we copied it from there), so the server refuses and nothing changes.
     await moveSelect.selectOption(target!);
@@ -140,7 +143,9 @@ describe("the shoot-day editor", () => {
       .sort((a, b) => a.date.localeCompare(b.date))
       .reverse()
       .find((d) => d.kind === "shoot" && !d.scenes.some((s) => s.number === candidates[0]))!;
-    const otherValue = await moveSelect.locator("option", { hasText: `Day ${other.dayNumber} · ${other.date}` }).getAttribute("value");
+    const otherValue = await moveSelect
+      .locator("option", { hasText: `Day ${other.dayNumber} · ${formatDate(other.date)}` })
+      .getAttribute("value");
     await moveSelect.selectOption(otherValue!);
     await section.getByRole("button", { name: "Move", exact: true }).first().click();
     await section.getByRole("status").getByText(`Scene ${candidates[0]} moved to Day ${other.dayNumber}`).waitFor();
@@ -151,7 +156,7 @@ describe("the shoot-day editor", () => {
     expect((await call<Day>(page, "GET", `${api}/shoot-days/${lastDay.id}`)).scenes.map((s) => s.number)).toEqual(lastBefore);
 
     // Take one off; it is gone from the day, and Undo is offered.
-    await section.getByRole("button", { name: `Take off scene ${candidates[1]} from this day` }).click();
+    await section.getByRole("button", { name: `Take off scene ${candidates[1]}` }).click();
     await section.getByRole("status").getByText(`Scene ${candidates[1]} taken off Day ${number}.`).waitFor();
     expect(await list.getByRole("link", { name: `Scene ${candidates[1]}` }).count()).toBe(0);
 
@@ -160,11 +165,11 @@ describe("the shoot-day editor", () => {
     const details = section.getByRole("form", { name: `Details of Day ${number}` });
     await details.getByLabel("Date").fill(later);
     await details.getByRole("button", { name: "Save day" }).click();
-    const redated = page.getByRole("region", { name: `Day ${number}, ${later}` });
+    const redated = page.getByRole("region", { name: `Day ${number}, ${formatDate(later)}` });
     await redated.waitFor();
     await page.screenshot({ path: ".data/e2e-shoot-day-editor.png", fullPage: true });
     await redated.getByRole("button", { name: "Delete shoot day" }).click();
-    const dialog = page.getByRole("dialog", { name: `Delete Day ${number} (${later})?` });
+    const dialog = page.getByRole("dialog", { name: `Delete Day ${number} (${formatDate(later)})?` });
     await dialog.getByRole("button", { name: "Cancel" }).click();
     expect((await call<Day[]>(page, "GET", `${api}/shoot-days?pageSize=500`)).some((d) => d.dayNumber === number)).toBe(true);
     await redated.getByRole("button", { name: "Delete shoot day" }).click();

@@ -14,6 +14,8 @@ import { arrayMove, SortableContext, sortableKeyboardCoordinates, useSortable, v
 import { CSS } from "@dnd-kit/utilities";
 import type { SceneRowDto, ShootDayDto } from "@shared/schemas/breakdown";
 import { formatEighths } from "@shared/domain/breakdown";
+import { scheduleLabels } from "@shared/domain/schedule-labels";
+import { formatClockTime, formatDate } from "@shared/format";
 import { Button } from "@/components/ui/button";
 import { ConfirmDialog } from "@/components/ui/dialog";
 import { ErrorAlert, EmptyState } from "@/components/ui/feedback";
@@ -39,7 +41,7 @@ interface EditorProps {
 
 /** "Day 4" or "Performance 4": a stage production says performance. */
 export const dayLabel = (d: Pick<ShootDayDto, "kind" | "dayNumber">) =>
-  `${d.kind === "performance" ? "Performance" : "Day"} ${d.dayNumber}`;
+  scheduleLabels(d.kind === "performance" ? "stage" : "film").numbered(d.dayNumber);
 
 /** Shoot days (or performances): add, date, delete; a day's scenes put on, taken off, reordered (drag or keyboard), moved. */
 export function ShootDayEditor({ productionId, days, scenes, stage, canEdit, today, sceneHref, daySnags }: EditorProps) {
@@ -47,18 +49,17 @@ export function ShootDayEditor({ productionId, days, scenes, stage, canEdit, tod
   const sorted = useMemo(() => [...days].sort((a, b) => a.date.localeCompare(b.date) || a.dayNumber - b.dayNumber), [days]);
   const [selectedId, setSelectedId] = useState<string | null>(null);
   const selected = sorted.find((d) => d.id === selectedId) ?? sorted.find((d) => d.date >= today) ?? sorted.at(-1) ?? null;
-  const noun = stage ? "performance" : "shoot day";
+  const words = scheduleLabels(stage ? "stage" : "film");
+  const noun = words.day;
 
   return (
     <div className="grid gap-4 lg:grid-cols-[20rem_1fr]">
       <div className="grid content-start gap-3">
         {canEdit && <NewDayForm productionId={productionId} kind={kind} days={days} onCreated={setSelectedId} />}
         {sorted.length === 0 ? (
-          <EmptyState title={stage ? "No performances yet" : "No shoot days yet"}>
-            {canEdit ? `Add the first ${noun} above.` : "The supervisor or designer adds them."}
-          </EmptyState>
+          <EmptyState title={words.none}>{canEdit ? `Add the first ${noun} above.` : "The supervisor or designer adds them."}</EmptyState>
         ) : (
-          <nav aria-label={stage ? "Performances" : "Shoot days"}>
+          <nav aria-label={words.Days}>
             <ul className="grid max-h-[32rem] gap-1 overflow-y-auto">
               {sorted.map((d) => (
                 <li key={d.id}>
@@ -72,8 +73,8 @@ export function ShootDayEditor({ productionId, days, scenes, stage, canEdit, tod
                     )}
                   >
                     <span className="font-semibold">
-                      {dayLabel(d)} · {d.date}
-                      {d.startsAt ? ` · ${d.startsAt.slice(0, 5)}` : ""}
+                      {dayLabel(d)} · {formatDate(d.date)}
+                      {d.startsAt ? ` · ${formatClockTime(d.startsAt)}` : ""}
                     </span>
                     <span className="text-xs">
                       {d.kind === "shoot" ? `${d.scenes.length} scene${d.scenes.length === 1 ? "" : "s"}` : "full show"}
@@ -118,7 +119,7 @@ function NewDayForm({
   const [v, setV] = useState({ dayNumber: "", date: "", startsAt: "" });
   const fields = create.error instanceof ApiError ? create.error.fields : {};
   const [missing, setMissing] = useState(false);
-  const label = kind === "performance" ? "performance" : "shoot day";
+  const label = scheduleLabels(kind === "performance" ? "stage" : "film").day;
   const submit = (e: FormEvent) => {
     e.preventDefault();
     if (!v.date) return setMissing(true);
@@ -248,7 +249,7 @@ function DayPanel(props: {
       {
         onSuccess: () =>
           setUndo({
-            message: `Scene ${numberOf(sceneId)} moved to ${to ? `${dayLabel(to)} (${to.date})` : "the other day"}.`,
+            message: `Scene ${numberOf(sceneId)} moved to ${to ? `${dayLabel(to)} (${formatDate(to.date)})` : "the other day"}.`,
             run: () => move.mutate({ fromId: toId, sceneId, toShootDayId: day.id, position: place }, { onSuccess: () => setUndo(null) }),
           }),
       },
@@ -257,14 +258,14 @@ function DayPanel(props: {
   const notOnDay = props.scenes.filter((s) => !order.includes(s.id));
 
   return (
-    <section aria-label={`${dayLabel(day)}, ${day.date}`} className="grid content-start gap-4">
+    <section aria-label={`${dayLabel(day)}, ${formatDate(day.date)}`} className="grid content-start gap-4">
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h2 className="text-lg font-semibold text-ink">
-          {dayLabel(day)} · {day.date}
+          {dayLabel(day)} · {formatDate(day.date)}
         </h2>
         {canEdit && (
           <Button variant="ghost" size="sm" className="text-madder" onClick={() => setConfirmDelete(true)}>
-            Delete {day.kind === "performance" ? "performance" : "shoot day"}
+            Delete {scheduleLabels(day.kind === "performance" ? "stage" : "film").day}
           </Button>
         )}
       </div>
@@ -365,7 +366,7 @@ function DayPanel(props: {
       {props.snags}
       <ConfirmDialog
         open={confirmDelete}
-        title={`Delete ${dayLabel(day)} (${day.date})?`}
+        title={`Delete ${dayLabel(day)} (${formatDate(day.date)})?`}
         confirmLabel={`Delete ${dayLabel(day).toLowerCase()}`}
         danger
         busy={del.isPending}
@@ -520,7 +521,7 @@ function SceneSlot(props: {
                   <option value="">Move to…</option>
                   {props.otherDays.map((d) => (
                     <option key={d.id} value={d.id}>
-                      {dayLabel(d)} · {d.date}
+                      {dayLabel(d)} · {formatDate(d.date)}
                     </option>
                   ))}
                 </select>
@@ -530,13 +531,7 @@ function SceneSlot(props: {
               </Button>
             </>
           )}
-          <Button
-            size="sm"
-            variant="ghost"
-            disabled={props.busy}
-            onClick={props.onTakeOff}
-            aria-label={`Take off scene ${number} from this day`}
-          >
+          <Button size="sm" variant="ghost" disabled={props.busy} onClick={props.onTakeOff} aria-label={`Take off scene ${number}`}>
             Take off
           </Button>
         </span>
