@@ -22,7 +22,8 @@ describe("digital-double handoff", () => {
     await sup.getByRole("button", { name: "Publish version" }).click();
     await sup.getByRole("dialog").getByRole("button", { name: "Publish" }).click();
     await sup.getByRole("heading", { name: /version 2/ }).waitFor();
-    expect(await sup.getByRole("status").textContent()).toContain("Published as version 2");
+    // Publishing builds the packet's files in a worker; the status line says so until it is done.
+    await expect.poll(() => sup.getByRole("status").textContent(), { timeout: 60_000 }).toContain("Published as version 2");
     expect(await sup.getByRole("table", { name: "Recipients" }).textContent()).toContain("vfx@seamscene.test");
     await sup.close();
 
