@@ -55,7 +55,7 @@ export async function seedScaledProduction(
   options: ScaledSeedOptions = {},
 ): Promise<{ productionId: string; counts: Record<string, number> }> {
   if (!Number.isInteger(scale) || scale < 1 || scale > 20) throw new Error(`--scale takes a whole number from 1 to 20, not "${scale}"`);
-  const snap = buildSyntheticProduction(scale);
+  const snap = buildSyntheticProduction(scale, { start: demoDaysFromToday(0) });
   const rnd = mulberry32(4242 + scale);
   const pid = scaledProductionId(scale);
   const id = (key: string) => demoId(`tidewater:x${scale}:${key}`);

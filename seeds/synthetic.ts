@@ -1,7 +1,7 @@
 // A synthetic feature-scale production for benchmarks, engine tests and `npm run seed -- --scale N`:
 // 400 scenes, 90 shoot days, 80 characters, 3,000 garments and 600 multiples groups per unit of scale,
-// seeded so it repeats. Shoot days are numbered from 0; dates start on 2027-01-04 (the scaled seed
-// re-anchors them to the demo calendar).
+// seeded so it repeats. Shoot days are numbered from 0 and dated from `start`, which the caller gives:
+// the scaled seed the demo's anchor day, the benchmark the clock's today, a test its own fixed day.
 import { easeRangeFor } from "../shared/domain/snags/fit.js";
 import { addCalendarDays } from "../shared/calendar-days.js";
 import type {
@@ -67,7 +67,7 @@ const POINTS: Record<string, [string, string][]> = {
 };
 
 /** Invented production at `scale` × (400 scenes, 90 shoot days, 80 characters, 3,000 garments, 600 groups). */
-export function buildSyntheticProduction(scale = 1, seed = 20270104): ProductionSnapshot {
+export function buildSyntheticProduction(scale: number, { start, seed = 20270104 }: { start: string; seed?: number }): ProductionSnapshot {
   const rnd = mulberry32(seed);
   const int = (lo: number, hi: number) => lo + Math.floor(rnd() * (hi - lo + 1));
   const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rnd() * xs.length)];
@@ -78,7 +78,6 @@ export function buildSyntheticProduction(scale = 1, seed = 20270104): Production
   const nGroups = Math.max(1, Math.round(600 * scale));
   const storyDays = Math.max(1, Math.round(nScenes / 10));
   const changesPerChar = 6;
-  const start = "2027-01-04";
 
   const scenes = Array.from({ length: nScenes }, (_, i) => ({
     id: `sc-${i}`,

@@ -1,6 +1,8 @@
 // Benchmark: full snag recompute on a synthetic feature-scale production and at 10×, against the
 // quadratic reference. Seeded, so runs repeat. Run: npx tsx scripts/bench/snags.ts [--reference-10x]
 import { pathToFileURL } from "node:url";
+import { format } from "date-fns";
+import { addCalendarDays } from "../../shared/calendar-days";
 import { computeSnags } from "../../shared/domain/snags/engine";
 import { computeSnagsReference } from "../../shared/domain/snags/reference";
 import type { ProductionSnapshot } from "../../shared/domain/snags/types";
@@ -43,9 +45,11 @@ export interface SnagBenchResult {
 /** Run the benchmark and print the figures; pass referenceAt10x to also time the quadratic reference at 10×. */
 export function runSnagBench(options: { referenceAt10x?: boolean; log?: (line: string) => void } = {}): SnagBenchResult {
   const log = options.log ?? ((l: string) => console.log(l));
-  const today = "2027-02-01";
-  const s1 = buildSyntheticProduction(1);
-  const s10 = buildSyntheticProduction(10);
+  // The shoot began four weeks ago.
+  const today = format(new Date(), "yyyy-MM-dd");
+  const start = addCalendarDays(today, -28);
+  const s1 = buildSyntheticProduction(1, { start });
+  const s10 = buildSyntheticProduction(10, { start });
   const e1 = time(() => computeSnags(s1, { today }), 21);
   const r1 = time(() => computeSnagsReference(s1, { today }), 1, false);
   const e10 = time(() => computeSnags(s10, { today }), 7);

@@ -251,7 +251,7 @@ describe("engine vs quadratic reference", () => {
   });
 
   it("same result on the benchmark generator at 1/10 scale", () => {
-    const snap = buildSyntheticProduction(0.1, 7);
+    const snap = buildSyntheticProduction(0.1, { seed: 7, start: "2027-01-04" });
     const today = "2027-01-10";
     const engine = computeSnags(snap, { today });
     expect(engine.length).toBeGreaterThan(0);
