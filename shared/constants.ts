@@ -17,6 +17,11 @@ export const Limits = {
   photoDisplayPx: 1600,
   photoThumbPx: 320,
   /**
+   * Longest edge of the stored print size (JPEG): 300 dpi at a continuity book's photo frame, a quarter
+   * of the text width at 4:3, about 42 × 56 mm on A4 and US Letter (56 mm ≈ 660 px).
+   */
+  photoPrintPx: 660,
+  /**
    * Pattern pieces. Points per outline after curves are flattened (a bodice at 0.01 mm chord tolerance
    * has a few hundred; the checks, nesting and meshes stay quick well past this).
    */

@@ -14,6 +14,8 @@ export class ImageRejectedError extends Error {
   }
 }
 
+const PRINT_JPEG_QUALITY = 78;
+
 /** Formats we decode; anything else is refused whatever the file name says. */
 const ACCEPTED_FORMATS = new Set(["jpeg", "png", "webp", "avif", "heif", "tiff"]);
 
@@ -25,6 +27,8 @@ export interface ImageVariants {
   files: {
     original: { body: Buffer; contentType: string; ext: string };
     display: { body: Buffer; contentType: string; ext: string };
+    /** JPEG at print size: reports embed it as stored instead of decoding the display WebP. */
+    print: { body: Buffer; contentType: string; ext: string };
     thumb: { body: Buffer; contentType: string; ext: string };
   };
 }
@@ -62,13 +66,19 @@ export async function makeVariants(input: string | Buffer): Promise<ImageVariant
   const height = swap ? w : h;
   try {
     const base = open(input).rotate();
-    const [original, display, thumb] = await Promise.all([
+    const [original, display, print, thumb] = await Promise.all([
       // mozjpeg off: it is several times slower on 12-megapixel frames for a small size gain.
       base.clone().jpeg({ quality: 88, chromaSubsampling: "4:2:0" }).toBuffer(),
       base
         .clone()
         .resize({ width: Limits.photoDisplayPx, height: Limits.photoDisplayPx, fit: "inside", withoutEnlargement: true })
         .webp({ quality: 80 })
+        .toBuffer(),
+      base
+        .clone()
+        .resize({ width: Limits.photoPrintPx, height: Limits.photoPrintPx, fit: "inside", withoutEnlargement: true })
+        .flatten({ background: "#ffffff" })
+        .jpeg({ quality: PRINT_JPEG_QUALITY, chromaSubsampling: "4:2:0" })
         .toBuffer(),
       base
         .clone()
@@ -82,6 +92,7 @@ export async function makeVariants(input: string | Buffer): Promise<ImageVariant
       files: {
         original: { body: original, contentType: "image/jpeg", ext: "jpg" },
         display: { body: display, contentType: "image/webp", ext: "webp" },
+        print: { body: print, contentType: "image/jpeg", ext: "jpg" },
         thumb: { body: thumb, contentType: "image/webp", ext: "webp" },
       },
     };
@@ -138,10 +149,20 @@ export async function renderSwatch(opts: {
 }
 
 /**
- * Re-encodes a stored photo size (WebP) as a JPEG for a printed report: PDF readers show JPEG
- * natively, and the longest edge is capped at `maxPx` so a book stays small.
+ * A stored photo size as a JPEG for a printed report: PDF readers show JPEG natively, and the longest
+ * edge is capped at `maxPx` so a book stays small. A JPEG already within `maxPx` (the stored print
+ * size, written by us without metadata) is used as stored: decoding the WebP sizes is most of a book's time.
  */
-export async function toPrintJpeg(input: Buffer, maxPx: number, quality = 78): Promise<{ body: Buffer; width: number; height: number }> {
+export async function toPrintJpeg(
+  input: Buffer,
+  maxPx: number,
+  quality = PRINT_JPEG_QUALITY,
+): Promise<{ body: Buffer; width: number; height: number }> {
+  if (input[0] === 0xff && input[1] === 0xd8) {
+    const meta = await sharp(input, { failOn: "error" }).metadata();
+    if (meta.format === "jpeg" && meta.width && meta.height && Math.max(meta.width, meta.height) <= maxPx && (meta.orientation ?? 1) === 1)
+      return { body: input, width: meta.width, height: meta.height };
+  }
   const { data, info } = await sharp(input, { failOn: "error" })
     .resize({ width: maxPx, height: maxPx, fit: "inside", withoutEnlargement: true })
     .flatten({ background: "#ffffff" })

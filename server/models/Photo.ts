@@ -6,6 +6,8 @@ import type { PhotoView } from "@shared/schemas/photos.js";
 export interface PhotoVariants {
   original: string;
   display: string;
+  /** JPEG at print size; photos stored before it existed have none (reports fall back to display). */
+  print?: string;
   thumb: string;
 }
 

@@ -52,7 +52,7 @@ export function assertPhotoAccess(actor: Actor, ownerType: string, mode: "read" 
 
 function keysFor(hash: string): PhotoVariants {
   const dir = `photos/${hash.slice(0, 2)}/${hash}`;
-  return { original: `${dir}/full.jpg`, display: `${dir}/display.webp`, thumb: `${dir}/thumb.webp` };
+  return { original: `${dir}/full.jpg`, display: `${dir}/display.webp`, print: `${dir}/print.jpg`, thumb: `${dir}/thumb.webp` };
 }
 
 /**
@@ -85,10 +85,11 @@ export async function storeImage(file: UploadedFile | Buffer): Promise<StoredIma
     },
   );
   try {
-    for (const size of ["original", "display", "thumb"] as const) {
-      if (await storage.exists(keys[size])) continue;
-      await storage.put(keys[size], v.files[size].body, v.files[size].contentType);
-      written.push(keys[size]);
+    for (const size of ["original", "display", "print", "thumb"] as const) {
+      const key = keys[size]!;
+      if (await storage.exists(key)) continue;
+      await storage.put(key, v.files[size].body, v.files[size].contentType);
+      written.push(key);
     }
   } catch (err) {
     await releaseStoredImages([{ pendingId }]);

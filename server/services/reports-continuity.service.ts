@@ -26,8 +26,8 @@ import type { BookPhotoSize, ContinuityBookCharacterDto } from "@shared/schemas/
 import type { PhotoView } from "@shared/schemas/photos.js";
 import { Limits } from "@shared/constants.js";
 
-/** Longest printed photo edge per size choice: thumbnails as stored, display images scaled for print. */
-export const PRINT_PHOTO_PX: Record<BookPhotoSize, number> = { thumb: Limits.photoThumbPx, display: 800 };
+/** Longest printed photo edge per size choice: thumbnails as stored, display size at 300 dpi in the frame. */
+export const PRINT_PHOTO_PX: Record<BookPhotoSize, number> = { thumb: Limits.photoThumbPx, display: Limits.photoPrintPx };
 
 type Row = Record<string, unknown>;
 
@@ -234,8 +234,12 @@ export async function continuityBookModel(
     const scenePhotos: BookPhoto[] = photos
       .filter((p) => mineIds.has(p.owner_id))
       .flatMap((p) => {
-        // Never the original: thumbnails by default, display size when asked (scaled down for print).
-        const key = opts.photoSize === "display" ? (p.variants.display ?? p.variants.thumb) : (p.variants.thumb ?? p.variants.display);
+        // Never the original: thumbnails by default, the stored print size when asked (older photos have
+        // none and print from the display size, scaled down).
+        const key =
+          opts.photoSize === "display"
+            ? (p.variants.print ?? p.variants.display ?? p.variants.thumb)
+            : (p.variants.thumb ?? p.variants.display);
         return key ? [{ id: p.id, view: p.view, caption: p.caption, key }] : [];
       });
     const change = a.changeId ? (ctx.changes.get(a.changeId) ?? null) : null;

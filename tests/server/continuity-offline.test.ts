@@ -110,7 +110,7 @@ describe("POST /continuity with a client id", () => {
     expect(await Photo.count()).toBe(2);
     // The copy that lost removed only files no row refers to: the stored entry's files are all there.
     for (const p of a.body.data.photos as Array<{ contentHash: string }>) {
-      for (const f of ["full.jpg", "display.webp", "thumb.webp"])
+      for (const f of ["full.jpg", "display.webp", "print.jpg", "thumb.webp"])
         expect(await getStorage().exists(`photos/${p.contentHash.slice(0, 2)}/${p.contentHash}/${f}`), f).toBe(true);
     }
   });

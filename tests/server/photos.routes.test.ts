@@ -32,7 +32,7 @@ afterAll(async () => {
 async function storedKeys(storage: Storage, hashes: string[]): Promise<string[]> {
   const out: string[] = [];
   for (const h of hashes)
-    for (const f of ["full.jpg", "display.webp", "thumb.webp"]) {
+    for (const f of ["full.jpg", "display.webp", "print.jpg", "thumb.webp"]) {
       const key = `photos/${h.slice(0, 2)}/${h}/${f}`;
       if (await storage.exists(key)) out.push(key);
     }
@@ -117,6 +117,15 @@ for (const [driverName, makeStorage] of drivers) {
         const tags = await exifr.parse(body, { gps: true }).catch(() => undefined);
         expect(tags?.latitude, size).toBeUndefined();
       }
+      // The print size is not served; reports embed it as stored, so it must be as clean as the rest.
+      const hash = res.body.data.contentHash as string;
+      const print = await getStorage().get(`photos/${hash.slice(0, 2)}/${hash}/print.jpg`);
+      const printMeta = await sharp(print).metadata();
+      expect(printMeta.format).toBe("jpeg");
+      expect(printMeta.exif).toBeUndefined();
+      expect(printMeta.orientation ?? 1).toBe(1);
+      expect(printMeta.width! < printMeta.height!).toBe(true);
+      expect((await exifr.parse(print, { gps: true }).catch(() => undefined))?.latitude).toBeUndefined();
     });
 
     it("stores the same image twice only once", async () => {
@@ -130,7 +139,7 @@ for (const [driverName, makeStorage] of drivers) {
       expect(again.body.data.id).toBe(first.body.data.id);
       expect(other.status).toBe(201);
       expect(await Photo.count()).toBe(2);
-      expect(await storedKeys(getStorage(), [first.body.data.contentHash])).toHaveLength(3);
+      expect(await storedKeys(getStorage(), [first.body.data.contentHash])).toHaveLength(4);
     });
 
     it("deleting one of two records showing an image keeps the files; deleting the last removes them", async () => {
@@ -140,7 +149,7 @@ for (const [driverName, makeStorage] of drivers) {
       const hash = a.body.data.contentHash as string;
 
       await agent.delete(`/api/productions/${pid}/photos/${a.body.data.id}`).expect(204);
-      expect(await storedKeys(getStorage(), [hash])).toHaveLength(3);
+      expect(await storedKeys(getStorage(), [hash])).toHaveLength(4);
       await agent.delete(`/api/productions/${pid}/photos/${b.body.data.id}`).expect(204);
 
       expect(await storedKeys(getStorage(), [hash])).toHaveLength(0);

@@ -1,6 +1,8 @@
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import unzipper from "unzipper";
 import { createApp } from "../../server/app.js";
+import { sequelize } from "../../server/db.js";
+import { Limits } from "../../shared/constants.js";
 import { clock } from "../../server/lib/clock.js";
 import { renderSwatch } from "../../server/lib/images.js";
 import { storeImage } from "../../server/services/photos.service.js";
@@ -171,13 +173,28 @@ describe("continuity book PDF", () => {
     expect(s3.indexOf("Left side")).toBeLessThan(s3.indexOf("Detail"));
   });
 
-  it("uses display-size images (at most 800 px) when asked, still never the originals", async () => {
+  it("uses display-size images (the stored print size, at most 660 px) when asked, still never the originals", async () => {
     const res = await getPdf(agent, `${base()}/continuity/${ids.wren}.pdf?photos=display`);
 
     const images = await pdfImageList(binary(res));
     expect(images).toHaveLength(5);
     for (const im of images) {
-      expect(Math.max(im.width, im.height)).toBeLessThanOrEqual(800);
+      expect(Math.max(im.width, im.height)).toBeLessThanOrEqual(Limits.photoPrintPx);
+      expect(Math.max(im.width, im.height)).toBeGreaterThan(320);
+    }
+  });
+
+  it("prints photos stored before the print size existed from their display size, scaled down to it", async () => {
+    await sequelize.query(`UPDATE photos SET variants = variants - 'print' WHERE production_id = :pid`, {
+      replacements: { pid: production.id },
+    });
+
+    const res = await getPdf(agent, `${base()}/continuity/${ids.wren}.pdf?photos=display`);
+
+    const images = await pdfImageList(binary(res));
+    expect(images).toHaveLength(5);
+    for (const im of images) {
+      expect(Math.max(im.width, im.height)).toBeLessThanOrEqual(Limits.photoPrintPx);
       expect(Math.max(im.width, im.height)).toBeGreaterThan(320);
     }
   });

@@ -8,6 +8,9 @@ import { dropDatabase, ensureDatabase, ensureLocalPostgres, type DatabaseAdmin }
 
 export const tsxCli = path.resolve("node_modules/tsx/dist/cli.mjs");
 
+/** Production mode refuses the public development secret, for the seed as for the server. */
+const BENCH_SESSION_SECRET = "bench-session-secret-0123456789abcdef";
+
 export function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
     const s = net.createServer();
@@ -44,7 +47,14 @@ export async function freshDatabase(name: string): Promise<string> {
 /** Runs `npm run seed` (migrations and the demo, plus `extraArgs`) against a database; throws on failure. */
 export function seedDatabase(databaseUrl: string, extraArgs: string[] = [], env: NodeJS.ProcessEnv = {}): string {
   const res = spawnSync(process.execPath, [tsxCli, "scripts/seed.ts", ...extraArgs], {
-    env: { ...process.env, ...env, DATABASE_URL: databaseUrl, NODE_ENV: "production", LOG_LEVEL: "warn" },
+    env: {
+      ...process.env,
+      SESSION_SECRET: BENCH_SESSION_SECRET,
+      ...env,
+      DATABASE_URL: databaseUrl,
+      NODE_ENV: "production",
+      LOG_LEVEL: "warn",
+    },
     encoding: "utf8",
   });
   if (res.status !== 0) throw new Error(`Seeding failed:\n${res.stdout}\n${res.stderr}`);
@@ -131,7 +141,7 @@ export async function startSeamscene(opts: {
     DATABASE_URL: opts.databaseUrl,
     PORT: String(port),
     APP_URL: `http://127.0.0.1:${port}`,
-    SESSION_SECRET: "bench-session-secret-0123456789abcdef",
+    SESSION_SECRET: BENCH_SESSION_SECRET,
     JOBS_ENABLED: "false",
     LOG_LEVEL: "info",
     STORAGE_DIR: ".data/bench-storage",
