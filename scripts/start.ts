@@ -2,29 +2,9 @@
  * `npm start`: starts PostgreSQL and the SMTP fake when needed, builds the client when it is
  * missing or older than its sources, migrates, loads the demo data into an empty database, serves.
  */
-import fs from "node:fs";
-import path from "node:path";
-import { execFileSync } from "node:child_process";
+import { buildClientIfStale } from "./lib/client-build.js";
 import { prepareLocalEnv } from "./lib/local-env.js";
 import { startBanner } from "./lib/banner.js";
-
-function newestMtime(p: string): number {
-  if (!fs.existsSync(p)) return 0;
-  const st = fs.statSync(p);
-  if (!st.isDirectory()) return st.mtimeMs;
-  let max = st.mtimeMs;
-  for (const e of fs.readdirSync(p)) max = Math.max(max, newestMtime(path.join(p, e)));
-  return max;
-}
-
-function buildClientIfStale(): void {
-  const built = path.resolve("dist/index.html");
-  const builtAt = fs.existsSync(built) ? fs.statSync(built).mtimeMs : 0;
-  const sourcesAt = Math.max(...["src", "shared", "index.html", "vite.config.ts", "package.json"].map((p) => newestMtime(path.resolve(p))));
-  if (builtAt >= sourcesAt) return;
-  console.log("Building the client…");
-  execFileSync(process.execPath, [path.resolve("node_modules/vite/bin/vite.js"), "build", "--logLevel", "warn"], { stdio: "inherit" });
-}
 
 async function main() {
   const local = await prepareLocalEnv();

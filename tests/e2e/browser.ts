@@ -1,23 +1,10 @@
 /** Debian's Chromium through playwright-core (never a browser download). */
 import { afterAll, beforeAll } from "vitest";
-import { chromium, type Browser, type Page } from "playwright-core";
+import type { Browser, Page } from "playwright-core";
+import { launchBrowser } from "../../scripts/lib/chromium.js";
 import { DEMO_PASSWORD } from "../../seeds/accounts.js";
 
-export async function launchBrowser(): Promise<Browser> {
-  return chromium.launch({
-    executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
-    headless: true,
-    args: [
-      "--no-sandbox",
-      "--disable-gpu",
-      "--disable-background-networking",
-      "--disable-component-update",
-      "--disable-sync",
-      "--no-first-run",
-      "--disable-dev-shm-usage",
-    ],
-  });
-}
+export { launchBrowser };
 
 /** Signs in through the form as a demo account. */
 export async function signIn(page: Page, baseUrl: string, email: string): Promise<void> {
