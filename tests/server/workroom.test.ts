@@ -425,6 +425,37 @@ describe("evening reminders", () => {
     expect(await WorkroomEmailJob.count({ where: { kind: "evening_reminder" } })).toBe(1);
   });
 
+  it("sends each reminder once when two servers run the evening job at the same moment", async () => {
+    const { production, user } = await setup({ reminderHour: 18 });
+    const performerId = await buildPerformer(production.id, { name: "Wynn Example" });
+    const { Fitting } = await import("../../server/models/index.js");
+    await Fitting.create({
+      productionId: production.id,
+      performerId,
+      changeId: null,
+      startsAt: new Date("2030-09-04T10:00:00Z"),
+      durationMinutes: 30,
+      room: "Room 2",
+      attendeeIds: [user.id],
+      notes: null,
+      icsUid: "twice@x",
+      createdBy: null,
+    });
+
+    // Each server's scheduler fires at 18:05 in the department's zone; the job queue and the reminder
+    // rows are shared through the one database, so the race is decided there.
+    const now = new Date("2030-09-03T17:05:00Z");
+    await Promise.all([
+      sendEveningReminders({ now, productionId: production.id }),
+      sendEveningReminders({ now, productionId: production.id }),
+    ]);
+
+    await waitForMail((m) => m.recipients.includes(user.email) && m.subject.startsWith("Tomorrow in the workroom"));
+    expect(await WorkroomEmailJob.count({ where: { kind: "evening_reminder" } })).toBe(1);
+    const mails = await OutboxMessage.findAll();
+    expect(mails.filter((m) => m.recipients.includes(user.email) && m.subject.startsWith("Tomorrow in the workroom"))).toHaveLength(1);
+  });
+
   it("sends nothing outside the production's reminder hour", async () => {
     const { production } = await setup({ reminderHour: 18 });
 
