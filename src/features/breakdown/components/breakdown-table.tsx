@@ -30,7 +30,7 @@ const equalsValue: FilterFn<SceneRowDto> = (row, id, value: string) => String(ro
 
 function buildColumns(stage: boolean, sceneHref: (id: string) => string) {
   return [
-    col.accessor("storyOrder", { header: stage ? "Running order" : "Story order", size: 70 }),
+    col.accessor("storyOrder", { header: stage ? "Running order" : "Story order", size: 130 }),
     col.accessor("number", {
       header: "Scene",
       sortingFn: (a, b) => compareSceneNumbers(a.original.number, b.original.number),
@@ -39,25 +39,25 @@ function buildColumns(stage: boolean, sceneHref: (id: string) => string) {
           {c.getValue()}
         </Link>
       ),
-      size: 70,
+      size: 80,
     }),
     col.accessor("setName", { header: "Set", filterFn: equalsValue, size: 200 }),
     col.accessor("intExt", { header: "I/E", size: 70 }),
     col.accessor("timeOfDay", { header: "Time", size: 80 }),
-    col.accessor("storyDay", { header: "Story day", filterFn: equalsValue, size: 70 }),
+    col.accessor("storyDay", { header: "Story day", filterFn: equalsValue, size: 95 }),
     stage
-      ? col.accessor("runningMinutes", { header: "Minutes", cell: (c) => c.getValue() ?? "", size: 70 })
+      ? col.accessor("runningMinutes", { header: "Minutes", cell: (c) => c.getValue() ?? "", size: 85 })
       : col.accessor("lengthEighths", {
           header: "Pages",
           cell: (c) => (c.getValue() == null ? "" : formatEighths(c.getValue()!)),
-          size: 70,
+          size: 85,
         }),
     col.accessor((r) => r.shootDays.map((d) => d.dayNumber).join(", "), {
       id: "shootDays",
       header: stage ? scheduleLabels("stage").Days : scheduleLabels("film").Day,
       filterFn: hasShootDay,
       sortingFn: (a, b) => (a.original.shootDays[0]?.dayNumber ?? 1e9) - (b.original.shootDays[0]?.dayNumber ?? 1e9),
-      size: 90,
+      size: 105,
     }),
     col.accessor((r) => r.characters.map((c) => `${c.name}${c.changeNumber ? ` (${c.changeNumber})` : ""}`).join(", "), {
       id: "characters",
@@ -192,7 +192,8 @@ export function BreakdownTable({
         {rows.length} of {scenes.length} scenes
       </p>
       <div ref={scrollRef} className="max-h-[70vh] overflow-auto rounded border border-chalk-200 bg-white">
-        <table className="w-full border-collapse text-sm" aria-label="Breakdown">
+        {/* Fixed layout: column widths come from the header, so scrolling new rows in never re-measures the table. */}
+        <table className="w-full table-fixed border-collapse text-sm" aria-label="Breakdown">
           <thead className="sticky top-0 z-10 bg-ink-50">
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
@@ -201,7 +202,7 @@ export function BreakdownTable({
                     key={h.id}
                     scope="col"
                     className="border-b border-chalk-200 px-2 py-2 text-left font-semibold whitespace-nowrap text-ink"
-                    style={{ minWidth: h.getSize() }}
+                    style={{ width: h.getSize() }}
                     aria-sort={h.column.getIsSorted() === "asc" ? "ascending" : h.column.getIsSorted() === "desc" ? "descending" : "none"}
                   >
                     <SortHeader header={h} />
