@@ -392,6 +392,23 @@ describe("failed sends are recorded and visible to supervisors", () => {
 });
 
 describe("evening reminders", () => {
+  /** A 30-minute fitting at 11:00 London time on Wed 4 Sep 2030, attended by one person. */
+  async function fittingAt11(productionId: string, performerId: string, attendeeId: string, room: string) {
+    const { Fitting } = await import("../../server/models/index.js");
+    await Fitting.create({
+      productionId,
+      performerId,
+      changeId: null,
+      startsAt: new Date("2030-09-04T10:00:00Z"),
+      durationMinutes: 30,
+      room,
+      attendeeIds: [attendeeId],
+      notes: null,
+      icsUid: `${room}@x`,
+      createdBy: null,
+    });
+  }
+
   it("each person gets tomorrow's fittings they attend and the tickets planned for them that are due tomorrow", async () => {
     const { production, actor, user } = await setup({ bufferWorkingDays: 1, reminderHour: 18 });
     await WorkroomCapacity.create({ productionId: production.id, userId: user.id, hoursPerWeekday: fullWeek, daysOff: [] });
@@ -399,19 +416,7 @@ describe("evening reminders", () => {
     const garmentId = await buildGarment(production.id, { tagCode: "R-1", name: "Reefer coat" });
     await buildChangeOnDays(production.id, { garmentIds: [garmentId], dates: ["2030-09-05"] }); // Thu → due Wed
     await raiseOn("2030-09-02", actor, { garmentId, tasks: [take], estimateHours: 3, assigneeId: user.id });
-    const { Fitting } = await import("../../server/models/index.js");
-    await Fitting.create({
-      productionId: production.id,
-      performerId,
-      changeId: null,
-      startsAt: new Date("2030-09-04T10:00:00Z"),
-      durationMinutes: 30,
-      room: "Room 1",
-      attendeeIds: [user.id],
-      notes: null,
-      icsUid: "t@x",
-      createdBy: null,
-    });
+    await fittingAt11(production.id, performerId, user.id, "Room 1");
 
     // Tue 3 Sep 2030, 18:00 in the department's zone (Europe/London is UTC+1 in September).
     const queued = await sendEveningReminders({ now: new Date("2030-09-03T17:05:00Z"), productionId: production.id });
@@ -428,19 +433,7 @@ describe("evening reminders", () => {
   it("sends each reminder once when two servers run the evening job at the same moment", async () => {
     const { production, user } = await setup({ reminderHour: 18 });
     const performerId = await buildPerformer(production.id, { name: "Wynn Example" });
-    const { Fitting } = await import("../../server/models/index.js");
-    await Fitting.create({
-      productionId: production.id,
-      performerId,
-      changeId: null,
-      startsAt: new Date("2030-09-04T10:00:00Z"),
-      durationMinutes: 30,
-      room: "Room 2",
-      attendeeIds: [user.id],
-      notes: null,
-      icsUid: "twice@x",
-      createdBy: null,
-    });
+    await fittingAt11(production.id, performerId, user.id, "Room 2");
 
     // Each server's scheduler fires at 18:05 in the department's zone; the job queue and the reminder
     // rows are shared through the one database, so the race is decided there.
