@@ -44,6 +44,11 @@ export async function freshDatabase(name: string): Promise<string> {
   return ensureDatabase(admin, name);
 }
 
+/** Each bench database keeps its photos apart: a server's start-up sweep removes files its own database does not know. */
+function storageDirFor(databaseUrl: string): string {
+  return path.join(".data/bench-storage", new URL(databaseUrl).pathname.replace(/^\//, ""));
+}
+
 /** Runs `npm run seed` (migrations and the demo, plus `extraArgs`) against a database; throws on failure. */
 export function seedDatabase(databaseUrl: string, extraArgs: string[] = [], env: NodeJS.ProcessEnv = {}): string {
   const res = spawnSync(process.execPath, [tsxCli, "scripts/seed.ts", ...extraArgs], {
@@ -144,7 +149,7 @@ export async function startSeamscene(opts: {
     SESSION_SECRET: BENCH_SESSION_SECRET,
     JOBS_ENABLED: "false",
     LOG_LEVEL: "info",
-    STORAGE_DIR: ".data/bench-storage",
+    STORAGE_DIR: storageDirFor(opts.databaseUrl),
     ...opts.env,
   };
   const child = spawn(process.execPath, [...(opts.nodeArgs ?? []), "--import", "tsx", "server/index.ts"], {
