@@ -55,6 +55,7 @@ export function seedDatabase(databaseUrl: string, extraArgs: string[] = [], env:
     env: {
       ...process.env,
       SESSION_SECRET: BENCH_SESSION_SECRET,
+      STORAGE_DIR: storageDirFor(databaseUrl),
       ...env,
       DATABASE_URL: databaseUrl,
       NODE_ENV: "production",
